@@ -1,0 +1,31 @@
+package org.lanesift.chain;
+
+/**
+ * A stage threw while the chain ran. The message names the instance, the plugin and what it was
+ * doing; the cause is the stage's own exception.
+ */
+public final class StageFailure extends ChainException {
+    private static final long serialVersionUID = 1L;
+    private final String instanceId;
+
+    /**
+     * Creates the failure.
+     *
+     * @param instanceId the failing instance
+     * @param message    what failed
+     * @param cause      the stage's exception
+     */
+    public StageFailure(String instanceId, String message, Throwable cause) {
+        super(message, null, cause);
+        this.instanceId = instanceId;
+    }
+
+    /**
+     * The failing instance.
+     *
+     * @return instance id
+     */
+    public String instanceId() {
+        return instanceId;
+    }
+}

@@ -1,0 +1,91 @@
+package org.lanesift.data;
+
+import java.util.Objects;
+
+/**
+ * Bits sampled from one data lane, each with the time it was taken and its timing margins.
+ *
+ * <p>Bit {@code i} (0 &le; i &lt; {@code count}) has value {@code BitSets.get(values, i)}, was
+ * sampled at {@code timesFs[i]}, belongs to clock edge number {@code clockEdge[i]} counted from the
+ * start of the capture (the same number on every lane sampled against one clock, so lanes can be
+ * merged), was taken on a falling clock edge if {@code BitSets.get(falling, i)}, and sits in bit
+ * slot {@code slot[i]} of that edge's period (always 0 for one bit per edge; 0..6 for 7:1 links).
+ * {@code setupFs[i]} is the time from the last data transition to the sample point, and
+ * {@code holdFs[i]} the time from the sample point to the next transition; {@link #UNKNOWN_MARGIN}
+ * when there was no transition within reach. Bits whose margin fell below the sampler's threshold,
+ * or that were taken in an unknown span, are set in {@code flagged}.
+ *
+ * @param channel   lane name
+ * @param startFs   start of the covered span
+ * @param endFs     end of the covered span, exclusive
+ * @param count     number of bits
+ * @param values    packed bit values
+ * @param timesFs   sample times
+ * @param clockEdge clock edge index of each bit
+ * @param falling   packed flags: taken on a falling clock edge
+ * @param slot      bit slot within the clock period, or null when every bit is slot 0
+ * @param setupFs   setup margin of each bit
+ * @param holdFs    hold margin of each bit
+ * @param flagged   packed flags: margin below threshold or otherwise suspect
+ * @param unitIntervalFs the unit interval the margins refer to (femtoseconds)
+ */
+public record BitStream(String channel, long startFs, long endFs, int count, long[] values, long[] timesFs,
+                        long[] clockEdge, long[] falling, byte[] slot, long[] setupFs, long[] holdFs, long[] flagged,
+                        double unitIntervalFs) implements Block {
+
+    /** Margin value meaning "no transition within reach". */
+    public static final long UNKNOWN_MARGIN = Long.MAX_VALUE;
+
+    /** Checks array sizes. */
+    public BitStream {
+        Objects.requireNonNull(channel, "channel");
+        int w = BitSets.words(count);
+        if (count < 0 || values.length < w || timesFs.length < count || clockEdge.length < count || falling.length < w
+                || (slot != null && slot.length < count) || setupFs.length < count || holdFs.length < count || flagged.length < w) {
+            throw new IllegalArgumentException("bit stream '" + channel + "': arrays do not hold " + count + " bits");
+        }
+        if (endFs < startFs) {
+            throw new IllegalArgumentException("bit stream '" + channel + "': end before start");
+        }
+    }
+
+    /**
+     * Value of bit {@code i}.
+     *
+     * @param i bit index
+     * @return the bit
+     */
+    public boolean bit(int i) {
+        return BitSets.get(values, i);
+    }
+
+    /**
+     * Whether bit {@code i} was flagged.
+     *
+     * @param i bit index
+     * @return true if suspect
+     */
+    public boolean isFlagged(int i) {
+        return BitSets.get(flagged, i);
+    }
+
+    /**
+     * Slot of bit {@code i} within its clock period.
+     *
+     * @param i bit index
+     * @return 0 when the stream has one bit per clock edge
+     */
+    public int slotOf(int i) {
+        return slot == null ? 0 : slot[i];
+    }
+
+    @Override
+    public DataKind kind() {
+        return DataKind.BITS;
+    }
+
+    @Override
+    public String toString() {
+        return "BitStream[" + channel + ", " + count + " bits]";
+    }
+}

@@ -1,0 +1,127 @@
+package org.lanesift.data;
+
+import java.util.Objects;
+
+/**
+ * One logic signal over the span {@code [startFs, endFs)} as an initial level plus the sorted
+ * times at which it toggles, in femtoseconds. This is the form timing-critical plugins work on:
+ * an interpolated threshold crossing keeps its sub-sample time exactly.
+ *
+ * <p>The level at time {@code t} is {@code initialLevel} toggled once for every transition time
+ * {@code <= t}. Transition times lie in {@code [startFs, endFs)} and never decrease. Spans where
+ * the signal is unknown (clipped, missing, x/z) are listed in {@code invalidSpans} as pairs
+ * {@code [start, end)}; no transition inside them is trustworthy and producers emit none there.
+ *
+ * @param channel      channel name
+ * @param startFs      start of the covered span
+ * @param endFs        end of the covered span, exclusive
+ * @param initialLevel level at {@code startFs}
+ * @param timesFs      transition times; at least {@code count} long
+ * @param count        number of transitions
+ * @param invalidSpans pairs of start/end times of unknown spans, or null; at least {@code 2 * invalidCount} long
+ * @param invalidCount number of unknown spans
+ */
+public record Edges(String channel, long startFs, long endFs, boolean initialLevel, long[] timesFs, int count,
+                    long[] invalidSpans, int invalidCount) implements Block {
+
+    private static final long[] NONE = new long[0];
+
+    /** Checks the invariants, naming the channel and the first offending index. */
+    public Edges {
+        Objects.requireNonNull(channel, "channel");
+        if (timesFs == null) {
+            throw new IllegalArgumentException("edge list '" + channel + "': transition times missing (null)");
+        }
+        if (endFs < startFs) {
+            throw new IllegalArgumentException("edge list '" + channel + "': end " + endFs + " fs before start " + startFs + " fs");
+        }
+        if (count < 0 || count > timesFs.length) {
+            throw new IllegalArgumentException("edge list '" + channel + "': count " + count + " outside 0.." + timesFs.length);
+        }
+        long prev = startFs;
+        for (int i = 0; i < count; i++) {
+            long t = timesFs[i];
+            if (t < prev) {
+                throw new IllegalArgumentException("edge list '" + channel + "': transition " + i + " at " + t
+                        + " fs is " + (i == 0 ? "before the start " : "earlier than the one before it, ") + prev + " fs (expected sorted times inside the span)");
+            }
+            prev = t;
+        }
+        if (count > 0 && timesFs[count - 1] >= endFs) {
+            throw new IllegalArgumentException("edge list '" + channel + "': last transition at " + timesFs[count - 1]
+                    + " fs is not before the end of the span " + endFs + " fs");
+        }
+        if (invalidSpans == null) {
+            invalidSpans = NONE;
+            if (invalidCount != 0) {
+                throw new IllegalArgumentException("edge list '" + channel + "': invalid span count without spans");
+            }
+        }
+        if (invalidCount < 0 || 2 * invalidCount > invalidSpans.length) {
+            throw new IllegalArgumentException("edge list '" + channel + "': invalid span count " + invalidCount + " does not fit the array");
+        }
+        for (int i = 0; i < invalidCount; i++) {
+            if (invalidSpans[2 * i + 1] < invalidSpans[2 * i]) {
+                throw new IllegalArgumentException("edge list '" + channel + "': unknown span " + i + " ends before it starts");
+            }
+        }
+    }
+
+    /**
+     * An edge list with no unknown spans.
+     *
+     * @param channel      channel name
+     * @param startFs      span start
+     * @param endFs        span end, exclusive
+     * @param initialLevel level at the start
+     * @param timesFs      sorted transition times, all used
+     * @return the edge list
+     */
+    public static Edges of(String channel, long startFs, long endFs, boolean initialLevel, long... timesFs) {
+        return new Edges(channel, startFs, endFs, initialLevel, timesFs, timesFs.length, null, 0);
+    }
+
+    /**
+     * The level after all transitions of this block, i.e. at {@code endFs}.
+     *
+     * @return the final level
+     */
+    public boolean finalLevel() {
+        return initialLevel ^ ((count & 1) != 0);
+    }
+
+    /**
+     * The level just after transition {@code i} (0-based).
+     *
+     * @param i transition index
+     * @return level after it
+     */
+    public boolean levelAfter(int i) {
+        return initialLevel ^ ((i & 1) == 0);
+    }
+
+    /**
+     * Whether time {@code t} falls in an unknown span.
+     *
+     * @param t femtoseconds
+     * @return true if unknown
+     */
+    public boolean isUnknownAt(long t) {
+        for (int i = 0; i < invalidCount; i++) {
+            if (t >= invalidSpans[2 * i] && t < invalidSpans[2 * i + 1]) {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    @Override
+    public DataKind kind() {
+        return DataKind.EDGES;
+    }
+
+    @Override
+    public String toString() {
+        return "Edges[" + channel + ", " + count + " transitions, " + invalidCount + " unknown spans]";
+    }
+}

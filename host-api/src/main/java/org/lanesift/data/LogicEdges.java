@@ -1,0 +1,181 @@
+package org.lanesift.data;
+
+/**
+ * Conversions between bit-packed logic samples and edge lists, a 64-bit word at a time.
+ *
+ * <p><b>Time convention.</b> A logic analyser only knows that a signal changed somewhere between
+ * two samples, so the transition between sample {@code j-1} and sample {@code j} is placed at
+ * their midpoint, {@code startFs + (j - 0.5) * periodFs}, the unbiased estimate. The edge list
+ * made from a logic block therefore covers {@code [startFs - periodFs/2, endFs - periodFs/2)},
+ * and consecutive blocks give contiguous edge spans. Turning the edges back into samples at the
+ * same times ({@link #toLogic}) gives exactly the original bits.
+ *
+ * <p>A transition touching an unknown sample is not reported; each run of unknown samples becomes
+ * an unknown span from half a sample before its first to half a sample after its last sample.
+ *
+ * <p>Use one instance per channel: it carries the last level across block boundaries, so a
+ * transition between two blocks is not lost. Instances are not thread-safe.
+ */
+public final class LogicEdges {
+    private boolean havePrevious;
+    private boolean previousLevel;
+    private boolean previousInvalid;
+
+    /** Creates a converter with no history. */
+    public LogicEdges() {
+    }
+
+    /** Forgets the previous block, as after a gap in the capture. */
+    public void reset() {
+        havePrevious = false;
+    }
+
+    /**
+     * Converts the next block of a channel to an edge list.
+     *
+     * @param b the block; must follow the previous one of this converter in time
+     * @return the transitions of this block, including one between the previous block and this one
+     */
+    public Edges toEdges(LogicBlock b) {
+        final int n = b.length();
+        final long[] bits = b.bits();
+        final long[] inv = b.invalid();
+        final double p = b.periodFs();
+        final long origin = b.startFs();
+        final long spanStart = origin - Math.round(p * 0.5);
+        final long spanEnd = origin + Math.round((n - 0.5) * p);
+        if (n == 0) {
+            return new Edges(b.channel(), spanStart, Math.max(spanStart, spanEnd), previousLevel, new long[0], 0, null, 0);
+        }
+        final int words = BitSets.words(n);
+        final boolean first = bits[0] != 0 && (bits[0] & 1L) != 0;
+        final boolean carryStart = havePrevious ? previousLevel : first;
+        final boolean invCarryStart = havePrevious ? previousInvalid : (inv != null && (inv[0] & 1L) != 0);
+        // pass 1: count transitions
+        int total = 0;
+        long carry = carryStart ? 1L : 0L;
+        long invCarry = invCarryStart ? 1L : 0L;
+        for (int w = 0; w < words; w++) {
+            long x = bits[w];
+            long lastMask = (w == words - 1 && (n & 63) != 0) ? (1L << n) - 1 : -1L;
+            long diff = (x ^ ((x << 1) | carry)) & lastMask;
+            if (inv != null) {
+                long iv = inv[w];
+                diff &= ~(iv | (iv << 1) | invCarry);
+                invCarry = iv >>> 63;
+            }
+            total += Long.bitCount(diff);
+            carry = x >>> 63;
+        }
+        long[] times = new long[total];
+        int k = 0;
+        carry = carryStart ? 1L : 0L;
+        invCarry = invCarryStart ? 1L : 0L;
+        for (int w = 0; w < words; w++) {
+            long x = bits[w];
+            long lastMask = (w == words - 1 && (n & 63) != 0) ? (1L << n) - 1 : -1L;
+            long diff = (x ^ ((x << 1) | carry)) & lastMask;
+            if (inv != null) {
+                long iv = inv[w];
+                diff &= ~(iv | (iv << 1) | invCarry);
+                invCarry = iv >>> 63;
+            }
+            carry = x >>> 63;
+            final double base = ((long) w << 6) - 0.5;
+            while (diff != 0) {
+                int j = Long.numberOfTrailingZeros(diff);
+                times[k++] = origin + Math.round((base + j) * p);
+                diff &= diff - 1;
+            }
+        }
+        long[] spans = null;
+        int spanCount = 0;
+        if (inv != null && BitSets.count(inv, n) > 0) {
+            spans = new long[8];
+            int i = 0;
+            while (i < n) {
+                if (!BitSets.get(inv, i)) {
+                    i++;
+                    continue;
+                }
+                int s = i;
+                while (i < n && BitSets.get(inv, i)) {
+                    i++;
+                }
+                if (2 * spanCount + 2 > spans.length) {
+                    spans = java.util.Arrays.copyOf(spans, spans.length * 2);
+                }
+                spans[2 * spanCount] = Math.max(spanStart, origin + Math.round((s - 0.5) * p));
+                spans[2 * spanCount + 1] = Math.min(spanEnd, origin + Math.round((i - 0.5) * p));
+                spanCount++;
+            }
+        }
+        boolean initial = carryStart;
+        havePrevious = true;
+        previousLevel = b.get(n - 1);
+        previousInvalid = inv != null && BitSets.get(inv, n - 1);
+        return new Edges(b.channel(), spanStart, spanEnd, initial, times, total, spans, spanCount);
+    }
+
+    /**
+     * Converts one logic block on its own (no history).
+     *
+     * @param b the block
+     * @return its edges
+     */
+    public static Edges edgesOf(LogicBlock b) {
+        return new LogicEdges().toEdges(b);
+    }
+
+    /**
+     * Samples an edge list at uniformly spaced times: sample {@code i} is taken at
+     * {@code startFs + i * periodFs} and has the level after every transition at or before that
+     * time. Samples inside an unknown span are marked invalid. Samples outside the edge list's span
+     * take the nearest known level (the initial level before it, the final level after it).
+     *
+     * @param e        the edges
+     * @param startFs  time of sample 0
+     * @param periodFs sample period
+     * @param length   number of samples
+     * @return the sampled block, capture index 0
+     */
+    public static LogicBlock toLogic(Edges e, long startFs, double periodFs, int length) {
+        long[] bits = new long[BitSets.words(length)];
+        boolean level = e.initialLevel();
+        int cur = 0;
+        long[] t = e.timesFs();
+        for (int k = 0; k < e.count() && cur < length; k++) {
+            double rel = (t[k] - startFs) / periodFs;
+            int idx = rel <= 0 ? 0 : (int) Math.min(length, Math.ceil(rel));
+            // guard against rounding: the sample time must be >= the edge time
+            while (idx < length && startFs + Math.round(idx * periodFs) < t[k]) {
+                idx++;
+            }
+            while (idx > cur && idx > 0 && startFs + Math.round((idx - 1) * periodFs) >= t[k]) {
+                idx--;
+            }
+            if (level) {
+                BitSets.setRange(bits, cur, idx);
+            }
+            cur = Math.max(cur, idx);
+            level = !level;
+        }
+        if (level) {
+            BitSets.setRange(bits, cur, length);
+        }
+        long[] inv = null;
+        for (int s = 0; s < e.invalidCount(); s++) {
+            long a = e.invalidSpans()[2 * s];
+            long z = e.invalidSpans()[2 * s + 1];
+            int from = (int) Math.max(0, Math.min(length, Math.ceil((a - startFs) / periodFs)));
+            int to = (int) Math.max(0, Math.min(length, Math.ceil((z - startFs) / periodFs)));
+            if (to > from) {
+                if (inv == null) {
+                    inv = new long[BitSets.words(length)];
+                }
+                BitSets.setRange(inv, from, to);
+            }
+        }
+        return new LogicBlock(e.channel(), 0, startFs, periodFs, bits, length, inv);
+    }
+}

@@ -1,0 +1,30 @@
+package org.lanesift.plugin;
+
+/**
+ * An option value that is missing, of the wrong type or out of range. The message names the
+ * plugin, the option and what is allowed.
+ */
+public class OptionException extends RuntimeException {
+    private static final long serialVersionUID = 1L;
+    private final String option;
+
+    /**
+     * Creates the exception.
+     *
+     * @param option  option name
+     * @param message full message naming plugin, option and allowed values
+     */
+    public OptionException(String option, String message) {
+        super(message);
+        this.option = option;
+    }
+
+    /**
+     * The offending option's name.
+     *
+     * @return option name
+     */
+    public String option() {
+        return option;
+    }
+}

@@ -1,0 +1,95 @@
+package org.lanesift.plugin;
+
+import java.util.List;
+import org.lanesift.annotation.Annotation;
+import org.lanesift.data.Block;
+
+/**
+ * What the engine gives a stage: its instance id, validated options, resolved ports, and the
+ * means to emit blocks and annotations and to report progress.
+ */
+public interface StageContext {
+    /**
+     * The instance id in the chain, such as {@code "diff0"}.
+     *
+     * @return the id
+     */
+    String instanceId();
+
+    /**
+     * The validated options.
+     *
+     * @return options
+     */
+    OptionValues options();
+
+    /**
+     * Input ports, as resolved for these options.
+     *
+     * @return ports
+     */
+    List<PortSpec> inputs();
+
+    /**
+     * Output ports, as resolved for these options.
+     *
+     * @return ports
+     */
+    List<PortSpec> outputs();
+
+    /**
+     * Whether an output is connected to anything (a wire, a tap or a host sink). A stage may skip
+     * work for unconnected outputs.
+     *
+     * @param output output index
+     * @return true if someone receives it
+     */
+    boolean isConnected(int output);
+
+    /**
+     * Sends a block downstream. Downstream stages run before this call returns.
+     *
+     * @param output output index
+     * @param block  block of the output's kind
+     */
+    void emit(int output, Block block);
+
+    /**
+     * Sends a block by output name.
+     *
+     * @param output output name
+     * @param block  block
+     */
+    default void emit(String output, Block block) {
+        List<PortSpec> outs = outputs();
+        for (int i = 0; i < outs.size(); i++) {
+            if (outs.get(i).name().equals(output)) {
+                emit(i, block);
+                return;
+            }
+        }
+        throw new IllegalArgumentException("stage '" + instanceId() + "' has no output '" + output + "'");
+    }
+
+    /**
+     * Publishes an annotation.
+     *
+     * @param a the annotation
+     */
+    void annotate(Annotation a);
+
+    /**
+     * For sources: reports progress in samples.
+     *
+     * @param done  samples produced so far
+     * @param total total samples, or -1 when unknown (live)
+     */
+    void progress(long done, long total);
+
+    /**
+     * Whether the host asked the chain to stop; long loops should check it.
+     *
+     * @return true once cancelled
+     */
+    boolean isCancelled();
+}
