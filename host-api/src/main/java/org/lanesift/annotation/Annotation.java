@@ -20,7 +20,17 @@ import java.util.Objects;
 public record Annotation(long startFs, long endFs, String track, String kind, String label, Severity severity,
                          Map<String, Field> fields) {
 
-    /** Checks the fields. */
+    /**
+     * Checks the fields.
+     *
+     * @param startFs start of the span, femtoseconds
+     * @param endFs end of the span (equal to start for an instant)
+     * @param track the row it belongs on, such as {@code "lane0.bits"} or {@code "levels"}
+     * @param kind a stable machine name of what it is, such as {@code "packet"}, {@code "margin-low"}
+     * @param label a short human text, a few words
+     * @param severity how much it matters
+     * @param fields typed values, in insertion order (unmodifiable)
+     */
     public Annotation {
         Objects.requireNonNull(track, "track");
         Objects.requireNonNull(kind, "kind");

@@ -26,7 +26,13 @@ public record Field(Type type, Object value, String unit) {
         BYTES
     }
 
-    /** Checks the value matches the type. */
+    /**
+     * Checks the value matches the type.
+     *
+     * @param type what the value is
+     * @param value a {@link Double} or {@link Long} for {@link Type#NUMBER}, a {@link String} for {@link Type#TEXT} and {@link Type#ENUM}, a {@code byte[]} for {@link Type#BYTES}
+     * @param unit SI unit symbol of a number ("V", "s", "Hz", "%", "px"), or "" when it has none
+     */
     public Field {
         Objects.requireNonNull(type, "type");
         Objects.requireNonNull(value, "value");

@@ -6,7 +6,9 @@ package org.lanesift.chain;
  * ({@link #pointer()}, a JSON pointer such as {@code /wires/2/to}) and what was expected.
  */
 public class ChainException extends RuntimeException {
+    /** Serialization version. */
     private static final long serialVersionUID = 1L;
+    /** Where in the chain model the problem is, or null. */
     private final String pointer;
 
     /**

@@ -14,7 +14,12 @@ import java.util.Map;
  */
 public record ChainSpec(List<Node> nodes, List<Wire> wires) {
 
-    /** Copies the lists. */
+    /**
+     * Copies the lists.
+     *
+     * @param nodes plugin instances
+     * @param wires connections
+     */
     public ChainSpec {
         nodes = nodes == null ? List.of() : List.copyOf(nodes);
         wires = wires == null ? List.of() : List.copyOf(wires);
@@ -28,7 +33,13 @@ public record ChainSpec(List<Node> nodes, List<Wire> wires) {
      * @param options raw option values (strings, numbers, booleans, lists)
      */
     public record Node(String id, String plugin, Map<String, Object> options) {
-        /** Copies the options. */
+        /**
+         * Copies the options.
+         *
+         * @param id instance id, unique in the chain
+         * @param plugin plugin id
+         * @param options raw option values (strings, numbers, booleans, lists)
+         */
         public Node {
             options = options == null ? Map.of() : Map.copyOf(options);
         }

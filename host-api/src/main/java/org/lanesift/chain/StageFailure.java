@@ -5,7 +5,9 @@ package org.lanesift.chain;
  * doing; the cause is the stage's own exception.
  */
 public final class StageFailure extends ChainException {
+    /** Serialization version. */
     private static final long serialVersionUID = 1L;
+    /** The failing instance. */
     private final String instanceId;
 
     /**

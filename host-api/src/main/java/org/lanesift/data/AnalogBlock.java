@@ -22,7 +22,17 @@ import java.util.Objects;
 public record AnalogBlock(String channel, long firstIndex, long startFs, double periodFs, float[] volts, int length,
                           long[] invalid) implements Block {
 
-    /** Checks the invariants. */
+    /**
+     * Checks the invariants.
+     *
+     * @param channel channel name
+     * @param firstIndex index of sample 0 within the whole capture
+     * @param startFs time of sample 0, femtoseconds
+     * @param periodFs sample period, femtoseconds
+     * @param volts sample values in volts; at least {@code length} long
+     * @param length number of valid entries in {@code volts}
+     * @param invalid bitset of invalid samples, or null if all are valid
+     */
     public AnalogBlock {
         Objects.requireNonNull(channel, "channel");
         Objects.requireNonNull(volts, "volts");

@@ -17,7 +17,16 @@ import java.util.Objects;
 public record Artifact(String channel, long startFs, long endFs, String fileName, String mediaType, byte[] content)
         implements Block {
 
-    /** Checks the file name is a plain name. */
+    /**
+     * Checks the file name is a plain name.
+     *
+     * @param channel producing instance or subject
+     * @param startFs start of the span it describes
+     * @param endFs end of the span it describes
+     * @param fileName a relative file name with extension, no directories ({@code "timing.json"})
+     * @param mediaType an IANA media type ({@code "application/json"}, {@code "image/png"}, {@code "text/csv"})
+     * @param content the bytes
+     */
     public Artifact {
         Objects.requireNonNull(channel, "channel");
         Objects.requireNonNull(content, "content");

@@ -36,7 +36,23 @@ public record BitStream(String channel, long startFs, long endFs, int count, lon
     /** Margin value meaning "no transition within reach". */
     public static final long UNKNOWN_MARGIN = Long.MAX_VALUE;
 
-    /** Checks array sizes. */
+    /**
+     * Checks array sizes.
+     *
+     * @param channel lane name
+     * @param startFs start of the covered span
+     * @param endFs end of the covered span, exclusive
+     * @param count number of bits
+     * @param values packed bit values
+     * @param timesFs sample times
+     * @param clockEdge clock edge index of each bit
+     * @param falling packed flags: taken on a falling clock edge
+     * @param slot bit slot within the clock period, or null when every bit is slot 0
+     * @param setupFs setup margin of each bit
+     * @param holdFs hold margin of each bit
+     * @param flagged packed flags: margin below threshold or otherwise suspect
+     * @param unitIntervalFs the unit interval the margins refer to (femtoseconds)
+     */
     public BitStream {
         Objects.requireNonNull(channel, "channel");
         int w = BitSets.words(count);

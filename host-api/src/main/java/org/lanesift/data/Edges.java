@@ -26,7 +26,18 @@ public record Edges(String channel, long startFs, long endFs, boolean initialLev
 
     private static final long[] NONE = new long[0];
 
-    /** Checks the invariants, naming the channel and the first offending index. */
+    /**
+     * Checks the invariants, naming the channel and the first offending index.
+     *
+     * @param channel channel name
+     * @param startFs start of the covered span
+     * @param endFs end of the covered span, exclusive
+     * @param initialLevel level at {@code startFs}
+     * @param timesFs transition times; at least {@code count} long
+     * @param count number of transitions
+     * @param invalidSpans pairs of start/end times of unknown spans, or null; at least {@code 2 * invalidCount} long
+     * @param invalidCount number of unknown spans
+     */
     public Edges {
         Objects.requireNonNull(channel, "channel");
         if (timesFs == null) {

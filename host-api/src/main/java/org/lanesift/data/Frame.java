@@ -19,7 +19,19 @@ import java.util.Objects;
 public record Frame(String channel, long startFs, long endFs, long index, int width, int height, int[] rgb,
                     boolean partial, boolean suspect) implements Block {
 
-    /** Checks the dimensions. */
+    /**
+     * Checks the dimensions.
+     *
+     * @param channel source name (the decoder instance)
+     * @param startFs time of the frame's first pixel
+     * @param endFs time just after its last pixel
+     * @param index frame number in the capture, from 0
+     * @param width pixels per line
+     * @param height lines
+     * @param rgb {@code width * height} packed colours
+     * @param partial true if the capture began or ended inside this frame
+     * @param suspect true if any bit of it was flagged by the sampler
+     */
     public Frame {
         Objects.requireNonNull(channel, "channel");
         if (width < 0 || height < 0 || (long) width * height != rgb.length) {

@@ -19,7 +19,17 @@ import java.util.Objects;
 public record LogicBlock(String channel, long firstIndex, long startFs, double periodFs, long[] bits, int length,
                          long[] invalid) implements Block {
 
-    /** Checks the invariants. */
+    /**
+     * Checks the invariants.
+     *
+     * @param channel channel name
+     * @param firstIndex index of sample 0 within the whole capture
+     * @param startFs time of sample 0, femtoseconds
+     * @param periodFs sample period, femtoseconds
+     * @param bits packed samples
+     * @param length number of samples
+     * @param invalid bitset of unknown samples, or null if all are known
+     */
     public LogicBlock {
         Objects.requireNonNull(channel, "channel");
         Objects.requireNonNull(bits, "bits");

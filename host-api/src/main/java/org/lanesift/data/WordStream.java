@@ -25,7 +25,20 @@ public record WordStream(String channel, long startFs, long endFs, int count, in
     /** The stream was interrupted (gap, lost lock) just before this word. */
     public static final byte FLAG_GAP_BEFORE = 2;
 
-    /** Checks array sizes and width. */
+    /**
+     * Checks array sizes and width.
+     *
+     * @param channel stream name
+     * @param startFs start of the covered span
+     * @param endFs end of the covered span, exclusive
+     * @param count number of words
+     * @param widthBits bits per word, 1 to 64
+     * @param values word values, least significant bit first on the wire unless the producer says otherwise
+     * @param wordStartFs time of each word's first bit
+     * @param wordEndFs time just after each word's last bit
+     * @param lane lane of each word (0 for single-lane streams)
+     * @param flags per-word flags: bit 0 {@link #FLAG_SUSPECT}, bit 1 {@link #FLAG_GAP_BEFORE}
+     */
     public WordStream {
         Objects.requireNonNull(channel, "channel");
         if (widthBits < 1 || widthBits > 64) {

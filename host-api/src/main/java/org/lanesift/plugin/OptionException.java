@@ -5,7 +5,9 @@ package org.lanesift.plugin;
  * plugin, the option and what is allowed.
  */
 public class OptionException extends RuntimeException {
+    /** Serialization version. */
     private static final long serialVersionUID = 1L;
+    /** The offending option. */
     private final String option;
 
     /**

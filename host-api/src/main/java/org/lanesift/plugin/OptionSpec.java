@@ -38,7 +38,18 @@ public record OptionSpec(String name, Type type, String unit, Object defaultValu
         NUMBERS
     }
 
-    /** Normalises. */
+    /**
+     * Normalises.
+     *
+     * @param name option name, as written in chain files ({@code "thresholdVolts"})
+     * @param type value type
+     * @param unit unit symbol for numbers ("V", "Hz", "%"); for {@link Type#TIME} the unit a bare number is taken in
+     * @param defaultValue default (already of the Java type {@link #parse} returns), or null when the option is required
+     * @param min smallest allowed number (inclusive), or null; for TIME in femtoseconds when absolute
+     * @param max largest allowed number (inclusive), or null
+     * @param choices allowed values of a {@link Type#CHOICE}; empty otherwise
+     * @param help one or two lines for users
+     */
     public OptionSpec {
         Objects.requireNonNull(name, "name");
         Objects.requireNonNull(type, "type");

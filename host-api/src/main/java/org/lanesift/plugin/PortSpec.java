@@ -14,7 +14,14 @@ import org.lanesift.data.DataKind;
  */
 public record PortSpec(String name, DataKind kind, boolean required, String help) {
 
-    /** Checks the name. */
+    /**
+     * Checks the name.
+     *
+     * @param name port name, letters, digits, '_' and '-'
+     * @param kind what it carries
+     * @param required for inputs: the chain fails to build if it is not wired; ignored for outputs
+     * @param help one line for users
+     */
     public PortSpec {
         Objects.requireNonNull(kind, "kind");
         if (name == null || !name.matches("[A-Za-z0-9_-]+")) {
