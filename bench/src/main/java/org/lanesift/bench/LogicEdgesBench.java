@@ -1,0 +1,78 @@
+package org.lanesift.bench;
+
+import java.util.concurrent.TimeUnit;
+import org.lanesift.data.BitSets;
+import org.lanesift.data.Edges;
+import org.lanesift.data.LogicBlock;
+import org.lanesift.data.LogicEdges;
+import org.openjdk.jmh.annotations.Benchmark;
+import org.openjdk.jmh.annotations.BenchmarkMode;
+import org.openjdk.jmh.annotations.Fork;
+import org.openjdk.jmh.annotations.Measurement;
+import org.openjdk.jmh.annotations.Mode;
+import org.openjdk.jmh.annotations.OperationsPerInvocation;
+import org.openjdk.jmh.annotations.OutputTimeUnit;
+import org.openjdk.jmh.annotations.Scope;
+import org.openjdk.jmh.annotations.Setup;
+import org.openjdk.jmh.annotations.State;
+import org.openjdk.jmh.annotations.Warmup;
+
+/**
+ * Logic to edges conversion on a 10 MHz square wave sampled at 1 GS/s (a transition every 50
+ * samples), in blocks of 1 M samples; throughput in samples per second (ops = samples). The
+ * baseline XORs the same words sequentially.
+ */
+@State(Scope.Benchmark)
+@BenchmarkMode(Mode.Throughput)
+@OutputTimeUnit(TimeUnit.SECONDS)
+@Warmup(iterations = 3, time = 1)
+@Measurement(iterations = 5, time = 1)
+@Fork(1)
+public class LogicEdgesBench {
+    static final int N = 1 << 20;
+    static final int BLOCKS = 16;
+    LogicBlock[] blocks;
+
+    @Setup
+    public void setup() {
+        blocks = new LogicBlock[BLOCKS];
+        for (int b = 0; b < BLOCKS; b++) {
+            long[] bits = new long[BitSets.words(N)];
+            for (int i = 0; i < N; i++) {
+                long global = (long) b * N + i;
+                if ((global / 50) % 2 == 1) {
+                    bits[i >>> 6] |= 1L << i;
+                }
+            }
+            long first = (long) b * N;
+            blocks[b] = new LogicBlock("clk", first, first * 1_000_000L, 1e6, bits, N, null);
+        }
+    }
+
+    /** Baseline: one XOR pass over the same words. */
+    @Benchmark
+    @OperationsPerInvocation(N * BLOCKS)
+    public long sequentialRead() {
+        long x = 0;
+        for (LogicBlock b : blocks) {
+            long[] w = b.bits();
+            for (long v : w) {
+                x ^= v;
+            }
+        }
+        return x;
+    }
+
+    /** Stateful conversion of every block to edges. */
+    @Benchmark
+    @OperationsPerInvocation(N * BLOCKS)
+    public long toEdges() {
+        LogicEdges conv = new LogicEdges();
+        long n = 0;
+        for (LogicBlock b : blocks) {
+            Edges e = conv.toEdges(b);
+            n += e.count();
+        }
+        return n;
+    }
+}
