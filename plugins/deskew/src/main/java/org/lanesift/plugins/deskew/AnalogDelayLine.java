@@ -1,0 +1,242 @@
+package org.lanesift.plugins.deskew;
+
+import java.util.Arrays;
+import java.util.function.Consumer;
+import org.lanesift.data.AnalogBlock;
+import org.lanesift.data.BitSets;
+
+/**
+ * Delays one analog channel by a fixed, possibly fractional and possibly negative, number of
+ * samples, keeping the output on the input's sample grid: output sample {@code n} is taken at the
+ * same time as input sample {@code n} and reads {@code x(t_n - delay)}.
+ *
+ * <p>State carries across blocks (the filter history), so any split of the input gives the same
+ * output samples. Output is emitted as soon as the input it needs has arrived: a negative delay
+ * (an advance) or the kernel's look-ahead holds back the last few samples until the next block or
+ * {@link #finish}. Output samples whose kernel reaches before the first or after the last input
+ * sample of a contiguous run, or touches an invalid input sample, are marked invalid (their value
+ * uses the nearest input sample). A gap in the input (a block that does not start one period after
+ * the previous one) ends the run and starts a new one.
+ */
+final class AnalogDelayLine {
+    private static final int CHUNK = 2048;
+
+    private final DelayKernel kernel;
+    private final double delaySamples;
+    private final Consumer<AnalogBlock> out;
+    private final int fl;
+    private final int lo;
+    private final int hi;
+    private final float[] taps;
+
+    // current run
+    private boolean open;
+    private String channel;
+    private long originFs;
+    private long originIndex;
+    private double periodFs;
+    private long received;      // input samples of this run
+    private long nextOut;       // next output index to produce
+    private float[] buf = new float[0];
+    private byte[] bad = new byte[0];
+    private long bufStart;      // run index of buf[0] (negative for front padding)
+    private int bufLen;
+    private long lastBadIndex = Long.MIN_VALUE; // highest run index of an invalid entry in buf
+    private float lastValue;    // the run's latest input sample, for end padding
+
+    /**
+     * Creates a delay line.
+     *
+     * @param kernel       interpolation kernel
+     * @param delaySamples delay in samples; positive delays, negative advances
+     * @param out          receives output blocks
+     */
+    AnalogDelayLine(DelayKernel kernel, double delaySamples, Consumer<AnalogBlock> out) {
+        this.kernel = kernel;
+        this.delaySamples = delaySamples;
+        this.out = out;
+        double a = -delaySamples;
+        double f = Math.floor(a);
+        double mu = a - f;
+        if (mu > 1 - 1e-9) {
+            f += 1;
+            mu = 0;
+        }
+        this.fl = (int) f;
+        this.lo = kernel.lo(mu);
+        this.hi = kernel.hi(mu);
+        this.taps = kernel.taps(mu);
+    }
+
+    double delaySamples() {
+        return delaySamples;
+    }
+
+    /**
+     * Takes the next input block.
+     *
+     * @param b the block
+     */
+    void accept(AnalogBlock b) {
+        if (open) {
+            long expect = originFs + Math.round(received * periodFs);
+            if (Math.abs(b.startFs() - expect) > periodFs / 2 || Math.abs(b.periodFs() - periodFs) > 1e-9 * periodFs) {
+                finish();
+            }
+        }
+        if (b.length() == 0) {
+            return;
+        }
+        if (!open) {
+            start(b);
+        }
+        append(b);
+        long end = Math.min(received, received - fl - hi);
+        produce(end);
+    }
+
+    private void start(AnalogBlock b) {
+        open = true;
+        channel = b.channel();
+        originFs = b.startFs();
+        originIndex = b.firstIndex();
+        periodFs = b.periodFs();
+        received = 0;
+        nextOut = 0;
+        long first = Math.min(0, (long) fl + lo);
+        bufStart = first;
+        bufLen = 0;
+        lastBadIndex = Long.MIN_VALUE;
+        int pad = (int) -first;
+        ensure(pad + b.length());
+        float v0 = b.volts()[0];
+        for (int i = 0; i < pad; i++) {
+            buf[i] = v0;
+            bad[i] = 1;
+        }
+        bufLen = pad;
+        if (pad > 0) {
+            lastBadIndex = -1;
+        }
+    }
+
+    private void append(AnalogBlock b) {
+        int n = b.length();
+        ensure(bufLen + n);
+        System.arraycopy(b.volts(), 0, buf, bufLen, n);
+        long[] inv = b.invalid();
+        if (inv != null && BitSets.count(inv, n) > 0) {
+            for (int i = 0; i < n; i++) {
+                if ((inv[i >>> 6] & (1L << i)) != 0) {
+                    bad[bufLen + i] = 1;
+                    lastBadIndex = received + i;
+                } else {
+                    bad[bufLen + i] = 0;
+                }
+            }
+        } else {
+            Arrays.fill(bad, bufLen, bufLen + n, (byte) 0);
+        }
+        bufLen += n;
+        received += n;
+        lastValue = b.volts()[n - 1];
+    }
+
+    private void ensure(int cap) {
+        if (cap > buf.length) {
+            int c = Math.max(cap, buf.length + (buf.length >> 1) + 16);
+            buf = Arrays.copyOf(buf, c);
+            bad = Arrays.copyOf(bad, c);
+        }
+    }
+
+    /** Produces outputs {@code [nextOut, end)}; the buffer must hold every input they need. */
+    private void produce(long end) {
+        if (end <= nextOut) {
+            return;
+        }
+        int cnt = (int) (end - nextOut);
+        float[] y = new float[cnt];
+        int base = (int) (nextOut + fl + lo - bufStart); // buffer position of tap lo for output nextOut
+        final float[] x = buf;
+        final float[] h = taps;
+        final int nt = h.length;
+        if (nt == 1) {
+            System.arraycopy(x, base, y, 0, cnt);
+        } else {
+            for (int c0 = 0; c0 < cnt; c0 += CHUNK) {
+                int c1 = Math.min(cnt, c0 + CHUNK);
+                for (int j = 0; j < nt; j++) {
+                    final float hj = h[j];
+                    final int off = base + j;
+                    for (int i = c0; i < c1; i++) {
+                        y[i] += hj * x[off + i];
+                    }
+                }
+            }
+        }
+        long[] inv = null;
+        long firstNeeded = nextOut + fl + lo;
+        if (lastBadIndex >= firstNeeded) {
+            inv = invalidMask(base, cnt, nt);
+        }
+        long startFs = originFs + Math.round(nextOut * periodFs);
+        out.accept(new AnalogBlock(channel, originIndex + nextOut, startFs, periodFs, y, cnt, inv));
+        nextOut = end;
+        discard();
+    }
+
+    /** Output i is invalid if any of buffer entries base+i .. base+i+nt-1 is. */
+    private long[] invalidMask(int base, int cnt, int nt) {
+        long[] inv = new long[BitSets.words(cnt)];
+        int window = 0;
+        for (int k = 0; k < nt - 1; k++) {
+            window += bad[base + k];
+        }
+        boolean any = false;
+        for (int i = 0; i < cnt; i++) {
+            window += bad[base + i + nt - 1];
+            if (window > 0) {
+                inv[i >>> 6] |= 1L << i;
+                any = true;
+            }
+            window -= bad[base + i];
+        }
+        return any ? inv : null;
+    }
+
+    private void discard() {
+        long keepFrom = nextOut + fl + lo;
+        int drop = (int) Math.min(bufLen, Math.max(0, keepFrom - bufStart));
+        if (drop > 0 && drop >= bufLen / 2) {
+            System.arraycopy(buf, drop, buf, 0, bufLen - drop);
+            System.arraycopy(bad, drop, bad, 0, bufLen - drop);
+            bufLen -= drop;
+            bufStart += drop;
+        }
+    }
+
+    /** Ends the current run: pads its end with the last sample (marked invalid) and emits the rest. */
+    void finish() {
+        if (!open) {
+            return;
+        }
+        long needEnd = received - 1 + fl + hi; // highest run index needed by the last output, inclusive
+        if (needEnd >= received) {
+            int pad = (int) (needEnd - received + 1);
+            ensure(bufLen + pad);
+            float last = lastValue;
+            for (int i = 0; i < pad; i++) {
+                buf[bufLen + i] = last;
+                bad[bufLen + i] = 1;
+            }
+            bufLen += pad;
+            lastBadIndex = received + pad - 1;
+        }
+        produce(received);
+        open = false;
+        buf = new float[0];
+        bad = new byte[0];
+        bufLen = 0;
+    }
+}

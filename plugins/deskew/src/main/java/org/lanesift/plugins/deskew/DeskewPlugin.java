@@ -1,0 +1,101 @@
+package org.lanesift.plugins.deskew;
+
+import java.util.ArrayList;
+import java.util.List;
+import org.lanesift.data.DataKind;
+import org.lanesift.plugin.OptionSpec;
+import org.lanesift.plugin.OptionValues;
+import org.lanesift.plugin.PluginDescriptor;
+import org.lanesift.plugin.PluginProvider;
+import org.lanesift.plugin.PortSpec;
+import org.lanesift.plugin.Stage;
+import org.lanesift.plugin.StageContext;
+
+/**
+ * Plugin {@code deskew}: applies a fixed time offset to each of N channels of one kind.
+ *
+ * <p><b>Sign convention: a positive offset DELAYS the channel.</b> Output time = input time +
+ * offset. A channel that arrives 80 ps early is corrected with +80 ps; one that arrives 80 ps late
+ * with -80 ps. Offsets come from {@code offsets} (one number per channel, in {@code offsetUnit}:
+ * ps, ns or samples) or from a skew table file ({@code offsetsFile}, see {@link SkewTable}), where
+ * each input is looked up by its blocks' channel name, then by its port name {@code in<k>}.
+ *
+ * <ul>
+ * <li><b>analog</b>: fractional-delay interpolation onto the <em>input's</em> sample grid (same
+ * period, same sample times), so downstream stages with several inputs still share one rate.
+ * {@code interpolator=sinc} (default) is a 16-tap Kaiser-windowed sinc (beta 5): at most 0.5 % of
+ * amplitude passband error up to 0.4 of the sample rate. {@code interpolator=cubic} is 4-tap
+ * cubic convolution: 0.44 % error up to 0.1, 11.6 % up to 0.25 and 55 % up to 0.4 of the sample rate (see
+ * {@code docs/skew-table.md}; both measured by tests). Samples near the capture ends whose kernel
+ * reaches past the data, or that touch invalid input, are marked invalid.</li>
+ * <li><b>edges</b>: every transition time, the span start and end and unknown spans move by the
+ * offset, exactly (rounded to the femtosecond).</li>
+ * <li><b>logic</b>: the block's {@code startFs} moves by the offset; the bits are untouched (no
+ * resampling). Channels with different offsets then sit on sample grids shifted against each
+ * other; convert to edges downstream to compare them.</li>
+ * </ul>
+ * Output blocks keep the input channel names. Output {@code table} carries the applied offsets as
+ * a skew table artifact {@code <id>-applied-skew.json} at the end.
+ */
+public final class DeskewPlugin implements PluginProvider {
+    /** Largest channel count. */
+    static final int MAX_CHANNELS = 64;
+
+    private static final PluginDescriptor DESCRIPTOR = PluginDescriptor.builder("deskew")
+            .name("Skew correction")
+            .description("Shifts each channel by a fixed time offset (positive delays: output time = input time + offset);"
+                    + " analog by fractional-delay interpolation on the input sample grid, edges and logic exactly.")
+            .option(OptionSpec.choice("kind", "analog", "data kind of every input and output", "analog", "edges", "logic"))
+            .option(OptionSpec.integer("channels", 1L, 1, MAX_CHANNELS, "number of channels N: inputs in0..in<N-1>, outputs out0..out<N-1>"))
+            .option(OptionSpec.numbers("offsets", "", "one offset per channel, in offsetUnit; positive DELAYS the channel"
+                    + " (output time = input time + offset)"))
+            .option(OptionSpec.choice("offsetUnit", "ps", "unit of the numbers in offsets", "ps", "ns", "samples"))
+            .option(OptionSpec.text("offsetsFile", "", "skew table JSON file (docs/skew-table.md) to take the offsets from,"
+                    + " instead of offsets"))
+            .option(OptionSpec.choice("interpolator", "sinc", "analog fractional delay: sinc (16-tap Kaiser windowed sinc)"
+                    + " or cubic (4-tap, only for heavily oversampled signals)", "sinc", "cubic"))
+            .inputs(DeskewPlugin::inputs)
+            .outputs(DeskewPlugin::outputs)
+            .build();
+
+    /** Creates the provider (stateless). */
+    public DeskewPlugin() {
+    }
+
+    static DataKind kindOf(OptionValues o) {
+        return switch (o.getString("kind")) {
+            case "edges" -> DataKind.EDGES;
+            case "logic" -> DataKind.LOGIC;
+            default -> DataKind.ANALOG;
+        };
+    }
+
+    private static List<PortSpec> inputs(OptionValues o) {
+        List<PortSpec> l = new ArrayList<>();
+        DataKind k = kindOf(o);
+        for (int i = 0; i < o.getInt("channels"); i++) {
+            l.add(PortSpec.of("in" + i, k, "channel " + i + " to correct"));
+        }
+        return l;
+    }
+
+    private static List<PortSpec> outputs(OptionValues o) {
+        List<PortSpec> l = new ArrayList<>();
+        DataKind k = kindOf(o);
+        for (int i = 0; i < o.getInt("channels"); i++) {
+            l.add(PortSpec.of("out" + i, k, "channel " + i + " shifted by its offset, same channel name"));
+        }
+        l.add(PortSpec.of("table", DataKind.ARTIFACT, "the applied offsets as a skew table, <id>-applied-skew.json"));
+        return l;
+    }
+
+    @Override
+    public PluginDescriptor descriptor() {
+        return DESCRIPTOR;
+    }
+
+    @Override
+    public Stage open(StageContext context) {
+        return new DeskewStage(context);
+    }
+}

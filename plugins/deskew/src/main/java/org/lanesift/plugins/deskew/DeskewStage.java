@@ -1,0 +1,203 @@
+package org.lanesift.plugins.deskew;
+
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import org.lanesift.annotation.Annotation;
+import org.lanesift.data.AnalogBlock;
+import org.lanesift.data.Artifact;
+import org.lanesift.data.Block;
+import org.lanesift.data.DataKind;
+import org.lanesift.data.Edges;
+import org.lanesift.data.LogicBlock;
+import org.lanesift.plugin.OptionException;
+import org.lanesift.plugin.OptionValues;
+import org.lanesift.plugin.Stage;
+import org.lanesift.plugin.StageContext;
+import org.lanesift.time.Femtos;
+
+/** The running {@code deskew} instance: one offset and, for analog, one delay line per channel. */
+final class DeskewStage implements Stage {
+    /** Largest analog delay, in samples: bounds the history a delay line keeps. */
+    static final double MAX_DELAY_SAMPLES = 1 << 20;
+    /** Largest offset, femtoseconds (1 ms). */
+    static final double MAX_OFFSET_FS = 1e12;
+
+    private final StageContext ctx;
+    private final DataKind kind;
+    private final int n;
+    private final String unit;
+    private final DelayKernel kernel;
+    private final SkewTable table;
+    private final String tableName;
+    private final List<Double> given;
+    private final Channel[] ch;
+    private long firstFs = Long.MAX_VALUE;
+    private long lastFs = Long.MIN_VALUE;
+
+    private final class Channel {
+        final int index;
+        boolean resolved;
+        String name;
+        double offsetFs;
+        double confidence = 1;
+        String method = "manual";
+        AnalogDelayLine line;
+
+        Channel(int index) {
+            this.index = index;
+        }
+    }
+
+    DeskewStage(StageContext ctx) {
+        this.ctx = ctx;
+        OptionValues o = ctx.options();
+        this.kind = DeskewPlugin.kindOf(o);
+        this.n = o.getInt("channels");
+        this.unit = o.getString("offsetUnit");
+        this.kernel = DelayKernel.of(o.getString("interpolator"));
+        this.given = o.getNumbers("offsets");
+        String file = o.getString("offsetsFile").trim();
+        String who = "plugin 'deskew' instance '" + ctx.instanceId() + "'";
+        if (!file.isEmpty() && !given.isEmpty()) {
+            throw new OptionException("offsetsFile", who + ": give either offsets or offsetsFile, not both");
+        }
+        if (file.isEmpty()) {
+            if (given.size() != n) {
+                throw new OptionException("offsets", who + ": option 'offsets' needs " + n + " number" + (n == 1 ? "" : "s")
+                        + " (one per channel, channels=" + n + ") in " + unit + ", got " + given.size()
+                        + (given.isEmpty() ? "; or give offsetsFile" : ""));
+            }
+            if (kind == DataKind.EDGES && unit.equals("samples")) {
+                throw new OptionException("offsetUnit", who + ": edge lists carry no sample period, so offsetUnit=samples"
+                        + " cannot be resolved; give the offsets in ps or ns");
+            }
+            for (int i = 0; i < n; i++) {
+                double v = given.get(i);
+                double lim = unit.equals("samples") ? MAX_DELAY_SAMPLES : unit.equals("ns") ? MAX_OFFSET_FS / 1e6 : MAX_OFFSET_FS / 1e3;
+                if (!Double.isFinite(v) || Math.abs(v) > lim) {
+                    throw new OptionException("offsets", who + ": offsets[" + i + "] = " + v + " " + unit + " is outside +/-"
+                            + Json.number(lim) + " " + unit);
+                }
+            }
+            table = null;
+            tableName = null;
+        } else {
+            try {
+                table = SkewTable.read(Path.of(file));
+            } catch (IllegalArgumentException e) {
+                throw new OptionException("offsetsFile", who + ": option 'offsetsFile': " + e.getMessage());
+            }
+            tableName = file;
+        }
+        ch = new Channel[n];
+        for (int i = 0; i < n; i++) {
+            ch[i] = new Channel(i);
+        }
+    }
+
+    @Override
+    public void accept(int input, Block block) {
+        Channel c = ch[input];
+        if (!c.resolved) {
+            resolve(c, block);
+        }
+        firstFs = Math.min(firstFs, block.startFs());
+        lastFs = Math.max(lastFs, block.endFs());
+        switch (kind) {
+            case ANALOG -> c.line.accept((AnalogBlock) block);
+            case EDGES -> ctx.emit(input, shift((Edges) block, Math.round(c.offsetFs)));
+            case LOGIC -> {
+                LogicBlock l = (LogicBlock) block;
+                ctx.emit(input, new LogicBlock(l.channel(), l.firstIndex(), l.startFs() + Math.round(c.offsetFs), l.periodFs(),
+                        l.bits(), l.length(), l.invalid()));
+            }
+            default -> throw new IllegalStateException("unexpected kind " + kind);
+        }
+    }
+
+    /** Shifts every time of an edge list by {@code d} femtoseconds. */
+    static Edges shift(Edges e, long d) {
+        final int cnt = e.count();
+        final long[] src = e.timesFs();
+        final long[] t = new long[cnt];
+        for (int i = 0; i < cnt; i++) {
+            t[i] = src[i] + d;
+        }
+        long[] spans = null;
+        int sc = e.invalidCount();
+        if (sc > 0) {
+            spans = new long[2 * sc];
+            long[] s = e.invalidSpans();
+            for (int i = 0; i < 2 * sc; i++) {
+                spans[i] = s[i] + d;
+            }
+        }
+        return new Edges(e.channel(), e.startFs() + d, e.endFs() + d, e.initialLevel(), t, cnt, spans, sc);
+    }
+
+    private void resolve(Channel c, Block b) {
+        c.name = b.channel();
+        double period = b instanceof AnalogBlock a ? a.periodFs() : b instanceof LogicBlock l ? l.periodFs() : Double.NaN;
+        String who = "plugin 'deskew' instance '" + ctx.instanceId() + "'";
+        if (table != null) {
+            SkewTable.Entry e = table.get(c.name);
+            if (e == null) {
+                e = table.get("in" + c.index);
+            }
+            if (e == null) {
+                throw new OptionException("offsetsFile", who + ": skew table " + tableName + " has no channel '" + c.name
+                        + "' (input in" + c.index + "); its channels: "
+                        + String.join(", ", table.entries().stream().map(SkewTable.Entry::name).toList()));
+            }
+            c.offsetFs = e.offsetPs() * Femtos.PER_PS;
+            c.confidence = e.confidence();
+            c.method = e.method();
+        } else {
+            double v = given.get(c.index);
+            c.offsetFs = switch (unit) {
+                case "ns" -> v * Femtos.PER_NS;
+                case "samples" -> v * period;
+                default -> v * Femtos.PER_PS;
+            };
+        }
+        if (kind == DataKind.ANALOG) {
+            double s = c.offsetFs / period;
+            if (Math.abs(s) > MAX_DELAY_SAMPLES) {
+                throw new OptionException(table != null ? "offsetsFile" : "offsets", who + ": offset of channel '" + c.name + "' ("
+                        + Femtos.format(c.offsetFs) + ") is " + String.format(Locale.ROOT, "%.0f", s) + " samples; at most "
+                        + (long) MAX_DELAY_SAMPLES + " samples are supported");
+            }
+            final int out = c.index;
+            c.line = new AnalogDelayLine(kernel, s, blk -> ctx.emit(out, blk));
+        }
+        c.resolved = true;
+        ctx.annotate(Annotation.on(c.name, "skew-applied").span(b.startFs(), b.startFs())
+                .label(String.format(Locale.ROOT, "offset %+.3f ps", c.offsetFs / Femtos.PER_PS))
+                .number("offsetPs", c.offsetFs / Femtos.PER_PS, "ps").text("method", c.method).build());
+    }
+
+    @Override
+    public void finish() {
+        List<SkewTable.Entry> rows = new ArrayList<>();
+        for (Channel c : ch) {
+            if (c.line != null) {
+                c.line.finish();
+            }
+            if (c.resolved) {
+                rows.add(new SkewTable.Entry(c.name, c.offsetFs / Femtos.PER_PS, c.confidence, c.method, 0));
+            } else if (table == null && !unit.equals("samples")) {
+                double fs = given.get(c.index) * (unit.equals("ns") ? Femtos.PER_NS : Femtos.PER_PS);
+                rows.add(new SkewTable.Entry("in" + c.index, fs / Femtos.PER_PS, 1, "manual", 0));
+            }
+        }
+        if (ctx.isConnected(n)) {
+            byte[] json = new SkewTable("manual", rows).toJson().getBytes(StandardCharsets.UTF_8);
+            long s = firstFs == Long.MAX_VALUE ? 0 : firstFs;
+            long e = lastFs == Long.MIN_VALUE ? s : Math.max(s, lastFs);
+            ctx.emit(n, new Artifact(ctx.instanceId(), s, e, ctx.instanceId() + "-applied-skew.json", "application/json", json));
+        }
+    }
+}

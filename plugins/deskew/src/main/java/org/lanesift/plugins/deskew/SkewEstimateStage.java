@@ -1,0 +1,251 @@
+package org.lanesift.plugins.deskew;
+
+import java.nio.charset.StandardCharsets;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import org.lanesift.annotation.Annotation;
+import org.lanesift.annotation.Severity;
+import org.lanesift.data.AnalogBlock;
+import org.lanesift.data.Artifact;
+import org.lanesift.data.Block;
+import org.lanesift.data.Edges;
+import org.lanesift.plugin.OptionException;
+import org.lanesift.plugin.OptionValues;
+import org.lanesift.plugin.Stage;
+import org.lanesift.plugin.StageContext;
+import org.lanesift.time.Femtos;
+import org.lanesift.time.TimeValue;
+
+/** The running {@code skew-estimate} instance. */
+final class SkewEstimateStage implements Stage {
+    /** Largest legs search range in samples either way (bounds the FFT size). */
+    static final int MAX_LAG = 1 << 15;
+
+    private final StageContext ctx;
+    private final String mode;
+    private final int lanes;
+    private final boolean ddr;
+    private final boolean centre;
+    private final double minConfidence;
+    private final long minEdges;
+    private final TimeValue maxSkew;
+    private final String[] names;
+    private final String who;
+    private EdgeAligner aligner;
+    private LegsEstimator legs;
+    private long legsStartP = Long.MIN_VALUE;
+    private long legsStartN = Long.MIN_VALUE;
+    private double legsPeriodFs = Double.NaN;
+    private long firstFs = Long.MAX_VALUE;
+    private long lastFs = Long.MIN_VALUE;
+
+    SkewEstimateStage(StageContext ctx) {
+        this.ctx = ctx;
+        OptionValues o = ctx.options();
+        this.who = "plugin 'skew-estimate' instance '" + ctx.instanceId() + "'";
+        this.mode = o.getString("mode");
+        this.lanes = o.getInt("lanes");
+        this.ddr = o.getBoolean("ddr");
+        this.centre = o.getString("alignment").equals("centre");
+        this.minConfidence = o.getDouble("minConfidence");
+        this.minEdges = o.getLong("minEdges");
+        this.maxSkew = o.getTime("maxSkew");
+        this.names = new String[ctx.inputs().size()];
+        for (int i = 0; i < names.length; i++) {
+            names[i] = ctx.inputs().get(i).name();
+        }
+        switch (mode) {
+            case "clock" -> aligner = new EdgeAligner(EdgeAligner.Mode.CLOCK, lanes, ddr, 0);
+            case "lanes" -> {
+                if (lanes < 2) {
+                    throw new OptionException("lanes", who + ": mode=lanes compares lanes with lane0, so option 'lanes' must be"
+                            + " at least 2, got " + lanes);
+                }
+                TimeValue ui = o.getTime("unitInterval");
+                double uiFs;
+                try {
+                    uiFs = ui.toFs(Double.NaN, Double.NaN);
+                } catch (IllegalStateException e) {
+                    throw new OptionException("unitInterval", who + ": option 'unitInterval' must be an absolute time such as"
+                            + " 2500ps (edge lists carry no sample period), got " + ui);
+                }
+                if (uiFs < 0) {
+                    throw new OptionException("unitInterval", who + ": option 'unitInterval' must be positive, or 0 to estimate it; got " + ui);
+                }
+                aligner = new EdgeAligner(EdgeAligner.Mode.LANES, lanes - 1, false, uiFs);
+            }
+            default -> {
+                if (maxSkew.value() <= 0) {
+                    throw new OptionException("maxSkew", who + ": option 'maxSkew' must be positive, got " + maxSkew);
+                }
+                if (maxSkew.unit() == TimeValue.Unit.UI) {
+                    throw new OptionException("maxSkew", who + ": option 'maxSkew' must be in ps, ns or samples, got " + maxSkew);
+                }
+            }
+        }
+    }
+
+    @Override
+    public void accept(int input, Block block) {
+        if (names[input].equals(ctx.inputs().get(input).name()) && block.channel() != null) {
+            names[input] = block.channel();
+        }
+        firstFs = Math.min(firstFs, block.startFs());
+        lastFs = Math.max(lastFs, block.endFs());
+        switch (mode) {
+            case "legs" -> acceptLeg(input, (AnalogBlock) block);
+            case "clock" -> {
+                if (input == 0) {
+                    aligner.reference((Edges) block);
+                } else {
+                    aligner.data(input - 1, (Edges) block);
+                }
+            }
+            default -> {
+                if (input == 0) {
+                    aligner.reference((Edges) block);
+                } else {
+                    aligner.data(input - 1, (Edges) block);
+                }
+            }
+        }
+    }
+
+    private void acceptLeg(int input, AnalogBlock b) {
+        if (legs == null) {
+            legsPeriodFs = b.periodFs();
+            double fs = maxSkew.toFs(b.periodFs(), Double.NaN);
+            double lag = Math.ceil(fs / b.periodFs()) + 1;
+            if (lag > MAX_LAG) {
+                throw new OptionException("maxSkew", who + ": option 'maxSkew' " + maxSkew + " is " + (long) lag
+                        + " samples at this sample rate; at most " + MAX_LAG + " samples are supported");
+            }
+            legs = new LegsEstimator((int) lag);
+        }
+        if (input == 0 && legsStartP == Long.MIN_VALUE) {
+            legsStartP = b.startFs();
+        }
+        if (input == 1 && legsStartN == Long.MIN_VALUE) {
+            legsStartN = b.startFs();
+        }
+        if (legsStartP != Long.MIN_VALUE && legsStartN != Long.MIN_VALUE
+                && Math.abs(legsStartP - legsStartN) > legsPeriodFs / 2) {
+            throw new IllegalArgumentException("inputs 'p' and 'n' must start at the same sample time; 'p' starts at "
+                    + Femtos.format(legsStartP) + ", 'n' at " + Femtos.format(legsStartN));
+        }
+        if (input == 0) {
+            legs.p(b);
+        } else {
+            legs.n(b);
+        }
+    }
+
+    @Override
+    public void finish() {
+        long s = firstFs == Long.MAX_VALUE ? 0 : firstFs;
+        long e = lastFs == Long.MIN_VALUE ? s : Math.max(s, lastFs);
+        List<SkewTable.Entry> rows = new ArrayList<>();
+        if (mode.equals("legs")) {
+            finishLegs(rows, s, e);
+        } else {
+            finishEdges(rows, s, e);
+        }
+        byte[] json = new SkewTable(mode, rows).toJson().getBytes(StandardCharsets.UTF_8);
+        ctx.emit(0, new Artifact(ctx.instanceId(), s, e, ctx.instanceId() + "-skew.json", "application/json", json));
+    }
+
+    private void finishLegs(List<SkewTable.Entry> rows, long s, long e) {
+        if (legs == null) {
+            warn(names[0], "skew-no-estimate", Severity.ERROR, "no samples: no estimate", s, e);
+            rows.add(new SkewTable.Entry(names[0], 0, 1, "reference", 0));
+            rows.add(new SkewTable.Entry(names[1], 0, 0, "legs-xcorr", 0));
+            return;
+        }
+        legs.finish();
+        LegsEstimator.Result r = legs.result();
+        double skewFs = r.lagSamples() * legsPeriodFs;
+        double conf = r.samples() == 0 ? 0 : r.correlation();
+        rows.add(new SkewTable.Entry(names[0], 0, 1, "reference", r.samples()));
+        rows.add(new SkewTable.Entry(names[1], -skewFs / Femtos.PER_PS, conf, "legs-xcorr", r.samples()));
+        ctx.annotate(Annotation.on(names[1], "skew-estimate").span(s, e)
+                .label(String.format(Locale.ROOT, "%s lags %s by %.3f ps", names[1], names[0], skewFs / Femtos.PER_PS))
+                .number("offsetPs", -skewFs / Femtos.PER_PS, "ps").number("confidence", conf, "")
+                .number("samples", r.samples(), "").text("method", "legs-xcorr").text("reference", names[0]).build());
+        if (r.samples() == 0) {
+            warn(names[1], "skew-no-estimate", Severity.ERROR, "too few samples for the search range of "
+                    + legs.maxLag() + " samples either way", s, e);
+            return;
+        }
+        if (r.atEdge()) {
+            warn(names[1], "skew-out-of-range", Severity.ERROR, "correlation peak at the edge of the search range (+/-"
+                    + maxSkew + "): the skew is larger, raise maxSkew", s, e);
+        }
+        if (r.secondPeakRatio() >= 0.8) {
+            warn(names[1], "skew-ambiguous", Severity.WARNING, String.format(Locale.ROOT,
+                    "a second correlation peak reaches %.0f %% of the main one: periodic signal, reduce maxSkew below half its period",
+                    100 * r.secondPeakRatio()), s, e);
+        }
+        if (conf < minConfidence) {
+            warn(names[1], "skew-low-confidence", Severity.WARNING, String.format(Locale.ROOT,
+                    "legs correlate only %.2f (below %.2f): check the wiring of P and N", conf, minConfidence), s, e);
+        }
+    }
+
+    private void finishEdges(List<SkewTable.Entry> rows, long s, long e) {
+        aligner.finish();
+        boolean clock = mode.equals("clock");
+        rows.add(new SkewTable.Entry(names[0], 0, 1, "reference", 0));
+        if (!aligner.referenceSeen() || Double.isNaN(aligner.periodFs())) {
+            warn(names[0], "skew-no-estimate", Severity.ERROR, clock ? "too few clock edges to know the clock interval"
+                    : "too few lane0 transitions to estimate the unit interval (give unitInterval)", s, e);
+        }
+        String method = clock ? (centre ? "clock-centre" : "clock-edge") : "lanes";
+        double target = clock && centre ? 0.5 : 0.0;
+        for (int l = 0; l < lanesCompared(); l++) {
+            EdgeAligner.Result r = aligner.result(l);
+            String name = names[l + 1];
+            double offFs = 0;
+            double conf = 0;
+            if (r.count() > 0 && !Double.isNaN(r.centre())) {
+                offFs = -PhaseHistogram.wrap(r.centre() - target) * r.intervalFs();
+                conf = Math.max(0, Math.min(1, r.concentration()));
+            }
+            rows.add(new SkewTable.Entry(name, offFs / Femtos.PER_PS, conf, method, r.count()));
+            ctx.annotate(Annotation.on(name, "skew-estimate").span(s, e)
+                    .label(String.format(Locale.ROOT, "correct %s by %+.3f ps", name, offFs / Femtos.PER_PS))
+                    .number("offsetPs", offFs / Femtos.PER_PS, "ps").number("confidence", conf, "")
+                    .number("edges", r.count(), "").number("intervalPs", r.intervalFs() / Femtos.PER_PS, "ps")
+                    .text("method", method).text("reference", names[0]).build());
+            if (r.count() == 0) {
+                warn(name, "skew-no-estimate", Severity.ERROR, "no usable transitions: no estimate", s, e);
+                continue;
+            }
+            if (r.count() < minEdges) {
+                warn(name, "skew-few-edges", Severity.WARNING, r.count() + " usable transitions (fewer than " + minEdges
+                        + "): the estimate is rough", s, e);
+            }
+            if (r.clusters() > 1) {
+                warn(name, "skew-multimodal", Severity.WARNING, "transitions fall in " + r.clusters() + " separate clusters: "
+                        + (clock ? "wrong clock, or ddr/alignment set wrong" : "lanes run at different rates, or the unit interval is wrong"), s, e);
+            }
+            if (conf < minConfidence) {
+                warn(name, "skew-low-confidence", Severity.WARNING, String.format(Locale.ROOT,
+                        "cluster concentration %.2f is below %.2f: jitter too large, or no fixed phase relation", conf, minConfidence), s, e);
+            }
+            long bad = r.rejected();
+            if (clock && bad > (r.count() + bad) / 100) {
+                warn(name, "skew-clock-gaps", Severity.WARNING, bad + " transitions fell in clock intervals far from the nominal "
+                        + Femtos.format(aligner.periodFs()) + " (gaps or a wandering clock) and were skipped", s, e);
+            }
+        }
+    }
+
+    private int lanesCompared() {
+        return mode.equals("clock") ? lanes : lanes - 1;
+    }
+
+    private void warn(String track, String kind, Severity sev, String label, long s, long e) {
+        ctx.annotate(Annotation.on(track, kind).span(s, e).severity(sev).label(label).build());
+    }
+}

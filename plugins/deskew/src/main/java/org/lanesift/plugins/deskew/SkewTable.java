@@ -1,0 +1,260 @@
+package org.lanesift.plugins.deskew;
+
+import java.io.IOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.NoSuchFileException;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.Objects;
+
+/**
+ * A skew table: for each channel name, the time offset to <b>apply</b> to it, in picoseconds,
+ * with the confidence of the estimate and the method that produced it. The {@code skew-estimate}
+ * plugin writes it; the {@code deskew} plugin reads it back through its {@code offsetsFile}
+ * option; users keep one per probe set. The file format is documented in
+ * {@code docs/skew-table.md}.
+ *
+ * <p><b>Sign convention.</b> A positive offset <b>delays</b> the channel: output time = input
+ * time + offset. Applying every offset of a table aligns the channels.
+ */
+public final class SkewTable {
+    /** Value of the {@code format} member. */
+    public static final String FORMAT = "lanesift-skew-table";
+    /** The format version this code writes and reads. */
+    public static final int VERSION = 1;
+    /** Files larger than this are refused before reading (a table is a few kilobytes). */
+    static final long MAX_FILE_BYTES = 1 << 20;
+    static final String CONVENTION = "offsetPs is the correction to apply: output time = input time + offsetPs;"
+            + " a positive offset delays the channel";
+
+    /**
+     * One channel's row.
+     *
+     * @param name       channel name as carried by its blocks
+     * @param offsetPs   correction to apply, picoseconds; positive delays the channel
+     * @param confidence 0 (no trust) to 1 (certain); 1 for manual entries and for the reference channel
+     * @param method     how it was obtained, such as {@code "manual"}, {@code "reference"},
+     *                   {@code "legs-xcorr"}, {@code "clock-edge"}, {@code "clock-centre"}, {@code "lanes"}
+     * @param edges      transitions or samples the estimate rests on, 0 when not applicable
+     */
+    public record Entry(String name, double offsetPs, double confidence, String method, long edges) {
+        /** Checks the values. */
+        public Entry {
+            Objects.requireNonNull(name, "name");
+            Objects.requireNonNull(method, "method");
+            if (name.isEmpty()) {
+                throw new IllegalArgumentException("skew table: channel name is empty");
+            }
+            if (!Double.isFinite(offsetPs)) {
+                throw new IllegalArgumentException("skew table: offset of '" + name + "' is not a finite number");
+            }
+            if (!(confidence >= 0 && confidence <= 1)) {
+                throw new IllegalArgumentException("skew table: confidence of '" + name + "' must be 0 to 1, got " + confidence);
+            }
+        }
+    }
+
+    private final String mode;
+    private final Map<String, Entry> entries;
+
+    /**
+     * Creates a table.
+     *
+     * @param mode    how it was made ({@code "manual"}, {@code "legs"}, {@code "clock"}, {@code "lanes"})
+     * @param entries rows, channel names unique
+     */
+    public SkewTable(String mode, List<Entry> entries) {
+        this.mode = Objects.requireNonNull(mode, "mode");
+        Map<String, Entry> m = new LinkedHashMap<>();
+        for (Entry e : entries) {
+            if (m.put(e.name(), e) != null) {
+                throw new IllegalArgumentException("skew table: channel '" + e.name() + "' appears twice");
+            }
+        }
+        this.entries = java.util.Collections.unmodifiableMap(m);
+    }
+
+    /**
+     * How the table was made.
+     *
+     * @return the mode text
+     */
+    public String mode() {
+        return mode;
+    }
+
+    /**
+     * The rows in file order.
+     *
+     * @return rows
+     */
+    public List<Entry> entries() {
+        return List.copyOf(entries.values());
+    }
+
+    /**
+     * Looks up a channel.
+     *
+     * @param name channel name
+     * @return its row, or null
+     */
+    public Entry get(String name) {
+        return entries.get(name);
+    }
+
+    /**
+     * Writes the table as JSON (UTF-8 text, one channel a line).
+     *
+     * @return the JSON text
+     */
+    public String toJson() {
+        StringBuilder b = new StringBuilder();
+        b.append("{\n  \"format\": ").append(Json.quote(FORMAT)).append(",\n  \"version\": ").append(VERSION)
+                .append(",\n  \"convention\": ").append(Json.quote(CONVENTION))
+                .append(",\n  \"mode\": ").append(Json.quote(mode)).append(",\n  \"channels\": {");
+        int i = 0;
+        for (Entry e : entries.values()) {
+            b.append(i++ == 0 ? "\n" : ",\n");
+            b.append("    ").append(Json.quote(e.name())).append(": {\"offsetPs\": ").append(Json.number(round(e.offsetPs())))
+                    .append(", \"confidence\": ").append(Json.number(round(e.confidence())))
+                    .append(", \"method\": ").append(Json.quote(e.method()))
+                    .append(", \"edges\": ").append(e.edges()).append('}');
+        }
+        b.append(i == 0 ? "}\n}\n" : "\n  }\n}\n");
+        return b.toString();
+    }
+
+    /** Keeps a femtosecond of resolution in ps (three decimals) and drops float noise. */
+    private static double round(double v) {
+        return Math.round(v * 1000.0) / 1000.0;
+    }
+
+    /**
+     * Reads a table file.
+     *
+     * @param file the file
+     * @return the table
+     * @throws IllegalArgumentException naming the file, the position or JSON pointer and what was expected
+     */
+    public static SkewTable read(Path file) {
+        String name = file.toString();
+        try {
+            long size = Files.size(file);
+            if (size > MAX_FILE_BYTES) {
+                throw new IllegalArgumentException(name + ": " + size + " bytes is too large for a skew table (at most "
+                        + MAX_FILE_BYTES + " bytes)");
+            }
+            return parse(name, new String(Files.readAllBytes(file), StandardCharsets.UTF_8));
+        } catch (NoSuchFileException e) {
+            throw new IllegalArgumentException(name + ": no such skew table file");
+        } catch (IOException e) {
+            throw new IllegalArgumentException(name + ": cannot read the skew table: " + e.getMessage());
+        }
+    }
+
+    /**
+     * Parses table text.
+     *
+     * @param source file name for messages
+     * @param text   JSON text
+     * @return the table
+     * @throws IllegalArgumentException naming the source, the position or JSON pointer and what was expected
+     */
+    public static SkewTable parse(String source, String text) {
+        Object root = Json.parse(source, text);
+        if (!(root instanceof Map<?, ?> top)) {
+            throw new IllegalArgumentException(source + ": expected a JSON object at the top level (pointer \"\")");
+        }
+        Object f = top.get("format");
+        if (!FORMAT.equals(f)) {
+            throw new IllegalArgumentException(source + ": /format must be \"" + FORMAT + "\", got " + describe(f));
+        }
+        Object v = top.get("version");
+        if (!(v instanceof Double d) || d != VERSION) {
+            throw new IllegalArgumentException(source + ": /version must be " + VERSION + ", got " + describe(v));
+        }
+        Object m = top.get("mode");
+        String mode = m == null ? "manual" : m instanceof String s ? s : null;
+        if (mode == null) {
+            throw new IllegalArgumentException(source + ": /mode must be a string, got " + describe(m));
+        }
+        Object ch = top.get("channels");
+        if (!(ch instanceof Map<?, ?> channels)) {
+            throw new IllegalArgumentException(source + ": /channels must be an object of channel name to entry, got " + describe(ch));
+        }
+        List<Entry> out = new ArrayList<>();
+        for (Map.Entry<?, ?> e : channels.entrySet()) {
+            String cname = (String) e.getKey();
+            String ptr = "/channels/" + cname.replace("~", "~0").replace("/", "~1");
+            if (cname.isEmpty()) {
+                throw new IllegalArgumentException(source + ": " + ptr + ": channel name must not be empty");
+            }
+            if (!(e.getValue() instanceof Map<?, ?> row)) {
+                throw new IllegalArgumentException(source + ": " + ptr + " must be an object with offsetPs, got " + describe(e.getValue()));
+            }
+            Object o = row.get("offsetPs");
+            if (!(o instanceof Double off) || !Double.isFinite(off)) {
+                throw new IllegalArgumentException(source + ": " + ptr + "/offsetPs must be a number of picoseconds, got " + describe(o));
+            }
+            if (Math.abs(off) > 1e9) {
+                throw new IllegalArgumentException(source + ": " + ptr + "/offsetPs " + off + " is beyond +/-1e9 ps (1 ms)");
+            }
+            double conf = 1;
+            Object c = row.get("confidence");
+            if (c != null) {
+                if (!(c instanceof Double cd) || !(cd >= 0 && cd <= 1)) {
+                    throw new IllegalArgumentException(source + ": " + ptr + "/confidence must be a number from 0 to 1, got " + describe(c));
+                }
+                conf = cd;
+            }
+            String method = "manual";
+            Object me = row.get("method");
+            if (me != null) {
+                if (!(me instanceof String ms)) {
+                    throw new IllegalArgumentException(source + ": " + ptr + "/method must be a string, got " + describe(me));
+                }
+                method = ms;
+            }
+            long edges = 0;
+            Object ed = row.get("edges");
+            if (ed != null) {
+                if (!(ed instanceof Double edd) || edd < 0 || edd != Math.rint(edd) || edd > 9e15) {
+                    throw new IllegalArgumentException(source + ": " + ptr + "/edges must be a whole number at least 0, got " + describe(ed));
+                }
+                edges = (long) (double) edd;
+            }
+            out.add(new Entry(cname, off, conf, method, edges));
+        }
+        return new SkewTable(mode, out);
+    }
+
+    private static String describe(Object o) {
+        if (o == null) {
+            return "nothing (member missing)";
+        }
+        if (o instanceof String s) {
+            return Json.quote(s);
+        }
+        if (o instanceof Map) {
+            return "an object";
+        }
+        if (o instanceof List) {
+            return "an array";
+        }
+        return o.toString();
+    }
+
+    @Override
+    public String toString() {
+        StringBuilder b = new StringBuilder("SkewTable[" + mode);
+        for (Entry e : entries.values()) {
+            b.append(String.format(Locale.ROOT, ", %s %+.3f ps (%.2f)", e.name(), e.offsetPs(), e.confidence()));
+        }
+        return b.append(']').toString();
+    }
+}
