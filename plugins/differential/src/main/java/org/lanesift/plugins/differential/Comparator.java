@@ -1,0 +1,556 @@
+package org.lanesift.plugins.differential;
+
+import java.util.Arrays;
+import org.lanesift.data.BitSets;
+import org.lanesift.data.Edges;
+
+/**
+ * Hysteresis comparator over a stream of difference samples (volts), the hot path of the plugin.
+ *
+ * <p>The difference is {@code a[i] - b[i]} (two legs) or {@code a[i]} (one channel). The output
+ * goes high when the difference rises above {@code threshold + hysteresis/2} and low when it falls
+ * below {@code threshold - hysteresis/2}. Each such confirmed transition is timed where the signal
+ * last crossed the threshold itself before the trip point: the last sample on the old side of the
+ * threshold and the one after it are interpolated (linear, or cubic over four samples). When that
+ * sample is more than {@link #MAX_BACK} samples back, or the threshold changed in between, the
+ * crossing of the trip level is used instead. Results do not depend on how the stream is cut into
+ * chunks: everything looked at lies in the past, kept in a ring of recent samples, except the
+ * fourth cubic sample, which is waited for when it is in the next chunk.
+ *
+ * <p>Invalid samples (masked or NaN) never produce transitions. After a run of them the level is
+ * set afresh from the first valid sample (above the threshold means high); if it differs from the
+ * level before the run, the one level-restoring transition is placed exactly at the end of the
+ * unknown span, which runs from half a sample before the first invalid sample to half a sample
+ * before the next valid one. Before the first valid sample the level is taken as low. Logic bits of
+ * invalid samples hold the previous level.
+ */
+final class Comparator {
+    /** Farthest look-back, in samples, from a trip point to the threshold crossing. */
+    static final int MAX_BACK = 1024;
+    private static final int RING = 2048;
+    private static final int RING_MASK = RING - 1;
+
+    /** Told about each run of invalid samples once it ends. */
+    interface GapListener {
+        /**
+         * One run of invalid samples.
+         *
+         * @param startIndex   first invalid sample, index from the stream start
+         * @param endIndex     first valid sample after the run (or the stream end)
+         * @param startFs      start of the unknown span
+         * @param endFs        end of the unknown span
+         * @param levelChanged whether the level differs after the run
+         */
+        void gap(long startIndex, long endIndex, long startFs, long endFs, boolean levelChanged);
+    }
+
+    private final long originFs;
+    private final double periodFs;
+    private final boolean cubic;
+    private final GapListener gaps;
+
+    private float thr;
+    private float upper;
+    private float lower;
+    private long floorIndex;
+
+    private boolean high;
+    private boolean anyValid;
+    private boolean inInvalid;
+    private long invalidStart;
+    private long validRunStart;
+    private long next;
+
+    private final float[] ring = new float[RING];
+
+    private float[] ca;
+    private float[] cb;
+    private int cao;
+    private int cbo;
+    private int clen;
+    private long cbase;
+    private long[] cinv;
+    private long[] cbits;
+    private boolean chunkOpen;
+
+    private boolean pending;
+    private long pendJ;
+    private float pendThr;
+    private double pendY0;
+    private double pendY1;
+    private double pendY2;
+    private boolean pendHaveY0;
+
+    private long[] times = new long[256];
+    private int timeCount;
+    private long[] spans = new long[16];
+    private int spanCount;
+    private boolean initialKnown;
+    private boolean emittedLevel;
+    private long emittedUntil;
+    private boolean invert;
+    private long transitionsTotal;
+
+    Comparator(long originFs, double periodFs, boolean cubic, GapListener gaps) {
+        this.originFs = originFs;
+        this.periodFs = periodFs;
+        this.cubic = cubic;
+        this.gaps = gaps;
+        this.emittedUntil = originFs;
+    }
+
+    void setInvert(boolean invert) {
+        this.invert = invert;
+    }
+
+    boolean invert() {
+        return invert;
+    }
+
+    /**
+     * Sets the threshold and hysteresis from a sample on.
+     *
+     * @param thresholdVolts  threshold
+     * @param hysteresisVolts total width of the hysteresis band
+     * @param fromIndex       first sample it applies to
+     */
+    void setThreshold(double thresholdVolts, double hysteresisVolts, long fromIndex) {
+        thr = (float) thresholdVolts;
+        float half = (float) (hysteresisVolts / 2);
+        upper = thr + half;
+        lower = thr - half;
+        floorIndex = fromIndex;
+    }
+
+    float threshold() {
+        return thr;
+    }
+
+    float hysteresis() {
+        return upper - lower;
+    }
+
+    long nextIndex() {
+        return next;
+    }
+
+    long transitionsTotal() {
+        return transitionsTotal;
+    }
+
+    /** Time of a fractional sample position, exact to the femtosecond for any capture length. */
+    long timeAt(long k, double frac) {
+        double hi = k * periodFs;
+        double lo = Math.fma((double) k, periodFs, -hi);
+        long r = Math.round(hi);
+        return originFs + r + Math.round((hi - r) + lo + frac * periodFs);
+    }
+
+    /**
+     * Starts the next chunk of samples. {@code inv} becomes owned (NaN samples are added to it);
+     * {@code bits} receives the comparator state of every sample.
+     */
+    void beginChunk(float[] a, int ao, float[] b, int bo, int len, long[] inv, long[] bits) {
+        if (chunkOpen) {
+            saveTail();
+        }
+        ca = a;
+        cao = ao;
+        cb = b;
+        cbo = bo;
+        clen = len;
+        cinv = inv;
+        cbits = bits;
+        cbase = next;
+        chunkOpen = true;
+        if (pending && len > 0) {
+            resolvePending(true);
+        }
+    }
+
+    long[] chunkInvalid() {
+        return cinv;
+    }
+
+    private void saveTail() {
+        int from = Math.max(0, clen - RING);
+        for (int i = from; i < clen; i++) {
+            float d = cb == null ? ca[cao + i] : ca[cao + i] - cb[cbo + i];
+            ring[(int) ((cbase + i) & RING_MASK)] = d;
+        }
+    }
+
+    private float d(long k) {
+        if (k >= cbase) {
+            int i = (int) (k - cbase);
+            return cb == null ? ca[cao + i] : ca[cao + i] - cb[cbo + i];
+        }
+        return ring[(int) (k & RING_MASK)];
+    }
+
+    private boolean invalidAt(int i) {
+        return cinv != null && (cinv[i >>> 6] & (1L << i)) != 0;
+    }
+
+    /** Processes samples {@code [s0, s1)} of the current chunk (chunk-relative), in order. */
+    void runSegment(int s0, int s1) {
+        int i = s0;
+        while (i < s1) {
+            if (invalidAt(i)) {
+                int r = nextValid(i, s1);
+                if (!inInvalid) {
+                    inInvalid = true;
+                    invalidStart = cbase + i;
+                }
+                if (high) {
+                    BitSets.setRange(cbits, i, r);
+                }
+                i = r;
+                continue;
+            }
+            int r1 = nextInvalid(i, s1);
+            if (inInvalid || !anyValid) {
+                startValidRun(i);
+            }
+            int stop = cb == null ? fastRunSingle(i, r1) : fastRunPair(i, r1);
+            if (stop < r1) {
+                if (cinv == null) {
+                    cinv = new long[BitSets.words(clen)];
+                }
+                cinv[stop >>> 6] |= 1L << stop;
+                i = stop;
+                continue;
+            }
+            i = r1;
+        }
+        next = cbase + s1;
+    }
+
+    private int nextValid(int i, int end) {
+        while (i < end) {
+            long w = ~cinv[i >>> 6] & (-1L << i);
+            if (w != 0) {
+                int j = ((i >>> 6) << 6) + Long.numberOfTrailingZeros(w);
+                return Math.min(j, end);
+            }
+            i = ((i >>> 6) + 1) << 6;
+        }
+        return end;
+    }
+
+    private int nextInvalid(int i, int end) {
+        if (cinv == null) {
+            return end;
+        }
+        while (i < end) {
+            long w = cinv[i >>> 6] & (-1L << i);
+            if (w != 0) {
+                int j = ((i >>> 6) << 6) + Long.numberOfTrailingZeros(w);
+                return Math.min(j, end);
+            }
+            i = ((i >>> 6) + 1) << 6;
+        }
+        return end;
+    }
+
+    private void startValidRun(int i) {
+        long k = cbase + i;
+        boolean level = d(k) > thr;
+        if (inInvalid) {
+            long s = Math.max(originFs, timeAt(invalidStart, -0.5));
+            long e = timeAt(k, -0.5);
+            addSpan(s, e);
+            boolean changed = level != high;
+            if (changed) {
+                addTime(e);
+            }
+            if (gaps != null) {
+                gaps.gap(invalidStart, k, s, e, changed);
+            }
+            inInvalid = false;
+        } else if (!anyValid) {
+            // first sample of the stream
+            high = level;
+            initialKnown = true;
+            emittedLevel = level;
+        }
+        high = level;
+        anyValid = true;
+        validRunStart = k;
+    }
+
+    private int fastRunPair(int r0, int r1) {
+        final float[] a = ca;
+        final float[] b = cb;
+        final int ao = cao;
+        final int bo = cbo;
+        final long[] bits = cbits;
+        int i = r0;
+        int runStart = r0;
+        while (true) {
+            if (!high) {
+                final float up = upper;
+                while (i < r1 && a[ao + i] - b[bo + i] <= up) {
+                    i++;
+                }
+                if (i >= r1) {
+                    return r1;
+                }
+                float v = a[ao + i] - b[bo + i];
+                if (v != v) {
+                    return i;
+                }
+                trip(i, true);
+                runStart = i;
+            } else {
+                final float lo = lower;
+                while (i < r1 && a[ao + i] - b[bo + i] >= lo) {
+                    i++;
+                }
+                BitSets.setRange(bits, runStart, i);
+                if (i >= r1) {
+                    return r1;
+                }
+                float v = a[ao + i] - b[bo + i];
+                if (v != v) {
+                    return i;
+                }
+                trip(i, false);
+            }
+        }
+    }
+
+    private int fastRunSingle(int r0, int r1) {
+        final float[] a = ca;
+        final int ao = cao;
+        final long[] bits = cbits;
+        int i = r0;
+        int runStart = r0;
+        while (true) {
+            if (!high) {
+                final float up = upper;
+                while (i < r1 && a[ao + i] <= up) {
+                    i++;
+                }
+                if (i >= r1) {
+                    return r1;
+                }
+                if (a[ao + i] != a[ao + i]) {
+                    return i;
+                }
+                trip(i, true);
+                runStart = i;
+            } else {
+                final float lo = lower;
+                while (i < r1 && a[ao + i] >= lo) {
+                    i++;
+                }
+                BitSets.setRange(bits, runStart, i);
+                if (i >= r1) {
+                    return r1;
+                }
+                if (a[ao + i] != a[ao + i]) {
+                    return i;
+                }
+                trip(i, false);
+            }
+        }
+    }
+
+    /** A confirmed transition at chunk-relative sample {@code i}. */
+    private void trip(int i, boolean rising) {
+        long k = cbase + i;
+        high = rising;
+        long floor = Math.max(Math.max(validRunStart, floorIndex), k - MAX_BACK);
+        float t = thr;
+        long j = k - 1;
+        if (rising) {
+            while (j >= floor && !(d(j) <= t)) {
+                j--;
+            }
+        } else {
+            while (j >= floor && !(d(j) >= t)) {
+                j--;
+            }
+        }
+        if (j < floor) {
+            // no threshold crossing within reach: time the crossing of the trip level
+            if (k - 1 >= validRunStart) {
+                double f = Crossing.linear(d(k - 1), d(k), rising ? upper : lower);
+                addTime(timeAt(k - 1, f));
+            } else {
+                addTime(timeAt(k, 0));
+            }
+            return;
+        }
+        double y1 = d(j);
+        double y2 = d(j + 1);
+        if (!cubic) {
+            addTime(timeAt(j, Crossing.linear(y1, y2, t)));
+            return;
+        }
+        boolean haveY0 = j - 1 >= validRunStart && j - 1 >= k - MAX_BACK - 1;
+        double y0 = haveY0 ? d(j - 1) : 0;
+        if (j + 2 <= k) {
+            finishCrossing(j, t, haveY0, y0, y1, y2, true, d(j + 2));
+            return;
+        }
+        // j + 2 == k + 1: the sample after the trip point
+        if (i + 1 < clen) {
+            boolean ok = !invalidAt(i + 1);
+            float y3 = ok ? d(k + 1) : Float.NaN;
+            finishCrossing(j, t, haveY0, y0, y1, y2, ok && y3 == y3, y3);
+            return;
+        }
+        pending = true;
+        pendJ = j;
+        pendThr = t;
+        pendHaveY0 = haveY0;
+        pendY0 = y0;
+        pendY1 = y1;
+        pendY2 = y2;
+    }
+
+    private void finishCrossing(long j, float t, boolean haveY0, double y0, double y1, double y2, boolean haveY3, double y3) {
+        double f = haveY0 && haveY3 ? Crossing.cubic(y0, y1, y2, y3, t) : Crossing.linear(y1, y2, t);
+        addTime(timeAt(j, f));
+    }
+
+    private void resolvePending(boolean haveNext) {
+        pending = false;
+        boolean ok = haveNext && !invalidAt(0);
+        double y3 = ok ? d(cbase) : Double.NaN;
+        finishCrossing(pendJ, pendThr, pendHaveY0, pendY0, pendY1, pendY2, ok && y3 == y3, y3);
+    }
+
+    private void addTime(long t) {
+        if (timeCount == times.length) {
+            times = Arrays.copyOf(times, times.length * 2);
+        }
+        times[timeCount++] = t;
+        transitionsTotal++;
+    }
+
+    private void addSpan(long s, long e) {
+        if (2 * spanCount + 2 > spans.length) {
+            spans = Arrays.copyOf(spans, spans.length * 2);
+        }
+        spans[2 * spanCount] = s;
+        spans[2 * spanCount + 1] = e;
+        spanCount++;
+    }
+
+    /** The earliest time any transition not yet recorded can have. */
+    private long safeTime() {
+        if (pending) {
+            return timeAt(pendJ, 0);
+        }
+        long e = next;
+        if (!anyValid || inInvalid) {
+            return Math.max(originFs, timeAt(e, -0.5));
+        }
+        long floor = Math.max(Math.max(validRunStart, floorIndex), e - MAX_BACK);
+        float t = thr;
+        for (long k = e - 1; k >= floor; k--) {
+            float v = d(k);
+            if (high ? v >= t : v <= t) {
+                return timeAt(k, 0);
+            }
+        }
+        return timeAt(e - 1, 0);
+    }
+
+    /**
+     * Emits the edges known so far: a block from the end of the previous one to the earliest time
+     * a later transition can have. At the end of the stream it covers up to the time after the
+     * last sample.
+     *
+     * @param channel channel name
+     * @param atEnd   the stream has ended
+     * @return the block, or null when it would cover nothing
+     */
+    Edges takeEdges(String channel, boolean atEnd) {
+        long safe;
+        if (atEnd) {
+            if (pending) {
+                resolvePending(false);
+            }
+            if (inInvalid) {
+                long s = Math.max(originFs, timeAt(invalidStart, -0.5));
+                long e = Math.max(s, timeAt(next, 0));
+                addSpan(s, e);
+                if (gaps != null) {
+                    gaps.gap(invalidStart, next, s, e, false);
+                }
+                inInvalid = false;
+            }
+            safe = Math.max(emittedUntil, timeAt(next, 0));
+        } else {
+            safe = Math.max(emittedUntil, safeTime());
+        }
+        int n = 0;
+        while (n < timeCount && times[n] < safe) {
+            n++;
+        }
+        if (atEnd && n < timeCount) {
+            safe = times[timeCount - 1] + 1;
+            n = timeCount;
+        }
+        long start = emittedUntil;
+        if (safe <= start && n == 0) {
+            return null;
+        }
+        long[] out = Arrays.copyOf(times, n);
+        System.arraycopy(times, n, times, 0, timeCount - n);
+        timeCount -= n;
+        // unknown spans overlapping [start, safe)
+        long[] sp = null;
+        int sc = 0;
+        int keep = 0;
+        for (int s = 0; s < spanCount; s++) {
+            long a = Math.max(start, spans[2 * s]);
+            long z = Math.min(safe, spans[2 * s + 1]);
+            if (z > a) {
+                if (sp == null) {
+                    sp = new long[2 * spanCount + 2];
+                }
+                sp[2 * sc] = a;
+                sp[2 * sc + 1] = z;
+                sc++;
+            }
+            if (spans[2 * s + 1] > safe) {
+                spans[2 * keep] = spans[2 * s];
+                spans[2 * keep + 1] = spans[2 * s + 1];
+                keep++;
+            }
+        }
+        spanCount = keep;
+        if (inInvalid) {
+            long a = Math.max(start, Math.max(originFs, timeAt(invalidStart, -0.5)));
+            if (safe > a) {
+                if (sp == null) {
+                    sp = new long[2];
+                } else if (sp.length < 2 * sc + 2) {
+                    sp = Arrays.copyOf(sp, 2 * sc + 2);
+                }
+                sp[2 * sc] = a;
+                sp[2 * sc + 1] = safe;
+                sc++;
+            }
+        }
+        boolean initial = emittedLevel;
+        if ((n & 1) != 0) {
+            emittedLevel = !emittedLevel;
+        }
+        emittedUntil = safe;
+        return new Edges(channel, start, safe, initial ^ invert, out, n, sp, sc);
+    }
+
+    boolean currentLevel() {
+        return high;
+    }
+
+    boolean initialKnown() {
+        return initialKnown;
+    }
+}

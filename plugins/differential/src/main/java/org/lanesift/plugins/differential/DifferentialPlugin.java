@@ -1,0 +1,121 @@
+package org.lanesift.plugins.differential;
+
+import java.util.List;
+import org.lanesift.data.DataKind;
+import org.lanesift.plugin.OptionSpec;
+import org.lanesift.plugin.OptionValues;
+import org.lanesift.plugin.PluginDescriptor;
+import org.lanesift.plugin.PluginProvider;
+import org.lanesift.plugin.PortSpec;
+import org.lanesift.plugin.Stage;
+import org.lanesift.plugin.StageContext;
+import org.lanesift.time.TimeValue;
+
+/**
+ * Plugin {@code differential}: turns a differential pair into one clean logic signal with
+ * interpolated edge times, and checks its electrical levels.
+ *
+ * <p><b>Modes</b> (option {@code mode}): {@code pair} takes the two legs {@code p} and {@code n}
+ * (ANALOG, volts) and compares {@code p - n}; {@code differential} takes one channel {@code in}
+ * from a differential probe (volts); {@code single} takes one leg {@code in} and compares it
+ * against a reference (the mid-level of its two levels, its median, or {@code referenceVolts});
+ * {@code logic-pair} takes {@code p} and {@code n} as LOGIC channels, follows {@code p} and marks
+ * samples where both legs agree as invalid.
+ *
+ * <p><b>Comparator.</b> Threshold {@code thresholdVolts} and total hysteresis width
+ * {@code hysteresisVolts} (the output goes high above threshold + hysteresis/2 and low below
+ * threshold - hysteresis/2). Absent, the threshold is the midpoint of the two dominant levels of the
+ * histogram of the first {@code warmupSamples} samples, and the hysteresis is
+ * {@code hysteresisFraction} of the swing between them; output is held back until the warm-up is
+ * complete, so results do not depend on how the capture is cut into blocks. Learned levels then
+ * follow slow drift: at the end of every window of {@code windowSamples} samples they move toward
+ * the window's settled levels by {@code 1 - exp(-window / adaptTimeConstant)} (a first-order
+ * filter with that time constant; 0 switches it off).
+ *
+ * <p><b>Outputs.</b> {@code edges} (EDGES): each confirmed transition is timed where the signal
+ * crossed the threshold itself, interpolated between samples ({@code interpolation} linear, or
+ * cubic through four samples); runs of invalid input samples become unknown spans and produce no
+ * edges. {@code logic} (LOGIC): the comparator state at each input sample time. {@code report}
+ * (ARTIFACT): {@code <instance>-levels.json} with levels, common mode, spread, overshoot and
+ * undershoot for the whole capture and per window, checked against {@code levelProfile}
+ * ({@code lvds}: ANSI/TIA/EIA-644-A; {@code dphy-hs}, {@code dphy-lp}: MIPI D-PHY); findings are
+ * annotations with severities.
+ *
+ * <p><b>Caution.</b> Probing a live link: keep within the voltage and power limits of the scope
+ * input (a 50-ohm input in particular), do not tie the scope ground to a mains-referenced circuit,
+ * and handle display flex cables with ESD protection; local codes and licensed practice come first.
+ */
+public final class DifferentialPlugin implements PluginProvider {
+    /** The plugin id used in chain files. */
+    public static final String ID = "differential";
+
+    private static final PluginDescriptor DESCRIPTOR = PluginDescriptor.builder(ID)
+            .name("Differential to logic, with level checks")
+            .version("0.1.0")
+            .description("Turns a differential pair (two analog legs, one differential-probe channel, one leg against a"
+                    + " reference, or two logic channels) into one logic signal and an edge list with interpolated"
+                    + " crossing times; reports levels and checks them against LVDS or MIPI D-PHY limits.")
+            .option(OptionSpec.choice("mode", "pair", "what is probed: pair (analog p and n), differential (one"
+                    + " differential-probe channel), single (one leg against a reference), logic-pair (p and n as logic)",
+                    "pair", "differential", "single", "logic-pair"))
+            .option(OptionSpec.text("name", "", "name of the output channel; empty means the instance id"))
+            .option(OptionSpec.number("thresholdVolts", "V", Double.NaN, -100.0, 100.0,
+                    "comparator threshold on the difference; absent means learned from the levels"))
+            .option(OptionSpec.number("hysteresisVolts", "V", Double.NaN, 0.0, 100.0,
+                    "total width of the hysteresis band; absent means hysteresisFraction of the swing"))
+            .option(OptionSpec.number("hysteresisFraction", "", 0.1, 0.0, 0.9,
+                    "hysteresis as a fraction of the swing between the two levels, when hysteresisVolts is absent"))
+            .option(OptionSpec.choice("reference", "mid-level", "mode single: compare the leg against the mid-level of"
+                    + " its two levels, its median, or referenceVolts (fixed)", "mid-level", "median", "fixed"))
+            .option(OptionSpec.number("referenceVolts", "V", Double.NaN, -100.0, 100.0,
+                    "mode single with reference=fixed: the reference level"))
+            .option(OptionSpec.bool("invert", false, "invert the output polarity"))
+            .option(OptionSpec.bool("detectSwap", false, "detect swapped legs from swapPattern over the warm-up and"
+                    + " correct the polarity (annotated)"))
+            .option(OptionSpec.choice("swapPattern", "clock-1100011", "what the signal is known to do: a 7:1 pixel-link"
+                    + " clock lane (high 4 of 7 slots), or a line that idles high or low", "clock-1100011", "idle-high", "idle-low"))
+            .option(OptionSpec.choice("interpolation", "linear", "edge time between samples: linear, or cubic through"
+                    + " four samples", "linear", "cubic"))
+            .option(OptionSpec.choice("levelProfile", "lvds", "limits the levels are checked against", "lvds", "dphy-hs",
+                    "dphy-lp", "none"))
+            .option(OptionSpec.integer("windowSamples", 65536L, 256, 1L << 26,
+                    "samples per window of the level statistics and of drift adaptation"))
+            .option(OptionSpec.time("adaptTimeConstant", TimeValue.Unit.SAMPLES, "1000000samples",
+                    "time constant of the drift adaptation of learned levels; 0 switches it off"))
+            .option(OptionSpec.integer("warmupSamples", 8192L, 64, 1L << 22,
+                    "samples learned from before any output, when threshold or hysteresis are learned"))
+            .option(OptionSpec.integer("statsStride", 4L, 1, 1024,
+                    "level statistics use every n-th sample (1 for exact overshoot peaks)"))
+            .inputs(DifferentialPlugin::inputs)
+            .outputs(o -> List.of(
+                    PortSpec.of("edges", DataKind.EDGES, "transitions with interpolated times; unknown spans where input was invalid"),
+                    PortSpec.of("logic", DataKind.LOGIC, "comparator output at the input sample times"),
+                    PortSpec.of("report", DataKind.ARTIFACT, "<instance>-levels.json: levels per capture and per window")))
+            .build();
+
+    /** Creates the provider (stateless). */
+    public DifferentialPlugin() {
+    }
+
+    private static List<PortSpec> inputs(OptionValues o) {
+        return switch (o.getString("mode")) {
+            case "differential" -> List.of(PortSpec.of("in", DataKind.ANALOG, "differential-probe channel, volts"));
+            case "single" -> List.of(PortSpec.of("in", DataKind.ANALOG, "one leg, volts"));
+            case "logic-pair" -> List.of(PortSpec.of("p", DataKind.LOGIC, "positive leg as logic"),
+                    PortSpec.of("n", DataKind.LOGIC, "negative leg as logic"));
+            default -> List.of(PortSpec.of("p", DataKind.ANALOG, "positive leg, volts"),
+                    PortSpec.of("n", DataKind.ANALOG, "negative leg, volts"));
+        };
+    }
+
+    @Override
+    public PluginDescriptor descriptor() {
+        return DESCRIPTOR;
+    }
+
+    @Override
+    public Stage open(StageContext context) {
+        Settings s = new Settings(context.options(), context.instanceId());
+        return s.mode == Settings.Mode.LOGIC_PAIR ? new LogicPairStage(context, s) : new AnalogStage(context, s);
+    }
+}

@@ -1,0 +1,99 @@
+package org.lanesift.plugins.differential;
+
+import java.util.List;
+import java.util.Locale;
+import org.lanesift.annotation.Severity;
+
+/**
+ * Electrical level limits a capture is checked against. Each check names the quantity, its limits
+ * in volts (NaN where there is none) and where the numbers come from.
+ */
+enum LevelProfile {
+    /** LVDS, ANSI/TIA/EIA-644-A driver and receiver limits. */
+    LVDS("lvds", List.of(
+            new Check("vod-high", "|VOD| in the high state", 0.247, 0.454, LevelProfile.TIA644),
+            new Check("vod-low", "|VOD| in the low state", 0.247, 0.454, LevelProfile.TIA644),
+            new Check("vod", "leg swing (|VOD| of a complementary pair)", 0.247, 0.454, LevelProfile.TIA644),
+            new Check("vos", "offset (common-mode) voltage", 1.125, 1.375, LevelProfile.TIA644),
+            new Check("delta-vod", "change of |VOD| between states", Double.NaN, 0.050, LevelProfile.TIA644 + "; from memory"),
+            new Check("delta-vos", "change of VOS between states", Double.NaN, 0.050, LevelProfile.TIA644 + "; from memory"),
+            new Check("vid-high", "differential input in the high state (receiver threshold +100 mV)", 0.100, Double.NaN,
+                    LevelProfile.TIA644),
+            new Check("vid-low", "differential input in the low state, magnitude (receiver threshold -100 mV)", 0.100, Double.NaN,
+                    LevelProfile.TIA644))),
+    /** MIPI D-PHY high-speed levels. */
+    DPHY_HS("dphy-hs", List.of(
+            new Check("vod-high", "|VOD| in the high state", 0.140, 0.270, LevelProfile.DPHY),
+            new Check("vod-low", "|VOD| in the low state", 0.140, 0.270, LevelProfile.DPHY),
+            new Check("vod", "leg swing", 0.140, 0.270, LevelProfile.DPHY),
+            new Check("vos", "common-mode voltage (about 200 mV)", 0.150, 0.250, LevelProfile.DPHY))),
+    /** MIPI D-PHY low-power (single-ended) levels. */
+    DPHY_LP("dphy-lp", List.of(
+            new Check("lp-high", "low-power high level against the receiver's high threshold", 0.880, Double.NaN, LevelProfile.DPHY),
+            new Check("lp-low", "low-power low level against the receiver's low threshold", Double.NaN, 0.550, LevelProfile.DPHY))),
+    /** No limits; levels are only reported. */
+    NONE("none", List.of());
+
+    static final String TIA644 = "ANSI/TIA/EIA-644-A (values from memory, DESIGN.md section 6)";
+    static final String DPHY = "MIPI D-PHY (values from memory, DESIGN.md section 6)";
+    /** Relative distance to a limit under which a level inside it is reported as near the limit. */
+    static final double NEAR_FRACTION = 0.05;
+    /** Numerical tolerance on limits, volts: float samples cannot hit a limit exactly. */
+    static final double TOLERANCE_VOLTS = 1e-6;
+
+    final String id;
+    final List<Check> checks;
+
+    LevelProfile(String id, List<Check> checks) {
+        this.id = id;
+        this.checks = checks;
+    }
+
+    static LevelProfile of(String id) {
+        for (LevelProfile p : values()) {
+            if (p.id.equals(id)) {
+                return p;
+            }
+        }
+        throw new IllegalArgumentException("unknown level profile '" + id + "'");
+    }
+
+    /**
+     * One limit check.
+     *
+     * @param quantity stable quantity name
+     * @param what     human description
+     * @param min      lower limit, volts, or NaN
+     * @param max      upper limit, volts, or NaN
+     * @param source   where the limits come from
+     */
+    record Check(String quantity, String what, double min, double max, String source) {
+        /**
+         * Judges a value: ERROR outside the limits, WARNING inside but within
+         * {@link #NEAR_FRACTION} of the band (or of a one-sided limit's value) from a limit, INFO
+         * otherwise; null when the value is not known.
+         */
+        Severity judge(double v) {
+            if (Double.isNaN(v)) {
+                return null;
+            }
+            if ((!Double.isNaN(min) && v < min - TOLERANCE_VOLTS) || (!Double.isNaN(max) && v > max + TOLERANCE_VOLTS)) {
+                return Severity.ERROR;
+            }
+            double margin = !Double.isNaN(min) && !Double.isNaN(max) ? NEAR_FRACTION * (max - min)
+                    : NEAR_FRACTION * Math.abs(Double.isNaN(min) ? max : min);
+            if ((!Double.isNaN(min) && v < min + margin) || (!Double.isNaN(max) && v > max - margin)) {
+                return Severity.WARNING;
+            }
+            return Severity.INFO;
+        }
+
+        String limits() {
+            if (!Double.isNaN(min) && !Double.isNaN(max)) {
+                return String.format(Locale.ROOT, "%.0f to %.0f mV", min * 1e3, max * 1e3);
+            }
+            return !Double.isNaN(min) ? String.format(Locale.ROOT, "at least %.0f mV", min * 1e3)
+                    : String.format(Locale.ROOT, "at most %.0f mV", max * 1e3);
+        }
+    }
+}
