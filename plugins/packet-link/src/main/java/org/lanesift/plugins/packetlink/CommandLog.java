@@ -1,0 +1,290 @@
+package org.lanesift.plugins.packetlink;
+
+import java.nio.charset.StandardCharsets;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+import java.util.Locale;
+
+/**
+ * Every command seen on the link, in order, with its time and parameters; and the exports built
+ * from it: the full log as JSON and CSV, and the folded init sequence as JSON and as a C array
+ * (layout in {@code docs/init-sequence.md}).
+ *
+ * <p>The delay after a command is measured from the end of its packet to the start of the next
+ * command's packet. Folding: a run of memory writes (start + continues) becomes one entry; then a
+ * block of one to eight entries repeated back to back (such as column address, page address,
+ * memory write in every frame) is kept once with its repeat count.
+ */
+final class CommandLog {
+    /** One command. */
+    static final class Entry {
+        long startFs;
+        long endFs;
+        String mode;
+        int vc;
+        int dataType;
+        int cmd;
+        String name;
+        byte[] params;
+        int payloadBytes;
+        String meaning;
+        boolean checksumBad;
+        boolean eccCorrected;
+        int packets = 1;
+        int repeat = 1;
+        int period = 1;
+        long delayFs = -1;
+
+        boolean isMemoryWrite() {
+            return DataTypes.isDcs(dataType) && DcsCommands.isMemoryWrite(cmd);
+        }
+
+        boolean sameAs(Entry o) {
+            if (dataType != o.dataType || cmd != o.cmd || vc != o.vc) {
+                return false;
+            }
+            return isMemoryWrite() || Arrays.equals(params, o.params);
+        }
+    }
+
+    final List<Entry> entries = new ArrayList<>();
+    private final int max;
+    boolean overflow;
+
+    CommandLog(int max) {
+        this.max = max;
+    }
+
+    /** Adds a command; returns false (and drops it) when the log is full. */
+    boolean add(Entry e) {
+        if (!entries.isEmpty()) {
+            Entry prev = entries.get(entries.size() - 1);
+            prev.delayFs = e.startFs - prev.endFs;
+        }
+        if (entries.size() >= max) {
+            overflow = true;
+            return false;
+        }
+        entries.add(e);
+        return true;
+    }
+
+    /** The folded init sequence. */
+    List<Entry> folded() {
+        List<Entry> runs = new ArrayList<>();
+        for (int i = 0; i < entries.size(); i++) {
+            Entry e = entries.get(i);
+            if (e.isMemoryWrite() && !runs.isEmpty()) {
+                Entry last = runs.get(runs.size() - 1);
+                if (last.isMemoryWrite() && last.vc == e.vc && e.cmd == DcsCommands.MEMORY_WRITE_CONTINUE) {
+                    last.payloadBytes += e.payloadBytes;
+                    last.packets++;
+                    last.endFs = e.endFs;
+                    last.delayFs = e.delayFs;
+                    continue;
+                }
+            }
+            runs.add(copy(e));
+        }
+        List<Entry> out = new ArrayList<>();
+        int i = 0;
+        while (i < runs.size()) {
+            int bestL = 0;
+            int bestReps = 1;
+            for (int len = 1; len <= 8 && i + 2 * len <= runs.size(); len++) {
+                int reps = 1;
+                while (i + (reps + 1) * len <= runs.size() && blockEquals(runs, i, i + reps * len, len)) {
+                    reps++;
+                }
+                if (reps >= 2 && reps * len > bestReps * Math.max(1, bestL)) {
+                    bestL = len;
+                    bestReps = reps;
+                }
+            }
+            if (bestL == 0) {
+                out.add(runs.get(i));
+                i++;
+                continue;
+            }
+            for (int k = 0; k < bestL; k++) {
+                Entry e = runs.get(i + k);
+                e.repeat = bestReps;
+                e.period = bestL;
+                if (k == bestL - 1) {
+                    // the delay after the folded block is the one after its last repetition
+                    e.delayFs = runs.get(i + bestReps * bestL - 1).delayFs;
+                }
+                out.add(e);
+            }
+            i += bestReps * bestL;
+        }
+        return out;
+    }
+
+    private static boolean blockEquals(List<Entry> l, int a, int b, int len) {
+        for (int k = 0; k < len; k++) {
+            if (!l.get(a + k).sameAs(l.get(b + k))) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    private static Entry copy(Entry e) {
+        Entry c = new Entry();
+        c.startFs = e.startFs;
+        c.endFs = e.endFs;
+        c.mode = e.mode;
+        c.vc = e.vc;
+        c.dataType = e.dataType;
+        c.cmd = e.cmd;
+        c.name = e.name;
+        c.params = e.params;
+        c.payloadBytes = e.payloadBytes;
+        c.meaning = e.meaning;
+        c.checksumBad = e.checksumBad;
+        c.eccCorrected = e.eccCorrected;
+        c.packets = e.packets;
+        c.delayFs = e.delayFs;
+        return c;
+    }
+
+    // ---------------------------------------------------------------- exports
+
+    byte[] json(String id) {
+        StringBuilder sb = new StringBuilder(4096);
+        sb.append("{\n  \"format\": \"lanesift-command-log/1\",\n  \"instance\": ").append(Json.str(id))
+                .append(",\n  \"truncated\": ").append(overflow).append(",\n  \"commands\": [");
+        appendEntries(sb, entries);
+        sb.append("\n  ],\n  \"initSequence\": [");
+        appendEntries(sb, folded());
+        sb.append("\n  ]\n}\n");
+        return sb.toString().getBytes(StandardCharsets.UTF_8);
+    }
+
+    private static void appendEntries(StringBuilder sb, List<Entry> list) {
+        for (int i = 0; i < list.size(); i++) {
+            Entry e = list.get(i);
+            sb.append(i == 0 ? "\n" : ",\n").append("    {\"index\": ").append(i)
+                    .append(", \"timeS\": ").append(Json.num(e.startFs * 1e-15))
+                    .append(", \"mode\": ").append(Json.str(e.mode))
+                    .append(", \"vc\": ").append(e.vc)
+                    .append(", \"dataType\": ").append(Json.str(String.format(Locale.ROOT, "0x%02X", e.dataType)))
+                    .append(", \"dataTypeName\": ").append(Json.str(DataTypes.name(e.dataType)))
+                    .append(", \"command\": ").append(e.cmd < 0 ? "null" : Json.str(String.format(Locale.ROOT, "0x%02X", e.cmd)))
+                    .append(", \"name\": ").append(Json.str(e.name))
+                    .append(", \"params\": ").append(Json.str(hex(e.params)))
+                    .append(", \"paramCount\": ").append(e.params == null ? 0 : e.params.length);
+            if (e.isMemoryWrite()) {
+                sb.append(", \"payloadBytes\": ").append(e.payloadBytes).append(", \"packets\": ").append(e.packets);
+            }
+            sb.append(", \"meaning\": ").append(Json.str(e.meaning))
+                    .append(", \"delayToNextMs\": ").append(e.delayFs < 0 ? "null" : Json.num(e.delayFs * 1e-12));
+            if (e.repeat > 1) {
+                sb.append(", \"repeat\": ").append(e.repeat).append(", \"repeatBlock\": ").append(e.period);
+            }
+            if (e.checksumBad) {
+                sb.append(", \"checksumBad\": true");
+            }
+            if (e.eccCorrected) {
+                sb.append(", \"eccCorrected\": true");
+            }
+            sb.append('}');
+        }
+    }
+
+    byte[] csv() {
+        StringBuilder sb = new StringBuilder(4096);
+        sb.append("index,time_s,mode,vc,data_type,data_type_name,command,name,param_count,params_hex,delay_to_next_ms,flags\n");
+        for (int i = 0; i < entries.size(); i++) {
+            Entry e = entries.get(i);
+            sb.append(i).append(',').append(Json.num(e.startFs * 1e-15)).append(',').append(e.mode).append(',').append(e.vc).append(',')
+                    .append(String.format(Locale.ROOT, "0x%02X", e.dataType)).append(',').append(DataTypes.name(e.dataType)).append(',')
+                    .append(e.cmd < 0 ? "" : String.format(Locale.ROOT, "0x%02X", e.cmd)).append(',').append(e.name).append(',')
+                    .append(e.isMemoryWrite() ? e.payloadBytes : e.params == null ? 0 : e.params.length).append(',')
+                    .append(hex(e.params)).append(',')
+                    .append(e.delayFs < 0 ? "" : Json.num(e.delayFs * 1e-12)).append(',');
+            String f = (e.checksumBad ? "checksum-bad " : "") + (e.eccCorrected ? "ecc-corrected " : "");
+            sb.append(f.trim()).append('\n');
+        }
+        return sb.toString().getBytes(StandardCharsets.UTF_8);
+    }
+
+    /** Delay in whole milliseconds for replay: under 1 ms is 0, otherwise rounded up; capped at 65535. */
+    static int replayDelayMs(long delayFs) {
+        if (delayFs < 1_000_000_000_000L) {
+            return 0;
+        }
+        long ms = (delayFs + 999_999_999_999L) / 1_000_000_000_000L;
+        return (int) Math.min(65535, ms);
+    }
+
+    byte[] cHeader(String id) {
+        String sym = id.replaceAll("[^A-Za-z0-9_]", "_");
+        if (sym.isEmpty() || Character.isDigit(sym.charAt(0))) {
+            sym = "_" + sym;
+        }
+        StringBuilder sb = new StringBuilder(4096);
+        sb.append("/* Display init sequence decoded by lanesift packet-link, instance ").append(id.replace("*/", "")).append(".\n")
+                .append(" * Layout (docs/init-sequence.md): records of\n")
+                .append(" *   kind, command, count_lo, count_hi, params[count], delay_ms_lo, delay_ms_hi\n")
+                .append(" * kind = (virtual channel << 6) | type; type 1 = DCS write, 2 = generic write, 0x00 ends the table.\n")
+                .append(" * Delays: time from the end of a command to the start of the next one; under 1 ms\n")
+                .append(" * written as 0, otherwise rounded up to whole ms. Memory writes (pixel data) and reads are left out.\n */\n")
+                .append("#ifndef ").append(sym.toUpperCase(Locale.ROOT)).append("_INIT_H\n#define ").append(sym.toUpperCase(Locale.ROOT))
+                .append("_INIT_H\n\n#include <stdint.h>\n\n")
+                .append("static const uint8_t ").append(sym).append("_init[] = {\n");
+        int records = 0;
+        List<String> skipped = new ArrayList<>();
+        for (Entry e : folded()) {
+            int type;
+            if (DataTypes.isDcs(e.dataType) && e.dataType != DataTypes.DCS_READ) {
+                type = 1;
+            } else if (DataTypes.isGenericWrite(e.dataType)) {
+                type = 2;
+            } else {
+                skipped.add(e.name);
+                continue;
+            }
+            if (e.isMemoryWrite()) {
+                skipped.add(e.name + " (" + e.payloadBytes + " bytes)");
+                continue;
+            }
+            byte[] p = e.params == null ? new byte[0] : e.params;
+            int cmd = e.cmd < 0 ? 0 : e.cmd;
+            int delay = replayDelayMs(e.delayFs < 0 ? 0 : e.delayFs);
+            sb.append(String.format(Locale.ROOT, "    0x%02X, 0x%02X, 0x%02X, 0x%02X,", (e.vc << 6) | type, cmd, p.length & 0xFF, p.length >> 8 & 0xFF));
+            for (byte b : p) {
+                sb.append(String.format(Locale.ROOT, " 0x%02X,", b & 0xFF));
+            }
+            sb.append(String.format(Locale.ROOT, " 0x%02X, 0x%02X, /* %s", delay & 0xFF, delay >> 8 & 0xFF, e.name.replace("*/", "")));
+            if (e.repeat > 1) {
+                sb.append(", repeated ").append(e.repeat).append(" times in the capture");
+            }
+            sb.append(delay > 0 ? ", then wait " + delay + " ms" : "").append(" */\n");
+            records++;
+        }
+        sb.append("    0x00 /* end */\n};\n\n");
+        sb.append("#define ").append(sym.toUpperCase(Locale.ROOT)).append("_INIT_RECORDS ").append(records).append("\n");
+        if (!skipped.isEmpty()) {
+            sb.append("/* left out: ").append(String.join(", ", skipped).replace("*/", "")).append(" */\n");
+        }
+        sb.append("\n#endif\n");
+        return sb.toString().getBytes(StandardCharsets.UTF_8);
+    }
+
+    static String hex(byte[] b) {
+        if (b == null) {
+            return "";
+        }
+        StringBuilder sb = new StringBuilder(b.length * 3);
+        for (int i = 0; i < b.length; i++) {
+            if (i > 0) {
+                sb.append(' ');
+            }
+            sb.append(Character.toUpperCase(Character.forDigit(b[i] >> 4 & 15, 16))).append(Character.toUpperCase(Character.forDigit(b[i] & 15, 16)));
+        }
+        return sb.toString();
+    }
+}

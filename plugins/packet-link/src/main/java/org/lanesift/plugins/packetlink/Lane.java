@@ -1,0 +1,219 @@
+package org.lanesift.plugins.packetlink;
+
+import java.util.ArrayDeque;
+import org.lanesift.data.AnalogBlock;
+import org.lanesift.data.BitStream;
+
+/**
+ * One data lane inside the stage: pairs the samples of its two legs, runs the state tracker,
+ * and routes the lane's sampled bits into one deserializer per high-speed interval. Bits are held
+ * until the legs tell whether they fall inside a burst; bits outside bursts are dropped.
+ */
+final class Lane {
+    /** A finished burst of one lane. */
+    static final class Burst {
+        final long startFs;
+        final long endFs;
+        final LaneDeserializer words;
+
+        Burst(long startFs, long endFs, LaneDeserializer words) {
+            this.startFs = startFs;
+            this.endFs = endFs;
+            this.words = words;
+        }
+    }
+
+    /** Creates a fresh deserializer for a new burst. */
+    interface DeserializerFactory {
+        LaneDeserializer create(int lane);
+    }
+
+    final int index;
+    final LaneStateTracker tracker;
+    private final DeserializerFactory factory;
+    private final ArrayDeque<AnalogBlock> legP = new ArrayDeque<>();
+    private final ArrayDeque<AnalogBlock> legN = new ArrayDeque<>();
+    private int posP;
+    private int posN;
+    private final ArrayDeque<BitStream> bits = new ArrayDeque<>();
+    private int bitPos;
+    private long bitsDoneFs = Long.MIN_VALUE;
+    private LaneDeserializer current;
+    private LaneStateTracker.Interval currentInterval;
+    final ArrayDeque<Burst> done = new ArrayDeque<>();
+
+    Lane(int index, LaneStateTracker tracker, DeserializerFactory factory) {
+        this.index = index;
+        this.tracker = tracker;
+        this.factory = factory;
+    }
+
+    void acceptLeg(boolean positive, AnalogBlock b) {
+        if (b.length() == 0) {
+            return;
+        }
+        (positive ? legP : legN).add(b);
+        pairLegs();
+    }
+
+    void acceptBits(BitStream b) {
+        bits.add(b);
+    }
+
+    private void pairLegs() {
+        while (!legP.isEmpty() && !legN.isEmpty()) {
+            AnalogBlock p = legP.peek();
+            AnalogBlock n = legN.peek();
+            double period = p.periodFs();
+            long tp = p.startFs() + Math.round(posP * period);
+            long tn = n.startFs() + Math.round(posN * n.periodFs());
+            if (tp < tn - period / 2) {
+                posP += Math.max(1, (int) Math.min(p.length() - posP, Math.floor((tn - tp) / period + 0.5)));
+            } else if (tn < tp - period / 2) {
+                posN += Math.max(1, (int) Math.min(n.length() - posN, Math.floor((tp - tn) / period + 0.5)));
+            } else {
+                int k = Math.min(p.length() - posP, n.length() - posN);
+                tracker.accept(p.volts(), posP, p.invalid(), n.volts(), posN, n.invalid(), k, tp, period);
+                posP += k;
+                posN += k;
+            }
+            if (posP >= p.length()) {
+                legP.poll();
+                posP = 0;
+            }
+            if (posN >= n.length()) {
+                legN.poll();
+                posN = 0;
+            }
+        }
+    }
+
+    /** Moves every bit whose state is settled into its burst (or drops it); finishes completed bursts. */
+    void drainBits() {
+        long known = tracker.knownUntilFs();
+        while (!bits.isEmpty()) {
+            BitStream b = bits.peek();
+            int i = bitPos;
+            long[] t = b.timesFs();
+            int count = b.count();
+            while (i < count) {
+                long ti = t[i];
+                if (ti >= known) {
+                    bitPos = i;
+                    bitsDoneFs = Math.max(bitsDoneFs, ti);
+                    finishBursts();
+                    return;
+                }
+                LaneStateTracker.Interval iv = tracker.intervals.peek();
+                if (iv != null && iv.closed && ti >= iv.endFs) {
+                    closeInterval();
+                    continue;
+                }
+                if (iv == null || ti < iv.startFs) {
+                    long until = iv == null ? known : Math.min(iv.startFs, known);
+                    i = firstAtOrAfter(t, i, count, until);
+                    continue;
+                }
+                if (currentInterval != iv) {
+                    currentInterval = iv;
+                    current = factory.create(index);
+                }
+                int j = firstAtOrAfter(t, i, count, Math.min(iv.endFs, known));
+                current.feed(b, i, j);
+                i = j;
+            }
+            bitsDoneFs = Math.max(bitsDoneFs, b.endFs());
+            bits.poll();
+            bitPos = 0;
+        }
+        finishBursts();
+    }
+
+    private void finishBursts() {
+        LaneStateTracker.Interval iv;
+        while ((iv = tracker.intervals.peek()) != null && iv.closed && iv.endFs <= bitsDoneFs) {
+            closeInterval();
+        }
+    }
+
+    private void closeInterval() {
+        LaneStateTracker.Interval iv = tracker.intervals.poll();
+        LaneDeserializer d = currentInterval == iv ? current : factory.create(index);
+        done.add(new Burst(iv.startFs, iv.endFs, d));
+        currentInterval = null;
+        current = null;
+    }
+
+    /** End of input: settle all state and close every burst. */
+    void finish() {
+        tracker.finish();
+        bitsDoneFs = Long.MAX_VALUE;
+        // everything is known now
+        while (!bits.isEmpty()) {
+            BitStream b = bits.poll();
+            int i = bitPos;
+            bitPos = 0;
+            long[] t = b.timesFs();
+            while (i < b.count()) {
+                LaneStateTracker.Interval iv = tracker.intervals.peek();
+                if (iv == null) {
+                    break;
+                }
+                if (t[i] >= iv.endFs) {
+                    closeInterval();
+                    continue;
+                }
+                if (t[i] < iv.startFs) {
+                    i = firstAtOrAfter(t, i, b.count(), iv.startFs);
+                    continue;
+                }
+                if (currentInterval != iv) {
+                    currentInterval = iv;
+                    current = factory.create(index);
+                }
+                int j = firstAtOrAfter(t, i, b.count(), iv.endFs);
+                current.feed(b, i, j);
+                i = j;
+            }
+        }
+        while (!tracker.intervals.isEmpty()) {
+            closeInterval();
+        }
+    }
+
+    /** First index in {@code [from, to)} whose time is at least {@code limit}, or {@code to}. */
+    static int firstAtOrAfter(long[] t, int from, int to, long limit) {
+        if (from >= to || t[from] >= limit) {
+            return from;
+        }
+        int lo = from;
+        int hi = to;
+        while (lo < hi) {
+            int mid = (lo + hi) >>> 1;
+            if (t[mid] < limit) {
+                lo = mid + 1;
+            } else {
+                hi = mid;
+            }
+        }
+        return lo;
+    }
+
+    /** Framed links without line states: every bit goes to one endless deserializer. */
+    void drainContinuous() {
+        if (current == null) {
+            current = factory.create(index);
+        }
+        while (!bits.isEmpty()) {
+            BitStream b = bits.poll();
+            current.feed(b, 0, b.count());
+        }
+    }
+
+    LaneDeserializer continuous() {
+        if (current == null) {
+            current = factory.create(index);
+        }
+        return current;
+    }
+}

@@ -1,0 +1,236 @@
+package org.lanesift.plugins.packetlink;
+
+import java.util.Arrays;
+import org.lanesift.data.BitSets;
+import org.lanesift.data.BitStream;
+
+/**
+ * Cuts one lane's bits into words: looks for the sync pattern bit by bit, then packs every later
+ * bit into a growing buffer (64 bits at a time) and notes the sample time of each word's first
+ * bit. Words are read out later with {@link #word}, so the trail at the end of a burst can be cut
+ * off first ({@link #dataBits}). With a group size, the pattern is sought again after each group.
+ */
+final class LaneDeserializer {
+    /** Receives a finished group of words (fixed-length grouping). */
+    interface GroupSink {
+        void group(LaneDeserializer d);
+    }
+
+    final int lane;
+    final long syncWire;
+    final int syncBits;
+    final int wordBits;
+    final boolean msbFirst;
+    final int groupWords;
+    final int maxBits;
+    private final GroupSink groups;
+
+    boolean synced;
+    long syncFoundFs;
+    private long shift;
+    private int shiftCount;
+    long[] bits = new long[17];
+    long[] flagged = new long[17];
+    boolean anyFlagged;
+    int nbits;
+    long[] wordStartFs = new long[128];
+    int wordStarts;
+    boolean overflow;
+    double uiFs;
+    long lastBitFs = Long.MIN_VALUE;
+    long seekBits;
+
+    LaneDeserializer(int lane, long syncWire, int syncBits, int wordBits, boolean msbFirst, int groupWords, int maxBits, GroupSink groups) {
+        this.lane = lane;
+        this.syncWire = syncWire;
+        this.syncBits = syncBits;
+        this.wordBits = wordBits;
+        this.msbFirst = msbFirst;
+        this.groupWords = groupWords;
+        this.maxBits = maxBits;
+        this.groups = groups;
+        this.synced = syncBits == 0;
+    }
+
+    /** Starts over: a new burst. */
+    void reset() {
+        synced = syncBits == 0;
+        syncFoundFs = Long.MIN_VALUE;
+        shift = 0;
+        shiftCount = 0;
+        clearWords();
+        overflow = false;
+        seekBits = 0;
+    }
+
+    private void clearWords() {
+        Arrays.fill(bits, 0, Math.min(bits.length, (nbits >>> 6) + 2), 0L);
+        if (anyFlagged) {
+            Arrays.fill(flagged, 0L);
+        }
+        anyFlagged = false;
+        nbits = 0;
+        wordStarts = 0;
+    }
+
+    /**
+     * Feeds bits {@code [from, to)} of a stream.
+     *
+     * @param s    the stream
+     * @param from first bit
+     * @param to   end bit, exclusive
+     */
+    void feed(BitStream s, int from, int to) {
+        if (s.unitIntervalFs() > 0) {
+            uiFs = s.unitIntervalFs();
+        }
+        if (to > from) {
+            lastBitFs = s.timesFs()[to - 1];
+        }
+        int i = from;
+        long[] v = s.values();
+        while (i < to) {
+            if (!synced) {
+                long mask = syncBits == 64 ? -1L : (1L << syncBits) - 1;
+                while (i < to) {
+                    long bit = (v[i >>> 6] >>> i) & 1L;
+                    shift = (shift >>> 1) | (bit << (syncBits - 1));
+                    i++;
+                    seekBits++;
+                    if (++shiftCount >= syncBits && (shift & mask) == syncWire) {
+                        synced = true;
+                        syncFoundFs = s.timesFs()[i - 1];
+                        break;
+                    }
+                }
+                continue;
+            }
+            int n = to - i;
+            if (groupWords > 0) {
+                n = Math.min(n, groupWords * wordBits - nbits);
+            }
+            if (nbits + n > maxBits) {
+                n = maxBits - nbits;
+                overflow = true;
+            }
+            if (n <= 0) {
+                if (overflow) {
+                    return;
+                }
+            } else {
+                append(s, i, n);
+                i += n;
+            }
+            if (groupWords > 0 && nbits == groupWords * wordBits) {
+                groups.group(this);
+                clearWords();
+                synced = syncBits == 0;
+                shift = 0;
+                shiftCount = 0;
+            }
+            if (overflow) {
+                return;
+            }
+        }
+    }
+
+    private void append(BitStream s, int i, int n) {
+        int need = BitSets.words(nbits + n) + 1;
+        if (need > bits.length) {
+            int cap = Math.max(need, bits.length * 2);
+            bits = Arrays.copyOf(bits, cap);
+            flagged = Arrays.copyOf(flagged, cap);
+        }
+        Bits.append(s.values(), i, bits, nbits, n);
+        if (BitSets.any(s.flagged(), i, i + n)) {
+            Bits.append(s.flagged(), i, flagged, nbits, n);
+            anyFlagged = true;
+        }
+        long[] t = s.timesFs();
+        int rem = nbits % wordBits;
+        int j = rem == 0 ? 0 : wordBits - rem;
+        int starts = j < n ? (n - j + wordBits - 1) / wordBits : 0;
+        if (wordStarts + starts > wordStartFs.length) {
+            wordStartFs = Arrays.copyOf(wordStartFs, Math.max(wordStarts + starts, wordStartFs.length * 2));
+        }
+        for (; j < n; j += wordBits) {
+            wordStartFs[wordStarts++] = t[i + j];
+        }
+        nbits += n;
+    }
+
+    /** Number of bits before the trail: the final run of equal bits is the trail (MIPI D-PHY, from memory). */
+    int dataBits() {
+        return nbits == 0 ? 0 : Bits.finalRunStart(bits, nbits);
+    }
+
+    /** Number of complete words in the buffer. */
+    int completeWords() {
+        return nbits / wordBits;
+    }
+
+    /**
+     * Word {@code k} of the buffer.
+     *
+     * @param k word index
+     * @return its value, first wire bit in bit 0 ({@code lsb}) or in the top bit ({@code msb})
+     */
+    long word(int k) {
+        long x = Bits.get64(bits, k * wordBits);
+        if (wordBits < 64) {
+            x &= (1L << wordBits) - 1;
+        }
+        if (msbFirst) {
+            x = Long.reverse(x) >>> (64 - wordBits);
+        }
+        return x;
+    }
+
+    /** Whether any bit of word {@code k} was flagged by the sampler. */
+    boolean wordFlagged(int k) {
+        return anyFlagged && BitSets.any(flagged, k * wordBits, Math.min(nbits, (k + 1) * wordBits));
+    }
+
+    /** Time of the first bit of word {@code k}. */
+    long wordStart(int k) {
+        return wordStartFs[k];
+    }
+
+    /** Time just after the last bit of word {@code k}. */
+    long wordEnd(int k) {
+        if (k + 1 < wordStarts) {
+            return wordStartFs[k + 1];
+        }
+        return wordStartFs[k] + Math.round(wordBits * (uiFs > 0 ? uiFs : 0));
+    }
+
+    /**
+     * Drops the first {@code words} complete words, keeping the bits after them (continuous links).
+     *
+     * @param words number of words to drop
+     */
+    void dropWords(int words) {
+        if (words <= 0) {
+            return;
+        }
+        int drop = words * wordBits;
+        int keep = nbits - drop;
+        long[] nb = new long[Math.max(17, BitSets.words(keep) + 2)];
+        if (keep > 0) {
+            Bits.append(bits, drop, nb, 0, keep);
+        }
+        if (anyFlagged) {
+            long[] nf = new long[nb.length];
+            if (keep > 0) {
+                Bits.append(flagged, drop, nf, 0, keep);
+            }
+            flagged = nf;
+        } else {
+            flagged = new long[nb.length];
+        }
+        bits = nb;
+        System.arraycopy(wordStartFs, words, wordStartFs, 0, wordStarts - words);
+        wordStarts -= words;
+        nbits = keep;
+    }
+}

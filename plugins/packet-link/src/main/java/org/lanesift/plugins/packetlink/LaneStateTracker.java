@@ -1,0 +1,377 @@
+package org.lanesift.plugins.packetlink;
+
+import java.util.ArrayDeque;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.function.Consumer;
+import org.lanesift.annotation.Annotation;
+import org.lanesift.annotation.Field;
+import org.lanesift.annotation.Severity;
+
+/**
+ * Follows the line state of one lane from its two single-ended legs, sample by sample, and keeps
+ * the list of high-speed intervals for the bit handling.
+ *
+ * <p>Each leg reads high above {@code lpHighVolts}, low below {@code lpLowVolts}, and keeps its
+ * last reading in between (the hysteresis of a low-power receiver). Both legs low with a common
+ * mode inside {@code [hsCommonMinVolts, hsCommonMaxVolts]} is high speed; below it, LP-00. A new
+ * state counts only once it has lasted {@code minStateFs}; it then starts at its first sample and
+ * the previous state ends just after its own last sample. Sequences are checked from each stop
+ * state (LP-11): LP-01, LP-00 then HS is a high-speed entry; LP-10, LP-00, LP-01, LP-00 an escape
+ * entry; LP-10, LP-00, LP-10, LP-00 a turnaround request (MIPI D-PHY, from memory). In escape mode
+ * the spaced one-hot marks (LP-10 = 1, LP-01 = 0, each followed by LP-00; from memory) are
+ * collected; the first eight are the escape command, and after a low-power data command the rest
+ * are bytes, least significant bit first, handed to {@link LpdtSink}.
+ */
+final class LaneStateTracker {
+    /** A committed high-speed interval {@code [startFs, endFs)}; {@code endFs} is MAX_VALUE while open. */
+    static final class Interval {
+        final long startFs;
+        long endFs = Long.MAX_VALUE;
+        boolean closed;
+
+        Interval(long startFs) {
+            this.startFs = startFs;
+        }
+    }
+
+    /** Receives low-power data bytes from escape mode. */
+    interface LpdtSink {
+        void bytes(int lane, byte[] data, long[] startFs, long[] endFs, int count);
+    }
+
+    /** Escape command codes in transmission order, first bit in bit 7 (MIPI D-PHY, from memory). */
+    static final int ESC_LPDT = 0b11100001;
+    static final int ESC_ULPS = 0b00011110;
+    static final int ESC_RESET_TRIGGER = 0b01100010;
+
+    private final int lane;
+    private final String track;
+    private final float highVolts;
+    private final float lowVolts;
+    private final float cmMinVolts;
+    private final float cmMaxVolts;
+    private final long minStateFs;
+    private final Consumer<Annotation> out;
+    private final LpdtSink lpdt;
+
+    private boolean legP;
+    private boolean legN;
+    private boolean legsKnown;
+    private LaneState committed;
+    private long committedStartFs;
+    private long lastMatchEndFs = Long.MIN_VALUE;
+    private LaneState candidate;
+    private long candidateStartFs;
+    private long processedUntilFs = Long.MIN_VALUE;
+
+    private final List<LaneState> sequence = new ArrayList<>();
+    private final List<long[]> sequenceSpans = new ArrayList<>();
+    private boolean escape;
+    private long escapeStartFs;
+    private final List<long[]> marks = new ArrayList<>();
+    private LaneState pendingMark;
+    private long pendingMarkStartFs;
+
+    final ArrayDeque<Interval> intervals = new ArrayDeque<>();
+    private Interval open;
+    int burstCount;
+
+    LaneStateTracker(int lane, double highVolts, double lowVolts, double cmMinVolts, double cmMaxVolts, long minStateFs,
+                     Consumer<Annotation> out, LpdtSink lpdt) {
+        this.lane = lane;
+        this.track = "lane" + lane + ".state";
+        this.highVolts = (float) highVolts;
+        this.lowVolts = (float) lowVolts;
+        this.cmMinVolts = (float) cmMinVolts;
+        this.cmMaxVolts = (float) cmMaxVolts;
+        this.minStateFs = minStateFs;
+        this.out = out;
+        this.lpdt = lpdt;
+    }
+
+    /**
+     * Takes {@code n} sample pairs.
+     *
+     * @param p        positive leg samples
+     * @param pOff     first positive sample
+     * @param pInvalid validity mask of the positive block or null
+     * @param nv       negative leg samples
+     * @param nOff     first negative sample
+     * @param nInvalid validity mask of the negative block or null
+     * @param n        pairs
+     * @param t0Fs     time of the first pair
+     * @param periodFs sample period
+     */
+    void accept(float[] p, int pOff, long[] pInvalid, float[] nv, int nOff, long[] nInvalid, int n, long t0Fs, double periodFs) {
+        long step = Math.round(periodFs);
+        for (int i = 0; i < n; i++) {
+            long t = t0Fs + Math.round(i * periodFs);
+            LaneState s;
+            int ip = pOff + i;
+            int in = nOff + i;
+            if ((pInvalid != null && (pInvalid[ip >>> 6] & (1L << ip)) != 0) || (nInvalid != null && (nInvalid[in >>> 6] & (1L << in)) != 0)) {
+                s = LaneState.INVALID;
+            } else {
+                s = classify(p[ip], nv[in]);
+            }
+            step(s, t, step);
+        }
+    }
+
+    private LaneState classify(float vp, float vn) {
+        if (!legsKnown) {
+            legP = vp > (highVolts + lowVolts) * 0.5f;
+            legN = vn > (highVolts + lowVolts) * 0.5f;
+            legsKnown = true;
+        }
+        if (vp > highVolts) {
+            legP = true;
+        } else if (vp < lowVolts) {
+            legP = false;
+        }
+        if (vn > highVolts) {
+            legN = true;
+        } else if (vn < lowVolts) {
+            legN = false;
+        }
+        if (legP) {
+            return legN ? LaneState.LP11 : LaneState.LP10;
+        }
+        if (legN) {
+            return LaneState.LP01;
+        }
+        float cm = (vp + vn) * 0.5f;
+        if (cm < cmMinVolts) {
+            return LaneState.LP00;
+        }
+        return cm <= cmMaxVolts ? LaneState.HS : LaneState.INVALID;
+    }
+
+    private void step(LaneState s, long t, long step) {
+        processedUntilFs = t + step;
+        if (committed == null) {
+            if (candidate != s) {
+                candidate = s;
+                candidateStartFs = t;
+            }
+            if (t - candidateStartFs >= minStateFs) {
+                commit(s, candidateStartFs, t + step);
+            }
+            return;
+        }
+        if (s == committed) {
+            lastMatchEndFs = t + step;
+            candidate = null;
+            return;
+        }
+        if (candidate != s) {
+            candidate = s;
+            candidateStartFs = t;
+        }
+        if (t - candidateStartFs >= minStateFs) {
+            commit(s, candidateStartFs, t + step);
+        }
+    }
+
+    /** Time before which the lane's state is settled: bits earlier than this may be classified. */
+    long knownUntilFs() {
+        if (committed == null) {
+            return candidate == null ? Long.MIN_VALUE : candidateStartFs;
+        }
+        return candidate == null ? processedUntilFs : lastMatchEndFs;
+    }
+
+    private void commit(LaneState s, long startFs, long matchEndFs) {
+        LaneState prev = committed;
+        long prevStart = committedStartFs;
+        long prevEnd = prev == null ? startFs : Math.min(lastMatchEndFs, startFs);
+        if (prev != null) {
+            stateSpan(prev, prevStart, prevEnd);
+        }
+        committed = s;
+        committedStartFs = startFs;
+        lastMatchEndFs = matchEndFs;
+        candidate = null;
+        if (prev == LaneState.HS && open != null) {
+            open.endFs = prevEnd;
+            open.closed = true;
+            open = null;
+            if (s == LaneState.LP11) {
+                out.accept(Annotation.on(track, "hs-exit").span(prevEnd, startFs).label("HS exit to LP-11")
+                        .field("lane", Field.integer(lane, "")).build());
+            } else {
+                out.accept(Annotation.on(track, "hs-exit-bad").span(prevEnd, startFs).severity(Severity.WARNING)
+                        .label("HS exit to " + s.label + ", expected LP-11").field("lane", Field.integer(lane, ""))
+                        .field("state", Field.enumValue(s.label)).build());
+            }
+        }
+        if (escape && prev != null) {
+            escapeStep(prev, prevStart, prevEnd, s);
+        }
+        if (s == LaneState.LP11) {
+            if (escape) {
+                endEscape(startFs);
+            }
+            sequence.clear();
+            sequenceSpans.clear();
+            return;
+        }
+        if (s == LaneState.HS) {
+            checkHsEntry(startFs);
+            open = new Interval(startFs);
+            intervals.add(open);
+            burstCount++;
+            sequence.clear();
+            sequenceSpans.clear();
+            return;
+        }
+        if (escape || s == LaneState.INVALID) {
+            if (s == LaneState.INVALID) {
+                out.accept(Annotation.on(track, "lane-level-invalid").span(startFs, startFs).severity(Severity.WARNING)
+                        .label("lane " + lane + " levels fit no line state").field("lane", Field.integer(lane, "")).build());
+            }
+            return;
+        }
+        if (sequence.size() < 8) {
+            sequence.add(s);
+            sequenceSpans.add(new long[] {startFs});
+        }
+        if (matches(LaneState.LP10, LaneState.LP00, LaneState.LP01, LaneState.LP00)) {
+            escape = true;
+            escapeStartFs = sequenceSpans.get(0)[0];
+            marks.clear();
+            pendingMark = null;
+            out.accept(Annotation.on(track, "escape-entry").span(escapeStartFs, startFs).label("escape mode entry")
+                    .field("lane", Field.integer(lane, "")).build());
+        } else if (matches(LaneState.LP10, LaneState.LP00, LaneState.LP10, LaneState.LP00)) {
+            out.accept(Annotation.on(track, "turnaround-request").span(sequenceSpans.get(0)[0], startFs)
+                    .label("bus turnaround request").field("lane", Field.integer(lane, "")).build());
+        }
+    }
+
+    private boolean matches(LaneState... want) {
+        if (sequence.size() != want.length) {
+            return false;
+        }
+        for (int i = 0; i < want.length; i++) {
+            if (sequence.get(i) != want[i]) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    private void checkHsEntry(long hsStartFs) {
+        boolean ok = matches(LaneState.LP01, LaneState.LP00);
+        if (ok) {
+            long lp01 = sequenceSpans.get(0)[0];
+            long lp00 = sequenceSpans.get(1)[0];
+            out.accept(Annotation.on(track, "hs-entry").span(lp01, hsStartFs).label("HS entry LP-11, LP-01, LP-00")
+                    .field("lane", Field.integer(lane, ""))
+                    .number("lp01Duration", (lp00 - lp01) * 1e-15, "s")
+                    .number("lp00Duration", (hsStartFs - lp00) * 1e-15, "s").build());
+        } else {
+            StringBuilder seq = new StringBuilder("LP-11");
+            for (LaneState x : sequence) {
+                seq.append(", ").append(x.label);
+            }
+            out.accept(Annotation.on(track, "hs-entry-bad").span(hsStartFs, hsStartFs).severity(Severity.WARNING)
+                    .label("HS entered after " + seq + ", expected LP-11, LP-01, LP-00")
+                    .field("lane", Field.integer(lane, "")).text("sequence", seq.toString()).build());
+        }
+    }
+
+    private void escapeStep(LaneState prev, long prevStart, long prevEnd, LaneState next) {
+        if (prev == LaneState.LP10 || prev == LaneState.LP01) {
+            pendingMark = prev;
+            pendingMarkStartFs = prevStart;
+            if (next == LaneState.LP00) {
+                marks.add(new long[] {prev == LaneState.LP10 ? 1 : 0, prevStart, prevEnd});
+                pendingMark = null;
+            }
+        }
+    }
+
+    private void endEscape(long atFs) {
+        escape = false;
+        // the mark just before LP-11 is the exit mark, not data
+        int n = marks.size();
+        int cmd = 0;
+        int cmdBits = Math.min(8, n);
+        for (int i = 0; i < cmdBits; i++) {
+            cmd = cmd << 1 | (int) marks.get(i)[0];
+        }
+        String name;
+        if (cmdBits < 8) {
+            name = "incomplete";
+        } else if (cmd == ESC_LPDT) {
+            name = "low-power-data";
+        } else if (cmd == ESC_ULPS) {
+            name = "ultra-low-power";
+        } else if (cmd == ESC_RESET_TRIGGER) {
+            name = "reset-trigger";
+        } else {
+            name = "unknown";
+        }
+        int dataBits = Math.max(0, n - 8);
+        Annotation.Builder b = Annotation.on(track, "escape-command").span(escapeStartFs, atFs)
+                .label("escape command " + name + (cmdBits == 8 ? String.format(Locale.ROOT, " (%8s)", Integer.toBinaryString(cmd)).replace(' ', '0') : ""))
+                .severity(cmdBits < 8 || name.equals("unknown") ? Severity.WARNING : Severity.INFO)
+                .field("lane", Field.integer(lane, "")).field("command", Field.enumValue(name))
+                .field("dataBits", Field.integer(dataBits, ""));
+        out.accept(b.build());
+        if (cmdBits == 8 && cmd == ESC_LPDT && dataBits > 0) {
+            if (dataBits % 8 != 0) {
+                out.accept(Annotation.on(track, "lpdt-partial-byte").span(escapeStartFs, atFs).severity(Severity.WARNING)
+                        .label((dataBits % 8) + " low-power data bits after the last whole byte ignored")
+                        .field("lane", Field.integer(lane, "")).build());
+            }
+            int bytes = dataBits / 8;
+            byte[] data = new byte[bytes];
+            long[] s = new long[bytes];
+            long[] e = new long[bytes];
+            for (int k = 0; k < bytes; k++) {
+                int v = 0;
+                for (int j = 0; j < 8; j++) {
+                    v |= (int) marks.get(8 + 8 * k + j)[0] << j;
+                }
+                data[k] = (byte) v;
+                s[k] = marks.get(8 + 8 * k)[1];
+                e[k] = marks.get(8 + 8 * k + 7)[2];
+            }
+            if (lpdt != null && bytes > 0) {
+                lpdt.bytes(lane, data, s, e, bytes);
+            }
+        }
+        marks.clear();
+    }
+
+    private void stateSpan(LaneState s, long startFs, long endFs) {
+        out.accept(Annotation.on(track, "lane-state").span(startFs, Math.max(startFs, endFs)).label(s.label)
+                .field("lane", Field.integer(lane, "")).field("state", Field.enumValue(s.label)).build());
+    }
+
+    /** Ends the capture: closes an open interval and reports the last state. */
+    void finish() {
+        if (candidate != null && committed != null && processedUntilFs - candidateStartFs >= minStateFs) {
+            commit(candidate, candidateStartFs, processedUntilFs);
+        }
+        if (committed != null) {
+            long end = Math.max(committedStartFs, lastMatchEndFs);
+            stateSpan(committed, committedStartFs, end);
+            if (open != null) {
+                open.endFs = end;
+                open.closed = true;
+                out.accept(Annotation.on(track, "hs-burst-cut").span(open.startFs, end).severity(Severity.WARNING)
+                        .label("capture ended inside a high-speed burst").field("lane", Field.integer(lane, "")).build());
+                open = null;
+            }
+        }
+    }
+
+    LaneState committed() {
+        return committed;
+    }
+}

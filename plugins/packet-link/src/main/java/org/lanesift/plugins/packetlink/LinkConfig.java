@@ -1,0 +1,112 @@
+package org.lanesift.plugins.packetlink;
+
+import java.util.Locale;
+import org.lanesift.plugin.OptionException;
+import org.lanesift.plugin.OptionSpec;
+import org.lanesift.plugin.OptionValues;
+import org.lanesift.plugin.PluginDescriptor;
+import org.lanesift.time.Femtos;
+
+/** The validated options of one instance, with the cross-option checks. */
+final class LinkConfig {
+    final int lanes;
+    final boolean dsi;
+    final boolean lpStates;
+    final double lpHighVolts;
+    final double lpLowVolts;
+    final double hsCmMinVolts;
+    final double hsCmMaxVolts;
+    final long minStateFs;
+    final long syncWire;
+    final int syncBits;
+    final int wordBits;
+    final boolean msbFirst;
+    final boolean independent;
+    final int groupWords;
+    final boolean dropTrail;
+    final int pngFrames;
+    final long maxBurstBytes;
+    final int maxLogEntries;
+    final long maxFramePixels;
+
+    private LinkConfig(PluginDescriptor d, OptionValues o) {
+        lanes = o.getInt("lanes");
+        dsi = o.getString("profile").equals("dsi");
+        lpHighVolts = o.getDouble("lpHighVolts");
+        lpLowVolts = o.getDouble("lpLowVolts");
+        hsCmMinVolts = o.getDouble("hsCommonMinVolts");
+        hsCmMaxVolts = o.getDouble("hsCommonMaxVolts");
+        String where = "plugin '" + PacketLinkPlugin.ID + "': ";
+        if (!(lpLowVolts < lpHighVolts)) {
+            throw new OptionException("lpLowVolts", where + "option 'lpLowVolts' (" + lpLowVolts + " V) must be below 'lpHighVolts' (" + lpHighVolts + " V)");
+        }
+        if (!(hsCmMinVolts < hsCmMaxVolts) || hsCmMaxVolts >= lpLowVolts) {
+            throw new OptionException("hsCommonMaxVolts", where + "options 'hsCommonMinVolts' < 'hsCommonMaxVolts' < 'lpLowVolts' expected, got "
+                    + hsCmMinVolts + ", " + hsCmMaxVolts + ", " + lpLowVolts + " V");
+        }
+        double st = o.getTime("minStateTime").toFs(Double.NaN, Double.NaN);
+        if (!(st >= 0) || st > 1e12) {
+            throw new OptionException("minStateTime", where + "option 'minStateTime' must be 0 to 1 ms, got " + o.getTime("minStateTime"));
+        }
+        minStateFs = Math.round(st);
+        if (dsi) {
+            for (String f : new String[] {"lpStates", "syncPattern", "syncBits", "wordBits", "bitOrder", "laneDistribution", "groupWords", "dropTrail"}) {
+                OptionSpec spec = d.option(f);
+                if (!o.asMap().get(f).equals(spec.defaultValue())) {
+                    throw new OptionException(f, where + "option '" + f + "' belongs to profile 'framed'; profile 'dsi' fixes it "
+                            + "(sync byte B8, 8-bit words LSB first, byte k on lane k mod N)");
+                }
+            }
+        }
+        lpStates = dsi || o.getBoolean("lpStates");
+        syncBits = o.getInt("syncBits");
+        wordBits = o.getInt("wordBits");
+        msbFirst = o.getString("bitOrder").equals("msb");
+        independent = o.getString("laneDistribution").equals("independent");
+        groupWords = o.getInt("groupWords");
+        dropTrail = dsi || o.getBoolean("dropTrail");
+        String hex = o.getString("syncPattern").trim();
+        if (hex.startsWith("0x") || hex.startsWith("0X")) {
+            hex = hex.substring(2);
+        }
+        if (hex.isEmpty() != (syncBits == 0)) {
+            throw new OptionException("syncBits", where + "option 'syncBits' must be 0 exactly when 'syncPattern' is empty, got syncBits="
+                    + syncBits + " and syncPattern='" + o.getString("syncPattern") + "'");
+        }
+        long pattern = 0;
+        if (!hex.isEmpty()) {
+            if (!hex.matches("[0-9A-Fa-f]{1,16}")) {
+                throw new OptionException("syncPattern", where + "option 'syncPattern' must be 1 to 16 hex digits, got '" + o.getString("syncPattern") + "'");
+            }
+            pattern = Long.parseUnsignedLong(hex.toLowerCase(Locale.ROOT), 16);
+            if (syncBits < 64 && (pattern >>> syncBits) != 0) {
+                throw new OptionException("syncPattern", where + "option 'syncPattern' 0x" + hex + " has bits above 'syncBits' = " + syncBits);
+            }
+        }
+        // wire order: wire bit j is bit j of syncWire
+        syncWire = syncBits == 0 ? 0 : msbFirst ? Long.reverse(pattern) >>> (64 - syncBits) : pattern;
+        pngFrames = o.getInt("pngFrames");
+        maxBurstBytes = o.getLong("maxBurstBytes");
+        maxLogEntries = o.getInt("maxLogEntries");
+        maxFramePixels = o.getLong("maxFramePixels");
+        if (groupWords > 0 && (long) groupWords * wordBits > maxBurstBytes * 8) {
+            throw new OptionException("groupWords", where + "option 'groupWords' x 'wordBits' exceeds 'maxBurstBytes' x 8 bits");
+        }
+    }
+
+    static LinkConfig of(PluginDescriptor d, OptionValues o) {
+        return new LinkConfig(d, o);
+    }
+
+    int inputsPerLane() {
+        return lpStates ? 3 : 1;
+    }
+
+    int maxBits() {
+        return (int) Math.min(Integer.MAX_VALUE - 128, maxBurstBytes * 8);
+    }
+
+    static String fs(long t) {
+        return Femtos.format(t);
+    }
+}

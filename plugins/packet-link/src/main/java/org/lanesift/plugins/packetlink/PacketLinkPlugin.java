@@ -1,0 +1,119 @@
+package org.lanesift.plugins.packetlink;
+
+import java.util.ArrayList;
+import java.util.List;
+import org.lanesift.data.DataKind;
+import org.lanesift.plugin.OptionSpec;
+import org.lanesift.plugin.OptionValues;
+import org.lanesift.plugin.PluginDescriptor;
+import org.lanesift.plugin.PluginProvider;
+import org.lanesift.plugin.PortSpec;
+import org.lanesift.plugin.Stage;
+import org.lanesift.plugin.StageContext;
+import org.lanesift.time.TimeValue;
+
+/**
+ * Plugin {@code packet-link}: decodes packet links with low-power states between high-speed
+ * bursts (the MIPI D-PHY / DSI family, profile {@code dsi}) into packets, display commands, an
+ * init sequence and frames; profile {@code framed} cuts any similar proprietary link into words.
+ *
+ * <p><b>Inputs</b>, per lane {@code k} (0 to {@code lanes - 1}): {@code lane{k}p} and
+ * {@code lane{k}n} (ANALOG, volts) are the two single-ended legs, used for the line states;
+ * {@code bits{k}} (BITS) are the lane's high-speed bits sampled on both clock edges. Only bits
+ * whose sample time falls inside a high-speed interval of their lane are used. With
+ * {@code profile=framed, lpStates=false} the analog inputs are absent and every bit is used.
+ *
+ * <p><b>Outputs</b>: {@code packets} (WORDS: one 8-bit word per burst byte, lanes merged, with
+ * lane and flags; in the framed profile one word of {@code wordBits}), {@code frames} (FRAME) and
+ * {@code files} (ARTIFACT: {@code <id>-commands.json}, {@code <id>-commands.csv},
+ * {@code <id>-init.h}, {@code <id>-timing.json}, {@code <id>-frame-NNNN.png}; framed profile:
+ * {@code <id>-words.csv}).
+ *
+ * <p><b>Chain</b> (two data lanes, legs probed single-ended; the clock and data pairs go through
+ * the {@code differential} plugin and the {@code dual-edge} sampler):
+ *
+ * <pre>{@code
+ * {"nodes": [
+ *   {"id": "src",  "plugin": "<your capture source>", "options": {}},
+ *   {"id": "dclk", "plugin": "differential", "options": {}},
+ *   {"id": "d0",   "plugin": "differential", "options": {}},
+ *   {"id": "d1",   "plugin": "differential", "options": {}},
+ *   {"id": "ddr",  "plugin": "dual-edge", "options": {"lanes": 2}},
+ *   {"id": "dsi",  "plugin": "packet-link", "options": {"lanes": 2, "profile": "dsi"}}],
+ *  "wires": [
+ *   {"from": "src.clkp", "to": "dclk.p"}, {"from": "src.clkn", "to": "dclk.n"},
+ *   {"from": "src.d0p", "to": "d0.p"}, {"from": "src.d0n", "to": "d0.n"},
+ *   {"from": "src.d1p", "to": "d1.p"}, {"from": "src.d1n", "to": "d1.n"},
+ *   {"from": "dclk.edges", "to": "ddr.clock"},
+ *   {"from": "d0.edges", "to": "ddr.lane0"}, {"from": "d1.edges", "to": "ddr.lane1"},
+ *   {"from": "src.d0p", "to": "dsi.lane0p"}, {"from": "src.d0n", "to": "dsi.lane0n"},
+ *   {"from": "src.d1p", "to": "dsi.lane1p"}, {"from": "src.d1n", "to": "dsi.lane1n"},
+ *   {"from": "ddr.bits0", "to": "dsi.bits0"}, {"from": "ddr.bits1", "to": "dsi.bits1"}]}
+ * }</pre>
+ *
+ * (The port names of the source and the {@code differential} plugin above are placeholders; see
+ * those plugins' documentation.)
+ */
+public final class PacketLinkPlugin implements PluginProvider {
+    /** The plugin id. */
+    public static final String ID = "packet-link";
+
+    private static final PluginDescriptor DESCRIPTOR = PluginDescriptor.builder(ID)
+            .name("Packet link decoder")
+            .version("0.1.0")
+            .description("Line states, high-speed bursts, packets, display commands, init sequence and frames of "
+                    + "D-PHY/DSI-like packet links; a generic framed-link profile for unknown links.")
+            .option(OptionSpec.integer("lanes", 1L, 1, 4, "number of data lanes"))
+            .option(OptionSpec.choice("profile", "dsi", "dsi: MIPI DSI packets; framed: generic sync + words", "dsi", "framed"))
+            .option(OptionSpec.number("lpHighVolts", "V", 0.88, 0.0, 5.0, "low-power receiver high threshold (D-PHY, from memory)"))
+            .option(OptionSpec.number("lpLowVolts", "V", 0.55, 0.0, 5.0, "low-power receiver low threshold (D-PHY, from memory)"))
+            .option(OptionSpec.number("hsCommonMinVolts", "V", 0.07, 0.0, 5.0, "lowest common mode counted as high speed"))
+            .option(OptionSpec.number("hsCommonMaxVolts", "V", 0.33, 0.0, 5.0, "highest common mode counted as high speed"))
+            .option(OptionSpec.time("minStateTime", TimeValue.Unit.NS, "30ns", "a line state must last this long to count"))
+            .option(OptionSpec.bool("lpStates", true, "framed profile: lanes have low-power states (analog legs wired)"))
+            .option(OptionSpec.text("syncPattern", "B8", "framed profile: sync pattern in hex (empty: none)"))
+            .option(OptionSpec.integer("syncBits", 8L, 0, 64, "framed profile: length of the sync pattern in bits"))
+            .option(OptionSpec.integer("wordBits", 8L, 1, 64, "framed profile: bits per word"))
+            .option(OptionSpec.choice("bitOrder", "lsb", "framed profile: first bit on the wire is the word's lsb or msb", "lsb", "msb"))
+            .option(OptionSpec.choice("laneDistribution", "word", "framed profile: word k on lane k mod N (word), or each lane its own stream (independent)",
+                    "word", "independent"))
+            .option(OptionSpec.integer("groupWords", 0L, 0, 1 << 20, "framed profile: words per group; the sync is sought again after each (0: no groups)"))
+            .option(OptionSpec.bool("dropTrail", true, "framed profile: drop the final run of equal bits of each burst (the trail)"))
+            .option(OptionSpec.integer("pngFrames", 8L, 0, 100000, "frames written as PNG (the first N)"))
+            .option(OptionSpec.integer("maxBurstBytes", 8L << 20, 64, 1L << 28, "largest burst kept per lane, bytes"))
+            .option(OptionSpec.integer("maxLogEntries", 200000L, 1, 100000000, "commands (or framed words) kept for the exports"))
+            .option(OptionSpec.integer("maxFramePixels", 1L << 24, 1, 1L << 28, "largest frame assembled, pixels"))
+            .inputs(PacketLinkPlugin::inputs)
+            .output(PortSpec.of("packets", DataKind.WORDS, "burst bytes (dsi) or words (framed) with lane and flags"))
+            .output(PortSpec.of("frames", DataKind.FRAME, "frames from video-mode streams and command-mode memory writes"))
+            .output(PortSpec.of("files", DataKind.ARTIFACT, "command log, init sequence, timing report, frame PNGs, word CSV"))
+            .build();
+
+    /** Creates the provider (stateless). */
+    public PacketLinkPlugin() {
+    }
+
+    static List<PortSpec> inputs(OptionValues o) {
+        int lanes = o.getInt("lanes");
+        boolean lp = o.getString("profile").equals("dsi") || o.getBoolean("lpStates");
+        List<PortSpec> in = new ArrayList<>();
+        for (int k = 0; k < lanes; k++) {
+            if (lp) {
+                in.add(PortSpec.of("lane" + k + "p", DataKind.ANALOG, "lane " + k + " positive leg, single-ended, volts"));
+                in.add(PortSpec.of("lane" + k + "n", DataKind.ANALOG, "lane " + k + " negative leg, single-ended, volts"));
+            }
+            in.add(PortSpec.of("bits" + k, DataKind.BITS, "lane " + k + " high-speed bits, sampled on both clock edges"));
+        }
+        return in;
+    }
+
+    @Override
+    public PluginDescriptor descriptor() {
+        return DESCRIPTOR;
+    }
+
+    @Override
+    public Stage open(StageContext context) {
+        return new PacketLinkStage(context, LinkConfig.of(DESCRIPTOR, context.options()));
+    }
+}
