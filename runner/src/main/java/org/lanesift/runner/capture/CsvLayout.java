@@ -1,0 +1,462 @@
+package org.lanesift.runner.capture;
+
+import java.io.IOException;
+import java.io.InputStream;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.NoSuchFileException;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+
+/**
+ * What the head of a CSV capture says: separator, decimal mark, where the data starts, which
+ * column is time (seconds) or sample index, and the channels with their units. Found from at most
+ * {@link #HEAD_BYTES} bytes; see docs/capture-csv.md for the rules.
+ */
+final class CsvLayout {
+    /** Bytes read to find the header. */
+    static final int HEAD_BYTES = 1 << 20;
+    /** Most columns accepted. */
+    static final int MAX_COLUMNS = 4096;
+
+    enum TimeKind { SECONDS, INDEX, NONE }
+
+    Path file;
+    byte separator;
+    boolean decimalComma;
+    long dataOffset;          // byte offset of the first data line
+    long dataLine;            // its 1-based line number
+    int fieldCount;
+    byte[] headerBytes;       // the header line, trimmed, or null
+    TimeKind timeKind = TimeKind.NONE;
+    int timeColumn = -1;
+    double timeScale = 1;     // seconds per unit of the time column
+    String timeUnit = "";
+    int[] channelColumns;
+    String[] channelNames;
+    String[] ports;
+    String[] units;
+    double[] scales;          // to volts (or 1 for other units)
+    double headRowBytes;      // average bytes per data row in the head, for the progress estimate
+    int headRows;
+    double headFirstTime = Double.NaN;
+    double headStep = Double.NaN; // seconds per row, estimated from the head (SECONDS) or NaN
+    double headFirstIndex = Double.NaN;
+    long fileSize;
+
+    private static final Pattern UNIT = Pattern.compile("^(.*?)[\\s_]*[\\(\\[]\\s*([^\\)\\]]*?)\\s*[\\)\\]]\\s*$");
+    private static final Pattern TIME_NAME = Pattern.compile("(?i)(time|t|seconds?|sec|x-axis|timestamp|zeit|temps|tiempo)");
+    private static final Pattern INDEX_NAME = Pattern.compile("(?i)(sample|samples|sample ?index|index|idx|n|no\\.?|nr\\.?|#|point|pt)");
+
+    private CsvLayout() {
+    }
+
+    /**
+     * Reads the head of a file.
+     *
+     * @param file        the CSV file
+     * @param sepOption   "auto", ",", ";" or "\t" (a tab, or the text "tab")
+     * @param dcOption    "auto", "true" or "false"
+     */
+    static CsvLayout sniff(Path file, String sepOption, String dcOption) {
+        CsvLayout l = new CsvLayout();
+        l.file = file;
+        byte[] head;
+        try (InputStream in = Files.newInputStream(file)) {
+            l.fileSize = Files.size(file);
+            head = in.readNBytes(HEAD_BYTES);
+        } catch (NoSuchFileException e) {
+            throw new CaptureFormatException(file, 0, "file not found");
+        } catch (IOException e) {
+            throw new CaptureFormatException(file, 0, "cannot read: " + e.getMessage(), e);
+        }
+        boolean truncatedHead = l.fileSize > head.length;
+        int start = head.length >= 3 && (head[0] & 0xff) == 0xEF && (head[1] & 0xff) == 0xBB && (head[2] & 0xff) == 0xBF ? 3 : 0;
+        // split the head into complete lines
+        List<int[]> lines = new ArrayList<>(); // {from, to(excl, without line end), nextLineStart}
+        int p = start;
+        while (p < head.length) {
+            int q = p;
+            while (q < head.length && head[q] != '\n' && head[q] != '\r') {
+                q++;
+            }
+            if (q >= head.length && truncatedHead) {
+                break; // incomplete last line of the head
+            }
+            int next = q;
+            if (next < head.length && head[next] == '\r') {
+                next++;
+            }
+            if (next < head.length && head[next] == '\n') {
+                next++;
+            }
+            lines.add(new int[] {p, q, next});
+            p = next;
+            if (lines.size() > 200_000) {
+                break;
+            }
+        }
+        if (lines.isEmpty()) {
+            if (head.length == 0 || allBlank(head, start, head.length)) {
+                throw new CaptureFormatException(file, 0, "the file is empty; expected a header line and rows of numbers");
+            }
+            throw new CaptureFormatException(file, 1, "line 1 is longer than " + HEAD_BYTES + " bytes; expected a header of at most "
+                    + MAX_COLUMNS + " columns");
+        }
+        for (int i = 0; i < lines.size(); i++) {
+            int[] ln = lines.get(i);
+            int cols = 1;
+            for (int k = ln[0]; k < ln[1] && cols <= MAX_COLUMNS * 4; k++) {
+                byte c = head[k];
+                if (c == ',' || c == ';' || c == '\t') {
+                    cols++;
+                }
+            }
+            if (cols > MAX_COLUMNS * 2) {
+                throw new CaptureFormatException(file, i + 1, "more than " + MAX_COLUMNS + " columns; at most " + MAX_COLUMNS
+                        + " are supported");
+            }
+        }
+        List<byte[]> combos = new ArrayList<>(); // {separator, decimalComma}
+        for (byte s : sepChoices(sepOption)) {
+            for (boolean dc : dcChoices(dcOption, s)) {
+                combos.add(new byte[] {s, (byte) (dc ? 1 : 0)});
+            }
+        }
+        NumberParser np = new NumberParser();
+        int bestScore = Integer.MIN_VALUE;
+        int bestData = -1;
+        byte[] best = null;
+        for (byte[] c : combos) {
+            int d = firstDataLine(head, lines, c[0], c[1] == 1, np);
+            if (d < 0) {
+                continue;
+            }
+            int n = fields(head, lines.get(d), c[0]).size();
+            int h = prevNonBlank(head, lines, d);
+            boolean match = h >= 0 && fields(head, lines.get(h), c[0]).size() == n;
+            int score = (match ? 1_000_000 : 0) + n * 100 - Math.min(d, 99);
+            if (score > bestScore) {
+                bestScore = score;
+                best = c;
+                bestData = d;
+            }
+        }
+        int lastEnd = lines.isEmpty() ? start : lines.get(lines.size() - 1)[2];
+        if (best == null && truncatedHead && head.length - lastEnd > HEAD_BYTES / 2) {
+            throw new CaptureFormatException(file, lines.size() + 1, "line is longer than " + (head.length - lastEnd)
+                    + " bytes; expected a header of at most " + MAX_COLUMNS + " columns");
+        }
+        if (best == null) {
+            String seps = sepOption.equals("auto") ? "',', ';' or tab" : "'" + printable(sepOption) + "'";
+            throw new CaptureFormatException(file, 0, "found no rows of numbers separated by " + seps
+                    + " in the first " + lines.size() + " lines; expected an optional header line followed by numeric rows"
+                    + " (check the 'separator' and 'decimalComma' options)");
+        }
+        l.separator = best[0];
+        l.decimalComma = best[1] == 1;
+        l.dataOffset = lines.get(bestData)[0];
+        l.dataLine = bestData + 1;
+        List<String> data0 = fields(head, lines.get(bestData), l.separator);
+        l.fieldCount = data0.size();
+        if (l.fieldCount > MAX_COLUMNS) {
+            throw new CaptureFormatException(file, l.dataLine, "more than " + MAX_COLUMNS + " columns; at most "
+                    + MAX_COLUMNS + " are supported");
+        }
+        // header, and an optional units line between header and data
+        int h = prevNonBlank(head, lines, bestData);
+        List<String> names = null;
+        String[] lineUnits = null;
+        if (h >= 0) {
+            List<String> hf = fields(head, lines.get(h), l.separator);
+            if (hf.size() == l.fieldCount) {
+                if (allUnits(hf)) {
+                    int h2 = prevNonBlank(head, lines, h);
+                    if (h2 >= 0 && fields(head, lines.get(h2), l.separator).size() == l.fieldCount) {
+                        lineUnits = hf.stream().map(CsvLayout::stripBrackets).toArray(String[]::new);
+                        h = h2;
+                        hf = fields(head, lines.get(h), l.separator);
+                    }
+                }
+                names = hf;
+                int[] ln = lines.get(h);
+                l.headerBytes = java.util.Arrays.copyOfRange(head, ln[0], trimEnd(head, ln[0], ln[1]));
+            }
+        }
+        int n = l.fieldCount;
+        String[] nm = new String[n];
+        String[] un = new String[n];
+        for (int j = 0; j < n; j++) {
+            String raw = names == null ? "" : unquote(names.get(j).trim());
+            String unit = lineUnits == null ? "" : lineUnits[j];
+            Matcher m = UNIT.matcher(raw);
+            if (m.matches() && !m.group(1).isBlank()) {
+                raw = m.group(1).trim();
+                unit = m.group(2).trim();
+            } else if (unit.isEmpty() && raw.contains(" ")) {
+                String last = raw.substring(raw.lastIndexOf(' ') + 1);
+                if (isVoltUnit(last) || timeScaleOf(last) > 0) {
+                    unit = last;
+                    raw = raw.substring(0, raw.lastIndexOf(' ')).trim();
+                }
+            }
+            nm[j] = raw;
+            un[j] = unit;
+        }
+        if (names != null) {
+            for (int j = 0; j < n; j++) {
+                boolean timeUnit = timeScaleOf(un[j]) > 0;
+                if (TIME_NAME.matcher(nm[j]).matches() || (timeUnit && !nm[j].isEmpty())) {
+                    l.timeKind = TimeKind.SECONDS;
+                    l.timeColumn = j;
+                    l.timeScale = timeUnit ? timeScaleOf(un[j]) : 1;
+                    l.timeUnit = un[j].isEmpty() ? "s" : un[j];
+                    break;
+                }
+                if (INDEX_NAME.matcher(nm[j]).matches()) {
+                    l.timeKind = TimeKind.INDEX;
+                    l.timeColumn = j;
+                    break;
+                }
+            }
+        }
+        List<Integer> cols = new ArrayList<>();
+        for (int j = 0; j < n; j++) {
+            if (j == l.timeColumn) {
+                continue;
+            }
+            if (j == n - 1 && names != null && nm[j].isEmpty() && n > 1) {
+                continue; // trailing separator on every line
+            }
+            cols.add(j);
+        }
+        if (cols.isEmpty()) {
+            throw new CaptureFormatException(file, h >= 0 ? h + 1 : l.dataLine, "no channel columns besides the "
+                    + (l.timeKind == TimeKind.INDEX ? "sample index" : "time") + " column; expected at least one");
+        }
+        l.channelColumns = cols.stream().mapToInt(Integer::intValue).toArray();
+        int c = l.channelColumns.length;
+        l.channelNames = new String[c];
+        l.units = new String[c];
+        l.scales = new double[c];
+        List<String> raws = new ArrayList<>();
+        for (int k = 0; k < c; k++) {
+            int j = l.channelColumns[k];
+            l.channelNames[k] = nm[j].isEmpty() ? "ch" + (j + 1) : nm[j];
+            l.units[k] = un[j].isEmpty() ? "V" : un[j];
+            l.scales[k] = voltScale(un[j]);
+            raws.add(nm[j].isEmpty() ? "ch" + (j + 1) : nm[j]);
+        }
+        l.ports = Names.ports(raws).toArray(String[]::new);
+        // estimate row size and time step from the head rows
+        int rows = 0;
+        double firstT = Double.NaN;
+        double lastT = Double.NaN;
+        long bytes = 0;
+        for (int i = bestData; i < lines.size() && rows < 10_000; i++) {
+            int[] ln = lines.get(i);
+            if (allBlank(head, ln[0], ln[1])) {
+                continue;
+            }
+            List<String> f = fields(head, ln, l.separator);
+            if (f.size() != n) {
+                break;
+            }
+            if (l.timeColumn >= 0) {
+                byte[] cell = f.get(l.timeColumn).getBytes(StandardCharsets.ISO_8859_1);
+                double t = np.parse(cell, 0, cell.length, l.decimalComma);
+                if (!np.ok) {
+                    break;
+                }
+                if (rows == 0) {
+                    firstT = t;
+                } else if (!(t > lastT)) {
+                    break; // the reader reports it with its line
+                }
+                lastT = t;
+            }
+            bytes += ln[2] - ln[0];
+            rows++;
+        }
+        l.headRows = rows;
+        l.headRowBytes = rows == 0 ? 1 : (double) bytes / rows;
+        if (l.timeKind == TimeKind.SECONDS) {
+            l.headFirstTime = firstT * l.timeScale;
+            l.headStep = rows >= 2 ? (lastT - firstT) * l.timeScale / (rows - 1) : Double.NaN;
+        } else if (l.timeKind == TimeKind.INDEX) {
+            l.headFirstIndex = firstT;
+        }
+        return l;
+    }
+
+    long estimatedRows() {
+        return Math.max(1, Math.round((fileSize - dataOffset) / Math.max(1.0, headRowBytes)));
+    }
+
+    private static int trimEnd(byte[] b, int from, int to) {
+        while (to > from && (b[to - 1] == ' ' || b[to - 1] == '\t' || b[to - 1] == '\r')) {
+            to--;
+        }
+        return to;
+    }
+
+    static String unquote(String s) {
+        return s.length() >= 2 && s.charAt(0) == '"' && s.charAt(s.length() - 1) == '"' ? s.substring(1, s.length() - 1).trim() : s;
+    }
+
+    private static String stripBrackets(String s) {
+        s = unquote(s.trim());
+        if (s.length() >= 2 && (s.charAt(0) == '(' || s.charAt(0) == '[')) {
+            s = s.substring(1, s.length() - 1).trim();
+        }
+        return s;
+    }
+
+    private static boolean allUnits(List<String> f) {
+        for (String s : f) {
+            String u = stripBrackets(s);
+            if (!(isVoltUnit(u) || timeScaleOf(u) > 0 || u.isEmpty())) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    static boolean isVoltUnit(String u) {
+        String s = u.toLowerCase(Locale.ROOT);
+        return s.equals("v") || s.equals("mv") || s.equals("uv") || s.equals("\u00b5v") || s.equals("kv")
+                || s.equals("volt") || s.equals("volts");
+    }
+
+    static double voltScale(String u) {
+        String s = u.trim();
+        switch (s) {
+            case "mV": case "mv": return 1e-3;
+            case "uV": case "uv": case "\u00b5V": case "\u00b5v": return 1e-6;
+            case "kV": case "kv": return 1e3;
+            default: return 1;
+        }
+    }
+
+    static double timeScaleOf(String u) {
+        switch (u.trim()) {
+            case "s": case "S": case "sec": case "Sec": case "seconds": case "Seconds": return 1;
+            case "ms": return 1e-3;
+            case "us": case "\u00b5s": return 1e-6;
+            case "ns": return 1e-9;
+            case "ps": return 1e-12;
+            default: return -1;
+        }
+    }
+
+    private static byte[] sepChoices(String opt) {
+        switch (opt) {
+            case "auto": return new byte[] {'\t', ';', ','};
+            case ",": return new byte[] {','};
+            case ";": return new byte[] {';'};
+            default: return new byte[] {'\t'};
+        }
+    }
+
+    private static boolean[] dcChoices(String opt, byte sep) {
+        switch (opt) {
+            case "true": return new boolean[] {true};
+            case "false": return new boolean[] {false};
+            default: return sep == ',' ? new boolean[] {false} : new boolean[] {false, true};
+        }
+    }
+
+    private static String printable(String s) {
+        return s.equals("\t") ? "tab" : s;
+    }
+
+    private static boolean allBlank(byte[] b, int from, int to) {
+        for (int i = from; i < to; i++) {
+            if (b[i] != ' ' && b[i] != '\t' && b[i] != '\r' && b[i] != '\n') {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    private static int prevNonBlank(byte[] head, List<int[]> lines, int i) {
+        for (int k = i - 1; k >= 0; k--) {
+            int[] ln = lines.get(k);
+            if (!allBlank(head, ln[0], ln[1])) {
+                return k;
+            }
+        }
+        return -1;
+    }
+
+    private static int firstDataLine(byte[] head, List<int[]> lines, byte sep, boolean dc, NumberParser np) {
+        int prevNumeric = -1;
+        int prevCount = -1;
+        for (int i = 0; i < lines.size(); i++) {
+            int[] ln = lines.get(i);
+            if (allBlank(head, ln[0], ln[1])) {
+                continue;
+            }
+            int count = numericFields(head, ln, sep, dc, np);
+            if (count > 0 && prevNumeric >= 0 && count == prevCount) {
+                return prevNumeric;
+            }
+            if (count > 0 && prevNumeric < 0) {
+                prevNumeric = i;
+                prevCount = count;
+            } else if (count > 0) {
+                prevNumeric = i;
+                prevCount = count;
+            } else {
+                prevNumeric = -1;
+            }
+        }
+        // a single data row at the end of a short file
+        return prevNumeric;
+    }
+
+    /** Number of fields if every field is a number (an empty last field is allowed), else -1. */
+    private static int numericFields(byte[] b, int[] ln, byte sep, boolean dc, NumberParser np) {
+        int from = ln[0];
+        int count = 0;
+        int end = trimEnd(b, ln[0], ln[1]);
+        for (int k = ln[0]; k <= end; k++) {
+            if (k == end || b[k] == sep) {
+                int s = from;
+                int e = k;
+                if (e - s >= 2 && b[s] == '"' && b[e - 1] == '"') {
+                    s++;
+                    e--;
+                }
+                np.parse(b, s, e, dc);
+                boolean emptyLast = k == end && s == e && count > 0;
+                if (!np.ok && !emptyLast) {
+                    return -1;
+                }
+                count++;
+                from = k + 1;
+            }
+        }
+        return count;
+    }
+
+    private static List<String> fields(byte[] b, int[] ln, byte sep) {
+        List<String> out = new ArrayList<>();
+        int from = ln[0];
+        int end = trimEnd(b, ln[0], ln[1]);
+        for (int k = ln[0]; k <= end; k++) {
+            if (k == end || b[k] == sep) {
+                out.add(new String(b, from, k - from, StandardCharsets.UTF_8));
+                from = k + 1;
+                if (out.size() > MAX_COLUMNS) {
+                    break; // callers report the excess
+                }
+            }
+        }
+        return out;
+    }
+}

@@ -1,0 +1,509 @@
+package org.lanesift.runner.capture;
+
+import java.io.IOException;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import org.lanesift.data.AnalogBlock;
+import org.lanesift.data.Block;
+import org.lanesift.data.DataKind;
+import org.lanesift.data.Edges;
+import org.lanesift.data.WordStream;
+import org.lanesift.plugin.OptionValues;
+import org.lanesift.plugin.PluginDescriptor;
+import org.lanesift.plugin.PortSpec;
+
+/**
+ * Summarises a capture without keeping it in memory: per channel its kind, size, duration and,
+ * for analog channels, the level statistics, an automatic threshold and the edges it gives; then
+ * guesses of differential pairs and clocks. Analog channels take three streaming passes over the
+ * file (range; histogram; edges at the threshold); logic-only files one. The rules and the JSON
+ * schema are in docs/capture-csv.md, section "inspect".
+ */
+public final class Inspector {
+    /** Histogram bins for the level search. */
+    static final int BINS = 256;
+    /** Hysteresis either side of the threshold, as a fraction of the distance between the two levels. */
+    static final double HYSTERESIS = 0.1;
+    /** Correlation at or below which two analog channels are guessed to be the legs of one pair. */
+    static final double PAIR_CORRELATION = -0.8;
+    /** Coefficient of variation of rising-edge intervals below which a channel is guessed to be a clock. */
+    static final double CLOCK_CV = 0.05;
+    /** Fewest rising edges for a clock guess. */
+    static final int CLOCK_MIN_EDGES = 8;
+    /** Most analog channels correlated pairwise. */
+    static final int MAX_CORRELATED = 64;
+
+    private Inspector() {
+    }
+
+    /**
+     * Inspects a capture.
+     *
+     * @param file    the capture file; its plugin is chosen by {@link Captures#pluginFor}
+     * @param options the reader's options as text (such as {@code rateHz}); {@code file} is set from the path
+     * @return the report
+     * @throws CaptureFormatException for a malformed file
+     * @throws org.lanesift.plugin.OptionException for a bad or unknown option
+     */
+    public static InspectReport inspect(Path file, Map<String, String> options) {
+        String plugin = Captures.pluginFor(file);
+        PluginDescriptor d = switch (plugin) {
+            case "csv" -> CsvSource.DESCRIPTOR;
+            case "vcd" -> VcdSource.DESCRIPTOR;
+            default -> RawSource.DESCRIPTOR;
+        };
+        Map<String, Object> raw = new LinkedHashMap<>();
+        if (options != null) {
+            raw.putAll(options);
+        }
+        raw.put("file", file.toString());
+        OptionValues ov = OptionValues.validate(d, raw);
+        try {
+            return run(file, plugin, ov);
+        } catch (IOException e) {
+            throw new CaptureFormatException(file, 0, "cannot read: " + e.getMessage(), e);
+        }
+    }
+
+    private static CaptureReader open(String plugin, OptionValues ov) throws IOException {
+        return switch (plugin) {
+            case "csv" -> CsvSource.reader(ov);
+            case "vcd" -> VcdSource.reader(ov, false);
+            default -> RawSource.reader(ov, false);
+        };
+    }
+
+    /** Per-channel accumulators. */
+    static final class Acc {
+        final String name;
+        final DataKind kind;
+        final String unit;
+        long startFs = Long.MAX_VALUE;
+        long endFs = Long.MIN_VALUE;
+        long samples;
+        long invalid;
+        double periodFs = Double.NaN;
+        double min = Double.POSITIVE_INFINITY;
+        double max = Double.NEGATIVE_INFINITY;
+        double shift = Double.NaN; // first valid value, subtracted for stable sums
+        long[] hist;
+        double low = Double.NaN;
+        double high = Double.NaN;
+        // edges (counted or found at the threshold)
+        long edges = -1;
+        long rising;
+        long lastRisingFs = Long.MIN_VALUE;
+        long firstRisingFs = Long.MIN_VALUE;
+        double ivMean;
+        double ivM2;
+        long ivCount;
+        long unknownFs;
+        // schmitt state
+        int state = -1; // -1 unknown, 0 low, 1 high
+        double prevV = Double.NaN;
+        long prevT;
+        double lastUpCross = Double.NaN;
+        double lastDownCross = Double.NaN;
+        // words
+        long words = -1;
+        long suspectWords;
+        int widthBits;
+
+        Acc(String name, DataKind kind, String unit) {
+            this.name = name;
+            this.kind = kind;
+            this.unit = unit;
+        }
+
+        void span(Block b) {
+            startFs = Math.min(startFs, b.startFs());
+            endFs = Math.max(endFs, b.endFs());
+        }
+
+        void risingAt(long t) {
+            rising++;
+            if (lastRisingFs != Long.MIN_VALUE) {
+                double iv = t - lastRisingFs;
+                ivCount++;
+                double delta = iv - ivMean;
+                ivMean += delta / ivCount;
+                ivM2 += delta * (iv - ivMean);
+            } else {
+                firstRisingFs = t;
+            }
+            lastRisingFs = t;
+        }
+    }
+
+    private static InspectReport run(Path file, String plugin, OptionValues ov) throws IOException {
+        List<Acc> acc = new ArrayList<>();
+        List<Integer> analog = new ArrayList<>();
+        double[][][] sums;   // per pair p<q: sums of dx, dy, dx^2, dy^2, dx*dy of shifted values
+        long[][] n2;         // per pair: samples valid in both
+        try (CaptureReader r = open(plugin, ov)) {
+            List<PortSpec> ports = r.ports();
+            for (int i = 0; i < ports.size(); i++) {
+                acc.add(new Acc(ports.get(i).name(), ports.get(i).kind(), r.units().get(i)));
+                if (ports.get(i).kind() == DataKind.ANALOG && analog.size() < MAX_CORRELATED) {
+                    analog.add(i);
+                }
+            }
+            int na = analog.size();
+            int[] slot = new int[ports.size()];
+            java.util.Arrays.fill(slot, -1);
+            for (int k = 0; k < na; k++) {
+                slot[analog.get(k)] = k;
+            }
+            sums = new double[na][na][5];
+            n2 = new long[na][na];
+            // pass 1: range, counts, correlations, logic edges and words
+            AnalogBlock[] span = new AnalogBlock[na];
+            final double[][][] sumsF = sums;
+            final long[][] n2F = n2;
+            while (r.next((ch, b) -> {
+                Acc a = acc.get(ch);
+                a.span(b);
+                if (b instanceof AnalogBlock ab) {
+                    rangePass(a, ab);
+                    if (slot[ch] >= 0) {
+                        span[slot[ch]] = ab;
+                    }
+                } else if (b instanceof Edges e) {
+                    edgePass(a, e);
+                } else if (b instanceof WordStream w) {
+                    a.words = Math.max(0, a.words) + w.count();
+                    a.widthBits = w.widthBits();
+                    for (int i = 0; i < w.count(); i++) {
+                        if ((w.flags()[i] & WordStream.FLAG_SUSPECT) != 0) {
+                            a.suspectWords++;
+                        }
+                    }
+                }
+            })) {
+                correlate(span, acc, analog, sumsF, n2F);
+                java.util.Arrays.fill(span, null);
+            }
+        }
+        // pass 2: histograms; pass 3: edges at the threshold
+        boolean anyAnalog = acc.stream().anyMatch(a -> a.kind == DataKind.ANALOG && a.samples > a.invalid && a.max > a.min);
+        if (anyAnalog) {
+            for (Acc a : acc) {
+                if (a.kind == DataKind.ANALOG) {
+                    a.hist = new long[BINS];
+                }
+            }
+            try (CaptureReader r = open(plugin, ov)) {
+                while (r.next((ch, b) -> {
+                    if (b instanceof AnalogBlock ab) {
+                        histPass(acc.get(ch), ab);
+                    }
+                })) {
+                    // all work is in the callback
+                }
+            }
+            for (Acc a : acc) {
+                if (a.kind == DataKind.ANALOG) {
+                    levels(a);
+                    a.edges = 0;
+                }
+            }
+            try (CaptureReader r = open(plugin, ov)) {
+                while (r.next((ch, b) -> {
+                    if (b instanceof AnalogBlock ab) {
+                        thresholdPass(acc.get(ch), ab);
+                    }
+                })) {
+                    // all work is in the callback
+                }
+            }
+        } else {
+            for (Acc a : acc) {
+                if (a.kind == DataKind.ANALOG && a.samples > a.invalid) {
+                    a.low = a.min;
+                    a.high = a.max;
+                    a.edges = 0;
+                }
+            }
+        }
+        return report(file, plugin, acc, analog, sums, n2);
+    }
+
+    private static void rangePass(Acc a, AnalogBlock b) {
+        a.periodFs = b.periodFs();
+        a.samples += b.length();
+        float[] v = b.volts();
+        double mn = a.min;
+        double mx = a.max;
+        for (int i = 0, n = b.length(); i < n; i++) {
+            if (!b.isValid(i)) {
+                a.invalid++;
+                continue;
+            }
+            double x = v[i];
+            if (x < mn) {
+                mn = x;
+            }
+            if (x > mx) {
+                mx = x;
+            }
+        }
+        a.min = mn;
+        a.max = mx;
+    }
+
+    private static void correlate(AnalogBlock[] span, List<Acc> acc, List<Integer> analog, double[][][] sums, long[][] n2) {
+        int na = span.length;
+        for (int p = 0; p < na; p++) {
+            AnalogBlock a = span[p];
+            if (a == null) {
+                continue;
+            }
+            Acc ap = acc.get(analog.get(p));
+            if (Double.isNaN(ap.shift)) {
+                for (int i = 0; i < a.length(); i++) {
+                    if (a.isValid(i)) {
+                        ap.shift = a.volts()[i];
+                        break;
+                    }
+                }
+            }
+            for (int q = p + 1; q < na; q++) {
+                AnalogBlock b = span[q];
+                if (b == null || b.length() != a.length() || b.firstIndex() != a.firstIndex() || b.periodFs() != a.periodFs()) {
+                    continue;
+                }
+                Acc aq = acc.get(analog.get(q));
+                if (Double.isNaN(aq.shift)) {
+                    for (int i = 0; i < b.length(); i++) {
+                        if (b.isValid(i)) {
+                            aq.shift = b.volts()[i];
+                            break;
+                        }
+                    }
+                }
+                if (Double.isNaN(ap.shift) || Double.isNaN(aq.shift)) {
+                    continue;
+                }
+                double kx = ap.shift;
+                double ky = aq.shift;
+                double sx = 0;
+                double sy = 0;
+                double sxx = 0;
+                double syy = 0;
+                double sxy = 0;
+                long n = 0;
+                float[] x = a.volts();
+                float[] y = b.volts();
+                boolean clean = a.invalid() == null && b.invalid() == null;
+                for (int i = 0, len = a.length(); i < len; i++) {
+                    if (!clean && (!a.isValid(i) || !b.isValid(i))) {
+                        continue;
+                    }
+                    double dx = x[i] - kx;
+                    double dy = y[i] - ky;
+                    sx += dx;
+                    sy += dy;
+                    sxx += dx * dx;
+                    syy += dy * dy;
+                    sxy += dx * dy;
+                    n++;
+                }
+                double[] t = sums[p][q];
+                t[0] += sx;
+                t[1] += sy;
+                t[2] += sxx;
+                t[3] += syy;
+                t[4] += sxy;
+                n2[p][q] += n;
+            }
+        }
+    }
+
+    private static void edgePass(Acc a, Edges e) {
+        if (a.edges < 0) {
+            a.edges = 0;
+        }
+        a.edges += e.count();
+        for (int i = 0; i < e.invalidCount(); i++) {
+            a.unknownFs += e.invalidSpans()[2 * i + 1] - e.invalidSpans()[2 * i];
+        }
+        for (int i = 0; i < e.count(); i++) {
+            if (e.levelAfter(i)) {
+                a.risingAt(e.timesFs()[i]);
+            }
+        }
+    }
+
+    private static void histPass(Acc a, AnalogBlock b) {
+        if (!(a.max > a.min)) {
+            return;
+        }
+        double scale = BINS / (a.max - a.min);
+        float[] v = b.volts();
+        long[] h = a.hist;
+        for (int i = 0, n = b.length(); i < n; i++) {
+            if (!b.isValid(i)) {
+                continue;
+            }
+            int k = (int) ((v[i] - a.min) * scale);
+            h[k >= BINS ? BINS - 1 : k]++;
+        }
+    }
+
+    /** Two dominant levels: Otsu's split of the histogram (N. Otsu, IEEE Trans. SMC 9(1), 1979), then the peak of each side. */
+    static void levels(Acc a) {
+        if (!(a.max > a.min)) {
+            a.low = a.min;
+            a.high = a.max;
+            return;
+        }
+        long[] h = a.hist;
+        double total = 0;
+        double sumAll = 0;
+        for (int i = 0; i < BINS; i++) {
+            total += h[i];
+            sumAll += (double) i * h[i];
+        }
+        double w0 = 0;
+        double sum0 = 0;
+        double best = -1;
+        int split = BINS / 2;
+        for (int t = 0; t < BINS - 1; t++) {
+            w0 += h[t];
+            sum0 += (double) t * h[t];
+            double w1 = total - w0;
+            if (w0 == 0 || w1 == 0) {
+                continue;
+            }
+            double m0 = sum0 / w0;
+            double m1 = (sumAll - sum0) / w1;
+            double between = w0 * w1 * (m0 - m1) * (m0 - m1);
+            if (between > best) {
+                best = between;
+                split = t;
+            }
+        }
+        int lo = 0;
+        for (int i = 0; i <= split; i++) {
+            if (h[i] > h[lo]) {
+                lo = i;
+            }
+        }
+        int hi = split + 1;
+        for (int i = split + 1; i < BINS; i++) {
+            if (h[i] > h[hi]) {
+                hi = i;
+            }
+        }
+        double w = (a.max - a.min) / BINS;
+        a.low = a.min + (lo + 0.5) * w;
+        a.high = a.min + (hi + 0.5) * w;
+    }
+
+    private static void thresholdPass(Acc a, AnalogBlock b) {
+        if (!(a.high > a.low)) {
+            return;
+        }
+        double mid = (a.low + a.high) / 2;
+        double hys = HYSTERESIS * (a.high - a.low);
+        double up = mid + hys;
+        double down = mid - hys;
+        float[] v = b.volts();
+        double p = b.periodFs();
+        for (int i = 0, n = b.length(); i < n; i++) {
+            if (!b.isValid(i)) {
+                a.prevV = Double.NaN;
+                a.state = -1;
+                continue;
+            }
+            double x = v[i];
+            long t = b.startFs() + Math.round(i * p);
+            if (!Double.isNaN(a.prevV)) {
+                if (a.prevV < mid && x >= mid) {
+                    a.lastUpCross = a.prevT + (mid - a.prevV) / (x - a.prevV) * (t - a.prevT);
+                } else if (a.prevV >= mid && x < mid) {
+                    a.lastDownCross = a.prevT + (a.prevV - mid) / (a.prevV - x) * (t - a.prevT);
+                }
+            }
+            if (a.state != 1 && x >= up) {
+                if (a.state == 0) {
+                    a.edges++;
+                    a.risingAt(Double.isNaN(a.lastUpCross) ? t : Math.round(a.lastUpCross));
+                }
+                a.state = 1;
+            } else if (a.state != 0 && x <= down) {
+                if (a.state == 1) {
+                    a.edges++;
+                }
+                a.state = 0;
+            }
+            a.prevV = x;
+            a.prevT = t;
+        }
+    }
+
+    private static InspectReport report(Path file, String plugin, List<Acc> acc, List<Integer> analog, double[][][] sums,
+                                        long[][] n2) {
+        List<InspectReport.Channel> chans = new ArrayList<>();
+        List<InspectReport.Clock> clocks = new ArrayList<>();
+        for (Acc a : acc) {
+            double dur = a.endFs > a.startFs ? (a.endFs - a.startFs) / 1e15 : 0;
+            Double freq = null;
+            Double cv = null;
+            if (a.ivCount >= 1 && a.ivMean > 0) {
+                freq = 1e15 / a.ivMean;
+                cv = a.ivCount >= 2 ? Math.sqrt(a.ivM2 / (a.ivCount - 1)) / a.ivMean : null;
+            }
+            boolean analogKind = a.kind == DataKind.ANALOG;
+            boolean valid = analogKind && a.samples > a.invalid;
+            Double th = valid ? (a.low + a.high) / 2 : null;
+            InspectReport.Channel c = new InspectReport.Channel(a.name, a.kind.name(), analogKind ? a.unit : null,
+                    analogKind ? a.samples : null, analogKind ? a.invalid : null,
+                    a.kind == DataKind.WORDS ? a.words < 0 ? 0 : a.words : null,
+                    a.kind == DataKind.WORDS ? a.suspectWords : null, a.kind == DataKind.WORDS ? a.widthBits : null,
+                    a.edges >= 0 ? a.edges : (a.kind == DataKind.EDGES ? 0L : null),
+                    a.kind == DataKind.EDGES ? a.unknownFs / 1e15 : null,
+                    dur, analogKind && !Double.isNaN(a.periodFs) ? 1e15 / a.periodFs : null,
+                    valid ? a.min : null, valid ? a.max : null, valid ? a.low : null, valid ? a.high : null,
+                    th, valid ? HYSTERESIS * (a.high - a.low) : null, freq, cv);
+            chans.add(c);
+            if (a.rising >= CLOCK_MIN_EDGES && cv != null && cv < CLOCK_CV) {
+                clocks.add(new InspectReport.Clock(a.name, freq, cv));
+            }
+        }
+        List<InspectReport.Pair> pairs = new ArrayList<>();
+        List<InspectReport.Pair> cands = new ArrayList<>();
+        for (int p = 0; p < analog.size(); p++) {
+            for (int q = p + 1; q < analog.size(); q++) {
+                long n = n2[p][q];
+                if (n < 3) {
+                    continue;
+                }
+                double[] s = sums[p][q];
+                double cov = s[4] - s[0] * s[1] / n;
+                double vx = s[2] - s[0] * s[0] / n;
+                double vy = s[3] - s[1] * s[1] / n;
+                if (vx <= 0 || vy <= 0) {
+                    continue;
+                }
+                double rr = cov / Math.sqrt(vx * vy);
+                if (rr <= PAIR_CORRELATION) {
+                    cands.add(new InspectReport.Pair(acc.get(analog.get(p)).name, acc.get(analog.get(q)).name, rr));
+                }
+            }
+        }
+        cands.sort((x, y) -> Double.compare(x.correlation(), y.correlation()));
+        java.util.Set<String> used = new java.util.HashSet<>();
+        for (InspectReport.Pair c : cands) {
+            if (!used.contains(c.first()) && !used.contains(c.second())) {
+                used.add(c.first());
+                used.add(c.second());
+                pairs.add(c);
+            }
+        }
+        return new InspectReport(file.toString(), plugin, chans, pairs, clocks);
+    }
+}

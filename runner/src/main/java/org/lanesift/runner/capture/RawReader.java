@@ -1,0 +1,160 @@
+package org.lanesift.runner.capture;
+
+import java.io.IOException;
+import java.nio.ByteBuffer;
+import java.nio.ByteOrder;
+import java.nio.channels.FileChannel;
+import java.nio.file.Files;
+import java.nio.file.NoSuchFileException;
+import java.nio.file.Path;
+import java.nio.file.StandardOpenOption;
+import java.util.ArrayList;
+import java.util.List;
+import org.lanesift.data.AnalogBlock;
+import org.lanesift.data.DataKind;
+import org.lanesift.plugin.PortSpec;
+import org.lanesift.time.Femtos;
+
+/** Streams an interleaved raw binary capture described by a {@link RawSidecar}. */
+final class RawReader implements CaptureReader {
+    private static final int READ_BYTES = 1 << 20;
+    private final Path file;
+    private final RawSidecar sc;
+    private final FileChannel ch;
+    private final long frames;
+    private final int nch;
+    private final int frame;
+    private final int framesPerBlock;
+    private final double periodFs;
+    private final long startFs;
+    private final ByteBuffer bb;
+    private long pos;
+    private final List<PortSpec> ports = new ArrayList<>();
+    private final List<String> units = new ArrayList<>();
+
+    RawReader(Path file, RawSidecar sc, int blockSamples, boolean headerOnly) throws IOException {
+        this.file = file;
+        this.sc = sc;
+        this.nch = sc.names.length;
+        this.frame = sc.frameBytes();
+        long size;
+        try {
+            size = Files.size(file);
+        } catch (NoSuchFileException e) {
+            throw new CaptureFormatException(file, 0, "file not found");
+        }
+        long left = size % frame;
+        if (left != 0) {
+            throw new CaptureFormatException(file, 0, size + " bytes is not a whole number of frames: " + left
+                    + " bytes left over after " + (size / frame) + " frames of " + frame + " bytes (" + nch + " channel"
+                    + (nch == 1 ? "" : "s") + " x " + sc.format.text + "); expected a multiple of " + frame);
+        }
+        this.frames = size / frame;
+        this.framesPerBlock = Math.max(1, Math.min(blockSamples, CsvReader.MAX_SPAN_VALUES / nch));
+        this.periodFs = Femtos.periodFs(sc.rateHz);
+        this.startFs = Femtos.fromSeconds(sc.startTimeS);
+        for (int k = 0; k < nch; k++) {
+            ports.add(PortSpec.of(sc.names[k], DataKind.ANALOG, "raw channel " + k + " (" + sc.format.text + " x " + sc.gain[k]
+                    + " V + " + sc.offset[k] + " V)"));
+            units.add("V");
+        }
+        this.bb = ByteBuffer.allocate(Math.max(frame, READ_BYTES / frame * frame));
+        bb.order(sc.format == RawSidecar.Format.INT16BE ? ByteOrder.BIG_ENDIAN : ByteOrder.LITTLE_ENDIAN);
+        this.ch = headerOnly ? null : FileChannel.open(file, StandardOpenOption.READ);
+    }
+
+    @Override
+    public List<PortSpec> ports() {
+        return ports;
+    }
+
+    @Override
+    public List<String> units() {
+        return units;
+    }
+
+    @Override
+    public long done() {
+        return pos;
+    }
+
+    @Override
+    public long total() {
+        return frames;
+    }
+
+    double periodFs() {
+        return periodFs;
+    }
+
+    @Override
+    public boolean next(Out out) throws IOException {
+        if (pos >= frames) {
+            return false;
+        }
+        int n = (int) Math.min(framesPerBlock, frames - pos);
+        float[][] v = new float[nch][n];
+        long[][] inv = new long[nch][];
+        int row = 0;
+        boolean clip = sc.markClipped;
+        while (row < n) {
+            bb.clear();
+            bb.limit((int) Math.min(bb.capacity(), (long) (n - row) * frame));
+            while (bb.hasRemaining()) {
+                if (ch.read(bb) < 0) {
+                    throw new CaptureFormatException(file, 0, "the file shrank while reading; expected " + frames + " frames");
+                }
+            }
+            bb.flip();
+            int got = bb.remaining() / frame;
+            for (int i = 0; i < got; i++, row++) {
+                for (int k = 0; k < nch; k++) {
+                    double code;
+                    boolean bad;
+                    switch (sc.format) {
+                        case UINT8 -> {
+                            int c = bb.get() & 0xff;
+                            code = c;
+                            bad = clip && (c == 0 || c == 255);
+                        }
+                        case INT8 -> {
+                            int c = bb.get();
+                            code = c;
+                            bad = clip && (c == -128 || c == 127);
+                        }
+                        case INT16LE, INT16BE -> {
+                            int c = bb.getShort();
+                            code = c;
+                            bad = clip && (c == Short.MIN_VALUE || c == Short.MAX_VALUE);
+                        }
+                        default -> {
+                            float f = bb.getFloat();
+                            code = f;
+                            bad = !Float.isFinite(f);
+                        }
+                    }
+                    v[k][row] = (float) (code * sc.gain[k] + sc.offset[k]);
+                    if (bad) {
+                        if (inv[k] == null) {
+                            inv[k] = new long[(n + 63) >>> 6];
+                        }
+                        inv[k][row >>> 6] |= 1L << row;
+                    }
+                }
+            }
+        }
+        long blockStart = startFs + Math.round(pos * periodFs);
+        for (int k = 0; k < nch; k++) {
+            out.emit(k, new AnalogBlock(sc.names[k], pos, blockStart, periodFs, v[k], n, inv[k]));
+        }
+        pos += n;
+        return true;
+    }
+
+    @Override
+    public void close() throws IOException {
+        if (ch != null) {
+            ch.close();
+        }
+    }
+}
