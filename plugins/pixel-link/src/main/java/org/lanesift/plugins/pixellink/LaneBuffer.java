@@ -1,0 +1,189 @@
+package org.lanesift.plugins.pixellink;
+
+import java.lang.invoke.MethodHandles;
+import java.lang.invoke.VarHandle;
+import java.nio.ByteOrder;
+import java.util.Arrays;
+import org.lanesift.data.BitStream;
+
+/**
+ * The pixels of one data lane waiting to be merged with the other lanes: per clock period one
+ * entry with the seven slot bits (bit s = slot s), their seven flags, a completeness bit, the
+ * clock period index and the time of slot 0. A pixel whose slots arrive across two blocks is
+ * carried over.
+ */
+final class LaneBuffer {
+    /** Entry bit: all seven slots were present exactly once. */
+    static final int COMPLETE = 1 << 14;
+    /** Entry bits 7..13: the slot flags. */
+    static final int FLAGS = 0x7F << 7;
+
+    private static final VarHandle LONGS = MethodHandles.byteArrayViewVarHandle(long[].class, ByteOrder.LITTLE_ENDIAN);
+    /** Slots 0..6 in bytes 0..6. */
+    private static final long SLOT_PATTERN = 0x0006050403020100L;
+    private static final long SEVEN_BYTES = 0x00FFFFFFFFFFFFFFL;
+
+    final String name;
+    int[] word = new int[1024];
+    long[] edge = new long[1024];
+    long[] timeFs = new long[1024];
+    /** First live entry. */
+    int head;
+    /** End of live entries. */
+    int tail;
+    long bitsSeen;
+    long badSlots;
+
+    private int pMask;
+    private int pWord;
+    private int pFlags;
+    private long pEdge;
+    private long pTime;
+
+    LaneBuffer(String name) {
+        this.name = name;
+    }
+
+    int size() {
+        return tail - head;
+    }
+
+    private void ensure(int extra) {
+        if (tail + extra <= word.length) {
+            return;
+        }
+        int live = tail - head;
+        if (head > 0 && live + extra <= word.length) {
+            System.arraycopy(word, head, word, 0, live);
+            System.arraycopy(edge, head, edge, 0, live);
+            System.arraycopy(timeFs, head, timeFs, 0, live);
+        } else {
+            int cap = Math.max(word.length * 2, live + extra + 16);
+            int[] w = new int[cap];
+            long[] e = new long[cap];
+            long[] t = new long[cap];
+            System.arraycopy(word, head, w, 0, live);
+            System.arraycopy(edge, head, e, 0, live);
+            System.arraycopy(timeFs, head, t, 0, live);
+            word = w;
+            edge = e;
+            timeFs = t;
+        }
+        head = 0;
+        tail = live;
+    }
+
+    /** Drops everything before {@code newHead}. */
+    void consumeTo(int newHead) {
+        head = newHead;
+        if (head == tail) {
+            head = 0;
+            tail = 0;
+        }
+    }
+
+    private static int seven(long[] a, int i) {
+        int w = i >>> 6;
+        int b = i & 63;
+        long v = a[w] >>> b;
+        if (b > 57) {
+            v |= a[w + 1] << (64 - b);
+        }
+        return (int) v & 0x7F;
+    }
+
+    /**
+     * Appends a block's bits.
+     *
+     * @param b the bits, which must carry slot numbers
+     */
+    void add(BitStream b) {
+        byte[] slot = b.slot();
+        if (slot == null) {
+            throw new IllegalArgumentException("lane '" + name + "': bit stream '" + b.channel()
+                    + "' has no slot numbers; a 7:1 pixel link needs bits sampled with 7 slots per clock period");
+        }
+        int n = b.count();
+        bitsSeen += n;
+        ensure(n + 2); // worst case: every bit closes a pixel
+        long[] ce = b.clockEdge();
+        long[] vals = b.values();
+        long[] fl = b.flagged();
+        long[] ts = b.timesFs();
+        double ui = b.unitIntervalFs();
+        int[] wArr = word;
+        long[] eArr = edge;
+        long[] tArr = timeFs;
+        int t = tail;
+        int i = 0;
+        int fastEnd = Math.min(n - 6, slot.length - 7);
+        while (i < n) {
+            if (pMask == 0) {
+                while (i < fastEnd && (((long) LONGS.get(slot, i)) & SEVEN_BYTES) == SLOT_PATTERN && ce[i] == ce[i + 6]) {
+                    wArr[t] = seven(vals, i) | (seven(fl, i) << 7) | COMPLETE;
+                    eArr[t] = ce[i];
+                    tArr[t] = ts[i];
+                    t++;
+                    i += 7;
+                }
+                if (i >= n) {
+                    break;
+                }
+            }
+            // slow path: one bit
+            int s = slot[i];
+            long e = ce[i];
+            if (s < 0 || s > 6) {
+                badSlots++;
+                i++;
+                continue;
+            }
+            if (pMask != 0 && (e != pEdge || (pMask & (1 << s)) != 0)) {
+                t = close(t);
+            }
+            if (pMask == 0) {
+                pEdge = e;
+                pTime = ts[i] - Math.round(s * ui);
+            }
+            pMask |= 1 << s;
+            if (bit(vals, i)) {
+                pWord |= 1 << s;
+            }
+            if (bit(fl, i)) {
+                pFlags |= 1 << s;
+            }
+            if (pMask == 0x7F) {
+                t = close(t);
+            }
+            i++;
+        }
+        tail = t;
+    }
+
+    private static boolean bit(long[] a, int i) {
+        return (a[i >>> 6] & (1L << i)) != 0;
+    }
+
+    private int close(int t) {
+        word[t] = pWord | (pFlags << 7) | (pMask == 0x7F ? COMPLETE : 0);
+        edge[t] = pEdge;
+        timeFs[t] = pTime;
+        pMask = 0;
+        pWord = 0;
+        pFlags = 0;
+        return t + 1;
+    }
+
+    /** At the end of the capture: a pixel still missing slots goes out as incomplete. */
+    void flushPending() {
+        if (pMask != 0) {
+            ensure(1);
+            tail = close(tail);
+        }
+    }
+
+    @Override
+    public String toString() {
+        return "LaneBuffer[" + name + ", " + size() + " pixels, entries " + Arrays.toString(Arrays.copyOfRange(word, head, Math.min(tail, head + 4))) + "]";
+    }
+}

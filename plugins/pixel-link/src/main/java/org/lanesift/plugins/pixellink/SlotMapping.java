@@ -1,0 +1,291 @@
+package org.lanesift.plugins.pixellink;
+
+import java.io.IOException;
+import java.io.InputStream;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
+import org.lanesift.plugin.OptionException;
+
+/**
+ * A slot-to-colour mapping of a 7:1 pixel link: for each data lane and each of its seven bit
+ * slots (slot 0 first on the wire), the colour bit ({@code R0..R7}, {@code G0..G7},
+ * {@code B0..B7}), control bit ({@code DE}, {@code HS}, {@code VS}) or nothing ({@code "0"} or
+ * {@code "-"}) it carries. Tables are data: the built-in ones are JSON resources, users may load
+ * their own (format in {@code docs/pixel-mapping.md}). With six bits per colour the decoder widens
+ * each colour to eight bits by bit replication ({@code v8 = v6 << 2 | v6 >> 4}; common practice).
+ *
+ * @param name       table name
+ * @param title      one line for users
+ * @param source     where the table comes from
+ * @param colourBits bits per colour, 6 or 8
+ * @param lanes      per lane, the seven slot names, slot 0 first
+ */
+public record SlotMapping(String name, String title, String source, int colourBits, List<List<String>> lanes) {
+
+    /** Bit of the decoded word that carries DE. */
+    static final int DE = 1 << 24;
+    /** Bit of the decoded word that carries HS. */
+    static final int HS = 1 << 25;
+    /** Bit of the decoded word that carries VS. */
+    static final int VS = 1 << 26;
+
+    /** Names of the built-in tables, for the {@code mapping} option. */
+    public static final List<String> BUILT_IN = List.of("vesa-24", "jeida-24", "bits-18");
+
+    /** Copies the lists. */
+    public SlotMapping {
+        lanes = lanes.stream().map(List::copyOf).toList();
+    }
+
+    /**
+     * Loads a built-in table from the module's resources.
+     *
+     * @param name one of {@link #BUILT_IN}
+     * @return the table
+     * @throws OptionException naming option {@code mapping} if there is no such table
+     */
+    public static SlotMapping builtIn(String name) {
+        if (!BUILT_IN.contains(name)) {
+            throw new OptionException("mapping", "option 'mapping' of plugin 'pixel-link': expected one of "
+                    + String.join(", ", BUILT_IN) + ", got '" + name + "'");
+        }
+        String res = "mappings/" + name + ".json";
+        try (InputStream in = SlotMapping.class.getResourceAsStream(res)) {
+            if (in == null) {
+                throw new IllegalStateException("built-in mapping resource " + res + " is missing from the plugin");
+            }
+            return parse(new String(in.readAllBytes(), StandardCharsets.UTF_8), "built-in mapping " + name, "mapping");
+        } catch (IOException e) {
+            throw new IllegalStateException("cannot read built-in mapping " + res + ": " + e.getMessage(), e);
+        }
+    }
+
+    /**
+     * Loads a user table from a JSON file.
+     *
+     * @param file the file
+     * @return the validated table
+     * @throws OptionException naming option {@code mappingFile}, the file and the field that is wrong
+     */
+    public static SlotMapping load(Path file) {
+        String where = "mapping file '" + file + "'";
+        long size;
+        try {
+            size = Files.size(file);
+        } catch (IOException e) {
+            throw new OptionException("mappingFile", "option 'mappingFile' of plugin 'pixel-link': cannot read " + where
+                    + ": " + e.getMessage());
+        }
+        if (size > 1 << 20) {
+            throw new OptionException("mappingFile", "option 'mappingFile' of plugin 'pixel-link': " + where + " is "
+                    + size + " bytes; a mapping table is a small JSON file (at most 1 MiB)");
+        }
+        try {
+            return parse(Files.readString(file, StandardCharsets.UTF_8), where, "mappingFile");
+        } catch (IOException e) {
+            throw new OptionException("mappingFile", "option 'mappingFile' of plugin 'pixel-link': cannot read " + where
+                    + ": " + e.getMessage());
+        }
+    }
+
+    /**
+     * Parses and validates a table.
+     *
+     * @param json   the JSON text
+     * @param where  what to call it in messages
+     * @param option the option to blame
+     * @return the table
+     * @throws OptionException for malformed JSON, unknown names, duplicated or missing bits
+     */
+    static SlotMapping parse(String json, String where, String option) {
+        Object root;
+        try {
+            root = MiniJson.parse(json, where);
+        } catch (MiniJson.JsonError e) {
+            throw bad(option, e.getMessage());
+        }
+        if (!(root instanceof Map<?, ?> m)) {
+            throw bad(option, where + ": expected a JSON object at /");
+        }
+        for (Object k : m.keySet()) {
+            if (!List.of("format", "name", "title", "source", "colourBits", "lanes").contains(k)) {
+                throw bad(option, where + ": unknown member /" + k + "; expected format, name, title, source, colourBits, lanes");
+            }
+        }
+        Object fmt = m.get("format");
+        if (fmt != null && !"lanesift-slot-map/1".equals(fmt)) {
+            throw bad(option, where + ": /format must be \"lanesift-slot-map/1\", got " + fmt);
+        }
+        String name = text(m, "name", where, option, true);
+        String title = text(m, "title", where, option, false);
+        String source = text(m, "source", where, option, false);
+        Object cb = m.get("colourBits");
+        if (!(cb instanceof Double d) || (d != 6.0 && d != 8.0)) {
+            throw bad(option, where + ": /colourBits must be 6 or 8, got " + cb);
+        }
+        int bits = (int) (double) (Double) cb;
+        Object lanesObj = m.get("lanes");
+        if (!(lanesObj instanceof List<?> lanesList) || lanesList.isEmpty() || lanesList.size() > 4) {
+            throw bad(option, where + ": /lanes must be an array of 1 to 4 lanes, each an array of 7 slot names");
+        }
+        List<List<String>> lanes = new ArrayList<>();
+        Map<String, String> seen = new HashMap<>();
+        for (int l = 0; l < lanesList.size(); l++) {
+            if (!(lanesList.get(l) instanceof List<?> slots) || slots.size() != 7) {
+                throw bad(option, where + ": /lanes/" + l + " (lane " + l + ") must be an array of exactly 7 slot names, slot 0 first");
+            }
+            List<String> lane = new ArrayList<>();
+            for (int s = 0; s < 7; s++) {
+                String at = "/lanes/" + l + "/" + s + " (lane " + l + ", slot " + s + ")";
+                if (!(slots.get(s) instanceof String n)) {
+                    throw bad(option, where + ": " + at + " must be a string such as \"R0\", \"DE\" or \"0\"");
+                }
+                String norm = n.trim().toUpperCase(java.util.Locale.ROOT);
+                if (norm.equals("-")) {
+                    norm = "0";
+                }
+                if (!norm.equals("0")) {
+                    if (contribution(norm, bits) == 0) {
+                        throw bad(option, where + ": " + at + ": '" + n + "' is not a bit name; expected R0..R" + (bits - 1)
+                                + ", G0..G" + (bits - 1) + ", B0..B" + (bits - 1) + ", DE, HS, VS or \"0\" for an unused slot");
+                    }
+                    String prev = seen.put(norm, at);
+                    if (prev != null) {
+                        throw bad(option, where + ": " + at + ": bit " + norm + " is duplicated; it is already at " + prev);
+                    }
+                }
+                lane.add(norm);
+            }
+            lanes.add(lane);
+        }
+        List<String> missing = new ArrayList<>();
+        for (String c : new String[] {"R", "G", "B"}) {
+            for (int b = 0; b < bits; b++) {
+                if (!seen.containsKey(c + b)) {
+                    missing.add(c + b);
+                }
+            }
+        }
+        if (!seen.containsKey("DE")) {
+            missing.add("DE");
+        }
+        if (!missing.isEmpty()) {
+            throw bad(option, where + ": bit" + (missing.size() > 1 ? "s " : " ") + String.join(", ", missing)
+                    + (missing.size() > 1 ? " are" : " is") + " missing from /lanes; a " + (3 * bits)
+                    + "-bit table needs every colour bit and DE in exactly one lane/slot");
+        }
+        return new SlotMapping(name, title == null ? name : title, source == null ? "" : source, bits, lanes);
+    }
+
+    private static String text(Map<?, ?> m, String key, String where, String option, boolean required) {
+        Object v = m.get(key);
+        if (v == null) {
+            if (required) {
+                throw bad(option, where + ": /" + key + " is required (a string)");
+            }
+            return null;
+        }
+        if (!(v instanceof String s)) {
+            throw bad(option, where + ": /" + key + " must be a string");
+        }
+        return s;
+    }
+
+    private static OptionException bad(String option, String msg) {
+        return new OptionException(option, "option '" + option + "' of plugin 'pixel-link': " + msg);
+    }
+
+    /**
+     * The decoded-word bits one slot name sets: colour bits land in {@code 0xRRGGBB} (six-bit
+     * colours replicated to eight), control bits at {@link #DE}, {@link #HS}, {@link #VS}.
+     */
+    static int contribution(String name, int colourBits) {
+        switch (name) {
+            case "DE":
+                return DE;
+            case "HS":
+                return HS;
+            case "VS":
+                return VS;
+            default:
+                break;
+        }
+        if (name.length() != 2) {
+            return 0;
+        }
+        int base = switch (name.charAt(0)) {
+            case 'R' -> 16;
+            case 'G' -> 8;
+            case 'B' -> 0;
+            default -> -1;
+        };
+        int k = name.charAt(1) - '0';
+        if (base < 0 || k < 0 || k >= colourBits) {
+            return 0;
+        }
+        if (colourBits == 8) {
+            return 1 << (base + k);
+        }
+        int c = 1 << (base + k + 2);
+        if (k >= 4) {
+            c |= 1 << (base + k - 4);
+        }
+        return c;
+    }
+
+    /**
+     * Number of data lanes.
+     *
+     * @return lanes, 1 to 4
+     */
+    public int laneCount() {
+        return lanes.size();
+    }
+
+    /**
+     * Whether the table carries HS and VS.
+     *
+     * @return true if both sync bits are mapped
+     */
+    boolean hasSyncBits() {
+        boolean hs = false;
+        boolean vs = false;
+        for (List<String> l : lanes) {
+            hs |= l.contains("HS");
+            vs |= l.contains("VS");
+        }
+        return hs && vs;
+    }
+
+    /**
+     * Lookup tables from a lane's 7-bit slot word (bit s = slot s as received) to decoded-word bits.
+     *
+     * @param reverseSlots true if the wire sends the table's slots in reverse order (slot 0 on the wire carries the table's slot 6)
+     * @return per lane, 128 entries
+     */
+    int[][] lookupTables(boolean reverseSlots) {
+        int[][] t = new int[lanes.size()][128];
+        for (int l = 0; l < lanes.size(); l++) {
+            int[] c = new int[7];
+            for (int s = 0; s < 7; s++) {
+                String n = lanes.get(l).get(reverseSlots ? 6 - s : s);
+                c[s] = n.equals("0") ? 0 : contribution(n, colourBits);
+            }
+            for (int w = 0; w < 128; w++) {
+                int v = 0;
+                for (int s = 0; s < 7; s++) {
+                    if ((w & (1 << s)) != 0) {
+                        v |= c[s];
+                    }
+                }
+                t[l][w] = v;
+            }
+        }
+        return t;
+    }
+}

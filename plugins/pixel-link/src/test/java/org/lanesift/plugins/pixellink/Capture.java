@@ -1,0 +1,102 @@
+package org.lanesift.plugins.pixellink;
+
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
+import org.lanesift.data.BitStream;
+import org.lanesift.testkit.StageHarness;
+
+/** Test helper: runs a synthetic link through the plugin alone, block by block. */
+final class Capture {
+    TestLink.Video video;
+    TestLink.Image image = TestLink.PATTERN;
+    String[][] table = TestLink.VESA24;
+    int colourBits = 8;
+    boolean reverse;
+    boolean dual;
+    long firstPixel;
+    long pixels;
+    double periodFs = 1e15 / 25.175e6;
+    int blockClocks = 800;
+    long flagClock = -1;
+    /** Clock index after which the clock stops for stopFs (0 = never). */
+    long stopAfterClock = -1;
+    long stopFs;
+    /** Lanes not pushed at all. */
+    java.util.Set<String> silentLanes = java.util.Set.of();
+    /** Optional re-cutting of each lane block (bit counts). */
+    java.util.function.IntUnaryOperator recut;
+    Map<String, Object> options = new HashMap<>();
+
+    Capture(TestLink.Video v) {
+        this.video = v;
+    }
+
+    StageHarness run() {
+        Map<String, Object> opts = new HashMap<>(options);
+        if (dual) {
+            opts.put("dual", true);
+        }
+        StageHarness h = StageHarness.of(new PixelLinkPlugin(), opts);
+        int perLink = table.length;
+        List<String> names = TestLink.laneNames(perLink, dual);
+        int ppc = dual ? 2 : 1;
+        long clocks = pixels / ppc;
+        long firstClock = firstPixel / ppc;
+        for (long c = 0; c < clocks; c += blockClocks) {
+            int n = (int) Math.min(blockClocks, clocks - c);
+            int[] words = new int[n * ppc];
+            for (int i = 0; i < n * ppc; i++) {
+                words[i] = TestLink.word(video, image, firstPixel + c * ppc + i);
+            }
+            List<BitStream> lanes = TestLink.serialise(words, n, firstClock + c, periodFs, table, colourBits, reverse, dual,
+                    flagClock, names);
+            if (stopAfterClock >= 0) {
+                lanes = lanes.stream().map(b -> shiftAfter(b, stopAfterClock, stopFs)).toList();
+            }
+            for (BitStream b : lanes) {
+                if (silentLanes.contains(b.channel())) {
+                    continue;
+                }
+                if (recut != null) {
+                    for (BitStream piece : TestLink.split(b, recut)) {
+                        h.push(b.channel(), piece);
+                    }
+                } else {
+                    h.push(b.channel(), b);
+                }
+            }
+        }
+        h.finish();
+        return h;
+    }
+
+    /** The clock stops after a given clock period: later bit times move by a pause. */
+    static BitStream shiftAfter(BitStream b, long clock, long pauseFs) {
+        long[] t = b.timesFs().clone();
+        boolean any = false;
+        for (int i = 0; i < b.count(); i++) {
+            if (b.clockEdge()[i] > clock) {
+                t[i] += pauseFs;
+                any = true;
+            }
+        }
+        long start = b.clockEdge()[0] > clock ? b.startFs() + pauseFs : b.startFs();
+        long end = any ? b.endFs() + pauseFs : b.endFs();
+        return new BitStream(b.channel(), start, end, b.count(), b.values(), t, b.clockEdge(), b.falling(), b.slot(), b.setupFs(),
+                b.holdFs(), b.flagged(), b.unitIntervalFs());
+    }
+
+    /** Expected decoded picture of source frame f. */
+    int[] expectedFrame(long f) {
+        int w = video.hActive();
+        int hgt = video.vActive();
+        int[] out = new int[w * hgt];
+        for (int y = 0; y < hgt; y++) {
+            for (int x = 0; x < w; x++) {
+                out[y * w + x] = TestLink.expected(image.rgb(f, x, y), colourBits);
+            }
+        }
+        return out;
+    }
+}
