@@ -93,4 +93,46 @@ final class TestSignals {
     static List<String> kinds(List<Annotation> as) {
         return as.stream().map(Annotation::kind).toList();
     }
+
+    /**
+     * A smooth NRZ difference signal: bit k occupies sample positions [offset + k ui, offset + (k+1) ui),
+     * each edge is a tanh step of time constant tau samples centred exactly on the bit boundary, so a
+     * threshold of 0 V is crossed exactly at offset + k ui when the bits change.
+     */
+    static float[] nrz(boolean[] bits, double ui, double tau, double amp, double offset, int n) {
+        float[] v = new float[n];
+        for (int s = 0; s < n; s++) {
+            double x = (s - offset) / ui;
+            int i = (int) Math.floor(x);
+            double val = amp * (2 * bit(bits, i - 1) - 1)
+                    + amp * (bit(bits, i) - bit(bits, i - 1)) * (1 + Math.tanh((s - offset - i * ui) / tau))
+                    + amp * (bit(bits, i + 1) - bit(bits, i)) * (1 + Math.tanh((s - offset - (i + 1) * ui) / tau));
+            v[s] = (float) val;
+        }
+        return v;
+    }
+
+    private static int bit(boolean[] bits, int i) {
+        if (i < 0) {
+            return bits[0] ? 1 : 0;
+        }
+        return bits[Math.min(i, bits.length - 1)] ? 1 : 0;
+    }
+
+    /** Exact edge positions (in samples) of {@link #nrz}. */
+    static double[] nrzEdges(boolean[] bits, double ui, double offset, int n) {
+        double[] e = new double[bits.length];
+        int k = 0;
+        for (int i = 1; i < bits.length; i++) {
+            double pos = offset + i * ui;
+            if (bits[i] != bits[i - 1] && pos < n - 2) {
+                e[k++] = pos;
+            }
+        }
+        return Arrays.copyOf(e, k);
+    }
+
+    static AnalogBlock block(String ch, double periodFs, float[] v) {
+        return new AnalogBlock(ch, 0, 0, periodFs, v, v.length, null);
+    }
 }
