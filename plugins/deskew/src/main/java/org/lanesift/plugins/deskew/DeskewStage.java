@@ -182,12 +182,16 @@ final class DeskewStage implements Stage {
     @Override
     public void finish() {
         List<SkewTable.Entry> rows = new ArrayList<>();
+        java.util.Set<String> used = new java.util.HashSet<>();
         for (Channel c : ch) {
             if (c.line != null) {
                 c.line.finish();
             }
             if (c.resolved) {
-                rows.add(new SkewTable.Entry(c.name, c.offsetFs / Femtos.PER_PS, c.confidence, c.method, 0));
+                // two inputs carrying the same channel name are told apart by their port name
+                String key = used.add(c.name) ? c.name : "in" + c.index;
+                used.add(key);
+                rows.add(new SkewTable.Entry(key, c.offsetFs / Femtos.PER_PS, c.confidence, c.method, 0));
             } else if (table == null && !unit.equals("samples")) {
                 double fs = given.get(c.index) * (unit.equals("ns") ? Femtos.PER_NS : Femtos.PER_PS);
                 rows.add(new SkewTable.Entry("in" + c.index, fs / Femtos.PER_PS, 1, "manual", 0));
