@@ -27,6 +27,13 @@ final class Capture {
     /** Optional re-cutting of each lane block (bit counts). */
     java.util.function.IntUnaryOperator recut;
     Map<String, Object> options = new HashMap<>();
+    /** Changes source words (pixel index, word) before serialising. */
+    Hook hook;
+
+    /** Rewrites one source word. */
+    interface Hook {
+        int word(long pixel, int w);
+    }
 
     Capture(TestLink.Video v) {
         this.video = v;
@@ -47,7 +54,11 @@ final class Capture {
             int n = (int) Math.min(blockClocks, clocks - c);
             int[] words = new int[n * ppc];
             for (int i = 0; i < n * ppc; i++) {
-                words[i] = TestLink.word(video, image, firstPixel + c * ppc + i);
+                long p = firstPixel + c * ppc + i;
+                words[i] = TestLink.word(video, image, p);
+                if (hook != null) {
+                    words[i] = hook.word(p, words[i]);
+                }
             }
             List<BitStream> lanes = TestLink.serialise(words, n, firstClock + c, periodFs, table, colourBits, reverse, dual,
                     flagClock, names);
