@@ -1,0 +1,464 @@
+package org.lanesift.plugins.dualedge;
+
+import java.util.Arrays;
+import java.util.Locale;
+import org.lanesift.annotation.Annotation;
+import org.lanesift.annotation.Severity;
+
+/**
+ * Turns the raw transitions of the clock lane into accepted clock edges with a tracked period.
+ *
+ * <p>Acquisition: the period is the median of the same-direction intervals among the next
+ * {@link #ACQUIRE_EDGES} transitions (median: a few glitches or a gap do not move it), and the duty
+ * cycle the median high time over it. Tracking: a pulse shorter than {@code glitchFraction} periods
+ * is a runt and both its edges are removed; of two such pulses in a row the narrower goes first, so
+ * a runt just after a true edge does not take that edge with it. An edge is final once the next
+ * transition is at least that far away. A final edge whose same-direction interval or edge-to-edge gap exceeds
+ * {@code dropoutPeriods} periods is a dropout: the clock is acquired again from that edge. The
+ * period is then tracked as an exponential average of same-direction intervals with weight
+ * {@link #ALPHA}.
+ *
+ * <p>Every decision depends only on transitions, never on where the blocks were cut.
+ */
+final class ClockRecovery {
+    static final int ACQUIRE_EDGES = 33;
+    static final double ALPHA = 1.0 / 16;
+    static final String TRACK = "clock";
+
+    static final byte RISING = 1;
+    static final byte RESTART = 2;
+    static final byte SUSPECT = 4;
+    static final byte REFERENCE = 8;
+
+    private final SamplerConfig cfg;
+    private final EdgeQueue q;
+    private final AnnotationQueue notes;
+
+    // accepted edges not yet taken by the planner
+    long[] accT = new long[1024];
+    double[] accP = new double[1024];
+    byte[] accFlags = new byte[1024];
+    long[] accIndex = new long[1024];
+    int accCount;
+
+    // state
+    private boolean acquiring = true;
+    private boolean afterDropout;
+    private long pos;
+    private boolean pending;
+    private long pendingT;
+    private long pendingRaw;
+    private boolean pendingRising;
+    boolean haveP;
+    double periodFs = Double.NaN;
+    private boolean haveLast;
+    private long lastFinalT;
+    private boolean lastFinalRising;
+    private final long[] lastSame = new long[2];
+    private final boolean[] haveSame = new boolean[2];
+    boolean inverted;
+    private boolean dutyDecided;
+    private boolean finished;
+    private boolean stoppedAtEnd;
+    private boolean gaveUp;
+
+    // statistics
+    long accepted;
+    long referenceEdges;
+    long glitches;
+    long dropouts;
+    long restarts;
+    long periodCount;
+    double periodMean;
+    double periodM2;
+    double periodMin = Double.POSITIVE_INFINITY;
+    double periodMax = Double.NEGATIVE_INFINITY;
+    long dutyCount;
+    double dutySum;
+    double dutyMin = Double.POSITIVE_INFINITY;
+    double dutyMax = Double.NEGATIVE_INFINITY;
+    double acquiredDuty = Double.NaN;
+    long firstEdgeFs = Long.MIN_VALUE;
+    String patternVerdict = "";
+
+    ClockRecovery(SamplerConfig cfg, EdgeQueue q, AnnotationQueue notes) {
+        this.cfg = cfg;
+        this.q = q;
+        this.notes = notes;
+    }
+
+    /**
+     * Advances as far as the known transitions allow.
+     *
+     * @param horizon   every clock transition before this time is known
+     * @param finishing true when no more input will come
+     */
+    void run(long horizon, boolean finishing) {
+        if (!q.started || gaveUp) {
+            if (finishing) {
+                finish(horizon);
+            }
+            return;
+        }
+        while (true) {
+            if (acquiring) {
+                int r = acquire(finishing);
+                if (r == WAIT) {
+                    break;
+                }
+                if (r == RETRY) {
+                    continue;
+                }
+            }
+            if (track(horizon, finishing)) {
+                break;
+            }
+            // a dropout sent the tracker back to acquisition
+        }
+        if (finishing) {
+            finish(horizon);
+        }
+        q.discardBefore(pending ? pendingRaw : pos);
+        if (haveLast) {
+            q.discardSpansBefore(lastFinalT - (haveP ? (long) (2 * periodFs) : 0));
+        }
+    }
+
+    private void finish(long horizon) {
+        if (finished) {
+            return;
+        }
+        finished = true;
+        if (!q.started || (accepted == 0 && !haveP)) {
+            long at = q.started ? q.startFs : 0;
+            String what = !q.started || q.globalEnd() == 0 ? "no clock edges in the capture"
+                    : "only " + q.globalEnd() + " clock edges: too few to find the period";
+            notes.add(Annotation.on(TRACK, "clock-absent").span(at, Math.max(at, q.started ? q.endFs : at)).label(what)
+                    .severity(Severity.ERROR).build());
+            return;
+        }
+        if (haveLast && !pending && !afterDropout && q.endFs > lastFinalT + cfg.dropoutPeriods() * periodFs) {
+            stoppedAtEnd = true;
+            dropouts++;
+            notes.add(Annotation.on(TRACK, "clock-dropout").span(lastFinalT, q.endFs).label("clock stopped")
+                    .severity(Severity.ERROR).number("gapFs", q.endFs - lastFinalT, "fs")
+                    .number("periods", (q.endFs - lastFinalT) / periodFs, "").build());
+        }
+    }
+
+    private static final int WAIT = 0;
+    private static final int ACQUIRED = 1;
+    private static final int RETRY = 2;
+
+    private int acquire(boolean finishing) {
+        long end = q.globalEnd();
+        long avail = end - pos;
+        if (avail == 0 || (avail < ACQUIRE_EDGES && !finishing)) {
+            return WAIT;
+        }
+        int w = (int) Math.min(avail, ACQUIRE_EDGES);
+        double duty = Double.NaN;
+        if (w >= 3) {
+            double[] iv = new double[w - 2];
+            for (int i = 0; i < w - 2; i++) {
+                iv[i] = q.time(pos + i + 2) - q.time(pos + i);
+            }
+            double p = median(iv, iv.length);
+            if (!(p > 0)) {
+                if (!haveP) {
+                    // all same-direction intervals are zero: not a clock
+                    pos += w;
+                    return RETRY;
+                }
+            } else {
+                periodFs = p;
+                haveP = true;
+            }
+            double[] hi = new double[w];
+            int nh = 0;
+            for (int i = 0; i < w - 1; i++) {
+                if (q.rising(pos + i)) {
+                    hi[nh++] = q.time(pos + i + 1) - q.time(pos + i);
+                }
+            }
+            if (nh > 0) {
+                duty = median(hi, nh) / periodFs;
+            }
+        } else if (!haveP) {
+            gaveUp = true;
+            pos = end;
+            return WAIT;
+        }
+        if (cfg.phaseIsUi() || Math.abs(cfg.phaseFs()) <= periodFs / cfg.uiPerPeriod()) {
+            // fine
+        } else {
+            throw new IllegalArgumentException("option 'phase' of plugin '" + DualEdgePlugin.ID + "': " + fmt(cfg.phaseFs())
+                    + " fs is more than one unit interval (" + fmt(periodFs / cfg.uiPerPeriod()) + " fs) of the recovered clock");
+        }
+        long at = q.time(pos);
+        boolean first = accepted == 0 && restarts == 0 && !afterDropout;
+        if (first) {
+            acquiredDuty = duty;
+        }
+        if (cfg.mode() == SamplerConfig.Mode.MULTIPLIED) {
+            decidePattern(duty, at);
+        }
+        Annotation.Builder b = Annotation.on(TRACK, first ? "clock-acquired" : "clock-restart")
+                .span(at, at).severity(Severity.INFO)
+                .label(String.format(Locale.ROOT, "%s clock %.6g MHz", first ? "acquired" : "restarted", 1e9 / periodFs))
+                .number("periodFs", periodFs, "fs").number("frequencyHz", 1e15 / periodFs, "Hz");
+        if (!Double.isNaN(duty)) {
+            b.number("duty", duty, "");
+        }
+        notes.add(b.build());
+        if (!first) {
+            restarts++;
+        }
+        acquiring = false;
+        return ACQUIRED;
+    }
+
+    private void decidePattern(double duty, long at) {
+        int n = cfg.slots();
+        double expect = cfg.highSlots() / (double) n;
+        double inv = 1 - expect;
+        boolean wasInverted = inverted;
+        boolean firstDecision = !dutyDecided;
+        String ratio = cfg.highSlots() + "/" + n;
+        String invRatio = (n - cfg.highSlots()) + "/" + n;
+        if (Double.isNaN(duty)) {
+            if (firstDecision) {
+                patternVerdict = "duty cycle not measurable: clock taken as not inverted";
+                notes.add(Annotation.on(TRACK, "clock-duty-unexpected").span(at, at).severity(Severity.WARNING)
+                        .label("duty cycle not measurable; clock taken as not inverted").build());
+            }
+            dutyDecided = true;
+            return;
+        }
+        boolean nearInv = cfg.highSlots() * 2 != n && Math.abs(duty - inv) < Math.abs(duty - expect);
+        double off = Math.min(Math.abs(duty - expect), Math.abs(duty - inv));
+        inverted = nearInv;
+        dutyDecided = true;
+        String slot0 = cfg.slot0AfterRef() + "/" + n + " period after each " + (inverted ? "falling" : "rising") + " edge";
+        if (off > 0.5 / n) {
+            patternVerdict = String.format(Locale.ROOT, "duty %.4f matches neither %s nor %s; taken as %s, slot 0 starts %s",
+                    duty, ratio, invRatio, inverted ? "inverted" : "not inverted", slot0);
+            notes.add(Annotation.on(TRACK, "clock-duty-unexpected").span(at, at).severity(Severity.WARNING)
+                    .label(String.format(Locale.ROOT, "duty %.3f, expected %s", duty, ratio)).number("duty", duty, "")
+                    .build());
+        } else if (inverted) {
+            patternVerdict = String.format(Locale.ROOT, "duty %.4f matches %s: clock lane inverted, slot 0 starts %s",
+                    duty, invRatio, slot0);
+            if (firstDecision || !wasInverted) {
+                notes.add(Annotation.on(TRACK, "clock-inverted").span(at, at).severity(Severity.WARNING)
+                        .label(String.format(Locale.ROOT, "clock inverted (duty %.3f = %s high)", duty, invRatio))
+                        .number("duty", duty, "").build());
+            }
+        } else {
+            patternVerdict = String.format(Locale.ROOT, "duty %.4f matches %s (pattern %s): slot 0 starts %s",
+                    duty, ratio, cfg.pattern(), slot0);
+            if (firstDecision || wasInverted) {
+                notes.add(Annotation.on(TRACK, "clock-pattern").span(at, at).severity(Severity.INFO)
+                        .label(String.format(Locale.ROOT, "duty %.3f = %s high: slot 0 found", duty, ratio))
+                        .number("duty", duty, "").text("pattern", cfg.pattern()).build());
+            }
+        }
+    }
+
+    /** @return false if a dropout sent the tracker back to acquisition */
+    private boolean track(long horizon, boolean finishing) {
+        final long end = q.globalEnd();
+        final double minW = cfg.glitchFraction() * periodFs;
+        while (pos < end) {
+            long t = q.time(pos);
+            if (pending) {
+                long w = t - pendingT;
+                if (w < minW) {
+                    // (pending, t) is a runt unless (t, next) is narrower still: remove the narrower pulse
+                    if (pos + 1 < end) {
+                        long t2 = q.time(pos + 1);
+                        if (t2 - t <= w) {
+                            glitch(t, t2);
+                            pos += 2;
+                            continue;
+                        }
+                    } else if (!finishing && horizon <= t + w) {
+                        return true; // the next transition decides; wait for it
+                    }
+                    glitch(pendingT, t);
+                    pending = false;
+                    pos++;
+                    continue;
+                }
+                if (!finalizePending()) {
+                    return false;
+                }
+            }
+            pending = true;
+            pendingT = t;
+            pendingRaw = pos;
+            pendingRising = q.rising(pos);
+            pos++;
+        }
+        if (pending && (finishing || horizon > pendingT + minW)) {
+            return finalizePending();
+        }
+        return true;
+    }
+
+    private void glitch(long a, long b) {
+        glitches++;
+        notes.add(Annotation.on(TRACK, "clock-glitch").span(a, b).severity(Severity.WARNING)
+                .label("clock glitch ignored").number("widthFs", b - a, "fs").build());
+    }
+
+    private boolean finalizePending() {
+        final long t = pendingT;
+        final boolean rising = pendingRising;
+        final int d = rising ? 1 : 0;
+        boolean restart = false;
+        if (afterDropout) {
+            restart = true;
+        } else if (haveLast) {
+            double limit = cfg.dropoutPeriods() * periodFs;
+            if (t - lastFinalT > limit || (haveSame[d] && t - lastSame[d] > limit)) {
+                dropouts++;
+                notes.add(Annotation.on(TRACK, "clock-dropout").span(lastFinalT, t).severity(Severity.ERROR)
+                        .label("clock dropout").number("gapFs", t - lastFinalT, "fs")
+                        .number("periods", (t - lastFinalT) / periodFs, "").build());
+                afterDropout = true;
+                acquiring = true;
+                pos = pendingRaw;
+                pending = false;
+                haveSame[0] = false;
+                haveSame[1] = false;
+                return false;
+            }
+        }
+        long from = haveLast ? lastFinalT : t - (long) periodFs;
+        boolean suspect = q.hasSpans() && q.spanOverlaps(from, t);
+        if (haveSame[d]) {
+            double iv = t - lastSame[d];
+            periodFs += (iv - periodFs) * ALPHA;
+            periodCount++;
+            double delta = iv - periodMean;
+            periodMean += delta / periodCount;
+            periodM2 += delta * (iv - periodMean);
+            if (iv < periodMin) {
+                periodMin = iv;
+            }
+            if (iv > periodMax) {
+                periodMax = iv;
+            }
+        }
+        if (!rising && haveLast && lastFinalRising && !restart) {
+            double duty = (t - lastFinalT) / periodFs;
+            dutyCount++;
+            dutySum += duty;
+            if (duty < dutyMin) {
+                dutyMin = duty;
+            }
+            if (duty > dutyMax) {
+                dutyMax = duty;
+            }
+        }
+        boolean reference = cfg.mode() == SamplerConfig.Mode.MULTIPLIED ? rising != inverted : rising;
+        if (accCount == accT.length) {
+            int n = accT.length * 2;
+            accT = Arrays.copyOf(accT, n);
+            accP = Arrays.copyOf(accP, n);
+            accFlags = Arrays.copyOf(accFlags, n);
+            accIndex = Arrays.copyOf(accIndex, n);
+        }
+        accT[accCount] = t;
+        accP[accCount] = periodFs;
+        accFlags[accCount] = (byte) ((rising ? RISING : 0) | (restart ? RESTART : 0) | (suspect ? SUSPECT : 0)
+                | (reference ? REFERENCE : 0));
+        accIndex[accCount] = cfg.mode() == SamplerConfig.Mode.MULTIPLIED ? (reference ? referenceEdges : -1) : accepted;
+        accCount++;
+        if (firstEdgeFs == Long.MIN_VALUE) {
+            firstEdgeFs = t;
+        }
+        accepted++;
+        if (reference) {
+            referenceEdges++;
+        }
+        lastSame[d] = t;
+        haveSame[d] = true;
+        lastFinalT = t;
+        lastFinalRising = rising;
+        haveLast = true;
+        afterDropout = false;
+        pending = false;
+        return true;
+    }
+
+    /**
+     * Whether a dropout follows the last accepted edge.
+     *
+     * @param horizon every clock transition before this time is known
+     * @return 1 yes, 0 no (the capture ended first), -1 not known yet
+     */
+    int gapAfterLast(long horizon) {
+        if (afterDropout || stoppedAtEnd) {
+            return 1;
+        }
+        if (finished) {
+            return 0;
+        }
+        if (haveP && haveLast) {
+            double limit = cfg.dropoutPeriods() * periodFs;
+            if (pending ? pendingT - lastFinalT > limit : (pos >= q.globalEnd() && horizon > lastFinalT + limit)) {
+                return 1;
+            }
+        }
+        return -1;
+    }
+
+    /**
+     * The earliest time an edge not yet accepted can have.
+     *
+     * @param horizon clock horizon
+     * @return femtoseconds
+     */
+    long frontierFs(long horizon) {
+        if (pending) {
+            return pendingT;
+        }
+        if (pos < q.globalEnd()) {
+            return q.time(pos);
+        }
+        return horizon;
+    }
+
+    long lastAcceptedFs() {
+        return haveLast ? lastFinalT : Long.MIN_VALUE;
+    }
+
+    /** Drops the first {@code n} accepted edges (the planner took them). */
+    void consumed(int n) {
+        System.arraycopy(accT, n, accT, 0, accCount - n);
+        System.arraycopy(accP, n, accP, 0, accCount - n);
+        System.arraycopy(accFlags, n, accFlags, 0, accCount - n);
+        System.arraycopy(accIndex, n, accIndex, 0, accCount - n);
+        accCount -= n;
+    }
+
+    double periodStd() {
+        return periodCount > 1 ? Math.sqrt(periodM2 / (periodCount - 1)) : 0;
+    }
+
+    boolean finished() {
+        return finished;
+    }
+
+    static double median(double[] v, int n) {
+        double[] c = Arrays.copyOf(v, n);
+        Arrays.sort(c);
+        return (n & 1) == 1 ? c[n / 2] : 0.5 * (c[n / 2 - 1] + c[n / 2]);
+    }
+
+    private static String fmt(double fs) {
+        return String.format(Locale.ROOT, "%.0f", fs);
+    }
+}

@@ -1,0 +1,344 @@
+package org.lanesift.plugins.dualedge;
+
+import java.nio.charset.StandardCharsets;
+import java.util.Arrays;
+import java.util.Locale;
+import org.lanesift.annotation.Annotation;
+import org.lanesift.annotation.Severity;
+import org.lanesift.data.Artifact;
+import org.lanesift.data.BitSets;
+import org.lanesift.data.BitStream;
+import org.lanesift.data.Block;
+import org.lanesift.data.Edges;
+import org.lanesift.plugin.Stage;
+import org.lanesift.plugin.StageContext;
+
+/**
+ * One running sampler: gathers the clock and lane edges, recovers the clock, plans sample points,
+ * finds the phase, samples every lane once all inputs cover the margins' reach, and emits one
+ * bit-stream block per lane per call. Keeps only what later bits still need.
+ */
+final class DualEdgeStage implements Stage {
+    private final StageContext ctx;
+    private final SamplerConfig cfg;
+    private final EdgeQueue clockQ = new EdgeQueue("clock");
+    private final EdgeQueue[] laneQ;
+    private final LaneSampler[] lanes;
+    private final ClockRecovery cr;
+    private final SamplePlanner planner;
+    private final SampleBuf sb;
+    private final AnnotationQueue notes;
+    private boolean phaseKnown;
+    private boolean phaseIsUi;
+    private double phaseUi;
+    private double phaseFs;
+    private EyeSearch.Window eye;
+    private EyeSearch.Window[] laneEyes;
+    private int searchedBits;
+    private long prevBlockEnd = Long.MIN_VALUE;
+    private long emittedBits;
+    private double uiSumAll;
+    private boolean done;
+
+    DualEdgeStage(StageContext ctx, SamplerConfig cfg) {
+        this.ctx = ctx;
+        this.cfg = cfg;
+        this.notes = new AnnotationQueue(ctx);
+        laneQ = new EdgeQueue[cfg.lanes()];
+        lanes = new LaneSampler[cfg.lanes()];
+        for (int i = 0; i < cfg.lanes(); i++) {
+            laneQ[i] = new EdgeQueue("lane" + i);
+            lanes[i] = new LaneSampler(i, laneQ[i]);
+        }
+        cr = new ClockRecovery(cfg, clockQ, notes);
+        planner = new SamplePlanner(cfg);
+        sb = new SampleBuf(cfg.marginThreshold());
+        if (!cfg.autoPhase()) {
+            phaseKnown = true;
+            phaseIsUi = cfg.phaseIsUi();
+            phaseUi = cfg.phaseUi();
+            phaseFs = cfg.phaseFs();
+        }
+    }
+
+    @Override
+    public void accept(int input, Block block) {
+        Edges e = (Edges) block;
+        (input == 0 ? clockQ : laneQ[input - 1]).append(e);
+        advance(false);
+    }
+
+    @Override
+    public void finish() {
+        if (done) {
+            return;
+        }
+        advance(true);
+        done = true;
+        for (LaneSampler l : lanes) {
+            l.closeRun(notes);
+        }
+        if (ctx.isConnected(cfg.lanes())) {
+            long start = clockQ.started ? clockQ.startFs : 0;
+            long end = clockQ.started ? clockQ.endFs : 0;
+            for (EdgeQueue q : laneQ) {
+                if (q.started) {
+                    start = Math.min(start, q.startFs);
+                    end = Math.max(end, q.endFs);
+                }
+            }
+            ctx.emit(cfg.lanes(), new Artifact(ctx.instanceId(), start, Math.max(start, end), ctx.instanceId() + "-margins.json",
+                    "application/json", report().getBytes(StandardCharsets.UTF_8)));
+        }
+        notes.flushAll();
+    }
+
+    private void advance(boolean finishing) {
+        long hClock = clockQ.started ? clockQ.endFs : Long.MIN_VALUE;
+        cr.run(hClock, finishing);
+        planner.consume(cr, sb, hClock, clockQ.started ? clockQ.endFs : Long.MIN_VALUE);
+        long hData = Long.MAX_VALUE;
+        for (EdgeQueue q : laneQ) {
+            hData = Math.min(hData, q.started ? q.endFs : Long.MIN_VALUE);
+        }
+        if (!phaseKnown) {
+            search(hData, finishing);
+        }
+        if (phaseKnown) {
+            sb.applyPhase(phaseIsUi, phaseUi, phaseFs);
+            emitReady(hData, finishing);
+        }
+        discardOld();
+    }
+
+    private void search(long hData, boolean finishing) {
+        int m = Math.min(sb.n, cfg.searchBits());
+        if (!finishing) {
+            if (sb.n < cfg.searchBits()) {
+                return;
+            }
+            long need = sb.nominal[m - 1] + (long) Math.ceil(EyeSearch.REACH_UI * sb.ui[m - 1]);
+            if (hData <= need) {
+                return;
+            }
+        }
+        phaseKnown = true;
+        phaseIsUi = true;
+        phaseUi = 0;
+        searchedBits = m;
+        if (m == 0) {
+            return;
+        }
+        double[] all = new double[1024];
+        int allLen = 0;
+        int[] len = new int[1];
+        laneEyes = new EyeSearch.Window[lanes.length];
+        for (int i = 0; i < lanes.length; i++) {
+            double[] one = EyeSearch.collect(laneQ[i], sb, m, new double[256], 0, len);
+            int n = len[0];
+            if (allLen + n > all.length) {
+                all = Arrays.copyOf(all, Math.max(all.length * 2, allLen + n));
+            }
+            System.arraycopy(one, 0, all, allLen, n);
+            allLen += n;
+            laneEyes[i] = EyeSearch.widest(one, n);
+        }
+        eye = EyeSearch.widest(all, allLen);
+        phaseUi = eye.centreUi();
+        long a = sb.nominal[0];
+        long b = Math.max(a, sb.nominal[m - 1]);
+        notes.add(Annotation.on(ClockRecovery.TRACK, "eye-centre").span(a, b).severity(Severity.INFO)
+                .label(String.format(Locale.ROOT, "sampling at %+.3f UI (window %.3f UI)", eye.centreUi(), eye.widthUi()))
+                .number("phaseUI", eye.centreUi(), "UI").number("windowUI", eye.widthUi(), "UI")
+                .field("transitions", org.lanesift.annotation.Field.integer(eye.transitions(), "")).build());
+        if (eye.widthUi() < 2 * cfg.marginThreshold()) {
+            notes.add(Annotation.on(ClockRecovery.TRACK, "eye-closed").span(a, b).severity(Severity.ERROR)
+                    .label(String.format(Locale.ROOT, "widest transition-free window only %.3f UI", eye.widthUi()))
+                    .number("windowUI", eye.widthUi(), "UI").build());
+        }
+    }
+
+    private void emitReady(long hData, boolean finishing) {
+        int ready;
+        if (finishing) {
+            ready = sb.n;
+        } else {
+            ready = 0;
+            while (ready < sb.n && sb.s[ready] + (long) Math.ceil(sb.ui[ready]) < hData) {
+                ready++;
+            }
+        }
+        if (ready == 0) {
+            return;
+        }
+        long minS = Long.MAX_VALUE;
+        long maxS = Long.MIN_VALUE;
+        double maxUi = 0;
+        double uiSum = 0;
+        for (int i = 0; i < ready; i++) {
+            long s = sb.s[i];
+            minS = Math.min(minS, s);
+            maxS = Math.max(maxS, s);
+            maxUi = Math.max(maxUi, sb.ui[i]);
+            uiSum += sb.ui[i];
+        }
+        long reach = (long) Math.ceil(2 * maxUi);
+        long[] times = Arrays.copyOf(sb.s, ready);
+        long[] edges = Arrays.copyOf(sb.edge, ready);
+        long[] falling = new long[BitSets.words(ready)];
+        for (int i = 0; i < ready; i++) {
+            if ((sb.flags[i] & SampleBuf.FALLING) != 0) {
+                falling[i >>> 6] |= 1L << i;
+            }
+        }
+        byte[] slot = cfg.mode() == SamplerConfig.Mode.MULTIPLIED ? Arrays.copyOf(sb.slot, ready) : null;
+        long start = Math.max(prevBlockEnd, times[0]);
+        long end = Math.max(start, maxS + 1);
+        prevBlockEnd = end;
+        double meanUi = uiSum / ready;
+        for (int i = 0; i < lanes.length; i++) {
+            EdgeQueue q = laneQ[i];
+            boolean fast = q.started && minS - reach >= q.startFs && (!finishing || maxS + reach < q.endFs)
+                    && !(q.hasSpans() && q.spanOverlaps(minS - reach, maxS + reach));
+            LaneSampler l = lanes[i];
+            l.sample(sb, ready, fast, finishing, notes);
+            BitStream bs = new BitStream(q.channel != null ? q.channel : "lane" + i, start, end, ready, l.values, times, edges,
+                    falling, slot, l.setup, l.hold, l.flagged, meanUi);
+            ctx.emit(i, bs);
+        }
+        emittedBits += ready;
+        uiSumAll += uiSum;
+        sb.removePrefix(ready);
+    }
+
+    private static long sat(long a, long b) {
+        long r = a - b;
+        return ((a ^ b) & (a ^ r)) < 0 ? Long.MIN_VALUE : r;
+    }
+
+    private void discardOld() {
+        if (!cr.haveP) {
+            return;
+        }
+        long from = Long.MAX_VALUE;
+        if (sb.n > 0) {
+            from = Math.min(from, sb.nominal[0]);
+            if (sb.applied > 0) {
+                from = Math.min(from, sb.s[0]);
+            }
+        }
+        from = Math.min(from, planner.frontierFs());
+        from = Math.min(from, cr.frontierFs(clockQ.endFs));
+        long last = cr.lastAcceptedFs();
+        long slack = (long) (2 * cr.periodFs + (phaseIsUi ? Math.abs(phaseUi) * cr.periodFs : Math.abs(phaseFs)));
+        long keep = sat(from, slack);
+        if (keep != Long.MIN_VALUE) {
+            for (EdgeQueue q : laneQ) {
+                q.discardBeforeTime(keep);
+            }
+        }
+        long safe = Math.min(keep, last == Long.MIN_VALUE ? Long.MIN_VALUE : sat(last, slack));
+        for (LaneSampler l : lanes) {
+            safe = Math.min(safe, l.openRunStart());
+        }
+        notes.flush(safe);
+    }
+
+    private String report() {
+        Json j = new Json();
+        j.beginObject();
+        j.key("instance").value(ctx.instanceId());
+        j.key("plugin").value(DualEdgePlugin.ID);
+        j.key("mode").value(cfg.mode().option);
+        j.key("lanes").value(cfg.lanes());
+        if (cfg.mode() == SamplerConfig.Mode.MULTIPLIED) {
+            j.key("slots").value(cfg.slots());
+            j.key("clockPattern").value(cfg.pattern());
+        }
+        j.key("marginThresholdUI").value(cfg.marginThreshold());
+        j.key("marginReachUI").value(1.0);
+        double meanUi = emittedBits > 0 ? uiSumAll / emittedBits : Double.NaN;
+        j.key("unitIntervalFs").value(meanUi);
+        j.key("bitsPerLane").value(emittedBits);
+        j.key("clock").beginObject();
+        j.key("channel").value(clockQ.channel);
+        j.key("acceptedEdges").value(cr.accepted);
+        j.key("glitches").value(cr.glitches);
+        j.key("dropouts").value(cr.dropouts);
+        j.key("restarts").value(cr.restarts);
+        j.key("periodFs").beginObject();
+        j.key("mean").value(cr.periodCount > 0 ? cr.periodMean : cr.periodFs);
+        j.key("std").value(cr.periodStd());
+        j.key("min").value(cr.periodCount > 0 ? cr.periodMin : Double.NaN);
+        j.key("max").value(cr.periodCount > 0 ? cr.periodMax : Double.NaN);
+        j.key("intervals").value(cr.periodCount);
+        j.endObject();
+        j.key("frequencyHz").value(cr.periodCount > 0 ? 1e15 / cr.periodMean : (cr.haveP ? 1e15 / cr.periodFs : Double.NaN));
+        j.key("duty").beginObject();
+        j.key("mean").value(cr.dutyCount > 0 ? cr.dutySum / cr.dutyCount : Double.NaN);
+        j.key("min").value(cr.dutyCount > 0 ? cr.dutyMin : Double.NaN);
+        j.key("max").value(cr.dutyCount > 0 ? cr.dutyMax : Double.NaN);
+        j.key("atAcquisition").value(cr.acquiredDuty);
+        j.endObject();
+        if (cfg.mode() == SamplerConfig.Mode.MULTIPLIED) {
+            j.key("inverted").value(cr.inverted);
+            j.key("slot0").value(cr.patternVerdict);
+            j.key("pixels").value(planner.pixels);
+            j.key("pixelsDroppedAtDropouts").value(planner.pixelsDropped);
+        }
+        j.endObject();
+        j.key("phase").beginObject();
+        j.key("source").value(cfg.autoPhase() ? "autoPhase" : "option");
+        j.key("alignment").value(cfg.mode() == SamplerConfig.Mode.MULTIPLIED ? "slot-centre" : cfg.edgeAligned() ? "edge" : "center");
+        if (phaseIsUi) {
+            j.key("phaseUI").value(phaseUi);
+            j.key("phaseFs").value(phaseUi * meanUi);
+        } else {
+            j.key("phaseFs").value(phaseFs);
+            j.key("phaseUI").value(phaseFs / meanUi);
+        }
+        if (cfg.autoPhase()) {
+            j.key("search").beginObject();
+            j.key("bits").value(searchedBits);
+            if (eye != null) {
+                writeWindow(j, eye);
+                j.key("perLane").beginArray();
+                for (int i = 0; i < laneEyes.length; i++) {
+                    j.beginObject();
+                    j.key("lane").value(i);
+                    writeWindow(j, laneEyes[i]);
+                    j.endObject();
+                }
+                j.endArray();
+            }
+            j.endObject();
+        }
+        j.endObject();
+        j.key("lanes").beginArray();
+        for (int i = 0; i < lanes.length; i++) {
+            LaneSampler l = lanes[i];
+            MarginStats st = l.stats;
+            j.beginObject();
+            j.key("lane").value(i);
+            j.key("channel").value(laneQ[i].channel);
+            j.key("bits").value(st.bits);
+            j.key("flagged").value(st.flagged);
+            j.key("unknownSamples").value(st.unknown);
+            j.key("flaggedRuns").value(st.lowRuns);
+            st.writeMargin(j, "setup", st.setupHist, st.setupKnown, st.minSetupFs, st.minSetupUi, meanUi);
+            st.writeMargin(j, "hold", st.holdHist, st.holdKnown, st.minHoldFs, st.minHoldUi, meanUi);
+            j.endObject();
+        }
+        j.endArray();
+        j.endObject();
+        return j.toString() + "\n";
+    }
+
+    private static void writeWindow(Json j, EyeSearch.Window w) {
+        j.key("centreUI").value(w.centreUi());
+        j.key("windowUI").value(w.widthUi());
+        j.key("leftUI").value(w.leftUi());
+        j.key("rightUI").value(w.rightUi());
+        j.key("transitions").value(w.transitions());
+    }
+}

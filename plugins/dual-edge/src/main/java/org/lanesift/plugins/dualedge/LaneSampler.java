@@ -1,0 +1,305 @@
+package org.lanesift.plugins.dualedge;
+
+import org.lanesift.annotation.Annotation;
+import org.lanesift.annotation.Field;
+import org.lanesift.annotation.Severity;
+import org.lanesift.data.BitSets;
+import org.lanesift.data.BitStream;
+
+/**
+ * Samples one data lane at the planned sample points: value, setup and hold margins, flags,
+ * statistics and runs of flagged bits. The hot loop runs over primitive arrays only.
+ */
+final class LaneSampler {
+    static final long UNKNOWN = BitStream.UNKNOWN_MARGIN;
+
+    final int lane;
+    final EdgeQueue q;
+    final String track;
+    final MarginStats stats = new MarginStats();
+    /** Global index of the first transition after the last sample. */
+    private long cursor;
+    // the open run of flagged bits
+    private boolean inRun;
+    private long runStart;
+    private long runEnd;
+    private long runBits;
+    private long runMinSetup = UNKNOWN;
+    private long runMinHold = UNKNOWN;
+    private long runUnknown;
+
+    // outputs of the last call
+    long[] values;
+    long[] setup;
+    long[] hold;
+    long[] flagged;
+
+    LaneSampler(int lane, EdgeQueue q) {
+        this.lane = lane;
+        this.q = q;
+        this.track = "lane" + lane;
+    }
+
+    /**
+     * Samples the first {@code n} planned points; results in {@link #values} .. {@link #flagged}.
+     *
+     * @param sb        sample points
+     * @param n         how many
+     * @param fast      true when no unknown span or coverage edge is within reach of any of them
+     * @param finishing true when the lane has ended
+     * @param notes     annotation queue
+     */
+    void sample(SampleBuf sb, int n, boolean fast, boolean finishing, AnnotationQueue notes) {
+        int w = BitSets.words(n);
+        values = new long[w];
+        flagged = new long[w];
+        setup = new long[n];
+        hold = new long[n];
+        if (fast) {
+            sampleFast(sb, n, notes);
+        } else {
+            sampleSlow(sb, n, finishing, notes);
+        }
+        stats.bits += n;
+        stats.flagged += BitSets.count(flagged, n);
+    }
+
+    private void sampleFast(SampleBuf sb, int n, AnnotationQueue notes) {
+        final long[] tt = q.t;
+        final int head = q.head;
+        final int tail = q.tail;
+        final long base = q.base;
+        final boolean init = q.initialLevel;
+        final long[] ss = sb.s;
+        final long[] th = sb.thr;
+        final double[] uis = sb.ui;
+        final double[] inv = sb.invUi;
+        final byte[] fl = sb.flags;
+        final long[] vals = values;
+        final long[] flg = flagged;
+        final long[] su = setup;
+        final long[] ho = hold;
+        final long[] sh = stats.setupHist;
+        final long[] hh = stats.holdHist;
+        final double bins = MarginStats.BINS;
+        long minS = stats.minSetupFs;
+        long minH = stats.minHoldFs;
+        double minSu = stats.minSetupUi;
+        double minHu = stats.minHoldUi;
+        long known1 = 0;
+        long known2 = 0;
+        double uiSum = 0;
+        int j = (int) Math.max(head, Math.min(tail, cursor - q.base));
+        long vWord = 0;
+        long fWord = 0;
+        for (int i = 0; i < n; i++) {
+            final long s = ss[i];
+            while (j < tail && tt[j] <= s) {
+                j++;
+            }
+            while (j > head && tt[j - 1] > s) {
+                j--;
+            }
+            final double ui = uis[i];
+            uiSum += ui;
+            final long reach = (long) ui;
+            long a = j > head ? s - tt[j - 1] : UNKNOWN;
+            if (a > reach) {
+                a = UNKNOWN;
+            }
+            long b = j < tail ? tt[j] - s : UNKNOWN;
+            if (b > reach) {
+                b = UNKNOWN;
+            }
+            su[i] = a;
+            ho[i] = b;
+            final long thr = th[i];
+            final boolean f = a < thr || b < thr || (fl[i] & SampleBuf.SUSPECT) != 0;
+            if (a != UNKNOWN) {
+                double r = a * inv[i];
+                sh[(int) (r * bins)]++;
+                known1++;
+                if (a < minS) {
+                    minS = a;
+                }
+                if (r < minSu) {
+                    minSu = r;
+                }
+            }
+            if (b != UNKNOWN) {
+                double r = b * inv[i];
+                hh[(int) (r * bins)]++;
+                known2++;
+                if (b < minH) {
+                    minH = b;
+                }
+                if (r < minHu) {
+                    minHu = r;
+                }
+            }
+            if ((((base + j) & 1) != 0) != init) {
+                vWord |= 1L << i;
+            }
+            if (f) {
+                fWord |= 1L << i;
+                flaggedBit(s, a, b, false);
+            } else if (inRun) {
+                closeRun(notes);
+            }
+            if ((i & 63) == 63) {
+                vals[i >>> 6] = vWord;
+                flg[i >>> 6] = fWord;
+                vWord = 0;
+                fWord = 0;
+            }
+        }
+        if ((n & 63) != 0) {
+            vals[n >>> 6] = vWord;
+            flg[n >>> 6] = fWord;
+        }
+        cursor = q.base + j;
+        stats.minSetupFs = minS;
+        stats.minHoldFs = minH;
+        stats.minSetupUi = minSu;
+        stats.minHoldUi = minHu;
+        stats.setupKnown += known1;
+        stats.holdKnown += known2;
+        stats.uiSum += uiSum;
+    }
+
+    private void sampleSlow(SampleBuf sb, int n, boolean finishing, AnnotationQueue notes) {
+        final long[] tt = q.t;
+        final int head = q.head;
+        final int tail = q.tail;
+        final long[] sp = q.spans;
+        final int spEnd = q.spanTail;
+        int k0 = q.spanHead;
+        int j = (int) Math.max(head, Math.min(tail, cursor - q.base));
+        for (int i = 0; i < n; i++) {
+            final long s = sb.s[i];
+            while (j < tail && tt[j] <= s) {
+                j++;
+            }
+            while (j > head && tt[j - 1] > s) {
+                j--;
+            }
+            final double ui = sb.ui[i];
+            stats.uiSum += ui;
+            final long reach = (long) ui;
+            long prevT = j > head ? tt[j - 1] : Long.MIN_VALUE;
+            long nextT = j < tail ? tt[j] : Long.MAX_VALUE;
+            boolean unknown = !q.started || s < q.startFs || (finishing && s >= q.endFs);
+            while (k0 > q.spanHead && sp[k0 - 1] > s - 2 * reach) {
+                k0 -= 2;
+            }
+            while (k0 < spEnd && sp[k0 + 1] <= s - 2 * reach) {
+                k0 += 2;
+            }
+            for (int k = k0; k < spEnd; k += 2) {
+                long a = sp[k];
+                long b = sp[k + 1];
+                if (a > s + reach) {
+                    break;
+                }
+                if (a <= s && s < b) {
+                    unknown = true;
+                } else if (b <= s) {
+                    prevT = Math.max(prevT, b);
+                } else {
+                    nextT = Math.min(nextT, a);
+                }
+            }
+            long a;
+            long b;
+            boolean f;
+            if (unknown) {
+                a = UNKNOWN;
+                b = UNKNOWN;
+                f = true;
+                stats.unknown++;
+            } else {
+                a = prevT == Long.MIN_VALUE || s - prevT > reach ? UNKNOWN : s - prevT;
+                b = nextT == Long.MAX_VALUE || nextT - s > reach ? UNKNOWN : nextT - s;
+                f = a < sb.thr[i] || b < sb.thr[i] || (sb.flags[i] & SampleBuf.SUSPECT) != 0;
+                if (a != UNKNOWN) {
+                    double r = a * sb.invUi[i];
+                    stats.setupHist[(int) (r * MarginStats.BINS)]++;
+                    stats.setupKnown++;
+                    stats.minSetupFs = Math.min(stats.minSetupFs, a);
+                    stats.minSetupUi = Math.min(stats.minSetupUi, r);
+                }
+                if (b != UNKNOWN) {
+                    double r = b * sb.invUi[i];
+                    stats.holdHist[(int) (r * MarginStats.BINS)]++;
+                    stats.holdKnown++;
+                    stats.minHoldFs = Math.min(stats.minHoldFs, b);
+                    stats.minHoldUi = Math.min(stats.minHoldUi, r);
+                }
+            }
+            setup[i] = a;
+            hold[i] = b;
+            if ((((q.base + j) & 1) != 0) != q.initialLevel) {
+                values[i >>> 6] |= 1L << i;
+            }
+            if (f) {
+                flagged[i >>> 6] |= 1L << i;
+                flaggedBit(s, a, b, unknown);
+            } else if (inRun) {
+                closeRun(notes);
+            }
+        }
+        cursor = q.base + j;
+    }
+
+    private void flaggedBit(long s, long a, long b, boolean unknown) {
+        if (!inRun) {
+            inRun = true;
+            runStart = s;
+            runBits = 0;
+            runMinSetup = UNKNOWN;
+            runMinHold = UNKNOWN;
+            runUnknown = 0;
+        }
+        runBits++;
+        runEnd = s;
+        if (a < runMinSetup) {
+            runMinSetup = a;
+        }
+        if (b < runMinHold) {
+            runMinHold = b;
+        }
+        if (unknown) {
+            runUnknown++;
+        }
+    }
+
+    void closeRun(AnnotationQueue notes) {
+        if (!inRun) {
+            return;
+        }
+        inRun = false;
+        stats.lowRuns++;
+        Annotation.Builder b = Annotation.on(track, "margin-low").span(runStart, runEnd).severity(Severity.WARNING)
+                .label(runBits == 1 ? "1 flagged bit" : runBits + " flagged bits")
+                .field("bits", Field.integer(runBits, ""));
+        if (runMinSetup != UNKNOWN) {
+            b.number("minSetupFs", runMinSetup, "fs");
+        }
+        if (runMinHold != UNKNOWN) {
+            b.number("minHoldFs", runMinHold, "fs");
+        }
+        if (runUnknown > 0) {
+            b.field("unknownBits", Field.integer(runUnknown, ""));
+        }
+        notes.add(b.build());
+    }
+
+    /**
+     * Start of the open run of flagged bits.
+     *
+     * @return femtoseconds, or {@code Long.MAX_VALUE} when none is open
+     */
+    long openRunStart() {
+        return inRun ? runStart : Long.MAX_VALUE;
+    }
+}

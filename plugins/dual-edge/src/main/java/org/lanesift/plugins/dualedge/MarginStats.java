@@ -1,0 +1,85 @@
+package org.lanesift.plugins.dualedge;
+
+/**
+ * Running statistics of one lane's margins: counts, exact minima, and fine histograms of setup and
+ * hold margins as fractions of the unit interval (bins of 1/{@link #BINS} UI over 0..1 UI), from
+ * which percentiles are read to half a bin.
+ */
+final class MarginStats {
+    static final int BINS = 2000;
+    static final double[] PERCENTILES = {0.1, 1, 5, 10, 50, 90, 99};
+    static final int REPORT_BINS = 50;
+
+    final long[] setupHist = new long[BINS + 1];
+    final long[] holdHist = new long[BINS + 1];
+    long bits;
+    long flagged;
+    long unknown;
+    long setupKnown;
+    long holdKnown;
+    long minSetupFs = Long.MAX_VALUE;
+    long minHoldFs = Long.MAX_VALUE;
+    double minSetupUi = Double.POSITIVE_INFINITY;
+    double minHoldUi = Double.POSITIVE_INFINITY;
+    double uiSum;
+    long lowRuns;
+
+    /**
+     * The p-th percentile of a histogram, in UI.
+     *
+     * @param hist  counts
+     * @param total sum of counts
+     * @param p     percentile, 0..100
+     * @return bin centre in UI, or NaN for an empty histogram
+     */
+    static double percentile(long[] hist, long total, double p) {
+        if (total == 0) {
+            return Double.NaN;
+        }
+        long rank = (long) Math.ceil(p / 100.0 * total);
+        if (rank < 1) {
+            rank = 1;
+        }
+        long c = 0;
+        for (int i = 0; i < hist.length; i++) {
+            c += hist[i];
+            if (c >= rank) {
+                return Math.min(1.0, (i + 0.5) / BINS);
+            }
+        }
+        return 1.0;
+    }
+
+    void writeMargin(Json j, String name, long[] hist, long known, long minFs, double minUi, double meanUiFs) {
+        j.key(name).beginObject();
+        j.key("known").value(known);
+        j.key("minFs").value(known == 0 ? Double.NaN : (double) minFs);
+        j.key("minUI").value(known == 0 ? Double.NaN : minUi);
+        j.key("percentilesUI").beginObject();
+        for (double p : PERCENTILES) {
+            j.key(p == Math.rint(p) ? Long.toString((long) p) : Double.toString(p)).value(percentile(hist, known, p));
+        }
+        j.endObject();
+        j.key("percentilesFs").beginObject();
+        for (double p : PERCENTILES) {
+            j.key(p == Math.rint(p) ? Long.toString((long) p) : Double.toString(p)).value(percentile(hist, known, p) * meanUiFs);
+        }
+        j.endObject();
+        j.key("histogram").beginObject();
+        j.key("binUI").value(1.0 / REPORT_BINS);
+        j.key("counts").beginArray();
+        int per = BINS / REPORT_BINS;
+        for (int b = 0; b < REPORT_BINS; b++) {
+            long s = 0;
+            for (int i = b * per; i < (b + 1) * per; i++) {
+                s += hist[i];
+            }
+            if (b == REPORT_BINS - 1) {
+                s += hist[BINS];
+            }
+            j.value(s);
+        }
+        j.endArray().endObject();
+        j.endObject();
+    }
+}

@@ -1,0 +1,128 @@
+package org.lanesift.plugins.dualedge;
+
+/**
+ * Turns accepted clock edges into nominal sample points: one per edge (DDR), one per rising or
+ * falling edge, or {@code slots} per clock period (multiplied mode, see {@link DualEdgePlugin}).
+ */
+final class SamplePlanner {
+    private final SamplerConfig cfg;
+    private boolean haveRef;
+    private long refT;
+    private long refIdx;
+    private boolean refSuspect;
+    private boolean pendingPixel;
+    private long pxR0;
+    private long pxR1;
+    private long pxIdx;
+    private boolean pxSuspect;
+    private boolean pxFalling;
+    long pixels;
+    long pixelsDropped;
+
+    SamplePlanner(SamplerConfig cfg) {
+        this.cfg = cfg;
+    }
+
+    /**
+     * Plans the samples of every edge the clock recovery accepted since the last call.
+     *
+     * @param cr           clock recovery
+     * @param sb           where samples go
+     * @param clockHorizon every clock transition before this time is known
+     * @param clockEndFs   end of the clock input's coverage
+     */
+    void consume(ClockRecovery cr, SampleBuf sb, long clockHorizon, long clockEndFs) {
+        int n = cr.accCount;
+        if (cfg.mode() != SamplerConfig.Mode.MULTIPLIED) {
+            boolean ddr = cfg.mode() == SamplerConfig.Mode.DDR;
+            boolean wantRising = cfg.mode() != SamplerConfig.Mode.FALLING;
+            boolean wantFalling = cfg.mode() != SamplerConfig.Mode.RISING;
+            double align = cfg.edgeAligned() ? 0.5 : 0;
+            for (int i = 0; i < n; i++) {
+                byte f = cr.accFlags[i];
+                boolean rising = (f & ClockRecovery.RISING) != 0;
+                if (rising ? !wantRising : !wantFalling) {
+                    continue;
+                }
+                double ui = ddr ? cr.accP[i] * 0.5 : cr.accP[i];
+                long nominal = cr.accT[i] + Math.round(align * ui);
+                sb.add(nominal, cr.accIndex[i], ui, !rising, (f & ClockRecovery.SUSPECT) != 0, 0);
+            }
+            cr.consumed(n);
+            return;
+        }
+        for (int i = 0; i < n; i++) {
+            byte f = cr.accFlags[i];
+            boolean restart = (f & ClockRecovery.RESTART) != 0;
+            boolean suspect = (f & ClockRecovery.SUSPECT) != 0;
+            if (pendingPixel) {
+                if (restart) {
+                    pixelsDropped++;
+                } else {
+                    emitPixel(sb);
+                }
+                pendingPixel = false;
+            }
+            if (restart) {
+                haveRef = false;
+            }
+            if ((f & ClockRecovery.REFERENCE) != 0) {
+                long t = cr.accT[i];
+                if (haveRef) {
+                    pendingPixel = true;
+                    pxR0 = refT;
+                    pxR1 = t;
+                    pxIdx = refIdx;
+                    pxSuspect = refSuspect || suspect;
+                    pxFalling = (f & ClockRecovery.RISING) == 0;
+                }
+                haveRef = true;
+                refT = t;
+                refIdx = cr.accIndex[i];
+                refSuspect = suspect;
+            }
+        }
+        cr.consumed(n);
+        if (pendingPixel) {
+            int g = cr.gapAfterLast(clockHorizon);
+            if (g == 1) {
+                pixelsDropped++;
+                pendingPixel = false;
+            } else if (g == 0) {
+                long p = pxR1 - pxR0;
+                double endF = (cfg.slot0AfterRef() + cfg.slots()) / (double) cfg.slots();
+                long lastEnd = endF <= 1 ? pxR0 + Math.round(endF * p) : pxR1 + Math.round((endF - 1) * p);
+                if (clockEndFs >= lastEnd) {
+                    emitPixel(sb);
+                } else {
+                    pixelsDropped++;
+                }
+                pendingPixel = false;
+            }
+        }
+    }
+
+    private void emitPixel(SampleBuf sb) {
+        int n = cfg.slots();
+        long p = pxR1 - pxR0;
+        double ui = p / (double) n;
+        for (int j = 0; j < n; j++) {
+            double f = (cfg.slot0AfterRef() + j + 0.5) / n;
+            long nominal = f < 1 ? pxR0 + Math.round(f * p) : pxR1 + Math.round((f - 1) * p);
+            sb.add(nominal, pxIdx, ui, pxFalling, pxSuspect, j);
+        }
+        pixels++;
+    }
+
+    /**
+     * The earliest time a sample not yet planned can have (before the phase).
+     *
+     * @return femtoseconds, or {@code Long.MAX_VALUE} when nothing is held
+     */
+    long frontierFs() {
+        if (pendingPixel) {
+            return pxR0;
+        }
+        return haveRef ? refT : Long.MAX_VALUE;
+    }
+}

@@ -1,0 +1,122 @@
+package org.lanesift.plugins.dualedge;
+
+import java.nio.charset.StandardCharsets;
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.List;
+import java.util.Map;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+import org.lanesift.annotation.Annotation;
+import org.lanesift.data.Artifact;
+import org.lanesift.data.BitSets;
+import org.lanesift.data.BitStream;
+import org.lanesift.data.Edges;
+import org.lanesift.testkit.StageHarness;
+import org.lanesift.testkit.Synth;
+
+/** Runs the plugin in the testkit harness and joins each lane's bit-stream blocks into one record. */
+final class Run {
+    /** One lane's bits, all blocks joined. */
+    static final class Lane {
+        final List<Boolean> values = new ArrayList<>();
+        final List<Long> times = new ArrayList<>();
+        final List<Long> edge = new ArrayList<>();
+        final List<Boolean> falling = new ArrayList<>();
+        final List<Integer> slot = new ArrayList<>();
+        final List<Long> setup = new ArrayList<>();
+        final List<Long> hold = new ArrayList<>();
+        final List<Boolean> flagged = new ArrayList<>();
+        final List<Integer> blockSizes = new ArrayList<>();
+
+        int size() {
+            return values.size();
+        }
+
+        String fingerprint() {
+            return values + "|" + times + "|" + edge + "|" + falling + "|" + slot + "|" + setup + "|" + hold + "|" + flagged;
+        }
+    }
+
+    final List<Lane> lanes = new ArrayList<>();
+    final List<Annotation> annotations;
+    final String report;
+    final List<List<BitStream>> blocks = new ArrayList<>();
+
+    private Run(StageHarness h, int n) {
+        for (int i = 0; i < n; i++) {
+            List<BitStream> bs = h.outputs("bits" + i, BitStream.class);
+            blocks.add(bs);
+            Lane l = new Lane();
+            for (BitStream b : bs) {
+                l.blockSizes.add(b.count());
+                for (int k = 0; k < b.count(); k++) {
+                    l.values.add(b.bit(k));
+                    l.times.add(b.timesFs()[k]);
+                    l.edge.add(b.clockEdge()[k]);
+                    l.falling.add(BitSets.get(b.falling(), k));
+                    l.slot.add(b.slot() == null ? -1 : (int) b.slot()[k]);
+                    l.setup.add(b.setupFs()[k]);
+                    l.hold.add(b.holdFs()[k]);
+                    l.flagged.add(b.isFlagged(k));
+                }
+            }
+            lanes.add(l);
+        }
+        annotations = List.copyOf(h.annotations());
+        List<Artifact> arts = h.outputs("report", Artifact.class);
+        report = arts.isEmpty() ? null : new String(arts.get(0).content(), StandardCharsets.UTF_8);
+    }
+
+    /** Pushes each input whole. */
+    static Run whole(Map<String, ?> options, Edges clock, Edges... lanes) {
+        try (StageHarness h = StageHarness.of(new DualEdgePlugin(), options)) {
+            h.push("clock", clock);
+            for (int i = 0; i < lanes.length; i++) {
+                h.push("lane" + i, lanes[i]);
+            }
+            h.finish();
+            return new Run(h, lanes.length);
+        }
+    }
+
+    /** Pushes pieces of all inputs, each input cut at its own times, in the given order of input indices. */
+    static Run pieces(Map<String, ?> options, List<List<Edges>> perInput, int[] order) {
+        try (StageHarness h = StageHarness.of(new DualEdgePlugin(), options)) {
+            int[] next = new int[perInput.size()];
+            for (int in : order) {
+                Edges e = perInput.get(in).get(next[in]++);
+                h.push(in == 0 ? "clock" : "lane" + (in - 1), e);
+            }
+            h.finish();
+            return new Run(h, perInput.size() - 1);
+        }
+    }
+
+    /** Cuts an edge list at the given times (sorted, inside the span). */
+    static List<Edges> cut(Edges e, long[] cuts) {
+        return Synth.split(e, cuts);
+    }
+
+    List<Annotation> of(String kind) {
+        return annotations.stream().filter(a -> a.kind().equals(kind)).toList();
+    }
+
+    /** A number from the report: the first {@code "key": value} after the optional anchor text. */
+    double reportNumber(String anchor, String key) {
+        int from = anchor == null ? 0 : report.indexOf(anchor);
+        if (from < 0) {
+            throw new AssertionError("no '" + anchor + "' in report:\n" + report);
+        }
+        Matcher m = Pattern.compile("\"" + Pattern.quote(key) + "\": (null|[-0-9.eE+]+|true|false)").matcher(report);
+        if (!m.find(from)) {
+            throw new AssertionError("no '" + key + "' after '" + anchor + "' in report:\n" + report);
+        }
+        String v = m.group(1);
+        return v.equals("null") ? Double.NaN : v.equals("true") ? 1 : v.equals("false") ? 0 : Double.parseDouble(v);
+    }
+
+    static Comparator<Annotation> byTime() {
+        return Comparator.comparingLong(Annotation::startFs);
+    }
+}
