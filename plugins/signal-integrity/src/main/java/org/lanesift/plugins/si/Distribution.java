@@ -102,10 +102,12 @@ final class Distribution {
         if (keptCount == 0) {
             return new Histogram(0, 0, new long[0]);
         }
-        if (hi - lo <= 0) {
-            double pad = Math.abs(lo) * 1e-6 + 1e-12;
-            lo -= pad;
-            hi += pad;
+        // at least one unit (1 ps, 1 %) wide, so that a tight spread still reads as one tall bar
+        double minSpan = 1.0;
+        if (hi - lo < minSpan) {
+            double mid = (hi + lo) / 2;
+            lo = mid - minSpan / 2;
+            hi = mid + minSpan / 2;
         }
         long[] c = new long[bins];
         double scale = bins / (hi - lo);

@@ -61,10 +61,14 @@ final class Levels {
         int highBin = argmax(h, bins / 2, bins);
         double low = lo + (lowBin + 0.5) / scale;
         double high = lo + (highBin + 0.5) / scale;
-        // refine each level by mean shift: the mean of the samples within +/-10 % of the range, repeated
-        for (int it = 0; it < 8; it++) {
-            low = refine(v, n, low, 0.1 * (hi - lo));
-            high = refine(v, n, high, 0.1 * (hi - lo));
+        // refine each level by mean shift (the mean of the samples within a window around it, repeated)
+        // with a window shrinking from +/-10 % to +/-1 % of the range: the wide window centres a level
+        // blurred by noise, the narrow one keeps a slow exponential settling from pulling it inwards
+        for (double wf : new double[] {0.1, 0.05, 0.02, 0.01}) {
+            for (int it = 0; it < 4; it++) {
+                low = refine(v, n, low, wf * (hi - lo));
+                high = refine(v, n, high, wf * (hi - lo));
+            }
         }
         if (!(high - low > 1e-6)) {
             return null;
