@@ -167,6 +167,11 @@ final class LegsEstimator {
         products += len;
     }
 
+    /** The accumulated correlation, lag {@code -maxLag} first (a copy). */
+    double[] correlation() {
+        return acc.clone();
+    }
+
     /** The estimate. */
     record Result(long samples, double lagSamples, double correlation, boolean atEdge, double secondPeakRatio) {
     }

@@ -157,7 +157,7 @@ final class SkewEstimateStage implements Stage {
 
     private void finishLegs(List<SkewTable.Entry> rows, long s, long e) {
         if (legs == null) {
-            warn(names[0], "skew-no-estimate", Severity.ERROR, "no samples: no estimate", s, e);
+            warn(names[0], "skew-no-estimate", Severity.ERROR, "no estimate", "no samples arrived", s, e);
             rows.add(new SkewTable.Entry(names[0], 0, 1, "reference", 0));
             rows.add(new SkewTable.Entry(names[1], 0, 0, "legs-xcorr", 0));
             return;
@@ -169,25 +169,25 @@ final class SkewEstimateStage implements Stage {
         rows.add(new SkewTable.Entry(names[0], 0, 1, "reference", r.samples()));
         rows.add(new SkewTable.Entry(names[1], -skewFs / Femtos.PER_PS, conf, "legs-xcorr", r.samples()));
         ctx.annotate(Annotation.on(names[1], "skew-estimate").span(s, e)
-                .label(String.format(Locale.ROOT, "%s lags %s by %.3f ps", names[1], names[0], skewFs / Femtos.PER_PS))
+                .label(String.format(Locale.ROOT, "lags by %.1f ps", skewFs / Femtos.PER_PS))
                 .number("offsetPs", -skewFs / Femtos.PER_PS, "ps").number("confidence", conf, "")
                 .number("samples", r.samples(), "").text("method", "legs-xcorr").text("reference", names[0]).build());
         if (r.samples() == 0) {
-            warn(names[1], "skew-no-estimate", Severity.ERROR, "too few samples for the search range of "
+            warn(names[1], "skew-no-estimate", Severity.ERROR, "no estimate", "too few samples for the search range of "
                     + legs.maxLag() + " samples either way", s, e);
             return;
         }
         if (r.atEdge()) {
-            warn(names[1], "skew-out-of-range", Severity.ERROR, "correlation peak at the edge of the search range (+/-"
+            warn(names[1], "skew-out-of-range", Severity.ERROR, "skew beyond search range", "correlation peak at the edge of the search range (+/-"
                     + maxSkew + "): the skew is larger, raise maxSkew", s, e);
         }
         if (r.secondPeakRatio() >= 0.8) {
-            warn(names[1], "skew-ambiguous", Severity.WARNING, String.format(Locale.ROOT,
+            warn(names[1], "skew-ambiguous", Severity.WARNING, "ambiguous skew", String.format(Locale.ROOT,
                     "a second correlation peak reaches %.0f %% of the main one: periodic signal, reduce maxSkew below half its period",
                     100 * r.secondPeakRatio()), s, e);
         }
         if (conf < minConfidence) {
-            warn(names[1], "skew-low-confidence", Severity.WARNING, String.format(Locale.ROOT,
+            warn(names[1], "skew-low-confidence", Severity.WARNING, "low confidence", String.format(Locale.ROOT,
                     "legs correlate only %.2f (below %.2f): check the wiring of P and N", conf, minConfidence), s, e);
         }
     }
@@ -197,7 +197,7 @@ final class SkewEstimateStage implements Stage {
         boolean clock = mode.equals("clock");
         rows.add(new SkewTable.Entry(names[0], 0, 1, "reference", 0));
         if (!aligner.referenceSeen() || Double.isNaN(aligner.periodFs())) {
-            warn(names[0], "skew-no-estimate", Severity.ERROR, clock ? "too few clock edges to know the clock interval"
+            warn(names[0], "skew-no-estimate", Severity.ERROR, "no estimate", clock ? "too few clock edges to know the clock interval"
                     : "too few lane0 transitions to estimate the unit interval (give unitInterval)", s, e);
         }
         String method = clock ? (centre ? "clock-centre" : "clock-edge") : "lanes";
@@ -213,29 +213,29 @@ final class SkewEstimateStage implements Stage {
             }
             rows.add(new SkewTable.Entry(name, offFs / Femtos.PER_PS, conf, method, r.count()));
             ctx.annotate(Annotation.on(name, "skew-estimate").span(s, e)
-                    .label(String.format(Locale.ROOT, "correct %s by %+.3f ps", name, offFs / Femtos.PER_PS))
+                    .label(String.format(Locale.ROOT, "correct %+.1f ps", offFs / Femtos.PER_PS))
                     .number("offsetPs", offFs / Femtos.PER_PS, "ps").number("confidence", conf, "")
                     .number("edges", r.count(), "").number("intervalPs", r.intervalFs() / Femtos.PER_PS, "ps")
                     .text("method", method).text("reference", names[0]).build());
             if (r.count() == 0) {
-                warn(name, "skew-no-estimate", Severity.ERROR, "no usable transitions: no estimate", s, e);
+                warn(name, "skew-no-estimate", Severity.ERROR, "no estimate", "no usable transitions", s, e);
                 continue;
             }
             if (r.count() < minEdges) {
-                warn(name, "skew-few-edges", Severity.WARNING, r.count() + " usable transitions (fewer than " + minEdges
+                warn(name, "skew-few-edges", Severity.WARNING, "few edges", r.count() + " usable transitions (fewer than " + minEdges
                         + "): the estimate is rough", s, e);
             }
             if (r.clusters() > 1) {
-                warn(name, "skew-multimodal", Severity.WARNING, "transitions fall in " + r.clusters() + " separate clusters: "
+                warn(name, "skew-multimodal", Severity.WARNING, r.clusters() + " clusters", "transitions fall in " + r.clusters() + " separate clusters: "
                         + (clock ? "wrong clock, or ddr/alignment set wrong" : "lanes run at different rates, or the unit interval is wrong"), s, e);
             }
             if (conf < minConfidence) {
-                warn(name, "skew-low-confidence", Severity.WARNING, String.format(Locale.ROOT,
+                warn(name, "skew-low-confidence", Severity.WARNING, "low confidence", String.format(Locale.ROOT,
                         "cluster concentration %.2f is below %.2f: jitter too large, or no fixed phase relation", conf, minConfidence), s, e);
             }
             long bad = r.rejected();
             if (clock && bad > (r.count() + bad) / 100) {
-                warn(name, "skew-clock-gaps", Severity.WARNING, bad + " transitions fell in clock intervals far from the nominal "
+                warn(name, "skew-clock-gaps", Severity.WARNING, "clock gaps", bad + " transitions fell in clock intervals far from the nominal "
                         + Femtos.format(aligner.periodFs()) + " (gaps or a wandering clock) and were skipped", s, e);
             }
         }
@@ -245,7 +245,7 @@ final class SkewEstimateStage implements Stage {
         return mode.equals("clock") ? lanes : lanes - 1;
     }
 
-    private void warn(String track, String kind, Severity sev, String label, long s, long e) {
-        ctx.annotate(Annotation.on(track, kind).span(s, e).severity(sev).label(label).build());
+    private void warn(String track, String kind, Severity sev, String label, String detail, long s, long e) {
+        ctx.annotate(Annotation.on(track, kind).span(s, e).severity(sev).label(label).text("detail", detail).build());
     }
 }
