@@ -1,0 +1,151 @@
+package org.lanesift.plugins.differential;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.nio.charset.StandardCharsets;
+import java.util.HashMap;
+import java.util.Map;
+import org.junit.jupiter.api.Test;
+import org.lanesift.annotation.Annotation;
+import org.lanesift.annotation.Severity;
+import org.lanesift.data.AnalogBlock;
+import org.lanesift.data.Artifact;
+import org.lanesift.testkit.StageHarness;
+
+/**
+ * Level checks at and just past every limit. Source of the limits: ANSI/TIA/EIA-644-A as listed in DESIGN.md
+ * section 6 (|VOD| 247-454 mV, VOS 1.125-1.375 V, receiver threshold +/-100 mV; values from memory), and MIPI
+ * D-PHY from the same section (HS swing 140-270 mV, common mode about 200 mV; LP thresholds 880 / 550 mV; from memory).
+ */
+class LevelLimitTest {
+    static final int N = 40_000;
+
+    /** A square-wave pair: p = vos + vod/2 when high, vos - vod/2 when low; n the complement. */
+    static AnalogBlock[] pair(double vod, double vos) {
+        float[] p = new float[N];
+        float[] n = new float[N];
+        for (int i = 0; i < N; i++) {
+            boolean high = (i / 50) % 2 == 0;
+            double half = (high ? vod : -vod) / 2;
+            p[i] = (float) (vos + half);
+            n[i] = (float) (vos - half);
+        }
+        return new AnalogBlock[] {new AnalogBlock("p", 0, 0, 1e6, p, N, null), new AnalogBlock("n", 0, 0, 1e6, n, N, null)};
+    }
+
+    static Map<String, Severity> verdicts(Map<String, ?> options, AnalogBlock[] legs) {
+        StageHarness h = TestSignals.runPair(options, legs[0], legs[1]);
+        Map<String, Severity> out = new HashMap<>();
+        for (Annotation a : h.annotations("level-check")) {
+            out.put((String) a.fields().get("quantity").value(), a.severity());
+        }
+        return out;
+    }
+
+    @Test
+    void vodAtAndJustPastEachLimit() {
+        // TIA/EIA-644-A |VOD| 247 to 454 mV
+        assertEquals(Severity.WARNING, verdicts(Map.of(), pair(0.247, 1.25)).get("vod-high"));
+        assertEquals(Severity.ERROR, verdicts(Map.of(), pair(0.246, 1.25)).get("vod-high"));
+        assertEquals(Severity.ERROR, verdicts(Map.of(), pair(0.246, 1.25)).get("vod-low"));
+        assertEquals(Severity.WARNING, verdicts(Map.of(), pair(0.454, 1.25)).get("vod-high"));
+        assertEquals(Severity.ERROR, verdicts(Map.of(), pair(0.455, 1.25)).get("vod-low"));
+        assertEquals(Severity.INFO, verdicts(Map.of(), pair(0.350, 1.25)).get("vod-high"));
+    }
+
+    @Test
+    void vosAtAndJustPastEachLimit() {
+        // TIA/EIA-644-A VOS 1.125 to 1.375 V
+        assertEquals(Severity.WARNING, verdicts(Map.of(), pair(0.35, 1.125)).get("vos"));
+        assertEquals(Severity.ERROR, verdicts(Map.of(), pair(0.35, 1.124)).get("vos"));
+        assertEquals(Severity.WARNING, verdicts(Map.of(), pair(0.35, 1.375)).get("vos"));
+        assertEquals(Severity.ERROR, verdicts(Map.of(), pair(0.35, 1.376)).get("vos"));
+        assertEquals(Severity.INFO, verdicts(Map.of(), pair(0.35, 1.25)).get("vos"));
+    }
+
+    @Test
+    void receiverThresholdAtAndJustPast() {
+        // TIA/EIA-644-A receiver threshold +/-100 mV: each state must reach 100 mV of differential input
+        Map<String, Severity> at = verdicts(Map.of(), pair(0.100, 1.25));
+        assertEquals(Severity.WARNING, at.get("vid-high"));
+        assertEquals(Severity.WARNING, at.get("vid-low"));
+        assertEquals(Severity.ERROR, at.get("vod-high"), "100 mV is far below the driver minimum");
+        Map<String, Severity> past = verdicts(Map.of(), pair(0.099, 1.25));
+        assertEquals(Severity.ERROR, past.get("vid-high"));
+        assertEquals(Severity.ERROR, past.get("vid-low"));
+    }
+
+    @Test
+    void deltaVosFromAnUnbalancedDriver() {
+        // ANSI/TIA/EIA-644-A |delta VOS| at most 50 mV (from memory): common mode 60 mV apart between the states
+        float[] p = new float[N];
+        float[] n = new float[N];
+        for (int i = 0; i < N; i++) {
+            boolean high = (i / 50) % 2 == 0;
+            double vos = high ? 1.23 : 1.29;
+            p[i] = (float) (vos + (high ? 0.175 : -0.175));
+            n[i] = (float) (vos - (high ? 0.175 : -0.175));
+        }
+        Map<String, Severity> v = verdicts(Map.of(), new AnalogBlock[] {new AnalogBlock("p", 0, 0, 1e6, p, N, null),
+                new AnalogBlock("n", 0, 0, 1e6, n, N, null)});
+        assertEquals(Severity.ERROR, v.get("delta-vos"));
+        assertEquals(Severity.INFO, v.get("vos"));
+    }
+
+    @Test
+    void windowFindingsCoverTheBadWindowsOnly() {
+        // the first half at 350 mV, the second at 200 mV: one level-out-of-range run over the second half
+        AnalogBlock[] good = pair(0.35, 1.25);
+        AnalogBlock[] bad = pair(0.20, 1.25);
+        float[] p = good[0].volts().clone();
+        float[] n = good[1].volts().clone();
+        System.arraycopy(bad[0].volts(), N / 2, p, N / 2, N / 2);
+        System.arraycopy(bad[1].volts(), N / 2, n, N / 2, N / 2);
+        StageHarness h = TestSignals.runPair(Map.of("windowSamples", 4000), new AnalogBlock("p", 0, 0, 1e6, p, N, null),
+                new AnalogBlock("n", 0, 0, 1e6, n, N, null));
+        var runs = h.annotations("level-out-of-range").stream()
+                .filter(a -> a.fields().get("quantity").value().equals("vod-high")).toList();
+        assertEquals(1, runs.size(), runs.toString());
+        assertEquals(20_000 * 1e6, runs.get(0).startFs(), 1);
+        assertEquals(40_000 * 1e6, runs.get(0).endFs(), 1);
+        assertEquals(5L, runs.get(0).fields().get("windows").value());
+        String json = new String(h.outputs("report", Artifact.class).get(0).content(), StandardCharsets.UTF_8);
+        assertTrue(json.startsWith("{\"instance\":\"dut\""), json);
+        assertEquals(10, json.split("\"settledHigh\"").length - 2, "ten windows plus the capture");
+        // over the whole capture the mean |VOD| is 275 mV, inside the limits; the windows tell the story
+        assertTrue(json.contains("{\"quantity\":\"vod-high\",\"what\":\"|VOD| in the high state\",\"valueVolts\":0.274999976"), json);
+        assertTrue(json.contains("\"quantities\":{\"vod-high\":0.200000048"), json);
+    }
+
+    @Test
+    void dphyProfiles() {
+        // MIPI D-PHY HS (DESIGN.md section 6, from memory): 200 mV swing around 200 mV common mode passes
+        assertEquals(Severity.INFO, verdicts(Map.of("levelProfile", "dphy-hs"), pair(0.200, 0.200)).get("vod-high"));
+        assertEquals(Severity.INFO, verdicts(Map.of("levelProfile", "dphy-hs"), pair(0.200, 0.200)).get("vos"));
+        assertEquals(Severity.ERROR, verdicts(Map.of("levelProfile", "dphy-hs"), pair(0.300, 0.200)).get("vod-high"));
+        assertEquals(Severity.ERROR, verdicts(Map.of("levelProfile", "dphy-hs"), pair(0.200, 1.2)).get("vos"));
+        assertFalse(verdicts(Map.of("levelProfile", "none"), pair(0.05, 3)).containsKey("vod-high"));
+        // LP, one leg: 1.2 V high and 0 V low pass the 880 / 550 mV thresholds; a 0.85 V high does not
+        float[] v = new float[N];
+        for (int i = 0; i < N; i++) {
+            v[i] = (i / 300) % 2 == 0 ? 1.2f : 0.0f;
+        }
+        Map<String, Object> lp = Map.of("mode", "single", "levelProfile", "dphy-lp");
+        StageHarness h = StageHarness.of(new DifferentialPlugin(), lp);
+        h.push("in", new AnalogBlock("in", 0, 0, 1e6, v, N, null)).finish();
+        assertEquals(Severity.INFO, h.annotations("level-check").stream()
+                .filter(a -> a.fields().get("quantity").value().equals("lp-high")).findFirst().orElseThrow().severity());
+        float[] w = v.clone();
+        for (int i = 0; i < N; i++) {
+            if (w[i] > 1) {
+                w[i] = 0.85f;
+            }
+        }
+        StageHarness h2 = StageHarness.of(new DifferentialPlugin(), lp);
+        h2.push("in", new AnalogBlock("in", 0, 0, 1e6, w, N, null)).finish();
+        assertEquals(Severity.ERROR, h2.annotations("level-check").stream()
+                .filter(a -> a.fields().get("quantity").value().equals("lp-high")).findFirst().orElseThrow().severity());
+    }
+}
