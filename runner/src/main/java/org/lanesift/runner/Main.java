@@ -1,0 +1,186 @@
+package org.lanesift.runner;
+
+import java.io.PrintStream;
+import java.io.PrintWriter;
+import java.nio.charset.StandardCharsets;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.ServiceConfigurationError;
+import java.util.ServiceLoader;
+import java.util.concurrent.Callable;
+import org.lanesift.plugin.PluginRegistry;
+import org.lanesift.plugin.Tool;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.ScopeType;
+
+/**
+ * The {@code lanesift} command line: {@code run}, {@code plugins}, {@code inspect}, plus every
+ * {@link Tool} found through {@link ServiceLoader} as a subcommand of its own name. Exit codes:
+ * 0 success, 2 bad input (one line on stderr naming the file, line, pointer or option), 1 internal
+ * error. Stack traces appear only with {@code --debug}.
+ */
+@Command(name = "lanesift", mixinStandardHelpOptions = true, versionProvider = Version.class, sortOptions = false,
+        usageHelpAutoWidth = true,
+        description = {"Turns raw captures of fast differential links (LVDS 7:1 pixel links, MIPI D-PHY/DSI-like packet "
+                + "links) into checked bits, pixels, timings and commands.", ""},
+        footerHeading = "%n",
+        footer = {"Exit codes: 0 done, 2 bad input (one line on stderr says what and where), 1 internal error.",
+                "Safety: a scope input is 50 ohm and earthed; never probe mains-referenced circuits with it, respect its "
+                        + "voltage and power limits, and guard display flex cables against ESD. Follow local codes and "
+                        + "licensed practice.",
+                "Documentation: README.md and docs/ in the source tree."})
+public final class Main implements Callable<Integer> {
+    @Option(names = "--debug", scope = ScopeType.INHERIT, description = "Print stack traces with errors.")
+    boolean debug;
+
+    @Option(names = {"-q", "--quiet"}, scope = ScopeType.INHERIT, description = "No progress bar, no summary.")
+    boolean quiet;
+
+    @CommandLine.Spec
+    CommandSpec spec;
+
+    private final Host host;
+
+    private Main(Host host) {
+        this.host = host;
+    }
+
+    /** Shared by the commands of one invocation. */
+    static final class Host {
+        final PrintStream out;
+        final PrintStream err;
+        final ClassLoader loader;
+        final boolean debug;
+        final boolean quiet;
+        final CaptureInspector inspector;
+        private PluginRegistry registry;
+
+        Host(PrintStream out, PrintStream err, ClassLoader loader, boolean debug, boolean quiet, CaptureInspector inspector) {
+            this.out = out;
+            this.err = err;
+            this.loader = loader;
+            this.debug = debug;
+            this.quiet = quiet;
+            this.inspector = inspector;
+        }
+
+        PluginRegistry registry() {
+            if (registry == null) {
+                try {
+                    registry = PluginRegistry.discover(loader);
+                } catch (ServiceConfigurationError e) {
+                    throw new CliError("a plugin on the class path cannot be loaded: " + e.getMessage(), e);
+                }
+            }
+            return registry;
+        }
+    }
+
+    @Override
+    public Integer call() {
+        spec.commandLine().usage(host.out);
+        return 0;
+    }
+
+    /**
+     * Runs the command line and exits with its code.
+     *
+     * @param args the arguments
+     */
+    public static void main(String[] args) {
+        PrintStream out = new PrintStream(new java.io.FileOutputStream(java.io.FileDescriptor.out), true, StandardCharsets.UTF_8);
+        PrintStream err = new PrintStream(new java.io.FileOutputStream(java.io.FileDescriptor.err), true, StandardCharsets.UTF_8);
+        int code = run(args, out, err);
+        out.flush();
+        err.flush();
+        System.exit(code);
+    }
+
+    /**
+     * Runs the command line without exiting, for tests and embedding.
+     *
+     * @param args the arguments
+     * @param out  standard output
+     * @param err  standard error
+     * @return the exit code
+     */
+    public static int run(String[] args, PrintStream out, PrintStream err) {
+        boolean debug = false;
+        boolean quiet = false;
+        for (String a : args) {
+            if (a.equals("--")) {
+                break;
+            }
+            debug |= a.equals("--debug");
+            quiet |= a.equals("--quiet") || a.equals("-q");
+        }
+        try {
+            Host host = new Host(out, err, Main.class.getClassLoader(), debug, quiet, Inspection.INSTANCE);
+            Map<String, Tool> tools = tools(host.loader, err, debug);
+            // a tool parses its own arguments: hand everything after its name to it
+            int i = 0;
+            while (i < args.length && (args[i].equals("--debug") || args[i].equals("--quiet") || args[i].equals("-q"))) {
+                i++;
+            }
+            if (i < args.length && tools.containsKey(args[i])) {
+                Tool t = tools.get(args[i]);
+                return t.run(Arrays.copyOfRange(args, i + 1, args.length), out, err);
+            }
+            CommandLine cl = commandLine(host, tools);
+            return cl.execute(args);
+        } catch (Throwable t) {
+            return Failures.report(t, err, debug);
+        }
+    }
+
+    static CommandLine commandLine(Host host, Map<String, Tool> tools) {
+        CommandLine cl = new CommandLine(new Main(host));
+        cl.addSubcommand("run", new RunCommand(host));
+        cl.addSubcommand("plugins", new PluginsCommand(host));
+        cl.addSubcommand("inspect", new InspectCommand(host));
+        for (Tool t : tools.values()) {
+            CommandSpec ts = CommandSpec.create().name(t.name());
+            ts.usageMessage().description(t.summary());
+            cl.addSubcommand(t.name(), new CommandLine(ts));
+        }
+        cl.setOut(new PrintWriter(host.out, true));
+        cl.setErr(new PrintWriter(host.err, true));
+        cl.setParameterExceptionHandler((ex, a) -> Failures.report(ex, host.err, host.debug));
+        cl.setExecutionExceptionHandler((ex, c, parsed) -> Failures.report(ex, host.err, host.debug));
+        return cl;
+    }
+
+    /** Tools by name, built-in command names excluded; a tool that fails to load is reported and skipped. */
+    static Map<String, Tool> tools(ClassLoader loader, PrintStream err, boolean debug) {
+        Map<String, Tool> byName = new LinkedHashMap<>();
+        List<String> builtIn = List.of("run", "plugins", "inspect", "help");
+        java.util.Iterator<Tool> it = ServiceLoader.load(Tool.class, loader).iterator();
+        List<Tool> found = new ArrayList<>();
+        while (true) {
+            try {
+                if (!it.hasNext()) {
+                    break;
+                }
+                found.add(it.next());
+            } catch (ServiceConfigurationError e) {
+                if (debug) {
+                    err.println("warning: a tool cannot be loaded: " + Failures.oneLine(String.valueOf(e.getMessage())));
+                }
+            }
+        }
+        found.sort((a, b) -> a.name().compareTo(b.name()));
+        for (Tool t : found) {
+            String n = t.name();
+            if (n != null && n.matches("[a-z][a-z0-9-]*") && !builtIn.contains(n)) {
+                byName.putIfAbsent(n, t);
+            }
+        }
+        return byName;
+    }
+}

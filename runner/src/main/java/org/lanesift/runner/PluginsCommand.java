@@ -1,0 +1,237 @@
+package org.lanesift.runner;
+
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.SerializationFeature;
+import com.fasterxml.jackson.databind.node.ArrayNode;
+import com.fasterxml.jackson.databind.node.ObjectNode;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.concurrent.Callable;
+import org.lanesift.plugin.OptionSpec;
+import org.lanesift.plugin.OptionValues;
+import org.lanesift.plugin.PluginDescriptor;
+import org.lanesift.plugin.PluginProvider;
+import org.lanesift.plugin.PortSpec;
+import org.lanesift.time.TimeValue;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+
+/** {@code lanesift plugins}: lists the discovered plugins with their ports and options. */
+@Command(name = "plugins", mixinStandardHelpOptions = true, versionProvider = Version.class,
+        description = {"Lists every plugin found on the class path: id, name, version, input and output ports with "
+                + "their kinds, and options with type, unit, default, range and help. Ports that depend on options "
+                + "are shown for the default options."})
+final class PluginsCommand implements Callable<Integer> {
+    /** Version of the JSON form (docs/cli-json.md); raised when a field changes meaning or goes away. */
+    static final int FORMAT = 1;
+
+    @Option(names = "--json", description = "Print one JSON object (see docs/cli-json.md).")
+    boolean json;
+
+    private final Main.Host host;
+
+    PluginsCommand(Main.Host host) {
+        this.host = host;
+    }
+
+    /** Ports for the default options, or null when they need options the user must give. */
+    record Ports(List<PortSpec> inputs, List<PortSpec> outputs, String why) {
+    }
+
+    static Ports ports(PluginDescriptor d) {
+        Map<String, Object> raw = new LinkedHashMap<>();
+        for (OptionSpec o : d.options()) {
+            if (o.defaultValue() == null) {
+                raw.put(o.name(), placeholder(o));
+            }
+        }
+        try {
+            OptionValues ov = OptionValues.validate(d, raw);
+            return new Ports(d.inputs(ov), d.outputs(ov), null);
+        } catch (RuntimeException e) {
+            List<String> req = d.options().stream().filter(o -> o.defaultValue() == null).map(OptionSpec::name).toList();
+            return new Ports(null, null, "depend on the options" + (req.isEmpty() ? "" : " (" + String.join(", ", req) + ")"));
+        }
+    }
+
+    private static Object placeholder(OptionSpec o) {
+        return switch (o.type()) {
+            case INTEGER, NUMBER -> o.min() != null ? o.min() : o.max() != null ? Math.min(0, o.max()) : 0;
+            case BOOLEAN -> false;
+            case CHOICE -> o.choices().isEmpty() ? "" : o.choices().get(0);
+            case TIME -> "0";
+            case NUMBERS -> List.of();
+            case TEXT -> "";
+        };
+    }
+
+    @Override
+    public Integer call() throws Exception {
+        var all = host.registry().all();
+        if (json) {
+            ObjectMapper m = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
+            ObjectNode root = m.createObjectNode();
+            root.put("format", FORMAT);
+            root.put("lanesift", Version.get());
+            ArrayNode arr = root.putArray("plugins");
+            for (PluginProvider p : all) {
+                arr.add(json(m, p.descriptor()));
+            }
+            host.out.println(m.writeValueAsString(root));
+            return 0;
+        }
+        if (all.isEmpty()) {
+            host.out.println("no plugins found on the class path");
+            return 0;
+        }
+        StringBuilder sb = new StringBuilder();
+        for (PluginProvider p : all) {
+            text(sb, p.descriptor());
+        }
+        host.out.print(sb);
+        return 0;
+    }
+
+    private static void text(StringBuilder sb, PluginDescriptor d) {
+        sb.append(d.id()).append("  ").append(d.displayName() == null ? "" : d.displayName()).append("  (version ")
+                .append(d.version()).append(")\n");
+        if (!d.description().isBlank()) {
+            sb.append("  ").append(d.description().replace("\n", "\n  ")).append('\n');
+        }
+        Ports ports = ports(d);
+        if (ports.inputs() == null) {
+            sb.append("  ports ").append(ports.why()).append('\n');
+        } else {
+            sb.append("  inputs:  ").append(portList(ports.inputs(), true)).append('\n');
+            sb.append("  outputs: ").append(portList(ports.outputs(), false)).append('\n');
+        }
+        if (d.options().isEmpty()) {
+            sb.append("  options: none\n");
+        } else {
+            sb.append("  options:\n");
+            int w = d.options().stream().mapToInt(o -> o.name().length()).max().orElse(4);
+            for (OptionSpec o : d.options()) {
+                sb.append("    ").append(pad(o.name(), w)).append("  ").append(o.type().name().toLowerCase(Locale.ROOT));
+                if (!o.unit().isEmpty()) {
+                    sb.append(" [").append(o.unit()).append(']');
+                }
+                sb.append(o.defaultValue() == null ? ", required" : ", default " + show(o.defaultValue()));
+                if (o.min() != null || o.max() != null) {
+                    sb.append(", range ").append(o.range());
+                }
+                if (!o.choices().isEmpty()) {
+                    sb.append(", one of ").append(String.join("|", o.choices()));
+                }
+                if (!o.help().isBlank()) {
+                    sb.append(": ").append(o.help());
+                }
+                sb.append('\n');
+            }
+        }
+        sb.append('\n');
+    }
+
+    private static String portList(List<PortSpec> ports, boolean inputs) {
+        if (ports.isEmpty()) {
+            return "none";
+        }
+        StringBuilder sb = new StringBuilder();
+        for (PortSpec p : ports) {
+            if (sb.length() > 0) {
+                sb.append(", ");
+            }
+            sb.append(p.name()).append(" (").append(p.kind()).append(inputs && !p.required() ? ", optional" : "").append(')');
+        }
+        return sb.toString();
+    }
+
+    private static String pad(String s, int w) {
+        return s.length() >= w ? s : s + " ".repeat(w - s.length());
+    }
+
+    private static String show(Object v) {
+        if (v instanceof List<?> l) {
+            return l.isEmpty() ? "[]" : l.toString();
+        }
+        if (v instanceof String s) {
+            return s.isEmpty() ? "\"\"" : s;
+        }
+        return String.valueOf(v);
+    }
+
+    private static ObjectNode json(ObjectMapper m, PluginDescriptor d) {
+        ObjectNode o = m.createObjectNode();
+        o.put("id", d.id());
+        o.put("name", d.displayName() == null ? d.id() : d.displayName());
+        o.put("version", d.version());
+        o.put("description", d.description());
+        Ports ports = ports(d);
+        if (ports.inputs() == null) {
+            o.putNull("inputs");
+            o.putNull("outputs");
+            o.put("portsNote", ports.why());
+        } else {
+            o.set("inputs", portsJson(m, ports.inputs()));
+            o.set("outputs", portsJson(m, ports.outputs()));
+        }
+        ArrayNode opts = o.putArray("options");
+        for (OptionSpec s : d.options()) {
+            ObjectNode x = opts.addObject();
+            x.put("name", s.name());
+            x.put("type", s.type().name().toLowerCase(Locale.ROOT));
+            x.put("unit", s.unit());
+            x.put("required", s.defaultValue() == null);
+            Object def = s.defaultValue();
+            if (def == null) {
+                x.putNull("default");
+            } else if (def instanceof Boolean b) {
+                x.put("default", b);
+            } else if (def instanceof Long l) {
+                x.put("default", l);
+            } else if (def instanceof Number n) {
+                x.put("default", n.doubleValue());
+            } else if (def instanceof List<?> l) {
+                ArrayNode a = x.putArray("default");
+                for (Object e : l) {
+                    if (e instanceof Number n) {
+                        a.add(n.doubleValue());
+                    } else {
+                        a.add(String.valueOf(e));
+                    }
+                }
+            } else if (def instanceof TimeValue tv) {
+                x.put("default", tv.toString());
+            } else {
+                x.put("default", String.valueOf(def));
+            }
+            if (s.min() == null) {
+                x.putNull("min");
+            } else {
+                x.put("min", s.min());
+            }
+            if (s.max() == null) {
+                x.putNull("max");
+            } else {
+                x.put("max", s.max());
+            }
+            ArrayNode ch = x.putArray("choices");
+            s.choices().forEach(ch::add);
+            x.put("help", s.help());
+        }
+        return o;
+    }
+
+    private static ArrayNode portsJson(ObjectMapper m, List<PortSpec> ports) {
+        ArrayNode a = m.createArrayNode();
+        for (PortSpec p : ports) {
+            ObjectNode x = a.addObject();
+            x.put("name", p.name());
+            x.put("kind", p.kind().name());
+            x.put("required", p.required());
+            x.put("help", p.help());
+        }
+        return a;
+    }
+}

@@ -1,0 +1,299 @@
+package org.lanesift.runner;
+
+import java.io.IOException;
+import java.io.UncheckedIOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.HashSet;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.Set;
+import java.util.concurrent.Callable;
+import java.util.concurrent.CountDownLatch;
+import java.util.concurrent.TimeUnit;
+import org.lanesift.annotation.Severity;
+import org.lanesift.chain.Chain;
+import org.lanesift.chain.ChainBuilder;
+import org.lanesift.chain.ChainException;
+import org.lanesift.chain.ChainSpec;
+import org.lanesift.chain.StageFailure;
+import org.lanesift.plugin.OptionSpec;
+import org.lanesift.plugin.OptionValues;
+import org.lanesift.plugin.PluginDescriptor;
+import org.lanesift.plugin.PluginProvider;
+import org.lanesift.plugin.PluginRegistry;
+import org.lanesift.plugin.PortSpec;
+import org.lanesift.runner.chainfile.ChainFile;
+import org.lanesift.runner.chainfile.ChainFileException;
+import org.lanesift.runner.chainfile.ChainFileReader;
+import org.lanesift.runner.output.ReportWriter;
+import org.lanesift.runner.output.RunOutputs;
+import org.lanesift.runner.output.RunSummary;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+
+/** {@code lanesift run CHAIN.json}: builds the chain, runs it over its sources, writes every output. */
+@Command(name = "run", mixinStandardHelpOptions = true, versionProvider = Version.class, sortOptions = false,
+        description = {"Runs a chain file over its capture files and writes every unwired output and every annotation "
+                + "into the output directory: signals.vcd, <instance>-<output>.csv, PNG frames, artifacts, "
+                + "annotations.jsonl and report.md (see docs/chain-file.md and docs/outputs.md)."})
+final class RunCommand implements Callable<Integer> {
+    @Parameters(index = "0", paramLabel = "CHAIN.json", description = "The chain file.")
+    Path chain;
+
+    @Option(names = "--input", paramLabel = "NAME=FILE",
+            description = "Sets option 'file' of instance NAME (relative to the current directory). Repeatable.")
+    List<String> inputs = new ArrayList<>();
+
+    @Option(names = "--out", paramLabel = "DIR", description = "Output directory (default: ${DEFAULT-VALUE}).",
+            defaultValue = "lanesift-out")
+    Path outDir;
+
+    @Option(names = "--set", paramLabel = "NODE.OPTION=VALUE",
+            description = "Overrides one option of one instance. Repeatable.")
+    List<String> sets = new ArrayList<>();
+
+    private final Main.Host host;
+
+    RunCommand(Main.Host host) {
+        this.host = host;
+    }
+
+    /** Where a command-line override went, for messages. */
+    private record CliOverride(String pointer, String typed) {
+    }
+
+    @Override
+    public Integer call() throws Exception {
+        String shown = chain.toString();
+        ChainFile cf = new ChainFileReader().read(chain, shown);
+        List<ChainSpec.Node> nodes = new ArrayList<>(cf.spec().nodes());
+        Map<String, Integer> index = new HashMap<>();
+        for (int i = 0; i < nodes.size(); i++) {
+            index.put(nodes.get(i).id(), i);
+        }
+        List<CliOverride> overrides = new ArrayList<>();
+        Map<String, String> inputFiles = new LinkedHashMap<>();
+        for (String in : inputs) {
+            int eq = in.indexOf('=');
+            if (eq <= 0 || eq == in.length() - 1) {
+                throw new CliError("--input " + in + ": expected NAME=FILE, such as --input cap=capture.csv");
+            }
+            String name = in.substring(0, eq);
+            Path file = Path.of(in.substring(eq + 1));
+            Integer i = index.get(name);
+            if (i == null) {
+                throw new CliError("--input " + in + ": " + shown + " has no instance '" + name + "'; instances: "
+                        + String.join(", ", index.keySet().stream().sorted().toList()));
+            }
+            if (!Files.isRegularFile(file)) {
+                throw new CliError("--input " + in + ": " + (Files.exists(file) ? "not a regular file" : "no such file") + ": " + file);
+            }
+            String abs = file.toAbsolutePath().normalize().toString();
+            nodes.set(i, with(nodes.get(i), "file", abs));
+            inputFiles.put(name, file.toString());
+            overrides.add(new CliOverride("/nodes/" + i + "/options/file", "--input " + in));
+        }
+        for (String s : sets) {
+            int eq = s.indexOf('=');
+            int dot = s.indexOf('.');
+            if (eq < 0 || dot <= 0 || dot > eq || dot == eq - 1) {
+                throw new CliError("--set " + s + ": expected NODE.OPTION=VALUE, such as --set rx.thresholdVolts=0.05");
+            }
+            String name = s.substring(0, dot);
+            String option = s.substring(dot + 1, eq);
+            String value = s.substring(eq + 1);
+            Integer i = index.get(name);
+            if (i == null) {
+                throw new CliError("--set " + s + ": " + shown + " has no instance '" + name + "'; instances: "
+                        + String.join(", ", index.keySet().stream().sorted().toList()));
+            }
+            if (option.equals("file") && !value.isEmpty()) {
+                value = Path.of(value).toAbsolutePath().normalize().toString();
+            }
+            nodes.set(i, with(nodes.get(i), option, value));
+            overrides.add(new CliOverride("/nodes/" + i + "/options/" + option.replace("~", "~0").replace("/", "~1"), "--set " + s));
+        }
+        ChainSpec spec = new ChainSpec(nodes, cf.spec().wires());
+        PluginRegistry registry = host.registry();
+
+        Holder holder = new Holder();
+        ProgressBar bar = new ProgressBar(host.err, !host.quiet && System.console() != null);
+        Chain built;
+        try {
+            ChainBuilder b = ChainBuilder.fromSpec(spec, registry)
+                    .outputs((id, port, block) -> holder.outputs().accept(id, port, block))
+                    .annotations((src, a) -> holder.outputs().accept(src, a))
+                    .progress(bar);
+            holder.dir = outDir;
+            built = b.build();
+        } catch (StageFailure e) {
+            // a stage that cannot open its file: point at the option that named it
+            Integer i = index.get(e.instanceId());
+            if (i != null && Failures.root(e) instanceof java.nio.file.FileSystemException
+                    && nodes.get(i).options().containsKey("file")) {
+                throw new CliError(locate(shown, new ChainException("instance '" + e.instanceId() + "' ("
+                        + nodes.get(i).plugin() + "): " + Failures.describe(Failures.root(e)), "/nodes/" + i + "/options/file"),
+                        overrides), e);
+            }
+            throw e;
+        } catch (ChainFileException e) {
+            throw e;
+        } catch (ChainException e) {
+            throw new CliError(locate(shown, e, overrides), e);
+        }
+        List<RunSummary.Instance> instances = new ArrayList<>();
+        try (Chain c = built) {
+            RunOutputs outs = holder.outputs();
+            declareOutputs(spec, registry, outs, instances);
+            Instant started = Instant.now();
+            long t0 = System.nanoTime();
+            CountDownLatch done = new CountDownLatch(1);
+            Thread hook = new Thread(() -> {
+                c.cancel();
+                try {
+                    done.await(10, TimeUnit.SECONDS);
+                } catch (InterruptedException ignored) {
+                    Thread.currentThread().interrupt();
+                }
+            }, "lanesift-cancel");
+            Runtime.getRuntime().addShutdownHook(hook);
+            String status = "completed";
+            Throwable failure = null;
+            try {
+                c.run();
+                if (c.isCancelled()) {
+                    status = "cancelled (interrupted); outputs hold what was processed until then";
+                }
+            } catch (Throwable t) {
+                failure = t;
+                status = "failed: " + Failures.oneLine(String.valueOf(t instanceof StageFailure sf
+                        ? Failures.describe(Failures.root(sf)) : t.getMessage()));
+            } finally {
+                bar.done();
+                try {
+                    outs.close();
+                    ReportWriter.write(new RunSummary(shown, cf.description(), Version.get(), started,
+                            (System.nanoTime() - t0) / 1_000_000, status, inputFiles, sets, instances), outs);
+                } catch (IOException e) {
+                    if (failure == null) {
+                        failure = new UncheckedIOException("cannot finish the outputs in " + outDir + ": " + e.getMessage(), e);
+                    }
+                } finally {
+                    done.countDown();
+                    try {
+                        Runtime.getRuntime().removeShutdownHook(hook);
+                    } catch (IllegalStateException ignored) {
+                        // already shutting down
+                    }
+                }
+            }
+            if (failure != null) {
+                if (failure instanceof ChainException ce && !(ce instanceof StageFailure)) {
+                    throw new CliError(locate(shown, ce, overrides), ce);
+                }
+                if (failure instanceof Exception e) {
+                    throw e;
+                }
+                throw (Error) failure;
+            }
+            if (!host.quiet) {
+                summary(shown, instances.size(), outs);
+            }
+        }
+        return 0;
+    }
+
+    /** Creates the outputs when the first block or the run needs them. */
+    private static final class Holder {
+        Path dir;
+        RunOutputs outputs;
+
+        RunOutputs outputs() {
+            if (outputs == null) {
+                if (Files.exists(dir) && !Files.isDirectory(dir)) {
+                    throw new CliError("--out " + dir + ": exists and is not a directory");
+                }
+                try {
+                    outputs = new RunOutputs(dir, Version.get());
+                } catch (UncheckedIOException e) {
+                    throw new CliError("--out " + dir + ": cannot create the directory: " + Failures.describe(Failures.root(e)), e);
+                }
+            }
+            return outputs;
+        }
+    }
+
+    private static ChainSpec.Node with(ChainSpec.Node n, String key, Object value) {
+        Map<String, Object> o = new LinkedHashMap<>(n.options());
+        o.put(key, value);
+        return new ChainSpec.Node(n.id(), n.plugin(), o);
+    }
+
+    /** "chain.json /nodes/1/options/x: message", or the command-line override that set the value. */
+    private static String locate(String file, ChainException e, List<CliOverride> overrides) {
+        String p = e.pointer();
+        if (p != null) {
+            for (int i = overrides.size() - 1; i >= 0; i--) {
+                if (overrides.get(i).pointer().equals(p)) {
+                    return overrides.get(i).typed() + " (" + file + " " + p + "): " + e.getMessage();
+                }
+            }
+            return file + " " + p + ": " + e.getMessage();
+        }
+        return file + ": " + e.getMessage();
+    }
+
+    private static void declareOutputs(ChainSpec spec, PluginRegistry registry, RunOutputs outs, List<RunSummary.Instance> instances) {
+        Set<String> wired = new HashSet<>();
+        Map<String, List<PortSpec>> outsByNode = new HashMap<>();
+        for (ChainSpec.Node n : spec.nodes()) {
+            PluginProvider p = registry.find(n.plugin());
+            PluginDescriptor d = p.descriptor();
+            OptionValues ov = OptionValues.validate(d, n.options());
+            outsByNode.put(n.id(), d.outputs(ov));
+            Map<String, String> opts = new LinkedHashMap<>();
+            for (OptionSpec o : d.options()) {
+                opts.put(o.name(), String.valueOf(ov.asMap().get(o.name())) + (o.unit().isEmpty() || o.type() == OptionSpec.Type.TIME ? "" : " " + o.unit()));
+            }
+            instances.add(new RunSummary.Instance(n.id(), d.id(), d.displayName() == null ? d.id() : d.displayName(), d.version(), opts));
+        }
+        for (ChainSpec.Wire w : spec.wires()) {
+            String from = w.from();
+            int dot = from.indexOf('.');
+            if (dot < 0) {
+                List<PortSpec> ports = outsByNode.get(from);
+                if (ports != null && ports.size() == 1) {
+                    wired.add(from + "." + ports.get(0).name());
+                }
+            } else {
+                wired.add(from);
+            }
+        }
+        for (ChainSpec.Node n : spec.nodes()) {
+            for (PortSpec ps : outsByNode.get(n.id())) {
+                if (!wired.contains(n.id() + "." + ps.name())) {
+                    outs.declare(n.id(), ps.name(), ps.kind());
+                }
+            }
+        }
+    }
+
+    private void summary(String shown, int instances, RunOutputs outs) {
+        Map<Severity, Long> c = outs.severityCounts();
+        List<String> f = new ArrayList<>();
+        for (Severity s : new Severity[] {Severity.ERROR, Severity.WARNING, Severity.INFO}) {
+            long n = c.getOrDefault(s, 0L);
+            String name = s.name().toLowerCase(Locale.ROOT);
+            f.add(n + " " + (s == Severity.INFO ? "info" : name + (n == 1 ? "" : "s")));
+        }
+        host.out.println("ran " + shown + ": " + instances + " instances; findings: " + String.join(", ", f));
+        host.out.println("wrote " + outs.dir() + "/: " + String.join(", ", outs.files().keySet()));
+    }
+}

@@ -1,0 +1,60 @@
+package org.lanesift.runner.chainfile;
+
+import org.lanesift.chain.ChainException;
+
+/**
+ * A chain file that cannot be read: a JSON syntax error (with line and column), a field of the
+ * wrong type, an unknown key, a missing field. {@link #getMessage()} is one line that starts with
+ * the file and the location, such as {@code chain.json /wires/2/to: expected a string}.
+ */
+public final class ChainFileException extends ChainException {
+    private static final long serialVersionUID = 1L;
+    private final String file;
+    private final long line;
+
+    /**
+     * Creates the exception.
+     *
+     * @param file    the chain file as the user named it
+     * @param pointer JSON pointer of the offending value, or null
+     * @param line    1-based line, or 0 when the location is a pointer
+     * @param column  1-based column, or 0
+     * @param what    what is wrong and what was expected
+     */
+    public ChainFileException(String file, String pointer, long line, long column, String what) {
+        super(where(file, pointer, line, column) + ": " + what, pointer);
+        this.file = file;
+        this.line = line;
+    }
+
+    private static String where(String file, String pointer, long line, long column) {
+        StringBuilder sb = new StringBuilder(file);
+        if (line > 0) {
+            sb.append(" line ").append(line);
+            if (column > 0) {
+                sb.append(" column ").append(column);
+            }
+        } else if (pointer != null) {
+            sb.append(' ').append(pointer.isEmpty() ? "/" : pointer);
+        }
+        return sb.toString();
+    }
+
+    /**
+     * The chain file.
+     *
+     * @return the name as given
+     */
+    public String file() {
+        return file;
+    }
+
+    /**
+     * The line of a syntax error.
+     *
+     * @return 1-based line, or 0 if the location is a pointer
+     */
+    public long line() {
+        return line;
+    }
+}

@@ -1,0 +1,365 @@
+package org.lanesift.runner.chainfile;
+
+import com.fasterxml.jackson.core.JsonFactory;
+import com.fasterxml.jackson.core.JsonLocation;
+import com.fasterxml.jackson.core.JsonParser;
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.core.StreamReadConstraints;
+import com.fasterxml.jackson.core.StreamReadFeature;
+import com.fasterxml.jackson.databind.DeserializationFeature;
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import java.io.IOException;
+import java.io.InputStream;
+import java.nio.file.Files;
+import java.nio.file.NoSuchFileException;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.HashSet;
+import java.util.Iterator;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import org.lanesift.chain.ChainSpec;
+
+/**
+ * Reads a JSON chain file ({@code docs/chain-file.md}) into a {@link ChainSpec}, checking its shape
+ * before any plugin is looked up: every problem becomes a {@link ChainFileException} naming the
+ * file and a JSON pointer (or, for syntax errors, line and column) and what was expected.
+ *
+ * <p>Besides the shape it checks what can be checked without plugins: instance ids are unique and
+ * well formed, both ends of every wire name a declared instance, and the wires form no cycle.
+ * Relative paths in options named {@code file} are resolved against the chain file's directory.
+ */
+public final class ChainFileReader {
+    /** Largest chain file accepted, in bytes; a chain is a few kilobytes. */
+    public static final long MAX_BYTES = 4L << 20;
+    /** Deepest JSON nesting accepted (a chain file needs five levels). */
+    public static final int MAX_DEPTH = 32;
+
+    private static final Set<String> ROOT_KEYS = Set.of("nodes", "wires", "description");
+    private static final Set<String> NODE_KEYS = Set.of("id", "plugin", "options");
+    private static final Set<String> WIRE_KEYS = Set.of("from", "to");
+    private static final String ID_PATTERN = "[A-Za-z0-9_-]+";
+
+    private final ObjectMapper mapper;
+
+    /** Creates a reader. */
+    public ChainFileReader() {
+        JsonFactory f = JsonFactory.builder()
+                .streamReadConstraints(StreamReadConstraints.builder().maxNestingDepth(MAX_DEPTH).build())
+                .enable(StreamReadFeature.STRICT_DUPLICATE_DETECTION)
+                .build();
+        mapper = new ObjectMapper(f);
+        mapper.enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS);
+        mapper.enable(DeserializationFeature.USE_BIG_DECIMAL_FOR_FLOATS);
+        mapper.disable(JsonParser.Feature.AUTO_CLOSE_SOURCE);
+    }
+
+    /**
+     * Reads and checks a chain file.
+     *
+     * @param path      the file
+     * @param shownName how to name it in messages
+     * @return the chain file
+     * @throws ChainFileException for any problem, including a missing or unreadable file
+     */
+    public ChainFile read(Path path, String shownName) {
+        long size;
+        try {
+            size = Files.size(path);
+        } catch (NoSuchFileException e) {
+            throw new ChainFileException(shownName, null, 0, 0, "no such file (expected a JSON chain file)");
+        } catch (IOException e) {
+            throw new ChainFileException(shownName, null, 0, 0, "cannot read: " + e.getMessage());
+        }
+        if (Files.isDirectory(path)) {
+            throw new ChainFileException(shownName, null, 0, 0, "is a directory (expected a JSON chain file)");
+        }
+        if (size > MAX_BYTES) {
+            throw new ChainFileException(shownName, null, 0, 0, "is " + size + " bytes; a chain file may have at most "
+                    + MAX_BYTES + " bytes");
+        }
+        JsonNode root;
+        try (InputStream in = Files.newInputStream(path)) {
+            root = mapper.readTree(in);
+        } catch (JsonProcessingException e) {
+            JsonLocation loc = e.getLocation();
+            String what = e.getOriginalMessage();
+            if (e instanceof com.fasterxml.jackson.core.exc.StreamConstraintsException) {
+                what = "nested deeper than " + MAX_DEPTH + " levels (a chain file needs at most 5)";
+            }
+            what = what == null ? "invalid JSON" : what.replace('\n', ' ').replace('\r', ' ');
+            if (what.length() > 200) {
+                what = what.substring(0, 200) + "...";
+            }
+            throw new ChainFileException(shownName, null, loc == null ? 1 : Math.max(1, loc.getLineNr()),
+                    loc == null ? 0 : Math.max(0, loc.getColumnNr()), "invalid JSON: " + what);
+        } catch (IOException e) {
+            throw new ChainFileException(shownName, null, 0, 0, "cannot read: " + e.getMessage());
+        }
+        if (root == null || root.isMissingNode()) {
+            throw new ChainFileException(shownName, "", 0, 0,
+                    "the file is empty; expected a JSON object with \"nodes\" and \"wires\"");
+        }
+        Path dir = path.toAbsolutePath().getParent();
+        return parse(root, shownName, path, dir);
+    }
+
+    private ChainFile parse(JsonNode root, String file, Path path, Path dir) {
+        if (!root.isObject()) {
+            throw err(file, "", "expected a JSON object with \"nodes\" and \"wires\", got " + describe(root));
+        }
+        checkKeys(root, ROOT_KEYS, "", file);
+        String description = "";
+        if (root.has("description")) {
+            description = text(root.get("description"), "/description", file);
+        }
+        JsonNode nodes = root.get("nodes");
+        if (nodes == null) {
+            throw err(file, "/nodes", "missing; expected an array of plugin instances");
+        }
+        if (!nodes.isArray()) {
+            throw err(file, "/nodes", "expected an array of plugin instances, got " + describe(nodes));
+        }
+        if (nodes.isEmpty()) {
+            throw err(file, "/nodes", "is empty; a chain needs at least one plugin instance");
+        }
+        List<ChainSpec.Node> specNodes = new ArrayList<>();
+        Map<String, Integer> ids = new HashMap<>();
+        for (int i = 0; i < nodes.size(); i++) {
+            String p = "/nodes/" + i;
+            JsonNode n = nodes.get(i);
+            if (!n.isObject()) {
+                throw err(file, p, "expected an object with \"id\", \"plugin\" and \"options\", got " + describe(n));
+            }
+            checkKeys(n, NODE_KEYS, p, file);
+            String id = required(n, "id", p, file, "an instance id such as \"rx\"");
+            if (!id.matches(ID_PATTERN)) {
+                throw err(file, p + "/id", "instance id must be letters, digits, '_' or '-', got '" + id + "'");
+            }
+            Integer before = ids.putIfAbsent(id, i);
+            if (before != null) {
+                throw err(file, p + "/id", "instance id '" + id + "' is already used by /nodes/" + before);
+            }
+            String plugin = required(n, "plugin", p, file, "a plugin id such as \"differential\" (see: lanesift plugins)");
+            Map<String, Object> options = new LinkedHashMap<>();
+            JsonNode opts = n.get("options");
+            if (opts != null && !opts.isNull()) {
+                if (!opts.isObject()) {
+                    throw err(file, p + "/options", "expected an object of option values, got " + describe(opts));
+                }
+                for (Iterator<Map.Entry<String, JsonNode>> it = opts.fields(); it.hasNext(); ) {
+                    Map.Entry<String, JsonNode> e = it.next();
+                    String op = p + "/options/" + escape(e.getKey());
+                    Object v = optionValue(e.getValue(), op, file);
+                    if (e.getKey().equals("file") && v instanceof String s) {
+                        v = resolve(dir, s);
+                    }
+                    options.put(e.getKey(), v);
+                }
+            }
+            specNodes.add(new ChainSpec.Node(id, plugin, options));
+        }
+        List<ChainSpec.Wire> specWires = new ArrayList<>();
+        JsonNode wires = root.get("wires");
+        if (wires != null && !wires.isNull()) {
+            if (!wires.isArray()) {
+                throw err(file, "/wires", "expected an array of wires {\"from\": \"a.out\", \"to\": \"b.in\"}, got " + describe(wires));
+            }
+            for (int i = 0; i < wires.size(); i++) {
+                String p = "/wires/" + i;
+                JsonNode w = wires.get(i);
+                if (!w.isObject()) {
+                    throw err(file, p, "expected an object {\"from\": \"instance.output\", \"to\": \"instance.input\"}, got " + describe(w));
+                }
+                checkKeys(w, WIRE_KEYS, p, file);
+                String from = required(w, "from", p, file, "\"instance.output\"");
+                String to = required(w, "to", p, file, "\"instance.input\"");
+                checkEnd(from, p + "/from", ids, file);
+                checkEnd(to, p + "/to", ids, file);
+                specWires.add(new ChainSpec.Wire(from, to));
+            }
+        }
+        checkCycles(specWires, ids.size(), ids, file);
+        return new ChainFile(new ChainSpec(specNodes, specWires), path, file, description);
+    }
+
+    /** Resolves a relative path against the chain file's directory. */
+    static String resolve(Path dir, String file) {
+        if (file.isEmpty() || dir == null) {
+            return file;
+        }
+        Path p = Path.of(file);
+        return p.isAbsolute() ? file : dir.resolve(p).normalize().toString();
+    }
+
+    private static void checkEnd(String end, String pointer, Map<String, Integer> ids, String file) {
+        if (end.isEmpty()) {
+            throw err(file, pointer, "empty; expected \"instance.port\"");
+        }
+        int dot = end.indexOf('.');
+        String id = dot < 0 ? end : end.substring(0, dot);
+        if (!ids.containsKey(id)) {
+            List<String> known = new ArrayList<>(ids.keySet());
+            known.sort(null);
+            throw err(file, pointer, "no instance '" + id + "' in /nodes; expected \"instance.port\" with one of: "
+                    + String.join(", ", known));
+        }
+        if (dot >= 0 && dot == end.length() - 1) {
+            throw err(file, pointer, "port name missing after '" + id + ".'; expected \"instance.port\"");
+        }
+    }
+
+    /** Depth-first search on instances; reports the wire that closes a cycle. */
+    private static void checkCycles(List<ChainSpec.Wire> wires, int n, Map<String, Integer> ids, String file) {
+        List<List<int[]>> adj = new ArrayList<>();
+        for (int i = 0; i < n; i++) {
+            adj.add(new ArrayList<>());
+        }
+        for (int w = 0; w < wires.size(); w++) {
+            int a = ids.get(instanceOf(wires.get(w).from()));
+            int b = ids.get(instanceOf(wires.get(w).to()));
+            adj.get(a).add(new int[] {b, w});
+        }
+        byte[] state = new byte[n];
+        int[] stackNode = new int[n];
+        int[] stackEdge = new int[n];
+        String[] names = new String[n];
+        ids.forEach((k, v) -> names[v] = k);
+        for (int s = 0; s < n; s++) {
+            if (state[s] != 0) {
+                continue;
+            }
+            int depth = 0;
+            stackNode[0] = s;
+            stackEdge[0] = 0;
+            state[s] = 1;
+            while (depth >= 0) {
+                int u = stackNode[depth];
+                if (stackEdge[depth] < adj.get(u).size()) {
+                    int[] e = adj.get(u).get(stackEdge[depth]++);
+                    int v = e[0];
+                    if (state[v] == 1) {
+                        StringBuilder path = new StringBuilder();
+                        int from = 0;
+                        while (stackNode[from] != v) {
+                            from++;
+                        }
+                        for (int k = from; k <= depth; k++) {
+                            path.append(names[stackNode[k]]).append(" -> ");
+                        }
+                        path.append(names[v]);
+                        throw err(file, "/wires/" + e[1], "this wire closes a cycle " + path
+                                + "; a chain must flow one way (expected no loops)");
+                    }
+                    if (state[v] == 0) {
+                        state[v] = 1;
+                        depth++;
+                        stackNode[depth] = v;
+                        stackEdge[depth] = 0;
+                    }
+                } else {
+                    state[u] = 2;
+                    depth--;
+                }
+            }
+        }
+    }
+
+    private static String instanceOf(String end) {
+        int dot = end.indexOf('.');
+        return dot < 0 ? end : end.substring(0, dot);
+    }
+
+    private static Object optionValue(JsonNode v, String pointer, String file) {
+        if (v.isTextual()) {
+            return v.textValue();
+        }
+        if (v.isBoolean()) {
+            return v.booleanValue();
+        }
+        if (v.isIntegralNumber()) {
+            if (!v.canConvertToLong()) {
+                throw err(file, pointer, "integer " + v.asText() + " is too large");
+            }
+            return v.longValue();
+        }
+        if (v.isNumber()) {
+            double d = v.doubleValue();
+            if (!Double.isFinite(d)) {
+                throw err(file, pointer, "number " + v.asText() + " is too large");
+            }
+            return d;
+        }
+        if (v.isArray()) {
+            List<Object> list = new ArrayList<>();
+            for (int i = 0; i < v.size(); i++) {
+                JsonNode e = v.get(i);
+                if (!(e.isNumber() || e.isTextual())) {
+                    throw err(file, pointer + "/" + i, "expected a number or a string in an option list, got " + describe(e));
+                }
+                list.add(optionValue(e, pointer + "/" + i, file));
+            }
+            return list;
+        }
+        throw err(file, pointer, "expected a string, number, boolean or list of numbers as option value, got " + describe(v));
+    }
+
+    private static String required(JsonNode n, String key, String p, String file, String expected) {
+        JsonNode v = n.get(key);
+        if (v == null || v.isNull()) {
+            throw err(file, p + "/" + key, "missing; expected " + expected);
+        }
+        return text(v, p + "/" + key, file);
+    }
+
+    private static String text(JsonNode v, String pointer, String file) {
+        if (!v.isTextual()) {
+            throw err(file, pointer, "expected a string, got " + describe(v));
+        }
+        return v.textValue();
+    }
+
+    private static void checkKeys(JsonNode obj, Set<String> allowed, String p, String file) {
+        Set<String> seen = new HashSet<>();
+        for (Iterator<String> it = obj.fieldNames(); it.hasNext(); ) {
+            String k = it.next();
+            seen.add(k);
+            if (!allowed.contains(k)) {
+                List<String> a = new ArrayList<>(allowed);
+                a.sort(null);
+                throw err(file, p + "/" + escape(k), "unknown key '" + k + "'; expected one of: " + String.join(", ", a));
+            }
+        }
+    }
+
+    private static String describe(JsonNode v) {
+        if (v.isObject()) {
+            return "an object";
+        } else if (v.isArray()) {
+            return "an array";
+        } else if (v.isTextual()) {
+            String s = v.textValue();
+            return "the string \"" + (s.length() > 40 ? s.substring(0, 40) + "..." : s) + "\"";
+        } else if (v.isBoolean()) {
+            return v.booleanValue() ? "true" : "false";
+        } else if (v.isNumber()) {
+            return "the number " + v.asText();
+        } else if (v.isNull()) {
+            return "null";
+        }
+        return v.getNodeType().toString().toLowerCase(java.util.Locale.ROOT);
+    }
+
+    /** Escapes a key for a JSON pointer (RFC 6901). */
+    static String escape(String key) {
+        return key.replace("~", "~0").replace("/", "~1");
+    }
+
+    private static ChainFileException err(String file, String pointer, String what) {
+        return new ChainFileException(file, pointer, 0, 0, what);
+    }
+}

@@ -1,0 +1,344 @@
+package org.lanesift.runner.output;
+
+import java.awt.image.BufferedImage;
+import java.io.Closeable;
+import java.io.IOException;
+import java.io.UncheckedIOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.EnumMap;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import java.util.TreeMap;
+import javax.imageio.ImageIO;
+import org.lanesift.annotation.Annotation;
+import org.lanesift.annotation.AnnotationSink;
+import org.lanesift.annotation.Severity;
+import org.lanesift.chain.BlockSink;
+import org.lanesift.data.AnalogBlock;
+import org.lanesift.data.Artifact;
+import org.lanesift.data.BitStream;
+import org.lanesift.data.Block;
+import org.lanesift.data.DataKind;
+import org.lanesift.data.Edges;
+import org.lanesift.data.Frame;
+import org.lanesift.data.LogicBlock;
+import org.lanesift.data.WordStream;
+
+/**
+ * The files a run writes into its output directory, fed as the chain's host sink for unwired
+ * outputs and for annotations (see {@code docs/outputs.md}):
+ * <ul>
+ * <li>edges and logic, and word streams as vectors: one VCD, {@value #VCD};</li>
+ * <li>analog: {@code <instance>-<output>.csv}; bit streams: {@code <instance>-<output>-bits.csv};</li>
+ * <li>frames: {@code <instance>-frame-<index>.png} ({@code ...-partial.png} for partial frames);</li>
+ * <li>artifacts: a file of the artifact's name (a later artifact of the same name replaces it);</li>
+ * <li>annotations: {@value #ANNOTATIONS}, JSON Lines.</li>
+ * </ul>
+ * Every writer streams, so memory does not grow with the capture; counts per output and the
+ * findings by severity are kept for {@code report.md}.
+ */
+public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
+    /** File name of the VCD. */
+    public static final String VCD = "signals.vcd";
+    /** File name of the annotations. */
+    public static final String ANNOTATIONS = "annotations.jsonl";
+    /** File name of the report. */
+    public static final String REPORT = "report.md";
+    /** How many findings of each severity the report lists one by one. */
+    public static final int EXAMPLES_PER_SEVERITY = 20;
+
+    private static final Set<String> RESERVED = Set.of(VCD, ANNOTATIONS, REPORT);
+
+    private final Path dir;
+    private final VcdWriter vcd;
+    private final Map<String, OutputStats> stats = new LinkedHashMap<>();
+    private final Map<String, AnalogCsvWriter> analog = new LinkedHashMap<>();
+    private final Map<String, BitsCsvWriter> bits = new LinkedHashMap<>();
+    private final Map<String, Integer> frameOutputsPerInstance = new TreeMap<>();
+    private final Map<String, Path> files = new LinkedHashMap<>();
+    private final Map<Severity, Long> severityCounts = new EnumMap<>(Severity.class);
+    private final Map<String, Long> kindCounts = new TreeMap<>();
+    private final Map<Severity, List<String>> examples = new EnumMap<>(Severity.class);
+    private AnnotationJsonlWriter annotations;
+    private boolean closed;
+
+    /** Counts for one output. */
+    public static final class OutputStats {
+        final String instance;
+        final String output;
+        DataKind kind;
+        long blocks;
+        long items;
+        long firstFs = Long.MAX_VALUE;
+        long lastFs = Long.MIN_VALUE;
+        final List<String> files = new ArrayList<>();
+
+        OutputStats(String instance, String output, DataKind kind) {
+            this.instance = instance;
+            this.output = output;
+            this.kind = kind;
+        }
+
+        /** @return {@code instance.output} */
+        public String name() {
+            return instance + "." + output;
+        }
+
+        /** @return the kind, or null if nothing arrived and it was not declared */
+        public DataKind kind() {
+            return kind;
+        }
+
+        /** @return blocks received */
+        public long blocks() {
+            return blocks;
+        }
+
+        /** @return samples, transitions, bits, words, frames or bytes received, by kind */
+        public long items() {
+            return items;
+        }
+
+        /** @return start of the first block, femtoseconds; Long.MAX_VALUE if none */
+        public long firstFs() {
+            return firstFs;
+        }
+
+        /** @return end of the last block, femtoseconds; Long.MIN_VALUE if none */
+        public long lastFs() {
+            return lastFs;
+        }
+
+        /** @return files this output went to, relative to the output directory */
+        public List<String> files() {
+            return files;
+        }
+    }
+
+    /**
+     * Opens the outputs in a directory (created if needed).
+     *
+     * @param dir     output directory
+     * @param version program version for the VCD header
+     * @throws UncheckedIOException if the directory cannot be created
+     */
+    public RunOutputs(Path dir, String version) {
+        this.dir = dir;
+        try {
+            Files.createDirectories(dir);
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot create output directory " + dir + ": " + e, e);
+        }
+        this.vcd = new VcdWriter(dir.resolve(VCD), dir.resolve(".lanesift-spool"), "lanesift " + version);
+    }
+
+    /**
+     * Declares an output before the run so the report lists it even if it emits nothing.
+     *
+     * @param instance instance id
+     * @param output   output port name
+     * @param kind     its kind
+     */
+    public void declare(String instance, String output, DataKind kind) {
+        stats.computeIfAbsent(instance + "." + output, k -> new OutputStats(instance, output, kind));
+        if (kind == DataKind.FRAME) {
+            frameOutputsPerInstance.merge(instance, 1, Integer::sum);
+        }
+    }
+
+    @Override
+    public void accept(String instance, String output, Block block) {
+        String key = instance + "." + output;
+        OutputStats s = stats.computeIfAbsent(key, k -> new OutputStats(instance, output, block.kind()));
+        if (s.kind == null || s.kind == DataKind.ANY) {
+            s.kind = block.kind();
+        }
+        s.blocks++;
+        s.firstFs = Math.min(s.firstFs, block.startFs());
+        s.lastFs = Math.max(s.lastFs, block.endFs());
+        try {
+            write(s, key, block);
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot write output of " + key + " in " + dir + ": " + e.getMessage(), e);
+        }
+    }
+
+    private void write(OutputStats s, String key, Block block) throws IOException {
+        String base = Texts.safe(s.instance) + "-" + Texts.safe(s.output);
+        if (block instanceof Edges e) {
+            vcd.edges(s.instance, s.output, e);
+            s.items += e.count();
+            noteFile(s, VCD);
+        } else if (block instanceof LogicBlock l) {
+            vcd.logic(s.instance, s.output, l);
+            s.items += l.length();
+            noteFile(s, VCD);
+        } else if (block instanceof WordStream w) {
+            vcd.words(s.instance, s.output, w);
+            s.items += w.count();
+            noteFile(s, VCD);
+        } else if (block instanceof AnalogBlock a) {
+            AnalogCsvWriter wr = analog.get(key);
+            if (wr == null) {
+                String name = base + ".csv";
+                wr = new AnalogCsvWriter(file(name), s.output);
+                analog.put(key, wr);
+                noteFile(s, name);
+            }
+            wr.write(a);
+            s.items += a.length();
+        } else if (block instanceof BitStream b) {
+            BitsCsvWriter wr = bits.get(key);
+            if (wr == null) {
+                String name = base + "-bits.csv";
+                wr = new BitsCsvWriter(file(name));
+                bits.put(key, wr);
+                noteFile(s, name);
+            }
+            wr.write(b);
+            s.items += b.count();
+        } else if (block instanceof Frame f) {
+            String prefix = Texts.safe(s.instance) + (frameOutputsPerInstance.getOrDefault(s.instance, 1) > 1 ? "-" + Texts.safe(s.output) : "");
+            String name = prefix + "-frame-" + f.index() + (f.partial() ? "-partial" : "") + ".png";
+            s.items++;
+            if (f.width() == 0 || f.height() == 0) {
+                return; // nothing to draw; counted, and the report shows no file for it
+            }
+            BufferedImage img = new BufferedImage(f.width(), f.height(), BufferedImage.TYPE_INT_RGB);
+            img.setRGB(0, 0, f.width(), f.height(), f.rgb(), 0, f.width());
+            if (!ImageIO.write(img, "png", file(name).toFile())) {
+                throw new IOException("no PNG writer in this Java runtime");
+            }
+            noteFile(s, name);
+        } else if (block instanceof Artifact a) {
+            String name = a.fileName();
+            if (RESERVED.contains(name) || name.startsWith(".lanesift")) {
+                name = Texts.safe(s.instance) + "-" + name;
+            }
+            Files.write(file(name), a.content());
+            s.items += a.content().length;
+            noteFile(s, name);
+        } else {
+            throw new IllegalArgumentException("output " + key + " emitted a block of unknown type " + block.getClass().getName());
+        }
+    }
+
+    private Path file(String name) {
+        return dir.resolve(name);
+    }
+
+    private void noteFile(OutputStats s, String name) {
+        if (!s.files.contains(name)) {
+            s.files.add(name);
+        }
+        files.putIfAbsent(name, dir.resolve(name));
+    }
+
+    @Override
+    public void accept(String source, Annotation a) {
+        try {
+            if (annotations == null) {
+                annotations = new AnnotationJsonlWriter(file(ANNOTATIONS));
+                files.putIfAbsent(ANNOTATIONS, file(ANNOTATIONS));
+            }
+            annotations.write(source, a);
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot write " + dir.resolve(ANNOTATIONS) + ": " + e.getMessage(), e);
+        }
+        severityCounts.merge(a.severity(), 1L, Long::sum);
+        kindCounts.merge(a.severity().name().toLowerCase(java.util.Locale.ROOT) + " " + a.kind(), 1L, Long::sum);
+        List<String> ex = examples.computeIfAbsent(a.severity(), k -> new ArrayList<>());
+        if (ex.size() < EXAMPLES_PER_SEVERITY) {
+            ex.add(Texts.seconds(a.startFs()) + " s, " + source + ", " + a.kind() + ": " + a.label());
+        }
+    }
+
+    /**
+     * Finishes every file (merging the VCD). Safe to call twice.
+     *
+     * @throws IOException the first failure; every writer is still closed
+     */
+    @Override
+    public void close() throws IOException {
+        if (closed) {
+            return;
+        }
+        closed = true;
+        IOException first = null;
+        List<Closeable> all = new ArrayList<>();
+        all.addAll(analog.values());
+        all.addAll(bits.values());
+        if (annotations != null) {
+            all.add(annotations);
+        }
+        all.add(vcd);
+        for (Closeable c : all) {
+            try {
+                c.close();
+            } catch (IOException e) {
+                first = first == null ? e : first;
+            }
+        }
+        if (first != null) {
+            throw first;
+        }
+    }
+
+    /**
+     * Counts per output, in declaration then arrival order.
+     *
+     * @return the stats
+     */
+    public List<OutputStats> outputs() {
+        return new ArrayList<>(stats.values());
+    }
+
+    /**
+     * Annotation counts per severity.
+     *
+     * @return counts
+     */
+    public Map<Severity, Long> severityCounts() {
+        return severityCounts;
+    }
+
+    /**
+     * Annotation counts per "severity kind".
+     *
+     * @return counts, sorted
+     */
+    public Map<String, Long> kindCounts() {
+        return kindCounts;
+    }
+
+    /**
+     * The first findings of each severity, as one line each.
+     *
+     * @return lines by severity
+     */
+    public Map<Severity, List<String>> examples() {
+        return examples;
+    }
+
+    /**
+     * Files written so far, by name relative to the output directory.
+     *
+     * @return names and paths
+     */
+    public Map<String, Path> files() {
+        return files;
+    }
+
+    /**
+     * The output directory.
+     *
+     * @return the directory
+     */
+    public Path dir() {
+        return dir;
+    }
+}

@@ -1,0 +1,35 @@
+package org.lanesift.runner.output;
+
+import java.time.Instant;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * What a run was, for {@code report.md}: the chain, its inputs and overrides, the instances
+ * with their effective options, and how it ended.
+ *
+ * @param chainFile   the chain file as named by the user
+ * @param description the chain file's description, or empty
+ * @param version     lanesift version
+ * @param started     when the run began
+ * @param millis      wall time in milliseconds
+ * @param status      "completed", "cancelled" or "failed: ..." (one line)
+ * @param inputs      {@code --input} values, instance to file
+ * @param sets        {@code --set} values as typed
+ * @param instances   the instances in chain order
+ */
+public record RunSummary(String chainFile, String description, String version, Instant started, long millis, String status,
+                         Map<String, String> inputs, List<String> sets, List<Instance> instances) {
+
+    /**
+     * One instance.
+     *
+     * @param id      instance id
+     * @param plugin  plugin id
+     * @param name    plugin display name
+     * @param version plugin version
+     * @param options effective options (defaults filled in), as text
+     */
+    public record Instance(String id, String plugin, String name, String version, Map<String, String> options) {
+    }
+}

@@ -1,0 +1,54 @@
+package org.lanesift.runner;
+
+import java.io.File;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import org.junit.jupiter.api.Assumptions;
+
+/**
+ * Finds an external program (from a Debian package) that a test needs. Outside CI a missing
+ * program skips the test; under {@code CI=true} it fails it, so a green CI run means the check
+ * really ran.
+ */
+public final class ExternalTool {
+    private ExternalTool() {
+    }
+
+    /**
+     * Returns the program's path, or skips (fails under CI) when it is not on the PATH.
+     *
+     * @param program program name, such as {@code iverilog}
+     * @return its path
+     */
+    public static Path require(String program) {
+        Path p = find(program);
+        if (p == null) {
+            String msg = program + " is not installed (Debian package; .ci/run installs it)";
+            if ("true".equalsIgnoreCase(System.getenv("CI"))) {
+                throw new AssertionError(msg + " and CI=true, so this check must run");
+            }
+            Assumptions.abort(msg);
+        }
+        return p;
+    }
+
+    /**
+     * Looks a program up on the PATH.
+     *
+     * @param program name
+     * @return its path, or null
+     */
+    public static Path find(String program) {
+        String path = System.getenv("PATH");
+        if (path == null) {
+            return null;
+        }
+        for (String dir : path.split(File.pathSeparator)) {
+            Path p = Path.of(dir, program);
+            if (Files.isRegularFile(p) && Files.isExecutable(p)) {
+                return p;
+            }
+        }
+        return null;
+    }
+}

@@ -1,0 +1,88 @@
+package org.lanesift.runner.chainfile;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.lanesift.chain.ChainSpec;
+
+/** The chain file's shape, and where its errors point. */
+class ChainFileReaderTest {
+    @TempDir
+    Path tmp;
+
+    ChainFile read(String json) throws Exception {
+        Path f = tmp.resolve("sub/c.json");
+        Files.createDirectories(f.getParent());
+        Files.writeString(f, json);
+        return new ChainFileReader().read(f, "c.json");
+    }
+
+    @Test
+    void readsNodesWiresOptionsAndResolvesRelativeFiles() throws Exception {
+        ChainFile cf = read("""
+                {"description": "two", "nodes": [
+                  {"id": "cap", "plugin": "csv", "options": {"file": "x.csv", "rateHz": 2.5e9, "lanes": 4, "on": true, "list": [1, 2.5]}},
+                  {"id": "abs", "plugin": "csv", "options": {"file": "/data/y.csv"}}],
+                 "wires": [{"from": "cap.CH1", "to": "abs"}]}
+                """);
+        ChainSpec s = cf.spec();
+        assertEquals("two", cf.description());
+        assertEquals(2, s.nodes().size());
+        ChainSpec.Node cap = s.nodes().get(0);
+        assertEquals(tmp.resolve("sub/x.csv").toString(), cap.options().get("file"));
+        assertEquals(2.5e9, cap.options().get("rateHz"));
+        assertEquals(4L, cap.options().get("lanes"));
+        assertEquals(true, cap.options().get("on"));
+        assertEquals(List.of(1L, 2.5), cap.options().get("list"));
+        assertEquals("/data/y.csv", s.nodes().get(1).options().get("file"));
+        assertEquals(new ChainSpec.Wire("cap.CH1", "abs"), s.wires().get(0));
+    }
+
+    @Test
+    void wiresAreOptional() throws Exception {
+        assertEquals(0, read("{\"nodes\": [{\"id\": \"a\", \"plugin\": \"p\"}]}").spec().wires().size());
+    }
+
+    @Test
+    void errorsPointIntoTheFile() {
+        ChainFileException e = assertThrows(ChainFileException.class,
+                () -> read("{\"nodes\": [{\"id\": \"a\", \"plugin\": \"p\"}], \"wires\": [{\"from\": \"a.x\", \"to\": \"a.y\", \"via\": 1}]}"));
+        assertEquals("/wires/0/via", e.pointer());
+        assertTrue(e.getMessage().startsWith("c.json /wires/0/via: unknown key 'via'; expected one of: from, to"), e.getMessage());
+        ChainFileException syntax = assertThrows(ChainFileException.class, () -> read("{\n\"nodes\": [\n}"));
+        assertEquals(3, syntax.line());
+        assertTrue(syntax.getMessage().startsWith("c.json line 3 column 1: invalid JSON"), syntax.getMessage());
+        ChainFileException slash = assertThrows(ChainFileException.class,
+                () -> read("{\"nodes\": [{\"id\": \"a\", \"plugin\": \"p\", \"options\": {\"a/b\": null}}]}"));
+        assertEquals("/nodes/0/options/a~1b", slash.pointer(), "RFC 6901 escaping");
+        ChainFileException empty = assertThrows(ChainFileException.class, () -> read("{\"nodes\": []}"));
+        assertEquals("/nodes", empty.pointer());
+    }
+
+    @Test
+    void aLongCycleIsFoundAndNamed() {
+        ChainFileException e = assertThrows(ChainFileException.class, () -> read("""
+                {"nodes": [{"id": "a", "plugin": "p"}, {"id": "b", "plugin": "p"}, {"id": "c", "plugin": "p"}, {"id": "d", "plugin": "p"}],
+                 "wires": [{"from": "d", "to": "a"}, {"from": "a", "to": "b"}, {"from": "b", "to": "c"}, {"from": "c", "to": "a"}]}
+                """));
+        assertEquals("/wires/3", e.pointer());
+        assertTrue(e.getMessage().contains("a -> b -> c -> a"), e.getMessage());
+    }
+
+    @Test
+    void aTooLargeFileIsRefusedWithoutReadingIt() throws Exception {
+        Path f = tmp.resolve("big.json");
+        try (var ch = java.nio.channels.FileChannel.open(f, java.nio.file.StandardOpenOption.CREATE_NEW, java.nio.file.StandardOpenOption.WRITE)) {
+            ch.position(ChainFileReader.MAX_BYTES + 10);
+            ch.write(java.nio.ByteBuffer.wrap(new byte[] {' '}));
+        }
+        ChainFileException e = assertThrows(ChainFileException.class, () -> new ChainFileReader().read(f, "big.json"));
+        assertTrue(e.getMessage().contains("at most " + ChainFileReader.MAX_BYTES + " bytes"), e.getMessage());
+    }
+}

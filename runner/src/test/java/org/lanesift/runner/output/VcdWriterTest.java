@@ -1,0 +1,116 @@
+package org.lanesift.runner.output;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.HashSet;
+import java.util.Set;
+import net.jqwik.api.ForAll;
+import net.jqwik.api.Property;
+import net.jqwik.api.constraints.IntRange;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.lanesift.data.Edges;
+import org.lanesift.data.LogicBlock;
+import org.lanesift.data.WordStream;
+import org.lanesift.testkit.Synth;
+
+/** The VCD text, exactly, for small inputs; and independence from how the input is cut into blocks. */
+class VcdWriterTest {
+    @TempDir
+    Path tmp;
+
+    static String bodyAfterDefinitions(Path f) throws Exception {
+        String s = Files.readString(f);
+        return s.substring(s.indexOf("$enddefinitions $end\n") + "$enddefinitions $end\n".length());
+    }
+
+    @Test
+    void edgesWithAnUnknownSpanAndAVector() throws Exception {
+        Path f = tmp.resolve("a.vcd");
+        VcdWriter w = new VcdWriter(f, tmp.resolve("spool"), "test");
+        // low, rises at 10, x from 20 to 30 (level after the span: still high), falls at 40
+        w.edges("rx", "d", new Edges("d", 0, 50, false, new long[] {10, 40}, 2, new long[] {20, 30}, 1));
+        WordStream ws = new WordStream("w", 0, 50, 2, 4, new long[] {5, 0xA}, new long[] {0, 10}, new long[] {10, 15},
+                new int[2], new byte[2]);
+        w.words("rx", "word", ws);
+        w.close();
+        String head = Files.readString(f);
+        // IEEE 1364-2005 18.2: declarations; $timescale 1 fs; identifier codes from '!' on
+        assertTrue(head.contains("$timescale 1 fs $end\n$scope module rx $end\n$var wire 1 ! d $end\n"
+                + "$var wire 4 \" word [3:0] $end\n$upscope $end\n$enddefinitions $end\n"), head);
+        assertEquals("#0\n$dumpvars\nx!\nbx \"\n$end\n0!\nb101 \"\n"
+                + "#10\n1!\nb1010 \"\n"
+                + "#15\nbx \"\n"
+                + "#20\nx!\n"
+                + "#30\n1!\n"
+                + "#40\n0!\n", bodyAfterDefinitions(f));
+        assertFalse(Files.exists(tmp.resolve("spool")));
+    }
+
+    @Test
+    void logicKeepsTheLevelAfterAnUnknownRun() throws Exception {
+        Path f = tmp.resolve("l.vcd");
+        VcdWriter w = new VcdWriter(f, tmp.resolve("spool"), "test");
+        // samples 1 1 x x 0 0 at 10 fs from 100 fs: changes at the midpoints 115 and 135
+        w.logic("a", "s", new LogicBlock("s", 0, 100, 10, new long[] {0b001111L}, 6, new long[] {0b001100L}));
+        w.close();
+        assertEquals("#100\n$dumpvars\nx!\n$end\n1!\n#115\nx!\n#135\n0!\n", bodyAfterDefinitions(f));
+    }
+
+    @Test
+    void identifierCodesAreUniquePrintableAscii() {
+        Set<String> seen = new HashSet<>();
+        for (int i = 0; i < 20_000; i++) {
+            String c = VcdWriter.code(i);
+            assertTrue(seen.add(c), c);
+            for (char ch : c.toCharArray()) {
+                assertTrue(ch >= 33 && ch <= 126);
+            }
+        }
+        assertEquals("!", VcdWriter.code(0));
+        assertEquals("~", VcdWriter.code(93));
+        assertEquals("!!", VcdWriter.code(94));
+    }
+
+    @Test
+    void nothingWrittenWithoutSignals() throws Exception {
+        Path f = tmp.resolve("none.vcd");
+        VcdWriter w = new VcdWriter(f, tmp.resolve("spool"), "test");
+        w.close();
+        assertFalse(Files.exists(f));
+    }
+
+    /** Cutting the same logic and edges into blocks anywhere gives the same file (testkit Synth.split). */
+    @Property(tries = 40)
+    void blockBoundariesDoNotShow(@ForAll @IntRange(min = 1, max = 400) int cut1, @ForAll @IntRange(min = 1, max = 400) int cut2)
+            throws Exception {
+        LogicBlock whole = Synth.randomLogic("d", 1e9, 900, 7);
+        long[] inv = new long[whole.bits().length];
+        inv[3] = 0xF0L; // an unknown run
+        LogicBlock withX = new LogicBlock("d", 0, 0, whole.periodFs(), whole.bits(), 900, inv);
+        Edges clk = Synth.clock("c", 2e6, 0.5, 1_000_000L, 200);
+        Path dir = Files.createTempDirectory("vcdprop");
+        Path one = dir.resolve("one.vcd");
+        VcdWriter a = new VcdWriter(one, dir.resolve("s1"), "t");
+        a.logic("x", "d", withX);
+        a.edges("x", "c", clk);
+        a.close();
+        int c1 = Math.min(cut1, cut2);
+        int c2 = Math.max(cut1, cut2);
+        Path many = dir.resolve("many.vcd");
+        VcdWriter b = new VcdWriter(many, dir.resolve("s2"), "t");
+        int[] sizes = c1 == c2 ? new int[] {c1, 900 - c1} : new int[] {c1, c2 - c1, 900 - c2};
+        for (LogicBlock part : Synth.split(withX, sizes)) {
+            b.logic("x", "d", part);
+        }
+        for (Edges part : Synth.split(clk, c1 * 1_000_000L, c2 * 1_000_000L + 1)) {
+            b.edges("x", "c", part);
+        }
+        b.close();
+        assertEquals(bodyAfterDefinitions(one), bodyAfterDefinitions(many));
+    }
+}
