@@ -240,7 +240,7 @@ final class ClockRecovery {
         inverted = nearInv;
         dutyDecided = true;
         String slot0 = cfg.slot0AfterRef() + "/" + n + " period after each " + (inverted ? "falling" : "rising") + " edge";
-        if (off > 0.5 / n) {
+        if (off > 0.3 / n) {
             patternVerdict = String.format(Locale.ROOT, "duty %.4f matches neither %s nor %s; taken as %s, slot 0 starts %s",
                     duty, ratio, invRatio, inverted ? "inverted" : "not inverted", slot0);
             notes.add(Annotation.on(TRACK, "clock-duty-unexpected").span(at, at).severity(Severity.WARNING)

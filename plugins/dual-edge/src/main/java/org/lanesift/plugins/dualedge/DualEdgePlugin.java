@@ -55,8 +55,8 @@ import org.lanesift.time.TimeValue;
  * </pre>
  * All seven slots of one pixel carry the same {@code clockEdge}: the number of the rising (reference)
  * edge before slot 0, counted from the start of the capture and identical on every lane. Before
- * using a clock the sampler measures its duty cycle: about 4/7 high confirms the pattern
- * ({@code clock-pattern}); about 3/7 means the clock lane is inverted, which is annotated
+ * using a clock the sampler measures its duty cycle (median over 16 periods): within 0.3 slot of
+ * 4/7 high confirms the pattern ({@code clock-pattern}); within 0.3 slot of 3/7 means the clock lane is inverted, which is annotated
  * ({@code clock-inverted}) and handled by taking the falling edges as reference edges (the bits are
  * then marked {@code falling}); anything else is annotated {@code clock-duty-unexpected}. A pixel is
  * made only when the clock ran without a dropout from its reference edge to past its last slot.
