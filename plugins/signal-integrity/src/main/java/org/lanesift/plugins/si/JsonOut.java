@@ -131,7 +131,7 @@ final class JsonOut {
         } else if (d == Math.rint(d) && Math.abs(d) < 1e15) {
             sb.append((long) d);
         } else {
-            sb.append(String.format(Locale.ROOT, "%.6g", d).replaceFirst("(\\.\\d*?)0+(e|$)", "$1$2").replace(".e", "e")
+            sb.append(String.format(Locale.ROOT, "%.9g", d).replaceFirst("(\\.\\d*?)0+(e|$)", "$1$2").replace(".e", "e")
                     .replaceFirst("\\.$", ""));
         }
     }
