@@ -107,6 +107,9 @@ final class CsvLayout {
             throw new CaptureFormatException(file, 1, "line 1 is longer than " + HEAD_BYTES + " bytes; expected a header of at most "
                     + MAX_COLUMNS + " columns");
         }
+        if (!truncatedHead && allBlank(head, start, head.length)) {
+            throw new CaptureFormatException(file, 0, "the file is empty; expected a header line and rows of numbers");
+        }
         for (int i = 0; i < lines.size(); i++) {
             int[] ln = lines.get(i);
             int cols = 1;
@@ -256,6 +259,10 @@ final class CsvLayout {
         int rows = 0;
         double firstT = Double.NaN;
         double lastT = Double.NaN;
+        double firstStep = Double.NaN;
+        int steady = 0;           // rows after the first whose spacing stays within half of the first spacing
+        double steadyT = Double.NaN;
+        boolean broken = false;
         long bytes = 0;
         for (int i = bestData; i < lines.size() && rows < 10_000; i++) {
             int[] ln = lines.get(i);
@@ -267,7 +274,7 @@ final class CsvLayout {
                 break;
             }
             if (l.timeColumn >= 0) {
-                byte[] cell = f.get(l.timeColumn).getBytes(StandardCharsets.ISO_8859_1);
+                byte[] cell = unquote(f.get(l.timeColumn).trim()).getBytes(StandardCharsets.ISO_8859_1);
                 double t = np.parse(cell, 0, cell.length, l.decimalComma);
                 if (!np.ok) {
                     break;
@@ -276,6 +283,15 @@ final class CsvLayout {
                     firstT = t;
                 } else if (!(t > lastT)) {
                     break; // the reader reports it with its line
+                } else if (rows == 1) {
+                    firstStep = t - firstT;
+                    steady = 1;
+                    steadyT = t;
+                } else if (!broken && Math.abs(t - lastT - firstStep) <= 0.5 * firstStep) {
+                    steady = rows;
+                    steadyT = t;
+                } else {
+                    broken = true; // a gap: the reader reports it with its line
                 }
                 lastT = t;
             }
@@ -286,7 +302,7 @@ final class CsvLayout {
         l.headRowBytes = rows == 0 ? 1 : (double) bytes / rows;
         if (l.timeKind == TimeKind.SECONDS) {
             l.headFirstTime = firstT * l.timeScale;
-            l.headStep = rows >= 2 ? (lastT - firstT) * l.timeScale / (rows - 1) : Double.NaN;
+            l.headStep = steady >= 1 ? (steadyT - firstT) * l.timeScale / steady : Double.NaN;
         } else if (l.timeKind == TimeKind.INDEX) {
             l.headFirstIndex = firstT;
         }

@@ -391,6 +391,9 @@ final class CsvReader implements CaptureReader {
     }
 
     private static String fmt(double d) {
+        if (d == Math.rint(d) && Math.abs(d) < 1e15) {
+            return Long.toString((long) d);
+        }
         return String.format(Locale.ROOT, "%.9g", d);
     }
 

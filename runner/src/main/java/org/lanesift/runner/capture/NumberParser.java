@@ -19,6 +19,10 @@ final class NumberParser {
         1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16,
         1e17, 1e18, 1e19, 1e20, 1e21, 1e22};
     private static final long TWO53 = 1L << 53;
+    private static final long[] POW10L = {
+        1L, 10L, 100L, 1_000L, 10_000L, 100_000L, 1_000_000L, 10_000_000L, 100_000_000L, 1_000_000_000L,
+        10_000_000_000L, 100_000_000_000L, 1_000_000_000_000L, 10_000_000_000_000L, 100_000_000_000_000L,
+        1_000_000_000_000_000L, 10_000_000_000_000_000L, 100_000_000_000_000_000L, 1_000_000_000_000_000_000L};
 
     /** Whether the last {@link #parse} call found a number. */
     boolean ok;
@@ -53,31 +57,41 @@ final class NumberParser {
             i++;
         }
         byte mark = decimalComma ? (byte) ',' : (byte) '.';
-        long m = 0;
-        int sig = 0;          // significant digits taken into m
-        int digits = 0;       // digits seen in the mantissa
-        int exp10 = 0;
-        boolean dropped = false; // a non-zero digit beyond 19 significant ones
+        long m = 0;            // significant digits, at most 18, trailing zeros deferred
+        int sig = 0;           // digits in m
+        int zeros = 0;         // zeros seen since the last non-zero digit taken into m
+        int tail = 0;          // digits after the first significant one that are not in m
+        int frac = 0;          // digits after the decimal mark
+        int digits = 0;
+        boolean full = false;
+        boolean dropped = false; // a non-zero digit did not fit into m
         boolean point = false;
         for (; i < to; i++) {
             int c = b[i];
             if (c >= '0' && c <= '9') {
                 digits++;
-                if (sig < 19) {
-                    if (m != 0 || c != '0') {
-                        m = m * 10 + (c - '0');
-                        sig++;
-                    }
-                    if (point) {
-                        exp10--;
-                    }
+                if (point) {
+                    frac++;
+                }
+                int d = c - '0';
+                if (m == 0 && d == 0) {
+                    continue; // leading zero
+                }
+                if (full) {
+                    tail++;
+                    dropped |= d != 0;
+                } else if (d == 0) {
+                    zeros++;
+                    tail++;
+                } else if (sig + zeros + 1 > 18) {
+                    full = true;
+                    tail++;
+                    dropped = true;
                 } else {
-                    if (c != '0') {
-                        dropped = true;
-                    }
-                    if (!point) {
-                        exp10++;
-                    }
+                    m = m * POW10L[zeros + 1] + d;
+                    sig += zeros + 1;
+                    tail -= zeros;
+                    zeros = 0;
                 }
             } else if (c == mark && !point) {
                 point = true;
@@ -85,6 +99,7 @@ final class NumberParser {
                 break;
             }
         }
+        int exp10 = tail - frac;
         if (digits == 0) {
             return special(b, from, to, neg);
         }
@@ -115,7 +130,7 @@ final class NumberParser {
             exp10 += eneg ? -e : e;
         }
         ok = true;
-        lastExp10 = exp10;
+        lastExp10 = exp10 - tail;
         if (m == 0) {
             return neg ? -0.0 : 0.0;
         }

@@ -31,6 +31,8 @@ final class VcdReader implements CaptureReader {
     static final int MAX_SIGNALS = 65_536;
     /** Most bytes of declarations accepted before $enddefinitions. */
     static final long MAX_HEADER_BYTES = 64L << 20;
+    /** Most grid samples of one real variable over the whole capture. */
+    static final double MAX_REAL_SAMPLES = 4e9;
 
     enum Kind { SCALAR, VECTOR, REAL }
 
@@ -150,6 +152,9 @@ final class VcdReader implements CaptureReader {
     private boolean done;
     private long changes;
     private long lastTime;
+    private String section;
+    private long captureStartFs;
+    private long sectionLine;
 
     /** Reads the declarations. */
     VcdReader(Path file, double realRateHz, int blockChanges, boolean headerOnly) throws IOException {
@@ -196,7 +201,7 @@ final class VcdReader implements CaptureReader {
         List<List<String>> paths = new ArrayList<>();
         while (true) {
             if (!tk.next()) {
-                throw new CaptureFormatException(file, 0, "truncated: the file ends inside the declarations; expected"
+                throw new CaptureFormatException(file, tk.tokLine, "truncated: the file ends inside the declarations; expected"
                         + " $enddefinitions $end");
             }
             if (tk.bytesRead() > MAX_HEADER_BYTES) {
@@ -506,6 +511,10 @@ final class VcdReader implements CaptureReader {
                 pendingTime = false;
             }
             if (!tk.next()) {
+                if (section != null) {
+                    throw new CaptureFormatException(file, tk.tokLine, "truncated: the file ends inside " + section
+                            + " (opened on line " + sectionLine + "); expected $end");
+                }
                 if (!started) {
                     done = true;
                     return false; // declarations only, no value changes
@@ -524,6 +533,10 @@ final class VcdReader implements CaptureReader {
                 if (t < current) {
                     throw err("time goes backwards: #" + (t / unitFs) + " after #" + (current / unitFs)
                             + "; expected non-decreasing times");
+                }
+                if (hasReals && (t - captureStartFs) / realPeriodFs > MAX_REAL_SAMPLES) {
+                    throw err("#" + (t / unitFs) + " would need more than " + MAX_REAL_SAMPLES + " samples per real variable"
+                            + " on the grid of " + Femtos.format(realPeriodFs) + "; expected a lower option 'realRateHz'");
                 }
                 pendingTime = true;
                 pendingFs = t;
@@ -547,6 +560,7 @@ final class VcdReader implements CaptureReader {
 
     private void start(long t) {
         started = true;
+        captureStartFs = t;
         spanStart = t;
         current = t;
         lastTime = t;
@@ -579,10 +593,26 @@ final class VcdReader implements CaptureReader {
     }
 
     private void keyword() throws IOException {
-        if (tk.is("$dumpvars") || tk.is("$dumpall") || tk.is("$end")) {
-            return; // the values inside apply at the current time
+        if (tk.is("$dumpvars") || tk.is("$dumpall") || tk.is("$dumpon")) {
+            if (section != null) {
+                throw err(tk.text() + " inside " + section + "; expected $end first");
+            }
+            section = tk.text();
+            sectionLine = tk.tokLine;
+            if (!tk.is("$dumpon")) {
+                return; // the values inside apply at the current time
+            }
+        } else if (tk.is("$end")) {
+            if (section == null) {
+                throw err("$end without an open $dumpvars, $dumpall or $dumpon");
+            }
+            section = null;
+            return;
         }
         if (tk.is("$dumpoff")) {
+            if (section != null) {
+                throw err("$dumpoff inside " + section + "; expected $end first");
+            }
             setOff(current);
             // the x values listed until $end carry no information
             while (true) {
@@ -597,8 +627,10 @@ final class VcdReader implements CaptureReader {
                         throw truncated("$dumpoff");
                     }
                     findTok(0);
-                } else {
+                } else if ("01xXzZ".indexOf(tk.tok[0]) >= 0) {
                     findTok(1);
+                } else {
+                    throw err("unexpected '" + tk.shown() + "' inside $dumpoff; expected values and $end");
                 }
             }
         } else if (tk.is("$dumpon")) {
