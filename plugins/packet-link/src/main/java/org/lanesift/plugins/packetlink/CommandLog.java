@@ -211,9 +211,12 @@ final class CommandLog {
         return sb.toString().getBytes(StandardCharsets.UTF_8);
     }
 
-    /** Delay in whole milliseconds for replay: under 1 ms is 0, otherwise rounded up; capped at 65535. */
+    /**
+     * Delay in whole milliseconds for replay: under 0.1 ms (commands sent back to back) is 0,
+     * otherwise rounded up so that a replay never waits less than the capture did; capped at 65535.
+     */
     static int replayDelayMs(long delayFs) {
-        if (delayFs < 1_000_000_000_000L) {
+        if (delayFs < 100_000_000_000L) {
             return 0;
         }
         long ms = (delayFs + 999_999_999_999L) / 1_000_000_000_000L;
@@ -230,7 +233,7 @@ final class CommandLog {
                 .append(" * Layout (docs/init-sequence.md): records of\n")
                 .append(" *   kind, command, count_lo, count_hi, params[count], delay_ms_lo, delay_ms_hi\n")
                 .append(" * kind = (virtual channel << 6) | type; type 1 = DCS write, 2 = generic write, 0x00 ends the table.\n")
-                .append(" * Delays: time from the end of a command to the start of the next one; under 1 ms\n")
+                .append(" * Delays: time from the end of a command to the start of the next one; under 0.1 ms\n")
                 .append(" * written as 0, otherwise rounded up to whole ms. Memory writes (pixel data) and reads are left out.\n */\n")
                 .append("#ifndef ").append(sym.toUpperCase(Locale.ROOT)).append("_INIT_H\n#define ").append(sym.toUpperCase(Locale.ROOT))
                 .append("_INIT_H\n\n#include <stdint.h>\n\n")

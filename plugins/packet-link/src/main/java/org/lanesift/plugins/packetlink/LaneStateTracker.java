@@ -62,6 +62,7 @@ final class LaneStateTracker {
     private LaneState committed;
     private long committedStartFs;
     private long lastMatchEndFs = Long.MIN_VALUE;
+    private long lastMatchFs = Long.MIN_VALUE;
     private LaneState candidate;
     private long candidateStartFs;
     private long processedUntilFs = Long.MIN_VALUE;
@@ -163,6 +164,7 @@ final class LaneStateTracker {
         }
         if (s == committed) {
             lastMatchEndFs = t + step;
+            lastMatchFs = t;
             candidate = null;
             return;
         }
@@ -175,17 +177,22 @@ final class LaneStateTracker {
         }
     }
 
-    /** Time before which the lane's state is settled: bits earlier than this may be classified. */
+    /**
+     * Time before which the lane's state is settled: bits earlier than this may be classified.
+     * It is just after the last sample that matched the committed state, since a later sample may
+     * start a new state whose start is only known once it has lasted {@code minStateFs}.
+     */
     long knownUntilFs() {
         if (committed == null) {
-            return candidate == null ? Long.MIN_VALUE : candidateStartFs;
+            return Long.MIN_VALUE;
         }
-        return candidate == null ? processedUntilFs : lastMatchEndFs;
+        return lastMatchFs + 1;
     }
 
     private void commit(LaneState s, long startFs, long matchEndFs) {
         LaneState prev = committed;
         long prevStart = committedStartFs;
+        long prevLastSampleFs = lastMatchFs;
         long prevEnd = prev == null ? startFs : Math.min(lastMatchEndFs, startFs);
         if (prev != null) {
             stateSpan(prev, prevStart, prevEnd);
@@ -193,9 +200,12 @@ final class LaneStateTracker {
         committed = s;
         committedStartFs = startFs;
         lastMatchEndFs = matchEndFs;
+        lastMatchFs = matchEndFs - 1;
         candidate = null;
         if (prev == LaneState.HS && open != null) {
-            open.endFs = prevEnd;
+            // the burst ends just after its last high-speed sample: bits between that sample and the
+            // next state belong to the trail or to the transition and are not used
+            open.endFs = Math.max(open.startFs, prevLastSampleFs + 1);
             open.closed = true;
             open = null;
             if (s == LaneState.LP11) {
@@ -317,7 +327,7 @@ final class LaneStateTracker {
         }
         int dataBits = Math.max(0, n - 8);
         Annotation.Builder b = Annotation.on(track, "escape-command").span(escapeStartFs, atFs)
-                .label("escape command " + name + (cmdBits == 8 ? String.format(Locale.ROOT, " (%8s)", Integer.toBinaryString(cmd)).replace(' ', '0') : ""))
+                .label("escape command " + name + (cmdBits == 8 ? " (" + String.format(Locale.ROOT, "%8s", Integer.toBinaryString(cmd)).replace(' ', '0') + ")" : ""))
                 .severity(cmdBits < 8 || name.equals("unknown") ? Severity.WARNING : Severity.INFO)
                 .field("lane", Field.integer(lane, "")).field("command", Field.enumValue(name))
                 .field("dataBits", Field.integer(dataBits, ""));
