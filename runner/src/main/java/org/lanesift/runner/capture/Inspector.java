@@ -327,13 +327,29 @@ public final class Inspector {
             a.edges = 0;
         }
         a.edges += e.count();
+        long[] sp = e.invalidSpans();
+        int k = 0;
         for (int i = 0; i < e.invalidCount(); i++) {
-            a.unknownFs += e.invalidSpans()[2 * i + 1] - e.invalidSpans()[2 * i];
+            a.unknownFs += sp[2 * i + 1] - sp[2 * i];
         }
         for (int i = 0; i < e.count(); i++) {
-            if (e.levelAfter(i)) {
-                a.risingAt(e.timesFs()[i]);
+            long t = e.timesFs()[i];
+            // an unknown span since the last rising edge breaks the chain of intervals
+            while (k < e.invalidCount() && sp[2 * k] <= t) {
+                if (sp[2 * k + 1] > sp[2 * k]) {
+                    a.lastRisingFs = Long.MIN_VALUE;
+                }
+                k++;
             }
+            if (e.levelAfter(i)) {
+                a.risingAt(t);
+            }
+        }
+        while (k < e.invalidCount()) {
+            if (sp[2 * k + 1] > sp[2 * k]) {
+                a.lastRisingFs = Long.MIN_VALUE;
+            }
+            k++;
         }
     }
 
@@ -417,6 +433,7 @@ public final class Inspector {
             if (!b.isValid(i)) {
                 a.prevV = Double.NaN;
                 a.state = -1;
+                a.lastRisingFs = Long.MIN_VALUE; // no interval across missing samples
                 continue;
             }
             double x = v[i];
@@ -462,9 +479,9 @@ public final class Inspector {
             Double th = valid ? (a.low + a.high) / 2 : null;
             InspectReport.Channel c = new InspectReport.Channel(a.name, a.kind.name(), analogKind ? a.unit : null,
                     analogKind ? a.samples : null, analogKind ? a.invalid : null,
-                    a.kind == DataKind.WORDS ? a.words < 0 ? 0 : a.words : null,
+                    a.kind == DataKind.WORDS ? Long.valueOf(Math.max(0, a.words)) : null,
                     a.kind == DataKind.WORDS ? a.suspectWords : null, a.kind == DataKind.WORDS ? a.widthBits : null,
-                    a.edges >= 0 ? a.edges : (a.kind == DataKind.EDGES ? 0L : null),
+                    a.edges >= 0 ? Long.valueOf(a.edges) : a.kind == DataKind.EDGES ? Long.valueOf(0) : null,
                     a.kind == DataKind.EDGES ? a.unknownFs / 1e15 : null,
                     dur, analogKind && !Double.isNaN(a.periodFs) ? 1e15 / a.periodFs : null,
                     valid ? a.min : null, valid ? a.max : null, valid ? a.low : null, valid ? a.high : null,

@@ -78,6 +78,21 @@ class VcdIcarusTest {
             checkCounter(c);
             checkLevel(c);
         }
+        // inspect sees the clock at 100 MHz: the interval across the dump-off gap is not counted
+        InspectReport rep = Inspector.inspect(vcd, java.util.Map.of());
+        InspectReport.Channel clk = rep.channels().stream().filter(ch -> ch.name().equals("clk")).findFirst().orElseThrow();
+        assertEquals(c0Edges(), clk.edges());
+        assertEquals(43e-9, clk.unknownS(), 1e-15, "x for 3 ns, dump off for 40 ns");
+        assertEquals(java.util.List.of("clk"), rep.clocks().stream().map(InspectReport.Clock::channel).toList());
+        assertEquals(100e6, rep.clocks().get(0).frequencyHz(), 1e-3);
+    }
+
+    private static long c0Edges() {
+        long n = 0;
+        for (long t = 8; t < 412; t += 5) {
+            n += t >= 172 && t < 212 ? 0 : 1;
+        }
+        return n;
     }
 
     private static void checkClock(Collected c) {

@@ -1,0 +1,122 @@
+package org.lanesift.runner.capture;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertNull;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import java.io.BufferedWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.Random;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+/**
+ * inspect on a synthetic capture built so that every answer is known by construction: an LVDS-like
+ * pair (offset 1.2 V, swing +/-175 mV, inside the ANSI/TIA/EIA-644-A driver limits of 247-454 mV
+ * differential and 1.125-1.375 V offset, from memory), a clock of 20 samples per period, and a
+ * single-ended random data line. Noise is far below the hysteresis, so the edge counts are exact.
+ */
+class InspectorTest {
+    static final double RATE = 1e9;
+
+    @Test
+    void levelsEdgesPairsAndClocks(@TempDir Path dir) throws Exception {
+        Path f = dir.resolve("bench.csv");
+        Random r = new Random(11);
+        int n = 40_000;
+        int bitSamples = 10;
+        int pairEdges = 0;
+        int dataEdges = 0;
+        boolean bit = false;
+        boolean dataBit = false;
+        try (BufferedWriter w = Files.newBufferedWriter(f)) {
+            w.write("Time (s),LANE0_P (V),LANE0_N (V),CLK (V),DATA (V)\n");
+            for (int i = 0; i < n; i++) {
+                if (i % bitSamples == 0 && i > 0) {
+                    boolean nb = r.nextBoolean();
+                    pairEdges += nb != bit ? 1 : 0;
+                    bit = nb;
+                    boolean nd = r.nextInt(3) == 0 ? !dataBit : dataBit;
+                    dataEdges += nd != dataBit ? 1 : 0;
+                    dataBit = nd;
+                }
+                double s = bit ? 0.175 : -0.175;
+                double p = 1.2 + s + r.nextGaussian() * 0.003;
+                double m = 1.2 - s + r.nextGaussian() * 0.003;
+                double clk = (i % 20) < 10 ? 0.0 : 3.3;
+                double d = (dataBit ? 3.3 : 0) + r.nextGaussian() * 0.01;
+                w.write(String.format(Locale.ROOT, "%.9e,%.5f,%.5f,%.3f,%.4f%n", i / RATE, p, m, clk, d));
+            }
+        }
+        InspectReport rep = Inspector.inspect(f, Map.of());
+        assertEquals("csv", rep.format());
+        assertEquals(List.of("LANE0_P", "LANE0_N", "CLK", "DATA"), rep.channels().stream().map(InspectReport.Channel::name).toList());
+        InspectReport.Channel p = rep.channels().get(0);
+        assertEquals("ANALOG", p.kind());
+        assertEquals(n, p.samples());
+        assertEquals(RATE, p.sampleRateHz(), 1e-3);
+        assertEquals(n / RATE, p.durationS(), 1e-12);
+        double bin = (p.max() - p.min()) / Inspector.BINS;
+        assertEquals(1.025, p.lowLevel(), 2 * bin);
+        assertEquals(1.375, p.highLevel(), 2 * bin);
+        assertEquals(1.2, p.threshold(), 2 * bin);
+        assertEquals(0.035, p.hysteresis(), 2 * bin);
+        assertEquals(pairEdges, p.edges(), "one edge per change of bit");
+        assertEquals(pairEdges, rep.channels().get(1).edges());
+
+        InspectReport.Channel clk = rep.channels().get(2);
+        assertEquals(0.0, clk.lowLevel(), 3.3 / 256);
+        assertEquals(3.3, clk.highLevel(), 3.3 / 256);
+        assertEquals(2 * (n / 20) - 1, clk.edges(), "a rise and a fall every 20 samples, less the first rise at sample 10");
+        assertEquals(RATE / 20, clk.fundamentalHz(), RATE / 20 * 1e-6);
+        assertEquals(dataEdges, rep.channels().get(3).edges());
+
+        assertEquals(1, rep.pairs().size());
+        assertEquals("LANE0_P", rep.pairs().get(0).first());
+        assertEquals("LANE0_N", rep.pairs().get(0).second());
+        assertTrue(rep.pairs().get(0).correlation() < -0.99, "r = " + rep.pairs().get(0).correlation());
+
+        assertEquals(List.of("CLK"), rep.clocks().stream().map(InspectReport.Clock::channel).toList(),
+                "random data has irregular intervals");
+        assertEquals(RATE / 20, rep.clocks().get(0).frequencyHz(), RATE / 20 * 1e-6);
+        assertTrue(rep.clocks().get(0).periodCv() < 1e-6);
+
+        String text = rep.toText();
+        assertTrue(text.contains("LANE0_P & LANE0_N (r = -"), text);
+        assertTrue(text.contains("CLK 50.00 MHz"), text);
+
+        JsonNode j = new ObjectMapper().readTree(rep.toJson());
+        assertEquals(InspectReport.SCHEMA, j.get("schema").asText());
+        assertEquals(4, j.get("channels").size());
+        assertEquals(pairEdges, j.get("channels").get(0).get("edges").asLong());
+        assertEquals("V", j.get("channels").get(0).get("unit").asText());
+        assertNull(j.get("channels").get(0).get("words"), "fields that do not apply are left out");
+        assertEquals("LANE0_N", j.get("differentialPairs").get(0).get("second").asText());
+        assertEquals("CLK", j.get("clocks").get(0).get("channel").asText());
+    }
+
+    @Test
+    void logicCaptureNeedsOnePass() {
+        InspectReport rep = Inspector.inspect(CsvReaderTest.res("scopes-and-states.vcd"), Map.of("realRateHz", "1e11"));
+        assertEquals("vcd", rep.format());
+        InspectReport.Channel clk = rep.channels().get(0);
+        assertEquals("EDGES", clk.kind());
+        assertEquals(3, clk.edges());
+        assertEquals(100e-12, clk.unknownS(), 1e-18, "dump off from #30 to #40 at 10 ps");
+        InspectReport.Channel word = rep.channels().get(3);
+        assertEquals(5, word.words());
+        assertEquals(3, word.suspectWords());
+        assertEquals(3, word.widthBits());
+        InspectReport.Channel v = rep.channels().get(4);
+        assertEquals(10, v.invalidSamples());
+        assertEquals(-1.25, v.min(), 0);
+        assertEquals(3.0, v.max(), 0);
+        assertTrue(rep.clocks().isEmpty());
+    }
+}
