@@ -93,9 +93,32 @@ final class Run {
         }
     }
 
-    /** Cuts an edge list at the given times (sorted, inside the span). */
+    /**
+     * Cuts an edge list at the given times (sorted, inside the span) with testkit's
+     * {@code Synth.split}, then gives each piece the part of the unknown spans that falls inside it
+     * ({@code Synth.split} drops unknown spans).
+     */
     static List<Edges> cut(Edges e, long[] cuts) {
-        return Synth.split(e, cuts);
+        List<Edges> parts = Synth.split(e, cuts);
+        if (e.invalidCount() == 0) {
+            return parts;
+        }
+        List<Edges> out = new ArrayList<>();
+        for (Edges p : parts) {
+            long[] sp = new long[2 * e.invalidCount()];
+            int n = 0;
+            for (int i = 0; i < e.invalidCount(); i++) {
+                long a = Math.max(p.startFs(), e.invalidSpans()[2 * i]);
+                long b = Math.min(p.endFs(), e.invalidSpans()[2 * i + 1]);
+                if (b > a) {
+                    sp[2 * n] = a;
+                    sp[2 * n + 1] = b;
+                    n++;
+                }
+            }
+            out.add(new Edges(p.channel(), p.startFs(), p.endFs(), p.initialLevel(), p.timesFs(), p.count(), sp, n));
+        }
+        return out;
     }
 
     List<Annotation> of(String kind) {
