@@ -24,6 +24,8 @@ final class LaneBuffer {
     private static final long SEVEN_BYTES = 0x00FFFFFFFFFFFFFFL;
 
     final String name;
+    /** Only the first lane's slot-0 times are kept; the lanes share one clock. */
+    final boolean keepTimes;
     int[] word = new int[1024];
     long[] edge = new long[1024];
     long[] timeFs = new long[1024];
@@ -40,8 +42,9 @@ final class LaneBuffer {
     private long pEdge;
     private long pTime;
 
-    LaneBuffer(String name) {
+    LaneBuffer(String name, boolean keepTimes) {
         this.name = name;
+        this.keepTimes = keepTimes;
     }
 
     int size() {
@@ -117,8 +120,27 @@ final class LaneBuffer {
         int t = tail;
         int i = 0;
         int fastEnd = Math.min(n - 6, slot.length - 7);
+        int runEnd = Math.min(n - 55, slot.length - 56);
+        boolean keep = keepTimes;
         while (i < n) {
             if (pMask == 0) {
+                // runs of 8 pixels: slot pattern checked on every pixel, clock index at both ends only
+                // (the indices of one pixel are equal and never decrease, by the sampler's contract)
+                while (i < runEnd && ce[i + 55] == ce[i] + 7 && run8(slot, i)) {
+                    long e0 = ce[i];
+                    for (int r = 0; r < 8; r++) {
+                        int at = i + 7 * r;
+                        wArr[t + r] = seven(vals, at) | (seven(fl, at) << 7) | COMPLETE;
+                        eArr[t + r] = e0 + r;
+                    }
+                    if (keep) {
+                        for (int r = 0; r < 8; r++) {
+                            tArr[t + r] = ts[i + 7 * r];
+                        }
+                    }
+                    t += 8;
+                    i += 56;
+                }
                 while (i < fastEnd && (((long) LONGS.get(slot, i)) & SEVEN_BYTES) == SLOT_PATTERN && ce[i] == ce[i + 6]) {
                     wArr[t] = seven(vals, i) | (seven(fl, i) << 7) | COMPLETE;
                     eArr[t] = ce[i];
@@ -158,6 +180,17 @@ final class LaneBuffer {
             i++;
         }
         tail = t;
+    }
+
+    private static boolean run8(byte[] slot, int i) {
+        return ((((long) LONGS.get(slot, i)) & SEVEN_BYTES) == SLOT_PATTERN)
+                & ((((long) LONGS.get(slot, i + 7)) & SEVEN_BYTES) == SLOT_PATTERN)
+                & ((((long) LONGS.get(slot, i + 14)) & SEVEN_BYTES) == SLOT_PATTERN)
+                & ((((long) LONGS.get(slot, i + 21)) & SEVEN_BYTES) == SLOT_PATTERN)
+                & ((((long) LONGS.get(slot, i + 28)) & SEVEN_BYTES) == SLOT_PATTERN)
+                & ((((long) LONGS.get(slot, i + 35)) & SEVEN_BYTES) == SLOT_PATTERN)
+                & ((((long) LONGS.get(slot, i + 42)) & SEVEN_BYTES) == SLOT_PATTERN)
+                & ((((long) LONGS.get(slot, i + 49)) & SEVEN_BYTES) == SLOT_PATTERN);
     }
 
     private static boolean bit(long[] a, int i) {

@@ -47,7 +47,7 @@ final class PixelLinkStage implements Stage {
         this.perLink = mapping.laneCount();
         this.lanes = new LaneBuffer[laneNames.size()];
         for (int i = 0; i < lanes.length; i++) {
-            lanes[i] = new LaneBuffer(laneNames.get(i));
+            lanes[i] = new LaneBuffer(laneNames.get(i), i == 0);
         }
         this.tables = mapping.lookupTables(reverse);
         this.timing = new Timing();
@@ -236,9 +236,12 @@ final class PixelLinkStage implements Stage {
         for (int j = 0; j < lanes.length; j++) {
             LaneBuffer l = lanes[j];
             present[j] = l.size() > 0 && l.edge[l.head] == e;
-            if (present[j] && t == Long.MIN_VALUE) {
-                t = l.timeFs[l.head];
-            }
+        }
+        if (present[0]) {
+            t = lanes[0].timeFs[lanes[0].head];
+        } else {
+            // the first lane lacks this clock period: estimate its time from the clock
+            t = prevEdge == Long.MIN_VALUE ? 0 : prevT + Math.max(refDt, 1) * Math.max(1, e - prevEdge);
         }
         boolean stale = prevEdge != Long.MIN_VALUE && e <= prevEdge;
         int gap = stale ? FrameAssembler.GAP : clockCheck(e, t);

@@ -122,6 +122,35 @@ class BadInputTest {
         }
     }
 
+    /** A clock period missing on every lane (the clock index jumps): lost lock inside a run of good pixels. */
+    @Test
+    void droppedClockPeriodIsLostLock() throws Exception {
+        Capture c = FrameAssemblyTest.small(FrameAssemblyTest.SMALL);
+        long victim = 2 * FrameAssemblyTest.SMALL.frameClocks() + 6L * 24 + 11;
+        try (StageHarness h = StageHarness.of(new PixelLinkPlugin(), Map.of("pictures", "none"))) {
+            int n = (int) (c.pixels);
+            int[] words = new int[n];
+            for (int i = 0; i < n; i++) {
+                words[i] = TestLink.word(c.video, c.image, c.firstPixel + i);
+            }
+            List<BitStream> lanes = TestLink.serialise(words, n, c.firstPixel, c.periodFs, TestLink.VESA24, 8, false, false, -1,
+                    TestLink.laneNames(4, false));
+            int cut = (int) (victim - c.firstPixel) * 7;
+            for (BitStream b : lanes) {
+                h.push(b.channel(), TestLink.slice(b, 0, cut));
+            }
+            for (BitStream b : lanes) {
+                h.push(b.channel(), TestLink.slice(b, cut + 7, b.count() - cut - 7));
+            }
+            h.finish();
+            List<Frame> frames = h.outputs("frames", Frame.class);
+            assertEquals(5, frames.size());
+            assertTrue(frames.get(2).partial(), frames.toString());
+            assertTrue(!frames.get(1).partial() && !frames.get(3).partial());
+            assertEquals(1, h.annotations("lost-lock").size());
+        }
+    }
+
     @Test
     void bitsWithoutSlotNumbersAreRejectedClearly() {
         try (StageHarness h = StageHarness.of(new PixelLinkPlugin(), Map.of())) {
