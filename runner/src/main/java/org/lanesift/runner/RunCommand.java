@@ -293,7 +293,7 @@ final class RunCommand implements Callable<Integer> {
             String name = s.name().toLowerCase(Locale.ROOT);
             f.add(n + " " + (s == Severity.INFO ? "info" : name + (n == 1 ? "" : "s")));
         }
-        host.out.println("ran " + shown + ": " + instances + " instances; findings: " + String.join(", ", f));
+        host.out.println("ran " + shown + ": " + instances + (instances == 1 ? " instance" : " instances") + "; findings: " + String.join(", ", f));
         host.out.println("wrote " + outs.dir() + "/: " + String.join(", ", outs.files().keySet()));
     }
 }
