@@ -39,6 +39,8 @@ final class LaneDeserializer {
     double uiFs;
     long lastBitFs = Long.MIN_VALUE;
     long seekBits;
+    /** Bits searched since the last sync was found (or since the start). */
+    long unsyncedBits;
 
     LaneDeserializer(int lane, long syncWire, int syncBits, int wordBits, boolean msbFirst, int groupWords, int maxBits, GroupSink groups) {
         this.lane = lane;
@@ -61,6 +63,7 @@ final class LaneDeserializer {
         clearWords();
         overflow = false;
         seekBits = 0;
+        unsyncedBits = 0;
     }
 
     private void clearWords() {
@@ -97,8 +100,10 @@ final class LaneDeserializer {
                     shift = (shift >>> 1) | (bit << (syncBits - 1));
                     i++;
                     seekBits++;
+                    unsyncedBits++;
                     if (++shiftCount >= syncBits && (shift & mask) == syncWire) {
                         synced = true;
+                        unsyncedBits = 0;
                         syncFoundFs = s.timesFs()[i - 1];
                         break;
                     }

@@ -418,15 +418,12 @@ final class PacketLinkStage implements Stage {
             drainContinuous(true);
             for (Lane l : lanes) {
                 LaneDeserializer d = l.continuous();
-                int rest = cfg.groupWords > 0 ? d.nbits : d.nbits % d.wordBits;
+                long rest = !d.synced ? d.unsyncedBits : cfg.groupWords > 0 ? d.nbits : d.nbits % d.wordBits;
                 if (rest > 0) {
                     ctx.annotate(Annotation.on("words", "trailing-bits").span(d.lastBitFs, d.lastBitFs)
-                            .label(rest + " bits after the last whole " + (cfg.groupWords > 0 ? "group" : "word") + " ignored")
-                            .field("lane", Field.integer(l.index, "")).build());
-                }
-                if (cfg.syncBits > 0 && !d.synced && d.seekBits > 0 && d.completeWords() == 0) {
-                    ctx.annotate(Annotation.on("words", "sync-missing").span(d.lastBitFs, d.lastBitFs).severity(Severity.WARNING)
-                            .label("no sync pattern after the last group on lane " + l.index).field("lane", Field.integer(l.index, "")).build());
+                            .label(rest + " bits after the last whole " + (cfg.groupWords > 0 ? "group" : "word")
+                                    + (d.synced || cfg.syncBits == 0 ? "" : " (no sync pattern in them)") + " ignored")
+                            .field("lane", Field.integer(l.index, "")).field("bits", Field.integer(rest, "")).build());
                 }
             }
         }
