@@ -265,7 +265,7 @@ public final class ProbeTool implements Tool {
         }
         out.println("Assumptions");
         out.println("  - rise time x bandwidth = 0.35 (common practice; ln(9)/(2 pi) = 0.3497 exactly for a single-pole response,"
-                + " up to about 0.45 for instruments with a sharper roll-off)");
+                + " up to about 0.45 for instruments with a sharper roll-off, from memory)");
         out.println("  - rise times of parts in a chain add as the root of the sum of squares (common practice, for"
                 + " Gaussian-like responses without overshoot)");
     }
