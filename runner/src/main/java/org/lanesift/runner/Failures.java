@@ -53,6 +53,9 @@ final class Failures {
             if (isBug(root)) {
                 code = INTERNAL;
                 line = "internal error in instance '" + sf.instanceId() + "': " + root + " (run with --debug for the stack trace)";
+            } else if (writeFailure(sf) != null) {
+                code = BAD_INPUT;
+                line = writeFailure(sf);
             } else {
                 code = BAD_INPUT;
                 String m = describe(root);
@@ -78,6 +81,16 @@ final class Failures {
         }
         err.flush();
         return code;
+    }
+
+    /** The message of an output that could not be written (it names the file), or null. */
+    private static String writeFailure(Throwable t) {
+        for (Throwable c = t; c != null; c = c.getCause() == c ? null : c.getCause()) {
+            if (c instanceof UncheckedIOException u && u.getMessage() != null && u.getMessage().startsWith("cannot ")) {
+                return u.getMessage();
+            }
+        }
+        return null;
     }
 
     /** A message for a root cause; file-system errors otherwise carry only the path. */

@@ -109,8 +109,12 @@ class MainTest {
                 "expected 3 fields, found 2"), err, false));
         assertEquals(1, Failures.report(new org.lanesift.chain.StageFailure("rx", "rx failed",
                 new RuntimeException(new OutOfMemoryError("Java heap space"))), err, false));
+        assertEquals(2, Failures.report(new org.lanesift.chain.StageFailure("src", "src failed",
+                new java.io.UncheckedIOException("cannot write output of src.analog in out: No space left on device",
+                        new java.io.IOException("No space left on device"))), err, false));
         String[] lines = b.toString(java.nio.charset.StandardCharsets.UTF_8).split("\n");
-        assertEquals(5, lines.length);
+        assertEquals(6, lines.length);
+        assertEquals("cannot write output of src.analog in out: No space left on device", lines[5]);
         assertTrue(lines[0].startsWith("out of memory (maximum heap"), lines[0]);
         assertTrue(lines[1].startsWith("internal error: java.lang.IllegalStateException: boom"), lines[1]);
         assertEquals("a.csv line 7: expected 3 fields, found 2", lines[3]);
