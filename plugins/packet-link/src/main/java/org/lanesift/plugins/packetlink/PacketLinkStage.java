@@ -394,7 +394,8 @@ final class PacketLinkStage implements Stage {
 
     static byte[] png(Frame f) {
         java.awt.image.BufferedImage img = new java.awt.image.BufferedImage(f.width(), f.height(), java.awt.image.BufferedImage.TYPE_INT_RGB);
-        img.setRGB(0, 0, f.width(), f.height(), f.rgb(), 0, f.width());
+        int[] dst = ((java.awt.image.DataBufferInt) img.getRaster().getDataBuffer()).getData();
+        System.arraycopy(f.rgb(), 0, dst, 0, f.width() * f.height());
         ByteArrayOutputStream bos = new ByteArrayOutputStream();
         try {
             javax.imageio.ImageIO.write(img, "png", bos);
