@@ -38,7 +38,7 @@ final class EdgeAligner {
     private long[] ref = new long[1024];
     private long refBase;         // global index of ref[0]
     private int refLen;
-    private boolean refPrevLevelKnown;
+    private boolean referenceSeen;      // a reference block arrived
 
     private final long[][] pend;
     private final int[] pendHead;
@@ -96,7 +96,7 @@ final class EdgeAligner {
             System.arraycopy(t, 0, ref, refLen, n);
             refLen += n;
         }
-        refPrevLevelKnown = true;
+        referenceSeen = true;
         if (Double.isNaN(periodFs)) {
             tryNominal(false);
         }
@@ -322,6 +322,6 @@ final class EdgeAligner {
     }
 
     boolean referenceSeen() {
-        return refPrevLevelKnown;
+        return this.referenceSeen;
     }
 }

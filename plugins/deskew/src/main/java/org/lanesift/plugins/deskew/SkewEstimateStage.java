@@ -31,6 +31,7 @@ final class SkewEstimateStage implements Stage {
     private final long minEdges;
     private final TimeValue maxSkew;
     private final String[] names;
+    private final boolean[] named;
     private final String who;
     private EdgeAligner aligner;
     private LegsEstimator legs;
@@ -52,6 +53,7 @@ final class SkewEstimateStage implements Stage {
         this.minEdges = o.getLong("minEdges");
         this.maxSkew = o.getTime("maxSkew");
         this.names = new String[ctx.inputs().size()];
+        this.named = new boolean[names.length];
         for (int i = 0; i < names.length; i++) {
             names[i] = ctx.inputs().get(i).name();
         }
@@ -88,8 +90,9 @@ final class SkewEstimateStage implements Stage {
 
     @Override
     public void accept(int input, Block block) {
-        if (names[input].equals(ctx.inputs().get(input).name()) && block.channel() != null) {
-            names[input] = block.channel();
+        if (!named[input]) {
+            names[input] = block.channel(); // tables and annotations use the channel names the blocks carry
+            named[input] = true;
         }
         firstFs = Math.min(firstFs, block.startFs());
         lastFs = Math.max(lastFs, block.endFs());
