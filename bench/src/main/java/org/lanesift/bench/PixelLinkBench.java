@@ -30,7 +30,7 @@ import org.openjdk.jmh.infra.Blackhole;
 
 /**
  * Pixel link decoding, bit streams to frames, in pixels per second on one core. One invocation is
- * one frame of an invented 640 x 64 picture (800 x 70 total, 24-bit VESA, 4 lanes, pixel clock
+ * one frame of an invented 640 x 14 picture (800 x 20 total, 24-bit VESA, 4 lanes, pixel clock
  * 25.175 MHz) pushed as one block per lane and line. Before each invocation (outside the measured
  * time) the blocks' clock indices and times are moved on by one frame, so the decoder sees one
  * continuous link. {@link #sequentialRead} is a plain read of the same arrays (values, flags,
@@ -48,7 +48,7 @@ public class PixelLinkBench {
     static final int H_SYNC = 96;
     static final int H_BP = 48;
     static final int H_TOT = H_ACT + H_FP + H_SYNC + H_BP;
-    static final int V_ACT = 64;
+    static final int V_ACT = 14;
     static final int V_FP = 2;
     static final int V_SYNC = 2;
     static final int V_BP = 2;
@@ -175,7 +175,7 @@ public class PixelLinkBench {
         return a >= 0 && a < V_ACT ? 0 : 1;
     }
 
-    /** Decodes one frame: 70 line blocks per lane. */
+    /** Decodes one frame: 20 line blocks per lane. */
     @Benchmark
     @OperationsPerInvocation(PIXELS_PER_FRAME)
     public void decodeFrame(Blackhole bh) throws Exception {

@@ -128,10 +128,18 @@ final class LaneBuffer {
                 // (the indices of one pixel are equal and never decrease, by the sampler's contract)
                 while (i < runEnd && ce[i + 55] == ce[i] + 7 && run8(slot, i)) {
                     long e0 = ce[i];
-                    for (int r = 0; r < 8; r++) {
-                        int at = i + 7 * r;
-                        wArr[t + r] = seven(vals, at) | (seven(fl, at) << 7) | COMPLETE;
-                        eArr[t + r] = e0 + r;
+                    long v56 = window56(vals, i);
+                    long f56 = window56(fl, i);
+                    if (f56 == 0) {
+                        for (int r = 0; r < 8; r++) {
+                            wArr[t + r] = ((int) (v56 >>> (7 * r)) & 0x7F) | COMPLETE;
+                            eArr[t + r] = e0 + r;
+                        }
+                    } else {
+                        for (int r = 0; r < 8; r++) {
+                            wArr[t + r] = ((int) (v56 >>> (7 * r)) & 0x7F) | (((int) (f56 >>> (7 * r)) & 0x7F) << 7) | COMPLETE;
+                            eArr[t + r] = e0 + r;
+                        }
                     }
                     if (keep) {
                         for (int r = 0; r < 8; r++) {
@@ -180,6 +188,17 @@ final class LaneBuffer {
             i++;
         }
         tail = t;
+    }
+
+    /** Bits i..i+55 (the caller guarantees they exist). */
+    private static long window56(long[] a, int i) {
+        int w = i >>> 6;
+        int b = i & 63;
+        long v = a[w] >>> b;
+        if (b > 8) {
+            v |= a[w + 1] << (64 - b);
+        }
+        return v;
     }
 
     private static boolean run8(byte[] slot, int i) {

@@ -128,6 +128,9 @@ final class PixelLinkStage implements Stage {
 
     private int fastRun(int m) {
         int nl = lanes.length;
+        if (!dual && nl <= 4) {
+            return fastRunSingle(m, nl);
+        }
         LaneBuffer l0 = lanes[0];
         long[] e0 = l0.edge;
         long[] t0 = l0.timeFs;
@@ -147,29 +150,101 @@ final class PixelLinkStage implements Stage {
             if (fill >= BATCH * 2 - 2) {
                 flush();
             }
-            if (!dual) {
-                int acc = 0;
-                int and = LaneBuffer.COMPLETE;
-                int or = 0;
-                for (int j = 0; j < nl; j++) {
-                    LaneBuffer lj = lanes[j];
-                    int w = lj.word[lj.head + q];
-                    acc |= tables[j][w & 127];
-                    and &= w;
-                    or |= w;
-                }
-                px[fill] = acc | gap | ((or & LaneBuffer.FLAGS) != 0 ? FrameAssembler.SUSPECT : 0)
-                        | (and == 0 ? FrameAssembler.INCOMPLETE : 0);
-                tt[fill++] = t;
-            } else {
-                decodeDual(q, gap, t, null);
-            }
+            decodeDual(q, gap, t, null);
         }
+        consume(q);
+        return q;
+    }
+
+    private void consume(int q) {
         if (q > 0) {
             for (LaneBuffer l : lanes) {
                 l.consumeTo(l.head + q);
             }
         }
+    }
+
+    /** Single link of up to 4 lanes; missing lanes read a constant empty lane. */
+    private int fastRunSingle(int m, int nl) {
+        LaneBuffer l0 = lanes[0];
+        long[] e0 = l0.edge;
+        long[] t0 = l0.timeFs;
+        int[] w0 = l0.word;
+        int h0 = l0.head;
+        int[] tb0 = tables[0];
+        int[] tb1 = tables[1 % nl];
+        int[] tb2 = tables[2 % nl];
+        int[] tb3 = tables[3 % nl];
+        LaneBuffer l1 = lanes[1 % nl];
+        LaneBuffer l2 = lanes[2 % nl];
+        LaneBuffer l3 = lanes[3 % nl];
+        long[] e1 = l1.edge;
+        long[] e2 = l2.edge;
+        long[] e3 = l3.edge;
+        int[] w1 = l1.word;
+        int[] w2 = l2.word;
+        int[] w3 = l3.word;
+        int d1 = l1.head - h0;
+        int d2 = l2.head - h0;
+        int d3 = l3.head - h0;
+        // lanes beyond nl repeat lane 0..: their table contributions are ORed twice, which is harmless
+        int end = h0 + m;
+        int k = h0;
+        int[] pxa = px;
+        long[] tta = tt;
+        int f = fill;
+        long pe = prevEdge;
+        long pt = prevT;
+        long ref = refDt;
+        double sum = sumDt;
+        long cnt = nDt;
+        boolean first = pe == Long.MIN_VALUE;
+        for (; k < end; k++) {
+            long e = e0[k];
+            if (e1[k + d1] != e || e2[k + d2] != e || e3[k + d3] != e) {
+                break;
+            }
+            long t = t0[k];
+            int gap = 0;
+            if (first) {
+                first = false;
+            } else {
+                long dt = t - pt;
+                if (e != pe + 1 || dt <= 0 || (ref > 0 && (2 * dt > 3 * ref || 2 * dt < ref))) {
+                    gap = FrameAssembler.GAP;
+                } else {
+                    ref = dt;
+                    sum += dt;
+                    cnt++;
+                }
+            }
+            pe = e;
+            pt = t;
+            int a = w0[k];
+            int b = w1[k + d1];
+            int c = w2[k + d2];
+            int d = w3[k + d3];
+            int or = a | b | c | d;
+            int and = a & b & c & d;
+            pxa[f] = tb0[a & 127] | tb1[b & 127] | tb2[c & 127] | tb3[d & 127] | gap
+                    | ((or & LaneBuffer.FLAGS) != 0 ? FrameAssembler.SUSPECT : 0)
+                    | ((and & LaneBuffer.COMPLETE) == 0 ? FrameAssembler.INCOMPLETE : 0);
+            tta[f++] = t;
+            if (f == BATCH * 2) {
+                fill = f;
+                flush();
+                f = 0;
+            }
+        }
+        int q = k - h0;
+        clocks += q;
+        fill = f;
+        prevEdge = pe;
+        prevT = pt;
+        refDt = ref;
+        sumDt = sum;
+        nDt = cnt;
+        consume(q);
         return q;
     }
 
