@@ -37,6 +37,7 @@ public final class FakeWave implements PluginProvider {
             .option(OptionSpec.number("startPs", "ps", 0.0, -1e12, 1e12, "time of sample 0"))
             .option(OptionSpec.bool("bug", false, "throw a NullPointerException while producing"))
             .option(OptionSpec.integer("sleepMillis", 0L, 0, 10_000, "pause per block"))
+            .option(OptionSpec.bool("logicOnly", false, "emit only logic, edges and words"))
             .output(PortSpec.of("analog", DataKind.ANALOG, "ramp"))
             .output(PortSpec.of("logic", DataKind.LOGIC, "square"))
             .output(PortSpec.of("edges", DataKind.EDGES, "toggles"))
@@ -59,6 +60,7 @@ public final class FakeWave implements PluginProvider {
         long start = Math.round(ctx.options().getDouble("startPs") * 1000.0);
         boolean bug = ctx.options().getBoolean("bug");
         long sleep = ctx.options().getLong("sleepMillis");
+        boolean logicOnly = ctx.options().getBoolean("logicOnly");
         return new Stage() {
             long k0;
 
@@ -106,7 +108,9 @@ public final class FakeWave implements PluginProvider {
                 long s = t(k0);
                 long e = t(k0 + n);
                 boolean initial = ((k0 == 0 ? 0 : (k0 - 1) / 5) & 1) == 1;
-                ctx.emit(0, new AnalogBlock("ramp", k0, s, p, v, n, anyInv ? inv : null));
+                if (!logicOnly) {
+                    ctx.emit(0, new AnalogBlock("ramp", k0, s, p, v, n, anyInv ? inv : null));
+                }
                 ctx.emit(1, new LogicBlock("square", k0, s, p, bits, n, anyL ? linv : null));
                 ctx.emit(2, new Edges("toggle", s, e, initial, et, edgeCount, null, 0));
                 int nw = 0;
@@ -140,8 +144,10 @@ public final class FakeWave implements PluginProvider {
                         nb++;
                     }
                 }
-                ctx.emit(4, new BitStream("bits", s, e, nb, bv, bt, be, new long[BitSets.words(n)], null, bs, bh,
-                        new long[BitSets.words(n)], 4 * p));
+                if (!logicOnly) {
+                    ctx.emit(4, new BitStream("bits", s, e, nb, bv, bt, be, new long[BitSets.words(n)], null, bs, bh,
+                            new long[BitSets.words(n)], 4 * p));
+                }
                 ctx.annotate(Annotation.on("fake", "block-done").span(s, e).label("block at " + k0)
                         .field("samples", Field.integer(n, "samples")).build());
                 if (k0 <= 100 && 100 < k0 + n) {
@@ -156,6 +162,9 @@ public final class FakeWave implements PluginProvider {
 
             @Override
             public void finish() {
+                if (logicOnly) {
+                    return;
+                }
                 long e = t(total);
                 ctx.emit(5, new Frame("pic", t(0), e, 0, 4, 3,
                         new int[] {0xFF0000, 0x00FF00, 0x0000FF, 0xFFFFFF, 0, 0x123456, 0x654321, 0x808080, 1, 2, 3, 4},
