@@ -36,6 +36,8 @@ final class LinkSynth {
     private final Random rnd = new Random(42);
     long nowFs;
     double noiseVolts = 0.005;
+    /** Duration of the linear ramp between low-power levels (0: instant). */
+    long edgeFs;
 
     LinkSynth(int lanes) {
         this.lanes = lanes;
@@ -195,16 +197,31 @@ final class LinkSynth {
                 case LP00 -> { vp = 0f; vn = 0f; }
                 case HS -> {
                     int bi = (int) ((t - s.bitsStartFs) / UI_FS);
-                    boolean bit = s.bits[Math.min(bi, s.bits.length - 1)];
+                    boolean bit = s.bits != null && s.bits[Math.min(bi, s.bits.length - 1)];
                     vp = bit ? 0.3f : 0.1f;
                     vn = bit ? 0.1f : 0.3f;
                 }
                 default -> { vp = 0.7f; vn = 0.7f; }
             }
+            if (edgeFs > 0 && si > 0 && t - s.startFs < edgeFs && s.state != LaneState.HS && list.get(si - 1).state != LaneState.HS) {
+                float[] prev = levels(list.get(si - 1).state);
+                double a = (t - s.startFs) / (double) edgeFs;
+                vp = (float) (prev[0] + (vp - prev[0]) * a);
+                vn = (float) (prev[1] + (vn - prev[1]) * a);
+            }
             p[i] = vp + (float) (r.nextGaussian() * noiseVolts);
             m[i] = vn + (float) (r.nextGaussian() * noiseVolts);
         }
         return new float[][] {p, m};
+    }
+
+    private static float[] levels(LaneState st) {
+        return switch (st) {
+            case LP11 -> new float[] {1.2f, 1.2f};
+            case LP10 -> new float[] {1.2f, 0f};
+            case LP01 -> new float[] {0f, 1.2f};
+            default -> new float[] {0f, 0f};
+        };
     }
 
     /** All bits of a lane, sorted, as one stream. */
