@@ -48,6 +48,7 @@ final class Comparator {
     private final double periodFs;
     private final boolean cubic;
     private final GapListener gaps;
+    private final TimeBase time;
 
     private float thr;
     private float upper;
@@ -96,6 +97,7 @@ final class Comparator {
         this.periodFs = periodFs;
         this.cubic = cubic;
         this.gaps = gaps;
+        this.time = new TimeBase(originFs, periodFs);
         this.emittedUntil = originFs;
     }
 
@@ -140,10 +142,7 @@ final class Comparator {
 
     /** Time of a fractional sample position, exact to the femtosecond for any capture length. */
     long timeAt(long k, double frac) {
-        double hi = k * periodFs;
-        double lo = Math.fma((double) k, periodFs, -hi);
-        long r = Math.round(hi);
-        return originFs + r + Math.round((hi - r) + lo + frac * periodFs);
+        return time.at(k, frac);
     }
 
     /**
@@ -290,6 +289,11 @@ final class Comparator {
         while (true) {
             if (!high) {
                 final float up = upper;
+                // four samples a test: one branch per four while nothing happens (NaN fails the test too)
+                while (i + 4 <= r1 && (a[ao + i] - b[bo + i] <= up) & (a[ao + i + 1] - b[bo + i + 1] <= up)
+                        & (a[ao + i + 2] - b[bo + i + 2] <= up) & (a[ao + i + 3] - b[bo + i + 3] <= up)) {
+                    i += 4;
+                }
                 while (i < r1 && a[ao + i] - b[bo + i] <= up) {
                     i++;
                 }
@@ -304,10 +308,14 @@ final class Comparator {
                 runStart = i;
             } else {
                 final float lo = lower;
+                while (i + 4 <= r1 && (a[ao + i] - b[bo + i] >= lo) & (a[ao + i + 1] - b[bo + i + 1] >= lo)
+                        & (a[ao + i + 2] - b[bo + i + 2] >= lo) & (a[ao + i + 3] - b[bo + i + 3] >= lo)) {
+                    i += 4;
+                }
                 while (i < r1 && a[ao + i] - b[bo + i] >= lo) {
                     i++;
                 }
-                BitSets.setRange(bits, runStart, i);
+                setBits(bits, runStart, i);
                 if (i >= r1) {
                     return r1;
                 }
@@ -320,6 +328,20 @@ final class Comparator {
         }
     }
 
+    /** Sets bits {@code [from, to)}; runs are usually short, so the one-word case comes first. */
+    private static void setBits(long[] bits, int from, int to) {
+        if (from >= to) {
+            return;
+        }
+        int fw = from >>> 6;
+        int lw = (to - 1) >>> 6;
+        if (fw == lw) {
+            bits[fw] |= (-1L << from) & (-1L >>> -to);
+        } else {
+            BitSets.setRange(bits, from, to);
+        }
+    }
+
     private int fastRunSingle(int r0, int r1) {
         final float[] a = ca;
         final int ao = cao;
@@ -329,6 +351,9 @@ final class Comparator {
         while (true) {
             if (!high) {
                 final float up = upper;
+                while (i + 4 <= r1 && (a[ao + i] <= up) & (a[ao + i + 1] <= up) & (a[ao + i + 2] <= up) & (a[ao + i + 3] <= up)) {
+                    i += 4;
+                }
                 while (i < r1 && a[ao + i] <= up) {
                     i++;
                 }
@@ -342,10 +367,13 @@ final class Comparator {
                 runStart = i;
             } else {
                 final float lo = lower;
+                while (i + 4 <= r1 && (a[ao + i] >= lo) & (a[ao + i + 1] >= lo) & (a[ao + i + 2] >= lo) & (a[ao + i + 3] >= lo)) {
+                    i += 4;
+                }
                 while (i < r1 && a[ao + i] >= lo) {
                     i++;
                 }
-                BitSets.setRange(bits, runStart, i);
+                setBits(bits, runStart, i);
                 if (i >= r1) {
                     return r1;
                 }
@@ -363,16 +391,58 @@ final class Comparator {
         high = rising;
         long floor = Math.max(Math.max(validRunStart, floorIndex), k - MAX_BACK);
         float t = thr;
-        long j = k - 1;
-        if (rising) {
-            while (j >= floor && !(d(j) <= t)) {
-                j--;
+        // common case first: the crossing is inside this chunk, read the arrays directly
+        int lim = (int) Math.max(0, floor - cbase);
+        int jj = i - 1;
+        final float[] a = ca;
+        final int ao = cao;
+        if (cb != null) {
+            final float[] b = cb;
+            final int bo = cbo;
+            if (rising) {
+                while (jj >= lim && a[ao + jj] - b[bo + jj] > t) {
+                    jj--;
+                }
+            } else {
+                while (jj >= lim && a[ao + jj] - b[bo + jj] < t) {
+                    jj--;
+                }
             }
         } else {
-            while (j >= floor && !(d(j) >= t)) {
-                j--;
+            if (rising) {
+                while (jj >= lim && a[ao + jj] > t) {
+                    jj--;
+                }
+            } else {
+                while (jj >= lim && a[ao + jj] < t) {
+                    jj--;
+                }
             }
         }
+        long j;
+        if (jj >= lim) {
+            j = cbase + jj;
+        } else if (lim > 0) {
+            j = floor - 1;
+        } else {
+            // continue in the ring of earlier samples
+            j = cbase + lim - 1;
+            if (rising) {
+                while (j >= floor && !(d(j) <= t)) {
+                    j--;
+                }
+            } else {
+                while (j >= floor && !(d(j) >= t)) {
+                    j--;
+                }
+            }
+        }
+        crossing(i, k, rising, j, floor);
+    }
+
+    /** Times the transition tripped at chunk sample {@code i} (stream index {@code k}) whose last old-side sample is {@code j}. */
+    private void crossing(int i, long k, boolean rising, long j, long floor) {
+        float t = thr;
         if (j < floor) {
             // no threshold crossing within reach: time the crossing of the trip level
             if (k - 1 >= validRunStart) {

@@ -45,30 +45,67 @@ final class LevelAcc {
         samples += s1 - s0;
         long k0 = base + s0;
         long first = ((k0 + stride - 1) / stride) * stride;
-        for (long k = first; k < base + s1; k += stride) {
-            int i = (int) (k - base);
+        int i0 = (int) (first - base);
+        // accumulate in locals (registers), in the same order as one sample at a time, and write back once, so the
+        // sums do not depend on where the segments start
+        long n0 = n[0];
+        long n1 = n[1];
+        double sum0 = sum[0];
+        double sum1 = sum[1];
+        double sq0 = sq[0];
+        double sq1 = sq[1];
+        double cm0 = cmSum[0];
+        double cm1 = cmSum[1];
+        double cq0 = cmSq[0];
+        double cq1 = cmSq[1];
+        double min0 = min[0];
+        double min1 = min[1];
+        double max0 = max[0];
+        double max1 = max[1];
+        for (int i = i0; i < s1; i += stride) {
             if (inv != null && (inv[i >>> 6] & (1L << i)) != 0) {
                 continue;
             }
-            float d = b == null ? a[ao + i] : a[ao + i] - b[bo + i];
+            float x = a[ao + i];
+            float y = b == null ? 0f : b[bo + i];
+            float d = b == null ? x : x - y;
             if (Math.abs(d - thr) < half) {
                 continue;
             }
-            int c = (bits[i >>> 6] & (1L << i)) != 0 ? 1 : 0;
-            n[c]++;
-            sum[c] += d;
-            sq[c] += (double) d * d;
-            if (d < min[c]) {
-                min[c] = d;
+            double cm = 0.5 * ((double) x + y);
+            if ((bits[i >>> 6] & (1L << i)) != 0) {
+                n1++;
+                sum1 += d;
+                sq1 += (double) d * d;
+                min1 = d < min1 ? d : min1;
+                max1 = d > max1 ? d : max1;
+                cm1 += cm;
+                cq1 += cm * cm;
+            } else {
+                n0++;
+                sum0 += d;
+                sq0 += (double) d * d;
+                min0 = d < min0 ? d : min0;
+                max0 = d > max0 ? d : max0;
+                cm0 += cm;
+                cq0 += cm * cm;
             }
-            if (d > max[c]) {
-                max[c] = d;
-            }
-            if (b != null) {
-                double cm = 0.5 * ((double) a[ao + i] + b[bo + i]);
-                cmSum[c] += cm;
-                cmSq[c] += cm * cm;
-            }
+        }
+        n[0] = n0;
+        n[1] = n1;
+        sum[0] = sum0;
+        sum[1] = sum1;
+        sq[0] = sq0;
+        sq[1] = sq1;
+        min[0] = min0;
+        min[1] = min1;
+        max[0] = max0;
+        max[1] = max1;
+        if (b != null) {
+            cmSum[0] = cm0;
+            cmSum[1] = cm1;
+            cmSq[0] = cq0;
+            cmSq[1] = cq1;
         }
         if (inv != null) {
             for (int i = s0; i < s1; i++) {

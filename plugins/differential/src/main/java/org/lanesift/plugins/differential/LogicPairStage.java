@@ -59,11 +59,10 @@ final class LogicPairStage implements Stage {
         this.s = s;
     }
 
+    private TimeBase time;
+
     long timeAt(long k, double frac) {
-        double hi = k * periodFs;
-        double lo = Math.fma((double) k, periodFs, -hi);
-        long r = Math.round(hi);
-        return originFs + r + Math.round((hi - r) + lo + frac * periodFs);
+        return time.at(k, frac);
     }
 
     @Override
@@ -112,6 +111,7 @@ final class LogicPairStage implements Stage {
                 started = true;
                 originFs = p.startFs() + Math.round(po * periodFs);
                 emittedUntil = originFs;
+                time = new TimeBase(originFs, periodFs);
             }
             process(p, po, n, no, len);
             headOffset[0] += len;
