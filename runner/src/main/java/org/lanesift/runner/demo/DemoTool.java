@@ -1,0 +1,406 @@
+package org.lanesift.runner.demo;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.SerializationFeature;
+import com.fasterxml.jackson.databind.node.ObjectNode;
+import java.awt.image.BufferedImage;
+import java.io.ByteArrayOutputStream;
+import java.io.IOException;
+import java.io.PrintStream;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.Iterator;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
+import javax.imageio.ImageIO;
+import org.lanesift.examples.demo.CaptureFiles;
+import org.lanesift.examples.demo.Impairments;
+import org.lanesift.examples.demo.PacketLinkScene;
+import org.lanesift.examples.demo.PixelLinkScene;
+import org.lanesift.plugin.Tool;
+import org.lanesift.runner.Main;
+
+/**
+ * {@code lanesift demo}: writes the invented demo scenario's captures as instrument exports, the
+ * chain files it uses, runs them (three passes per link: leg skew, lane skew, decode) and compares
+ * what was decoded with the scenario's ground truth.
+ */
+public final class DemoTool implements Tool {
+    private static final ObjectMapper JSON = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
+
+    /** Creates the tool (ServiceLoader). */
+    public DemoTool() {
+    }
+
+    @Override
+    public String name() {
+        return "demo";
+    }
+
+    @Override
+    public String summary() {
+        return "runs the main job on the bundled demo scenario and compares it with the scenario's ground truth";
+    }
+
+    @Override
+    public int run(String[] args, PrintStream out, PrintStream err) {
+        Path dir = Path.of("lanesift-demo");
+        for (int i = 0; i < args.length; i++) {
+            switch (args[i]) {
+                case "-h", "--help" -> {
+                    out.println("Usage: lanesift demo [--out DIR]");
+                    out.println("Writes the demo scenario (docs/demo-scenario.md) as instrument exports (raw + sidecar, CSV),");
+                    out.println("the chain files it uses, runs them and compares the result with the scenario's ground truth.");
+                    out.println("  --out DIR   output directory (default lanesift-demo)");
+                    out.println("Exit codes: 0 everything matched, 1 a mismatch or failure, 2 bad arguments.");
+                    return 0;
+                }
+                case "--out" -> {
+                    if (i + 1 >= args.length) {
+                        err.println("demo: --out needs a directory");
+                        return 2;
+                    }
+                    dir = Path.of(args[++i]);
+                }
+                default -> {
+                    err.println("demo: unknown argument '" + args[i] + "'; expected --out DIR or --help");
+                    return 2;
+                }
+            }
+        }
+        try {
+            return new DemoRun(dir, out, err).execute();
+        } catch (IOException e) {
+            err.println("demo: " + e.getMessage());
+            return 1;
+        }
+    }
+
+    /** One run of the demo. */
+    private static final class DemoRun {
+        private final Path dir;
+        private final PrintStream out;
+        private final PrintStream err;
+        private final List<String> summary = new ArrayList<>();
+        private final StringBuilder report = new StringBuilder();
+        private boolean allMatched = true;
+
+        DemoRun(Path dir, PrintStream out, PrintStream err) {
+            this.dir = dir;
+            this.out = out;
+            this.err = err;
+        }
+
+        int execute() throws IOException {
+            long t0 = System.nanoTime();
+            for (String d : new String[] {"captures", "chains", "skew", "pixel", "packet", "work"}) {
+                Files.createDirectories(dir.resolve(d));
+            }
+            out.println("lanesift demo: the invented Tern T-64 (docs/demo-scenario.md), output in " + dir);
+            ExecutorService pool = Executors.newFixedThreadPool(2);
+            try {
+                Future<PixelLinkScene.Truth> pixel = pool.submit(this::pixelLink);
+                Future<PacketLinkScene.Truth> packet = pool.submit(this::packetLink);
+                PixelLinkScene.Truth pt = pixel.get();
+                PacketLinkScene.Truth kt = packet.get();
+                comparePixel(pt);
+                comparePacket(kt);
+            } catch (java.util.concurrent.ExecutionException e) {
+                Throwable c = e.getCause();
+                err.println("demo: " + (c instanceof DemoFailure ? c.getMessage() : String.valueOf(c)));
+                return 1;
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+                return 1;
+            } finally {
+                pool.shutdownNow();
+            }
+            double s = (System.nanoTime() - t0) / 1e9;
+            writeReport(s);
+            for (String line : summary) {
+                out.println("  " + line);
+            }
+            out.printf(Locale.ROOT, "%s in %.1f s; report: %s%n", allMatched ? "everything matched the ground truth"
+                    : "MISMATCHES against the ground truth (see report)", s, dir.resolve("report.md"));
+            return allMatched ? 0 : 1;
+        }
+
+        private void runChain(Map<String, Object> model, String name, Path outDir) throws IOException {
+            Path chain = dir.resolve("chains").resolve(name);
+            JSON.writeValue(chain.toFile(), model);
+            ByteArrayOutputStream o = new ByteArrayOutputStream();
+            ByteArrayOutputStream e = new ByteArrayOutputStream();
+            int code = Main.run(new String[] {"--quiet", "run", chain.toString(), "--out", outDir.toString()},
+                    new PrintStream(o, true, StandardCharsets.UTF_8), new PrintStream(e, true, StandardCharsets.UTF_8));
+            if (code != 0) {
+                throw new DemoFailure("chain " + chain + " failed (exit " + code + "): " + e.toString(StandardCharsets.UTF_8).trim());
+            }
+        }
+
+        /** Merges the per-instance skew tables of a pass into one table, keeping only confident entries. */
+        private Path mergeTables(Path passDir, String prefix, Path target, List<String> notes) throws IOException {
+            ObjectNode merged = JSON.createObjectNode();
+            merged.put("format", "lanesift-skew-table");
+            merged.put("version", 1);
+            merged.put("mode", prefix.startsWith("legs") ? "legs" : "lanes");
+            ObjectNode channels = merged.putObject("channels");
+            try (var files = Files.list(passDir)) {
+                for (Path f : files.filter(p -> p.getFileName().toString().startsWith(prefix)
+                        && p.getFileName().toString().endsWith("-skew.json")).sorted().toList()) {
+                    JsonNode t = JSON.readTree(f.toFile());
+                    Iterator<Map.Entry<String, JsonNode>> it = t.get("channels").fields();
+                    while (it.hasNext()) {
+                        Map.Entry<String, JsonNode> en = it.next();
+                        ObjectNode entry = en.getValue().deepCopy();
+                        double conf = entry.path("confidence").asDouble(1);
+                        if (conf < 0.5) {
+                            notes.add(en.getKey() + ": estimate " + fmt(entry.get("offsetPs").asDouble()) + " ps has confidence "
+                                    + fmt(conf) + ", not applied (0 ps used)");
+                            entry.put("offsetPs", 0.0);
+                            entry.put("method", "manual");
+                        }
+                        channels.set(en.getKey(), entry);
+                    }
+                }
+            }
+            JSON.writeValue(target.toFile(), merged);
+            return target;
+        }
+
+        private PixelLinkScene.Truth pixelLink() throws IOException {
+            PixelLinkScene.Capture c = PixelLinkScene.render(Impairments.pixelLinkDefaults());
+            Path cap = dir.resolve("captures/pixel-link.bin");
+            CaptureFiles.writeRaw(cap, c.channels(), c.volts(), c.sampleRateHz(), 50e-6);
+            List<String> notes = new ArrayList<>();
+            runChain(DemoChains.pixelLegs(cap), "pixel-1-legs.json", dir.resolve("work/pixel-1"));
+            Path legs = mergeTables(dir.resolve("work/pixel-1"), "legs-", dir.resolve("skew/pixel-legs.json"), notes);
+            runChain(DemoChains.pixelLanes(cap, legs), "pixel-2-lanes.json", dir.resolve("work/pixel-2"));
+            Path lanes = mergeTables(dir.resolve("work/pixel-2"), "lanes-", dir.resolve("skew/pixel-lanes.json"), notes);
+            runChain(DemoChains.pixelDecode(cap, legs, lanes), "pixel-3-decode.json", dir.resolve("pixel"));
+            synchronized (this) {
+                pixelNotes.addAll(notes);
+            }
+            return c.truth();
+        }
+
+        private PacketLinkScene.Truth packetLink() throws IOException {
+            PacketLinkScene.Capture c = PacketLinkScene.render(Impairments.packetLinkDefaults());
+            Path cap = dir.resolve("captures/packet-link.csv");
+            CaptureFiles.writeCsv(cap, c.channels(), c.volts(), c.sampleRateHz(), 0);
+            List<String> notes = new ArrayList<>();
+            runChain(DemoChains.packetLegs(cap), "packet-1-legs.json", dir.resolve("work/packet-1"));
+            Path legs = mergeTables(dir.resolve("work/packet-1"), "legs-", dir.resolve("skew/packet-legs.json"), notes);
+            runChain(DemoChains.packetLanes(cap, legs), "packet-2-lanes.json", dir.resolve("work/packet-2"));
+            Path lanes = mergeTables(dir.resolve("work/packet-2"), "lanes-", dir.resolve("skew/packet-lanes.json"), notes);
+            runChain(DemoChains.packetDecode(cap, legs, lanes), "packet-3-decode.json", dir.resolve("packet"));
+            synchronized (this) {
+                packetNotes.addAll(notes);
+            }
+            return c.truth();
+        }
+
+        private final List<String> pixelNotes = new ArrayList<>();
+        private final List<String> packetNotes = new ArrayList<>();
+
+        private void comparePixel(PixelLinkScene.Truth t) throws IOException {
+            report.append("## Part (a): 7:1 pixel link\n\n");
+            int match = 0;
+            int total = 0;
+            List<String> missing = new ArrayList<>();
+            for (int i = 0; i < t.completeFrames().size(); i++) {
+                int k = t.completeFrames().get(i);
+                int[] truth = t.pictures().get(i);
+                Path png = dir.resolve("pixel/panel-frame-" + k + ".png");
+                total += truth.length;
+                if (!Files.exists(png)) {
+                    missing.add(png.getFileName().toString());
+                    continue;
+                }
+                BufferedImage im = ImageIO.read(png.toFile());
+                for (int y = 0; y < PixelLinkScene.V_ACTIVE; y++) {
+                    for (int x = 0; x < PixelLinkScene.H_ACTIVE; x++) {
+                        if (x >= im.getWidth() || y >= im.getHeight()) {
+                            continue;
+                        }
+                        int rgb = im.getRGB(x, y);
+                        // 18-bit colour: the decoder widens 6 bits to 8 by replication; the top 6 bits are the wire bits
+                        int six = (((rgb >> 16) & 0xFF) >> 2) << 12 | (((rgb >> 8) & 0xFF) >> 2) << 6 | ((rgb & 0xFF) >> 2);
+                        if (six == truth[y * PixelLinkScene.H_ACTIVE + x]) {
+                            match++;
+                        }
+                    }
+                }
+            }
+            boolean partialOk = Files.exists(dir.resolve("pixel/panel-frame-0-partial.png"))
+                    && !Files.exists(dir.resolve("pixel/panel-frame-0.png"));
+            check(match == total && missing.isEmpty() && partialOk, String.format(Locale.ROOT,
+                    "pixel link: %d of %d pixels match in %d complete frames%s; partial first frame labelled partial: %s",
+                    match, total, t.completeFrames().size(), missing.isEmpty() ? "" : " (missing " + missing + ")",
+                    partialOk ? "yes" : "NO"));
+            JsonNode timing = JSON.readTree(dir.resolve("pixel/panel-timing.json").toFile());
+            int[] expH = {PixelLinkScene.H_ACTIVE, PixelLinkScene.H_FRONT, PixelLinkScene.H_SYNC, PixelLinkScene.H_BACK, PixelLinkScene.H_TOTAL};
+            int[] expV = {PixelLinkScene.V_ACTIVE, PixelLinkScene.V_FRONT, PixelLinkScene.V_SYNC, PixelLinkScene.V_BACK, PixelLinkScene.V_TOTAL};
+            String[] keys = {"active", "frontPorch", "syncWidth", "backPorch", "total"};
+            boolean timingOk = true;
+            StringBuilder got = new StringBuilder();
+            for (int i = 0; i < keys.length; i++) {
+                int h = timing.path("horizontal").path(keys[i]).path("value").asInt(-1);
+                int v = timing.path("vertical").path(keys[i]).path("value").asInt(-1);
+                timingOk &= h == expH[i] && v == expV[i];
+                got.append(i == 0 ? "" : "/").append(h);
+            }
+            double clk = timing.path("pixelClockHz").path("value").asDouble();
+            timingOk &= Math.abs(clk - t.pixelClockHz()) < 1e-4 * t.pixelClockHz();
+            check(timingOk, String.format(Locale.ROOT, "pixel link timing: H %s, V %d/%d/%d/%d/%d lines, pixel clock %.4f MHz "
+                            + "(truth 64/8/8/8/88, 40/2/2/4/48, 20 MHz)", got,
+                    timing.path("vertical").path("active").path("value").asInt(), timing.path("vertical").path("frontPorch").path("value").asInt(),
+                    timing.path("vertical").path("syncWidth").path("value").asInt(), timing.path("vertical").path("backPorch").path("value").asInt(),
+                    timing.path("vertical").path("total").path("value").asInt(), clk / 1e6));
+            skewLines("pixel link", dir.resolve("skew/pixel-legs.json"), dir.resolve("skew/pixel-lanes.json"),
+                    DemoChains.PIXEL_PAIRS, t.legSkewPs(), t.laneSkewPs(), pixelNotes);
+            JsonNode ring = JSON.readTree(dir.resolve("pixel/ring-ringing.json").toFile()).path("summary");
+            double fn = ring.path("naturalHz").asDouble();
+            double truthFn = Impairments.pixelLinkDefaults().ringFrequencyHz();
+            check(Math.abs(fn - truthFn) < 0.05 * truthFn, String.format(Locale.ROOT,
+                    "probe ringing on CLK_P: natural frequency %.1f MHz, damping %.3f (scenario: %.1f MHz, %.2f)", fn / 1e6,
+                    ring.path("dampingRatio").asDouble(), truthFn / 1e6, Impairments.pixelLinkDefaults().ringDamping()));
+            report.append("Files: `pixel/` (frames `panel-frame-N.png`, `panel-timing.json`/`.txt`, `eye-eye.png`, ")
+                    .append("`sampler-margins.json`, `ring-ringing.json`, `jitter-jitter.json`, `report.md` of the decode pass).\n\n");
+        }
+
+        private void comparePacket(PacketLinkScene.Truth t) throws IOException {
+            report.append("## Part (b): packet link\n\n");
+            JsonNode log = JSON.readTree(dir.resolve("packet/dsi-commands.json").toFile()).path("commands");
+            int match = 0;
+            int n = t.commands().size();
+            List<String> diffs = new ArrayList<>();
+            for (int i = 0; i < n; i++) {
+                PacketLinkScene.Command c = t.commands().get(i);
+                JsonNode d = log.path(i);
+                boolean memory = c.command() == 0x2C || c.command() == 0x3C;
+                boolean ok = d.isObject() && Integer.decode(d.path("command").asText("-1")) == c.command()
+                        && Integer.decode(d.path("dataType").asText("-1")) == c.dataType()
+                        && (memory || d.path("params").asText("").equals(hex(c.params())));
+                if (ok) {
+                    match++;
+                } else if (diffs.size() < 5) {
+                    diffs.add("#" + i + " expected " + String.format("%02X", c.command()) + " " + hex(c.params()) + ", got " + d);
+                }
+            }
+            boolean extra = log.size() != n;
+            check(match == n && !extra, "packet link: " + match + " of " + n + " commands match (type, command, parameters)"
+                    + (extra ? "; decoded " + log.size() + " commands" : "") + (diffs.isEmpty() ? "" : "; first differences: " + diffs));
+            int pm = 0;
+            int pt = 0;
+            for (int k = 0; k < t.pictures().size(); k++) {
+                int[] truth = t.pictures().get(k);
+                pt += truth.length;
+                Path png = dir.resolve("packet/dsi-frame-" + k + ".png");
+                if (!Files.exists(png)) {
+                    continue;
+                }
+                BufferedImage im = ImageIO.read(png.toFile());
+                for (int y = 0; y < Math.min(im.getHeight(), PacketLinkScene.HEIGHT); y++) {
+                    for (int x = 0; x < Math.min(im.getWidth(), PacketLinkScene.WIDTH); x++) {
+                        if ((im.getRGB(x, y) & 0xFFFFFF) == truth[y * PacketLinkScene.WIDTH + x]) {
+                            pm++;
+                        }
+                    }
+                }
+            }
+            check(pm == pt, "packet link: " + pm + " of " + pt + " pixels match in " + t.pictures().size() + " frames");
+            skewLines("packet link", dir.resolve("skew/packet-legs.json"), dir.resolve("skew/packet-lanes.json"),
+                    DemoChains.PACKET_PAIRS, t.legSkewPs(), t.laneSkewPs(), packetNotes);
+            report.append("Files: `packet/` (`dsi-commands.json`/`.csv`, the init sequence `dsi-init.h`, frames `dsi-frame-N.png`, ")
+                    .append("`dsi-timing.json`, `report.md` of the decode pass).\n\n");
+        }
+
+        /** Skew errors: the corrections should be minus the injected skews. */
+        private void skewLines(String link, Path legs, Path lanes, String[][] pairs, double[] legTruth, double[] laneTruth,
+                               List<String> notes) throws IOException {
+            JsonNode lg = JSON.readTree(legs.toFile()).path("channels");
+            JsonNode ln = JSON.readTree(lanes.toFile()).path("channels");
+            StringBuilder legText = new StringBuilder();
+            double worst = 0;
+            for (int k = 0; k < pairs.length; k++) {
+                double corr = lg.path(pairs[k][2]).path("offsetPs").asDouble() - lg.path(pairs[k][1]).path("offsetPs").asDouble();
+                double errPs = corr + legTruth[k];
+                boolean applied = !lg.path(pairs[k][2]).path("method").asText().equals("manual");
+                legText.append(String.format(Locale.ROOT, "%s%s %+.1f ps (truth %+.0f, error %s)", k == 0 ? "" : ", ", pairs[k][2],
+                        -corr, legTruth[k], applied ? String.format(Locale.ROOT, "%.1f ps", errPs) : "not estimated"));
+                if (applied) {
+                    worst = Math.max(worst, Math.abs(errPs));
+                }
+            }
+            StringBuilder laneText = new StringBuilder();
+            double worstLane = 0;
+            for (int k = 1; k < pairs.length; k++) {
+                double corr = ln.path(pairs[k][0]).path("offsetPs").asDouble() - ln.path(pairs[0][0]).path("offsetPs").asDouble();
+                double errPs = corr + laneTruth[k - 1];
+                worstLane = Math.max(worstLane, Math.abs(errPs));
+                laneText.append(String.format(Locale.ROOT, "%s%s %+.1f ps (truth %+.0f, error %.1f ps)", k == 1 ? "" : ", ", pairs[k][0],
+                        -corr, laneTruth[k - 1], errPs));
+            }
+            check(worst < 15 && worstLane < 25, link + " skew of N legs against P: " + legText);
+            summary.add(link + " skew of data pairs against the clock pair: " + laneText);
+            report.append("- ").append(link).append(" skew of data pairs against the clock pair: ").append(laneText).append('\n');
+            for (String note : notes) {
+                summary.add(link + " note: " + note);
+                report.append("- note: ").append(note).append('\n');
+            }
+            report.append('\n');
+        }
+
+        private void check(boolean ok, String line) {
+            allMatched &= ok;
+            summary.add((ok ? "" : "MISMATCH: ") + line);
+            report.append("- ").append(ok ? "" : "**MISMATCH** ").append(line).append('\n');
+        }
+
+        private void writeReport(double seconds) throws IOException {
+            StringBuilder r = new StringBuilder();
+            r.append("# Lanesift demo report\n\n");
+            r.append("Scenario: the invented Tern T-64 (docs/demo-scenario.md). Captures in `captures/`, the chain files that ")
+                    .append("ran in `chains/` (copy them for your own captures: `./lanesift run chains/pixel-3-decode.json ")
+                    .append("--input cap=YOUR.bin`), merged skew tables in `skew/`, intermediate passes in `work/`.\n\n");
+            r.append("Each link was decoded in three passes: (1) skew between the legs of every pair (cross-correlation), ")
+                    .append("(2) legs corrected, skew of every data pair against the clock pair, (3) both corrected, then sampling ")
+                    .append("and decoding. Skews are reported as measured (the correction is their negative).\n\n");
+            r.append(report);
+            r.append(String.format(Locale.ROOT, "Result: %s (%.1f s).%n", allMatched ? "everything matched the ground truth"
+                    : "mismatches against the ground truth", seconds));
+            Files.writeString(dir.resolve("report.md"), r.toString());
+        }
+
+        private static String hex(byte[] b) {
+            StringBuilder s = new StringBuilder();
+            for (byte x : b) {
+                if (s.length() > 0) {
+                    s.append(' ');
+                }
+                s.append(String.format("%02X", x & 0xFF));
+            }
+            return s.toString();
+        }
+
+        private static String fmt(double d) {
+            return String.format(Locale.ROOT, "%.3g", d);
+        }
+    }
+
+    /** A chain of the demo failed. */
+    private static final class DemoFailure extends RuntimeException {
+        private static final long serialVersionUID = 1L;
+
+        DemoFailure(String m) {
+            super(m);
+        }
+    }
+}
