@@ -55,28 +55,43 @@ public final class EyeAccumulator {
     public double accumulate(float[] volts, int from, int to, double phaseBins, double stepBins) {
         final int w = widthBins;
         final int h = heightBins;
-        final double wd = w;
         final float min = minVolts;
         final float scale = binsPerVolt;
         final int[] c = counts;
-        double p = phaseBins - Math.floor(phaseBins / wd) * wd;
-        double step = stepBins - Math.floor(stepBins / wd) * wd;
+        // the phase runs in 32.32 fixed point: a one-cycle add in the loop-carried chain, exact to carry over
+        final long wFix = (long) w << FRAC;
+        long p = toFixed(phaseBins, w);
+        final long step = toFixed(stepBins, w);
         long in = 0;
         for (int i = from; i < to; i++) {
             float fy = (volts[i] - min) * scale;
-            int x = (int) p;
+            int x = (int) (p >>> FRAC);
             if (fy >= 0f && fy < h) {
-                c[(int) fy * w + (x < w ? x : w - 1)]++;
+                c[(int) fy * w + x]++;
                 in++;
             }
             p += step;
-            if (p >= wd) {
-                p -= wd;
+            if (p >= wFix) {
+                p -= wFix;
             }
         }
         inRange += in;
         outOfRange += (to - from) - in;
-        return p;
+        return p * (1.0 / (1L << FRAC));
+    }
+
+    /** Fixed-point fraction bits of the phase. */
+    private static final int FRAC = 32;
+
+    /** A phase in bins folded into [0, w) as 32.32 fixed point; exact for values this class returned. */
+    private static long toFixed(double bins, int w) {
+        double f = bins - Math.floor(bins / w) * w;
+        long v = (long) Math.floor(f * (1L << FRAC));
+        long wFix = (long) w << FRAC;
+        if (v >= wFix) {
+            v -= wFix;
+        }
+        return v < 0 ? 0 : v;
     }
 
     /**
@@ -97,30 +112,30 @@ public final class EyeAccumulator {
         }
         final int w = widthBins;
         final int h = heightBins;
-        final double wd = w;
-        double p = phaseBins - Math.floor(phaseBins / wd) * wd;
-        double step = stepBins - Math.floor(stepBins / wd) * wd;
+        final long wFix = (long) w << FRAC;
+        long p = toFixed(phaseBins, w);
+        final long step = toFixed(stepBins, w);
         long in = 0;
         long skipped = 0;
         for (int i = from; i < to; i++) {
             if ((invalid[i >>> 6] & (1L << i)) == 0) {
                 float fy = (volts[i] - minVolts) * binsPerVolt;
-                int x = (int) p;
+                int x = (int) (p >>> FRAC);
                 if (fy >= 0f && fy < h) {
-                    counts[(int) fy * w + (x < w ? x : w - 1)]++;
+                    counts[(int) fy * w + x]++;
                     in++;
                 }
             } else {
                 skipped++;
             }
             p += step;
-            if (p >= wd) {
-                p -= wd;
+            if (p >= wFix) {
+                p -= wFix;
             }
         }
         inRange += in;
         outOfRange += (to - from) - in - skipped;
-        return p;
+        return p * (1.0 / (1L << FRAC));
     }
 
     /**

@@ -137,7 +137,7 @@ final class EyeRenderer {
         g.drawString(title, 12, 20);
         g.setFont(Plot.FONT);
         String sub = String.format(Locale.ROOT, "height %s mV, width %s ps (%s UI) at %s UI; threshold %.1f mV",
-                fmt(e.eyeHeightMv), fmt(e.eyeWidthPs()), fmt(e.eyeWidthUi), fmt(e.samplePointUi), e.thresholdMv);
+                fmt(e.eyeHeightMv), fmt(e.eyeWidthPs()), fmt(e.eyeWidthUi), fmt(e.samplePointUi), Math.abs(e.thresholdMv) < 0.05 ? 0.0 : e.thresholdMv);
         if (e.mask != null) {
             sub += "; mask hits " + e.totalMaskHits();
         }

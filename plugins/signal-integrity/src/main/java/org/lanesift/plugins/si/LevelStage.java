@@ -110,7 +110,7 @@ abstract class LevelStage implements Stage {
         long g = b.firstIndex();
         long[] inv = b.invalid();
         for (int i = 0; i < b.length(); i++) {
-            if (inv != null && (inv[i >>> 6] & (1L << i)) != 0) {
+            if (inv != null && (inv[i >>> 6] & (1L << i)) != 0 || !Float.isFinite(v[i])) {
                 tracker.gap();
                 continue;
             }

@@ -112,4 +112,24 @@ class EdgeMetricsPluginTest {
         assertEquals(json(one), json(many));
         assertTrue(num(json(one), "risingEdges") >= 7);
     }
+
+    @Test
+    void invalidAndNonFiniteSamplesBreakNothing() {
+        double tau = 100e-12;
+        AnalogBlock clean = Synth.analog("rc", 200 / tau, 8 * 2 * 20 * 200, square(20 * tau, t -> 1 - Math.exp(-t / tau)));
+        float[] v = clean.volts().clone();
+        long[] inv = new long[(v.length + 63) / 64];
+        // mark a stretch in the middle of the third half period invalid and put a NaN in the sixth
+        for (int i = 2 * 4000 + 1000; i < 2 * 4000 + 1500; i++) {
+            inv[i >>> 6] |= 1L << i;
+            v[i] = 55f;
+        }
+        v[5 * 4000 + 2000] = Float.NaN;
+        AnalogBlock b = new AnalogBlock("rc", 0, 0, clean.periodFs(), v, v.length, inv);
+        StageHarness h = StageHarness.of(new EdgeMetricsPlugin(), Map.of("levelsVolts", List.of(0.0, 1.0)));
+        h.push("signal", b).finish();
+        String j = json(h);
+        assertEquals(0.3497, in(j, "rise1090", "mean") * 1e-12 * (1 / (2 * Math.PI * tau)), 5e-4, j);
+        assertEquals(0, in(j, "overshoot", "max"), 1e-3, j);
+    }
 }

@@ -17,6 +17,10 @@ import java.util.Map;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import javax.imageio.ImageIO;
+import net.jqwik.api.ForAll;
+import net.jqwik.api.Property;
+import net.jqwik.api.constraints.DoubleRange;
+import net.jqwik.api.constraints.IntRange;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.lanesift.annotation.Annotation;
@@ -119,6 +123,62 @@ class EyeDiagramPluginTest {
         String j = jsonOf(h, "-eye.json");
         assertEquals(400, num(j, "eyeHeightMv"), 2 * num(j, "binMv"), j);
         assertEquals(1000, num(j, "clockEdges"));
+    }
+
+    @Test
+    void interleavedClockAndSignalBlocksGiveTheSameEye() {
+        AnalogBlock sig = SynthSignals.nrz(3_000, UI_FS, RATE, 0.2, 200e3, 10e3, 0.01, 8);
+        long[] t = new long[3_000];
+        for (int i = 0; i < t.length; i++) {
+            t[i] = Math.round(i * UI_FS);
+        }
+        Edges clk = Edges.of("clk", 0, Math.round(3_000 * UI_FS), false, t);
+        Map<String, Object> o = Map.of("clockEdge", "both", "uiCount", 1);
+        StageHarness one = StageHarness.of(new EyeDiagramPlugin(), o);
+        one.push("clock", clk).push("signal", sig).finish();
+        StageHarness many = StageHarness.of(new EyeDiagramPlugin(), o);
+        List<AnalogBlock> sb = Synth.split(sig, 10_000);
+        List<Edges> cb = Synth.split(clk, Math.round(500 * UI_FS), Math.round(1000 * UI_FS), Math.round(2000 * UI_FS));
+        int k = 0;
+        for (AnalogBlock b : sb) {
+            while (k < cb.size() && cb.get(k).startFs() <= b.startFs()) {
+                many.push("clock", cb.get(k++));
+            }
+            many.push("signal", b);
+        }
+        while (k < cb.size()) {
+            many.push("clock", cb.get(k++));
+        }
+        many.finish();
+        assertEquals(jsonOf(one, "-eye.json"), jsonOf(many, "-eye.json"));
+        String j = jsonOf(one, "-eye.json");
+        // +/-10 ps uniform jitter: width 1000 - 20 - (noise 10 mV / 2 mV/ps = 5 ps each side) = 970 ps
+        assertEquals(970, num(j, "eyeWidthPs"), 3 * num(j, "binPs"), j);
+        for (Artifact a : one.outputs("files", Artifact.class)) {
+            SynthSignals.save(new Artifact(a.channel(), a.startFs(), a.endFs(), "clocked-" + a.fileName(), a.mediaType(), a.content()));
+        }
+    }
+
+    @Property(tries = 50)
+    void accumulatingInPiecesEqualsOnePass(@ForAll @IntRange(min = 1, max = 5000) int cut1,
+                                           @ForAll @IntRange(min = 1, max = 5000) int cut2,
+                                           @ForAll @DoubleRange(min = 0.01, max = 300) double step) {
+        float[] v = new float[10_000];
+        java.util.Random r = new java.util.Random(cut1 * 31L + cut2);
+        for (int i = 0; i < v.length; i++) {
+            v[i] = (float) (r.nextGaussian() * 0.2);
+        }
+        EyeAccumulator a = new EyeAccumulator(300, 50, -0.5, 0.5);
+        a.accumulate(v, 0, v.length, 17.25, step);
+        EyeAccumulator b = new EyeAccumulator(300, 50, -0.5, 0.5);
+        int c1 = Math.min(cut1, cut2);
+        int c2 = Math.max(cut1, cut2);
+        double p = b.accumulate(v, 0, c1, 17.25, step);
+        p = b.accumulate(v, c1, c2, p, step);
+        b.accumulate(v, c2, v.length, p, step);
+        assertArrayEquals(a.counts(), b.counts());
+        assertEquals(a.inRange() + a.outOfRange(), v.length);
+        assertEquals(a.outOfRange(), b.outOfRange());
     }
 
     @Test

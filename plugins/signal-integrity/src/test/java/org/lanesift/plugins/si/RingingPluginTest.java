@@ -55,6 +55,14 @@ class RingingPluginTest {
         String advice = a.fields().get("advice").value().toString();
         assertTrue(advice.contains("158 MHz") && advice.contains("10 cm ground lead") && advice.contains("ground spring"), advice);
         SynthSignals.save(h.outputs("files", Artifact.class).get(0));
+
+        // the same simulated waveform through edge-metrics: second-order step overshoot (textbook)
+        // exp(-pi zeta / sqrt(1 - zeta^2)) = 72.9 % for zeta = 0.1
+        StageHarness em = StageHarness.of(new EdgeMetricsPlugin(), Map.of("levelsVolts", List.of(0.0, 1.0)));
+        em.push("signal", sig).finish();
+        String ej = EdgeMetricsPluginTest.json(em);
+        assertEquals(100 * Math.exp(-Math.PI * 0.1 / Math.sqrt(0.99)), in(ej, "overshoot", "mean"), 0.5, ej);
+        assertEquals(100 * Math.exp(-Math.PI * 0.1 / Math.sqrt(0.99)), in(ej, "undershoot", "mean"), 0.5, ej);
     }
 
     @Test
