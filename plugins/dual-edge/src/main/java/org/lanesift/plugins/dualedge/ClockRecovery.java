@@ -59,6 +59,12 @@ final class ClockRecovery {
     boolean inverted;
     private boolean dutyDecided;
     private boolean finished;
+    private boolean pausedFull;
+    private long timeLimit = Long.MAX_VALUE;
+    private int maxAccepted = Integer.MAX_VALUE;
+    private static final int TRACK_DONE = 0;
+    private static final int TRACK_PAUSED = 1;
+    private static final int TRACK_REACQUIRE = 2;
     private boolean stoppedAtEnd;
     private boolean gaveUp;
 
@@ -69,8 +75,9 @@ final class ClockRecovery {
     long dropouts;
     long restarts;
     long periodCount;
-    double periodMean;
-    double periodM2;
+    private double periodRef;
+    private double periodSum;
+    private double periodSumSq;
     double periodMin = Double.POSITIVE_INFINITY;
     double periodMax = Double.NEGATIVE_INFINITY;
     long dutyCount;
@@ -93,13 +100,30 @@ final class ClockRecovery {
      * @param horizon   every clock transition before this time is known
      * @param finishing true when no more input will come
      */
-    void run(long horizon, boolean finishing) {
+    boolean run(long horizon, boolean finishing) {
+        return run(horizon, finishing, Long.MAX_VALUE, Integer.MAX_VALUE);
+    }
+
+    /**
+     * Advances as far as the known transitions allow, pausing early to keep the working set small.
+     *
+     * @param horizon     every clock transition before this time is known
+     * @param finishing   true when no more input will come
+     * @param timeLimit   do not look at transitions later than this (ignored when finishing)
+     * @param maxAccepted pause once this many accepted edges wait for the planner
+     * @return true if it paused because {@code maxAccepted} edges are waiting (call again)
+     */
+    boolean run(long horizon, boolean finishing, long timeLimit, int maxAccepted) {
+        pausedFull = false;
+        this.timeLimit = finishing ? Long.MAX_VALUE : timeLimit;
+        this.maxAccepted = maxAccepted;
         if (!q.started || gaveUp) {
             if (finishing) {
                 finish(horizon);
             }
-            return;
+            return false;
         }
+        boolean paused = false;
         while (true) {
             if (acquiring) {
                 int r = acquire(finishing);
@@ -110,18 +134,24 @@ final class ClockRecovery {
                     continue;
                 }
             }
-            if (track(horizon, finishing)) {
+            int t = track(horizon, finishing);
+            if (t == TRACK_PAUSED) {
+                paused = true;
+                break;
+            }
+            if (t == TRACK_DONE) {
                 break;
             }
             // a dropout sent the tracker back to acquisition
         }
-        if (finishing) {
+        if (finishing && !paused) {
             finish(horizon);
         }
         q.discardBefore(pending ? pendingRaw : pos);
         if (haveLast) {
             q.discardSpansBefore(lastFinalT - (haveP ? (long) (2 * periodFs) : 0));
         }
+        return pausedFull;
     }
 
     private void finish(long horizon) {
@@ -265,12 +295,19 @@ final class ClockRecovery {
         }
     }
 
-    /** @return false if a dropout sent the tracker back to acquisition */
-    private boolean track(long horizon, boolean finishing) {
+    /** @return {@link #TRACK_DONE}, {@link #TRACK_PAUSED}, or {@link #TRACK_REACQUIRE} after a dropout */
+    private int track(long horizon, boolean finishing) {
         final long end = q.globalEnd();
         final double minW = cfg.glitchFraction() * periodFs;
         while (pos < end) {
             long t = q.time(pos);
+            if (accCount >= maxAccepted) {
+                pausedFull = true;
+                return TRACK_PAUSED;
+            }
+            if (t > timeLimit) {
+                return TRACK_PAUSED;
+            }
             if (pending) {
                 long w = t - pendingT;
                 if (w < minW) {
@@ -283,7 +320,7 @@ final class ClockRecovery {
                             continue;
                         }
                     } else if (!finishing && horizon <= t + w) {
-                        return true; // the next transition decides; wait for it
+                        return TRACK_DONE; // the next transition decides; wait for it
                     }
                     glitch(pendingT, t);
                     pending = false;
@@ -291,7 +328,7 @@ final class ClockRecovery {
                     continue;
                 }
                 if (!finalizePending()) {
-                    return false;
+                    return TRACK_REACQUIRE;
                 }
             }
             pending = true;
@@ -300,10 +337,10 @@ final class ClockRecovery {
             pendingRising = q.rising(pos);
             pos++;
         }
-        if (pending && (finishing || horizon > pendingT + minW)) {
-            return finalizePending();
+        if (pending && (finishing || horizon > pendingT + minW) && pendingT <= timeLimit) {
+            return finalizePending() ? TRACK_DONE : TRACK_REACQUIRE;
         }
-        return true;
+        return TRACK_DONE;
     }
 
     private void glitch(long a, long b) {
@@ -340,10 +377,13 @@ final class ClockRecovery {
         if (haveSame[d]) {
             double iv = t - lastSame[d];
             periodFs += (iv - periodFs) * ALPHA;
+            if (periodCount == 0) {
+                periodRef = iv;
+            }
             periodCount++;
-            double delta = iv - periodMean;
-            periodMean += delta / periodCount;
-            periodM2 += delta * (iv - periodMean);
+            double dv = iv - periodRef;
+            periodSum += dv;
+            periodSumSq += dv * dv;
             if (iv < periodMin) {
                 periodMin = iv;
             }
@@ -444,8 +484,16 @@ final class ClockRecovery {
         accCount -= n;
     }
 
+    double periodMean() {
+        return periodCount > 0 ? periodRef + periodSum / periodCount : periodFs;
+    }
+
     double periodStd() {
-        return periodCount > 1 ? Math.sqrt(periodM2 / (periodCount - 1)) : 0;
+        if (periodCount < 2) {
+            return 0;
+        }
+        double v = (periodSumSq - periodSum * periodSum / periodCount) / (periodCount - 1);
+        return Math.sqrt(Math.max(0, v));
     }
 
     boolean finished() {

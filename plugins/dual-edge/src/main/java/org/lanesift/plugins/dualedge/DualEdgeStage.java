@@ -48,11 +48,11 @@ final class DualEdgeStage implements Stage {
         lanes = new LaneSampler[cfg.lanes()];
         for (int i = 0; i < cfg.lanes(); i++) {
             laneQ[i] = new EdgeQueue("lane" + i);
-            lanes[i] = new LaneSampler(i, laneQ[i]);
+            lanes[i] = new LaneSampler(i, laneQ[i], cfg.marginThreshold());
         }
         cr = new ClockRecovery(cfg, clockQ, notes);
         planner = new SamplePlanner(cfg);
-        sb = new SampleBuf(cfg.marginThreshold());
+        sb = new SampleBuf();
         if (!cfg.autoPhase()) {
             phaseKnown = true;
             phaseIsUi = cfg.phaseIsUi();
@@ -93,22 +93,36 @@ final class DualEdgeStage implements Stage {
         notes.flushAll();
     }
 
+    /** Accepted clock edges handled per pass, so that the working arrays stay in the cache. */
+    static final int CHUNK = 4096;
+
     private void advance(boolean finishing) {
         long hClock = clockQ.started ? clockQ.endFs : Long.MIN_VALUE;
-        cr.run(hClock, finishing);
-        planner.consume(cr, sb, hClock, clockQ.started ? clockQ.endFs : Long.MIN_VALUE);
         long hData = Long.MAX_VALUE;
         for (EdgeQueue q : laneQ) {
             hData = Math.min(hData, q.started ? q.endFs : Long.MIN_VALUE);
         }
-        if (!phaseKnown) {
-            search(hData, finishing);
-        }
-        if (phaseKnown) {
-            sb.applyPhase(phaseIsUi, phaseUi, phaseFs);
-            emitReady(hData, finishing);
-        }
-        discardOld();
+        // look at the clock only a little ahead of the data; the rest waits in the queue
+        long limit = hData == Long.MIN_VALUE ? Long.MIN_VALUE
+                : cr.haveP ? satAdd(hData, (long) (4 * cr.periodFs)) : Long.MAX_VALUE;
+        boolean more;
+        do {
+            more = cr.run(hClock, finishing, limit, CHUNK);
+            planner.consume(cr, sb, hClock, clockQ.started ? clockQ.endFs : Long.MIN_VALUE);
+            if (!phaseKnown) {
+                search(hData, finishing);
+            }
+            if (phaseKnown) {
+                sb.applyPhase(phaseIsUi, phaseUi, phaseFs);
+                emitReady(hData, finishing && !more);
+            }
+            discardOld();
+        } while (more);
+    }
+
+    private static long satAdd(long a, long b) {
+        long r = a + b;
+        return ((a ^ r) & (b ^ r)) < 0 ? Long.MAX_VALUE : r;
     }
 
     private void search(long hData, boolean finishing) {
@@ -159,18 +173,25 @@ final class DualEdgeStage implements Stage {
     }
 
     private void emitReady(long hData, boolean finishing) {
-        int ready;
-        if (finishing) {
-            ready = sb.n;
-        } else {
-            ready = 0;
-            while (ready < sb.n && sb.s[ready] + (long) Math.ceil(sb.ui[ready]) < hData) {
-                ready++;
+        while (true) {
+            int ready;
+            int cap = Math.min(sb.n, 2 * CHUNK);
+            if (finishing) {
+                ready = cap;
+            } else {
+                ready = 0;
+                while (ready < cap && sb.s[ready] + (long) Math.ceil(sb.ui[ready]) < hData) {
+                    ready++;
+                }
             }
+            if (ready == 0) {
+                return;
+            }
+            emit(ready, finishing);
         }
-        if (ready == 0) {
-            return;
-        }
+    }
+
+    private void emit(int ready, boolean finishing) {
         long minS = Long.MAX_VALUE;
         long maxS = Long.MIN_VALUE;
         double maxUi = 0;
@@ -267,13 +288,13 @@ final class DualEdgeStage implements Stage {
         j.key("dropouts").value(cr.dropouts);
         j.key("restarts").value(cr.restarts);
         j.key("periodFs").beginObject();
-        j.key("mean").value(cr.periodCount > 0 ? cr.periodMean : cr.periodFs);
+        j.key("mean").value(cr.periodMean());
         j.key("std").value(cr.periodStd());
         j.key("min").value(cr.periodCount > 0 ? cr.periodMin : Double.NaN);
         j.key("max").value(cr.periodCount > 0 ? cr.periodMax : Double.NaN);
         j.key("intervals").value(cr.periodCount);
         j.endObject();
-        j.key("frequencyHz").value(cr.periodCount > 0 ? 1e15 / cr.periodMean : (cr.haveP ? 1e15 / cr.periodFs : Double.NaN));
+        j.key("frequencyHz").value(cr.periodCount > 0 ? 1e15 / cr.periodMean() : (cr.haveP ? 1e15 / cr.periodFs : Double.NaN));
         j.key("duty").beginObject();
         j.key("mean").value(cr.dutyCount > 0 ? cr.dutySum / cr.dutyCount : Double.NaN);
         j.key("min").value(cr.dutyCount > 0 ? cr.dutyMin : Double.NaN);
@@ -325,8 +346,8 @@ final class DualEdgeStage implements Stage {
             j.key("flagged").value(st.flagged);
             j.key("unknownSamples").value(st.unknown);
             j.key("flaggedRuns").value(st.lowRuns);
-            st.writeMargin(j, "setup", st.setupHist, st.setupKnown, st.minSetupFs, st.minSetupUi, meanUi);
-            st.writeMargin(j, "hold", st.holdHist, st.holdKnown, st.minHoldFs, st.minHoldUi, meanUi);
+            st.writeMargin(j, "setup", st.setupHist, st.setupKnown(), st.minSetupFs, st.minSetupUi, meanUi);
+            st.writeMargin(j, "hold", st.holdHist, st.holdKnown(), st.minHoldFs, st.minHoldUi, meanUi);
             j.endObject();
         }
         j.endArray();

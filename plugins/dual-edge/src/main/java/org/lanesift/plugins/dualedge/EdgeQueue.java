@@ -64,6 +64,7 @@ final class EdgeQueue {
         ensure(n);
         System.arraycopy(src, 0, t, tail, n);
         tail += n;
+        t[tail] = Long.MAX_VALUE; // sentinel for branch-free scans
         for (int i = 0; i < e.invalidCount(); i++) {
             addSpan(e.invalidSpans()[2 * i], e.invalidSpans()[2 * i + 1]);
         }
@@ -73,12 +74,15 @@ final class EdgeQueue {
     private void push(long time) {
         ensure(1);
         t[tail++] = time;
+        t[tail] = Long.MAX_VALUE;
     }
 
+    /** Room for {@code n} more transitions plus the sentinel {@code t[tail] = Long.MAX_VALUE}. */
     private void ensure(int n) {
+        n++;
         if (tail + n > t.length) {
             if (head > 0) {
-                System.arraycopy(t, head, t, 0, tail - head);
+                System.arraycopy(t, head, t, 0, tail - head + 1);
                 base += head;
                 tail -= head;
                 head = 0;
@@ -141,7 +145,7 @@ final class EdgeQueue {
 
     private void compactIfSparse() {
         if (head > 4096 && head > (tail >> 1)) {
-            System.arraycopy(t, head, t, 0, tail - head);
+            System.arraycopy(t, head, t, 0, tail - head + 1);
             base += head;
             tail -= head;
             head = 0;

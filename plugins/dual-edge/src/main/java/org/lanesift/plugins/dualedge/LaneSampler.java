@@ -34,9 +34,12 @@ final class LaneSampler {
     long[] hold;
     long[] flagged;
 
-    LaneSampler(int lane, EdgeQueue q) {
+    private final double threshold;
+
+    LaneSampler(int lane, EdgeQueue q, double threshold) {
         this.lane = lane;
         this.q = q;
+        this.threshold = threshold;
         this.track = "lane" + lane;
     }
 
@@ -65,16 +68,14 @@ final class LaneSampler {
     }
 
     private void sampleFast(SampleBuf sb, int n, AnnotationQueue notes) {
-        final long[] tt = q.t;
+        final long[] tt = q.t; // tt[tail] is a Long.MAX_VALUE sentinel
         final int head = q.head;
-        final int tail = q.tail;
         final long base = q.base;
-        final boolean init = q.initialLevel;
+        final long initBit = q.initialLevel ? 1 : 0;
         final long[] ss = sb.s;
-        final long[] th = sb.thr;
         final double[] uis = sb.ui;
-        final double[] inv = sb.invUi;
         final byte[] fl = sb.flags;
+        final double thrFrac = threshold;
         final long[] vals = values;
         final long[] flg = flagged;
         final long[] su = setup;
@@ -82,19 +83,20 @@ final class LaneSampler {
         final long[] sh = stats.setupHist;
         final long[] hh = stats.holdHist;
         final double bins = MarginStats.BINS;
+        final int unknownBin = MarginStats.BINS + 1;
         long minS = stats.minSetupFs;
         long minH = stats.minHoldFs;
         double minSu = stats.minSetupUi;
         double minHu = stats.minHoldUi;
-        long known1 = 0;
-        long known2 = 0;
         double uiSum = 0;
-        int j = (int) Math.max(head, Math.min(tail, cursor - q.base));
+        int j = (int) Math.max(head, Math.min(q.tail, cursor - base));
         long vWord = 0;
         long fWord = 0;
         for (int i = 0; i < n; i++) {
             final long s = ss[i];
-            while (j < tail && tt[j] <= s) {
+            // usually at most one transition between two sample points: step without a branch
+            j += tt[j] <= s ? 1 : 0;
+            while (tt[j] <= s) {
                 j++;
             }
             while (j > head && tt[j - 1] > s) {
@@ -102,44 +104,25 @@ final class LaneSampler {
             }
             final double ui = uis[i];
             uiSum += ui;
+            final double inv = 1.0 / ui;
             final long reach = (long) ui;
             long a = j > head ? s - tt[j - 1] : UNKNOWN;
-            if (a > reach) {
-                a = UNKNOWN;
-            }
-            long b = j < tail ? tt[j] - s : UNKNOWN;
-            if (b > reach) {
-                b = UNKNOWN;
-            }
+            a = a > reach ? UNKNOWN : a;
+            long b = tt[j] - s; // the sentinel gives a huge value (or, for negative times, an overflow)
+            b = (b > reach | b < 0) ? UNKNOWN : b;
             su[i] = a;
             ho[i] = b;
-            final long thr = th[i];
-            final boolean f = a < thr || b < thr || (fl[i] & SampleBuf.SUSPECT) != 0;
-            if (a != UNKNOWN) {
-                double r = a * inv[i];
-                sh[(int) (r * bins)]++;
-                known1++;
-                if (a < minS) {
-                    minS = a;
-                }
-                if (r < minSu) {
-                    minSu = r;
-                }
-            }
-            if (b != UNKNOWN) {
-                double r = b * inv[i];
-                hh[(int) (r * bins)]++;
-                known2++;
-                if (b < minH) {
-                    minH = b;
-                }
-                if (r < minHu) {
-                    minHu = r;
-                }
-            }
-            if ((((base + j) & 1) != 0) != init) {
-                vWord |= 1L << i;
-            }
+            final double ra = a * inv;
+            final double rb = b * inv;
+            sh[a == UNKNOWN ? unknownBin : (int) (ra * bins)]++;
+            hh[b == UNKNOWN ? unknownBin : (int) (rb * bins)]++;
+            minS = a < minS ? a : minS;
+            minH = b < minH ? b : minH;
+            minSu = ra < minSu ? ra : minSu;
+            minHu = rb < minHu ? rb : minHu;
+            final long thr = (long) Math.ceil(thrFrac * ui);
+            vWord |= (((base + j) ^ initBit) & 1L) << i;
+            final boolean f = a < thr | b < thr | (fl[i] & SampleBuf.SUSPECT) != 0;
             if (f) {
                 fWord |= 1L << i;
                 flaggedBit(s, a, b, false);
@@ -157,13 +140,11 @@ final class LaneSampler {
             vals[n >>> 6] = vWord;
             flg[n >>> 6] = fWord;
         }
-        cursor = q.base + j;
+        cursor = base + j;
         stats.minSetupFs = minS;
         stats.minHoldFs = minH;
         stats.minSetupUi = minSu;
         stats.minHoldUi = minHu;
-        stats.setupKnown += known1;
-        stats.holdKnown += known2;
         stats.uiSum += uiSum;
     }
 
@@ -217,21 +198,26 @@ final class LaneSampler {
                 b = UNKNOWN;
                 f = true;
                 stats.unknown++;
+                stats.setupHist[MarginStats.BINS + 1]++;
+                stats.holdHist[MarginStats.BINS + 1]++;
             } else {
                 a = prevT == Long.MIN_VALUE || s - prevT > reach ? UNKNOWN : s - prevT;
                 b = nextT == Long.MAX_VALUE || nextT - s > reach ? UNKNOWN : nextT - s;
-                f = a < sb.thr[i] || b < sb.thr[i] || (sb.flags[i] & SampleBuf.SUSPECT) != 0;
-                if (a != UNKNOWN) {
-                    double r = a * sb.invUi[i];
+                long thr = (long) Math.ceil(threshold * ui);
+                f = a < thr || b < thr || (sb.flags[i] & SampleBuf.SUSPECT) != 0;
+                if (a == UNKNOWN) {
+                    stats.setupHist[MarginStats.BINS + 1]++;
+                } else {
+                    double r = a / ui;
                     stats.setupHist[(int) (r * MarginStats.BINS)]++;
-                    stats.setupKnown++;
                     stats.minSetupFs = Math.min(stats.minSetupFs, a);
                     stats.minSetupUi = Math.min(stats.minSetupUi, r);
                 }
-                if (b != UNKNOWN) {
-                    double r = b * sb.invUi[i];
+                if (b == UNKNOWN) {
+                    stats.holdHist[MarginStats.BINS + 1]++;
+                } else {
+                    double r = b / ui;
                     stats.holdHist[(int) (r * MarginStats.BINS)]++;
-                    stats.holdKnown++;
                     stats.minHoldFs = Math.min(stats.minHoldFs, b);
                     stats.minHoldUi = Math.min(stats.minHoldUi, r);
                 }

@@ -10,13 +10,20 @@ final class MarginStats {
     static final double[] PERCENTILES = {0.1, 1, 5, 10, 50, 90, 99};
     static final int REPORT_BINS = 50;
 
-    final long[] setupHist = new long[BINS + 1];
-    final long[] holdHist = new long[BINS + 1];
+    /** Bins 0..BINS (BINS holds exactly 1 UI); bin BINS + 1 counts unknown margins. */
+    final long[] setupHist = new long[BINS + 2];
+    final long[] holdHist = new long[BINS + 2];
     long bits;
     long flagged;
     long unknown;
-    long setupKnown;
-    long holdKnown;
+
+    long setupKnown() {
+        return bits - setupHist[BINS + 1];
+    }
+
+    long holdKnown() {
+        return bits - holdHist[BINS + 1];
+    }
     long minSetupFs = Long.MAX_VALUE;
     long minHoldFs = Long.MAX_VALUE;
     double minSetupUi = Double.POSITIVE_INFINITY;
@@ -41,7 +48,7 @@ final class MarginStats {
             rank = 1;
         }
         long c = 0;
-        for (int i = 0; i < hist.length; i++) {
+        for (int i = 0; i <= BINS; i++) {
             c += hist[i];
             if (c >= rank) {
                 return Math.min(1.0, (i + 0.5) / BINS);

@@ -14,17 +14,12 @@ final class SampleBuf {
     long[] s = new long[4096];
     long[] edge = new long[4096];
     double[] ui = new double[4096];
-    double[] invUi = new double[4096];
-    long[] thr = new long[4096];
     byte[] flags = new byte[4096];
     byte[] slot = new byte[4096];
     int n;
     /** Samples before this index have their sample time set. */
     int applied;
-    private final double threshold;
-
-    SampleBuf(double threshold) {
-        this.threshold = threshold;
+    SampleBuf() {
     }
 
     void add(long nominalFs, long edgeIndex, double uiFs, boolean falling, boolean suspect, int slotIndex) {
@@ -34,16 +29,12 @@ final class SampleBuf {
             s = Arrays.copyOf(s, c);
             edge = Arrays.copyOf(edge, c);
             ui = Arrays.copyOf(ui, c);
-            invUi = Arrays.copyOf(invUi, c);
-            thr = Arrays.copyOf(thr, c);
             flags = Arrays.copyOf(flags, c);
             slot = Arrays.copyOf(slot, c);
         }
         nominal[n] = nominalFs;
         edge[n] = edgeIndex;
         ui[n] = uiFs;
-        invUi[n] = 1.0 / uiFs;
-        thr[n] = (long) Math.ceil(threshold * uiFs);
         flags[n] = (byte) ((falling ? FALLING : 0) | (suspect ? SUSPECT : 0));
         slot[n] = (byte) slotIndex;
         n++;
@@ -57,8 +48,17 @@ final class SampleBuf {
      * @param phaseFs phase in femtoseconds
      */
     void applyPhase(boolean isUi, double phaseUi, double phaseFs) {
-        for (int i = applied; i < n; i++) {
-            s[i] = nominal[i] + Math.round(isUi ? phaseUi * ui[i] : phaseFs);
+        if (isUi ? phaseUi == 0 : phaseFs == 0) {
+            System.arraycopy(nominal, applied, s, applied, n - applied);
+        } else if (isUi) {
+            for (int i = applied; i < n; i++) {
+                s[i] = nominal[i] + Math.round(phaseUi * ui[i]);
+            }
+        } else {
+            long p = Math.round(phaseFs);
+            for (int i = applied; i < n; i++) {
+                s[i] = nominal[i] + p;
+            }
         }
         applied = n;
     }
@@ -73,8 +73,6 @@ final class SampleBuf {
         System.arraycopy(s, k, s, 0, r);
         System.arraycopy(edge, k, edge, 0, r);
         System.arraycopy(ui, k, ui, 0, r);
-        System.arraycopy(invUi, k, invUi, 0, r);
-        System.arraycopy(thr, k, thr, 0, r);
         System.arraycopy(flags, k, flags, 0, r);
         System.arraycopy(slot, k, slot, 0, r);
         n = r;

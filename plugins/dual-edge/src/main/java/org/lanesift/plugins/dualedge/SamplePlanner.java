@@ -45,7 +45,7 @@ final class SamplePlanner {
                     continue;
                 }
                 double ui = ddr ? cr.accP[i] * 0.5 : cr.accP[i];
-                long nominal = cr.accT[i] + Math.round(align * ui);
+                long nominal = align == 0 ? cr.accT[i] : cr.accT[i] + Math.round(align * ui);
                 sb.add(nominal, cr.accIndex[i], ui, !rising, (f & ClockRecovery.SUSPECT) != 0, 0);
             }
             cr.consumed(n);
