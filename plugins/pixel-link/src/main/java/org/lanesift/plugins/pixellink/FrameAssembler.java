@@ -434,6 +434,8 @@ final class FrameAssembler {
                             "pixel clock %.0f Hz over this line, %.0f Hz on average", f, ref));
                 }
                 timing.clockPerLine.add(f);
+                timing.linePixels += per;
+                timing.lineTimeFs += t - lastRiseT;
             }
         }
         if (hsActive >= 0 && !riseSinceHsTrail && hsTrailIdx != NONE && hsTrailIdx >= validFrom) {

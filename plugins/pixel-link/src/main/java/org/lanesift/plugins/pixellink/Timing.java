@@ -61,7 +61,19 @@ final class Timing {
         return linkClockIntervals == 0 ? Double.NaN : 1e15 * linkClockIntervals / linkClockSumDtFs;
     }
 
+    /** Pixels and time summed over every measured line period (DE rise to DE rise inside a frame). */
+    long linePixels;
+    long lineTimeFs;
+
+    /**
+     * Pixel clock, Hz: pixels over time summed over the line periods wholly inside the capture
+     * (robust against irregular first and last clock periods of a capture); the mean clock period
+     * of the bit streams when no line was measured.
+     */
     double pixelClockHz() {
+        if (linePixels > 0 && lineTimeFs > 0) {
+            return 1e15 * linePixels / lineTimeFs;
+        }
         return linkClockHz() * pixelsPerClock;
     }
 
@@ -99,7 +111,7 @@ final class Timing {
                 .append(", \"suspect\": ").append(framesSuspect).append("},\n");
         double tol = clockTolerancePercent / 100;
         sb.append("  \"pixelClockHz\": ").append(freqJson(pixelClockHz(), clockPerLine, tol)).append(",\n");
-        sb.append("  \"linkClockHz\": ").append(num(linkClockHz())).append(",\n");
+        sb.append("  \"linkClockHz\": ").append(num(pixelClockHz() / pixelsPerClock)).append(",\n");
         sb.append("  \"refreshHz\": ").append(freqJson(refresh.mean(), refresh, tol)).append(",\n");
         sb.append("  \"horizontal\": {\n");
         kv(sb, 2, "unit", "\"pixels\"").append(",\n");
@@ -195,7 +207,7 @@ final class Timing {
         double pc = pixelClockHz();
         sb.append(String.format(Locale.ROOT, "Pixel clock: %s%n", freqText(pc, clockPerLine, tol, 0)));
         if (dual) {
-            sb.append(String.format(Locale.ROOT, "Link clock:  %s (each of the two links)%n", freqText(linkClockHz(), null, tol, 0)));
+            sb.append(String.format(Locale.ROOT, "Link clock:  %s (each of the two links)%n", freqText(pc / 2, null, tol, 0)));
         }
         sb.append(String.format(Locale.ROOT, "Refresh:     %s%n", freqText(refresh.mean(), refresh, tol, 3)));
         sb.append("Horizontal, in pixels:\n");
