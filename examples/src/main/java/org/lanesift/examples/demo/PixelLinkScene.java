@@ -92,9 +92,24 @@ public final class PixelLinkScene {
      * @return 8 channels of volts and the ground truth
      */
     public static Capture render(Impairments imp) {
+        return render(imp, FIRST_LINE, LINES, true);
+    }
+
+    /**
+     * Renders a chosen stretch of the link.
+     *
+     * @param imp       impairments
+     * @param firstLine line (counted from the start of frame 0) the record starts at
+     * @param lines     lines recorded
+     * @param pad       true: 50 ns of record before the first slot and after the last; false: the
+     *                  record holds exactly the slots, so that copies of it can be laid end to end
+     *                  (at 2.5 GS/s and 20 MHz a line is exactly 11000 samples)
+     * @return the channels and the ground truth
+     */
+    public static Capture render(Impairments imp, int firstLine, int lines, boolean pad) {
         double uiFs = 1e15 / (PIXEL_CLOCK_HZ * 7);
-        long t0 = 50_000_000L; // the first slot starts 50 ns into the record
-        int pixels = LINES * H_TOTAL;
+        long t0 = pad ? 50_000_000L : 0L; // the first slot starts 50 ns into the record
+        int pixels = lines * H_TOTAL;
         LegSynth.Track[] tracks = new LegSynth.Track[8];
         for (int c = 0; c < 8; c++) {
             boolean n = (c & 1) == 1;
@@ -107,14 +122,14 @@ public final class PixelLinkScene {
         int lastPicFrame = -1;
         int[] pic = null;
         for (int p = 0; p < pixels; p++) {
-            int lineAbs = FIRST_LINE + p / H_TOTAL;
+            int lineAbs = firstLine + p / H_TOTAL;
             int frame = lineAbs / V_TOTAL;
             int line = lineAbs % V_TOTAL;
             int col = p % H_TOTAL;
             if (frame != lastPicFrame) {
                 pic = picture(frame);
                 lastPicFrame = frame;
-                if (line == 0 && col == 0 && (LINES - p / H_TOTAL) >= V_TOTAL) {
+                if (line == 0 && col == 0 && (lines - p / H_TOTAL) >= V_TOTAL) {
                     complete.add(frame);
                     pics.add(pic);
                 }
@@ -146,8 +161,8 @@ public final class PixelLinkScene {
             }
         }
         double periodFs = 1e15 / imp.sampleRateHz();
-        long endFs = t0 + Math.round(7L * pixels * uiFs) + 50_000_000L;
-        int n = (int) Math.ceil(endFs / periodFs);
+        long endFs = t0 + Math.round(7L * pixels * uiFs) + (pad ? 50_000_000L : 0L);
+        int n = pad ? (int) Math.ceil(endFs / periodFs) : (int) Math.round(endFs / periodFs);
         LegSynth synth = new LegSynth(imp.ringFrequencyHz(), imp.ringDamping(), 2e6);
         float[][] volts = new float[8][];
         for (int c = 0; c < 8; c++) {

@@ -1,0 +1,241 @@
+package org.lanesift.runner.bench;
+
+import java.io.PrintStream;
+import java.lang.management.ManagementFactory;
+import java.lang.management.MemoryPoolMXBean;
+import java.lang.management.MemoryType;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import org.lanesift.chain.Chain;
+import org.lanesift.chain.ChainBuilder;
+import org.lanesift.data.AnalogBlock;
+import org.lanesift.data.DataKind;
+import org.lanesift.examples.demo.Impairments;
+import org.lanesift.examples.demo.PixelLinkScene;
+import org.lanesift.plugin.PluginRegistry;
+import org.lanesift.plugin.Tool;
+
+/**
+ * {@code lanesift bench}: the whole analog chain of the demo's pixel link (leg deskew, four
+ * differential receivers, lane deskew, 7:1 sampling, pixel decoding) over an in-memory capture of
+ * eight channels, against a plain sequential read of the same arrays in the same run. Prefixes of
+ * the chain are timed too, so the differences show where the time goes.
+ */
+public final class BenchTool implements Tool {
+    /** Creates the tool (ServiceLoader). */
+    public BenchTool() {
+    }
+
+    @Override
+    public String name() {
+        return "bench";
+    }
+
+    @Override
+    public String summary() {
+        return "throughput of the whole analog chain on an in-memory capture, as a ratio to a plain sequential read";
+    }
+
+    @Override
+    public int run(String[] args, PrintStream out, PrintStream err) {
+        long samples = 50_000_000L;
+        for (int i = 0; i < args.length; i++) {
+            switch (args[i]) {
+                case "-h", "--help" -> {
+                    out.println("Usage: lanesift bench [--samples N]");
+                    out.println("Runs the demo's pixel-link chain (deskew -> differential -> deskew -> 7:1 sampling -> decoder)");
+                    out.println("over an in-memory capture of 8 channels and prints samples/s per channel, the ratio to a plain");
+                    out.println("sequential read of the same arrays measured in the same run, and the peak heap.");
+                    out.println("  --samples N   samples per channel (default 50000000; at least 528000, rounded to whole frames)");
+                    out.println("Memory: 8 x N x 4 bytes for the capture (1.6 GB at the default); the launcher's JVM default heap suffices.");
+                    return 0;
+                }
+                case "--samples" -> {
+                    if (i + 1 >= args.length) {
+                        err.println("bench: --samples needs a number");
+                        return 2;
+                    }
+                    try {
+                        samples = Long.parseLong(args[++i].replace("_", ""));
+                    } catch (NumberFormatException e) {
+                        err.println("bench: --samples: expected a whole number of samples, got '" + args[i] + "'");
+                        return 2;
+                    }
+                }
+                default -> {
+                    err.println("bench: unknown argument '" + args[i] + "'; expected --samples N or --help");
+                    return 2;
+                }
+            }
+        }
+        int tileSamples = PixelLinkScene.V_TOTAL * 11_000; // one frame at 2.5 GS/s and 20 MHz
+        if (samples < tileSamples || samples > 400_000_000L) {
+            err.println("bench: --samples must be from " + tileSamples + " to 400000000, got " + samples);
+            return 2;
+        }
+        long need = samples * 8 * 4;
+        long max = Runtime.getRuntime().maxMemory();
+        if (need > max * 0.8) {
+            err.println(String.format(Locale.ROOT, "bench: %d samples x 8 channels need %.1f GB of heap, the JVM has %.1f GB; "
+                    + "use fewer --samples or a larger -Xmx", samples, need / 1e9, max / 1e9));
+            return 2;
+        }
+        out.printf(Locale.ROOT, "lanesift bench: rendering one frame of the demo pixel link and laying %d samples per channel "
+                + "in memory...%n", samples);
+        PixelLinkScene.Capture tile = PixelLinkScene.render(Impairments.pixelLinkDefaults(), 0, PixelLinkScene.V_TOTAL, false);
+        int frames = (int) Math.max(1, samples / tileSamples);
+        long n = (long) frames * tileSamples;
+        int block = 65536;
+        double periodFs = 1e15 / tile.sampleRateHz();
+        int blocks = (int) ((n + block - 1) / block);
+        AnalogBlock[][] data = new AnalogBlock[8][blocks];
+        for (int c = 0; c < 8; c++) {
+            float[] src = tile.volts()[c];
+            for (int b = 0; b < blocks; b++) {
+                long first = (long) b * block;
+                int len = (int) Math.min(block, n - first);
+                float[] v = new float[len];
+                int pos = (int) (first % tileSamples);
+                int k = 0;
+                while (k < len) {
+                    int run = Math.min(len - k, tileSamples - pos);
+                    System.arraycopy(src, pos, v, k, run);
+                    k += run;
+                    pos = 0;
+                }
+                data[c][b] = new AnalogBlock(tile.channels()[c], first, Math.round(first * periodFs), periodFs, v, len, null);
+            }
+        }
+        PluginRegistry reg = PluginRegistry.discover(BenchTool.class.getClassLoader());
+        for (String id : new String[] {"deskew", "differential", "dual-edge", "pixel-link"}) {
+            if (reg.find(id) == null) {
+                err.println("bench: plugin '" + id + "' is not on the class path");
+                return 2;
+            }
+        }
+        // warm up the JIT on the first 10 % of the capture
+        run(reg, data, Math.max(1, blocks / 10), 4);
+        double read = Double.MAX_VALUE;
+        for (int i = 0; i < 3; i++) {
+            read = Math.min(read, sequentialRead(data)); // best of three: the loop is JIT-compiled after the first
+        }
+        String[] names = {"leg deskew", "+ differential receivers", "+ lane deskew and 7:1 sampling", "+ pixel decoder (whole chain)"};
+        double[] secs = new double[4];
+        long[] heap = new long[4];
+        for (int depth = 1; depth <= 4; depth++) {
+            resetPeaks();
+            secs[depth - 1] = run(reg, data, blocks, depth);
+            heap[depth - 1] = peakHeap();
+        }
+        double readRate = n / read;
+        out.printf(Locale.ROOT, "capture: 8 channels x %d samples (%d frames of the demo pixel link, %.1f ms at 2.5 GS/s), blocks of %d%n",
+                n, frames, n * periodFs / 1e12, block);
+        out.printf(Locale.ROOT, "  %-34s %8.3f s  %9.1f M samples/s per channel%n", "plain sequential read", read, readRate / 1e6);
+        for (int i = 0; i < 4; i++) {
+            double rate = n / secs[i];
+            out.printf(Locale.ROOT, "  %-34s %8.3f s  %9.1f M samples/s per channel  ratio %.4f  peak heap %d MB%n", names[i], secs[i],
+                    rate / 1e6, rate / readRate, heap[i] >> 20);
+        }
+        double share = 0;
+        out.println("where the time goes (differences between the prefixes above):");
+        for (int i = 0; i < 4; i++) {
+            double d = secs[i] - (i == 0 ? 0 : secs[i - 1]);
+            share = d / secs[3];
+            out.printf(Locale.ROOT, "  %-34s %6.1f %%%n", names[i].replace("+ ", ""), 100 * share);
+        }
+        out.printf(Locale.ROOT, "whole chain: %.1f M samples/s per channel, ratio to the sequential read %.4f (target 0.10); "
+                + "the capture itself holds %d MB of the heap%n", n / secs[3] / 1e6, (n / secs[3]) / readRate, need >> 20);
+        return 0;
+    }
+
+    private static double sequentialRead(AnalogBlock[][] data) {
+        long t0 = System.nanoTime();
+        double s = 0;
+        for (AnalogBlock[] ch : data) {
+            for (AnalogBlock b : ch) {
+                float[] v = b.volts();
+                for (int i = 0, n = b.length(); i < n; i++) {
+                    s += v[i];
+                }
+            }
+        }
+        double sec = (System.nanoTime() - t0) / 1e9;
+        if (s == 42.4242) {
+            System.out.print("");
+        }
+        return sec;
+    }
+
+    /** Runs the first {@code depth} stages of the chain over the first {@code blocks} blocks; returns seconds. */
+    private static double run(PluginRegistry reg, AnalogBlock[][] data, int blocks, int depth) {
+        String[][] pairs = {{"CLK", "0", "1"}, {"D0", "2", "3"}, {"D1", "4", "5"}, {"D2", "6", "7"}};
+        ChainBuilder b = Chain.builder(reg);
+        List<String> inputs = new ArrayList<>();
+        for (int c = 0; c < 8; c++) {
+            b.input("in" + c, DataKind.ANALOG);
+            inputs.add("in" + c);
+        }
+        b.add("legs", "deskew", Map.of("kind", "analog", "channels", 8, "offsets", List.of(0, -30, 0, 40, 0, -55, 0, -25)));
+        for (int c = 0; c < 8; c++) {
+            b.wire("in" + c, "legs.in" + c);
+        }
+        if (depth >= 2) {
+            for (int k = 0; k < 4; k++) {
+                String id = "rx-" + pairs[k][0];
+                b.add(id, "differential", Map.of("mode", "pair", "name", pairs[k][0]));
+                b.wire("legs.out" + (2 * k), id + ".p").wire("legs.out" + (2 * k + 1), id + ".n");
+            }
+        }
+        if (depth >= 3) {
+            b.add("lanes", "deskew", Map.of("kind", "edges", "channels", 4, "offsets", List.of(0, -120, 80, -250)));
+            for (int k = 0; k < 4; k++) {
+                b.wire("rx-" + pairs[k][0] + ".edges", "lanes.in" + k);
+            }
+            b.add("sampler", "dual-edge", Map.of("mode", "multiplied", "slots", 7, "lanes", 3));
+            b.wire("lanes.out0", "sampler.clock");
+            for (int k = 0; k < 3; k++) {
+                b.wire("lanes.out" + (k + 1), "sampler.lane" + k);
+            }
+        }
+        if (depth >= 4) {
+            b.add("panel", "pixel-link", Map.of("mapping", "bits-18", "pictures", "none", "detail", "anomalies"));
+            for (int k = 0; k < 3; k++) {
+                b.wire("sampler.bits" + k, "panel.lane" + k);
+            }
+        }
+        long[] sink = new long[1];
+        b.outputs((id, port, blk) -> sink[0]++);
+        Chain chain = b.build();
+        long t0 = System.nanoTime();
+        for (int i = 0; i < blocks; i++) {
+            for (int c = 0; c < 8; c++) {
+                chain.push(inputs.get(c), data[c][i]);
+            }
+        }
+        chain.finish();
+        double s = (System.nanoTime() - t0) / 1e9;
+        chain.close();
+        return s;
+    }
+
+    private static void resetPeaks() {
+        System.gc();
+        for (MemoryPoolMXBean p : ManagementFactory.getMemoryPoolMXBeans()) {
+            if (p.getType() == MemoryType.HEAP) {
+                p.resetPeakUsage();
+            }
+        }
+    }
+
+    private static long peakHeap() {
+        long s = 0;
+        for (MemoryPoolMXBean p : ManagementFactory.getMemoryPoolMXBeans()) {
+            if (p.getType() == MemoryType.HEAP) {
+                s += p.getPeakUsage().getUsed();
+            }
+        }
+        return s;
+    }
+}
