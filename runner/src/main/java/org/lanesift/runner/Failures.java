@@ -45,9 +45,9 @@ final class Failures {
                     + " MB); give Java more with JAVA_TOOL_OPTIONS=-Xmx4g or use smaller blocks";
         } else if (t instanceof CommandLine.ParameterException p) {
             code = BAD_INPUT;
-            line = "lanesift " + commandName(p.getCommandLine()) + ": " + p.getMessage() + " (see: lanesift "
-                    + commandName(p.getCommandLine()) + " --help)";
-            line = line.replace("lanesift lanesift", "lanesift").replace("lanesift  ", "lanesift ");
+            String name = commandName(p.getCommandLine());
+            String cmd = name.isEmpty() ? "lanesift" : "lanesift " + name;
+            line = cmd + ": " + p.getMessage() + " (see: " + cmd + " --help)";
         } else if (t instanceof StageFailure sf) {
             Throwable root = root(sf);
             if (isBug(root)) {

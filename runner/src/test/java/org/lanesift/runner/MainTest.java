@@ -70,6 +70,10 @@ class MainTest {
             assertTrue(r.errLines().get(0).startsWith("lanesift"), r::toString);
             assertTrue(r.errLines().get(0).contains("--help"), r::toString);
         }
+        assertEquals(List.of("lanesift: Unmatched argument at index 0: 'frobnicate' (see: lanesift --help)"),
+                Cli.run("frobnicate").errLines());
+        assertEquals(List.of("lanesift run: Missing required parameter: 'CHAIN.json' (see: lanesift run --help)"),
+                Cli.run("run").errLines());
     }
 
     @Test
