@@ -27,6 +27,8 @@ final class Capture {
     /** Optional re-cutting of each lane block (bit counts). */
     java.util.function.IntUnaryOperator recut;
     Map<String, Object> options = new HashMap<>();
+    /** Relative change of the clock period per clock period (0 = steady clock). */
+    double driftPerClock;
     /** Changes source words (pixel index, word) before serialising. */
     Hook hook;
 
@@ -60,8 +62,10 @@ final class Capture {
                     words[i] = hook.word(p, words[i]);
                 }
             }
-            List<BitStream> lanes = TestLink.serialise(words, n, firstClock + c, periodFs, table, colourBits, reverse, dual,
-                    flagClock, names);
+            double per = periodFs;
+            double drift = driftPerClock;
+            List<BitStream> lanes = TestLink.serialise(words, n, firstClock + c, x -> per * (x + drift * x * x / 2), table,
+                    colourBits, reverse, dual, flagClock, names);
             if (stopAfterClock >= 0) {
                 lanes = lanes.stream().map(b -> shiftAfter(b, stopAfterClock, stopFs)).toList();
             }

@@ -192,6 +192,24 @@ class FrameAssemblyTest {
         }
     }
 
+    /** A clock that drifts (period growing by 2 % over the capture): drift is annotated, the clock reported as varying, pictures intact. */
+    @Test
+    void driftingClock() throws Exception {
+        Capture c = small(SMALL);
+        c.driftPerClock = 0.02 / c.pixels;
+        try (StageHarness h = c.run()) {
+            assertFrames(c, h, 3);
+            assertTrue(h.annotations("clock-drift").size() >= 1, h.annotations().toString());
+            Report r = Report.of(h);
+            assertTrue(r.bool("pixelClockHz/varying"));
+            double min = r.real("pixelClockHz/min");
+            double max = r.real("pixelClockHz/max");
+            assertTrue(max / min > 1.01 && max / min < 1.03, min + " .. " + max);
+            assertEquals(0, h.annotations("lost-lock").size());
+            assertTrue(Report.text(h, "dut-timing.txt").contains("VARYING"));
+        }
+    }
+
     /** A line of unexpected length is annotated, the frame marked suspect, and H active reported as varying. */
     @Test
     void lineOfUnexpectedLength() throws Exception {

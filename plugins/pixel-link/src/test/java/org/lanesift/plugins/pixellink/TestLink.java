@@ -144,6 +144,17 @@ final class TestLink {
      */
     static List<BitStream> serialise(int[] words, int clocks, long firstClock, double periodFs, String[][] table, int colourBits,
                                      boolean reverse, boolean dual, long flagClock, List<String> names) {
+        return serialise(words, clocks, firstClock, c -> c * periodFs, table, colourBits, reverse, dual, flagClock, names);
+    }
+
+    /** Time of the start of clock period c, fs (a real number of clock periods allowed). */
+    interface ClockTime {
+        double startFs(double c);
+    }
+
+    static List<BitStream> serialise(int[] words, int clocks, long firstClock, ClockTime ct, String[][] table, int colourBits,
+                                     boolean reverse, boolean dual, long flagClock, List<String> names) {
+        double periodFs = ct.startFs(firstClock + 1) - ct.startFs(firstClock);
         int perLink = table.length;
         int links = dual ? 2 : 1;
         List<BitStream> out = new ArrayList<>();
@@ -168,7 +179,7 @@ final class TestLink {
                     if (bitOf(w, name, colourBits)) {
                         values[i >>> 6] |= 1L << i;
                     }
-                    times[i] = Math.round((clock + (s + 0.5) / 7.0) * periodFs);
+                    times[i] = Math.round(ct.startFs(clock + (s + 0.5) / 7.0));
                     edges[i] = clock;
                     slot[i] = (byte) s;
                     setup[i] = Math.round(ui / 2);
@@ -178,8 +189,8 @@ final class TestLink {
                     }
                 }
             }
-            long start = Math.round(firstClock * periodFs);
-            long end = Math.round((firstClock + clocks) * periodFs);
+            long start = Math.round(ct.startFs(firstClock));
+            long end = Math.round(ct.startFs(firstClock + clocks));
             out.add(new BitStream(names.get(lane), start, end, n, values, times, edges, new long[BitSets.words(n)], slot,
                     setup, hold, flagged, ui));
         }
