@@ -12,7 +12,7 @@ import java.util.Locale;
  * (layout in {@code docs/init-sequence.md}).
  *
  * <p>The delay after a command is measured from the end of its packet to the start of the next
- * command's packet. Folding: a run of memory writes (start + continues) becomes one entry; then a
+ * command's packet (0 when they overlap, as bytes of neighbouring packets can on several lanes). Folding: a run of memory writes (start + continues) becomes one entry; then a
  * block of one to eight entries repeated back to back (such as column address, page address,
  * memory write in every frame) is kept once with its repeat count.
  */
@@ -60,7 +60,8 @@ final class CommandLog {
     boolean add(Entry e) {
         if (!entries.isEmpty()) {
             Entry prev = entries.get(entries.size() - 1);
-            prev.delayFs = e.startFs - prev.endFs;
+            // commands in one burst on several lanes may overlap by a few bytes: no delay then
+            prev.delayFs = Math.max(0, e.startFs - prev.endFs);
         }
         if (entries.size() >= max) {
             overflow = true;

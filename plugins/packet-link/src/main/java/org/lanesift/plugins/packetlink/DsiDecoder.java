@@ -96,8 +96,16 @@ final class DsiDecoder implements PacketParser.Listener {
         int dt = di & 0x3F;
         boolean isLong = rx >= 0;
         int end = isLong ? pOff + pLen + 2 : off + 4;
-        long t0 = startFs[off];
-        long t1 = endFs[end - 1];
+        // on several lanes neighbouring bytes travel side by side: the packet spans the earliest start
+        // of its first bytes and the latest end of its last bytes (at most 4 lanes)
+        long t0 = Long.MAX_VALUE;
+        long t1 = Long.MIN_VALUE;
+        for (int i = off; i < Math.min(end, off + 4); i++) {
+            t0 = Math.min(t0, startFs[i]);
+        }
+        for (int i = Math.max(off, end - 4); i < end; i++) {
+            t1 = Math.max(t1, endFs[i]);
+        }
         int status = Ecc.status(ecc);
         flags[off] |= FLAG_PACKET_START;
         for (int i = off; i < off + 4; i++) {
