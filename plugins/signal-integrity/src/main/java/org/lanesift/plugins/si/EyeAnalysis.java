@@ -34,6 +34,10 @@ final class EyeAnalysis {
     /** Mask polygon index per display bin (row-major, row 0 lowest), or null without a mask. */
     final short[] maskMap;
     final long maxCount;
+    /** Why height and width could not be measured, or null. */
+    final String unmeasured;
+    /** Fewer samples than this at the sample point (+/-1 column) leave the eye height unknown. */
+    static final int MIN_SAMPLES = 10;
 
     EyeAnalysis(EyeAccumulator acc, int uiCount, double uiFs, double samplePointUi, boolean align, double offsetUi,
                 double thresholdMvGiven, EyeMask mask) {
@@ -116,7 +120,25 @@ final class EyeAnalysis {
         sampleColumn = clamp((int) Math.floor(samplePointUi * binsPerUi), 0, w - 1);
 
         // eye height: the empty run of rows containing the threshold row, over sample column +/- 1
-        if (columnsEmpty(thresholdRow, sampleColumn)) {
+        long atSample = 0;
+        for (int y = 0; y < h; y++) {
+            for (int x = Math.max(0, sampleColumn - 1); x <= Math.min(w - 1, sampleColumn + 1); x++) {
+                atSample += at(x, y);
+            }
+        }
+        boolean twoLevels = Math.abs(highMv - lowMv) / 1000 * acc.binsPerVolt() >= 4;
+        if (!twoLevels) {
+            unmeasured = "no two distinct levels (low " + Math.round(lowMv) + " mV, high " + Math.round(highMv) + " mV)";
+        } else if (atSample < MIN_SAMPLES) {
+            unmeasured = "too few samples at the sample point";
+        } else {
+            unmeasured = null;
+        }
+        if (unmeasured != null) {
+            openBottomRow = -1;
+            openTopRow = -1;
+            eyeHeightMv = Double.NaN;
+        } else if (columnsEmpty(thresholdRow, sampleColumn)) {
             int lo = thresholdRow;
             while (lo > 0 && columnsEmpty(lo - 1, sampleColumn)) {
                 lo--;
@@ -163,7 +185,11 @@ final class EyeAnalysis {
             eyeHeight3SigmaMv = Double.NaN;
         }
         // eye width: the empty run of columns on the threshold row containing the sample column
-        if (at(sampleColumn, thresholdRow) == 0) {
+        if (unmeasured != null) {
+            openLeftColumn = -1;
+            openRightColumn = -1;
+            eyeWidthUi = Double.NaN;
+        } else if (at(sampleColumn, thresholdRow) == 0) {
             int l = sampleColumn;
             int steps = 0;
             while (steps < w - 1 && at(Math.floorMod(l - 1, w), thresholdRow) == 0) {
@@ -175,9 +201,15 @@ final class EyeAnalysis {
                 r++;
                 steps++;
             }
-            openLeftColumn = l;
-            openRightColumn = r;
-            eyeWidthUi = (r - l + 1) / binsPerUi;
+            if (steps >= w - 1) {
+                openLeftColumn = -1; // the threshold row is empty everywhere: no crossings to measure against
+                openRightColumn = -1;
+                eyeWidthUi = Double.NaN;
+            } else {
+                openLeftColumn = l;
+                openRightColumn = r;
+                eyeWidthUi = (r - l + 1) / binsPerUi;
+            }
         } else {
             openLeftColumn = -1;
             openRightColumn = -1;

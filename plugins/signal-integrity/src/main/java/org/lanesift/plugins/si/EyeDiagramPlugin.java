@@ -335,6 +335,11 @@ public final class EyeDiagramPlugin implements PluginProvider {
                         + (samplesSeen == 0 ? " (input 'signal' received none)"
                         : clockMode ? " (" + clockEdges + " clock edges arrived on input 'clock'; at least 2 are needed, or set option bitRateHz)" : ""));
             }
+            if (acc.inRange() == 0) {
+                throw new IllegalStateException("eye-diagram '" + ctx.instanceId() + "': all " + acc.outOfRange()
+                        + " samples fell outside the voltage range " + Math.round(acc.minVolts() * 1000) + " to "
+                        + Math.round((acc.minVolts() + acc.heightBins() / acc.binsPerVolt()) * 1000) + " mV; set option rangeMv");
+            }
             double uiFs;
             if (clockMode) {
                 double spanFs = clockEdges >= 2 ? (double) (edgeTimes[tail - 1] - firstEdge) : Double.NaN;
@@ -349,12 +354,15 @@ public final class EyeDiagramPlugin implements PluginProvider {
             byte[] png = EyeRenderer.render(e, title);
             ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-eye.png", "image/png", png));
             ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-eye.json", "application/json", json(e, uiFs)));
-            Annotation.Builder a = Annotation.on(id, e.eyeHeightMv > 0 && e.eyeWidthUi > 0 ? "eye-opening" : "eye-closed")
+            boolean unknown = Double.isNaN(e.eyeHeightMv) || Double.isNaN(e.eyeWidthUi);
+            boolean open = !unknown && e.eyeHeightMv > 0 && e.eyeWidthUi > 0;
+            Annotation.Builder a = Annotation.on(id, unknown ? "eye-unmeasured" : open ? "eye-opening" : "eye-closed")
                     .span(firstFs, lastFs)
-                    .label(e.eyeHeightMv > 0 && e.eyeWidthUi > 0
+                    .label(unknown ? "eye not measurable: " + (e.unmeasured != null ? e.unmeasured
+                            : "no crossings of the threshold") : open
                             ? "eye " + EyeRenderer.fmt(e.eyeHeightMv) + " mV x " + EyeRenderer.fmt(e.eyeWidthPs()) + " ps"
                             : "eye closed at the sample point")
-                    .severity(e.eyeHeightMv > 0 && e.eyeWidthUi > 0 ? Severity.INFO : Severity.WARNING)
+                    .severity(open ? Severity.INFO : Severity.WARNING)
                     .number("eyeHeightMv", e.eyeHeightMv, "mV")
                     .number("eyeWidthPs", e.eyeWidthPs(), "ps")
                     .number("eyeWidthUi", e.eyeWidthUi, "UI")
@@ -400,6 +408,9 @@ public final class EyeDiagramPlugin implements PluginProvider {
             j.field("aligned", align);
             j.field("crossingUi", e.crossingUi);
             j.field("samplePointUi", e.samplePointUi);
+            if (e.unmeasured != null) {
+                j.field("unmeasured", e.unmeasured);
+            }
             j.field("eyeHeightMv", e.eyeHeightMv);
             j.field("eyeHeight3SigmaMv", e.eyeHeight3SigmaMv);
             j.field("eyeWidthUi", e.eyeWidthUi);

@@ -250,6 +250,23 @@ class EyeDiagramPluginTest {
     }
 
     @Test
+    void aConstantSignalHasNoMeasurableEyeAndOutOfRangeIsAnError() {
+        AnalogBlock flat = Synth.withNoise(Synth.analog("s", RATE, 100_000, x -> 0.1), 0.001, 1);
+        StageHarness h = run(flat, Map.of("bitRateHz", 1e9));
+        String j = jsonOf(h, "-eye.json");
+        assertTrue(Double.isNaN(num(j, "eyeWidthUi")), j);
+        assertEquals(1, h.annotations("eye-unmeasured").size());
+        Exception e = assertThrows(Exception.class, () -> run(flat, Map.of("bitRateHz", 1e9, "rangeMv", List.of(500.0, 900.0))));
+        Throwable c = e;
+        StringBuilder all = new StringBuilder();
+        while (c != null) {
+            all.append(c.getMessage()).append(" | ");
+            c = c.getCause();
+        }
+        assertTrue(all.toString().contains("outside the voltage range 500 to 900 mV; set option rangeMv"), all.toString());
+    }
+
+    @Test
     void badOptionsAndMissingClockAreReported() {
         assertThrows(OptionException.class, () -> StageHarness.of(new EyeDiagramPlugin(), Map.of("uiCount", 3)));
         Exception e = assertThrows(Exception.class, () -> StageHarness.of(new EyeDiagramPlugin(), Map.of())
