@@ -83,37 +83,65 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
             this.kind = kind;
         }
 
-        /** @return {@code instance.output} */
+        /**
+         * The output's name.
+         *
+         * @return {@code instance.output}
+         */
         public String name() {
             return instance + "." + output;
         }
 
-        /** @return the kind, or null if nothing arrived and it was not declared */
+        /**
+         * The output's kind.
+         *
+         * @return the kind, or null if nothing arrived and it was not declared
+         */
         public DataKind kind() {
             return kind;
         }
 
-        /** @return blocks received */
+        /**
+         * Blocks received.
+         *
+         * @return the count
+         */
         public long blocks() {
             return blocks;
         }
 
-        /** @return samples, transitions, bits, words, frames or bytes received, by kind */
+        /**
+         * Items received: samples, transitions, bits, words, frames or bytes, by kind.
+         *
+         * @return the count
+         */
         public long items() {
             return items;
         }
 
-        /** @return start of the first block, femtoseconds; Long.MAX_VALUE if none */
+        /**
+         * Start of the first block.
+         *
+         * @return femtoseconds; Long.MAX_VALUE if none
+         */
         public long firstFs() {
             return firstFs;
         }
 
-        /** @return end of the last block, femtoseconds; Long.MIN_VALUE if none */
+        /**
+         * End of the last block.
+         *
+         * @return femtoseconds; Long.MIN_VALUE if none
+         */
         public long lastFs() {
             return lastFs;
         }
 
-        /** @return files this output went to, relative to the output directory */
+        /**
+         * Files this output went to.
+         *
+         * @return names relative to the output directory
+         */
         public List<String> files() {
             return files;
         }
