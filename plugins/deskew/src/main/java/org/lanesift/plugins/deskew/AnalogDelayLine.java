@@ -28,7 +28,10 @@ final class AnalogDelayLine {
     private final int lo;
     private final int hi;
     private final float[] taps;
-    private final float[] tmp = new float[CHUNK];
+    private final float[] tmp0 = new float[CHUNK];
+    private final float[] tmp1 = new float[CHUNK];
+    private final float[] tmp2 = new float[CHUNK];
+    private final float[] tmp3 = new float[CHUNK];
     private final float[] acc = new float[CHUNK];
 
     // current run
@@ -168,17 +171,36 @@ final class AnalogDelayLine {
         } else {
             // Tap-major over chunks that stay in L1. Every array in the inner loop is indexed by the
             // same i, which is what lets the JIT vectorise it (a load at i + variable offset is not
-            // vectorised by C2 in Java 17), so each tap's input window is first copied into tmp.
-            final float[] t = tmp;
+            // vectorised by C2 in Java 17), so each tap's input window is first copied into a scratch array.
+            final float[] t0 = tmp0;
+            final float[] t1 = tmp1;
+            final float[] t2 = tmp2;
+            final float[] t3 = tmp3;
             final float[] a = acc;
             for (int c0 = 0; c0 < cnt; c0 += CHUNK) {
                 final int len = Math.min(CHUNK, cnt - c0);
                 Arrays.fill(a, 0, len, 0f);
-                for (int j = 0; j < nt; j++) {
-                    System.arraycopy(x, base + c0 + j, t, 0, len);
+                int j = 0;
+                // four taps a pass: fewer loads and stores of the accumulator
+                for (; j + 3 < nt; j += 4) {
+                    final int s0 = base + c0 + j;
+                    System.arraycopy(x, s0, t0, 0, len);
+                    System.arraycopy(x, s0 + 1, t1, 0, len);
+                    System.arraycopy(x, s0 + 2, t2, 0, len);
+                    System.arraycopy(x, s0 + 3, t3, 0, len);
+                    final float h0 = h[j];
+                    final float h1 = h[j + 1];
+                    final float h2 = h[j + 2];
+                    final float h3 = h[j + 3];
+                    for (int i = 0; i < len; i++) {
+                        a[i] += h0 * t0[i] + h1 * t1[i] + h2 * t2[i] + h3 * t3[i];
+                    }
+                }
+                for (; j < nt; j++) {
+                    System.arraycopy(x, base + c0 + j, t0, 0, len);
                     final float hj = h[j];
                     for (int i = 0; i < len; i++) {
-                        a[i] += hj * t[i];
+                        a[i] += hj * t0[i];
                     }
                 }
                 System.arraycopy(a, 0, y, c0, len);
