@@ -34,6 +34,8 @@ final class AnalogStage implements Stage {
     static final int MAX_GAP_ANNOTATIONS = 1000;
     /** Fewest settled samples per state for a window's levels to count. */
     static final long MIN_LEVEL_SAMPLES = 8;
+    /** Samples count as settled on a level when at least this fraction of the way from the threshold to it. */
+    static final double SETTLED_FRACTION = 0.7;
 
     private record Chunk(float[] a, int ao, float[] b, int bo, int len, long[] inv) {
     }
@@ -415,8 +417,9 @@ final class AnalogStage implements Stage {
             int e = (int) Math.min(c.len, pos + (winEnd - abs));
             float thr = cmp.threshold();
             float half = cmp.hysteresis() / 2;
+            float settled = Math.max(half, settledHalfBand());
             cmp.runSegment(pos, e);
-            window.add(c.a, c.ao, c.b, c.bo, base, pos, e, bits, cmp.chunkInvalid(), thr, half, s.statsStride);
+            window.add(c.a, c.ao, c.b, c.bo, base, pos, e, bits, cmp.chunkInvalid(), thr, half, settled, s.statsStride);
             pos = e;
             if (base + e == winEnd) {
                 endWindow();
@@ -438,6 +441,17 @@ final class AnalogStage implements Stage {
         if (e != null) {
             ctx.emit(OUT_EDGES, e);
         }
+    }
+
+    /**
+     * Half-width of the band around the threshold outside which samples count as settled on a
+     * level: {@link #SETTLED_FRACTION} of the way from the threshold to the learned levels, so that
+     * samples on an edge do not pull the levels in. A window with too few settled samples of a
+     * level (the levels dropped suddenly) takes that level from every sample outside the
+     * hysteresis band instead.
+     */
+    private float settledHalfBand() {
+        return levelsLearned ? (float) (SETTLED_FRACTION * (levelHigh - levelLow) / 2) : 0f;
     }
 
     private void endWindow() {
@@ -507,9 +521,6 @@ final class AnalogStage implements Stage {
         }
         boolean thrAuto = s.autoThreshold() && !(s.mode == Settings.Mode.SINGLE && s.reference == Settings.Reference.MEDIAN);
         boolean hysAuto = s.autoHysteresis();
-        if (!thrAuto && !hysAuto) {
-            return;
-        }
         double lo = w.mean(0);
         double hi = w.mean(1);
         if (!levelsLearned) {
@@ -521,6 +532,9 @@ final class AnalogStage implements Stage {
             levelLow += alpha * (lo - levelLow);
             levelHigh += alpha * (hi - levelHigh);
         } else {
+            return;
+        }
+        if (!thrAuto && !hysAuto) {
             return;
         }
         double thr = thrAuto ? 0.5 * (levelLow + levelHigh) : cmp.threshold();
@@ -558,8 +572,8 @@ final class AnalogStage implements Stage {
     /** The checked quantities of a span, by name, in volts. */
     Map<String, Double> quantities(LevelAcc w) {
         Map<String, Double> q = new LinkedHashMap<>();
-        double hi = w.n[1] >= MIN_LEVEL_SAMPLES ? w.mean(1) : Double.NaN;
-        double lo = w.n[0] >= MIN_LEVEL_SAMPLES ? w.mean(0) : Double.NaN;
+        double hi = w.count(1) >= MIN_LEVEL_SAMPLES ? w.mean(1) : Double.NaN;
+        double lo = w.count(0) >= MIN_LEVEL_SAMPLES ? w.mean(0) : Double.NaN;
         switch (s.mode) {
             case PAIR, DIFFERENTIAL -> {
                 q.put("vod-high", Math.abs(hi));
@@ -568,7 +582,7 @@ final class AnalogStage implements Stage {
                 q.put("vid-high", hi);
                 q.put("vid-low", -lo);
                 if (s.mode == Settings.Mode.PAIR) {
-                    q.put("vos", w.n[0] + w.n[1] >= MIN_LEVEL_SAMPLES ? w.cmMean() : Double.NaN);
+                    q.put("vos", w.count(0) + w.count(1) >= MIN_LEVEL_SAMPLES ? w.cmMean() : Double.NaN);
                     q.put("delta-vos", Math.abs(w.cmMean(1) - w.cmMean(0)));
                 }
             }
@@ -680,6 +694,7 @@ final class AnalogStage implements Stage {
         j.field("startFs", cmp.timeAt(a.startIndex, 0)).field("endFs", cmp.timeAt(a.endIndex, 0))
                 .field("samples", a.samples).field("invalidSamples", a.invalid)
                 .field("settledHigh", a.n[1]).field("settledLow", a.n[0])
+                .field("highLevelFromSettled", a.settled(1)).field("lowLevelFromSettled", a.settled(0))
                 .field("highLevelVolts", hi).field("lowLevelVolts", lo)
                 .field("highSpreadVolts", a.spread(1)).field("lowSpreadVolts", a.spread(0))
                 .field("overshootVolts", a.max[1] - hi).field("undershootVolts", lo - a.min[0])

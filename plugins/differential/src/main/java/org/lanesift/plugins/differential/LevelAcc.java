@@ -14,6 +14,12 @@ final class LevelAcc {
     final double[] max = {Double.NEGATIVE_INFINITY, Double.NEGATIVE_INFINITY};
     final double[] cmSum = new double[2];
     final double[] cmSq = new double[2];
+    /** Counts and sums of every sample outside the hysteresis band, used when too few are settled. */
+    final long[] nRaw = new long[2];
+    final double[] sumRaw = new double[2];
+    final double[] cmRaw = new double[2];
+    final double[] sqRaw = new double[2];
+    final double[] cqRaw = new double[2];
     long samples;
     long invalid;
     long startIndex;
@@ -37,11 +43,12 @@ final class LevelAcc {
      * @param bits   comparator state per chunk sample
      * @param inv    invalid samples of the chunk, or null
      * @param thr    threshold
-     * @param half   half the hysteresis band
+     * @param half   half the hysteresis band: samples closer to the threshold are on an edge
+     * @param settled half the band outside which samples count as settled on a level (at least {@code half})
      * @param stride take every stride-th sample
      */
     void add(float[] a, int ao, float[] b, int bo, long base, int s0, int s1, long[] bits, long[] inv, float thr,
-             float half, int stride) {
+             float half, float settled, int stride) {
         samples += s1 - s0;
         long k0 = base + s0;
         long first = ((k0 + stride - 1) / stride) * stride;
@@ -62,6 +69,16 @@ final class LevelAcc {
         double min1 = min[1];
         double max0 = max[0];
         double max1 = max[1];
+        long r0 = nRaw[0];
+        long r1 = nRaw[1];
+        double rs0 = sumRaw[0];
+        double rs1 = sumRaw[1];
+        double rc0 = cmRaw[0];
+        double rc1 = cmRaw[1];
+        double rq0 = sqRaw[0];
+        double rq1 = sqRaw[1];
+        double rcq0 = cqRaw[0];
+        double rcq1 = cqRaw[1];
         for (int i = i0; i < s1; i += stride) {
             if (inv != null && (inv[i >>> 6] & (1L << i)) != 0) {
                 continue;
@@ -69,28 +86,54 @@ final class LevelAcc {
             float x = a[ao + i];
             float y = b == null ? 0f : b[bo + i];
             float d = b == null ? x : x - y;
-            if (Math.abs(d - thr) < half) {
+            float dist = Math.abs(d - thr);
+            if (dist < half) {
                 continue;
             }
             double cm = 0.5 * ((double) x + y);
+            boolean isSettled = dist >= settled;
             if ((bits[i >>> 6] & (1L << i)) != 0) {
-                n1++;
-                sum1 += d;
-                sq1 += (double) d * d;
+                r1++;
+                rs1 += d;
+                rc1 += cm;
+                rq1 += (double) d * d;
+                rcq1 += cm * cm;
                 min1 = d < min1 ? d : min1;
                 max1 = d > max1 ? d : max1;
-                cm1 += cm;
-                cq1 += cm * cm;
+                if (isSettled) {
+                    n1++;
+                    sum1 += d;
+                    sq1 += (double) d * d;
+                    cm1 += cm;
+                    cq1 += cm * cm;
+                }
             } else {
-                n0++;
-                sum0 += d;
-                sq0 += (double) d * d;
+                r0++;
+                rs0 += d;
+                rc0 += cm;
+                rq0 += (double) d * d;
+                rcq0 += cm * cm;
                 min0 = d < min0 ? d : min0;
                 max0 = d > max0 ? d : max0;
-                cm0 += cm;
-                cq0 += cm * cm;
+                if (isSettled) {
+                    n0++;
+                    sum0 += d;
+                    sq0 += (double) d * d;
+                    cm0 += cm;
+                    cq0 += cm * cm;
+                }
             }
         }
+        nRaw[0] = r0;
+        nRaw[1] = r1;
+        sumRaw[0] = rs0;
+        sumRaw[1] = rs1;
+        cmRaw[0] = rc0;
+        cmRaw[1] = rc1;
+        sqRaw[0] = rq0;
+        sqRaw[1] = rq1;
+        cqRaw[0] = rcq0;
+        cqRaw[1] = rcq1;
         n[0] = n0;
         n[1] = n1;
         sum[0] = sum0;
@@ -117,16 +160,25 @@ final class LevelAcc {
         endIndex = base + s1;
     }
 
-    /** Adds another accumulator's counts (a later span). */
+    /**
+     * Adds a later span's counts. For a level the other span had too few settled samples of, its
+     * samples off the edge stand in for settled ones, as they did for that span's own levels.
+     */
     void merge(LevelAcc o) {
         for (int c = 0; c < 2; c++) {
-            n[c] += o.n[c];
-            sum[c] += o.sum[c];
-            sq[c] += o.sq[c];
+            boolean use = o.settled(c);
+            n[c] += use ? o.n[c] : o.nRaw[c];
+            sum[c] += use ? o.sum[c] : o.sumRaw[c];
+            sq[c] += use ? o.sq[c] : o.sqRaw[c];
+            cmSum[c] += use ? o.cmSum[c] : o.cmRaw[c];
+            cmSq[c] += use ? o.cmSq[c] : o.cqRaw[c];
             min[c] = Math.min(min[c], o.min[c]);
             max[c] = Math.max(max[c], o.max[c]);
-            cmSum[c] += o.cmSum[c];
-            cmSq[c] += o.cmSq[c];
+            nRaw[c] += o.nRaw[c];
+            sumRaw[c] += o.sumRaw[c];
+            cmRaw[c] += o.cmRaw[c];
+            sqRaw[c] += o.sqRaw[c];
+            cqRaw[c] += o.cqRaw[c];
         }
         samples += o.samples;
         invalid += o.invalid;
@@ -134,8 +186,16 @@ final class LevelAcc {
         startIndex = Math.min(startIndex, o.startIndex);
     }
 
+    /** Whether class {@code c} has enough settled samples; otherwise its level comes from every sample off the edge. */
+    boolean settled(int c) {
+        return n[c] >= MIN_SETTLED;
+    }
+
     double mean(int c) {
-        return n[c] == 0 ? Double.NaN : sum[c] / n[c];
+        if (settled(c)) {
+            return sum[c] / n[c];
+        }
+        return nRaw[c] == 0 ? Double.NaN : sumRaw[c] / nRaw[c];
     }
 
     double spread(int c) {
@@ -147,12 +207,25 @@ final class LevelAcc {
     }
 
     double cmMean(int c) {
-        return n[c] == 0 ? Double.NaN : cmSum[c] / n[c];
+        if (settled(c)) {
+            return cmSum[c] / n[c];
+        }
+        return nRaw[c] == 0 ? Double.NaN : cmRaw[c] / nRaw[c];
     }
 
     double cmMean() {
-        long t = n[0] + n[1];
-        return t == 0 ? Double.NaN : (cmSum[0] + cmSum[1]) / t;
+        long t = 0;
+        double s = 0;
+        for (int c = 0; c < 2; c++) {
+            if (settled(c)) {
+                t += n[c];
+                s += cmSum[c];
+            } else {
+                t += nRaw[c];
+                s += cmRaw[c];
+            }
+        }
+        return t == 0 ? Double.NaN : s / t;
     }
 
     double cmSpread() {
@@ -164,7 +237,14 @@ final class LevelAcc {
         return Math.sqrt(Math.max(0, (cmSq[0] + cmSq[1]) / t - m * m));
     }
 
-    boolean hasBothLevels(long minCount) {
-        return n[0] >= minCount && n[1] >= minCount;
+    long count(int c) {
+        return Math.max(n[c], nRaw[c]);
     }
+
+    boolean hasBothLevels(long minCount) {
+        return count(0) >= minCount && count(1) >= minCount;
+    }
+
+    /** Fewest settled samples for a class's settled statistics to be used. */
+    static final long MIN_SETTLED = 8;
 }
