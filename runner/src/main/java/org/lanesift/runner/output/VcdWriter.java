@@ -413,6 +413,8 @@ public final class VcdWriter implements Closeable {
             }
             long current = Long.MIN_VALUE;
             boolean first = true;
+            long firstTime = q.isEmpty() ? 0 : q.peek().time - origin;
+            boolean[] wrote = new boolean[list.size()];
             StringBuilder sb = new StringBuilder(128);
             while (!q.isEmpty()) {
                 Cursor c = q.poll();
@@ -432,9 +434,13 @@ public final class VcdWriter implements Closeable {
                     current = t;
                 }
                 Var v = list.get(c.var);
-                sb.setLength(0);
-                value(sb, v, c.value, c.state);
-                w.write(sb.toString());
+                boolean redundant = c.state == UNKNOWN && t == firstTime && !wrote[c.var]; // $dumpvars said x already
+                wrote[c.var] = true;
+                if (!redundant) {
+                    sb.setLength(0);
+                    value(sb, v, c.value, c.state);
+                    w.write(sb.toString());
+                }
                 if (c.next()) {
                     q.add(c);
                 }
