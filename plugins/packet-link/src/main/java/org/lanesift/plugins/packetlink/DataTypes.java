@@ -1,8 +1,8 @@
 package org.lanesift.plugins.packetlink;
 
 /**
- * Names and lengths of packet data types, host-to-peripheral direction (MIPI DSI specification,
- * from memory). Unknown or reserved types are kept raw under the name {@code "reserved-0xNN"}.
+ * Names and lengths of packet data types, host-to-peripheral direction: the standard names of the
+ * MIPI DSI specification (from memory), lower case with hyphens. Unknown or reserved types are kept raw under the name {@code "reserved-0xNN"}.
  */
 final class DataTypes {
     static final int VSYNC_START = 0x01;
@@ -41,7 +41,7 @@ final class DataTypes {
         name(VSYNC_END, "vsync-end");
         name(HSYNC_START, "hsync-start");
         name(HSYNC_END, "hsync-end");
-        name(EOT, "end-of-transmission");
+        name(EOT, "end-of-transmission-packet");
         name(COLOR_MODE_OFF, "color-mode-off");
         name(COLOR_MODE_ON, "color-mode-on");
         name(SHUTDOWN, "shutdown-peripheral");
@@ -57,22 +57,22 @@ final class DataTypes {
         name(DCS_READ, "dcs-read");
         name(SET_MAX_RETURN, "set-maximum-return-packet-size");
         name(0x07, "compression-mode");
-        name(NULL_PACKET, "null");
-        name(BLANKING, "blanking");
+        name(NULL_PACKET, "null-packet");
+        name(BLANKING, "blanking-packet");
         name(GENERIC_LONG_WRITE, "generic-long-write");
         name(DCS_LONG_WRITE, "dcs-long-write");
         name(0x0A, "picture-parameter-set");
         name(0x0B, "compressed-pixel-stream");
-        name(0x0C, "pixels-ycbcr-20-loose");
-        name(0x1C, "pixels-ycbcr-24");
-        name(0x2C, "pixels-ycbcr-16");
-        name(0x0D, "pixels-rgb-30");
-        name(0x1D, "pixels-rgb-36");
-        name(0x3D, "pixels-ycbcr-12");
-        name(PIXELS_16, "pixels-rgb565");
-        name(PIXELS_18, "pixels-rgb666");
-        name(PIXELS_18_LOOSE, "pixels-rgb666-loose");
-        name(PIXELS_24, "pixels-rgb888");
+        name(0x0C, "loosely-packed-pixel-stream-ycbcr-20");
+        name(0x1C, "packed-pixel-stream-ycbcr-24");
+        name(0x2C, "packed-pixel-stream-ycbcr-16");
+        name(0x0D, "packed-pixel-stream-rgb-30");
+        name(0x1D, "packed-pixel-stream-rgb-36");
+        name(0x3D, "packed-pixel-stream-ycbcr-12");
+        name(PIXELS_16, "packed-pixel-stream-rgb565");
+        name(PIXELS_18, "packed-pixel-stream-rgb666");
+        name(PIXELS_18_LOOSE, "loosely-packed-pixel-stream-rgb666");
+        name(PIXELS_24, "packed-pixel-stream-rgb888");
         // Long packets have a data type whose low nibble is 0x9..0xF (all long types listed above do;
         // every short type has 0x0..0x8). Reserved types follow the same rule so that their length is
         // still taken from the header.

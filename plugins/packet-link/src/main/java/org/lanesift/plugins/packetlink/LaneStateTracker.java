@@ -72,8 +72,6 @@ final class LaneStateTracker {
     private boolean escape;
     private long escapeStartFs;
     private final List<long[]> marks = new ArrayList<>();
-    private LaneState pendingMark;
-    private long pendingMarkStartFs;
 
     final ArrayDeque<Interval> intervals = new ArrayDeque<>();
     private Interval open;
@@ -252,7 +250,6 @@ final class LaneStateTracker {
             escape = true;
             escapeStartFs = sequenceSpans.get(0)[0];
             marks.clear();
-            pendingMark = null;
             out.accept(Annotation.on(track, "escape-entry").span(escapeStartFs, startFs).label("escape mode entry")
                     .field("lane", Field.integer(lane, "")).build());
         } else if (matches(LaneState.LP10, LaneState.LP00, LaneState.LP10, LaneState.LP00)) {
@@ -294,13 +291,8 @@ final class LaneStateTracker {
     }
 
     private void escapeStep(LaneState prev, long prevStart, long prevEnd, LaneState next) {
-        if (prev == LaneState.LP10 || prev == LaneState.LP01) {
-            pendingMark = prev;
-            pendingMarkStartFs = prevStart;
-            if (next == LaneState.LP00) {
-                marks.add(new long[] {prev == LaneState.LP10 ? 1 : 0, prevStart, prevEnd});
-                pendingMark = null;
-            }
+        if ((prev == LaneState.LP10 || prev == LaneState.LP01) && next == LaneState.LP00) {
+            marks.add(new long[] {prev == LaneState.LP10 ? 1 : 0, prevStart, prevEnd});
         }
     }
 

@@ -5,7 +5,6 @@ import org.lanesift.plugin.OptionException;
 import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.OptionValues;
 import org.lanesift.plugin.PluginDescriptor;
-import org.lanesift.time.Femtos;
 
 /** The validated options of one instance, with the cross-option checks. */
 final class LinkConfig {
@@ -104,9 +103,5 @@ final class LinkConfig {
 
     int maxBits() {
         return (int) Math.min(Integer.MAX_VALUE - 128, maxBurstBytes * 8);
-    }
-
-    static String fs(long t) {
-        return Femtos.format(t);
     }
 }
