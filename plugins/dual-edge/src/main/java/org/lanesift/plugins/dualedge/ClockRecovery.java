@@ -88,8 +88,15 @@ final class ClockRecovery {
     long firstEdgeFs = Long.MIN_VALUE;
     String patternVerdict = "";
 
+    private final double glitchFraction;
+    private final double dropoutPeriods;
+    private final boolean multiplied;
+
     ClockRecovery(SamplerConfig cfg, EdgeQueue q, AnnotationQueue notes) {
         this.cfg = cfg;
+        this.glitchFraction = cfg.glitchFraction();
+        this.dropoutPeriods = cfg.dropoutPeriods();
+        this.multiplied = cfg.mode() == SamplerConfig.Mode.MULTIPLIED;
         this.q = q;
         this.notes = notes;
     }
@@ -298,9 +305,17 @@ final class ClockRecovery {
     /** @return {@link #TRACK_DONE}, {@link #TRACK_PAUSED}, or {@link #TRACK_REACQUIRE} after a dropout */
     private int track(long horizon, boolean finishing) {
         final long end = q.globalEnd();
-        final double minW = cfg.glitchFraction() * periodFs;
+        final long[] tt = q.t;
+        final long base = q.base;
         while (pos < end) {
-            long t = q.time(pos);
+            if (pending && haveLast && !afterDropout && haveSame[0] && haveSame[1] && periodCount > 0 && !q.hasSpans()) {
+                steady(tt, base, end);
+                if (pos >= end) {
+                    break;
+                }
+            }
+            final long t = tt[(int) (pos - base)];
+            final double minW = glitchFraction * periodFs;
             if (accCount >= maxAccepted) {
                 pausedFull = true;
                 return TRACK_PAUSED;
@@ -313,7 +328,7 @@ final class ClockRecovery {
                 if (w < minW) {
                     // (pending, t) is a runt unless (t, next) is narrower still: remove the narrower pulse
                     if (pos + 1 < end) {
-                        long t2 = q.time(pos + 1);
+                        long t2 = tt[(int) (pos + 1 - base)];
                         if (t2 - t <= w) {
                             glitch(t, t2);
                             pos += 2;
@@ -337,10 +352,120 @@ final class ClockRecovery {
             pendingRising = q.rising(pos);
             pos++;
         }
-        if (pending && (finishing || horizon > pendingT + minW) && pendingT <= timeLimit) {
+        if (pending && (finishing || horizon > pendingT + glitchFraction * periodFs)) {
             return finalizePending() ? TRACK_DONE : TRACK_REACQUIRE;
         }
         return TRACK_DONE;
+    }
+
+    /**
+     * The steady state of {@link #track}: the same decisions as the general loop for edges that are
+     * neither glitch candidates nor dropouts, with the state held in locals. Stops (leaving the rest
+     * to the general loop) at the first edge that needs anything else.
+     */
+    private void steady(long[] tt, long base, long end) {
+        final double alpha = ALPHA;
+        final double gf = glitchFraction;
+        final double dp = dropoutPeriods;
+        final long tl = timeLimit;
+        final boolean mult = multiplied;
+        final boolean inv = inverted;
+        final boolean init = q.initialLevel;
+        final long[] aT = accT;
+        final double[] aP = accP;
+        final byte[] aF = accFlags;
+        final long[] aI = accIndex;
+        final int lim = Math.min(maxAccepted, aT.length);
+        final double ref = periodRef;
+        double period = periodFs;
+        long pT = pendingT;
+        boolean pR = pendingRising;
+        long pRaw = pendingRaw;
+        long lastT = lastFinalT;
+        boolean lastR = lastFinalRising;
+        long lsR = lastSame[1];
+        long lsF = lastSame[0];
+        int ac = accCount;
+        long acc = accepted;
+        long refs = referenceEdges;
+        long pc = periodCount;
+        double pSum = periodSum;
+        double pSq = periodSumSq;
+        double pMin = periodMin;
+        double pMax = periodMax;
+        long dc = dutyCount;
+        double dSum = dutySum;
+        double dMin = dutyMin;
+        double dMax = dutyMax;
+        long p = pos;
+        while (p < end && ac < lim) {
+            final long t = tt[(int) (p - base)];
+            if (t > tl || t - pT < gf * period) {
+                break;
+            }
+            final double dl = dp * period;
+            final long same = pR ? lsR : lsF;
+            if (pT - lastT > dl || pT - same > dl) {
+                break;
+            }
+            final double iv = pT - same;
+            period += (iv - period) * alpha;
+            pc++;
+            final double dv = iv - ref;
+            pSum += dv;
+            pSq += dv * dv;
+            pMin = iv < pMin ? iv : pMin;
+            pMax = iv > pMax ? iv : pMax;
+            if (!pR && lastR) {
+                double duty = (pT - lastT) / period;
+                dc++;
+                dSum += duty;
+                dMin = duty < dMin ? duty : dMin;
+                dMax = duty > dMax ? duty : dMax;
+            }
+            final boolean reference = mult ? pR != inv : pR;
+            aT[ac] = pT;
+            aP[ac] = period;
+            aF[ac] = (byte) ((pR ? RISING : 0) | (reference ? REFERENCE : 0));
+            aI[ac] = mult ? (reference ? refs : -1) : acc;
+            ac++;
+            acc++;
+            if (reference) {
+                refs++;
+            }
+            if (pR) {
+                lsR = pT;
+            } else {
+                lsF = pT;
+            }
+            lastT = pT;
+            lastR = pR;
+            pT = t;
+            pR = init ^ ((p & 1) == 0);
+            pRaw = p;
+            p++;
+        }
+        periodFs = period;
+        pendingT = pT;
+        pendingRising = pR;
+        pendingRaw = pRaw;
+        lastFinalT = lastT;
+        lastFinalRising = lastR;
+        lastSame[1] = lsR;
+        lastSame[0] = lsF;
+        accCount = ac;
+        accepted = acc;
+        referenceEdges = refs;
+        periodCount = pc;
+        periodSum = pSum;
+        periodSumSq = pSq;
+        periodMin = pMin;
+        periodMax = pMax;
+        dutyCount = dc;
+        dutySum = dSum;
+        dutyMin = dMin;
+        dutyMax = dMax;
+        pos = p;
     }
 
     private void glitch(long a, long b) {
@@ -357,7 +482,7 @@ final class ClockRecovery {
         if (afterDropout) {
             restart = true;
         } else if (haveLast) {
-            double limit = cfg.dropoutPeriods() * periodFs;
+            double limit = dropoutPeriods * periodFs;
             if (t - lastFinalT > limit || (haveSame[d] && t - lastSame[d] > limit)) {
                 dropouts++;
                 notes.add(Annotation.on(TRACK, "clock-dropout").span(lastFinalT, t).severity(Severity.ERROR)
@@ -372,8 +497,7 @@ final class ClockRecovery {
                 return false;
             }
         }
-        long from = haveLast ? lastFinalT : t - (long) periodFs;
-        boolean suspect = q.hasSpans() && q.spanOverlaps(from, t);
+        boolean suspect = q.hasSpans() && q.spanOverlaps(haveLast ? lastFinalT : t - (long) periodFs, t);
         if (haveSame[d]) {
             double iv = t - lastSame[d];
             periodFs += (iv - periodFs) * ALPHA;
@@ -402,7 +526,7 @@ final class ClockRecovery {
                 dutyMax = duty;
             }
         }
-        boolean reference = cfg.mode() == SamplerConfig.Mode.MULTIPLIED ? rising != inverted : rising;
+        boolean reference = multiplied ? rising != inverted : rising;
         if (accCount == accT.length) {
             int n = accT.length * 2;
             accT = Arrays.copyOf(accT, n);
@@ -414,7 +538,7 @@ final class ClockRecovery {
         accP[accCount] = periodFs;
         accFlags[accCount] = (byte) ((rising ? RISING : 0) | (restart ? RESTART : 0) | (suspect ? SUSPECT : 0)
                 | (reference ? REFERENCE : 0));
-        accIndex[accCount] = cfg.mode() == SamplerConfig.Mode.MULTIPLIED ? (reference ? referenceEdges : -1) : accepted;
+        accIndex[accCount] = multiplied ? (reference ? referenceEdges : -1) : accepted;
         accCount++;
         if (firstEdgeFs == Long.MIN_VALUE) {
             firstEdgeFs = t;

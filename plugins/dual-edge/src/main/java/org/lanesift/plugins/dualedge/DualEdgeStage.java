@@ -52,7 +52,7 @@ final class DualEdgeStage implements Stage {
         }
         cr = new ClockRecovery(cfg, clockQ, notes);
         planner = new SamplePlanner(cfg);
-        sb = new SampleBuf();
+        sb = new SampleBuf(cfg.marginThreshold());
         if (!cfg.autoPhase()) {
             phaseKnown = true;
             phaseIsUi = cfg.phaseIsUi();

@@ -73,22 +73,20 @@ final class LaneSampler {
         final long base = q.base;
         final long initBit = q.initialLevel ? 1 : 0;
         final long[] ss = sb.s;
-        final double[] uis = sb.ui;
+        final long[] rs = sb.reach;
+        final long[] ths = sb.thr;
+        final long[] sc = sb.scale;
         final byte[] fl = sb.flags;
-        final double thrFrac = threshold;
         final long[] vals = values;
         final long[] flg = flagged;
         final long[] su = setup;
         final long[] ho = hold;
         final long[] sh = stats.setupHist;
         final long[] hh = stats.holdHist;
-        final double bins = MarginStats.BINS;
+        final long maxBin = MarginStats.BINS;
         final int unknownBin = MarginStats.BINS + 1;
         long minS = stats.minSetupFs;
         long minH = stats.minHoldFs;
-        double minSu = stats.minSetupUi;
-        double minHu = stats.minHoldUi;
-        double uiSum = 0;
         int j = (int) Math.max(head, Math.min(q.tail, cursor - base));
         long vWord = 0;
         long fWord = 0;
@@ -102,25 +100,27 @@ final class LaneSampler {
             while (j > head && tt[j - 1] > s) {
                 j--;
             }
-            final double ui = uis[i];
-            uiSum += ui;
-            final double inv = 1.0 / ui;
-            final long reach = (long) ui;
+            final long reach = rs[i];
             long a = j > head ? s - tt[j - 1] : UNKNOWN;
-            a = a > reach ? UNKNOWN : a;
+            final boolean ua = a > reach;
+            a = ua ? UNKNOWN : a;
             long b = tt[j] - s; // the sentinel gives a huge value (or, for negative times, an overflow)
-            b = (b > reach | b < 0) ? UNKNOWN : b;
+            final boolean ub = b > reach | b < 0;
+            b = ub ? UNKNOWN : b;
             su[i] = a;
             ho[i] = b;
-            final double ra = a * inv;
-            final double rb = b * inv;
-            sh[a == UNKNOWN ? unknownBin : (int) (ra * bins)]++;
-            hh[b == UNKNOWN ? unknownBin : (int) (rb * bins)]++;
-            minS = a < minS ? a : minS;
-            minH = b < minH ? b : minH;
-            minSu = ra < minSu ? ra : minSu;
-            minHu = rb < minHu ? rb : minHu;
-            final long thr = (long) Math.ceil(thrFrac * ui);
+            final long k = sc[i];
+            sh[ua ? unknownBin : (int) Math.min(maxBin, (a * k) >>> 40)]++;
+            hh[ub ? unknownBin : (int) Math.min(maxBin, (b * k) >>> 40)]++;
+            if (a < minS) {
+                minS = a;
+                stats.minSetupUi = a / sb.ui[i];
+            }
+            if (b < minH) {
+                minH = b;
+                stats.minHoldUi = b / sb.ui[i];
+            }
+            final long thr = ths[i];
             vWord |= (((base + j) ^ initBit) & 1L) << i;
             final boolean f = a < thr | b < thr | (fl[i] & SampleBuf.SUSPECT) != 0;
             if (f) {
@@ -143,9 +143,6 @@ final class LaneSampler {
         cursor = base + j;
         stats.minSetupFs = minS;
         stats.minHoldFs = minH;
-        stats.minSetupUi = minSu;
-        stats.minHoldUi = minHu;
-        stats.uiSum += uiSum;
     }
 
     private void sampleSlow(SampleBuf sb, int n, boolean finishing, AnnotationQueue notes) {
@@ -165,8 +162,7 @@ final class LaneSampler {
                 j--;
             }
             final double ui = sb.ui[i];
-            stats.uiSum += ui;
-            final long reach = (long) ui;
+            final long reach = sb.reach[i];
             long prevT = j > head ? tt[j - 1] : Long.MIN_VALUE;
             long nextT = j < tail ? tt[j] : Long.MAX_VALUE;
             boolean unknown = !q.started || s < q.startFs || (finishing && s >= q.endFs);
@@ -203,23 +199,27 @@ final class LaneSampler {
             } else {
                 a = prevT == Long.MIN_VALUE || s - prevT > reach ? UNKNOWN : s - prevT;
                 b = nextT == Long.MAX_VALUE || nextT - s > reach ? UNKNOWN : nextT - s;
-                long thr = (long) Math.ceil(threshold * ui);
+                long thr = sb.thr[i];
                 f = a < thr || b < thr || (sb.flags[i] & SampleBuf.SUSPECT) != 0;
                 if (a == UNKNOWN) {
                     stats.setupHist[MarginStats.BINS + 1]++;
                 } else {
                     double r = a / ui;
-                    stats.setupHist[(int) (r * MarginStats.BINS)]++;
-                    stats.minSetupFs = Math.min(stats.minSetupFs, a);
-                    stats.minSetupUi = Math.min(stats.minSetupUi, r);
+                    stats.setupHist[(int) Math.min(MarginStats.BINS, (a * sb.scale[i]) >>> 40)]++;
+                    if (a < stats.minSetupFs) {
+                        stats.minSetupFs = a;
+                        stats.minSetupUi = r;
+                    }
                 }
                 if (b == UNKNOWN) {
                     stats.holdHist[MarginStats.BINS + 1]++;
                 } else {
                     double r = b / ui;
-                    stats.holdHist[(int) (r * MarginStats.BINS)]++;
-                    stats.minHoldFs = Math.min(stats.minHoldFs, b);
-                    stats.minHoldUi = Math.min(stats.minHoldUi, r);
+                    stats.holdHist[(int) Math.min(MarginStats.BINS, (b * sb.scale[i]) >>> 40)]++;
+                    if (b < stats.minHoldFs) {
+                        stats.minHoldFs = b;
+                        stats.minHoldUi = r;
+                    }
                 }
             }
             setup[i] = a;

@@ -28,7 +28,6 @@ final class MarginStats {
     long minHoldFs = Long.MAX_VALUE;
     double minSetupUi = Double.POSITIVE_INFINITY;
     double minHoldUi = Double.POSITIVE_INFINITY;
-    double uiSum;
     long lowRuns;
 
     /**

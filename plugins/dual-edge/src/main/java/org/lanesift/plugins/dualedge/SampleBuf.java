@@ -14,12 +14,21 @@ final class SampleBuf {
     long[] s = new long[4096];
     long[] edge = new long[4096];
     double[] ui = new double[4096];
+    /** Margin reach (one UI) in whole femtoseconds. */
+    long[] reach = new long[4096];
+    /** Flag threshold: a margin below this many femtoseconds is flagged. */
+    long[] thr = new long[4096];
+    /** Histogram scale: bin = (margin * scale) >>> 40 for bins of 1/BINS UI. */
+    long[] scale = new long[4096];
     byte[] flags = new byte[4096];
     byte[] slot = new byte[4096];
     int n;
     /** Samples before this index have their sample time set. */
     int applied;
-    SampleBuf() {
+    private final double threshold;
+
+    SampleBuf(double threshold) {
+        this.threshold = threshold;
     }
 
     void add(long nominalFs, long edgeIndex, double uiFs, boolean falling, boolean suspect, int slotIndex) {
@@ -29,12 +38,18 @@ final class SampleBuf {
             s = Arrays.copyOf(s, c);
             edge = Arrays.copyOf(edge, c);
             ui = Arrays.copyOf(ui, c);
+            reach = Arrays.copyOf(reach, c);
+            thr = Arrays.copyOf(thr, c);
+            scale = Arrays.copyOf(scale, c);
             flags = Arrays.copyOf(flags, c);
             slot = Arrays.copyOf(slot, c);
         }
         nominal[n] = nominalFs;
         edge[n] = edgeIndex;
         ui[n] = uiFs;
+        reach[n] = (long) uiFs;
+        thr[n] = (long) Math.ceil(threshold * uiFs);
+        scale[n] = (long) (MarginStats.BINS * 1099511627776.0 / uiFs); // 2^40
         flags[n] = (byte) ((falling ? FALLING : 0) | (suspect ? SUSPECT : 0));
         slot[n] = (byte) slotIndex;
         n++;
@@ -73,6 +88,9 @@ final class SampleBuf {
         System.arraycopy(s, k, s, 0, r);
         System.arraycopy(edge, k, edge, 0, r);
         System.arraycopy(ui, k, ui, 0, r);
+        System.arraycopy(reach, k, reach, 0, r);
+        System.arraycopy(thr, k, thr, 0, r);
+        System.arraycopy(scale, k, scale, 0, r);
         System.arraycopy(flags, k, flags, 0, r);
         System.arraycopy(slot, k, slot, 0, r);
         n = r;
