@@ -117,12 +117,12 @@ final class PluginsCommand implements Callable<Integer> {
                 if (!o.unit().isEmpty()) {
                     sb.append(" [").append(o.unit()).append(']');
                 }
-                sb.append(o.defaultValue() == null ? ", required" : ", default " + show(o.defaultValue()));
+                sb.append(o.defaultValue() == null ? ", required" : ", default " + visible(show(o.defaultValue())));
                 if (o.min() != null || o.max() != null) {
                     sb.append(", range ").append(o.range());
                 }
                 if (!o.choices().isEmpty()) {
-                    sb.append(", one of ").append(String.join("|", o.choices()));
+                    sb.append(", one of ").append(String.join("|", o.choices().stream().map(PluginsCommand::visible).toList()));
                 }
                 if (!o.help().isBlank()) {
                     sb.append(": ").append(o.help());
@@ -145,6 +145,11 @@ final class PluginsCommand implements Callable<Integer> {
             sb.append(p.name()).append(" (").append(p.kind()).append(inputs && !p.required() ? ", optional" : "").append(')');
         }
         return sb.toString();
+    }
+
+    /** Control characters as escapes, so a tab choice shows as \\t. */
+    static String visible(String s) {
+        return s.replace("\t", "\\t").replace("\n", "\\n").replace("\r", "\\r");
     }
 
     private static String pad(String s, int w) {

@@ -23,6 +23,11 @@ class PluginsCommandTest {
     }
 
     @Test
+    void controlCharactersInChoicesAreShownEscaped() {
+        assertEquals("\\t|;", PluginsCommand.visible("\t|;"));
+    }
+
+    @Test
     void jsonHasEveryFieldTheDocsPromise() throws Exception {
         Cli r = Cli.run("plugins", "--json");
         assertEquals(0, r.code(), r::toString);
