@@ -22,6 +22,8 @@ final class CsvLayout {
     static final int HEAD_BYTES = 1 << 20;
     /** Most columns accepted. */
     static final int MAX_COLUMNS = 4096;
+    /** Lines searched for the first data row. */
+    static final int MAX_LEAD_LINES = 4096;
 
     enum TimeKind { SECONDS, INDEX, NONE }
 
@@ -110,7 +112,7 @@ final class CsvLayout {
         if (!truncatedHead && allBlank(head, start, head.length)) {
             throw new CaptureFormatException(file, 0, "the file is empty; expected a header line and rows of numbers");
         }
-        for (int i = 0; i < lines.size(); i++) {
+        for (int i = 0, n = Math.min(lines.size(), MAX_LEAD_LINES + 2); i < n; i++) {
             int[] ln = lines.get(i);
             int cols = 1;
             for (int k = ln[0]; k < ln[1] && cols <= MAX_COLUMNS * 4; k++) {
@@ -157,7 +159,7 @@ final class CsvLayout {
         if (best == null) {
             String seps = sepOption.equals("auto") ? "',', ';' or tab" : "'" + printable(sepOption) + "'";
             throw new CaptureFormatException(file, 0, "found no rows of numbers separated by " + seps
-                    + " in the first " + lines.size() + " lines; expected an optional header line followed by numeric rows"
+                    + " in the first " + Math.min(lines.size(), MAX_LEAD_LINES) + " lines; expected an optional header line followed by numeric rows"
                     + " (check the 'separator' and 'decimalComma' options)");
         }
         l.separator = best[0];
@@ -264,7 +266,7 @@ final class CsvLayout {
         double steadyT = Double.NaN;
         boolean broken = false;
         long bytes = 0;
-        for (int i = bestData; i < lines.size() && rows < 10_000; i++) {
+        for (int i = bestData; i < lines.size() && rows < 2_000; i++) {
             int[] ln = lines.get(i);
             if (allBlank(head, ln[0], ln[1])) {
                 continue;
@@ -412,7 +414,7 @@ final class CsvLayout {
     private static int firstDataLine(byte[] head, List<int[]> lines, byte sep, boolean dc, NumberParser np) {
         int prevNumeric = -1;
         int prevCount = -1;
-        for (int i = 0; i < lines.size(); i++) {
+        for (int i = 0, n = Math.min(lines.size(), MAX_LEAD_LINES); i < n; i++) {
             int[] ln = lines.get(i);
             if (allBlank(head, ln[0], ln[1])) {
                 continue;

@@ -245,15 +245,13 @@ final class CsvReader implements CaptureReader {
         if (end == s) {
             return 0;
         }
-        int j = 0;
-        int fs = s;
-        int result = 1;
         final int[] act = action;
         final int nf = act.length;
-        for (int k = s; k <= end; k++) {
-            if (k != end && b[k] != sep) {
-                continue;
-            }
+        final byte sp = sep;
+        int result = 1;
+        int j = 0;
+        int k = s;
+        while (true) {
             if (j >= nf) {
                 if (isHeader(b, s, end)) {
                     return 0;
@@ -262,23 +260,23 @@ final class CsvReader implements CaptureReader {
                         + ", found " + countFields(b, s, end));
             }
             int a = act[j];
-            if (a != -2) {
-                int cs = fs;
-                int ce = k;
-                if (ce - cs >= 2 && b[cs] == '"' && b[ce - 1] == '"') {
-                    cs++;
-                    ce--;
+            int fs = k;
+            if (a == -2) {
+                while (k < end && b[k] != sp) {
+                    k++;
                 }
-                double d = np.parse(b, cs, ce, dc);
-                if (!np.ok) {
-                    if (isBlank(b, cs, ce) && a >= 0) {
-                        d = Double.NaN;
-                    } else {
-                        if (isHeader(b, s, end)) {
-                            return 0;
-                        }
-                        throw new CaptureFormatException(file, line, "column " + (j + 1) + " (" + columnName(j) + "): expected a number"
-                                + (dc ? " with a decimal comma" : "") + ", found '" + text(b, fs, k) + "'");
+            } else {
+                double d = np.parseField(b, k, end, sp, dc);
+                if (np.ok) {
+                    k = np.stop;
+                } else {
+                    while (k < end && b[k] != sp) {
+                        k++;
+                    }
+                    d = slowCell(b, s, end, fs, k, a, j);
+                    if (skipLine) {
+                        skipLine = false;
+                        return 0;
                     }
                 }
                 if (a >= 0) {
@@ -292,17 +290,50 @@ final class CsvReader implements CaptureReader {
                 }
             }
             j++;
-            fs = k + 1;
-        }
-        if (j < nf) {
-            if (!(j == nf - 1 && act[nf - 1] == -2)) {
-                if (isHeader(b, s, end)) {
-                    return 0;
-                }
-                throw new CaptureFormatException(file, line, "expected " + nf + " fields separated by " + sepName() + ", found " + j);
+            if (k >= end) {
+                break;
             }
+            k++; // the separator
+        }
+        if (j < nf && !(j == nf - 1 && act[nf - 1] == -2)) {
+            if (isHeader(b, s, end)) {
+                return 0;
+            }
+            throw new CaptureFormatException(file, line, "expected " + nf + " fields separated by " + sepName() + ", found " + j);
         }
         return result;
+    }
+
+    /** Set by {@link #slowCell} when the line is a repeated header. */
+    private boolean skipLine;
+
+    /** A cell the one-pass parser did not take: quoted, blank, or not a number. */
+    private double slowCell(byte[] b, int s, int end, int fs, int k, int a, int j) {
+        int cs = fs;
+        int ce = k;
+        while (cs < ce && b[cs] == ' ') {
+            cs++;
+        }
+        while (ce > cs && b[ce - 1] == ' ') {
+            ce--;
+        }
+        if (ce - cs >= 2 && b[cs] == '"' && b[ce - 1] == '"') {
+            cs++;
+            ce--;
+        }
+        double d = np.parse(b, cs, ce, dc);
+        if (np.ok) {
+            return d;
+        }
+        if (isBlank(b, cs, ce) && a >= 0) {
+            return Double.NaN;
+        }
+        if (isHeader(b, s, end)) {
+            skipLine = true;
+            return 0;
+        }
+        throw new CaptureFormatException(file, line, "column " + (j + 1) + " (" + columnName(j) + "): expected a number"
+                + (dc ? " with a decimal comma" : "") + ", found '" + text(b, fs, k) + "'");
     }
 
     private void checkTime(double t, int column, int row) {

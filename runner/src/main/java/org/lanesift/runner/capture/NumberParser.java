@@ -19,10 +19,7 @@ final class NumberParser {
         1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16,
         1e17, 1e18, 1e19, 1e20, 1e21, 1e22};
     private static final long TWO53 = 1L << 53;
-    private static final long[] POW10L = {
-        1L, 10L, 100L, 1_000L, 10_000L, 100_000L, 1_000_000L, 10_000_000L, 100_000_000L, 1_000_000_000L,
-        10_000_000_000L, 100_000_000_000L, 1_000_000_000_000L, 10_000_000_000_000L, 100_000_000_000_000L,
-        1_000_000_000_000_000L, 10_000_000_000_000_000L, 100_000_000_000_000_000L, 1_000_000_000_000_000_000L};
+
 
     /** Whether the last {@link #parse} call found a number. */
     boolean ok;
@@ -46,6 +43,40 @@ final class NumberParser {
         while (to > from && (b[to - 1] == ' ' || b[to - 1] == '\t' || b[to - 1] == '\r')) {
             to--;
         }
+        double v = scan(b, from, to, decimalComma);
+        if (ok && stop != to) {
+            ok = false;
+        }
+        return v;
+    }
+
+    /**
+     * Parses one field that starts at {@code from} and ends at the next {@code sep} or at
+     * {@code limit}, in one pass. On success {@link #ok} is set and {@link #stop} is the index of
+     * the separator (or {@code limit}); on failure the caller falls back to {@link #parse}.
+     */
+    double parseField(byte[] b, int from, int limit, byte sep, boolean decimalComma) {
+        while (from < limit && b[from] == ' ') {
+            from++;
+        }
+        double v = scan(b, from, limit, decimalComma);
+        if (ok) {
+            int j = stop;
+            while (j < limit && (b[j] == ' ' || (b[j] == '\t' && sep != '\t'))) {
+                j++;
+            }
+            if (j < limit && b[j] != sep) {
+                ok = false;
+            }
+            stop = j;
+        }
+        return v;
+    }
+
+    /** Index just after the number the last call read. */
+    int stop;
+
+    private double scan(byte[] b, int from, int to, boolean decimalComma) {
         ok = false;
         int i = from;
         if (i >= to) {
@@ -57,89 +88,86 @@ final class NumberParser {
             i++;
         }
         byte mark = decimalComma ? (byte) ',' : (byte) '.';
-        long m = 0;            // significant digits, at most 18, trailing zeros deferred
-        int sig = 0;           // digits in m
-        int zeros = 0;         // zeros seen since the last non-zero digit taken into m
-        int tail = 0;          // digits after the first significant one that are not in m
+        long m = 0;            // the first 18 significant digits
+        int nd = 0;            // digits in m from the first non-zero one
+        int tail = 0;          // significant digits beyond those 18
         int frac = 0;          // digits after the decimal mark
         int digits = 0;
-        boolean full = false;
+        int inFrac = 0;
         boolean dropped = false; // a non-zero digit did not fit into m
-        boolean point = false;
         for (; i < to; i++) {
             int c = b[i];
-            if (c >= '0' && c <= '9') {
+            int d = c - '0';
+            if (d >= 0 && d <= 9) {
                 digits++;
-                if (point) {
-                    frac++;
-                }
-                int d = c - '0';
-                if (m == 0 && d == 0) {
-                    continue; // leading zero
-                }
-                if (full) {
+                frac += inFrac;
+                if (nd < 18) {
+                    m = m * 10 + d;
+                    if (m != 0) {
+                        nd++;
+                    }
+                } else {
                     tail++;
                     dropped |= d != 0;
-                } else if (d == 0) {
-                    zeros++;
-                    tail++;
-                } else if (sig + zeros + 1 > 18) {
-                    full = true;
-                    tail++;
-                    dropped = true;
-                } else {
-                    m = m * POW10L[zeros + 1] + d;
-                    sig += zeros + 1;
-                    tail -= zeros;
-                    zeros = 0;
                 }
-            } else if (c == mark && !point) {
-                point = true;
+            } else if (c == mark && inFrac == 0) {
+                inFrac = 1;
             } else {
                 break;
             }
         }
         int exp10 = tail - frac;
         if (digits == 0) {
-            return special(b, from, to, neg);
-        }
-        if (i < to) {
-            int c = b[i];
-            if (c != 'e' && c != 'E') {
-                return 0;
+            int j = i;
+            while (j < to && ((b[j] | 0x20) >= 'a' && (b[j] | 0x20) <= 'z')) {
+                j++;
             }
+            stop = j;
+            return special(b, from, j, neg);
+        }
+        if (i < to && (b[i] == 'e' || b[i] == 'E')) {
             i++;
             boolean eneg = false;
             if (i < to && (b[i] == '-' || b[i] == '+')) {
                 eneg = b[i] == '-';
                 i++;
             }
-            if (i >= to) {
-                return 0;
-            }
             int e = 0;
+            int ed = 0;
             for (; i < to; i++) {
                 int d = b[i] - '0';
                 if (d < 0 || d > 9) {
-                    return 0;
+                    break;
                 }
+                ed++;
                 if (e < 100_000) {
                     e = e * 10 + d;
                 }
             }
+            if (ed == 0) {
+                stop = i;
+                return 0;
+            }
             exp10 += eneg ? -e : e;
         }
+        stop = i;
         ok = true;
         lastExp10 = exp10 - tail;
         if (m == 0) {
             return neg ? -0.0 : 0.0;
+        }
+        if (m >= TWO53 && !dropped) {
+            while (m % 10 == 0) { // trailing zeros of a long mantissa
+                m /= 10;
+                exp10++;
+            }
         }
         if (!dropped && m < TWO53 && exp10 >= -22 && exp10 <= 22) {
             double v = m;
             v = exp10 < 0 ? v / POW10[-exp10] : v * POW10[exp10];
             return neg ? -v : v;
         }
-        return slow(b, from, to, decimalComma);
+        return slow(b, from, i, decimalComma);
     }
 
     private double special(byte[] b, int from, int to, boolean neg) {

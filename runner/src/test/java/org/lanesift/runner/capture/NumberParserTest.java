@@ -26,6 +26,12 @@ class NumberParserTest {
         double got = np.parse(b, 0, b.length, decimalComma);
         assertTrue(np.ok, () -> "rejected '" + text + "'");
         double want = Double.parseDouble(decimalComma ? text.replace(',', '.') : text);
+        // the one-pass field parser of the CSV reader, with a separator and another field after it
+        byte sep = decimalComma ? (byte) ';' : (byte) ',';
+        byte[] row = (text + (char) sep + "9").getBytes(StandardCharsets.ISO_8859_1);
+        double field = np.parseField(row, 0, row.length, sep, decimalComma);
+        assertTrue(np.ok && np.stop == b.length, () -> "field parser stopped wrongly in '" + text + "'");
+        assertEquals(Double.doubleToLongBits(want), Double.doubleToLongBits(field), () -> "field '" + text + "'");
         if (Double.doubleToLongBits(got) != Double.doubleToLongBits(want)) {
             assertEquals(want, got, 0.0, "'" + text + "' parsed as " + got + ", Double.parseDouble gives " + want);
             assertEquals(Double.doubleToLongBits(want), Double.doubleToLongBits(got), "sign of zero for '" + text + "'");
@@ -45,7 +51,7 @@ class NumberParserTest {
     void printfAndShortestFormsMatchTheJdk() {
         Random r = new Random(20261201L);
         int n = 0;
-        while (n < 400_000) {
+        while (n < 150_000) {
             double x = randomDouble(r);
             if (!Double.isFinite(x)) {
                 continue;
@@ -65,7 +71,7 @@ class NumberParserTest {
         Random r = new Random(7L);
         Locale[] locales = {Locale.GERMANY, Locale.FRANCE, new Locale("es", "ES"), new Locale("pl", "PL")};
         int checked = 0;
-        for (int i = 0; i < 300_000; i++) {
+        for (int i = 0; i < 150_000; i++) {
             double x = randomDouble(r);
             if (!Double.isFinite(x) || Math.abs(x) > 1e12) {
                 continue;
@@ -79,14 +85,14 @@ class NumberParserTest {
             same(f, true);
             checked += 2;
         }
-        assertTrue(checked > 500_000);
+        assertTrue(checked > 250_000);
     }
 
     @Test
     void longDigitStringsAndExtremeExponentsMatchTheJdk() {
         Random r = new Random(99L);
         StringBuilder sb = new StringBuilder();
-        for (int i = 0; i < 300_000; i++) {
+        for (int i = 0; i < 200_000; i++) {
             sb.setLength(0);
             if (r.nextBoolean()) {
                 sb.append(r.nextBoolean() ? '-' : '+');
