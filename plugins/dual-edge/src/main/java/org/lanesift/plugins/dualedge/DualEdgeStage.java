@@ -219,7 +219,7 @@ final class DualEdgeStage implements Stage {
         double meanUi = uiSum / ready;
         for (int i = 0; i < lanes.length; i++) {
             EdgeQueue q = laneQ[i];
-            boolean fast = q.started && minS - reach >= q.startFs && (!finishing || maxS + reach < q.endFs)
+            boolean fast = q.started && minS >= 0 && minS - reach >= q.startFs && (!finishing || maxS + reach < q.endFs)
                     && !(q.hasSpans() && q.spanOverlaps(minS - reach, maxS + reach));
             LaneSampler l = lanes[i];
             l.sample(sb, ready, fast, finishing, notes);

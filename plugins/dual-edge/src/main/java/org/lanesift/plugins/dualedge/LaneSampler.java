@@ -93,7 +93,8 @@ final class LaneSampler {
         for (int i = 0; i < n; i++) {
             final long s = ss[i];
             // usually at most one transition between two sample points: step without a branch
-            j += tt[j] <= s ? 1 : 0;
+            // (s >= 0 here, so s - tt[j] does not overflow for the Long.MAX_VALUE sentinel)
+            j += 1 - (int) ((s - tt[j]) >>> 63);
             while (tt[j] <= s) {
                 j++;
             }
@@ -102,16 +103,16 @@ final class LaneSampler {
             }
             final long reach = rs[i];
             long a = j > head ? s - tt[j - 1] : UNKNOWN;
-            final boolean ua = a > reach;
-            a = ua ? UNKNOWN : a;
-            long b = tt[j] - s; // the sentinel gives a huge value (or, for negative times, an overflow)
-            final boolean ub = b > reach | b < 0;
-            b = ub ? UNKNOWN : b;
+            final long ma = (reach - a) >> 63; // all ones when a > reach (no transition within reach)
+            a = (a & ~ma) | (UNKNOWN & ma);
+            long b = tt[j] - s; // the sentinel gives a huge value
+            final long mb = ((reach - b) | b) >> 63;
+            b = (b & ~mb) | (UNKNOWN & mb);
             su[i] = a;
             ho[i] = b;
             final long k = sc[i];
-            sh[ua ? unknownBin : (int) Math.min(maxBin, (a * k) >>> 40)]++;
-            hh[ub ? unknownBin : (int) Math.min(maxBin, (b * k) >>> 40)]++;
+            sh[(int) ((Math.min(maxBin, (a * k) >>> 40) & ~ma) | (unknownBin & ma))]++;
+            hh[(int) ((Math.min(maxBin, (b * k) >>> 40) & ~mb) | (unknownBin & mb))]++;
             if (a < minS) {
                 minS = a;
                 stats.minSetupUi = a / sb.ui[i];
