@@ -135,6 +135,25 @@ class FrameAssemblyTest {
         }
     }
 
+    /** A capture that starts in vertical blanking, more than a line before the picture: frame 0 is complete. */
+    @ParameterizedTest(name = "withSync={0}")
+    @CsvSource({"true", "false"})
+    void captureStartingInVerticalBlanking(boolean withSync) throws Exception {
+        TestLink.Video v = new TestLink.Video(16, 2, 3, 3, 8, 1, 1, 2, false, false, withSync);
+        Capture c = small(v);
+        c.firstPixel = 5;
+        c.pixels = 2 * v.frameClocks() + 4L * v.hTotal();
+        try (StageHarness h = c.run()) {
+            List<Frame> frames = h.outputs("frames", Frame.class);
+            assertEquals(3, frames.size(), frames.toString());
+            for (int k = 0; k < 2; k++) {
+                assertFalse(frames.get(k).partial(), "frame " + k);
+                assertArrayEquals(c.expectedFrame(k), frames.get(k).rgb());
+            }
+            assertTrue(frames.get(2).partial());
+        }
+    }
+
     /** DE-only capture that starts with one line just before vertical blanking: the first gap is resolved afterwards. */
     @Test
     void deOnlyCaptureStartingOnTheLastLine() throws Exception {
