@@ -156,14 +156,16 @@ final class PacketLinkStage implements Stage {
                         .field("lane", Field.integer(k, "")).field("bitsSeen", Field.integer(d.seekBits, "")).build());
                 return;
             }
-            int data = cfg.dropTrail ? d.dataBits() : d.nbits;
+            // a burst cut at maxBurstBytes has no trail in the buffer: keep every whole word
+            boolean trail = cfg.dropTrail && !d.overflow;
+            int data = trail ? d.dataBits() : d.nbits;
             int w = d.wordBits;
-            if (cfg.dropTrail && data % w != 0) {
+            if (trail && data % w != 0) {
                 ctx.annotate(Annotation.on("lane" + k + ".bits", "hs-trail-unaligned").span(g[k].startFs, g[k].endFs).severity(Severity.WARNING)
                         .label("trail does not start on a word boundary (" + (data % w) + " bits into a word)")
                         .field("lane", Field.integer(k, "")).build());
             }
-            laneWords[k] = cfg.dropTrail ? Math.min((data + w - 1) / w, d.completeWords() + (d.nbits % w == 0 ? 0 : 1)) : d.completeWords();
+            laneWords[k] = trail ? Math.min((data + w - 1) / w, d.completeWords() + (d.nbits % w == 0 ? 0 : 1)) : d.completeWords();
             if (trails.length() > 0) {
                 trails.append(", ");
             }
