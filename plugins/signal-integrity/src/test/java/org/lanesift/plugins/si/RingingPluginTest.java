@@ -63,6 +63,9 @@ class RingingPluginTest {
         String ej = EdgeMetricsPluginTest.json(em);
         assertEquals(100 * Math.exp(-Math.PI * 0.1 / Math.sqrt(0.99)), in(ej, "overshoot", "mean"), 0.5, ej);
         assertEquals(100 * Math.exp(-Math.PI * 0.1 / Math.sqrt(0.99)), in(ej, "undershoot", "mean"), 0.5, ej);
+        for (Artifact art : em.outputs("files", Artifact.class)) {
+            SynthSignals.save(new Artifact(art.channel(), art.startFs(), art.endFs(), "spice-" + art.fileName(), art.mediaType(), art.content()));
+        }
     }
 
     @Test
