@@ -209,8 +209,18 @@ public final class Chain implements AutoCloseable {
                     throw new ChainException("instance '" + d.id() + "': " + e.getMessage(),
                             ptr == null ? null : ptr + "/options/" + e.option(), e);
                 }
-                List<PortSpec> in = desc.inputs(ov);
-                List<PortSpec> out = desc.outputs(ov);
+                List<PortSpec> in;
+                List<PortSpec> out;
+                try {
+                    in = desc.inputs(ov);
+                    out = desc.outputs(ov);
+                } catch (OptionException e) {
+                    throw new ChainException("instance '" + d.id() + "': " + e.getMessage(),
+                            ptr == null ? null : ptr + "/options/" + e.option(), e);
+                } catch (RuntimeException e) {
+                    throw new ChainException("instance '" + d.id() + "' (" + desc.id() + "): cannot work out its ports: "
+                            + e.getMessage(), ptr == null ? null : ptr + "/options", e);
+                }
                 node = chain.new Node(d.id(), desc, p, ov, in, out, null);
             }
             real.put(d.id(), node);
