@@ -217,9 +217,6 @@ public final class Chain implements AutoCloseable {
                 } catch (OptionException e) {
                     throw new ChainException("instance '" + d.id() + "': " + e.getMessage(),
                             ptr == null ? null : ptr + "/options/" + e.option(), e);
-                } catch (RuntimeException e) {
-                    throw new ChainException("instance '" + d.id() + "' (" + desc.id() + "): cannot work out its ports: "
-                            + e.getMessage(), ptr == null ? null : ptr + "/options", e);
                 }
                 node = chain.new Node(d.id(), desc, p, ov, in, out, null);
             }
