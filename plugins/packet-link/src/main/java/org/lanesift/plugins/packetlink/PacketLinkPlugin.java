@@ -34,25 +34,24 @@ import org.lanesift.time.TimeValue;
  *
  * <pre>{@code
  * {"nodes": [
- *   {"id": "src",  "plugin": "<your capture source>", "options": {}},
- *   {"id": "dclk", "plugin": "differential", "options": {}},
- *   {"id": "d0",   "plugin": "differential", "options": {}},
- *   {"id": "d1",   "plugin": "differential", "options": {}},
- *   {"id": "ddr",  "plugin": "dual-edge", "options": {"lanes": 2}},
- *   {"id": "dsi",  "plugin": "packet-link", "options": {"lanes": 2, "profile": "dsi"}}],
+ *   {"id": "cap", "plugin": "csv", "options": {"file": "captures/packet-link.csv"}},
+ *   {"id": "rx-HSCLK", "plugin": "differential", "options": {"mode": "pair", "name": "HSCLK", "levelProfile": "dphy-hs"}},
+ *   {"id": "rx-L0", "plugin": "differential", "options": {"mode": "pair", "name": "L0", "thresholdVolts": 0.0, "levelProfile": "none"}},
+ *   {"id": "rx-L1", "plugin": "differential", "options": {"mode": "pair", "name": "L1", "thresholdVolts": 0.0, "levelProfile": "none"}},
+ *   {"id": "sampler", "plugin": "dual-edge", "options": {"mode": "ddr", "lanes": 2}},
+ *   {"id": "dsi", "plugin": "packet-link", "options": {"lanes": 2}}],
  *  "wires": [
- *   {"from": "src.clkp", "to": "dclk.p"}, {"from": "src.clkn", "to": "dclk.n"},
- *   {"from": "src.d0p", "to": "d0.p"}, {"from": "src.d0n", "to": "d0.n"},
- *   {"from": "src.d1p", "to": "d1.p"}, {"from": "src.d1n", "to": "d1.n"},
- *   {"from": "dclk.edges", "to": "ddr.clock"},
- *   {"from": "d0.edges", "to": "ddr.lane0"}, {"from": "d1.edges", "to": "ddr.lane1"},
- *   {"from": "src.d0p", "to": "dsi.lane0p"}, {"from": "src.d0n", "to": "dsi.lane0n"},
- *   {"from": "src.d1p", "to": "dsi.lane1p"}, {"from": "src.d1n", "to": "dsi.lane1n"},
- *   {"from": "ddr.bits0", "to": "dsi.bits0"}, {"from": "ddr.bits1", "to": "dsi.bits1"}]}
+ *   {"from": "cap.HSCLK_P", "to": "rx-HSCLK.p"}, {"from": "cap.HSCLK_N", "to": "rx-HSCLK.n"},
+ *   {"from": "cap.L0_P", "to": "rx-L0.p"}, {"from": "cap.L0_N", "to": "rx-L0.n"},
+ *   {"from": "cap.L1_P", "to": "rx-L1.p"}, {"from": "cap.L1_N", "to": "rx-L1.n"},
+ *   {"from": "rx-HSCLK.edges", "to": "sampler.clock"},
+ *   {"from": "rx-L0.edges", "to": "sampler.lane0"}, {"from": "rx-L1.edges", "to": "sampler.lane1"},
+ *   {"from": "cap.L0_P", "to": "dsi.lane0p"}, {"from": "cap.L0_N", "to": "dsi.lane0n"},
+ *   {"from": "cap.L1_P", "to": "dsi.lane1p"}, {"from": "cap.L1_N", "to": "dsi.lane1n"},
+ *   {"from": "sampler.bits0", "to": "dsi.bits0"}, {"from": "sampler.bits1", "to": "dsi.bits1"}]}
  * }</pre>
  *
- * (The port names of the source and the {@code differential} plugin above are placeholders; see
- * those plugins' documentation.)
+ * (The chain of the demo's packet link without its skew-correction passes; see the module README.)
  */
 public final class PacketLinkPlugin implements PluginProvider {
     /** The plugin id. */
