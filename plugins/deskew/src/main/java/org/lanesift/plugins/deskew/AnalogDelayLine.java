@@ -142,9 +142,21 @@ final class AnalogDelayLine {
         } else {
             Arrays.fill(bad, bufLen, bufLen + n, (byte) 0);
         }
+        // a NaN or infinity would spread through the kernel: hold the previous value and mark it invalid
+        float prev = bufLen > 0 ? buf[bufLen - 1] : 0f;
+        for (int i = 0; i < n; i++) {
+            float v = buf[bufLen + i];
+            if (Float.isFinite(v)) {
+                prev = v;
+            } else {
+                buf[bufLen + i] = prev;
+                bad[bufLen + i] = 1;
+                lastBadIndex = Math.max(lastBadIndex, received + i);
+            }
+        }
         bufLen += n;
         received += n;
-        lastValue = b.volts()[n - 1];
+        lastValue = buf[bufLen - 1];
     }
 
     private void ensure(int cap) {

@@ -27,6 +27,7 @@ final class LegsEstimator {
     private double energyP;
     private double energyQ;
     private long products;
+    private long nonFinite;
 
     private float[] p = new float[0];
     private float[] q = new float[0];
@@ -72,20 +73,29 @@ final class LegsEstimator {
         run(true);
     }
 
-    private static float[] append(float[] buf, int len, AnalogBlock b, boolean negate) {
+    private float[] append(float[] buf, int len, AnalogBlock b, boolean negate) {
         int n = b.length();
         if (len + n > buf.length) {
             buf = Arrays.copyOf(buf, Math.max(len + n, buf.length * 2));
         }
         float[] v = b.volts();
-        if (negate) {
-            for (int i = 0; i < n; i++) {
-                buf[len + i] = -v[i];
+        float prev = len > 0 ? buf[len - 1] : 0f;
+        for (int i = 0; i < n; i++) {
+            float x = negate ? -v[i] : v[i];
+            if (Float.isFinite(x)) {
+                prev = x;
+            } else {
+                x = prev; // a NaN or infinity would poison every lag: hold the previous sample
+                nonFinite++;
             }
-        } else {
-            System.arraycopy(v, 0, buf, len, n);
+            buf[len + i] = x;
         }
         return buf;
+    }
+
+    /** Samples that were NaN or infinite and replaced by their predecessor. */
+    long nonFinite() {
+        return nonFinite;
     }
 
     private void run(boolean atEnd) {

@@ -180,6 +180,10 @@ final class SkewEstimateStage implements Stage {
                     + legs.maxLag() + " samples either way", s, e);
             return;
         }
+        if (legs.nonFinite() > 0) {
+            warn(names[1], "skew-bad-samples", Severity.WARNING, "non-finite samples", legs.nonFinite()
+                    + " samples were NaN or infinite and were replaced by the sample before them", s, e);
+        }
         if (r.atEdge()) {
             warn(names[1], "skew-out-of-range", Severity.ERROR, "skew beyond search range", "correlation peak at the edge of the search range (+/-"
                     + maxSkew + "): the skew is larger, raise maxSkew", s, e);

@@ -193,6 +193,23 @@ class DeskewAnalogTest {
     }
 
     @org.junit.jupiter.api.Test
+    void nonFiniteSamplesAreContainedAndMarked() {
+        int n = 1000;
+        float[] v = Synth.analog("nan", RATE, n, DeskewAnalogTest::signal).volts();
+        v[300] = Float.NaN;
+        v[700] = Float.POSITIVE_INFINITY;
+        Out o = run(List.of(AnalogBlock.of("nan", 0, 1e15 / RATE, v)), Map.of("channels", 1, "offsets", List.of(35.0)));
+        int bad = 0;
+        for (int i = 0; i < n; i++) {
+            assertTrue(Float.isFinite(o.v[i]), "sample " + i + " is " + o.v[i]);
+            if (!o.valid[i] && i > 20 && i < n - 20) {
+                bad++;
+            }
+        }
+        assertEquals(32, bad, "16 outputs around each bad input are invalid");
+    }
+
+    @org.junit.jupiter.api.Test
     void aGapStartsANewRun() {
         AnalogBlock a = Synth.analog("g", RATE, 1000, DeskewAnalogTest::signal);
         AnalogBlock b0 = Synth.analog("g", RATE, 1000, DeskewAnalogTest::signal);

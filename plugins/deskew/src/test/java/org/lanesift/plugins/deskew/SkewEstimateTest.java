@@ -223,6 +223,19 @@ class SkewEstimateTest {
     }
 
     @Test
+    void legsWithNanSamplesStillGiveAnEstimateAndSaySo() {
+        AnalogBlock[] pn = LinkSynth.legs(4000, 1_000_000, 10e9, 250_000, 150_000, 10_000, 0.005, 44);
+        float[] v = pn[1].volts().clone();
+        v[1000] = Float.NaN;
+        v[20_000] = Float.NEGATIVE_INFINITY;
+        try (StageHarness h = StageHarness.of(new SkewEstimatePlugin(), Map.of("mode", "legs"))) {
+            h.push("p", pn[0]).push("n", AnalogBlock.of("d0n", 0, pn[1].periodFs(), v)).finish();
+            assertEquals(1, h.annotations("skew-bad-samples").size());
+            assertEquals(-150.0, table(h).get("d0n").offsetPs(), 20.0);
+        }
+    }
+
+    @Test
     void legsMisalignedStartsAreRefused() {
         AnalogBlock p = Synth.analog("p", 1e9, 100, t -> 0);
         AnalogBlock n = new AnalogBlock("n", 0, 5_000_000, 1e6, new float[100], 100, null);
