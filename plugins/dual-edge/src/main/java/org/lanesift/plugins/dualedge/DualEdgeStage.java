@@ -237,8 +237,21 @@ final class DualEdgeStage implements Stage {
         return ((a ^ b) & (a ^ r)) < 0 ? Long.MIN_VALUE : r;
     }
 
+    /** Without a clock period, lane transitions older than this before the clock's frontier are dropped. */
+    static final long NO_CLOCK_KEEP_FS = 1_000_000_000_000L; // 1 ms
+
     private void discardOld() {
         if (!cr.haveP) {
+            // no clock yet: no sample can reach back further than one UI before the first clock edge
+            // still to come; without a period, keep a generous 1 ms so memory stays bounded
+            if (clockQ.started) {
+                long keep = sat(cr.frontierFs(clockQ.endFs), NO_CLOCK_KEEP_FS);
+                if (keep != Long.MIN_VALUE) {
+                    for (EdgeQueue q : laneQ) {
+                        q.discardBeforeTime(keep);
+                    }
+                }
+            }
             return;
         }
         long from = Long.MAX_VALUE;
