@@ -40,7 +40,7 @@ import org.lanesift.plugin.StageContext;
  * {@code skew-multimodal} (more than one cluster: wrong clock, wrong {@code ddr} or
  * {@code alignment}), {@code skew-out-of-range} (legs peak at the edge of the search),
  * {@code skew-ambiguous} (a second correlation peak nearly as high: a periodic signal),
- * {@code skew-clock-gaps}, {@code skew-no-estimate}.
+ * {@code skew-clock-gaps}, {@code skew-bad-samples} (legs: NaN or infinite samples), {@code skew-no-estimate}.
  */
 public final class SkewEstimatePlugin implements PluginProvider {
     /** Largest lane count. */
