@@ -129,6 +129,24 @@ class FramedLinkTest {
         assertEquals(1, h.annotations("framed-sync").size());
     }
 
+    // independent lanes with line states: each lane's burst is its own stream of 8-bit words after
+    // its own sync byte, and the trail is dropped
+    @Test
+    void independentLanesWithLineStates() {
+        LinkSynth s = new LinkSynth(2).idle(1_000_000_000L);
+        byte[] sent = RefCodes.bytes(0x10, 0x20, 0x11, 0x21, 0x12, 0x22);
+        s.hs(sent).idle(1_000_000_000L);
+        StageHarness h = StageHarness.of(new PacketLinkPlugin(), Map.of("profile", "framed", "lanes", 2, "laneDistribution", "independent"));
+        s.feed(h, 100, false);
+        WordStream w = h.outputs("packets", WordStream.class).get(0);
+        List<Long> got = new ArrayList<>();
+        for (int i = 0; i < w.count(); i++) {
+            got.add(w.values()[i]);
+        }
+        assertEquals(List.of(0x10L, 0x11L, 0x12L, 0x20L, 0x21L, 0x22L), got);
+        assertEquals(List.of(0, 0, 0, 1, 1, 1), java.util.Arrays.stream(w.lane()).boxed().toList());
+    }
+
     @Test
     void badOptionsNameTheOption() {
         OptionException e = org.junit.jupiter.api.Assertions.assertThrows(OptionException.class,
