@@ -31,7 +31,7 @@ import org.openjdk.jmh.annotations.Warmup;
 
 /**
  * The differential stage, pair mode: two float legs in memory to logic + edges (+ level statistics
- * and report bookkeeping, as configured by default). The capture is a random NRZ pair, 8 samples per
+ * every {@code statsStride} samples and report bookkeeping). The capture is a random NRZ pair, 8 samples per
  * bit (a transition every 16 samples on average), tanh edges, 10 mV noise, around 1.2 V; blocks of
  * 64 Ki samples per leg. Throughput in samples per second per pair (ops = samples). The baseline
  * reads the same two float arrays sequentially in the same run.
@@ -50,6 +50,10 @@ public class DifferentialBench {
     /** Samples per bit of the synthetic link: 8 (busy) or 64 (few edges). */
     @Param({"8", "64"})
     public int samplesPerBit;
+
+    /** Option statsStride: 16 (the default) or 1024 (level statistics nearly off, the comparator alone). */
+    @Param({"16", "1024"})
+    public int statsStride;
 
     float[][] p = new float[BLOCKS][];
     float[][] n = new float[BLOCKS][];
@@ -140,7 +144,7 @@ public class DifferentialBench {
                 n[b][i] = (float) (1.2 - d / 2);
             }
         }
-        open(Map.of());
+        open(Map.of("statsStride", statsStride));
     }
 
     void open(Map<String, ?> options) throws Exception {

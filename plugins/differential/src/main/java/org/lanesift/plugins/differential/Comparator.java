@@ -284,36 +284,73 @@ final class Comparator {
         final int ao = cao;
         final int bo = cbo;
         final long[] bits = cbits;
+        final boolean lin = !cubic;
+        // samples at or after this chunk index may be looked back at without checks
+        final int back = (int) Math.max(3, Math.max(validRunStart, floorIndex) - cbase + 3);
         int i = r0;
         int runStart = r0;
         while (true) {
             if (!high) {
                 final float up = upper;
-                // four samples a test: one branch per four while nothing happens (NaN fails the test too)
-                while (i + 4 <= r1 && (a[ao + i] - b[bo + i] <= up) & (a[ao + i + 1] - b[bo + i + 1] <= up)
-                        & (a[ao + i + 2] - b[bo + i + 2] <= up) & (a[ao + i + 3] - b[bo + i + 3] <= up)) {
+                // four samples a test, and which of them tripped without a further loop (NaN trips the test too)
+                int m = 0;
+                while (i + 4 <= r1) {
+                    m = (a[ao + i] - b[bo + i] <= up ? 0 : 1) | (a[ao + i + 1] - b[bo + i + 1] <= up ? 0 : 2)
+                            | (a[ao + i + 2] - b[bo + i + 2] <= up ? 0 : 4) | (a[ao + i + 3] - b[bo + i + 3] <= up ? 0 : 8);
+                    if (m != 0) {
+                        break;
+                    }
                     i += 4;
                 }
-                while (i < r1 && a[ao + i] - b[bo + i] <= up) {
-                    i++;
-                }
-                if (i >= r1) {
-                    return r1;
+                if (m != 0) {
+                    i += Integer.numberOfTrailingZeros(m);
+                } else {
+                    while (i < r1 && a[ao + i] - b[bo + i] <= up) {
+                        i++;
+                    }
+                    if (i >= r1) {
+                        return r1;
+                    }
                 }
                 float v = a[ao + i] - b[bo + i];
                 if (v != v) {
                     return i;
                 }
-                trip(i, true);
                 runStart = i;
+                if (lin && i >= back) {
+                    // the last sample at or below the threshold is usually one of the three before the trip
+                    final float t = thr;
+                    float d1 = a[ao + i - 1] - b[bo + i - 1];
+                    float d2 = a[ao + i - 2] - b[bo + i - 2];
+                    float d3 = a[ao + i - 3] - b[bo + i - 3];
+                    int f = (d1 <= t ? 1 : 0) | (d2 <= t ? 2 : 0) | (d3 <= t ? 4 : 0);
+                    if (f != 0) {
+                        int s = Integer.numberOfTrailingZeros(f) + 1;
+                        float y1 = a[ao + i - s] - b[bo + i - s];
+                        float y2 = a[ao + i - s + 1] - b[bo + i - s + 1];
+                        high = true;
+                        addTime(timeAt(cbase + i - s, Crossing.linear(y1, y2, t)));
+                        continue;
+                    }
+                }
+                trip(i, true);
             } else {
                 final float lo = lower;
-                while (i + 4 <= r1 && (a[ao + i] - b[bo + i] >= lo) & (a[ao + i + 1] - b[bo + i + 1] >= lo)
-                        & (a[ao + i + 2] - b[bo + i + 2] >= lo) & (a[ao + i + 3] - b[bo + i + 3] >= lo)) {
+                int m = 0;
+                while (i + 4 <= r1) {
+                    m = (a[ao + i] - b[bo + i] >= lo ? 0 : 1) | (a[ao + i + 1] - b[bo + i + 1] >= lo ? 0 : 2)
+                            | (a[ao + i + 2] - b[bo + i + 2] >= lo ? 0 : 4) | (a[ao + i + 3] - b[bo + i + 3] >= lo ? 0 : 8);
+                    if (m != 0) {
+                        break;
+                    }
                     i += 4;
                 }
-                while (i < r1 && a[ao + i] - b[bo + i] >= lo) {
-                    i++;
+                if (m != 0) {
+                    i += Integer.numberOfTrailingZeros(m);
+                } else {
+                    while (i < r1 && a[ao + i] - b[bo + i] >= lo) {
+                        i++;
+                    }
                 }
                 setBits(bits, runStart, i);
                 if (i >= r1) {
@@ -322,6 +359,21 @@ final class Comparator {
                 float v = a[ao + i] - b[bo + i];
                 if (v != v) {
                     return i;
+                }
+                if (lin && i >= back) {
+                    final float t = thr;
+                    float d1 = a[ao + i - 1] - b[bo + i - 1];
+                    float d2 = a[ao + i - 2] - b[bo + i - 2];
+                    float d3 = a[ao + i - 3] - b[bo + i - 3];
+                    int f = (d1 >= t ? 1 : 0) | (d2 >= t ? 2 : 0) | (d3 >= t ? 4 : 0);
+                    if (f != 0) {
+                        int s = Integer.numberOfTrailingZeros(f) + 1;
+                        float y1 = a[ao + i - s] - b[bo + i - s];
+                        float y2 = a[ao + i - s + 1] - b[bo + i - s + 1];
+                        high = false;
+                        addTime(timeAt(cbase + i - s, Crossing.linear(y1, y2, t)));
+                        continue;
+                    }
                 }
                 trip(i, false);
             }

@@ -84,8 +84,9 @@ public final class DifferentialPlugin implements PluginProvider {
                     "time constant of the drift adaptation of learned levels; 0 switches it off"))
             .option(OptionSpec.integer("warmupSamples", 8192L, 64, 1L << 22,
                     "samples learned from before any output, when threshold or hysteresis are learned"))
-            .option(OptionSpec.integer("statsStride", 4L, 1, 1024,
-                    "level statistics use every n-th sample (1 for exact overshoot peaks)"))
+            .option(OptionSpec.integer("statsStride", 16L, 1, 1024,
+                    "level statistics use every n-th sample (1 for exact overshoot peaks; edges at random phases"
+                    + " to this grid let the peaks of many edges converge anyway)"))
             .inputs(DifferentialPlugin::inputs)
             .outputs(o -> List.of(
                     PortSpec.of("edges", DataKind.EDGES, "transitions with interpolated times; unknown spans where input was invalid"),
