@@ -74,9 +74,14 @@ final class DsiDecoder implements PacketParser.Listener {
             for (int i = 0; i < n; i++) {
                 values[i] = d[i] & 0xFF;
             }
+            // the arrays belong to this burst: hand them on without copying when they fit exactly
             words.accept(new WordStream(id + "." + mode, s[0], Math.max(s[0], e[n - 1]), n, 8, values,
-                    Arrays.copyOf(s, n), Arrays.copyOf(e, n), Arrays.copyOf(lane, n), Arrays.copyOf(f, n)));
+                    fit(s, n), fit(e, n), lane.length == n ? lane : Arrays.copyOf(lane, n), f.length == n ? f : Arrays.copyOf(f, n)));
         }
+    }
+
+    private static long[] fit(long[] a, int n) {
+        return a.length == n ? a : Arrays.copyOf(a, n);
     }
 
     private boolean suspect(int from, int to) {
