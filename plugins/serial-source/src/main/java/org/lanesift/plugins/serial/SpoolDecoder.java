@@ -1,0 +1,226 @@
+package org.lanesift.plugins.serial;
+
+import org.lanesift.annotation.Annotation;
+import org.lanesift.annotation.Severity;
+
+/**
+ * Turns spooled bytes back into runs of logic8 samples with their capture-wide sample index, and
+ * into gap annotations. A run never spans a gap: at a sequence gap, a sample-index jump, a CRC
+ * failure followed by missing samples, or a reconnect, the current run ends and the next starts
+ * at the true index of the next good sample (docs/spool.md, "Gaps"). Memory: one frame buffer
+ * and one run buffer of {@code blockSamples} bytes.
+ */
+final class SpoolDecoder {
+    /** Receives runs and annotations. */
+    interface Out {
+        void samples(long firstIndex, byte[] b, int n);
+
+        void annotate(Annotation a);
+    }
+
+    static final String TRACK = "stream";
+    private final SpoolHeader header;
+    private final double periodFs;
+    private final Out out;
+    private final byte[] run;
+    private long runFirst;
+    private int runLen;
+    private long expectedIndex = -1;
+    private long expectedSeq = -1;
+    private long shift;
+    private int segment;
+    private boolean segmentStart;
+    private long prevClosedEpochMs = -1;
+    private long segOpenedEpochMs = -1;
+    private FrameDecoder frames;
+    private long gaps;
+    private long corruptRuns;
+    private long duplicates;
+    private long samples;
+
+    SpoolDecoder(SpoolHeader header, int blockSamples, Out out) {
+        this.header = header;
+        this.periodFs = 1e15 / header.rateHz();
+        this.out = out;
+        this.run = new byte[blockSamples];
+    }
+
+    long gaps() {
+        return gaps;
+    }
+
+    long corruptRuns() {
+        return corruptRuns;
+    }
+
+    long duplicates() {
+        return duplicates;
+    }
+
+    long samples() {
+        return samples;
+    }
+
+    /** Starts segment {@code n}; times in epoch ms of its opening and of the previous close (or -1). */
+    void beginSegment(int n, long openedEpochMs, long previousClosedEpochMs) {
+        endSegment();
+        segment = n;
+        segmentStart = true;
+        segOpenedEpochMs = openedEpochMs;
+        prevClosedEpochMs = previousClosedEpochMs;
+        expectedSeq = -1;
+        if (header.framed()) {
+            frames = new FrameDecoder(new FrameDecoder.Listener() {
+                @Override
+                public void frame(int code, int seq, byte[] buf, int off, int len, long at) {
+                    onFrame(code, seq, buf, off, len, at);
+                }
+
+                @Override
+                public void skipped(long at, long length, int crc) {
+                    onSkipped(at, length, crc);
+                }
+            });
+        }
+    }
+
+    void feed(byte[] b, int off, int len) {
+        if (header.framed()) {
+            frames.feed(b, off, len);
+        } else {
+            if (segmentStart) {
+                segmentStart = false;
+                if (expectedIndex < 0) {
+                    expectedIndex = 0;
+                } else {
+                    long resume = expectedIndex + wallGapSamples();
+                    gap(expectedIndex, resume, -1, "reconnect");
+                    expectedIndex = resume;
+                }
+            }
+            append(b, off, len);
+        }
+    }
+
+    void endSegment() {
+        if (frames != null) {
+            frames.finish();
+            frames = null;
+        }
+        flush();
+    }
+
+    private long wallGapSamples() {
+        if (segOpenedEpochMs < 0 || prevClosedEpochMs < 0 || segOpenedEpochMs <= prevClosedEpochMs) {
+            return 0;
+        }
+        return Math.round((segOpenedEpochMs - prevClosedEpochMs) * 1e-3 * header.rateHz());
+    }
+
+    private void onFrame(int code, int seq, byte[] buf, int off, int len, long at) {
+        if (code != FrameType.DATA.code) {
+            return;
+        }
+        if (len < 8) {
+            corrupt(at, Framing.HEADER + len + Framing.TRAILER, 0, "DATA frame shorter than its 8-byte sample index");
+            return;
+        }
+        long idx = Framing.u64(buf, off) + shift;
+        int n = len - 8;
+        long seqU = seq & 0xFFFFFFFFL;
+        if (segmentStart) {
+            segmentStart = false;
+            if (expectedIndex >= 0) {
+                if (idx < expectedIndex) { // the device restarted its count
+                    long resume = expectedIndex + wallGapSamples();
+                    shift += resume - idx;
+                    idx = resume;
+                }
+                if (idx > expectedIndex) {
+                    gap(expectedIndex, idx, -1, "reconnect");
+                }
+            }
+            expectedIndex = idx;
+        } else {
+            if (expectedSeq >= 0 && seqU != expectedSeq && (int) (seqU - expectedSeq) < 0) {
+                duplicate(idx, n, seqU);
+                return;
+            }
+            if (expectedIndex < 0) {
+                expectedIndex = idx;
+            }
+            if (idx > expectedIndex) {
+                long missingFrames = expectedSeq >= 0 ? ((seqU - expectedSeq) & 0xFFFFFFFFL) : -1;
+                gap(expectedIndex, idx, missingFrames, "sequence");
+                expectedIndex = idx;
+            }
+        }
+        expectedSeq = (seqU + 1) & 0xFFFFFFFFL;
+        int skip = (int) Math.min(n, Math.max(0, expectedIndex - idx));
+        if (skip > 0 && skip == n) {
+            return;
+        }
+        append(buf, off + 8 + skip, n - skip);
+    }
+
+    private void onSkipped(long at, long length, int crc) {
+        corrupt(at, length, crc, crc > 0 ? "bytes with a bad CRC-32C or length" : "bytes outside any frame");
+    }
+
+    private void append(byte[] b, int off, int len) {
+        while (len > 0) {
+            if (runLen == 0) {
+                runFirst = expectedIndex;
+            }
+            int k = Math.min(len, run.length - runLen);
+            System.arraycopy(b, off, run, runLen, k);
+            runLen += k;
+            off += k;
+            len -= k;
+            expectedIndex += k;
+            samples += k;
+            if (runLen == run.length) {
+                flush();
+            }
+        }
+    }
+
+    void flush() {
+        if (runLen > 0) {
+            out.samples(runFirst, run, runLen);
+            runLen = 0;
+        }
+    }
+
+    private long fs(long index) {
+        return Math.round(index * periodFs);
+    }
+
+    private void gap(long fromIndex, long toIndex, long missingFrames, String cause) {
+        flush();
+        gaps++;
+        Annotation.Builder a = Annotation.on(TRACK, "stream-gap").span(fs(fromIndex), fs(toIndex)).severity(Severity.ERROR)
+                .label("gap: " + (toIndex - fromIndex) + " samples missing (" + cause + ")")
+                .number("missingSamples", toIndex - fromIndex, "samples").text("cause", cause)
+                .number("segment", segment, "");
+        if (missingFrames >= 0) {
+            a.number("missingFrames", missingFrames, "frames");
+        }
+        out.annotate(a.build());
+    }
+
+    private void corrupt(long at, long length, int crc, String what) {
+        corruptRuns++;
+        long t = fs(Math.max(0, expectedIndex));
+        out.annotate(Annotation.on(TRACK, "stream-corrupt").span(t, t).severity(Severity.WARNING)
+                .label(length + " " + what).number("bytes", length, "B").number("crcFailures", crc, "")
+                .number("segment", segment, "").number("segmentOffset", at, "B").build());
+    }
+
+    private void duplicate(long idx, int n, long seq) {
+        duplicates++;
+        out.annotate(Annotation.on(TRACK, "stream-duplicate").span(fs(idx), fs(idx + n)).severity(Severity.WARNING)
+                .label("frame " + seq + " repeated or out of order; its samples are dropped").number("seq", seq, "")
+                .number("segment", segment, "").build());
+    }
+}

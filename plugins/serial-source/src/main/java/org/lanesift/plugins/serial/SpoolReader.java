@@ -1,0 +1,127 @@
+package org.lanesift.plugins.serial;
+
+import java.io.IOException;
+import java.io.InputStream;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.Properties;
+import java.util.function.BooleanSupplier;
+
+/**
+ * Reads the bytes of a spool's segments in order with a fixed buffer. In follow mode it waits at
+ * the end of an open segment for more bytes (a spool being written by a live capture) and ends
+ * only when {@code spool.closed} appears and everything has been read.
+ */
+final class SpoolReader implements AutoCloseable {
+    /** What {@link #read} found. */
+    enum Event { DATA, SEGMENT_START, END }
+
+    private final Path dir;
+    private final boolean follow;
+    private final long pollMs;
+    private final BooleanSupplier cancelled;
+    private int segment;
+    private InputStream in;
+    private long segmentOffset;
+    private long consumed;
+    private boolean unclosed;
+
+    SpoolReader(Path dir, boolean follow, long pollMs, BooleanSupplier cancelled) {
+        this.dir = dir;
+        this.follow = follow;
+        this.pollMs = pollMs;
+        this.cancelled = cancelled;
+    }
+
+    int segment() {
+        return segment;
+    }
+
+    long consumed() {
+        return consumed;
+    }
+
+    long segmentOffset() {
+        return segmentOffset;
+    }
+
+    /** @return true if a non-follow read found a spool that was never closed (a crashed capture) */
+    boolean unclosed() {
+        return unclosed;
+    }
+
+    Properties segmentInfo() throws IOException {
+        Path p = SpoolFiles.segmentInfo(dir, segment);
+        return Files.exists(p) ? SpoolFiles.read(p) : new Properties();
+    }
+
+    /**
+     * Reads the next bytes into {@code buf}.
+     *
+     * @return the event; for DATA, {@link #lastCount()} bytes were read
+     */
+    Event read(byte[] buf) throws IOException, InterruptedException {
+        while (true) {
+            if (in == null) {
+                int next = segment + 1;
+                Path seg = SpoolFiles.segment(dir, next);
+                if (Files.exists(seg)) {
+                    in = Files.newInputStream(seg);
+                    segment = next;
+                    segmentOffset = 0;
+                    return Event.SEGMENT_START;
+                }
+                if (Files.exists(dir.resolve(SpoolFiles.CLOSED)) || !follow || cancelled.getAsBoolean()) {
+                    if (!follow && !Files.exists(dir.resolve(SpoolFiles.CLOSED))) {
+                        unclosed = true;
+                    }
+                    return Event.END;
+                }
+                Thread.sleep(pollMs);
+                continue;
+            }
+            int n = in.read(buf);
+            if (n > 0) {
+                last = n;
+                segmentOffset += n;
+                consumed += n;
+                return Event.DATA;
+            }
+            // at the end of what is written so far
+            boolean segClosed = Files.exists(SpoolFiles.segmentClosed(dir, segment));
+            if (segClosed || !follow || cancelled.getAsBoolean()) {
+                if (segClosed) {
+                    n = in.read(buf); // bytes written just before the close marker
+                    if (n > 0) {
+                        last = n;
+                        segmentOffset += n;
+                        consumed += n;
+                        return Event.DATA;
+                    }
+                }
+                in.close();
+                in = null;
+                continue;
+            }
+            Thread.sleep(pollMs);
+        }
+    }
+
+    private int last;
+
+    int lastCount() {
+        return last;
+    }
+
+    @Override
+    public void close() {
+        if (in != null) {
+            try {
+                in.close();
+            } catch (IOException ignored) {
+                // nothing to keep
+            }
+            in = null;
+        }
+    }
+}

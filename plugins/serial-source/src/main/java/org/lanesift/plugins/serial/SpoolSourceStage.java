@@ -1,0 +1,169 @@
+package org.lanesift.plugins.serial;
+
+import java.io.IOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardCopyOption;
+import java.util.Properties;
+import org.lanesift.annotation.Annotation;
+import org.lanesift.annotation.Severity;
+import org.lanesift.data.LogicBlock;
+import org.lanesift.plugin.StageContext;
+
+/** The running {@code spool} source. */
+final class SpoolSourceStage implements org.lanesift.plugin.Stage {
+    private static final long POLL_MS = 20;
+    private final StageContext ctx;
+    private final Path dir;
+    private final boolean follow;
+    private final int channels;
+    private final int blockSamples;
+    private final byte[] chunk = new byte[1 << 16];
+    private SpoolHeader header;
+    private SpoolDecoder decoder;
+    private SpoolReader reader;
+    private double periodFs;
+    private long lastClosedEpochMs = -1;
+    private long lastPosWrite;
+    private boolean done;
+
+    SpoolSourceStage(StageContext ctx, Path dir) {
+        this.ctx = ctx;
+        this.dir = dir;
+        this.follow = ctx.options().getBoolean("follow");
+        this.channels = ctx.options().getInt("channels");
+        this.blockSamples = ctx.options().getInt("blockSamples");
+        if (!follow && !Files.isRegularFile(dir.resolve(SpoolFiles.HEADER))) {
+            throw new DeviceException("spool " + dir + ": no " + SpoolFiles.HEADER + " there; expected a spool directory written by 'lanesift live'");
+        }
+    }
+
+    private boolean start() throws IOException, InterruptedException {
+        while (!Files.isRegularFile(dir.resolve(SpoolFiles.HEADER))) {
+            if (ctx.isCancelled()) {
+                return false;
+            }
+            Thread.sleep(POLL_MS);
+        }
+        header = SpoolHeader.read(dir);
+        if (header.channels() < channels) {
+            throw new DeviceException("spool " + dir + ": holds " + header.channels() + " channels but option 'channels' asks for " + channels);
+        }
+        periodFs = 1e15 / header.rateHz();
+        decoder = new SpoolDecoder(header, blockSamples, new SpoolDecoder.Out() {
+            @Override
+            public void samples(long firstIndex, byte[] b, int n) {
+                emit(firstIndex, b, n);
+            }
+
+            @Override
+            public void annotate(Annotation a) {
+                ctx.annotate(a);
+            }
+        });
+        reader = new SpoolReader(dir, follow, POLL_MS, ctx::isCancelled);
+        return true;
+    }
+
+    private void emit(long firstIndex, byte[] b, int n) {
+        long[][] out = new long[channels][(n + 63) >>> 6];
+        Logic8.split(b, n, channels, out);
+        long startFs = Math.round(firstIndex * periodFs);
+        for (int c = 0; c < channels; c++) {
+            if (ctx.isConnected(c)) {
+                ctx.emit(c, new LogicBlock("ch" + c, firstIndex, startFs, periodFs, out[c], n, null));
+            }
+        }
+    }
+
+    @Override
+    public boolean produce() throws Exception {
+        if (done) {
+            return false;
+        }
+        if (header == null && !start()) {
+            done = true;
+            return false;
+        }
+        SpoolReader.Event e = reader.read(chunk);
+        switch (e) {
+            case SEGMENT_START -> {
+                Properties info = reader.segmentInfo();
+                long opened = parse(info.getProperty("openedEpochMs"));
+                decoder.beginSegment(reader.segment(), opened, lastClosedEpochMs);
+                if (reader.segment() > 1) {
+                    ctx.annotate(Annotation.on(SpoolDecoder.TRACK, "stream-segment").severity(Severity.INFO)
+                            .label("segment " + reader.segment() + " (" + info.getProperty("reason", "?") + ")")
+                            .number("segment", reader.segment(), "").build());
+                }
+            }
+            case DATA -> decoder.feed(chunk, 0, reader.lastCount());
+            case END -> {
+                decoder.endSegment();
+                done = true;
+                finishSummary();
+            }
+            default -> throw new IllegalStateException();
+        }
+        trackClose();
+        ctx.progress(decoder.samples(), -1);
+        writePosition(false);
+        return !done;
+    }
+
+    private void trackClose() throws IOException {
+        Path closed = SpoolFiles.segmentClosed(dir, reader.segment());
+        if (reader.segment() > 0 && Files.exists(closed)) {
+            lastClosedEpochMs = parse(SpoolFiles.read(closed).getProperty("closedEpochMs"));
+        }
+    }
+
+    private void finishSummary() {
+        if (reader.unclosed()) {
+            ctx.annotate(Annotation.on(SpoolDecoder.TRACK, "spool-unclosed").severity(Severity.WARNING)
+                    .label("the capture never closed this spool; everything written was read").build());
+        }
+        long endFs = Math.round(decoder.samples() * periodFs);
+        ctx.annotate(Annotation.on(SpoolDecoder.TRACK, "spool-summary").span(0, 0).severity(Severity.INFO)
+                .label(decoder.samples() + " samples, " + decoder.gaps() + " gaps, " + decoder.corruptRuns() + " corrupt runs")
+                .number("bytes", reader.consumed(), "B").number("samples", decoder.samples(), "samples")
+                .number("gaps", decoder.gaps(), "").number("corruptRuns", decoder.corruptRuns(), "")
+                .number("duplicates", decoder.duplicates(), "").number("segments", reader.segment(), "")
+                .number("samplesSpanFs", endFs, "fs").build());
+        writePosition(true);
+    }
+
+    private void writePosition(boolean force) {
+        if (!follow) {
+            return;
+        }
+        long now = System.nanoTime();
+        if (!force && now - lastPosWrite < 200_000_000L) {
+            return;
+        }
+        lastPosWrite = now;
+        try {
+            Path tmp = dir.resolve(SpoolFiles.DECODE_POS + ".tmp");
+            Files.writeString(tmp, reader.consumed() + " " + decoder.samples() + (done ? " done" : "") + "\n", StandardCharsets.US_ASCII);
+            Files.move(tmp, dir.resolve(SpoolFiles.DECODE_POS), StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
+        } catch (IOException ignored) {
+            // the position file only feeds the live status line
+        }
+    }
+
+    private static long parse(String s) {
+        try {
+            return s == null ? -1 : Long.parseLong(s.trim());
+        } catch (NumberFormatException e) {
+            return -1;
+        }
+    }
+
+    @Override
+    public void close() {
+        if (reader != null) {
+            reader.close();
+        }
+    }
+}
