@@ -26,6 +26,10 @@ final class SampleBuf {
     /** Samples before this index have their sample time set. */
     int applied;
     private final double threshold;
+    private double lastUi = Double.NaN;
+    private long lastReach;
+    private long lastThr;
+    private long lastScale;
 
     SampleBuf(double threshold) {
         this.threshold = threshold;
@@ -46,10 +50,16 @@ final class SampleBuf {
         }
         nominal[n] = nominalFs;
         edge[n] = edgeIndex;
+        if (uiFs != lastUi) {
+            lastUi = uiFs;
+            lastReach = (long) uiFs;
+            lastThr = (long) Math.ceil(threshold * uiFs);
+            lastScale = (long) (MarginStats.BINS * 1099511627776.0 / uiFs); // 2^40
+        }
         ui[n] = uiFs;
-        reach[n] = (long) uiFs;
-        thr[n] = (long) Math.ceil(threshold * uiFs);
-        scale[n] = (long) (MarginStats.BINS * 1099511627776.0 / uiFs); // 2^40
+        reach[n] = lastReach;
+        thr[n] = lastThr;
+        scale[n] = lastScale;
         flags[n] = (byte) ((falling ? FALLING : 0) | (suspect ? SUSPECT : 0));
         slot[n] = (byte) slotIndex;
         n++;
