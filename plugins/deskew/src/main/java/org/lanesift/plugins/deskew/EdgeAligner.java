@@ -114,11 +114,23 @@ final class EdgeAligner {
      */
     void data(int lane, Edges e) {
         final int n = e.count();
+        int from = 0;
+        if (pendHead[lane] == pendLen[lane]) {
+            // nothing waiting: work straight from the block, keep only what the reference has not passed yet
+            pendHead[lane] = 0;
+            pendLen[lane] = 0;
+            from = drain(lane, e.timesFs(), 0, n);
+            if (from == n) {
+                compact();
+                return;
+            }
+        }
         int len = pendLen[lane];
         int head = pendHead[lane];
         long[] p = pend[lane];
-        if (len - head + n > p.length || len + n > p.length) {
-            long[] q = new long[Math.max(p.length * 2, len - head + n)];
+        int add = n - from;
+        if (len + add > p.length) {
+            long[] q = new long[Math.max(p.length * 2, len - head + add)];
             System.arraycopy(p, head, q, 0, len - head);
             p = q;
             pend[lane] = q;
@@ -126,8 +138,8 @@ final class EdgeAligner {
             head = 0;
             pendHead[lane] = 0;
         }
-        System.arraycopy(e.timesFs(), 0, p, len, n);
-        pendLen[lane] = len + n;
+        System.arraycopy(e.timesFs(), from, p, len, add);
+        pendLen[lane] = len + add;
         drain(lane);
         compact();
     }
@@ -192,10 +204,20 @@ final class EdgeAligner {
     }
 
     private void drain(int lane) {
-        if (Double.isNaN(periodFs)) {
-            return;
+        int i = drain(lane, pend[lane], pendHead[lane], pendLen[lane]);
+        if (i >= pendLen[lane]) {
+            pendHead[lane] = 0;
+            pendLen[lane] = 0;
+        } else {
+            pendHead[lane] = i;
         }
-        final long[] p = pend[lane];
+    }
+
+    /** Processes transitions {@code p[from, len)} of a lane as far as the reference allows; returns the index reached. */
+    private int drain(int lane, final long[] p, int from, final int len) {
+        if (Double.isNaN(periodFs)) {
+            return from;
+        }
         final long[] r = ref;
         final long base = refBase;
         final long end = refBase + refLen;
@@ -205,8 +227,7 @@ final class EdgeAligner {
         if (cur < base) {
             cur = base;
         }
-        int i = pendHead[lane];
-        final int len = pendLen[lane];
+        int i = from;
         double ivSum = intervalSum[lane];
         long rej = rejected[lane];
         long out = outside[lane];
@@ -271,12 +292,7 @@ final class EdgeAligner {
         intervalSum[lane] = ivSum;
         rejected[lane] = rej;
         outside[lane] = out;
-        if (i >= len) {
-            pendHead[lane] = 0;
-            pendLen[lane] = 0;
-        } else {
-            pendHead[lane] = i;
-        }
+        return i;
     }
 
     /** Drops reference edges no lane needs any more (keeps one before each lane's cursor). */
