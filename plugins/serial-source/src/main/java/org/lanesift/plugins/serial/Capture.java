@@ -94,11 +94,13 @@ public final class Capture {
                     w.append(buf, 0, n);
                 } else if (n < 0) {
                     l.close();
-                    l = reconnect();
-                    if (l == null) {
+                    w.sync();
+                    SerialLink again = reconnect();
+                    if (again == null) {
                         reason = "disconnect";
                         break;
                     }
+                    l = again;
                     link = l;
                     w.nextSegment("disconnect");
                     if (!s.raw) {

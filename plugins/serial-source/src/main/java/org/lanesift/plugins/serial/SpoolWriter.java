@@ -35,6 +35,7 @@ public final class SpoolWriter implements AutoCloseable {
     private volatile long frames;
     private volatile long gaps;
     private volatile long crcFailures;
+    private volatile long duplicates;
     private volatile long skippedBytes;
     private boolean closed;
 
@@ -135,11 +136,16 @@ public final class SpoolWriter implements AutoCloseable {
             return;
         }
         long seqU = seq & 0xFFFFFFFFL;
+        frames++;
         if (expectedSeq >= 0 && seqU != expectedSeq) {
+            if ((int) (seqU - expectedSeq) < 0) {
+                duplicates++; // repeated or late frame: not a gap, sequence expectation unchanged
+                writeRecord(REC_FRAME, seq, at, Framing.HEADER + len + Framing.TRAILER, Framing.u64(buf, off));
+                return;
+            }
             gaps++;
         }
         expectedSeq = (seqU + 1) & 0xFFFFFFFFL;
-        frames++;
         writeRecord(REC_FRAME, seq, at, Framing.HEADER + len + Framing.TRAILER, Framing.u64(buf, off));
     }
 
@@ -161,6 +167,16 @@ public final class SpoolWriter implements AutoCloseable {
         } catch (IOException e) {
             throw new DeviceException(SpoolFiles.index(dir, segment) + ": cannot write the index: " + e.getMessage(), e);
         }
+    }
+
+    /**
+     * Forces the current segment's bytes to the disk (after a disconnect, while waiting to reconnect).
+     *
+     * @throws IOException on a write failure
+     */
+    public void sync() throws IOException {
+        index.flush();
+        data.getFD().sync();
     }
 
     /**
@@ -226,6 +242,11 @@ public final class SpoolWriter implements AutoCloseable {
     /** @return sequence jumps seen by the indexer */
     public long gaps() {
         return gaps;
+    }
+
+    /** @return DATA frames whose sequence number was behind the expected one */
+    public long duplicates() {
+        return duplicates;
     }
 
     /** @return candidate frames with a bad CRC or length */

@@ -1,0 +1,63 @@
+package org.lanesift.plugins.serial;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import org.lanesift.annotation.Annotation;
+import org.lanesift.data.LogicBlock;
+import org.lanesift.testkit.StageHarness;
+
+/** Replays a spool with the spool source and checks every sample against the simulator's function. */
+final class Replayed {
+    /** Runs of sample indices [from, to) that came out, in order. */
+    final List<long[]> runs = new ArrayList<>();
+    final List<Annotation> annotations;
+    long samples;
+
+    Replayed(Path dir) {
+        try (StageHarness h = StageHarness.of(new SpoolSourceProvider(), Map.of("dir", dir.toString()))) {
+            h.run();
+            List<List<LogicBlock>> ch = new ArrayList<>();
+            for (int c = 0; c < 8; c++) {
+                ch.add(h.outputs("ch" + c, LogicBlock.class));
+            }
+            for (int k = 0; k < ch.get(0).size(); k++) {
+                LogicBlock b0 = ch.get(0).get(k);
+                for (int i = 0; i < b0.length(); i++) {
+                    int v = 0;
+                    for (int c = 0; c < 8; c++) {
+                        LogicBlock b = ch.get(c).get(k);
+                        v |= (b.get(i) ? 1 : 0) << c;
+                    }
+                    long idx = b0.firstIndex() + i;
+                    assertEquals(DeviceSimulator.sample(idx) & 0xFF, v, "sample " + idx);
+                }
+                assertEquals(Math.round(b0.firstIndex() * b0.periodFs()), b0.startFs());
+                long from = b0.firstIndex();
+                long to = from + b0.length();
+                if (!runs.isEmpty() && runs.get(runs.size() - 1)[1] == from) {
+                    runs.get(runs.size() - 1)[1] = to;
+                } else {
+                    runs.add(new long[] {from, to});
+                }
+                samples += b0.length();
+            }
+            annotations = h.annotations();
+        }
+    }
+
+    long count(String kind) {
+        return annotations.stream().filter(a -> a.kind().equals(kind)).count();
+    }
+
+    String runsText() {
+        StringBuilder s = new StringBuilder();
+        for (long[] r : runs) {
+            s.append('[').append(r[0]).append(',').append(r[1]).append(')');
+        }
+        return s.toString();
+    }
+}
