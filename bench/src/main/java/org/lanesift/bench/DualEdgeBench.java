@@ -42,7 +42,7 @@ import org.openjdk.jmh.infra.Blackhole;
 @Measurement(iterations = 3, time = 1)
 @Fork(1)
 public class DualEdgeBench {
-    static final int BITS = 1 << 22;
+    static final int BITS = 1 << 20;
     static final int BLOCK_BITS = 1 << 16;
     static final double UI_FS = 1_000_000;
 
