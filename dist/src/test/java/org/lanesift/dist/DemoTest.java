@@ -1,0 +1,52 @@
+package org.lanesift.dist;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.ByteArrayOutputStream;
+import java.io.PrintStream;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.lanesift.runner.Main;
+
+/** The demo end to end, as {@code ./lanesift demo} runs it: every pixel and every command must match the ground truth. */
+class DemoTest {
+    @Test
+    void demoMatchesItsGroundTruth(@TempDir Path dir) throws Exception {
+        ByteArrayOutputStream out = new ByteArrayOutputStream();
+        ByteArrayOutputStream err = new ByteArrayOutputStream();
+        int code = Main.run(new String[] {"demo", "--out", dir.toString()}, new PrintStream(out, true, StandardCharsets.UTF_8),
+                new PrintStream(err, true, StandardCharsets.UTF_8));
+        String o = out.toString(StandardCharsets.UTF_8);
+        assertEquals(0, code, o + err.toString(StandardCharsets.UTF_8));
+        assertTrue(o.contains("5120 of 5120 pixels match"), o);
+        assertTrue(o.contains("61 of 61 commands match"), o);
+        assertTrue(o.contains("1536 of 1536 pixels match"), o);
+        assertTrue(Files.exists(dir.resolve("report.md")));
+        assertTrue(Files.exists(dir.resolve("chains/pixel-3-decode.json")));
+        assertTrue(Files.exists(dir.resolve("packet/dsi-init.h")));
+        assertTrue(Files.exists(dir.resolve("pixel/eye-eye.png")));
+    }
+
+    @Test
+    void badArgumentsExitTwoWithOneLine() {
+        ByteArrayOutputStream err = new ByteArrayOutputStream();
+        int code = Main.run(new String[] {"demo", "--frobnicate"}, new PrintStream(new ByteArrayOutputStream(), true, StandardCharsets.UTF_8),
+                new PrintStream(err, true, StandardCharsets.UTF_8));
+        assertEquals(2, code);
+        assertEquals(1, err.toString(StandardCharsets.UTF_8).trim().lines().count());
+    }
+
+    @Test
+    void benchRunsTheWholeChainOnOneFrame() {
+        ByteArrayOutputStream out = new ByteArrayOutputStream();
+        int code = Main.run(new String[] {"bench", "--samples", "528000"}, new PrintStream(out, true, StandardCharsets.UTF_8),
+                new PrintStream(new ByteArrayOutputStream(), true, StandardCharsets.UTF_8));
+        String o = out.toString(StandardCharsets.UTF_8);
+        assertEquals(0, code, o);
+        assertTrue(o.contains("whole chain:") && o.contains("ratio to the sequential read"), o);
+    }
+}
