@@ -220,6 +220,11 @@ final class LogicPairStage implements Stage {
             }
             i = z;
         }
+        if (s.invert) {
+            for (int w = 0; w < words; w++) {
+                out[w] = ~out[w] & (w == words - 1 ? tailMask : -1L);
+            }
+        }
         ctx.emit(AnalogStage.OUT_LOGIC, new LogicBlock(s.channel, base, timeAt(base, 0), periodFs, out, len, inv));
         emitEdges(times, tc, blockEnd, spans, sc);
     }

@@ -88,6 +88,9 @@ final class Settings {
                 }
             }
         }
+        if (mode == Mode.LOGIC_PAIR && detectSwap) {
+            throw bad("detectSwap", "not available in mode 'logic-pair'; set invert=true for swapped legs");
+        }
         if (profile == LevelProfile.DPHY_LP && mode != Mode.SINGLE) {
             throw bad("levelProfile", "'dphy-lp' checks single-ended low-power levels: use it with mode 'single'"
                     + " on one leg (expected lvds, dphy-hs or none for mode '" + modeName() + "')");

@@ -151,5 +151,15 @@ class ModesTest {
         assertArrayEquals(new long[] {1_500_000, 4_500_000, 6_500_000}, TestSignals.times(e));
         assertFalse(e.get(0).initialLevel());
         assertEquals(1, TestSignals.spans(e).size());
+        // inverted: the same times, levels flipped in both outputs
+        StageHarness inv = StageHarness.of(new DifferentialPlugin(), Map.of("mode", "logic-pair", "invert", true));
+        inv.push("p", Synth.logic("p", 1e9, p)).push("n", Synth.logic("n", 1e9, n)).finish();
+        List<Edges> ie = inv.outputs("edges", Edges.class);
+        assertArrayEquals(TestSignals.times(e), TestSignals.times(ie));
+        assertTrue(ie.get(0).initialLevel());
+        LogicBlock il = inv.outputs("logic", LogicBlock.class).get(0);
+        for (int i = 0; i < 8; i++) {
+            assertEquals(!out.get(i), il.get(i), "sample " + i);
+        }
     }
 }
