@@ -4,8 +4,9 @@ package org.lanesift.plugins.si;
  * Measurements on a finished eye histogram: the two levels and the decision threshold, the
  * alignment of the time axis on the data crossing, eye height and width at the sample point, and
  * mask hits. Display coordinates: column {@code j} of the picture shows histogram column
- * {@code (j + shift) mod width}, so that with alignment the crossing sits at 0 UI and the eye
- * opening is centred at 0.5 UI.
+ * {@code (j + shift) mod width}, so that with alignment the eye opening (the longest run of
+ * columns with an empty band around the threshold) is centred at 0.5 UI and the crossings fall
+ * near 0 and 1 UI.
  */
 final class EyeAnalysis {
     final EyeAccumulator acc;
@@ -13,7 +14,9 @@ final class EyeAnalysis {
     final double uiFs;
     final double binsPerUi;
     final int shift;
+    /** Estimated data crossing in the raw folding phase: half a UI before the centre of the opening. */
     final double crossingUi;
+    final boolean aligned;
     final double lowMv;
     final double highMv;
     final double thresholdMv;
@@ -42,6 +45,7 @@ final class EyeAnalysis {
     EyeAnalysis(EyeAccumulator acc, int uiCount, double uiFs, double samplePointUi, boolean align, double offsetUi,
                 double thresholdMvGiven, EyeMask mask) {
         this.acc = acc;
+        this.aligned = align;
         this.uiCount = uiCount;
         this.uiFs = uiFs;
         this.mask = mask;
@@ -91,27 +95,37 @@ final class EyeAnalysis {
         }
         double cross = 0;
         if (align) {
-            int best = 0;
-            double bestV = -1;
-            for (int x = 0; x < bpu; x++) {
-                double s = 0;
-                for (int k = -2; k <= 2; k++) {
-                    s += dens[Math.floorMod(x + k, bpu)];
+            // the eye's centre is the middle of the longest (circular) run of columns whose band around
+            // the threshold is (nearly) empty; the crossing sits half a UI before it. This follows the
+            // opening rather than the densest column, so a ring that dwells near the threshold cannot
+            // pull the axis off the real edges.
+            double lo = Double.POSITIVE_INFINITY;
+            double hi = Double.NEGATIVE_INFINITY;
+            for (double d : dens) {
+                lo = Math.min(lo, d);
+                hi = Math.max(hi, d);
+            }
+            double limit = lo + 0.02 * (hi - lo);
+            int bestLen = 0;
+            int bestStart = 0;
+            int runStart = -1;
+            for (int k = 0; k < 2 * bpu; k++) {
+                boolean open = dens[k % bpu] <= limit;
+                if (open && runStart < 0) {
+                    runStart = k;
                 }
-                if (s > bestV) {
-                    bestV = s;
-                    best = x;
+                if ((!open || k == 2 * bpu - 1) && runStart >= 0) {
+                    int len = Math.min(bpu, (open ? k + 1 : k) - runStart);
+                    if (len > bestLen) {
+                        bestLen = len;
+                        bestStart = runStart;
+                    }
+                    runStart = -1;
                 }
             }
-            double num = 0;
-            double den = 0;
-            int half = Math.max(1, bpu / 4);
-            for (int k = -half; k <= half; k++) {
-                double d = dens[Math.floorMod(best + k, bpu)];
-                num += d * k;
-                den += d;
-            }
-            cross = best + (den > 0 ? num / den : 0);
+            double centre = bestStart + bestLen / 2.0;
+            cross = centre - bpu / 2.0;
+            cross -= Math.floor(cross / bpu) * bpu;
         }
         crossingUi = cross / binsPerUi;
         shift = Math.floorMod((int) Math.round(cross + offsetUi * binsPerUi), w);
@@ -121,16 +135,23 @@ final class EyeAnalysis {
 
         // eye height: the empty run of rows containing the threshold row, over sample column +/- 1
         long atSample = 0;
+        long below = 0;
         for (int y = 0; y < h; y++) {
             for (int x = Math.max(0, sampleColumn - 1); x <= Math.min(w - 1, sampleColumn + 1); x++) {
                 atSample += at(x, y);
+                if (y < thresholdRow) {
+                    below += at(x, y);
+                }
             }
         }
+        long above = atSample - below;
         boolean twoLevels = Math.abs(highMv - lowMv) / 1000 * acc.binsPerVolt() >= 4;
         if (!twoLevels) {
             unmeasured = "no two distinct levels (low " + Math.round(lowMv) + " mV, high " + Math.round(highMv) + " mV)";
         } else if (atSample < MIN_SAMPLES) {
             unmeasured = "too few samples at the sample point";
+        } else if (below == 0 || above == 0) {
+            unmeasured = "only one level at the sample point (a data pattern whose period matches the window?)";
         } else {
             unmeasured = null;
         }

@@ -52,7 +52,7 @@ public final class EyeDiagramPlugin implements PluginProvider {
             .option(OptionSpec.text("maskFile", "", "eye mask file (docs/eye-mask.md); empty for none"))
             .option(OptionSpec.number("samplePoint", "UI", 0.5, 0.0, 1.0,
                     "where in the unit interval eye height is measured (0.5 = middle of the eye after alignment)"))
-            .option(OptionSpec.choice("align", "auto", "auto puts the data crossing at 0 UI; none keeps the clock/bit-rate phase", "auto", "none"))
+            .option(OptionSpec.choice("align", "auto", "auto centres the eye opening at 0.5 UI (crossings near 0 and 1); none keeps the clock/bit-rate phase", "auto", "none"))
             .option(OptionSpec.number("offsetUi", "UI", 0.0, -1.0, 1.0, "extra shift of the time axis, in UI"))
             .option(OptionSpec.numbers("rangeMv", "mV", "voltage range [min, max] of the plot; empty = from the first 65536 samples"))
             .option(OptionSpec.numbers("thresholdMv", "mV", "decision threshold [value]; empty = midway between the two levels"))

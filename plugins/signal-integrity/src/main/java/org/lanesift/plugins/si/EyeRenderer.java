@@ -47,7 +47,8 @@ final class EyeRenderer {
             g.drawLine(x, TOP + h, x, TOP + h + 5);
             Plot.centred(g, Plot.label(t), x, TOP + h + 19);
         }
-        Plot.centred(g, "time from crossing (ns); 1 UI = " + fmt(e.uiFs / 1000) + " ps", LEFT + w / 2, TOP + h + 40);
+        Plot.centred(g, (e.aligned ? "time (ns), eye opening centred at 0.5 UI" : "time from the folding origin (ns)")
+                + "; 1 UI = " + fmt(e.uiFs / 1000) + " ps", LEFT + w / 2, TOP + h + 40);
         double mvLo = e.rowMv(0);
         double mvHi = e.rowMv(h);
         for (double v : Plot.ticks(mvLo, mvHi, 8)) {
