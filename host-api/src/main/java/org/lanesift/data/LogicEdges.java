@@ -10,8 +10,11 @@ package org.lanesift.data;
  * and consecutive blocks give contiguous edge spans. Turning the edges back into samples at the
  * same times ({@link #toLogic}) gives exactly the original bits.
  *
- * <p>A transition touching an unknown sample is not reported; each run of unknown samples becomes
- * an unknown span from half a sample before its first to half a sample after its last sample.
+ * <p>Unknown samples (the block's {@code invalid} mask) produce no transitions of their own: each
+ * run of them becomes an unknown span from half a sample before its first to half a sample after
+ * its last sample, and holds the last known level. If the signal came out of the run at another
+ * level, the transition is placed at the end of the span, so the known samples after it keep
+ * their true level (and sampling the edges back gives every known sample exactly).
  *
  * <p>Use one instance per channel: it carries the last level across block boundaries, so a
  * transition between two blocks is not lost. Instances are not thread-safe.
@@ -19,7 +22,6 @@ package org.lanesift.data;
 public final class LogicEdges {
     private boolean havePrevious;
     private boolean previousLevel;
-    private boolean previousInvalid;
 
     /** Creates a converter with no history. */
     public LogicEdges() {
@@ -48,46 +50,60 @@ public final class LogicEdges {
             return new Edges(b.channel(), spanStart, Math.max(spanStart, spanEnd), previousLevel, new long[0], 0, null, 0);
         }
         final int words = BitSets.words(n);
-        final boolean first = bits[0] != 0 && (bits[0] & 1L) != 0;
-        final boolean carryStart = havePrevious ? previousLevel : first;
-        final boolean invCarryStart = havePrevious ? previousInvalid : (inv != null && (inv[0] & 1L) != 0);
-        // pass 1: count transitions
-        int total = 0;
-        long carry = carryStart ? 1L : 0L;
-        long invCarry = invCarryStart ? 1L : 0L;
-        for (int w = 0; w < words; w++) {
-            long x = bits[w];
-            long lastMask = (w == words - 1 && (n & 63) != 0) ? (1L << n) - 1 : -1L;
-            long diff = (x ^ ((x << 1) | carry)) & lastMask;
-            if (inv != null) {
-                long iv = inv[w];
-                diff &= ~(iv | (iv << 1) | invCarry);
-                invCarry = iv >>> 63;
+        // the level before sample 0: the previous block's, else the first known sample's
+        boolean level;
+        boolean known = havePrevious;
+        if (havePrevious) {
+            level = previousLevel;
+        } else {
+            int first = 0;
+            while (first < n && inv != null && BitSets.get(inv, first)) {
+                first++;
             }
-            total += Long.bitCount(diff);
-            carry = x >>> 63;
+            level = first < n && b.get(first);
+            known = first < n;
         }
-        long[] times = new long[total];
+        final boolean initial = level;
+        long[] times = new long[16 + (n >>> 5)];
         int k = 0;
-        carry = carryStart ? 1L : 0L;
-        invCarry = invCarryStart ? 1L : 0L;
         for (int w = 0; w < words; w++) {
-            long x = bits[w];
-            long lastMask = (w == words - 1 && (n & 63) != 0) ? (1L << n) - 1 : -1L;
-            long diff = (x ^ ((x << 1) | carry)) & lastMask;
-            if (inv != null) {
-                long iv = inv[w];
-                diff &= ~(iv | (iv << 1) | invCarry);
-                invCarry = iv >>> 63;
-            }
-            carry = x >>> 63;
+            final long x = bits[w];
+            final long iv = inv == null ? 0 : inv[w];
+            final int inWord = (w == words - 1 && (n & 63) != 0) ? n & 63 : 64;
+            final long lastMask = inWord == 64 ? -1L : (1L << inWord) - 1;
             final double base = ((long) w << 6) - 0.5;
-            while (diff != 0) {
-                int j = Long.numberOfTrailingZeros(diff);
-                times[k++] = origin + Math.round((base + j) * p);
-                diff &= diff - 1;
+            if ((iv & lastMask) == 0) {
+                // fast path: every sample of this word is known
+                long diff = (x ^ ((x << 1) | (level ? 1L : 0L))) & lastMask;
+                int c = Long.bitCount(diff);
+                if (k + c > times.length) {
+                    times = java.util.Arrays.copyOf(times, Math.max(times.length * 2, k + c));
+                }
+                while (diff != 0) {
+                    int j = Long.numberOfTrailingZeros(diff);
+                    times[k++] = origin + Math.round((base + j) * p);
+                    diff &= diff - 1;
+                }
+                level = ((x >>> (inWord - 1)) & 1L) != 0;
+            } else {
+                // unknown samples hold the last known level, so a change hidden in an unknown run
+                // appears at the end of the run (the first known sample with the new level)
+                for (int j = 0; j < inWord; j++) {
+                    if (((iv >>> j) & 1L) != 0) {
+                        continue;
+                    }
+                    boolean v = ((x >>> j) & 1L) != 0;
+                    if (v != level) {
+                        if (k == times.length) {
+                            times = java.util.Arrays.copyOf(times, times.length * 2);
+                        }
+                        times[k++] = origin + Math.round((base + j) * p);
+                        level = v;
+                    }
+                }
             }
         }
+        final int total = k;
         long[] spans = null;
         int spanCount = 0;
         if (inv != null && BitSets.count(inv, n) > 0) {
@@ -110,10 +126,11 @@ public final class LogicEdges {
                 spanCount++;
             }
         }
-        boolean initial = carryStart;
-        havePrevious = true;
-        previousLevel = b.get(n - 1);
-        previousInvalid = inv != null && BitSets.get(inv, n - 1);
+        if (known) {
+            // a block of nothing but unknown samples leaves no level behind
+            havePrevious = true;
+            previousLevel = level;
+        }
         return new Edges(b.channel(), spanStart, spanEnd, initial, times, total, spans, spanCount);
     }
 

@@ -52,18 +52,77 @@ class LogicEdgesTest {
     }
 
     @Test
-    void unknownSamplesGiveNoEdgesAndAnUnknownSpan() {
-        // 0 0 [1 0] 1 1 with samples 2,3 unknown
+    void unknownSamplesGiveAnUnknownSpanAndKeepTheLevelAfterIt() {
+        // 0 0 [1 0] 1 1 with samples 2 and 3 unknown: the change hidden in the unknown run shows at its end
         long bits = 0b110100L;
         long inv = 0b001100L;
         Edges e = LogicEdges.edgesOf(new LogicBlock("d", 0, 0, 1e6, new long[] {bits}, 6, new long[] {inv}));
-        assertEquals(0, e.count(), "every transition touched an unknown sample");
+        assertEquals(1, e.count());
+        assertEquals(3_500_000L, e.timesFs()[0]);
         assertEquals(1, e.invalidCount());
         assertEquals(1_500_000L, e.invalidSpans()[0]);
         assertEquals(3_500_000L, e.invalidSpans()[1]);
         assertTrue(e.isUnknownAt(2_000_000L));
         LogicBlock back = LogicEdges.toLogic(e, 0, 1e6, 6);
         assertEquals(inv, back.invalid()[0]);
+        assertEquals(bits & ~inv, back.bits()[0] & ~inv, "every known sample keeps its level");
+        // 1 1 [x x] 0 0: the valid samples after the run must come back low
+        Edges f = LogicEdges.edgesOf(new LogicBlock("d", 0, 0, 1e6, new long[] {0b000011L}, 6, new long[] {inv}));
+        LogicBlock fb = LogicEdges.toLogic(f, 0, 1e6, 6);
+        assertEquals(0b000011L, fb.bits()[0] & ~inv);
+    }
+
+    // Property: known samples survive logic -> edges -> logic whatever the unknown runs, also across blocks.
+    @Property(tries = 300)
+    void knownSamplesRoundTripAroundUnknownRuns(@ForAll @IntRange(min = 1, max = 500) int n, @ForAll long seed) {
+        Random r = new Random(seed);
+        LogicBlock b = random(n, seed, 0.3);
+        long[] inv = new long[BitSets.words(n)];
+        for (int i = 0; i < n; i++) {
+            if (r.nextInt(5) == 0) {
+                int len = 1 + r.nextInt(12);
+                BitSets.setRange(inv, i, Math.min(n, i + len));
+                i += len;
+            }
+        }
+        LogicBlock withInv = new LogicBlock("d", 0, b.startFs(), b.periodFs(), b.bits(), n, inv);
+        LogicEdges conv = new LogicEdges();
+        int cut = n / 2;
+        List<Long> times = new ArrayList<>();
+        boolean initial = false;
+        for (int part = 0; part < 2; part++) {
+            int from = part == 0 ? 0 : cut;
+            int len = part == 0 ? cut : n - cut;
+            if (len == 0) {
+                continue;
+            }
+            long[] pb = new long[BitSets.words(len)];
+            long[] pi = new long[BitSets.words(len)];
+            for (int i = 0; i < len; i++) {
+                BitSets.set(pb, i, BitSets.get(b.bits(), from + i));
+                BitSets.set(pi, i, BitSets.get(inv, from + i));
+            }
+            Edges e = conv.toEdges(new LogicBlock("d", from, b.startFs() + Math.round(from * b.periodFs()), b.periodFs(), pb, len, pi));
+            if (from == 0) {
+                initial = e.initialLevel();
+            }
+            if (from == 0 && !BitSets.any(new long[] {0}, 0, 0) && BitSets.count(pi, len) == len) {
+                initial = LogicEdges.edgesOf(withInv).initialLevel(); // the first part was all unknown: its level is arbitrary
+            }
+            for (int i = 0; i < e.count(); i++) {
+                times.add(e.timesFs()[i]);
+            }
+        }
+        long[] t = times.stream().mapToLong(Long::longValue).toArray();
+        Edges all = new Edges("d", b.startFs() - 500_000, b.startFs() + Math.round((n - 0.5) * 1e6), initial, t, t.length, null, 0);
+        LogicBlock back = LogicEdges.toLogic(all, b.startFs(), b.periodFs(), n);
+        for (int i = 0; i < n; i++) {
+            if (!BitSets.get(inv, i)) {
+                assertEquals(withInv.get(i), back.get(i), "known sample " + i);
+            }
+        }
+        Edges whole = LogicEdges.edgesOf(withInv);
+        assertEquals(whole.count(), t.length, "split and whole give the same transitions");
     }
 
     // Property: logic -> edges -> logic is the identity for random blocks of any length and activity.
