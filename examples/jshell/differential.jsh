@@ -9,13 +9,14 @@ import org.lanesift.plugin.*;
 
 var plugins = PluginRegistry.discover(null);
 var edges = new ArrayList<Edges>();
-var chain = Chain.builder(plugins)
-    .input("p", DataKind.ANALOG).input("n", DataKind.ANALOG)
-    .add("rx", "differential", Map.of("mode", "pair"))
-    .wire("p", "rx.p").wire("n", "rx.n")
-    .annotations((src, a) -> System.out.println(src + ": " + a.kind() + " " + a.label()))
-    .tap("rx.edges", b -> edges.add((Edges) b))
-    .build();
+// JShell ends a statement at the end of a line when it can, so each line ends with a dot
+var chain = Chain.builder(plugins).
+    input("p", DataKind.ANALOG).input("n", DataKind.ANALOG).
+    add("rx", "differential", Map.of("mode", "pair")).
+    wire("p", "rx.p").wire("n", "rx.n").
+    annotations((src, a) -> System.out.println(src + ": " + a.kind() + " " + a.label())).
+    tap("rx.edges", b -> edges.add((Edges) b)).
+    build();
 double periodFs = 1e15 / 5e9;
 int len = 20000;
 float[] p = new float[len], n = new float[len];
