@@ -104,6 +104,9 @@ public final class LogicEdges {
             }
         }
         final int total = k;
+        if (times.length != total) {
+            times = java.util.Arrays.copyOf(times, total); // exact length: callers may rely on it
+        }
         long[] spans = null;
         int spanCount = 0;
         if (inv != null && BitSets.count(inv, n) > 0) {

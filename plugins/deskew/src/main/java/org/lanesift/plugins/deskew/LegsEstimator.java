@@ -15,7 +15,9 @@ import org.lanesift.data.AnalogBlock;
  * the matching -N samples extended by {@code maxLag} either side, so every lag sums the same
  * {@code L} products (no triangular bias). Each segment is correlated with Apache Commons Math's
  * {@link FastFourierTransformer} (size the next power of two at or above {@code L + 2 maxLag});
- * both legs have their segment mean removed first. Memory: two segments.
+ * both legs have their segment mean removed first. When the levels correlate weakly (below 0.5),
+ * as on a lane whose low-power states move both legs together, the correlation of the slopes in
+ * differential mode is used instead (see {@code slopeSegment}). Memory: two segments.
  *
  * <p>A positive lag means -N arrives later than P by that many samples.
  */
@@ -27,6 +29,10 @@ final class LegsEstimator {
     private double energyP;
     private double energyQ;
     private long products;
+    // the same correlation taken between slopes with common-mode moves left out (see segment)
+    private final double[] accSlope;
+    private double energySlopeP;
+    private double energySlopeQ;
     private long nonFinite;
 
     private float[] p = new float[0];
@@ -46,6 +52,7 @@ final class LegsEstimator {
         }
         this.fftSize = f;
         this.acc = new double[2 * maxLag + 1];
+        this.accSlope = new double[2 * maxLag + 1];
         this.pos = maxLag;
         this.fp = new double[2][fftSize];
         this.fq = new double[2][fftSize];
@@ -175,6 +182,60 @@ final class LegsEstimator {
         energyP += ep;
         energyQ += eq;
         products += len;
+        slopeSegment(a, len, qlen);
+    }
+
+    /**
+     * The correlation between the slopes of P and -N where the pair moves in differential mode:
+     * a common-mode move (both legs the same way, such as a low-power state change between bursts
+     * on a D-PHY lane) gives slopes of P and -N of opposite sign and is left out. Used when the
+     * level correlation is weak because common-mode moves dominate it.
+     */
+    private void slopeSegment(int a, int len, int qlen) {
+        double[] pr = fp[0];
+        double[] pi = fp[1];
+        double[] qr = fq[0];
+        double[] qi = fq[1];
+        Arrays.fill(pr, 0);
+        Arrays.fill(pi, 0);
+        Arrays.fill(qr, 0);
+        Arrays.fill(qi, 0);
+        double ep = 0;
+        for (int i = 0; i < len; i++) {
+            int k = a + i;
+            double dp = p[k] - p[k - 1];
+            double dq = q[k] - q[k - 1];
+            double v = dp * dq < 0 && Math.abs(dq) > 0.25 * Math.abs(dp) ? 0 : dp;
+            pr[i] = v;
+            ep += v * v;
+        }
+        double eq = 0;
+        for (int i = 0; i < qlen; i++) {
+            int k = a - maxLag + i;
+            double dq = k >= 1 ? q[k] - q[k - 1] : 0;
+            double dp = k >= 1 && k < pLen ? p[k] - p[k - 1] : 0;
+            double v = dp * dq < 0 && Math.abs(dp) > 0.25 * Math.abs(dq) ? 0 : dq;
+            qr[i] = v;
+            if (i >= maxLag && i < maxLag + len) {
+                eq += v * v;
+            }
+        }
+        FastFourierTransformer.transformInPlace(fp, DftNormalization.STANDARD, TransformType.FORWARD);
+        FastFourierTransformer.transformInPlace(fq, DftNormalization.STANDARD, TransformType.FORWARD);
+        for (int k = 0; k < fftSize; k++) {
+            double ar = pr[k];
+            double ai = -pi[k];
+            double br = qr[k];
+            double bi = qi[k];
+            qr[k] = ar * br - ai * bi;
+            qi[k] = ar * bi + ai * br;
+        }
+        FastFourierTransformer.transformInPlace(fq, DftNormalization.STANDARD, TransformType.INVERSE);
+        for (int j = 0; j <= 2 * maxLag; j++) {
+            accSlope[j] += qr[j];
+        }
+        energySlopeP += ep;
+        energySlopeQ += eq;
     }
 
     /** The accumulated correlation, lag {@code -maxLag} first (a copy). */
@@ -190,6 +251,16 @@ final class LegsEstimator {
         if (products == 0) {
             return new Result(0, 0, 0, false, 0);
         }
+        Result levels = result(acc, energyP, energyQ);
+        if (levels.correlation() >= 0.5) {
+            return levels;
+        }
+        // weak: common-mode moves (low-power states) may dominate the levels; try the slopes
+        Result slopes = result(accSlope, energySlopeP, energySlopeQ);
+        return slopes.correlation() > levels.correlation() ? slopes : levels;
+    }
+
+    private Result result(double[] acc, double energyP, double energyQ) {
         int best = 0;
         for (int j = 1; j < acc.length; j++) {
             if (acc[j] > acc[best]) {

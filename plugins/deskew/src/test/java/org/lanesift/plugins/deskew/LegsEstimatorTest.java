@@ -58,4 +58,27 @@ class LegsEstimatorTest {
         assertTrue(r.correlation() > 0.95);
         assertEquals(len - 2 * maxLag, r.samples());
     }
+
+    @Test
+    void commonModeStepsDoNotPullTheEstimate() {
+        // a lane that leaves high speed for low-power states: both legs move by 1 V together, slowly,
+        // every 3000 samples (the D-PHY pattern of LP-11 between bursts; levels from shared/DESIGN.md section 6)
+        AnalogBlock[] pn = LinkSynth.legs(60000, 1_000_000, 10e9, 250_000, 231_000, 20_000, 0.005, 11);
+        float[] p = pn[0].volts().clone();
+        float[] n = pn[1].volts().clone();
+        double cm = 0;
+        for (int i = 0; i < p.length; i++) {
+            double target = (i / 3000) % 2 == 0 ? 0 : 1.0;
+            cm += (target - cm) * 0.02;
+            p[i] += (float) cm;
+            n[i] += (float) cm;
+        }
+        LegsEstimator est = new LegsEstimator(25);
+        est.p(new AnalogBlock("P", 0, 0, pn[0].periodFs(), p, p.length, null));
+        est.n(new AnalogBlock("N", 0, 0, pn[1].periodFs(), n, n.length, null));
+        est.finish();
+        LegsEstimator.Result r = est.result();
+        assertEquals(2.31, r.lagSamples(), 0.1, "231 ps at 100 ps per sample: within 1 % of the 1 ns UI");
+        org.junit.jupiter.api.Assertions.assertTrue(r.correlation() > 0.5, "confident: " + r.correlation());
+    }
 }
