@@ -42,6 +42,7 @@ final class CsvLayout {
     String[] channelNames;
     String[] ports;
     String[] units;
+    String[] fileUnits;
     double[] scales;          // to volts (or 1 for other units)
     double headRowBytes;      // average bytes per data row in the head, for the progress estimate
     int headRows;
@@ -247,12 +248,14 @@ final class CsvLayout {
         int c = l.channelColumns.length;
         l.channelNames = new String[c];
         l.units = new String[c];
+        l.fileUnits = new String[c];
         l.scales = new double[c];
         List<String> raws = new ArrayList<>();
         for (int k = 0; k < c; k++) {
             int j = l.channelColumns[k];
             l.channelNames[k] = nm[j].isEmpty() ? "ch" + (j + 1) : nm[j];
-            l.units[k] = un[j].isEmpty() ? "V" : un[j];
+            l.units[k] = un[j].isEmpty() || isVoltUnit(un[j]) ? "V" : un[j]; // volt units are scaled to volts
+            l.fileUnits[k] = un[j].isEmpty() ? "no unit in the file" : un[j] + " in the file";
             l.scales[k] = voltScale(un[j]);
             raws.add(nm[j].isEmpty() ? "ch" + (j + 1) : nm[j]);
         }

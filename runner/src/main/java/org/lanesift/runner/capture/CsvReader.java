@@ -68,7 +68,7 @@ final class CsvReader implements CaptureReader {
         this.sep = l.separator;
         this.dc = l.decimalComma;
         for (int k = 0; k < nch; k++) {
-            ports.add(PortSpec.of(l.ports[k], DataKind.ANALOG, "column '" + l.channelNames[k] + "' (" + l.units[k] + ")"));
+            ports.add(PortSpec.of(l.ports[k], DataKind.ANALOG, "column '" + l.channelNames[k] + "' in " + l.units[k] + " (" + l.fileUnits[k] + ")"));
         }
         switch (l.timeKind) {
             case SECONDS -> {

@@ -62,7 +62,7 @@ public final class CsvSource implements PluginProvider {
         java.util.List<org.lanesift.plugin.PortSpec> out = new java.util.ArrayList<>();
         for (int k = 0; k < l.ports.length; k++) {
             out.add(org.lanesift.plugin.PortSpec.of(l.ports[k], org.lanesift.data.DataKind.ANALOG,
-                    "column '" + l.channelNames[k] + "' (" + l.units[k] + ")"));
+                    "column '" + l.channelNames[k] + "' in " + l.units[k] + " (" + l.fileUnits[k] + ")"));
         }
         return out;
     }

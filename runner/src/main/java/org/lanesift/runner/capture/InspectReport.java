@@ -117,7 +117,7 @@ public record InspectReport(String file, String format, List<Channel> channels, 
                         .append("  threshold ").append(num(c.threshold(), u)).append(" +/- ").append(num(c.hysteresis(), u));
             }
             if (c.edges() != null) {
-                sb.append(c.min() != null ? "\n      " : "  ").append(c.edges()).append(" edges");
+                sb.append(c.min() != null ? "\n      " : "  ").append(c.edges()).append(c.edges() == 1 ? " edge" : " edges");
                 if (c.min() != null) {
                     sb.append(" at the threshold");
                 }

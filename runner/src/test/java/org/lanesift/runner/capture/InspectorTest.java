@@ -119,4 +119,14 @@ class InspectorTest {
         assertEquals(3.0, v.max(), 0);
         assertTrue(rep.clocks().isEmpty());
     }
+
+    @Test
+    void millivoltColumnsAreReportedInVolts() {
+        InspectReport rep = Inspector.inspect(CsvReaderTest.res("scope-meta.csv"), Map.of());
+        InspectReport.Channel ch2 = rep.channels().get(1);
+        assertEquals("V", ch2.unit(), "the mV column was scaled to volts");
+        assertEquals(1.025, ch2.min(), 1e-6);
+        assertEquals(1.375, ch2.max(), 1e-6);
+        assertEquals(3, ch2.edges());
+    }
 }
