@@ -629,15 +629,16 @@ final class AnalogStage implements Stage {
             learn();
         }
         if (twoLegs && (!queues.get(0).isEmpty() || !queues.get(1).isEmpty())) {
-            int left = queues.get(0).isEmpty() ? 1 : 0;
+            int rest = queues.get(0).isEmpty() ? 1 : 0; // the leg with samples left over
+            int other = 1 - rest;
             long extra = 0;
-            for (AnalogBlock b : queues.get(1 - left)) {
+            for (AnalogBlock b : queues.get(rest)) {
                 extra += b.length();
             }
-            extra -= headOffset[1 - left];
+            extra -= headOffset[rest];
             ctx.annotate(Annotation.on(s.channel, "legs-unequal-length").span(cmp.timeAt(cmp.nextIndex(), 0),
                             cmp.timeAt(cmp.nextIndex() + extra, 0)).severity(Severity.WARNING)
-                    .label("leg '" + inputNames[1 - left] + "' has " + extra + " samples more than leg '" + inputNames[left]
+                    .label("leg '" + inputNames[rest] + "' has " + extra + " samples more than leg '" + inputNames[other]
                             + "'; they were not used")
                     .field("samples", Field.integer(extra, "")).build());
         }

@@ -77,6 +77,35 @@ class ChainAndOptionsTest {
         assertTrue(f.getMessage().contains("input 'in'") && f.getMessage().contains("without gaps"), f.getMessage());
     }
 
+    @Test
+    void legsStartingAtDifferentSamplesAreAlignedAndLeftoversReported() {
+        AnalogBlock[] l = legs();
+        // n starts 100 samples later and ends 50 samples earlier than p
+        int n = l[1].length();
+        AnalogBlock nLate = new AnalogBlock("n", 100, Math.round(100 * l[1].periodFs()), l[1].periodFs(),
+                java.util.Arrays.copyOfRange(l[1].volts(), 100, n - 50), n - 150, null);
+        StageHarness h = TestSignals.runPair(Map.of(), l[0], nLate);
+        StageHarness whole = TestSignals.runPair(Map.of(), l[0], l[1]);
+        long[] t = TestSignals.times(h.outputs("edges", Edges.class));
+        long[] all = TestSignals.times(whole.outputs("edges", Edges.class));
+        long first = h.outputs("edges", Edges.class).get(0).startFs();
+        assertEquals(Math.round(100 * l[1].periodFs()), first, "the output starts where both legs are known");
+        // every edge of the aligned run is an edge of the full run, except around the shortened ends
+        int matched = 0;
+        for (long x : t) {
+            for (long y : all) {
+                if (Math.abs(x - y) <= 1) {
+                    matched++;
+                    break;
+                }
+            }
+        }
+        assertTrue(matched >= t.length - 2, matched + " of " + t.length);
+        var left = h.annotations("legs-unequal-length");
+        assertEquals(1, left.size());
+        assertEquals(50L, left.get(0).fields().get("samples").value());
+    }
+
     static String optionError(Map<String, Object> options) {
         PluginRegistry reg = new PluginRegistry().add(new DifferentialPlugin());
         ChainException e = assertThrows(ChainException.class, () -> {
