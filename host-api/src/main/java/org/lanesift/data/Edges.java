@@ -11,6 +11,8 @@ import java.util.Objects;
  * {@code <= t}. Transition times lie in {@code [startFs, endFs)} and never decrease. Spans where
  * the signal is unknown (clipped, missing, x/z) are listed in {@code invalidSpans} as pairs
  * {@code [start, end)}; no transition inside them is trustworthy and producers emit none there.
+ * When the signal leaves an unknown span at a different level than it entered it, the producer
+ * places one transition exactly at the span's end, so the level after the span is right.
  *
  * @param channel      channel name
  * @param startFs      start of the covered span
