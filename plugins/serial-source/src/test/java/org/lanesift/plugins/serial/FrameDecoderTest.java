@@ -39,13 +39,13 @@ class FrameDecoderTest {
         byte[] payload = {0x00, 0x01, 0, 0, 0, 0, 0, 0, 0x01, 0x03, 0x02, (byte) 0x80};
         byte[] f = Framing.encode(FrameType.DATA, 7, payload);
         String hex = hex(f);
-        assertEquals("D5 6B 01 00 07 00 00 00 0C 00 00 01 00 00 00 00 00 00 01 03 02 80 " + crcHex(f), hex);
+        assertEquals("D5 6B 01 00 07 00 00 00 0C 00 00 01 00 00 00 00 00 00 01 03 02 80 F5 5D 23 5C", hex);
         // the CRC covers bytes 2..21 (type to end of payload), LSB first
         java.util.zip.CRC32C ref = new java.util.zip.CRC32C();
         ref.update(f, 2, f.length - 6);
         assertEquals((int) ref.getValue(), Framing.u32(f, f.length - 4));
         // the identify command has an empty payload
-        assertEquals(14, Framing.encode(FrameType.IDENTIFY, 0, new byte[0]).length);
+        assertEquals("D5 6B 10 00 00 00 00 00 00 00 3E BB 5E 08", hex(Framing.encode(FrameType.IDENTIFY, 0, new byte[0])));
     }
 
     static String crcHex(byte[] f) {
