@@ -67,12 +67,15 @@ class PtyCaptureTest {
                     failure[0] = e;
                 }
             }, "capture");
+            long t0 = System.nanoTime();
             cap.start();
             dev.join(600_000);
             long deadline = System.nanoTime() + 120_000_000_000L;
             while (System.nanoTime() < deadline && (c.writer() == null || c.writer().bytes() < rec.bytes())) {
                 Thread.sleep(20);
             }
+            double secs = (System.nanoTime() - t0) / 1e9;
+            System.out.printf("pty: %d bytes in %.2f s = %.1f MB/s%n", rec.bytes(), secs, rec.bytes() / 1e6 / secs);
             c.stop();
             cap.join(30_000);
             sim.stop();
