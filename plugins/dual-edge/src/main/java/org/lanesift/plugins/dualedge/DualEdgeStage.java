@@ -352,6 +352,7 @@ final class DualEdgeStage implements Stage {
         for (int i = 0; i < lanes.length; i++) {
             LaneSampler l = lanes[i];
             MarginStats st = l.stats;
+            st.merge();
             j.beginObject();
             j.key("lane").value(i);
             j.key("channel").value(laneQ[i].channel);

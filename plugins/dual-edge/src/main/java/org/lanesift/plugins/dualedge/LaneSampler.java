@@ -81,8 +81,8 @@ final class LaneSampler {
         final long[] flg = flagged;
         final long[] su = setup;
         final long[] ho = hold;
-        final long[] sh = stats.setupHist;
-        final long[] hh = stats.holdHist;
+        final long[] sh = stats.setupHist4;
+        final long[] hh = stats.holdHist4;
         final long maxBin = MarginStats.BINS;
         final int unknownBin = MarginStats.BINS + 1;
         long minS = stats.minSetupFs;
@@ -111,8 +111,9 @@ final class LaneSampler {
             su[i] = a;
             ho[i] = b;
             final long k = sc[i];
-            sh[(int) ((Math.min(maxBin, (a * k) >>> 40) & ~ma) | (unknownBin & ma))]++;
-            hh[(int) ((Math.min(maxBin, (b * k) >>> 40) & ~mb) | (unknownBin & mb))]++;
+            final int lane4 = i & 3;
+            sh[(((int) ((Math.min(maxBin, (a * k) >>> 40) & ~ma) | (unknownBin & ma))) << 2) | lane4]++;
+            hh[(((int) ((Math.min(maxBin, (b * k) >>> 40) & ~mb) | (unknownBin & mb))) << 2) | lane4]++;
             if (a < minS) {
                 minS = a;
                 stats.minSetupUi = a / sb.ui[i];

@@ -13,6 +13,23 @@ final class MarginStats {
     /** Bins 0..BINS (BINS holds exactly 1 UI); bin BINS + 1 counts unknown margins. */
     final long[] setupHist = new long[BINS + 2];
     final long[] holdHist = new long[BINS + 2];
+    /**
+     * Four interleaved copies (index {@code bin * 4 + (i & 3)}) filled by the fast loop, so that
+     * consecutive bits never increment the same counter (no store-to-load stalls); added into
+     * {@link #setupHist} / {@link #holdHist} by {@link #merge()}.
+     */
+    final long[] setupHist4 = new long[(BINS + 2) * 4];
+    final long[] holdHist4 = new long[(BINS + 2) * 4];
+
+    /** Adds the interleaved copies into the plain histograms and clears them. */
+    void merge() {
+        for (int b = 0; b < BINS + 2; b++) {
+            setupHist[b] += setupHist4[4 * b] + setupHist4[4 * b + 1] + setupHist4[4 * b + 2] + setupHist4[4 * b + 3];
+            holdHist[b] += holdHist4[4 * b] + holdHist4[4 * b + 1] + holdHist4[4 * b + 2] + holdHist4[4 * b + 3];
+        }
+        java.util.Arrays.fill(setupHist4, 0);
+        java.util.Arrays.fill(holdHist4, 0);
+    }
     long bits;
     long flagged;
     long unknown;
