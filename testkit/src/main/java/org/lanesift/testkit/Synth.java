@@ -194,7 +194,7 @@ public final class Synth {
     }
 
     /**
-     * Cuts an edge list at the given times into consecutive edge lists.
+     * Cuts an edge list at the given times into consecutive edge lists; unknown spans are clipped to each piece.
      *
      * @param e     the edges
      * @param cutsFs cut times, increasing, inside the span
@@ -212,7 +212,19 @@ public final class Synth {
             while (k < e.count() && e.timesFs()[k] < end) {
                 k++;
             }
-            out.add(Edges.of(e.channel(), start, end, level, Arrays.copyOfRange(e.timesFs(), from, k)));
+            long[] spans = new long[2 * e.invalidCount()];
+            int ns = 0;
+            for (int i = 0; i < e.invalidCount(); i++) {
+                long a = Math.max(start, e.invalidSpans()[2 * i]);
+                long z = Math.min(end, e.invalidSpans()[2 * i + 1]);
+                if (a < z) {
+                    spans[2 * ns] = a;
+                    spans[2 * ns + 1] = z;
+                    ns++;
+                }
+            }
+            long[] t = Arrays.copyOfRange(e.timesFs(), from, k);
+            out.add(new Edges(e.channel(), start, end, level, t, t.length, spans, ns));
             if (((k - from) & 1) == 1) {
                 level = !level;
             }
