@@ -164,21 +164,7 @@ final class LegsEstimator {
                 eq += v * v;
             }
         }
-        FastFourierTransformer.transformInPlace(fp, DftNormalization.STANDARD, TransformType.FORWARD);
-        FastFourierTransformer.transformInPlace(fq, DftNormalization.STANDARD, TransformType.FORWARD);
-        // conj(P) * Q into fq
-        for (int k = 0; k < fftSize; k++) {
-            double ar = pr[k];
-            double ai = -pi[k];
-            double br = qr[k];
-            double bi = qi[k];
-            qr[k] = ar * br - ai * bi;
-            qi[k] = ar * bi + ai * br;
-        }
-        FastFourierTransformer.transformInPlace(fq, DftNormalization.STANDARD, TransformType.INVERSE);
-        for (int j = 0; j <= 2 * maxLag; j++) {
-            acc[j] += qr[j];
-        }
+        correlateInto(acc);
         energyP += ep;
         energyQ += eq;
         products += len;
@@ -220,6 +206,17 @@ final class LegsEstimator {
                 eq += v * v;
             }
         }
+        correlateInto(accSlope);
+        energySlopeP += ep;
+        energySlopeQ += eq;
+    }
+
+    /** Correlates the segment in {@code fp} against the one in {@code fq} (FFT, conj(P) * Q) and adds lags -maxLag..maxLag to {@code target}. */
+    private void correlateInto(double[] target) {
+        double[] pr = fp[0];
+        double[] pi = fp[1];
+        double[] qr = fq[0];
+        double[] qi = fq[1];
         FastFourierTransformer.transformInPlace(fp, DftNormalization.STANDARD, TransformType.FORWARD);
         FastFourierTransformer.transformInPlace(fq, DftNormalization.STANDARD, TransformType.FORWARD);
         for (int k = 0; k < fftSize; k++) {
@@ -232,10 +229,8 @@ final class LegsEstimator {
         }
         FastFourierTransformer.transformInPlace(fq, DftNormalization.STANDARD, TransformType.INVERSE);
         for (int j = 0; j <= 2 * maxLag; j++) {
-            accSlope[j] += qr[j];
+            target[j] += qr[j];
         }
-        energySlopeP += ep;
-        energySlopeQ += eq;
     }
 
     /** The accumulated correlation, lag {@code -maxLag} first (a copy). */
