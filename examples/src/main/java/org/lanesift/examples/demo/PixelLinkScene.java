@@ -121,6 +121,7 @@ public final class PixelLinkScene {
         List<int[]> pics = new ArrayList<>();
         int lastPicFrame = -1;
         int[] pic = null;
+        int[][] slots = {{1, 1, 0, 0, 0, 1, 1}, new int[7], new int[7], new int[7]};
         for (int p = 0; p < pixels; p++) {
             int lineAbs = firstLine + p / H_TOTAL;
             int frame = lineAbs / V_TOTAL;
@@ -141,11 +142,10 @@ public final class PixelLinkScene {
             int r = (c >> 12) & 63;
             int g = (c >> 6) & 63;
             int b = c & 63;
-            int[][] slots = new int[4][7];
-            slots[0] = new int[] {1, 1, 0, 0, 0, 1, 1};
-            slots[1] = new int[] {bit(g, 0), bit(r, 5), bit(r, 4), bit(r, 3), bit(r, 2), bit(r, 1), bit(r, 0)};
-            slots[2] = new int[] {bit(b, 1), bit(b, 0), bit(g, 5), bit(g, 4), bit(g, 3), bit(g, 2), bit(g, 1)};
-            slots[3] = new int[] {de ? 1 : 0, vs ? 1 : 0, hs ? 1 : 0, bit(b, 5), bit(b, 4), bit(b, 3), bit(b, 2)};
+            // slot bits of this pixel, slot 0 first; lane 0 of the array is the clock lane (1100011)
+            fill(slots[1], bit(g, 0), bit(r, 5), bit(r, 4), bit(r, 3), bit(r, 2), bit(r, 1), bit(r, 0));
+            fill(slots[2], bit(b, 1), bit(b, 0), bit(g, 5), bit(g, 4), bit(g, 3), bit(g, 2), bit(g, 1));
+            fill(slots[3], de ? 1 : 0, vs ? 1 : 0, hs ? 1 : 0, bit(b, 5), bit(b, 4), bit(b, 3), bit(b, 2));
             for (int s = 0; s < 7; s++) {
                 long slotIndex = 7L * p + s;
                 double tIdeal = t0 + slotIndex * uiFs;
@@ -172,6 +172,16 @@ public final class PixelLinkScene {
         }
         Truth truth = new Truth(complete, pics, PIXEL_CLOCK_HZ, LANE_SKEW_PS.clone(), LEG_SKEW_PS.clone());
         return new Capture(CHANNELS.clone(), volts, imp.sampleRateHz(), truth);
+    }
+
+    private static void fill(int[] a, int s0, int s1, int s2, int s3, int s4, int s5, int s6) {
+        a[0] = s0;
+        a[1] = s1;
+        a[2] = s2;
+        a[3] = s3;
+        a[4] = s4;
+        a[5] = s5;
+        a[6] = s6;
     }
 
     private static int bit(int v, int i) {

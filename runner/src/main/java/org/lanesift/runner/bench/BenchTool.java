@@ -24,6 +24,8 @@ import org.lanesift.plugin.Tool;
  * the chain are timed too, so the differences show where the time goes.
  */
 public final class BenchTool implements Tool {
+    private static volatile double readSink;
+
     /** Creates the tool (ServiceLoader). */
     public BenchTool() {
     }
@@ -167,9 +169,7 @@ public final class BenchTool implements Tool {
             }
         }
         double sec = (System.nanoTime() - t0) / 1e9;
-        if (s == 42.4242) {
-            System.out.print("");
-        }
+        readSink = s; // a volatile write keeps the JIT from dropping the loop
         return sec;
     }
 
