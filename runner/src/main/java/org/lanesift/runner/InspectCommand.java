@@ -52,7 +52,7 @@ final class InspectCommand implements Callable<Integer> {
             }
             options.put("rate", rate.trim());
         }
-        String text = host.inspector.inspect(file, options, json);
+        String text = Inspection.inspect(file, options, json);
         host.out.print(text.endsWith("\n") ? text : text + "\n");
         host.out.flush();
         return 0;

@@ -13,14 +13,20 @@ import org.lanesift.runner.capture.Inspector;
  * (sample-index columns), {@code realRateHz} for VCD (real variables); raw captures take their
  * rate from the sidecar.
  */
-final class Inspection implements CaptureInspector {
-    static final Inspection INSTANCE = new Inspection();
+final class Inspection {
 
     private Inspection() {
     }
 
-    @Override
-    public String inspect(Path file, Map<String, String> options, boolean json) {
+    /**
+     * Summarises a capture for {@code inspect}.
+     *
+     * @param file    the capture
+     * @param options command options ({@code rate})
+     * @param json    true for the JSON form
+     * @return the summary
+     */
+    static String inspect(Path file, Map<String, String> options, boolean json) {
         Map<String, String> o = new LinkedHashMap<>();
         String rate = options.get("rate");
         if (rate != null) {

@@ -58,16 +58,14 @@ public final class Main implements Callable<Integer> {
         final ClassLoader loader;
         final boolean debug;
         final boolean quiet;
-        final CaptureInspector inspector;
         private PluginRegistry registry;
 
-        Host(PrintStream out, PrintStream err, ClassLoader loader, boolean debug, boolean quiet, CaptureInspector inspector) {
+        Host(PrintStream out, PrintStream err, ClassLoader loader, boolean debug, boolean quiet) {
             this.out = out;
             this.err = err;
             this.loader = loader;
             this.debug = debug;
             this.quiet = quiet;
-            this.inspector = inspector;
         }
 
         PluginRegistry registry() {
@@ -121,7 +119,7 @@ public final class Main implements Callable<Integer> {
             quiet |= a.equals("--quiet") || a.equals("-q");
         }
         try {
-            Host host = new Host(out, err, Main.class.getClassLoader(), debug, quiet, Inspection.INSTANCE);
+            Host host = new Host(out, err, Main.class.getClassLoader(), debug, quiet);
             Map<String, Tool> tools = tools(host.loader, err, debug);
             // a tool parses its own arguments: hand everything after its name to it
             int i = 0;
