@@ -128,6 +128,53 @@ public record Edges(String channel, long startFs, long endFs, boolean initialLev
         return false;
     }
 
+    /**
+     * The part of this edge list inside {@code [fromFs, toFs)}, clipped to the covered span: the
+     * level at the new start, the transitions inside, and the unknown spans cut to fit (empty ones
+     * dropped). Concatenating the slices of consecutive ranges gives back the same signal.
+     *
+     * @param fromFs start of the range
+     * @param toFs   end of the range, exclusive; at least {@code fromFs}
+     * @return the slice; this block itself when the range covers it
+     * @throws IllegalArgumentException if the range does not overlap the covered span
+     */
+    public Edges slice(long fromFs, long toFs) {
+        long a = Math.max(startFs, fromFs);
+        long b = Math.min(endFs, toFs);
+        if (toFs < fromFs || b < a) {
+            throw new IllegalArgumentException("edge list '" + channel + "': range [" + fromFs + ", " + toFs
+                    + ") fs is outside the covered span [" + startFs + ", " + endFs + ") fs");
+        }
+        if (a == startFs && b == endFs) {
+            return this;
+        }
+        int lo = 0;
+        while (lo < count && timesFs[lo] < a) {
+            lo++;
+        }
+        int hi = lo;
+        while (hi < count && timesFs[hi] < b) {
+            hi++;
+        }
+        boolean level = initialLevel ^ ((lo & 1) != 0);
+        long[] t = java.util.Arrays.copyOfRange(timesFs, lo, hi);
+        long[] spans = null;
+        int n = 0;
+        for (int i = 0; i < invalidCount; i++) {
+            long s = Math.max(a, invalidSpans[2 * i]);
+            long e = Math.min(b, invalidSpans[2 * i + 1]);
+            if (e > s) {
+                if (spans == null) {
+                    spans = new long[2 * invalidCount];
+                }
+                spans[2 * n] = s;
+                spans[2 * n + 1] = e;
+                n++;
+            }
+        }
+        return new Edges(channel, a, b, level, t, t.length, spans, n);
+    }
+
     @Override
     public DataKind kind() {
         return DataKind.EDGES;

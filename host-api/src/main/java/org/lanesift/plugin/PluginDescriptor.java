@@ -18,6 +18,7 @@ public final class PluginDescriptor {
     private final List<OptionSpec> options;
     private final Function<OptionValues, List<PortSpec>> inputs;
     private final Function<OptionValues, List<PortSpec>> outputs;
+    private final Function<OptionValues, SegmentSupport> segments;
 
     private PluginDescriptor(Builder b) {
         this.id = b.id;
@@ -29,6 +30,8 @@ public final class PluginDescriptor {
         List<PortSpec> fo = List.copyOf(b.fixedOutputs);
         this.inputs = b.inputs != null ? b.inputs : o -> fi;
         this.outputs = b.outputs != null ? b.outputs : o -> fo;
+        SegmentSupport none = SegmentSupport.no("plugin '" + b.id + "' does not declare that it can decode in segments");
+        this.segments = b.segments != null ? b.segments : o -> none;
     }
 
     /**
@@ -121,6 +124,18 @@ public final class PluginDescriptor {
         return outputs.apply(values);
     }
 
+    /**
+     * Whether a stage with these options can decode a capture cut into independent time segments
+     * (see {@link SegmentSupport}); plugins that do not declare it cannot.
+     *
+     * @param values validated options
+     * @return the support, never null
+     */
+    public SegmentSupport segmentSupport(OptionValues values) {
+        SegmentSupport s = segments.apply(values);
+        return s == null ? SegmentSupport.no("plugin '" + id + "' gave no segment support") : s;
+    }
+
     @Override
     public String toString() {
         return id + " " + version;
@@ -137,6 +152,7 @@ public final class PluginDescriptor {
         private final List<PortSpec> fixedOutputs = new ArrayList<>();
         private Function<OptionValues, List<PortSpec>> inputs;
         private Function<OptionValues, List<PortSpec>> outputs;
+        private Function<OptionValues, SegmentSupport> segments;
 
         private Builder(String id) {
             if (id == null || !id.matches("[a-z0-9][a-z0-9.-]*")) {
@@ -233,6 +249,18 @@ public final class PluginDescriptor {
          */
         public Builder outputs(Function<OptionValues, List<PortSpec>> f) {
             outputs = f;
+            return this;
+        }
+
+        /**
+         * Declares whether, and after how much warm-up, the stage can decode in independent time
+         * segments for given options (see {@link SegmentSupport}). Without it, it cannot.
+         *
+         * @param f function from options to support
+         * @return this
+         */
+        public Builder segments(Function<OptionValues, SegmentSupport> f) {
+            segments = f;
             return this;
         }
 
