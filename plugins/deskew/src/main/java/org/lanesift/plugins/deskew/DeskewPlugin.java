@@ -1,5 +1,6 @@
 package org.lanesift.plugins.deskew;
 
+import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import org.lanesift.data.DataKind;
@@ -8,8 +9,10 @@ import org.lanesift.plugin.OptionValues;
 import org.lanesift.plugin.PluginDescriptor;
 import org.lanesift.plugin.PluginProvider;
 import org.lanesift.plugin.PortSpec;
+import org.lanesift.plugin.SegmentSupport;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
+import org.lanesift.time.Femtos;
 
 /**
  * Plugin {@code deskew}: applies a fixed time offset to each of N channels of one kind.
@@ -56,6 +59,7 @@ public final class DeskewPlugin implements PluginProvider {
                     + " or cubic (4-tap, only for heavily oversampled signals)", "sinc", "cubic"))
             .inputs(DeskewPlugin::inputs)
             .outputs(DeskewPlugin::outputs)
+            .segments(DeskewPlugin::segments)
             .build();
 
     /** Creates the provider (stateless). */
@@ -87,6 +91,35 @@ public final class DeskewPlugin implements PluginProvider {
         }
         l.add(PortSpec.of("table", DataKind.ARTIFACT, "the applied offsets as a skew table, <id>-applied-skew.json"));
         return l;
+    }
+
+    /**
+     * Fixed offsets keep no state beyond the largest shift (and, for analog, the kernel), so the
+     * stage decodes in segments after a warm-up of the largest offset plus the kernel length.
+     */
+    static SegmentSupport segments(OptionValues o) {
+        String file = o.getString("offsetsFile").trim();
+        double maxFs = 0;
+        long samples = kindOf(o) == DataKind.ANALOG ? 2L * DelayKernel.of(o.getString("interpolator")).half : 0;
+        if (!file.isEmpty()) {
+            try {
+                for (SkewTable.Entry e : SkewTable.read(Path.of(file)).entries()) {
+                    maxFs = Math.max(maxFs, Math.abs(e.offsetPs()) * Femtos.PER_PS);
+                }
+            } catch (IllegalArgumentException e) {
+                return SegmentSupport.no("option 'offsetsFile': " + e.getMessage());
+            }
+        } else {
+            String unit = o.getString("offsetUnit");
+            for (double v : o.getNumbers("offsets")) {
+                if (unit.equals("samples")) {
+                    samples += (long) Math.ceil(Math.abs(v));
+                } else {
+                    maxFs = Math.max(maxFs, Math.abs(v) * (unit.equals("ns") ? Femtos.PER_NS : Femtos.PER_PS));
+                }
+            }
+        }
+        return SegmentSupport.after(samples, (long) Math.ceil(maxFs));
     }
 
     @Override
