@@ -411,6 +411,11 @@ final class AnalogStage implements Stage {
         cmp.beginChunk(c.a, c.ao, c.b, c.bo, c.len, c.inv, bits);
         int W = s.windowSamples;
         int pos = 0;
+        if (!s.levelReport && !s.autoThreshold() && !s.autoHysteresis()) {
+            // no report and nothing learned to follow: the windows' statistics would go unused
+            cmp.runSegment(0, c.len);
+            pos = c.len;
+        }
         while (pos < c.len) {
             long abs = base + pos;
             long winEnd = (abs / W + 1) * W;
@@ -505,6 +510,9 @@ final class AnalogStage implements Stage {
     }
 
     private void emitRun(Run r) {
+        if (!s.levelReport) {
+            return;
+        }
         boolean err = r.severity == Severity.ERROR;
         ctx.annotate(Annotation.on(levelsTrack, err ? "level-out-of-range" : "level-near-limit").span(r.startFs, r.endFs)
                 .severity(r.severity)
@@ -663,6 +671,9 @@ final class AnalogStage implements Stage {
             ctx.annotate(Annotation.on(s.channel, "input-invalid-summary").span(t0, t1).severity(Severity.WARNING)
                     .label(gapCount + " runs of invalid samples, " + (gapCount - MAX_GAP_ANNOTATIONS) + " not annotated singly")
                     .field("runs", Field.integer(gapCount, "")).field("samples", Field.integer(gapSamples, "")).build());
+        }
+        if (!s.levelReport) {
+            return;
         }
         Map<String, Double> q = quantities(capture);
         List<String[]> verdicts = new ArrayList<>();

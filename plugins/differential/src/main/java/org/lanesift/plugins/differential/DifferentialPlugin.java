@@ -7,6 +7,7 @@ import org.lanesift.plugin.OptionValues;
 import org.lanesift.plugin.PluginDescriptor;
 import org.lanesift.plugin.PluginProvider;
 import org.lanesift.plugin.PortSpec;
+import org.lanesift.plugin.SegmentSupport;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
 import org.lanesift.time.TimeValue;
@@ -87,7 +88,10 @@ public final class DifferentialPlugin implements PluginProvider {
             .option(OptionSpec.integer("statsStride", 16L, 1, 1024,
                     "level statistics use every n-th sample (1 for exact overshoot peaks; edges at random phases"
                     + " to this grid let the peaks of many edges converge anyway)"))
+            .option(OptionSpec.bool("levelReport", true, "capture-wide level report: per-window level checks, the level"
+                    + " summary and <instance>-levels.json; false leaves them out (needed to decode in segments)"))
             .inputs(DifferentialPlugin::inputs)
+            .segments(DifferentialPlugin::segments)
             .outputs(o -> List.of(
                     PortSpec.of("edges", DataKind.EDGES, "transitions with interpolated times; unknown spans where input was invalid"),
                     PortSpec.of("logic", DataKind.LOGIC, "comparator output at the input sample times"),
@@ -107,6 +111,37 @@ public final class DifferentialPlugin implements PluginProvider {
             default -> List.of(PortSpec.of("p", DataKind.ANALOG, "positive leg, volts"),
                     PortSpec.of("n", DataKind.ANALOG, "negative leg, volts"));
         };
+    }
+
+    /**
+     * With a fixed threshold and hysteresis the comparator's only state is its output level,
+     * which a host's seam comparison checks; everything learned or reported over the whole
+     * capture prevents segments.
+     */
+    static SegmentSupport segments(OptionValues o) {
+        String mode = o.getString("mode");
+        if (mode.equals("logic-pair")) {
+            return SegmentSupport.no("mode 'logic-pair' ends with a summary of the whole capture");
+        }
+        if (mode.equals("single") && !o.getString("reference").equals("fixed")) {
+            return SegmentSupport.no("reference '" + o.getString("reference") + "' is learned from the capture;"
+                    + " use reference=fixed with referenceVolts and hysteresisVolts to decode in segments");
+        }
+        if (!mode.equals("single") && Double.isNaN(o.getDouble("thresholdVolts"))) {
+            return SegmentSupport.no("thresholdVolts is learned from the capture; give thresholdVolts and hysteresisVolts"
+                    + " to decode in segments");
+        }
+        if (Double.isNaN(o.getDouble("hysteresisVolts"))) {
+            return SegmentSupport.no("hysteresisVolts is learned from the capture; give it to decode in segments");
+        }
+        if (o.getBoolean("detectSwap")) {
+            return SegmentSupport.no("detectSwap looks at the start of the capture; set invert instead to decode in segments");
+        }
+        if (o.getBoolean("levelReport")) {
+            return SegmentSupport.no("the level report covers the whole capture; set levelReport=false to decode in segments");
+        }
+        // the comparator looks back at most MAX_BACK samples for the crossing, and ahead one cubic sample
+        return SegmentSupport.after(Comparator.MAX_BACK + 4, 0);
     }
 
     @Override

@@ -22,6 +22,8 @@ final class Settings {
     final double referenceVolts;
     final boolean invert;
     final boolean detectSwap;
+    /** Whether level checks, the level summary and the levels report are made. */
+    final boolean levelReport;
     final SwapPattern swapPattern;
     final boolean cubic;
     final LevelProfile profile;
@@ -62,6 +64,7 @@ final class Settings {
         adaptTimeConstant = o.getTime("adaptTimeConstant");
         warmupSamples = o.getInt("warmupSamples");
         statsStride = o.getInt("statsStride");
+        levelReport = o.getBoolean("levelReport");
         check();
     }
 
