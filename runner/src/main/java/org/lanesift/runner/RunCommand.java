@@ -34,6 +34,9 @@ import org.lanesift.runner.chainfile.ChainFileReader;
 import org.lanesift.runner.output.ReportWriter;
 import org.lanesift.runner.output.RunOutputs;
 import org.lanesift.runner.output.RunSummary;
+import org.lanesift.runner.segments.SegmentException;
+import org.lanesift.runner.segments.SegmentPlan;
+import org.lanesift.runner.segments.SegmentedRun;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
@@ -58,6 +61,15 @@ final class RunCommand implements Callable<Integer> {
     @Option(names = "--set", paramLabel = "NODE.OPTION=VALUE",
             description = "Overrides one option of one instance. Repeatable.")
     List<String> sets = new ArrayList<>();
+
+    @Option(names = "--jobs", paramLabel = "N", defaultValue = "1",
+            description = "Decodes the capture in time segments on N threads and stitches them exactly (default: ${DEFAULT-VALUE},"
+                    + " one pass); needs a raw capture and instances that declare segment support (docs/segments.md).")
+    int jobs;
+
+    @Option(names = "--segment-frames", paramLabel = "FRAMES", defaultValue = "0",
+            description = "With --jobs: frames per segment, rounded up to whole blocks (default: chosen from the warm-up).")
+    long segmentFrames;
 
     private final Main.Host host;
 
@@ -125,15 +137,33 @@ final class RunCommand implements Callable<Integer> {
 
         Holder holder = new Holder();
         ProgressBar bar = new ProgressBar(host.err, !host.quiet && System.console() != null);
-        Chain built;
+        if (jobs < 1) {
+            throw new CliError("--jobs " + jobs + ": expected at least 1");
+        }
+        Execution built;
         try {
-            ChainBuilder b = ChainBuilder.fromSpec(spec, registry)
-                    .outputs((id, port, block) -> holder.outputs().accept(id, port, block))
-                    .annotations((src, a) -> holder.outputs().accept(src, a))
-                    .progress(bar);
-            holder.dir = outDir;
-            built = b.build();
+            if (jobs > 1 || segmentFrames > 0) {
+                SegmentPlan plan;
+                try {
+                    plan = SegmentPlan.of(spec, registry);
+                } catch (SegmentException e) {
+                    throw new CliError("--jobs " + jobs + ": " + shown + ": " + e.getMessage(), e);
+                }
+                holder.dir = outDir;
+                SegmentedRun sr;
+                try {
+                    sr = new SegmentedRun(plan, registry, jobs, segmentFrames,
+                            (id, port, block) -> holder.outputs().accept(id, port, block),
+                            (src, a) -> holder.outputs().accept(src, a), bar);
+                } catch (SegmentException e) {
+                    throw new CliError(e.getMessage(), e);
+                }
+                built = Execution.of(sr);
+            } else {
+                built = Execution.of(build(spec, registry, holder, bar));
+            }
         } catch (StageFailure e) {
+
             // a stage that cannot open its file: point at the option that named it
             Integer i = index.get(e.instanceId());
             if (i != null && Failures.root(e) instanceof java.nio.file.FileSystemException
@@ -149,7 +179,7 @@ final class RunCommand implements Callable<Integer> {
             throw new CliError(locate(shown, e, overrides), e);
         }
         List<RunSummary.Instance> instances = new ArrayList<>();
-        try (Chain c = built) {
+        try (Execution c = built) {
             RunOutputs outs = holder.outputs();
             declareOutputs(spec, registry, outs, instances);
             Instant started = Instant.now();
@@ -171,6 +201,9 @@ final class RunCommand implements Callable<Integer> {
                 if (c.isCancelled()) {
                     status = "cancelled (interrupted); outputs hold what was processed until then";
                 }
+            } catch (SegmentException t) {
+                failure = new CliError("--jobs " + jobs + ": " + t.getMessage(), t);
+                status = "failed: " + Failures.oneLine(t.getMessage());
             } catch (Throwable t) {
                 failure = t;
                 status = "failed: " + Failures.oneLine(String.valueOf(t instanceof StageFailure sf
@@ -208,6 +241,66 @@ final class RunCommand implements Callable<Integer> {
             }
         }
         return 0;
+    }
+
+    private Chain build(ChainSpec spec, PluginRegistry registry, Holder holder, ProgressBar bar) {
+        ChainBuilder b = ChainBuilder.fromSpec(spec, registry)
+                .outputs((id, port, block) -> holder.outputs().accept(id, port, block))
+                .annotations((src, a) -> holder.outputs().accept(src, a))
+                .progress(bar);
+        holder.dir = outDir;
+        return b.build();
+    }
+
+    /** One pass of a chain, or a segmented run: what the command runs and can cancel. */
+    private interface Execution extends AutoCloseable {
+        void run();
+
+        void cancel();
+
+        boolean isCancelled();
+
+        @Override
+        void close();
+
+        static Execution of(Chain c) {
+            return new Execution() {
+                public void run() {
+                    c.run();
+                }
+
+                public void cancel() {
+                    c.cancel();
+                }
+
+                public boolean isCancelled() {
+                    return c.isCancelled();
+                }
+
+                public void close() {
+                    c.close();
+                }
+            };
+        }
+
+        static Execution of(SegmentedRun r) {
+            return new Execution() {
+                public void run() {
+                    r.run();
+                }
+
+                public void cancel() {
+                    r.cancel();
+                }
+
+                public boolean isCancelled() {
+                    return r.isCancelled();
+                }
+
+                public void close() {
+                }
+            };
+        }
     }
 
     /** Creates the outputs when the first block or the run needs them. */

@@ -22,6 +22,7 @@ final class RawReader implements CaptureReader {
     private final RawSidecar sc;
     private final FileChannel ch;
     private final long frames;
+    private final long first;
     private final int nch;
     private final int frame;
     private final int framesPerBlock;
@@ -33,6 +34,14 @@ final class RawReader implements CaptureReader {
     private final List<String> units = new ArrayList<>();
 
     RawReader(Path file, RawSidecar sc, int blockSamples, boolean headerOnly) throws IOException {
+        this(file, sc, blockSamples, headerOnly, 0, 0);
+    }
+
+    /**
+     * A reader of frames {@code [firstFrame, firstFrame + frameCount)} (to the end when the count
+     * is 0), with the sample indices and times of the whole capture.
+     */
+    RawReader(Path file, RawSidecar sc, int blockSamples, boolean headerOnly, long firstFrame, long frameCount) throws IOException {
         this.file = file;
         this.sc = sc;
         this.nch = sc.names.length;
@@ -49,7 +58,14 @@ final class RawReader implements CaptureReader {
                     + " bytes left over after " + (size / frame) + " frames of " + frame + " bytes (" + nch + " channel"
                     + (nch == 1 ? "" : "s") + " x " + sc.format.text + "); expected a multiple of " + frame);
         }
-        this.frames = size / frame;
+        long all = size / frame;
+        if (firstFrame > all) {
+            throw new CaptureFormatException(file, 0, "option firstFrame = " + firstFrame + " is past the end of the capture ("
+                    + all + " frames)");
+        }
+        this.first = firstFrame;
+        this.frames = frameCount == 0 ? all : Math.min(all, firstFrame + frameCount);
+        this.pos = firstFrame;
         this.framesPerBlock = Math.max(1, Math.min(blockSamples, CsvReader.MAX_SPAN_VALUES / nch));
         this.periodFs = Femtos.periodFs(sc.rateHz);
         this.startFs = Femtos.fromSeconds(sc.startTimeS);
@@ -61,6 +77,9 @@ final class RawReader implements CaptureReader {
         this.bb = ByteBuffer.allocate(Math.max(frame, READ_BYTES / frame * frame));
         bb.order(sc.format == RawSidecar.Format.INT16BE ? ByteOrder.BIG_ENDIAN : ByteOrder.LITTLE_ENDIAN);
         this.ch = headerOnly ? null : FileChannel.open(file, StandardOpenOption.READ);
+        if (ch != null) {
+            ch.position(firstFrame * frame);
+        }
     }
 
     @Override
@@ -75,16 +94,24 @@ final class RawReader implements CaptureReader {
 
     @Override
     public long done() {
-        return pos;
+        return pos - first;
     }
 
     @Override
     public long total() {
-        return frames;
+        return frames - first;
     }
 
     double periodFs() {
         return periodFs;
+    }
+
+    long startFs() {
+        return startFs;
+    }
+
+    int blockFrames() {
+        return framesPerBlock;
     }
 
     @Override

@@ -24,6 +24,9 @@ public final class RawSource implements PluginProvider {
             .option(OptionSpec.text("file", null, "path of the binary file"))
             .option(OptionSpec.text("sidecar", "", "path of the JSON sidecar; empty = the file's path + \".json\""))
             .option(OptionSpec.integer("blockSamples", 65536L, 1, 1 << 24, "frames per block (per channel)"))
+            .option(OptionSpec.integer("firstFrame", 0L, 0, Long.MAX_VALUE, "first frame to read (0 = the start);"
+                    + " sample times stay those of the whole capture"))
+            .option(OptionSpec.integer("frameCount", 0L, 0, Long.MAX_VALUE, "frames to read from firstFrame (0 = to the end)"))
             .outputs(RawSource::ports)
             .build();
 
@@ -47,7 +50,41 @@ public final class RawSource implements PluginProvider {
     }
 
     static RawReader reader(OptionValues o, boolean headerOnly) throws IOException {
-        return new RawReader(Path.of(o.getString("file")), RawSidecar.read(sidecarOf(o)), o.getInt("blockSamples"), headerOnly);
+        return new RawReader(Path.of(o.getString("file")), RawSidecar.read(sidecarOf(o)), o.getInt("blockSamples"), headerOnly,
+                o.getLong("firstFrame"), o.getLong("frameCount"));
+    }
+
+    /**
+     * The frame layout of a raw capture, for hosts that cut it into segments.
+     *
+     * @param frames      frames (samples per channel) in the file
+     * @param periodFs    sample period
+     * @param startFs     time of frame 0
+     * @param blockFrames frames per block as the source emits them
+     */
+    public record Layout(long frames, double periodFs, long startFs, int blockFrames) {
+        /**
+         * Time of a frame, as the source stamps the block starting there.
+         *
+         * @param frame frame index
+         * @return femtoseconds
+         */
+        public long timeOf(long frame) {
+            return startFs + Math.round(frame * periodFs);
+        }
+    }
+
+    /**
+     * Reads the layout of the capture the options name.
+     *
+     * @param o validated options of a {@code raw} instance
+     * @return the layout
+     * @throws IOException if the file or sidecar cannot be read
+     */
+    public static Layout layout(OptionValues o) throws IOException {
+        try (RawReader r = reader(o, true)) {
+            return new Layout(r.total(), r.periodFs(), r.startFs(), r.blockFrames());
+        }
     }
 
     private static List<PortSpec> ports(OptionValues o) {

@@ -62,7 +62,8 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
     private final Map<String, Path> files = new LinkedHashMap<>();
     private final Map<Severity, Long> severityCounts = new EnumMap<>(Severity.class);
     private final Map<String, Long> kindCounts = new TreeMap<>();
-    private final Map<Severity, List<String>> examples = new EnumMap<>(Severity.class);
+    private final Map<Severity, java.util.TreeSet<Example>> earliest = new EnumMap<>(Severity.class);
+    private long arrivals;
     private AnnotationJsonlWriter annotations;
     private boolean closed;
 
@@ -173,6 +174,9 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
      */
     public void declare(String instance, String output, DataKind kind) {
         stats.computeIfAbsent(instance + "." + output, k -> new OutputStats(instance, output, kind));
+        if (kind == DataKind.EDGES || kind == DataKind.LOGIC || kind == DataKind.WORDS) {
+            vcd.declare(instance, output);
+        }
         if (kind == DataKind.FRAME) {
             frameOutputsPerInstance.merge(instance, 1, Integer::sum);
         }
@@ -279,9 +283,26 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
         }
         severityCounts.merge(a.severity(), 1L, Long::sum);
         kindCounts.merge(a.severity().name().toLowerCase(java.util.Locale.ROOT) + " " + a.kind(), 1L, Long::sum);
-        List<String> ex = examples.computeIfAbsent(a.severity(), k -> new ArrayList<>());
-        if (ex.size() < EXAMPLES_PER_SEVERITY) {
-            ex.add(Texts.seconds(a.startFs()) + " s, " + source + ", " + a.kind() + ": " + a.label());
+        // the earliest findings, whatever order the stages reported them in
+        java.util.TreeSet<Example> ex = earliest.computeIfAbsent(a.severity(), k -> new java.util.TreeSet<>());
+        if (ex.size() < EXAMPLES_PER_SEVERITY || a.startFs() <= ex.last().startFs()) {
+            ex.add(new Example(a.startFs(), Texts.seconds(a.startFs()) + " s, " + source + ", " + a.kind() + ": " + a.label(),
+                    arrivals++));
+            if (ex.size() > EXAMPLES_PER_SEVERITY) {
+                ex.pollLast();
+            }
+        }
+    }
+
+    /** One example line, ordered by time, then text, then arrival. */
+    private record Example(long startFs, String line, long arrival) implements Comparable<Example> {
+        @Override
+        public int compareTo(Example o) {
+            int c = Long.compare(startFs, o.startFs);
+            if (c == 0) {
+                c = line.compareTo(o.line);
+            }
+            return c != 0 ? c : Long.compare(arrival, o.arrival);
         }
     }
 
@@ -344,12 +365,14 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
     }
 
     /**
-     * The first findings of each severity, as one line each.
+     * The earliest findings of each severity (by start time), as one line each.
      *
      * @return lines by severity
      */
     public Map<Severity, List<String>> examples() {
-        return examples;
+        Map<Severity, List<String>> m = new java.util.EnumMap<>(Severity.class);
+        earliest.forEach((k, v) -> m.put(k, v.stream().map(Example::line).toList()));
+        return m;
     }
 
     /**

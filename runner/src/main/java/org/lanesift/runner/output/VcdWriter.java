@@ -43,6 +43,7 @@ public final class VcdWriter implements Closeable {
     private final Path spoolDir;
     private final String version;
     private final Map<String, Var> vars = new LinkedHashMap<>();
+    private final Map<String, Integer> rank = new java.util.HashMap<>();
     private boolean closed;
 
     /** One declared signal and its spool. */
@@ -50,7 +51,7 @@ public final class VcdWriter implements Closeable {
         final String scope;
         final String name;
         final int width;
-        final String code;
+        String code;
         final Path spool;
         final DataOutputStream out;
         boolean logicStarted;
@@ -68,11 +69,15 @@ public final class VcdWriter implements Closeable {
         long changes;
         long lastWordEnd = Long.MIN_VALUE;
 
+        final int arrival;
+        String key;
+
         Var(String scope, String name, int width, int index) throws IOException {
             this.scope = scope;
             this.name = name;
             this.width = width;
             this.code = code(index);
+            this.arrival = index;
             Files.createDirectories(spoolDir);
             this.spool = spoolDir.resolve("v" + index + ".bin");
             this.out = new DataOutputStream(new BufferedOutputStream(Files.newOutputStream(spool), 1 << 15));
@@ -138,12 +143,30 @@ public final class VcdWriter implements Closeable {
         return sb.toString();
     }
 
+    /**
+     * Fixes the place of a signal in the file before any of its values arrive: signals are listed
+     * (and given identifier codes) in the order declared, then the rest in order of arrival, so
+     * the file does not depend on which stage happened to emit first.
+     *
+     * @param scope instance id
+     * @param name  output name
+     */
+    public void declare(String scope, String name) {
+        rank.putIfAbsent(scope + "\u0000" + name, rank.size());
+    }
+
+    private int rankOf(Var v) {
+        Integer r = rank.get(v.key);
+        return r == null ? Integer.MAX_VALUE : r;
+    }
+
     private Var var(String scope, String name, int width) {
         String key = scope + "\u0000" + name;
         Var v = vars.get(key);
         if (v == null) {
             try {
                 v = new Var(Texts.safe(scope), Texts.safe(name), width, vars.size());
+                v.key = key;
             } catch (IOException e) {
                 throw new UncheckedIOException("cannot create spool in " + spoolDir + ": " + e.getMessage(), e);
             }
@@ -382,7 +405,8 @@ public final class VcdWriter implements Closeable {
             return;
         }
         List<Var> list = new ArrayList<>(vars.values());
-        // group by scope, scopes in order of first appearance
+        list.sort((a, b) -> rankOf(a) != rankOf(b) ? Integer.compare(rankOf(a), rankOf(b)) : Integer.compare(a.arrival, b.arrival));
+        // group by scope, scopes in order of first appearance (in that order)
         List<String> scopes = new ArrayList<>();
         for (Var v : list) {
             if (!scopes.contains(v.scope)) {
@@ -390,6 +414,9 @@ public final class VcdWriter implements Closeable {
             }
         }
         list.sort((a, b) -> Integer.compare(scopes.indexOf(a.scope), scopes.indexOf(b.scope)));
+        for (int i = 0; i < list.size(); i++) {
+            list.get(i).code = code(i);
+        }
         long origin = 0;
         for (Var v : list) {
             if (v.lastWordEnd != Long.MIN_VALUE) {

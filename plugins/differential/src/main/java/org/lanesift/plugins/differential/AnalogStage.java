@@ -65,6 +65,8 @@ final class AnalogStage implements Stage {
     private double levelLow = Double.NaN;
     private double levelHigh = Double.NaN;
     private boolean levelsLearned;
+    /** Capture index of the stream's first sample, so that reported sample numbers count from the capture start. */
+    private long originIndex;
     private double initialThreshold = Double.NaN;
     private double initialHysteresis = Double.NaN;
     private String thresholdSource = "";
@@ -211,6 +213,7 @@ final class AnalogStage implements Stage {
             return;
         }
         originFs = first.startFs() + Math.round(offset * periodFs);
+        originIndex = first.firstIndex() + offset;
         cmp = new Comparator(originFs, periodFs, s.cubic, this::gap);
         cmp.setInvert(s.invert);
         window = new LevelAcc(0);
@@ -613,7 +616,7 @@ final class AnalogStage implements Stage {
         }
         ctx.annotate(Annotation.on(s.channel, "input-invalid").span(startFs, endFs).severity(Severity.WARNING)
                 .label((endIndex - startIndex) + " invalid input samples: no edges here")
-                .field("firstSample", Field.integer(startIndex, "")).field("samples", Field.integer(endIndex - startIndex, ""))
+                .field("firstSample", Field.integer(originIndex + startIndex, "")).field("samples", Field.integer(endIndex - startIndex, ""))
                 .field("levelChanged", Field.enumValue(levelChanged ? "yes" : "no")).build());
     }
 
