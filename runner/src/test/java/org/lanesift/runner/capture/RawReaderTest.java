@@ -76,4 +76,38 @@ class RawReaderTest {
         assertTrue(Double.isNaN(f[1]), "NaN is invalid");
         assertEquals(-7, f[2], 0);
     }
+
+    /** firstFrame and frameCount read a window with the sample indices and times of the whole capture. */
+    @Test
+    void aWindowKeepsTheIndicesAndTimesOfTheWholeCapture(@TempDir Path dir) throws Exception {
+        Path bin = dir.resolve("w.bin");
+        byte[] codes = new byte[1000];
+        for (int i = 0; i < codes.length; i++) {
+            codes[i] = (byte) (i % 251);
+        }
+        Files.write(bin, codes);
+        sidecar(bin, "{\"rateHz\": 3e9, \"format\": \"uint8\", \"markClipped\": false, \"startTimeS\": 1e-6,"
+                + " \"channels\": [{\"name\": \"a\"}]}");
+        Map<String, Object> all = Map.of("file", bin.toString(), "blockSamples", 64);
+        java.util.List<AnalogBlock> whole = Collected.run(new RawSource(), all).blocks("a").stream().map(AnalogBlock.class::cast).toList();
+        Collected w = Collected.run(new RawSource(), Map.of("file", bin.toString(), "blockSamples", 64, "firstFrame", 128,
+                "frameCount", 200));
+        java.util.List<AnalogBlock> part = w.blocks("a").stream().map(AnalogBlock.class::cast).toList();
+        assertEquals(200, part.stream().mapToInt(AnalogBlock::length).sum());
+        for (AnalogBlock b : part) {
+            AnalogBlock same = whole.get((int) (b.firstIndex() / 64));
+            assertEquals(same.firstIndex(), b.firstIndex());
+            assertEquals(same.startFs(), b.startFs(), "block at index " + b.firstIndex());
+            for (int i = 0; i < b.length(); i++) {
+                assertEquals(same.volts()[i], b.volts()[i]);
+            }
+        }
+        assertEquals(128 + 199, part.get(part.size() - 1).firstIndex() + part.get(part.size() - 1).length() - 1);
+        // a count past the end stops at the end; a start past the end is an error naming the option
+        assertEquals(1000 - 900, Collected.run(new RawSource(), Map.of("file", bin.toString(), "firstFrame", 900,
+                "frameCount", 5000)).analog("a").length);
+        CaptureFormatException x = org.junit.jupiter.api.Assertions.assertThrows(CaptureFormatException.class,
+                () -> Collected.run(new RawSource(), Map.of("file", bin.toString(), "firstFrame", 1001)));
+        assertTrue(x.getMessage().contains("firstFrame") && x.getMessage().contains("1000 frames"), x.getMessage());
+    }
 }
