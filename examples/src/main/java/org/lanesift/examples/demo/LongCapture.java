@@ -30,6 +30,23 @@ public final class LongCapture {
         }
         Path file = Path.of(args[0]);
         double gb = Double.parseDouble(args[1]);
+        long bytes = write(file, gb * 1e9);
+        long copies = bytes / FRAME_BYTES;
+        System.out.printf("%s: %d frames, %d bytes, %d samples per channel%n", file, copies, bytes, bytes / 16);
+    }
+
+    /** Bytes of one picture frame of the demo pixel link: 528000 samples of 8 int16 channels. */
+    public static final long FRAME_BYTES = 528_000L * 16;
+
+    /**
+     * Writes whole copies of one rendered picture frame until the file holds at least the given size.
+     *
+     * @param file  destination; its sidecar is {@code file + ".json"}
+     * @param bytes minimum size
+     * @return bytes written
+     * @throws IOException on write failure
+     */
+    public static long write(Path file, double bytes) throws IOException {
         PixelLinkScene.Capture tile = PixelLinkScene.render(Impairments.pixelLinkDefaults(), 0, PixelLinkScene.V_TOTAL, false);
         Path one = Files.createTempFile("lanesift-frame", ".bin");
         CaptureFiles.writeRaw(one, tile.channels(), tile.volts(), tile.sampleRateHz(), 50e-6);
@@ -37,14 +54,16 @@ public final class LongCapture {
         String sidecar = Files.readString(Path.of(one + ".json"));
         Files.delete(one);
         Files.delete(Path.of(one + ".json"));
-        long copies = (long) Math.ceil(gb * 1e9 / frame.length);
+        if (frame.length != FRAME_BYTES) {
+            throw new IllegalStateException("a rendered frame has " + frame.length + " bytes, expected " + FRAME_BYTES);
+        }
+        long copies = Math.max(1, (long) Math.ceil(bytes / frame.length));
         try (OutputStream o = new BufferedOutputStream(Files.newOutputStream(file), 1 << 22)) {
             for (long i = 0; i < copies; i++) {
                 o.write(frame);
             }
         }
         Files.writeString(Path.of(file + ".json"), sidecar);
-        System.out.printf("%s: %d frames, %d bytes, %d samples per channel%n", file, copies, copies * frame.length,
-                copies * frame.length / 16);
+        return copies * frame.length;
     }
 }
