@@ -16,7 +16,9 @@ import org.lanesift.annotation.Severity;
  * transition is at least that far away. A final edge whose same-direction interval or edge-to-edge gap exceeds
  * {@code dropoutPeriods} periods is a dropout: the clock is acquired again from that edge. The
  * period is then tracked as an exponential average of same-direction intervals with weight
- * {@link #ALPHA}.
+ * {@link #ALPHA}. A transition in an unknown span or at its end ({@link EdgeQueue#levelOnly}) only
+ * tells the level and is skipped: acquisition starts at the first true edge, and tracking compares
+ * the true edges either side of it.
  *
  * <p>Every decision depends only on transitions, never on where the blocks were cut.
  */
@@ -189,6 +191,10 @@ final class ClockRecovery {
 
     private int acquire(boolean finishing) {
         long end = q.globalEnd();
+        // a transition that ends an unknown span is no clock edge: the clock starts at the first true one
+        while (pos < end && q.levelOnly(q.time(pos))) {
+            pos++;
+        }
         long avail = end - pos;
         if (avail == 0 || (avail < ACQUIRE_EDGES && !finishing)) {
             return WAIT;
@@ -323,13 +329,23 @@ final class ClockRecovery {
             if (t > timeLimit) {
                 return TRACK_PAUSED;
             }
+            if (q.levelOnly(t)) {
+                // the transition ending an unknown span tells the level after it, not an edge time:
+                // it takes no part in the period, the dropout check or the glitch check, and it
+                // does not make the edge before it a runt
+                if (pending && !finalizePending()) {
+                    return TRACK_REACQUIRE;
+                }
+                pos++;
+                continue;
+            }
             if (pending) {
                 long w = t - pendingT;
                 if (w < minW) {
                     // (pending, t) is a runt unless (t, next) is narrower still: remove the narrower pulse
                     if (pos + 1 < end) {
                         long t2 = tt[(int) (pos + 1 - base)];
-                        if (t2 - t <= w) {
+                        if (t2 - t <= w && !q.levelOnly(t2)) {
                             glitch(t, t2);
                             pos += 2;
                             continue;

@@ -30,6 +30,11 @@ import org.lanesift.time.TimeValue;
  * {@code dropoutPeriods} periods ends the clock ({@code clock-dropout}); no bit is made inside the
  * gap, and the clock is acquired afresh after it ({@code clock-restart}). Clock edges are numbered
  * from 0 in the order they were accepted (glitches are not counted, missing edges are not invented).
+ * A transition inside an unknown span of the clock or exactly at its end (the level-restoring one a
+ * producer places there, or the one placed at a block start after a gap with a level jump) is no
+ * clock edge: it gives no bit and takes no part in the period, glitch or dropout checks, so the
+ * clock starts at its first true edge after a capture's unknown start; across an unknown span the
+ * true edges either side are compared as usual.
  *
  * <p><b>Modes.</b> {@code ddr}: one bit per clock edge, unit interval (UI) = period / 2;
  * {@code rising} or {@code falling}: one bit per rising or falling edge, UI = period. The nominal sample

@@ -204,6 +204,19 @@ final class EdgeQueue {
     }
 
     /**
+     * Whether a transition at {@code t} lies in an unknown span or exactly at its end. Such a
+     * transition only restores the level after the span (the producers' convention, see
+     * {@link Edges}), or is the one {@link #append} places at a block start after a level jump; its
+     * time is not the time of a signal edge.
+     *
+     * @param t transition time
+     * @return true if it only tells the level
+     */
+    boolean levelOnly(long t) {
+        return spanTail > spanHead && spanOverlaps(t - 1, t);
+    }
+
+    /**
      * Number of transitions held.
      *
      * @return count

@@ -35,19 +35,12 @@ final class SampleBuf {
         this.threshold = threshold;
     }
 
+    /**
+     * Adds one sample point. The bulk forms {@link #addEdges} and {@link #addPixel} give the same
+     * contents; this one is their reference.
+     */
     void add(long nominalFs, long edgeIndex, double uiFs, boolean falling, boolean suspect, int slotIndex) {
-        if (n == nominal.length) {
-            int c = n * 2;
-            nominal = Arrays.copyOf(nominal, c);
-            s = Arrays.copyOf(s, c);
-            edge = Arrays.copyOf(edge, c);
-            ui = Arrays.copyOf(ui, c);
-            reach = Arrays.copyOf(reach, c);
-            thr = Arrays.copyOf(thr, c);
-            scale = Arrays.copyOf(scale, c);
-            flags = Arrays.copyOf(flags, c);
-            slot = Arrays.copyOf(slot, c);
-        }
+        ensure(1);
         nominal[n] = nominalFs;
         edge[n] = edgeIndex;
         if (uiFs != lastUi) {
@@ -63,6 +56,123 @@ final class SampleBuf {
         flags[n] = (byte) ((falling ? FALLING : 0) | (suspect ? SUSPECT : 0));
         slot[n] = (byte) slotIndex;
         n++;
+    }
+
+    /** Room for {@code extra} more samples. */
+    private void ensure(int extra) {
+        if (n + extra > nominal.length) {
+            int c = Math.max(nominal.length * 2, n + extra);
+            nominal = Arrays.copyOf(nominal, c);
+            s = Arrays.copyOf(s, c);
+            edge = Arrays.copyOf(edge, c);
+            ui = Arrays.copyOf(ui, c);
+            reach = Arrays.copyOf(reach, c);
+            thr = Arrays.copyOf(thr, c);
+            scale = Arrays.copyOf(scale, c);
+            flags = Arrays.copyOf(flags, c);
+            slot = Arrays.copyOf(slot, c);
+        }
+    }
+
+    /**
+     * Adds one sample point per accepted clock edge of the wanted directions (modes ddr, rising,
+     * falling): what {@link #add} would give for each, in one loop over primitive arrays.
+     *
+     * @param accT        edge times
+     * @param accP        tracked period at each edge
+     * @param accFlags    {@link ClockRecovery} flags
+     * @param accIndex    edge numbers
+     * @param count       edges to take
+     * @param wantRising  take rising edges
+     * @param wantFalling take falling edges
+     * @param uiFactor    unit interval per period (0.5 for ddr, else 1)
+     * @param align       sample point after the edge, in UI (0 or 0.5)
+     */
+    void addEdges(long[] accT, double[] accP, byte[] accFlags, long[] accIndex, int count, boolean wantRising,
+                  boolean wantFalling, double uiFactor, double align) {
+        ensure(count);
+        final long[] nom = nominal;
+        final long[] ed = edge;
+        final double[] u = ui;
+        final long[] re = reach;
+        final long[] th = thr;
+        final long[] sc = scale;
+        final byte[] fl = flags;
+        final byte[] sl = slot;
+        final double thresholdUi = threshold;
+        double cUi = lastUi;
+        long cReach = lastReach;
+        long cThr = lastThr;
+        long cScale = lastScale;
+        int k = n;
+        for (int i = 0; i < count; i++) {
+            final byte f = accFlags[i];
+            final boolean rising = (f & ClockRecovery.RISING) != 0;
+            if (rising ? !wantRising : !wantFalling) {
+                continue;
+            }
+            final double uiFs = uiFactor == 0.5 ? accP[i] * 0.5 : accP[i];
+            nom[k] = align == 0 ? accT[i] : accT[i] + Math.round(align * uiFs);
+            ed[k] = accIndex[i];
+            if (uiFs != cUi) {
+                cUi = uiFs;
+                cReach = (long) uiFs;
+                cThr = (long) Math.ceil(thresholdUi * uiFs);
+                cScale = (long) (MarginStats.BINS * 1099511627776.0 / uiFs); // 2^40
+            }
+            u[k] = uiFs;
+            re[k] = cReach;
+            th[k] = cThr;
+            sc[k] = cScale;
+            fl[k] = (byte) ((rising ? 0 : FALLING) | ((f & ClockRecovery.SUSPECT) != 0 ? SUSPECT : 0));
+            sl[k] = 0;
+            k++;
+        }
+        n = k;
+        lastUi = cUi;
+        lastReach = cReach;
+        lastThr = cThr;
+        lastScale = cScale;
+    }
+
+    /**
+     * Adds the slots of one pixel (multiplied mode): slot {@code j} at {@code r0 + round(f[j] * p)}
+     * when {@code f[j] < 1}, else at {@code r1 + round(fm1[j] * p)}, with {@code p = r1 - r0}; what
+     * {@link #add} would give for each slot.
+     *
+     * @param r0       reference edge before the pixel
+     * @param r1       next reference edge
+     * @param f        slot centres as fractions of the period after {@code r0}
+     * @param fm1      {@code f[j] - 1}
+     * @param edgeIndex the pixel's clock edge number
+     * @param falling  reference edges are falling
+     * @param suspect  next to an unknown span of the clock
+     */
+    void addPixel(long r0, long r1, double[] f, double[] fm1, long edgeIndex, boolean falling, boolean suspect) {
+        final int slots = f.length;
+        ensure(slots);
+        final long p = r1 - r0;
+        final double uiFs = p / (double) slots;
+        if (uiFs != lastUi) {
+            lastUi = uiFs;
+            lastReach = (long) uiFs;
+            lastThr = (long) Math.ceil(threshold * uiFs);
+            lastScale = (long) (MarginStats.BINS * 1099511627776.0 / uiFs); // 2^40
+        }
+        final byte fb = (byte) ((falling ? FALLING : 0) | (suspect ? SUSPECT : 0));
+        int k = n;
+        for (int j = 0; j < slots; j++, k++) {
+            final double fj = f[j];
+            nominal[k] = fj < 1 ? r0 + Math.round(fj * p) : r1 + Math.round(fm1[j] * p);
+            edge[k] = edgeIndex;
+            ui[k] = uiFs;
+            reach[k] = lastReach;
+            thr[k] = lastThr;
+            scale[k] = lastScale;
+            flags[k] = fb;
+            slot[k] = (byte) j;
+        }
+        n = k;
     }
 
     /**

@@ -19,8 +19,14 @@ final class SamplePlanner {
     long pixels;
     long pixelsDropped;
 
+    private final double[] slotF;
+    private final double[] slotFm1;
+
     SamplePlanner(SamplerConfig cfg) {
         this.cfg = cfg;
+        double[][] f = slotFractions(cfg.slots(), cfg.slot0AfterRef());
+        slotF = f[0];
+        slotFm1 = f[1];
     }
 
     /**
@@ -38,16 +44,7 @@ final class SamplePlanner {
             boolean wantRising = cfg.mode() != SamplerConfig.Mode.FALLING;
             boolean wantFalling = cfg.mode() != SamplerConfig.Mode.RISING;
             double align = cfg.edgeAligned() ? 0.5 : 0;
-            for (int i = 0; i < n; i++) {
-                byte f = cr.accFlags[i];
-                boolean rising = (f & ClockRecovery.RISING) != 0;
-                if (rising ? !wantRising : !wantFalling) {
-                    continue;
-                }
-                double ui = ddr ? cr.accP[i] * 0.5 : cr.accP[i];
-                long nominal = align == 0 ? cr.accT[i] : cr.accT[i] + Math.round(align * ui);
-                sb.add(nominal, cr.accIndex[i], ui, !rising, (f & ClockRecovery.SUSPECT) != 0, 0);
-            }
+            sb.addEdges(cr.accT, cr.accP, cr.accFlags, cr.accIndex, n, wantRising, wantFalling, ddr ? 0.5 : 1, align);
             cr.consumed(n);
             return;
         }
@@ -103,15 +100,23 @@ final class SamplePlanner {
     }
 
     private void emitPixel(SampleBuf sb) {
-        int n = cfg.slots();
-        long p = pxR1 - pxR0;
-        double ui = p / (double) n;
-        for (int j = 0; j < n; j++) {
-            double f = (cfg.slot0AfterRef() + j + 0.5) / n;
-            long nominal = f < 1 ? pxR0 + Math.round(f * p) : pxR1 + Math.round((f - 1) * p);
-            sb.add(nominal, pxIdx, ui, pxFalling, pxSuspect, j);
-        }
+        sb.addPixel(pxR0, pxR1, slotF, slotFm1, pxIdx, pxFalling, pxSuspect);
         pixels++;
+    }
+
+    /**
+     * Slot centres of multiplied mode as fractions of the period after the reference edge:
+     * slot {@code j} at {@code (slot0AfterRef + j + 0.5) / slots}; and the same minus one, for
+     * slots placed from the next reference edge.
+     */
+    static double[][] slotFractions(int slots, int slot0AfterRef) {
+        double[] f = new double[slots];
+        double[] fm1 = new double[slots];
+        for (int j = 0; j < slots; j++) {
+            f[j] = (slot0AfterRef + j + 0.5) / slots;
+            fm1[j] = f[j] - 1;
+        }
+        return new double[][] {f, fm1};
     }
 
     /**
