@@ -191,16 +191,9 @@ public final class JsonReader {
                 throw error(at, "member " + JsonWriter.quote(k) + " appears twice");
             }
             m.put(k, v);
-            ws();
-            if (pos < s.length() && s.charAt(pos) == ',') {
-                pos++;
-                continue;
-            }
-            if (pos < s.length() && s.charAt(pos) == '}') {
-                pos++;
+            if (!another('}', "an object")) {
                 return new JsonValue(JsonValue.Kind.OBJECT, Collections.unmodifiableMap(m), null, ln, col);
             }
-            throw error(pos, "expected ',' or '}' in an object, found " + found());
         }
     }
 
@@ -217,17 +210,24 @@ public final class JsonReader {
         while (true) {
             ws();
             l.add(value(depth));
-            ws();
-            if (pos < s.length() && s.charAt(pos) == ',') {
-                pos++;
-                continue;
-            }
-            if (pos < s.length() && s.charAt(pos) == ']') {
-                pos++;
+            if (!another(']', "an array")) {
                 return new JsonValue(JsonValue.Kind.ARRAY, Collections.unmodifiableList(l), null, ln, col);
             }
-            throw error(pos, "expected ',' or ']' in an array, found " + found());
         }
+    }
+
+    /**
+     * After a member or element: true (and past the comma) if another one follows, false (and
+     * past the bracket) if the container closes here.
+     */
+    private boolean another(char close, String what) {
+        ws();
+        char c = pos < s.length() ? s.charAt(pos) : 0;
+        if (c == ',' || c == close) {
+            pos++;
+            return c == ',';
+        }
+        throw error(pos, "expected ',' or '" + close + "' in " + what + ", found " + found());
     }
 
     private String string() {
