@@ -12,6 +12,7 @@ import org.lanesift.data.Block;
 import org.lanesift.data.DataKind;
 import org.lanesift.data.Edges;
 import org.lanesift.data.LogicBlock;
+import org.lanesift.json.NumberStyle;
 import org.lanesift.plugin.OptionException;
 import org.lanesift.plugin.OptionValues;
 import org.lanesift.plugin.Stage;
@@ -79,7 +80,7 @@ final class DeskewStage implements Stage {
                 double lim = unit.equals("samples") ? MAX_DELAY_SAMPLES : unit.equals("ns") ? MAX_OFFSET_FS / 1e6 : MAX_OFFSET_FS / 1e3;
                 if (!Double.isFinite(v) || Math.abs(v) > lim) {
                     throw new OptionException("offsets", who + ": offsets[" + i + "] = " + v + " " + unit + " is outside +/-"
-                            + Json.number(lim) + " " + unit);
+                            + NumberStyle.shortest().format(lim) + " " + unit);
                 }
             }
             table = null;

@@ -11,6 +11,9 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.Objects;
+import org.lanesift.json.JsonReader;
+import org.lanesift.json.JsonValue;
+import org.lanesift.json.JsonWriter;
 
 /**
  * A skew table: for each channel name, the time offset to <b>apply</b> to it, in picoseconds,
@@ -113,20 +116,13 @@ public final class SkewTable {
      * @return the JSON text
      */
     public String toJson() {
-        StringBuilder b = new StringBuilder();
-        b.append("{\n  \"format\": ").append(Json.quote(FORMAT)).append(",\n  \"version\": ").append(VERSION)
-                .append(",\n  \"convention\": ").append(Json.quote(CONVENTION))
-                .append(",\n  \"mode\": ").append(Json.quote(mode)).append(",\n  \"channels\": {");
-        int i = 0;
+        JsonWriter j = JsonWriter.pretty().beginObject().field("format", FORMAT).field("version", VERSION)
+                .field("convention", CONVENTION).field("mode", mode).name("channels").beginObject();
         for (Entry e : entries.values()) {
-            b.append(i++ == 0 ? "\n" : ",\n");
-            b.append("    ").append(Json.quote(e.name())).append(": {\"offsetPs\": ").append(Json.number(round(e.offsetPs())))
-                    .append(", \"confidence\": ").append(Json.number(round(e.confidence())))
-                    .append(", \"method\": ").append(Json.quote(e.method()))
-                    .append(", \"edges\": ").append(e.edges()).append('}');
+            j.name(e.name()).beginObjectInline().field("offsetPs", round(e.offsetPs())).field("confidence", round(e.confidence()))
+                    .field("method", e.method()).field("edges", e.edges()).endObject();
         }
-        b.append(i == 0 ? "}\n}\n" : "\n  }\n}\n");
-        return b.toString();
+        return j.endObject().endObject().finish() + "\n";
     }
 
     /** Keeps a femtosecond of resolution in ps (three decimals) and drops float noise. */
@@ -166,87 +162,78 @@ public final class SkewTable {
      * @throws IllegalArgumentException naming the source, the position or JSON pointer and what was expected
      */
     public static SkewTable parse(String source, String text) {
-        Object root = Json.parse(source, text);
-        if (!(root instanceof Map<?, ?> top)) {
+        JsonValue top = JsonReader.parse(source, text);
+        if (!top.isObject()) {
             throw new IllegalArgumentException(source + ": expected a JSON object at the top level (pointer \"\")");
         }
-        Object f = top.get("format");
-        if (!FORMAT.equals(f)) {
+        JsonValue f = top.get("format");
+        if (f == null || !f.isString() || !FORMAT.equals(f.asString())) {
             throw new IllegalArgumentException(source + ": /format must be \"" + FORMAT + "\", got " + describe(f));
         }
-        Object v = top.get("version");
-        if (!(v instanceof Double d) || d != VERSION) {
+        JsonValue v = top.get("version");
+        if (v == null || !v.isNumber() || v.asDouble() != VERSION) {
             throw new IllegalArgumentException(source + ": /version must be " + VERSION + ", got " + describe(v));
         }
-        Object m = top.get("mode");
-        String mode = m == null ? "manual" : m instanceof String s ? s : null;
-        if (mode == null) {
+        JsonValue m = top.get("mode");
+        if (m != null && !m.isString()) {
             throw new IllegalArgumentException(source + ": /mode must be a string, got " + describe(m));
         }
-        Object ch = top.get("channels");
-        if (!(ch instanceof Map<?, ?> channels)) {
-            throw new IllegalArgumentException(source + ": /channels must be an object of channel name to entry, got " + describe(ch));
+        String mode = m == null ? "manual" : m.asString();
+        JsonValue channels = top.get("channels");
+        if (channels == null || !channels.isObject()) {
+            throw new IllegalArgumentException(source + ": /channels must be an object of channel name to entry, got " + describe(channels));
         }
         List<Entry> out = new ArrayList<>();
-        for (Map.Entry<?, ?> e : channels.entrySet()) {
-            String cname = (String) e.getKey();
+        for (Map.Entry<String, JsonValue> e : channels.members().entrySet()) {
+            String cname = e.getKey();
             String ptr = "/channels/" + cname.replace("~", "~0").replace("/", "~1");
             if (cname.isEmpty()) {
                 throw new IllegalArgumentException(source + ": " + ptr + ": channel name must not be empty");
             }
-            if (!(e.getValue() instanceof Map<?, ?> row)) {
-                throw new IllegalArgumentException(source + ": " + ptr + " must be an object with offsetPs, got " + describe(e.getValue()));
+            JsonValue row = e.getValue();
+            if (!row.isObject()) {
+                throw new IllegalArgumentException(source + ": " + ptr + " must be an object with offsetPs, got " + describe(row));
             }
-            Object o = row.get("offsetPs");
-            if (!(o instanceof Double off) || !Double.isFinite(off)) {
+            JsonValue o = row.get("offsetPs");
+            if (o == null || !o.isNumber()) {
                 throw new IllegalArgumentException(source + ": " + ptr + "/offsetPs must be a number of picoseconds, got " + describe(o));
             }
+            double off = o.asDouble();
             if (Math.abs(off) > 1e9) {
                 throw new IllegalArgumentException(source + ": " + ptr + "/offsetPs " + off + " is beyond +/-1e9 ps (1 ms)");
             }
             double conf = 1;
-            Object c = row.get("confidence");
+            JsonValue c = row.get("confidence");
             if (c != null) {
-                if (!(c instanceof Double cd) || !(cd >= 0 && cd <= 1)) {
+                if (!c.isNumber() || !(c.asDouble() >= 0 && c.asDouble() <= 1)) {
                     throw new IllegalArgumentException(source + ": " + ptr + "/confidence must be a number from 0 to 1, got " + describe(c));
                 }
-                conf = cd;
+                conf = c.asDouble();
             }
             String method = "manual";
-            Object me = row.get("method");
+            JsonValue me = row.get("method");
             if (me != null) {
-                if (!(me instanceof String ms)) {
+                if (!me.isString()) {
                     throw new IllegalArgumentException(source + ": " + ptr + "/method must be a string, got " + describe(me));
                 }
-                method = ms;
+                method = me.asString();
             }
             long edges = 0;
-            Object ed = row.get("edges");
+            JsonValue ed = row.get("edges");
             if (ed != null) {
-                if (!(ed instanceof Double edd) || edd < 0 || edd != Math.rint(edd) || edd > 9e15) {
+                double edd = ed.isNumber() ? ed.asDouble() : -1;
+                if (edd < 0 || edd != Math.rint(edd) || edd > 9e15) {
                     throw new IllegalArgumentException(source + ": " + ptr + "/edges must be a whole number at least 0, got " + describe(ed));
                 }
-                edges = (long) (double) edd;
+                edges = (long) edd;
             }
             out.add(new Entry(cname, off, conf, method, edges));
         }
         return new SkewTable(mode, out);
     }
 
-    private static String describe(Object o) {
-        if (o == null) {
-            return "nothing (member missing)";
-        }
-        if (o instanceof String s) {
-            return Json.quote(s);
-        }
-        if (o instanceof Map) {
-            return "an object";
-        }
-        if (o instanceof List) {
-            return "an array";
-        }
-        return o.toString();
+    private static String describe(JsonValue v) {
+        return v == null ? "nothing (member missing)" : v.describe();
     }
 
     @Override

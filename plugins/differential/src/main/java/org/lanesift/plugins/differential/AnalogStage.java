@@ -16,6 +16,8 @@ import org.lanesift.data.BitSets;
 import org.lanesift.data.Block;
 import org.lanesift.data.Edges;
 import org.lanesift.data.LogicBlock;
+import org.lanesift.json.JsonWriter;
+import org.lanesift.json.NumberStyle;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
 
@@ -702,7 +704,7 @@ final class AnalogStage implements Stage {
         ctx.emit(OUT_REPORT, new Artifact(s.channel, t0, t1, ctx.instanceId() + "-levels.json", "application/json", json));
     }
 
-    private void levelsJson(Json j, LevelAcc a) {
+    private void levelsJson(JsonWriter j, LevelAcc a) {
         double hi = a.mean(1);
         double lo = a.mean(0);
         double swing = hi - lo;
@@ -718,16 +720,16 @@ final class AnalogStage implements Stage {
             j.field("commonModeVolts", a.cmMean()).field("commonModeSpreadVolts", a.cmSpread())
                     .field("commonModeHighVolts", a.cmMean(1)).field("commonModeLowVolts", a.cmMean(0));
         }
-        j.key("quantities").begin('{');
+        j.name("quantities").beginObject();
         for (Map.Entry<String, Double> e : quantities(a).entrySet()) {
             j.field(e.getKey(), e.getValue());
         }
-        j.end('}');
+        j.endObject();
     }
 
     private String report(Map<String, Double> q) {
-        Json j = new Json();
-        j.begin('{');
+        JsonWriter j = JsonWriter.compact().numberStyle(NumberStyle.significant(9)).nonFiniteAsNull();
+        j.beginObject();
         j.field("instance", ctx.instanceId()).field("channel", s.channel).field("mode", s.modeName())
                 .field("levelProfile", s.profile.id).field("samplePeriodFs", periodFs).field("startFs", originFs)
                 .field("samples", cmp.nextIndex()).field("transitions", cmp.transitionsTotal())
@@ -736,28 +738,28 @@ final class AnalogStage implements Stage {
                 .field("finalThresholdVolts", cmp.threshold()).field("finalHysteresisVolts", cmp.hysteresis())
                 .field("inverted", cmp.invert()).field("invalidRuns", gapCount).field("invalidSamples", gapSamples)
                 .field("windowSamples", (long) s.windowSamples * reportMerge).field("statsStride", s.statsStride);
-        j.key("capture").begin('{');
+        j.name("capture").beginObject();
         levelsJson(j, capture);
-        j.end('}');
-        j.key("checks").begin('[');
+        j.endObject();
+        j.name("checks").beginArray();
         for (LevelProfile.Check ch : s.profile.checks) {
             Double v = q.get(ch.quantity());
             if (v == null) {
                 continue;
             }
-            j.begin('{').field("quantity", ch.quantity()).field("what", ch.what()).field("valueVolts", v)
+            j.beginObject().field("quantity", ch.quantity()).field("what", ch.what()).field("valueVolts", v)
                     .field("minVolts", ch.min()).field("maxVolts", ch.max())
-                    .field("verdict", ch.judge(v).name().toLowerCase(Locale.ROOT)).field("source", ch.source()).end('}');
+                    .field("verdict", ch.judge(v).name().toLowerCase(Locale.ROOT)).field("source", ch.source()).endObject();
         }
-        j.end(']');
-        j.key("windows").begin('[');
+        j.endArray();
+        j.name("windows").beginArray();
         for (LevelAcc w : reportWindows) {
-            j.begin('{');
+            j.beginObject();
             levelsJson(j, w);
-            j.end('}');
+            j.endObject();
         }
-        j.end(']');
-        j.end('}');
-        return j.toString();
+        j.endArray();
+        j.endObject();
+        return j.finish();
     }
 }

@@ -13,6 +13,8 @@ import org.lanesift.data.BitSets;
 import org.lanesift.data.Block;
 import org.lanesift.data.Edges;
 import org.lanesift.data.LogicBlock;
+import org.lanesift.json.JsonWriter;
+import org.lanesift.json.NumberStyle;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
 
@@ -392,19 +394,19 @@ final class LogicPairStage implements Stage {
                     .label((annotated - MAX_ANNOTATIONS) + " further runs not annotated singly")
                     .field("agreeRuns", Field.integer(agreeRuns, "")).field("agreeSamples", Field.integer(agreeSamples, "")).build());
         }
-        Json j = new Json();
-        j.begin('{').field("instance", ctx.instanceId()).field("channel", s.channel).field("mode", s.modeName())
+        JsonWriter j = JsonWriter.compact().numberStyle(NumberStyle.significant(9)).nonFiniteAsNull();
+        j.beginObject().field("instance", ctx.instanceId()).field("channel", s.channel).field("mode", s.modeName())
                 .field("samplePeriodFs", periodFs).field("startFs", originFs).field("samples", next)
                 .field("transitions", transitions).field("agreeRuns", agreeRuns).field("agreeSamples", agreeSamples)
                 .field("invalidInputRuns", inputRuns).field("invalidInputSamples", inputSamples)
                 .field("windowSamples", (long) s.windowSamples * merge);
-        j.key("windows").begin('[');
+        j.name("windows").beginArray();
         for (long[] w : windows) {
-            j.begin('{').field("startFs", timeAt(w[0], 0)).field("endFs", timeAt(w[1], 0)).field("samples", w[1] - w[0])
-                    .field("agreeSamples", w[2]).field("invalidInputSamples", w[3]).end('}');
+            j.beginObject().field("startFs", timeAt(w[0], 0)).field("endFs", timeAt(w[1], 0)).field("samples", w[1] - w[0])
+                    .field("agreeSamples", w[2]).field("invalidInputSamples", w[3]).endObject();
         }
-        j.end(']').end('}');
+        j.endArray().endObject();
         ctx.emit(AnalogStage.OUT_REPORT, new Artifact(s.channel, t0, end, ctx.instanceId() + "-levels.json", "application/json",
-                j.toString().getBytes(StandardCharsets.UTF_8)));
+                j.finish().getBytes(StandardCharsets.UTF_8)));
     }
 }

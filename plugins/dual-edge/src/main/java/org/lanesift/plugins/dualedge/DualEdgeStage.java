@@ -10,6 +10,8 @@ import org.lanesift.data.BitSets;
 import org.lanesift.data.BitStream;
 import org.lanesift.data.Block;
 import org.lanesift.data.Edges;
+import org.lanesift.json.JsonWriter;
+import org.lanesift.json.NumberStyle;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
 
@@ -279,67 +281,67 @@ final class DualEdgeStage implements Stage {
     }
 
     private String report() {
-        Json j = new Json();
+        JsonWriter j = JsonWriter.pretty().numberStyle(NumberStyle.significant(9)).nonFiniteAsNull();
         j.beginObject();
-        j.key("instance").value(ctx.instanceId());
-        j.key("plugin").value(DualEdgePlugin.ID);
-        j.key("mode").value(cfg.mode().option);
-        j.key("lanes").value(cfg.lanes());
+        j.name("instance").value(ctx.instanceId());
+        j.name("plugin").value(DualEdgePlugin.ID);
+        j.name("mode").value(cfg.mode().option);
+        j.name("lanes").value(cfg.lanes());
         if (cfg.mode() == SamplerConfig.Mode.MULTIPLIED) {
-            j.key("slots").value(cfg.slots());
-            j.key("clockPattern").value(cfg.pattern());
+            j.name("slots").value(cfg.slots());
+            j.name("clockPattern").value(cfg.pattern());
         }
-        j.key("marginThresholdUI").value(cfg.marginThreshold());
-        j.key("marginReachUI").value(1.0);
+        j.name("marginThresholdUI").value(cfg.marginThreshold());
+        j.name("marginReachUI").value(1.0);
         double meanUi = emittedBits > 0 ? uiSumAll / emittedBits : Double.NaN;
-        j.key("unitIntervalFs").value(meanUi);
-        j.key("bitsPerLane").value(emittedBits);
-        j.key("clock").beginObject();
-        j.key("channel").value(clockQ.channel);
-        j.key("acceptedEdges").value(cr.accepted);
-        j.key("glitches").value(cr.glitches);
-        j.key("dropouts").value(cr.dropouts);
-        j.key("restarts").value(cr.restarts);
-        j.key("periodFs").beginObject();
-        j.key("mean").value(cr.periodMean());
-        j.key("std").value(cr.periodStd());
-        j.key("min").value(cr.periodCount > 0 ? cr.periodMin : Double.NaN);
-        j.key("max").value(cr.periodCount > 0 ? cr.periodMax : Double.NaN);
-        j.key("intervals").value(cr.periodCount);
+        j.name("unitIntervalFs").value(meanUi);
+        j.name("bitsPerLane").value(emittedBits);
+        j.name("clock").beginObject();
+        j.name("channel").value(clockQ.channel);
+        j.name("acceptedEdges").value(cr.accepted);
+        j.name("glitches").value(cr.glitches);
+        j.name("dropouts").value(cr.dropouts);
+        j.name("restarts").value(cr.restarts);
+        j.name("periodFs").beginObject();
+        j.name("mean").value(cr.periodMean());
+        j.name("std").value(cr.periodStd());
+        j.name("min").value(cr.periodCount > 0 ? cr.periodMin : Double.NaN);
+        j.name("max").value(cr.periodCount > 0 ? cr.periodMax : Double.NaN);
+        j.name("intervals").value(cr.periodCount);
         j.endObject();
-        j.key("frequencyHz").value(cr.periodCount > 0 ? 1e15 / cr.periodMean() : (cr.haveP ? 1e15 / cr.periodFs : Double.NaN));
-        j.key("duty").beginObject();
-        j.key("mean").value(cr.dutyCount > 0 ? cr.dutySum / cr.dutyCount : Double.NaN);
-        j.key("min").value(cr.dutyCount > 0 ? cr.dutyMin : Double.NaN);
-        j.key("max").value(cr.dutyCount > 0 ? cr.dutyMax : Double.NaN);
-        j.key("atAcquisition").value(cr.acquiredDuty);
+        j.name("frequencyHz").value(cr.periodCount > 0 ? 1e15 / cr.periodMean() : (cr.haveP ? 1e15 / cr.periodFs : Double.NaN));
+        j.name("duty").beginObject();
+        j.name("mean").value(cr.dutyCount > 0 ? cr.dutySum / cr.dutyCount : Double.NaN);
+        j.name("min").value(cr.dutyCount > 0 ? cr.dutyMin : Double.NaN);
+        j.name("max").value(cr.dutyCount > 0 ? cr.dutyMax : Double.NaN);
+        j.name("atAcquisition").value(cr.acquiredDuty);
         j.endObject();
         if (cfg.mode() == SamplerConfig.Mode.MULTIPLIED) {
-            j.key("inverted").value(cr.inverted);
-            j.key("slot0").value(cr.patternVerdict);
-            j.key("pixels").value(planner.pixels);
-            j.key("pixelsDroppedAtDropouts").value(planner.pixelsDropped);
+            j.name("inverted").value(cr.inverted);
+            j.name("slot0").value(cr.patternVerdict);
+            j.name("pixels").value(planner.pixels);
+            j.name("pixelsDroppedAtDropouts").value(planner.pixelsDropped);
         }
         j.endObject();
-        j.key("phase").beginObject();
-        j.key("source").value(cfg.autoPhase() ? "autoPhase" : "option");
-        j.key("alignment").value(cfg.mode() == SamplerConfig.Mode.MULTIPLIED ? "slot-centre" : cfg.edgeAligned() ? "edge" : "center");
+        j.name("phase").beginObject();
+        j.name("source").value(cfg.autoPhase() ? "autoPhase" : "option");
+        j.name("alignment").value(cfg.mode() == SamplerConfig.Mode.MULTIPLIED ? "slot-centre" : cfg.edgeAligned() ? "edge" : "center");
         if (phaseIsUi) {
-            j.key("phaseUI").value(phaseUi);
-            j.key("phaseFs").value(phaseUi * meanUi);
+            j.name("phaseUI").value(phaseUi);
+            j.name("phaseFs").value(phaseUi * meanUi);
         } else {
-            j.key("phaseFs").value(phaseFs);
-            j.key("phaseUI").value(phaseFs / meanUi);
+            j.name("phaseFs").value(phaseFs);
+            j.name("phaseUI").value(phaseFs / meanUi);
         }
         if (cfg.autoPhase()) {
-            j.key("search").beginObject();
-            j.key("bits").value(searchedBits);
+            j.name("search").beginObject();
+            j.name("bits").value(searchedBits);
             if (eye != null) {
                 writeWindow(j, eye);
-                j.key("perLane").beginArray();
+                j.name("perLane").beginArrayInline();
                 for (int i = 0; i < laneEyes.length; i++) {
                     j.beginObject();
-                    j.key("lane").value(i);
+                    j.name("lane").value(i);
                     writeWindow(j, laneEyes[i]);
                     j.endObject();
                 }
@@ -348,32 +350,32 @@ final class DualEdgeStage implements Stage {
             j.endObject();
         }
         j.endObject();
-        j.key("lanes").beginArray();
+        j.name("lanes").beginArrayInline();
         for (int i = 0; i < lanes.length; i++) {
             LaneSampler l = lanes[i];
             MarginStats st = l.stats;
             st.merge();
             j.beginObject();
-            j.key("lane").value(i);
-            j.key("channel").value(laneQ[i].channel);
-            j.key("bits").value(st.bits);
-            j.key("flagged").value(st.flagged);
-            j.key("unknownSamples").value(st.unknown);
-            j.key("flaggedRuns").value(st.lowRuns);
+            j.name("lane").value(i);
+            j.name("channel").value(laneQ[i].channel);
+            j.name("bits").value(st.bits);
+            j.name("flagged").value(st.flagged);
+            j.name("unknownSamples").value(st.unknown);
+            j.name("flaggedRuns").value(st.lowRuns);
             st.writeMargin(j, "setup", st.setupHist, st.setupKnown(), st.minSetupFs, st.minSetupUi, meanUi);
             st.writeMargin(j, "hold", st.holdHist, st.holdKnown(), st.minHoldFs, st.minHoldUi, meanUi);
             j.endObject();
         }
         j.endArray();
         j.endObject();
-        return j.toString() + "\n";
+        return j.finish() + "\n";
     }
 
-    private static void writeWindow(Json j, EyeSearch.Window w) {
-        j.key("centreUI").value(w.centreUi());
-        j.key("windowUI").value(w.widthUi());
-        j.key("leftUI").value(w.leftUi());
-        j.key("rightUI").value(w.rightUi());
-        j.key("transitions").value(w.transitions());
+    private static void writeWindow(JsonWriter j, EyeSearch.Window w) {
+        j.name("centreUI").value(w.centreUi());
+        j.name("windowUI").value(w.widthUi());
+        j.name("leftUI").value(w.leftUi());
+        j.name("rightUI").value(w.rightUi());
+        j.name("transitions").value(w.transitions());
     }
 }

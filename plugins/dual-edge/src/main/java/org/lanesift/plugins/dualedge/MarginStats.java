@@ -1,5 +1,8 @@
 package org.lanesift.plugins.dualedge;
 
+import org.lanesift.json.JsonWriter;
+import org.lanesift.json.NumberStyle;
+
 /**
  * Running statistics of one lane's margins: counts, exact minima, and fine histograms of setup and
  * hold margins as fractions of the unit interval (bins of 1/{@link #BINS} UI over 0..1 UI), from
@@ -73,24 +76,24 @@ final class MarginStats {
         return 1.0;
     }
 
-    void writeMargin(Json j, String name, long[] hist, long known, long minFs, double minUi, double meanUiFs) {
-        j.key(name).beginObject();
-        j.key("known").value(known);
-        j.key("minFs").value(known == 0 ? Double.NaN : (double) minFs);
-        j.key("minUI").value(known == 0 ? Double.NaN : minUi);
-        j.key("percentilesUI").beginObject();
+    void writeMargin(JsonWriter j, String name, long[] hist, long known, long minFs, double minUi, double meanUiFs) {
+        j.name(name).beginObject();
+        j.name("known").value(known);
+        j.name("minFs").value(known == 0 ? Double.NaN : (double) minFs);
+        j.name("minUI").value(known == 0 ? Double.NaN : minUi);
+        j.name("percentilesUI").beginObject();
         for (double p : PERCENTILES) {
-            j.key(p == Math.rint(p) ? Long.toString((long) p) : Double.toString(p)).value(percentile(hist, known, p));
+            j.name(p == Math.rint(p) ? Long.toString((long) p) : Double.toString(p)).value(percentile(hist, known, p));
         }
         j.endObject();
-        j.key("percentilesFs").beginObject();
+        j.name("percentilesFs").beginObject();
         for (double p : PERCENTILES) {
-            j.key(p == Math.rint(p) ? Long.toString((long) p) : Double.toString(p)).value(percentile(hist, known, p) * meanUiFs);
+            j.name(p == Math.rint(p) ? Long.toString((long) p) : Double.toString(p)).value(percentile(hist, known, p) * meanUiFs);
         }
         j.endObject();
-        j.key("histogram").beginObject();
-        j.key("binUI").value(1.0 / REPORT_BINS);
-        j.key("counts").beginArray();
+        j.name("histogram").beginObject();
+        j.name("binUI").value(1.0 / REPORT_BINS);
+        j.name("counts").beginArrayInline();
         int per = BINS / REPORT_BINS;
         for (int b = 0; b < REPORT_BINS; b++) {
             long s = 0;

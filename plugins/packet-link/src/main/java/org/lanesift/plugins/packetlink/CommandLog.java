@@ -5,6 +5,8 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
+import org.lanesift.json.JsonWriter;
+import org.lanesift.json.NumberStyle;
 
 /**
  * Every command seen on the link, in order, with its time and parameters; and the exports built
@@ -18,6 +20,9 @@ import java.util.Locale;
  */
 final class CommandLog {
     /** One command. */
+    /** Numbers in the CSV as in the JSON: nine significant digits. */
+    private static final NumberStyle CSV_NUMBER = NumberStyle.significant(9);
+
     static final class Entry {
         long startFs;
         long endFs;
@@ -154,44 +159,43 @@ final class CommandLog {
     // ---------------------------------------------------------------- exports
 
     byte[] json(String id) {
-        StringBuilder sb = new StringBuilder(4096);
-        sb.append("{\n  \"format\": \"lanesift-command-log/1\",\n  \"instance\": ").append(Json.str(id))
-                .append(",\n  \"truncated\": ").append(overflow).append(",\n  \"commands\": [");
-        appendEntries(sb, entries);
-        sb.append("\n  ],\n  \"initSequence\": [");
-        appendEntries(sb, folded());
-        sb.append("\n  ]\n}\n");
-        return sb.toString().getBytes(StandardCharsets.UTF_8);
+        JsonWriter j = JsonWriter.pretty().numberStyle(NumberStyle.significant(9)).nonFiniteAsNull();
+        j.beginObject().field("format", "lanesift-command-log/1").field("instance", id).field("truncated", overflow);
+        j.name("commands").beginArray();
+        writeEntries(j, entries);
+        j.endArray().name("initSequence").beginArray();
+        writeEntries(j, folded());
+        j.endArray().endObject();
+        return (j.finish() + "\n").getBytes(StandardCharsets.UTF_8);
     }
 
-    private static void appendEntries(StringBuilder sb, List<Entry> list) {
+    private static void writeEntries(JsonWriter j, List<Entry> list) {
         for (int i = 0; i < list.size(); i++) {
             Entry e = list.get(i);
-            sb.append(i == 0 ? "\n" : ",\n").append("    {\"index\": ").append(i)
-                    .append(", \"timeS\": ").append(Json.num(e.startFs * 1e-15))
-                    .append(", \"mode\": ").append(Json.str(e.mode))
-                    .append(", \"vc\": ").append(e.vc)
-                    .append(", \"dataType\": ").append(Json.str(String.format(Locale.ROOT, "0x%02X", e.dataType)))
-                    .append(", \"dataTypeName\": ").append(Json.str(DataTypes.name(e.dataType)))
-                    .append(", \"command\": ").append(e.cmd < 0 ? "null" : Json.str(String.format(Locale.ROOT, "0x%02X", e.cmd)))
-                    .append(", \"name\": ").append(Json.str(e.name))
-                    .append(", \"params\": ").append(Json.str(hex(e.params)))
-                    .append(", \"paramCount\": ").append(e.params == null ? 0 : e.params.length);
+            j.beginObjectInline().field("index", i).field("timeS", e.startFs * 1e-15).field("mode", e.mode).field("vc", e.vc)
+                    .field("dataType", String.format(Locale.ROOT, "0x%02X", e.dataType))
+                    .field("dataTypeName", DataTypes.name(e.dataType))
+                    .field("command", e.cmd < 0 ? null : String.format(Locale.ROOT, "0x%02X", e.cmd))
+                    .field("name", e.name).field("params", hex(e.params)).field("paramCount", e.params == null ? 0 : e.params.length);
             if (e.isMemoryWrite()) {
-                sb.append(", \"payloadBytes\": ").append(e.payloadBytes).append(", \"packets\": ").append(e.packets);
+                j.field("payloadBytes", e.payloadBytes).field("packets", e.packets);
             }
-            sb.append(", \"meaning\": ").append(Json.str(e.meaning))
-                    .append(", \"delayToNextMs\": ").append(e.delayFs < 0 ? "null" : Json.num(e.delayFs * 1e-12));
+            j.field("meaning", e.meaning).name("delayToNextMs");
+            if (e.delayFs < 0) {
+                j.nullValue();
+            } else {
+                j.value(e.delayFs * 1e-12);
+            }
             if (e.repeat > 1) {
-                sb.append(", \"repeat\": ").append(e.repeat).append(", \"repeatBlock\": ").append(e.period);
+                j.field("repeat", e.repeat).field("repeatBlock", e.period);
             }
             if (e.checksumBad) {
-                sb.append(", \"checksumBad\": true");
+                j.field("checksumBad", true);
             }
             if (e.eccCorrected) {
-                sb.append(", \"eccCorrected\": true");
+                j.field("eccCorrected", true);
             }
-            sb.append('}');
+            j.endObject();
         }
     }
 
@@ -200,12 +204,12 @@ final class CommandLog {
         sb.append("index,time_s,mode,vc,data_type,data_type_name,command,name,param_count,params_hex,delay_to_next_ms,flags\n");
         for (int i = 0; i < entries.size(); i++) {
             Entry e = entries.get(i);
-            sb.append(i).append(',').append(Json.num(e.startFs * 1e-15)).append(',').append(e.mode).append(',').append(e.vc).append(',')
+            sb.append(i).append(',').append(CSV_NUMBER.format(e.startFs * 1e-15)).append(',').append(e.mode).append(',').append(e.vc).append(',')
                     .append(String.format(Locale.ROOT, "0x%02X", e.dataType)).append(',').append(DataTypes.name(e.dataType)).append(',')
                     .append(e.cmd < 0 ? "" : String.format(Locale.ROOT, "0x%02X", e.cmd)).append(',').append(e.name).append(',')
                     .append(e.isMemoryWrite() ? e.payloadBytes : e.params == null ? 0 : e.params.length).append(',')
                     .append(hex(e.params)).append(',')
-                    .append(e.delayFs < 0 ? "" : Json.num(e.delayFs * 1e-12)).append(',');
+                    .append(e.delayFs < 0 ? "" : CSV_NUMBER.format(e.delayFs * 1e-12)).append(',');
             String f = (e.checksumBad ? "checksum-bad " : "") + (e.eccCorrected ? "ecc-corrected " : "");
             sb.append(f.trim()).append('\n');
         }

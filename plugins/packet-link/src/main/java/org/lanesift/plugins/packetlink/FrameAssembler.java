@@ -9,6 +9,8 @@ import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Field;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.Frame;
+import org.lanesift.json.JsonWriter;
+import org.lanesift.json.NumberStyle;
 
 /**
  * Rebuilds pictures from packets, in both ways a host feeds a panel:
@@ -427,40 +429,51 @@ final class FrameAssembler {
     }
 
     byte[] timingJson(String id) {
-        StringBuilder sb = new StringBuilder(2048);
-        sb.append("{\n  \"format\": \"lanesift-packet-timing/1\",\n  \"instance\": ").append(Json.str(id)).append(",\n  \"frames\": [");
+        JsonWriter j = JsonWriter.pretty().numberStyle(NumberStyle.significant(9)).nonFiniteAsNull();
+        j.beginObject().field("format", "lanesift-packet-timing/1").field("instance", id).name("frames").beginArray();
         double periodSum = 0;
         int periodN = 0;
-        for (int i = 0; i < timings.size(); i++) {
-            Timing t = timings.get(i);
-            sb.append(i == 0 ? "\n" : ",\n").append("    {\"index\": ").append(t.index).append(", \"mode\": ").append(Json.str(t.mode))
-                    .append(", \"startS\": ").append(Json.num(t.startFs * 1e-15))
-                    .append(", \"endS\": ").append(Json.num(t.endFs * 1e-15))
-                    .append(", \"periodS\": ").append(t.nextStartFs < 0 ? "null" : Json.num((t.nextStartFs - t.startFs) * 1e-15))
-                    .append(", \"width\": ").append(t.width).append(", \"height\": ").append(t.height);
-            if (t.mode.equals("video")) {
-                sb.append(", \"linesTotal\": ").append(t.lines)
-                        .append(", \"vsyncLines\": ").append(t.vsyncLines < 0 ? "null" : t.vsyncLines)
-                        .append(", \"backPorchLines\": ").append(t.backPorchLines < 0 ? "null" : t.backPorchLines)
-                        .append(", \"activeLines\": ").append(t.height)
-                        .append(", \"frontPorchLines\": ").append(t.frontPorchLines < 0 ? "null" : t.frontPorchLines)
-                        .append(", \"linePeriodS\": ").append(Json.num(t.linePeriodFs * 1e-15))
-                        .append(", \"hsyncS\": ").append(Json.num(t.hsyncFs * 1e-15))
-                        .append(", \"pixelPacketS\": ").append(Json.num(t.pixelPacketFs * 1e-15));
+        for (Timing t : timings) {
+            j.beginObjectInline().field("index", t.index).field("mode", t.mode).field("startS", t.startFs * 1e-15)
+                    .field("endS", t.endFs * 1e-15).name("periodS");
+            if (t.nextStartFs < 0) {
+                j.nullValue();
             } else {
-                sb.append(", \"writeDurationS\": ").append(Json.num((t.endFs - t.startFs) * 1e-15))
-                        .append(", \"window\": {\"columnStart\": ").append(t.window[0]).append(", \"columnEnd\": ").append(t.window[1])
-                        .append(", \"pageStart\": ").append(t.window[2]).append(", \"pageEnd\": ").append(t.window[3]).append('}');
+                j.value((t.nextStartFs - t.startFs) * 1e-15);
             }
-            sb.append(", \"suspect\": ").append(t.suspect).append('}');
+            j.field("width", t.width).field("height", t.height);
+            if (t.mode.equals("video")) {
+                j.field("linesTotal", t.lines);
+                orNull(j, "vsyncLines", t.vsyncLines);
+                orNull(j, "backPorchLines", t.backPorchLines);
+                j.field("activeLines", t.height);
+                orNull(j, "frontPorchLines", t.frontPorchLines);
+                j.field("linePeriodS", t.linePeriodFs * 1e-15).field("hsyncS", t.hsyncFs * 1e-15)
+                        .field("pixelPacketS", t.pixelPacketFs * 1e-15);
+            } else {
+                j.field("writeDurationS", (t.endFs - t.startFs) * 1e-15).name("window").beginObjectInline()
+                        .field("columnStart", t.window[0]).field("columnEnd", t.window[1])
+                        .field("pageStart", t.window[2]).field("pageEnd", t.window[3]).endObject();
+            }
+            j.field("suspect", t.suspect).endObject();
             if (t.nextStartFs >= 0) {
                 periodSum += t.nextStartFs - t.startFs;
                 periodN++;
             }
         }
-        sb.append("\n  ],\n  \"summary\": {\"frames\": ").append(timings.size())
-                .append(", \"meanFramePeriodS\": ").append(periodN == 0 ? "null" : Json.num(periodSum / periodN * 1e-15))
-                .append(", \"frameRateHz\": ").append(periodN == 0 ? "null" : Json.num(1e15 * periodN / periodSum)).append("}\n}\n");
-        return sb.toString().getBytes(StandardCharsets.UTF_8);
+        j.endArray().name("summary").beginObjectInline().field("frames", timings.size())
+                .field("meanFramePeriodS", periodN == 0 ? Double.NaN : periodSum / periodN * 1e-15)
+                .field("frameRateHz", periodN == 0 ? Double.NaN : 1e15 * periodN / periodSum).endObject().endObject();
+        return (j.finish() + "\n").getBytes(StandardCharsets.UTF_8);
+    }
+
+    /** A count that is negative when unknown: null then. */
+    private static void orNull(JsonWriter j, String name, int v) {
+        j.name(name);
+        if (v < 0) {
+            j.nullValue();
+        } else {
+            j.value(v);
+        }
     }
 }

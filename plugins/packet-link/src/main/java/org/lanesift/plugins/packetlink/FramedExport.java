@@ -7,6 +7,7 @@ import java.util.function.Consumer;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Field;
 import org.lanesift.data.WordStream;
+import org.lanesift.json.NumberStyle;
 
 /**
  * Output side of the framed-link profile: emits merged words as a {@link WordStream}, one
@@ -14,6 +15,9 @@ import org.lanesift.data.WordStream;
  * {@code <id>-words.csv} (format in {@code docs/framed-link.md}) up to a limit.
  */
 final class FramedExport {
+    /** Times in seconds, nine significant digits as in the JSON exports. */
+    private static final NumberStyle TIME_S = NumberStyle.significant(9);
+
     private final String id;
     private final int wordBits;
     private final int maxRows;
@@ -55,7 +59,7 @@ final class FramedExport {
                 truncated = true;
                 break;
             }
-            csv.append(words + i).append(',').append(Json.num(s[i] * 1e-15)).append(',').append(lane[i]).append(',')
+            csv.append(words + i).append(',').append(TIME_S.format(s[i] * 1e-15)).append(',').append(lane[i]).append(',')
                     .append(group < 0 ? "" : Long.toString(group)).append(',').append(group < 0 ? "" : Integer.toString(i)).append(',')
                     .append(String.format(Locale.ROOT, "%0" + hexDigits + "X", v[i])).append(',').append(f[i]).append('\n');
             rows++;

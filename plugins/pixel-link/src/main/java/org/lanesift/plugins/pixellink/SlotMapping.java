@@ -9,6 +9,9 @@ import java.util.ArrayList;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
+import org.lanesift.json.JsonParseException;
+import org.lanesift.json.JsonReader;
+import org.lanesift.json.JsonValue;
 import org.lanesift.plugin.OptionException;
 
 /**
@@ -103,48 +106,52 @@ public record SlotMapping(String name, String title, String source, int colourBi
      * @throws OptionException for malformed JSON, unknown names, duplicated or missing bits
      */
     static SlotMapping parse(String json, String where, String option) {
-        Object root;
+        JsonValue m;
         try {
-            root = MiniJson.parse(json, where);
-        } catch (MiniJson.JsonError e) {
-            throw bad(option, e.getMessage());
+            m = JsonReader.parse(where, json);
+        } catch (JsonParseException e) {
+            throw bad(option, where + ": line " + e.line() + ", column " + e.column() + ": " + e.reason());
         }
-        if (!(root instanceof Map<?, ?> m)) {
+        if (!m.isObject()) {
             throw bad(option, where + ": expected a JSON object at /");
         }
-        for (Object k : m.keySet()) {
+        for (String k : m.members().keySet()) {
             if (!List.of("format", "name", "title", "source", "colourBits", "lanes").contains(k)) {
                 throw bad(option, where + ": unknown member /" + k + "; expected format, name, title, source, colourBits, lanes");
             }
         }
-        Object fmt = m.get("format");
-        if (fmt != null && !"lanesift-slot-map/1".equals(fmt)) {
-            throw bad(option, where + ": /format must be \"lanesift-slot-map/1\", got " + fmt);
+        JsonValue fmt = member(m, "format");
+        if (fmt != null && !(fmt.isString() && fmt.asString().equals("lanesift-slot-map/1"))) {
+            throw bad(option, where + ": /format must be \"lanesift-slot-map/1\", got " + fmt.describe());
         }
         String name = text(m, "name", where, option, true);
         String title = text(m, "title", where, option, false);
         String source = text(m, "source", where, option, false);
-        Object cb = m.get("colourBits");
-        if (!(cb instanceof Double d) || (d != 6.0 && d != 8.0)) {
-            throw bad(option, where + ": /colourBits must be 6 or 8, got " + cb);
+        JsonValue cb = member(m, "colourBits");
+        if (cb == null || !cb.isNumber() || (cb.asDouble() != 6.0 && cb.asDouble() != 8.0)) {
+            throw bad(option, where + ": /colourBits must be 6 or 8, got " + (cb == null ? "nothing" : cb.describe()));
         }
-        int bits = (int) (double) (Double) cb;
-        Object lanesObj = m.get("lanes");
-        if (!(lanesObj instanceof List<?> lanesList) || lanesList.isEmpty() || lanesList.size() > 4) {
+        int bits = (int) cb.asDouble();
+        JsonValue lanesObj = member(m, "lanes");
+        List<JsonValue> lanesList = lanesObj != null && lanesObj.isArray() ? lanesObj.elements() : List.of();
+        if (lanesList.isEmpty() || lanesList.size() > 4) {
             throw bad(option, where + ": /lanes must be an array of 1 to 4 lanes, each an array of 7 slot names");
         }
         List<List<String>> lanes = new ArrayList<>();
         Map<String, String> seen = new HashMap<>();
         for (int l = 0; l < lanesList.size(); l++) {
-            if (!(lanesList.get(l) instanceof List<?> slots) || slots.size() != 7) {
+            JsonValue laneValue = lanesList.get(l);
+            if (!laneValue.isArray() || laneValue.elements().size() != 7) {
                 throw bad(option, where + ": /lanes/" + l + " (lane " + l + ") must be an array of exactly 7 slot names, slot 0 first");
             }
             List<String> lane = new ArrayList<>();
             for (int s = 0; s < 7; s++) {
                 String at = "/lanes/" + l + "/" + s + " (lane " + l + ", slot " + s + ")";
-                if (!(slots.get(s) instanceof String n)) {
+                JsonValue slot = laneValue.elements().get(s);
+                if (!slot.isString()) {
                     throw bad(option, where + ": " + at + " must be a string such as \"R0\", \"DE\" or \"0\"");
                 }
+                String n = slot.asString();
                 String norm = n.trim().toUpperCase(java.util.Locale.ROOT);
                 if (norm.equals("-")) {
                     norm = "0";
@@ -182,18 +189,24 @@ public record SlotMapping(String name, String title, String source, int colourBi
         return new SlotMapping(name, title == null ? name : title, source == null ? "" : source, bits, lanes);
     }
 
-    private static String text(Map<?, ?> m, String key, String where, String option, boolean required) {
-        Object v = m.get(key);
+    /** A member, or null when it is absent or JSON null (both mean "not given"). */
+    private static JsonValue member(JsonValue m, String key) {
+        JsonValue v = m.get(key);
+        return v == null || v.isNull() ? null : v;
+    }
+
+    private static String text(JsonValue m, String key, String where, String option, boolean required) {
+        JsonValue v = member(m, key);
         if (v == null) {
             if (required) {
                 throw bad(option, where + ": /" + key + " is required (a string)");
             }
             return null;
         }
-        if (!(v instanceof String s)) {
+        if (!v.isString()) {
             throw bad(option, where + ": /" + key + " must be a string");
         }
-        return s;
+        return v.asString();
     }
 
     private static OptionException bad(String option, String msg) {

@@ -5,6 +5,8 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import org.lanesift.json.JsonWriter;
+import org.lanesift.json.NumberStyle;
 
 /**
  * Everything measured about the video timing of one link, and its two report forms: JSON
@@ -97,100 +99,77 @@ final class Timing {
     // ---------------------------------------------------------------- JSON
 
     String toJson(String instance) {
-        StringBuilder sb = new StringBuilder(2048);
-        sb.append("{\n");
-        kv(sb, 1, "format", MiniJson.quote("lanesift-pixel-timing/1")).append(",\n");
-        kv(sb, 1, "instance", MiniJson.quote(instance)).append(",\n");
-        kv(sb, 1, "mapping", MiniJson.quote(mapping)).append(",\n");
-        kv(sb, 1, "dual", Boolean.toString(dual)).append(",\n");
-        kv(sb, 1, "reverseSlots", Boolean.toString(reverseSlots)).append(",\n");
-        kv(sb, 1, "pixelsPerClock", Integer.toString(pixelsPerClock)).append(",\n");
-        kv(sb, 1, "clocks", Long.toString(clocks)).append(",\n");
-        kv(sb, 1, "pixels", Long.toString(pixels)).append(",\n");
-        sb.append("  \"frames\": {\"complete\": ").append(framesComplete).append(", \"partial\": ").append(framesPartial)
-                .append(", \"suspect\": ").append(framesSuspect).append("},\n");
+        JsonWriter j = JsonWriter.pretty().numberStyle(NumberStyle.decimals(6)).nonFiniteAsNull();
+        j.beginObject().field("format", "lanesift-pixel-timing/1").field("instance", instance).field("mapping", mapping)
+                .field("dual", dual).field("reverseSlots", reverseSlots).field("pixelsPerClock", pixelsPerClock)
+                .field("clocks", clocks).field("pixels", pixels);
+        j.name("frames").beginObjectInline().field("complete", framesComplete).field("partial", framesPartial)
+                .field("suspect", framesSuspect).endObject();
         double tol = clockTolerancePercent / 100;
-        sb.append("  \"pixelClockHz\": ").append(freqJson(pixelClockHz(), clockPerLine, tol)).append(",\n");
-        sb.append("  \"linkClockHz\": ").append(num(pixelClockHz() / pixelsPerClock)).append(",\n");
-        sb.append("  \"refreshHz\": ").append(freqJson(refresh.mean(), refresh, tol)).append(",\n");
-        sb.append("  \"horizontal\": {\n");
-        kv(sb, 2, "unit", "\"pixels\"").append(",\n");
-        kv(sb, 2, "syncPresent", Boolean.toString(hSyncPresent())).append(",\n");
-        kv(sb, 2, "syncPolarity", MiniJson.quote(pol(hsActive))).append(",\n");
-        kv(sb, 2, "active", statJson(hActive)).append(",\n");
-        kv(sb, 2, "frontPorch", statJson(hSyncPresent() ? hFront : null)).append(",\n");
-        kv(sb, 2, "syncWidth", statJson(hSyncPresent() ? hSync : null)).append(",\n");
-        kv(sb, 2, "backPorch", statJson(hSyncPresent() ? hBack : null)).append(",\n");
-        kv(sb, 2, "blanking", statJson(hDeLow)).append(",\n");
-        kv(sb, 2, "total", statJson(hTotalBest())).append("\n");
-        sb.append("  },\n");
-        sb.append("  \"vertical\": {\n");
-        kv(sb, 2, "unit", "\"lines\"").append(",\n");
-        kv(sb, 2, "syncPresent", Boolean.toString(vSyncPresent())).append(",\n");
-        kv(sb, 2, "syncPolarity", MiniJson.quote(pol(vsActive))).append(",\n");
-        kv(sb, 2, "active", statJson(vActive)).append(",\n");
-        kv(sb, 2, "frontPorch", statJson(vSyncPresent() ? vFront : null)).append(",\n");
-        kv(sb, 2, "syncWidth", statJson(vSyncPresent() ? vSync : null)).append(",\n");
-        kv(sb, 2, "backPorch", statJson(vSyncPresent() ? vBack : null)).append(",\n");
-        kv(sb, 2, "blanking", vBlankJson()).append(",\n");
-        kv(sb, 2, "total", statJson(vTotal)).append(",\n");
-        kv(sb, 2, "syncOffsetPixels", statJson(vSyncPresent() && hSyncPresent() ? vSyncOffset : null)).append("\n");
-        sb.append("  },\n");
-        sb.append("  \"anomalies\": {");
-        boolean first = true;
+        freqJson(j.name("pixelClockHz"), pixelClockHz(), clockPerLine, tol);
+        j.field("linkClockHz", pixelClockHz() / pixelsPerClock);
+        freqJson(j.name("refreshHz"), refresh.mean(), refresh, tol);
+        j.name("horizontal").beginObject().field("unit", "pixels").field("syncPresent", hSyncPresent())
+                .field("syncPolarity", pol(hsActive));
+        statJson(j.name("active"), hActive);
+        statJson(j.name("frontPorch"), hSyncPresent() ? hFront : null);
+        statJson(j.name("syncWidth"), hSyncPresent() ? hSync : null);
+        statJson(j.name("backPorch"), hSyncPresent() ? hBack : null);
+        statJson(j.name("blanking"), hDeLow);
+        statJson(j.name("total"), hTotalBest());
+        j.endObject();
+        j.name("vertical").beginObject().field("unit", "lines").field("syncPresent", vSyncPresent())
+                .field("syncPolarity", pol(vsActive));
+        statJson(j.name("active"), vActive);
+        statJson(j.name("frontPorch"), vSyncPresent() ? vFront : null);
+        statJson(j.name("syncWidth"), vSyncPresent() ? vSync : null);
+        statJson(j.name("backPorch"), vSyncPresent() ? vBack : null);
+        vBlankJson(j.name("blanking"));
+        statJson(j.name("total"), vTotal);
+        statJson(j.name("syncOffsetPixels"), vSyncPresent() && hSyncPresent() ? vSyncOffset : null);
+        j.endObject();
+        j.name("anomalies").beginObjectInline();
         for (Map.Entry<String, Long> e : anomalies.entrySet()) {
-            sb.append(first ? "" : ", ").append(MiniJson.quote(e.getKey())).append(": ").append(e.getValue());
-            first = false;
+            j.field(e.getKey(), (long) e.getValue());
         }
-        sb.append("},\n");
-        sb.append("  \"errors\": [");
-        for (int i = 0; i < errors.size(); i++) {
-            sb.append(i == 0 ? "" : ", ").append(MiniJson.quote(errors.get(i)));
+        j.endObject().name("errors").beginArrayInline();
+        for (String e : errors) {
+            j.value(e);
         }
-        sb.append("]\n}\n");
-        return sb.toString();
+        return j.endArray().endObject().finish() + "\n";
     }
 
-    private String vBlankJson() {
+    private void vBlankJson(JsonWriter j) {
         if (vTotal.count() == 0 || vActive.count() == 0) {
-            return "null";
+            j.nullValue();
+            return;
         }
-        long b = vTotal.typical() - vActive.typical();
-        boolean varying = vTotal.varying() || vActive.varying();
-        return "{\"value\": " + b + ", \"min\": " + (vTotal.min() - vActive.max()) + ", \"max\": "
-                + (vTotal.max() - vActive.min()) + ", \"varying\": " + varying + ", \"samples\": "
-                + Math.min(vTotal.count(), vActive.count()) + "}";
+        j.beginObjectInline().field("value", vTotal.typical() - vActive.typical()).field("min", vTotal.min() - vActive.max())
+                .field("max", vTotal.max() - vActive.min()).field("varying", vTotal.varying() || vActive.varying())
+                .field("samples", Math.min(vTotal.count(), vActive.count())).endObject();
     }
 
-    private static StringBuilder kv(StringBuilder sb, int indent, String k, String v) {
-        sb.append("  ".repeat(indent)).append('"').append(k).append("\": ").append(v);
-        return sb;
-    }
-
-    private static String statJson(Stat s) {
+    private static void statJson(JsonWriter j, Stat s) {
         if (s == null || s.count() == 0) {
-            return "null";
+            j.nullValue();
+            return;
         }
-        return "{\"value\": " + s.typical() + ", \"min\": " + s.min() + ", \"max\": " + s.max() + ", \"varying\": "
-                + s.varying() + ", \"samples\": " + s.count() + "}";
+        j.beginObjectInline().field("value", s.typical()).field("min", s.min()).field("max", s.max())
+                .field("varying", s.varying()).field("samples", s.count()).endObject();
     }
 
-    private static String freqJson(double value, DStat s, double tol) {
+    private static void freqJson(JsonWriter j, double value, DStat s, double tol) {
         if (!Double.isFinite(value)) {
-            return "null";
+            j.nullValue();
+            return;
         }
+        j.beginObjectInline().field("value", value);
         if (s.count() == 0) {
-            return "{\"value\": " + num(value) + ", \"min\": null, \"max\": null, \"varying\": false, \"samples\": 0}";
+            j.name("min").nullValue().name("max").nullValue().field("varying", false).field("samples", 0);
+        } else {
+            j.field("min", s.min()).field("max", s.max()).field("varying", s.varying(tol)).field("samples", s.count());
         }
-        return "{\"value\": " + num(value) + ", \"min\": " + num(s.min()) + ", \"max\": " + num(s.max()) + ", \"varying\": "
-                + s.varying(tol) + ", \"samples\": " + s.count() + "}";
-    }
-
-    private static String num(double d) {
-        if (!Double.isFinite(d)) {
-            return "null";
-        }
-        return String.format(Locale.ROOT, "%.6f", d);
+        j.endObject();
     }
 
     // ---------------------------------------------------------------- text

@@ -1,22 +1,22 @@
 package org.lanesift.plugins.pixellink;
 
 import java.nio.charset.StandardCharsets;
-import java.util.List;
-import java.util.Map;
 import org.lanesift.data.Artifact;
+import org.lanesift.json.JsonReader;
+import org.lanesift.json.JsonValue;
 import org.lanesift.testkit.StageHarness;
 
 /** Test helper: reads the plugin's timing JSON back by path. */
 final class Report {
-    final Object root;
+    final JsonValue root;
     final String json;
 
-    Report(String json) throws Exception {
+    Report(String json) {
         this.json = json;
-        this.root = MiniJson.parse(json, "timing report");
+        this.root = JsonReader.parse("timing report", json);
     }
 
-    static Report of(StageHarness h) throws Exception {
+    static Report of(StageHarness h) {
         return new Report(text(h, "dut-timing.json"));
     }
 
@@ -29,43 +29,44 @@ final class Report {
         throw new AssertionError("no artifact " + name + " among " + h.outputs("files"));
     }
 
-    Object get(String path) {
-        Object o = root;
+    /** The value at a slash-separated path; null (the Java reference) for a JSON null. */
+    JsonValue get(String path) {
+        JsonValue o = root;
         for (String p : path.split("/")) {
             if (p.isEmpty()) {
                 continue;
             }
-            if (o instanceof Map<?, ?> m) {
-                if (!m.containsKey(p)) {
+            if (o.isObject()) {
+                if (!o.members().containsKey(p)) {
                     throw new AssertionError("no " + path + " in " + json);
                 }
-                o = m.get(p);
-            } else if (o instanceof List<?> l) {
-                o = l.get(Integer.parseInt(p));
+                o = o.get(p);
+            } else if (o.isArray()) {
+                o = o.elements().get(Integer.parseInt(p));
             } else {
                 throw new AssertionError("no " + path + " in " + json);
             }
         }
-        return o;
+        return o.isNull() ? null : o;
     }
 
     long num(String path) {
-        Object o = get(path);
-        if (!(o instanceof Double d)) {
+        JsonValue o = get(path);
+        if (o == null || !o.isNumber()) {
             throw new AssertionError(path + " is " + o + " in " + json);
         }
-        return Math.round(d);
+        return Math.round(o.asDouble());
     }
 
     double real(String path) {
-        return (Double) get(path);
+        return get(path).asDouble();
     }
 
     boolean bool(String path) {
-        return (Boolean) get(path);
+        return get(path).asBoolean();
     }
 
     String str(String path) {
-        return (String) get(path);
+        return get(path).asString();
     }
 }

@@ -1,6 +1,7 @@
 package org.lanesift.plugins.si;
 
 import java.util.Arrays;
+import org.lanesift.json.JsonWriter;
 
 /**
  * One measured quantity over a capture: count, mean, standard deviation, minimum and maximum over
@@ -119,7 +120,7 @@ final class Distribution {
     }
 
     /** Writes the summary and histogram as a JSON object under {@code name}. */
-    void write(JsonOut j, String name, int bins) {
+    void write(JsonWriter j, String name, int bins) {
         j.name(name).beginObject();
         j.field("unit", unit);
         j.field("count", count);
@@ -133,7 +134,7 @@ final class Distribution {
         j.field("from", h.lo());
         j.field("to", h.hi());
         j.field("ofFirst", keptCount);
-        j.numbers("counts", h.counts(), h.counts().length);
+        j.name("counts").inlineArray(h.counts(), h.counts().length);
         j.endObject();
         j.endObject();
     }

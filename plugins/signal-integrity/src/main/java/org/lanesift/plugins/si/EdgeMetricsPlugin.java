@@ -1,5 +1,6 @@
 package org.lanesift.plugins.si;
 
+import java.nio.charset.StandardCharsets;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
@@ -7,6 +8,8 @@ import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.Artifact;
 import org.lanesift.data.DataKind;
+import org.lanesift.json.JsonWriter;
+import org.lanesift.json.NumberStyle;
 import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.PluginDescriptor;
 import org.lanesift.plugin.PluginProvider;
@@ -117,7 +120,7 @@ public final class EdgeMetricsPlugin implements PluginProvider {
         @Override
         void done(Levels lv) {
             String id = ctx.instanceId();
-            JsonOut j = new JsonOut().beginObject();
+            JsonWriter j = JsonWriter.pretty().numberStyle(NumberStyle.significant(9)).nonFiniteAsNull().beginObject();
             j.field("instance", id);
             j.field("plugin", ID);
             j.field("channel", channel);
@@ -144,7 +147,7 @@ public final class EdgeMetricsPlugin implements PluginProvider {
             settleRise.write(j, "settlingAfterRise", BINS);
             settleFall.write(j, "settlingAfterFall", BINS);
             j.endObject();
-            ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-edges.json", "application/json", j.bytes()));
+            ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-edges.json", "application/json", (j.finish() + "\n").getBytes(StandardCharsets.UTF_8)));
             List<Plot.Panel> panels = new ArrayList<>();
             panels.add(new Plot.Panel(summary("rise 10-90 %", rise1090), "rise time 10-90 % (ps)", rise1090.histogram(BINS), 1));
             panels.add(new Plot.Panel(summary("fall 90-10 %", fall1090), "fall time 90-10 % (ps)", fall1090.histogram(BINS), 1));

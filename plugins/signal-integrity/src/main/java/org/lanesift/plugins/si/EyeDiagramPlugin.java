@@ -1,5 +1,6 @@
 package org.lanesift.plugins.si;
 
+import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.util.ArrayDeque;
 import java.util.Arrays;
@@ -11,6 +12,8 @@ import org.lanesift.data.Artifact;
 import org.lanesift.data.Block;
 import org.lanesift.data.DataKind;
 import org.lanesift.data.Edges;
+import org.lanesift.json.JsonWriter;
+import org.lanesift.json.NumberStyle;
 import org.lanesift.plugin.OptionException;
 import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.OptionValues;
@@ -382,7 +385,7 @@ public final class EyeDiagramPlugin implements PluginProvider {
         }
 
         private byte[] json(EyeAnalysis e, double uiFs) {
-            JsonOut j = new JsonOut().beginObject();
+            JsonWriter j = JsonWriter.pretty().numberStyle(NumberStyle.significant(9)).nonFiniteAsNull().beginObject();
             j.field("instance", ctx.instanceId());
             j.field("plugin", ID);
             j.field("foldedOn", clockMode ? "clock" : "bitRate");
@@ -430,7 +433,7 @@ public final class EyeDiagramPlugin implements PluginProvider {
                 j.endObject();
             }
             j.endObject();
-            return j.bytes();
+            return (j.finish() + "\n").getBytes(StandardCharsets.UTF_8);
         }
     }
 }

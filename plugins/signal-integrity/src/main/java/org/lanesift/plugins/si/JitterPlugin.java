@@ -1,5 +1,6 @@
 package org.lanesift.plugins.si;
 
+import java.nio.charset.StandardCharsets;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
@@ -9,6 +10,8 @@ import org.lanesift.data.Artifact;
 import org.lanesift.data.Block;
 import org.lanesift.data.DataKind;
 import org.lanesift.data.Edges;
+import org.lanesift.json.JsonWriter;
+import org.lanesift.json.NumberStyle;
 import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.PluginDescriptor;
 import org.lanesift.plugin.PluginProvider;
@@ -200,7 +203,7 @@ public final class JitterPlugin implements PluginProvider {
                 firstFs = 0;
                 lastFs = 0;
             }
-            JsonOut j = new JsonOut().beginObject();
+            JsonWriter j = JsonWriter.pretty().numberStyle(NumberStyle.significant(9)).nonFiniteAsNull().beginObject();
             j.field("instance", id);
             j.field("plugin", ID);
             j.field("channel", channel);
@@ -223,7 +226,7 @@ public final class JitterPlugin implements PluginProvider {
             r.period().write(j, "period", BINS);
             r.cycleToCycle().write(j, "cycleToCycle", BINS);
             j.endObject();
-            ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-jitter.json", "application/json", j.bytes()));
+            ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-jitter.json", "application/json", (j.finish() + "\n").getBytes(StandardCharsets.UTF_8)));
             ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-jitter.png", "image/png", Plot.histograms(
                     id + " jitter of '" + channel + "' (" + which + " edges, " + n + " analysed)", List.of(
                             new Plot.Panel(String.format(Locale.ROOT, "time-interval error: RMS %.3f ps, peak-to-peak %.3f ps",

@@ -1,5 +1,6 @@
 package org.lanesift.plugins.si;
 
+import java.nio.charset.StandardCharsets;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
@@ -8,6 +9,8 @@ import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.Artifact;
 import org.lanesift.data.DataKind;
+import org.lanesift.json.JsonWriter;
+import org.lanesift.json.NumberStyle;
 import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.PluginDescriptor;
 import org.lanesift.plugin.PluginProvider;
@@ -182,7 +185,7 @@ public final class RingingPlugin implements PluginProvider {
             String advice = fits.isEmpty() ? "no ringing was fitted after " + edges + " edges"
                     + (failures.isEmpty() ? "" : " (" + failures.get(0) + ")")
                     : advice(ring, l, capF * 1e12, q);
-            JsonOut j = new JsonOut().beginObject();
+            JsonWriter j = JsonWriter.pretty().numberStyle(NumberStyle.significant(9)).nonFiniteAsNull().beginObject();
             j.field("instance", id);
             j.field("plugin", ID);
             j.field("channel", channel);
@@ -234,7 +237,7 @@ public final class RingingPlugin implements PluginProvider {
             }
             j.endArray();
             j.endObject();
-            ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-ringing.json", "application/json", j.bytes()));
+            ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-ringing.json", "application/json", (j.finish() + "\n").getBytes(StandardCharsets.UTF_8)));
             Annotation.Builder a = Annotation.on(id, "ringing").span(firstFs, lastFs).label(advice)
                     .severity(!fits.isEmpty() && mm >= 20 ? Severity.WARNING : Severity.INFO)
                     .text("advice", advice);
