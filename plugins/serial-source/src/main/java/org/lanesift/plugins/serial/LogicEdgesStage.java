@@ -5,7 +5,6 @@ import org.lanesift.annotation.Severity;
 import org.lanesift.data.Block;
 import org.lanesift.data.Edges;
 import org.lanesift.data.LogicBlock;
-import org.lanesift.data.LogicEdges;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
 
@@ -13,7 +12,7 @@ import org.lanesift.plugin.StageContext;
 final class LogicEdgesStage implements Stage {
     static final String TRACK = "activity";
     private final StageContext ctx;
-    private final LogicEdges[] conv;
+    private final EdgeFinder[] conv;
     private final long[] nextIndex;
     private final long[] transitions;
     private final long[] gaps;
@@ -24,7 +23,7 @@ final class LogicEdgesStage implements Stage {
 
     LogicEdgesStage(StageContext ctx, int channels) {
         this.ctx = ctx;
-        conv = new LogicEdges[channels];
+        conv = new EdgeFinder[channels];
         nextIndex = new long[channels];
         transitions = new long[channels];
         gaps = new long[channels];
@@ -33,7 +32,7 @@ final class LogicEdgesStage implements Stage {
         shortestLowFs = new long[channels];
         names = new String[channels];
         for (int c = 0; c < channels; c++) {
-            conv[c] = new LogicEdges();
+            conv[c] = new EdgeFinder();
             nextIndex[c] = -1;
             lastEdgeFs[c] = Long.MIN_VALUE;
             shortestHighFs[c] = Long.MAX_VALUE;
@@ -75,30 +74,21 @@ final class LogicEdgesStage implements Stage {
             return;
         }
         long[] t = e.timesFs();
-        boolean level = e.initialLevel(); // the level just before t[k], here k = 0
-        long prev = lastEdgeFs[c];
-        long hi = shortestHighFs[c];
-        long lo = shortestLowFs[c];
-        int from = 0;
-        if (prev == Long.MIN_VALUE) {
-            // nothing to measure against: start from t[0]
-            prev = t[0];
-            level = !level;
-            from = 1;
+        // the interval ending at t[k] has the level before t[k]: the initial level for even k
+        long even = lastEdgeFs[c] == Long.MIN_VALUE ? Long.MAX_VALUE : t[0] - lastEdgeFs[c];
+        long odd = Long.MAX_VALUE;
+        int k = 1;
+        for (; k + 1 < n; k += 2) {
+            odd = Math.min(odd, t[k] - t[k - 1]);
+            even = Math.min(even, t[k + 1] - t[k]);
         }
-        for (int k = from; k < n; k++) {
-            long w = t[k] - prev;
-            if (level) {
-                hi = Math.min(hi, w);
-            } else {
-                lo = Math.min(lo, w);
-            }
-            prev = t[k];
-            level = !level;
+        if (k < n) {
+            odd = Math.min(odd, t[k] - t[k - 1]);
         }
-        shortestHighFs[c] = hi;
-        shortestLowFs[c] = lo;
-        lastEdgeFs[c] = prev;
+        boolean high = e.initialLevel();
+        shortestHighFs[c] = Math.min(shortestHighFs[c], high ? even : odd);
+        shortestLowFs[c] = Math.min(shortestLowFs[c], high ? odd : even);
+        lastEdgeFs[c] = t[n - 1];
     }
 
     @Override
