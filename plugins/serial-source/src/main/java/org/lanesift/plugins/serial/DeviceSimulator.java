@@ -85,6 +85,11 @@ public final class DeviceSimulator implements Runnable {
         return framesSent;
     }
 
+    /** @return true once the host sent STOP, the link went away, or {@link #stop()} was called */
+    public boolean stopped() {
+        return stopped;
+    }
+
     /** Asks the simulator to stop streaming. */
     public void stop() {
         stopped = true;

@@ -13,8 +13,8 @@ import java.util.function.BooleanSupplier;
  * only when {@code spool.closed} appears and everything has been read.
  */
 final class SpoolReader implements AutoCloseable {
-    /** What {@link #read} found. */
-    enum Event { DATA, SEGMENT_START, END }
+    /** What {@link #read} found; IDLE: nothing new yet (follow mode, after one poll wait). */
+    enum Event { DATA, SEGMENT_START, END, IDLE }
 
     private final Path dir;
     private final boolean follow;
@@ -78,7 +78,7 @@ final class SpoolReader implements AutoCloseable {
                     return Event.END;
                 }
                 Thread.sleep(pollMs);
-                continue;
+                return Event.IDLE;
             }
             int n = in.read(buf);
             if (n > 0) {
@@ -104,6 +104,7 @@ final class SpoolReader implements AutoCloseable {
                 continue;
             }
             Thread.sleep(pollMs);
+            return Event.IDLE;
         }
     }
 

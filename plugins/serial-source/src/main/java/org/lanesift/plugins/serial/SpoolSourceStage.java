@@ -99,6 +99,7 @@ final class SpoolSourceStage implements org.lanesift.plugin.Stage {
                 }
             }
             case DATA -> decoder.feed(chunk, 0, reader.lastCount());
+            case IDLE -> decoder.flush(); // the device paused: hand on what is decoded instead of holding it
             case END -> {
                 decoder.endSegment();
                 done = true;
