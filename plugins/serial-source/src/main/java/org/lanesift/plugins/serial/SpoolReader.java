@@ -110,6 +110,23 @@ final class SpoolReader implements AutoCloseable {
 
     private int last;
 
+    /**
+     * Moves forward in the current segment without reading, to {@code offset} or its end.
+     *
+     * @param offset byte offset in the segment, at least the current one
+     * @return the offset reached
+     */
+    long skipTo(long offset) throws IOException {
+        while (in != null && segmentOffset < offset) {
+            long k = in.skip(offset - segmentOffset);
+            if (k <= 0) {
+                break;
+            }
+            segmentOffset += k;
+        }
+        return segmentOffset;
+    }
+
     int lastCount() {
         return last;
     }
