@@ -137,13 +137,21 @@ public class LiveCaptureBench {
         }, "bench-decode");
         decode.start();
         long[] maxLag = {0};
+        long[] lagAt = new long[1 << 16];
+        long[] lagNs = new long[1 << 16];
+        int[] lags = {0};
         Capture.Result[] res = {null};
         Capture c = new Capture(simulator(megabytes, realTime), dir, settings());
         Thread watch = new Thread(() -> {
             while (res[0] == null) {
                 var w = c.writer();
                 if (w != null) {
-                    maxLag[0] = Math.max(maxLag[0], w.bytes() - spoolBytesOf(decodedSamples.get()));
+                    long lag = w.bytes() - spoolBytesOf(decodedSamples.get());
+                    maxLag[0] = Math.max(maxLag[0], lag);
+                    if (lags[0] < lagAt.length) {
+                        lagAt[lags[0]] = lag;
+                        lagNs[lags[0]++] = System.nanoTime();
+                    }
                 }
                 try {
                     Thread.sleep(5);
@@ -167,8 +175,16 @@ public class LiveCaptureBench {
             throw new IllegalStateException("decoded " + decodedSamples.get() + " samples of " + want);
         }
         report(what, res[0].bytes(), captureEnd - t0, decodeEnd[0] - t0, maxLag[0], lagAtEnd);
-        System.out.printf(Locale.ROOT, "    edges %d (%.2f per sample), decode finished %.0f ms after the capture%n",
-                edges.get(), edges.get() / (double) want, (decodeEnd[0] - captureEnd) / 1e6);
+        long half = t0 + (captureEnd - t0) / 2;
+        long lateMax = 0;
+        for (int i = 0; i < Math.min(lags[0], lagAt.length); i++) {
+            if (lagNs[i] >= half && lagNs[i] <= captureEnd) {
+                lateMax = Math.max(lateMax, lagAt[i]);
+            }
+        }
+        System.out.printf(Locale.ROOT, "    edges %d (%.2f per sample), lag max in the second half of the capture %.1f MB,"
+                + " decode finished %.0f ms after the capture%n", edges.get(), edges.get() / (double) want, lateMax / 1e6,
+                (decodeEnd[0] - captureEnd) / 1e6);
         return edges.get();
     }
 
