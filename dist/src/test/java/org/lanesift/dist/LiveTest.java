@@ -17,12 +17,13 @@ class LiveTest {
     @Test
     void simulatedDeviceDecodesLiveAndTheDroppedFrameIsAGap(@TempDir Path dir) throws Exception {
         Path chain = dir.resolve("live.json");
-        Files.writeString(chain, "{\"nodes\":[{\"id\":\"dev\",\"plugin\":\"spool\",\"options\":{\"dir\":\"unused\",\"channels\":2}}],"
-                + "\"wires\":[]}");
+        Files.writeString(chain, "{\"nodes\":[{\"id\":\"dev\",\"plugin\":\"spool\",\"options\":{\"dir\":\"unused\",\"channels\":2}},"
+                + "{\"id\":\"edges\",\"plugin\":\"logic-edges\",\"options\":{\"channels\":2}}],"
+                + "\"wires\":[{\"from\":\"dev.ch0\",\"to\":\"edges.in0\"},{\"from\":\"dev.ch1\",\"to\":\"edges.in1\"}]}");
         Path out = dir.resolve("cap");
         ByteArrayOutputStream o = new ByteArrayOutputStream();
         ByteArrayOutputStream e = new ByteArrayOutputStream();
-        int code = Main.run(new String[] {"live", "--simulate", "--sim-mb", "8", "--sim-faults", "drop=100", "--chain", chain.toString(),
+        int code = Main.run(new String[] {"live", "--simulate", "--sim-mb", "2", "--sim-faults", "drop=100", "--chain", chain.toString(),
             "--out", out.toString(), "--quiet"}, new PrintStream(o, true, StandardCharsets.UTF_8), new PrintStream(e, true, StandardCharsets.UTF_8));
         String all = o.toString(StandardCharsets.UTF_8) + e.toString(StandardCharsets.UTF_8);
         assertEquals(0, code, all);
@@ -30,5 +31,8 @@ class LiveTest {
         String ann = Files.readString(out.resolve("decoded").resolve("annotations.jsonl"));
         assertTrue(ann.contains("\"kind\":\"stream-gap\""), "the dropped frame is reported as a gap");
         assertTrue(Files.exists(out.resolve("decoded").resolve("signals.vcd")));
+        // the edge decode saw the gap on both channels and reset across it
+        long activityWithGap = ann.lines().filter(l -> l.contains("\"kind\":\"logic-activity\"") && l.contains("1 gaps")).count();
+        assertEquals(2, activityWithGap, ann.lines().filter(l -> l.contains("logic-activity")).toList().toString());
     }
 }

@@ -3,7 +3,10 @@ package org.lanesift.plugins.serial;
 /**
  * CRC-32C (Castagnoli): polynomial 0x1EDC6F41, reflected (table polynomial 0x82F63B78), initial
  * value 0xFFFFFFFF, final XOR 0xFFFFFFFF. The frame checksum of the device stream
- * (docs/device-stream.md). Written out here so firmware authors can read the exact algorithm.
+ * (docs/device-stream.md). {@link #update} is the byte-at-a-time table form, written out so
+ * firmware authors can read the exact algorithm; {@link #of}, on the hot paths, gives the same
+ * value through {@link java.util.zip.CRC32C}, which the JVM compiles to the processor's CRC
+ * instructions where it has them.
  */
 public final class Crc32c {
     private static final int[] TABLE = new int[256];
@@ -47,6 +50,8 @@ public final class Crc32c {
      * @return the checksum as an unsigned 32-bit value in an int
      */
     public static int of(byte[] b, int off, int len) {
-        return ~update(0xFFFFFFFF, b, off, len);
+        java.util.zip.CRC32C c = new java.util.zip.CRC32C();
+        c.update(b, off, len);
+        return (int) c.getValue();
     }
 }

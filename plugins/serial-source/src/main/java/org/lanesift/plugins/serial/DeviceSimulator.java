@@ -40,12 +40,21 @@ public final class DeviceSimulator implements Runnable {
         public long disconnectAfter = -1;
         /** First sample index and first sequence number (a reconnected device may start again at 0). */
         public long firstFrame;
+        /**
+         * Send at the sample rate, as a real device does, instead of as fast as the link takes the
+         * bytes: the rate the host configures (CONFIGURE), else {@link #rateHz}.
+         */
+        public boolean realTime;
+        /** Sample rate for {@link #realTime} when the host configures none (raw mode, no handshake), Hz. */
+        public double rateHz = 50_000_000;
     }
 
     private final SerialLink link;
     private final Plan plan;
     private volatile boolean stopped;
     private volatile long framesSent;
+    private volatile double configuredHz;
+    private long paceStartNanos;
 
     /**
      * Creates a simulator.
@@ -74,6 +83,11 @@ public final class DeviceSimulator implements Runnable {
     /** @return frames sent so far (dropped ones count) */
     public long framesSent() {
         return framesSent;
+    }
+
+    /** @return true once the host sent STOP, the link went away, or {@link #stop()} was called */
+    public boolean stopped() {
+        return stopped;
     }
 
     /** Asks the simulator to stop streaming. */
@@ -109,6 +123,9 @@ public final class DeviceSimulator implements Runnable {
             @Override
             public void frame(int code, int seq, byte[] b, int off, int len, long at) {
                 FrameType t = FrameType.of(code);
+                if (t == FrameType.CONFIGURE && len >= 4) {
+                    configuredHz = Framing.u32(b, off) & 0xFFFFFFFFL;
+                }
                 if (t == FrameType.IDENTIFY) {
                     link.write(Framing.encode(FrameType.IDENT, 0, INFO.encode()));
                 } else if (t == FrameType.CONFIGURE || t == FrameType.START || t == FrameType.STOP) {
@@ -165,6 +182,8 @@ public final class DeviceSimulator implements Runnable {
         long frame = plan.firstFrame;
         long idx = frame * spf;
         long end = plan.firstFrame * spf + plan.totalSamples;
+        long firstIdx = idx;
+        paceStartNanos = System.nanoTime();
         while (idx < end && !stopped) {
             int n = (int) Math.min(spf, end - idx);
             Framing.putU64(payload, 0, idx);
@@ -172,6 +191,7 @@ public final class DeviceSimulator implements Runnable {
                 payload[8 + i] = sample(idx + i);
             }
             if (out.length - used < 2 * frameBytes) {
+                pace(idx - firstIdx);
                 link.write(java.util.Arrays.copyOf(out, used));
                 used = 0;
             }
@@ -209,13 +229,28 @@ public final class DeviceSimulator implements Runnable {
     private void streamRaw() {
         byte[] out = new byte[1 << 16];
         long idx = 0;
+        paceStartNanos = System.nanoTime();
         while (idx < plan.totalSamples && !stopped) {
             int n = (int) Math.min(out.length, plan.totalSamples - idx);
             for (int i = 0; i < n; i++) {
                 out[i] = sample(idx + i);
             }
+            pace(idx + n);
             link.write(n == out.length ? out : java.util.Arrays.copyOf(out, n));
             idx += n;
+        }
+    }
+
+    /** In real time, waits until {@code samples} samples' time has passed since streaming began. */
+    private void pace(long samples) {
+        if (!plan.realTime) {
+            return;
+        }
+        double hz = configuredHz > 0 ? configuredHz : plan.rateHz;
+        long due = paceStartNanos + (long) (samples * 1e9 / hz);
+        long wait;
+        while ((wait = due - System.nanoTime()) > 0 && !stopped) {
+            java.util.concurrent.locks.LockSupport.parkNanos(wait);
         }
     }
 

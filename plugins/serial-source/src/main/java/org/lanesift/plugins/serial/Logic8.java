@@ -7,6 +7,9 @@ package org.lanesift.plugins.serial;
  * "Transposing a Bit Matrix").
  */
 final class Logic8 {
+    private static final java.lang.invoke.VarHandle LE64 =
+            java.lang.invoke.MethodHandles.byteArrayViewVarHandle(long[].class, java.nio.ByteOrder.LITTLE_ENDIAN);
+
     private Logic8() {
     }
 
@@ -31,21 +34,42 @@ final class Logic8 {
      */
     static void split(byte[] b, int n, int channels, long[][] out) {
         int words = (n + 63) >>> 6;
-        for (int c = 0; c < channels; c++) {
-            java.util.Arrays.fill(out[c], 0, words, 0L);
-        }
-        int full = n & ~7;
-        for (int i = 0; i < full; i += 8) {
-            long x = (b[i] & 0xFFL) | (b[i + 1] & 0xFFL) << 8 | (b[i + 2] & 0xFFL) << 16 | (b[i + 3] & 0xFFL) << 24
-                    | (b[i + 4] & 0xFFL) << 32 | (b[i + 5] & 0xFFL) << 40 | (b[i + 6] & 0xFFL) << 48 | (b[i + 7] & 0xFFL) << 56;
-            long t = transpose8(x);
-            int w = i >>> 6;
-            int sh = i & 63;
-            for (int c = 0; c < channels; c++) {
-                out[c][w] |= ((t >>> (8 * c)) & 0xFFL) << sh;
+        int fullWords = n >>> 6;
+        // whole words: eight 8x8 transposes make 64 samples of every channel, kept in registers
+        for (int w = 0; w < fullWords; w++) {
+            long a0 = 0, a1 = 0, a2 = 0, a3 = 0, a4 = 0, a5 = 0, a6 = 0, a7 = 0;
+            int base = w << 6;
+            for (int k = 0; k < 8; k++) {
+                long t = transpose8((long) LE64.get(b, base + 8 * k));
+                int sh = 8 * k;
+                a0 |= (t & 0xFFL) << sh;
+                a1 |= (t >>> 8 & 0xFFL) << sh;
+                a2 |= (t >>> 16 & 0xFFL) << sh;
+                a3 |= (t >>> 24 & 0xFFL) << sh;
+                a4 |= (t >>> 32 & 0xFFL) << sh;
+                a5 |= (t >>> 40 & 0xFFL) << sh;
+                a6 |= (t >>> 48 & 0xFFL) << sh;
+                a7 |= (t >>> 56) << sh;
+            }
+            switch (channels) {
+                case 8: out[7][w] = a7; // fall through
+                case 7: out[6][w] = a6; // fall through
+                case 6: out[5][w] = a5; // fall through
+                case 5: out[4][w] = a4; // fall through
+                case 4: out[3][w] = a3; // fall through
+                case 3: out[2][w] = a2; // fall through
+                case 2: out[1][w] = a1; // fall through
+                default: out[0][w] = a0;
             }
         }
-        for (int i = full; i < n; i++) {
+        if (fullWords == words) {
+            return;
+        }
+        // the last, partial word, sample by sample
+        for (int c = 0; c < channels; c++) {
+            out[c][fullWords] = 0L;
+        }
+        for (int i = fullWords << 6; i < n; i++) {
             int v = b[i];
             for (int c = 0; c < channels; c++) {
                 if ((v & (1 << c)) != 0) {

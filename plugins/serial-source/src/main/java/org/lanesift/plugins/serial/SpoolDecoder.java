@@ -37,6 +37,7 @@ final class SpoolDecoder {
     private long corruptRuns;
     private long duplicates;
     private long samples;
+    private long dropBefore;
 
     SpoolDecoder(SpoolHeader header, int blockSamples, Out out) {
         this.header = header;
@@ -61,6 +62,75 @@ final class SpoolDecoder {
         return samples;
     }
 
+    /** Samples (and gaps, corrupt runs, repeats) before this capture-wide index are left out (a replay from a start time). */
+    void dropBefore(long index) {
+        dropBefore = index;
+    }
+
+    /** @return the index the next good sample is expected at, or -1 before the first */
+    long expectedIndex() {
+        return expectedIndex;
+    }
+
+    /** @return what is added to the device's sample index to make the capture-wide one */
+    long shift() {
+        return shift;
+    }
+
+    /**
+     * Framed: applies the start-of-segment rules to the segment's first frame, known from its
+     * index, as if it had been read (the reconnect gap, a device that counts from 0 again).
+     *
+     * @param deviceIndex the first DATA frame's sample index as the device sent it
+     */
+    void enterSegment(long deviceIndex) {
+        if (!segmentStart) {
+            return;
+        }
+        segmentStart = false;
+        long idx = deviceIndex + shift;
+        if (expectedIndex >= 0) {
+            if (idx < expectedIndex) {
+                long resume = expectedIndex + wallGapSamples();
+                shift += resume - idx;
+                idx = resume;
+            }
+            if (idx > expectedIndex) {
+                gap(expectedIndex, idx, -1, "reconnect");
+            }
+        }
+        expectedIndex = idx;
+    }
+
+    /**
+     * Framed: continues the current segment at an indexed frame instead of its start: its bytes
+     * begin at {@code segmentOffset}, its first sample has capture-wide index {@code index}.
+     */
+    void resumeAt(long segmentOffset, long index) {
+        frames = new FrameDecoder(frameListener(), segmentOffset);
+        expectedIndex = index;
+        expectedSeq = -1;
+    }
+
+    /**
+     * Raw: applies the start-of-segment rules, then passes over {@code bytes} samples unread.
+     *
+     * @param bytes samples (bytes) of the segment skipped
+     */
+    void skipRaw(long bytes) {
+        if (segmentStart) {
+            segmentStart = false;
+            if (expectedIndex < 0) {
+                expectedIndex = 0;
+            } else {
+                long resume = expectedIndex + wallGapSamples();
+                gap(expectedIndex, resume, -1, "reconnect");
+                expectedIndex = resume;
+            }
+        }
+        expectedIndex += bytes;
+    }
+
     /** Starts segment {@code n}; times in epoch ms of its opening and of the previous close (or -1). */
     void beginSegment(int n, long openedEpochMs, long previousClosedEpochMs) {
         endSegment();
@@ -70,18 +140,22 @@ final class SpoolDecoder {
         prevClosedEpochMs = previousClosedEpochMs;
         expectedSeq = -1;
         if (header.framed()) {
-            frames = new FrameDecoder(new FrameDecoder.Listener() {
-                @Override
-                public void frame(int code, int seq, byte[] buf, int off, int len, long at) {
-                    onFrame(code, seq, buf, off, len, at);
-                }
-
-                @Override
-                public void skipped(long at, long length, int crc) {
-                    onSkipped(at, length, crc);
-                }
-            });
+            frames = new FrameDecoder(frameListener());
         }
+    }
+
+    private FrameDecoder.Listener frameListener() {
+        return new FrameDecoder.Listener() {
+            @Override
+            public void frame(int code, int seq, byte[] buf, int off, int len, long at) {
+                onFrame(code, seq, buf, off, len, at);
+            }
+
+            @Override
+            public void skipped(long at, long length, int crc) {
+                onSkipped(at, length, crc);
+            }
+        };
     }
 
     void feed(byte[] b, int off, int len) {
@@ -168,6 +242,12 @@ final class SpoolDecoder {
     }
 
     private void append(byte[] b, int off, int len) {
+        if (expectedIndex < dropBefore) {
+            int k = (int) Math.min(len, dropBefore - expectedIndex);
+            expectedIndex += k;
+            off += k;
+            len -= k;
+        }
         while (len > 0) {
             if (runLen == 0) {
                 runFirst = expectedIndex;
@@ -197,6 +277,13 @@ final class SpoolDecoder {
     }
 
     private void gap(long fromIndex, long toIndex, long missingFrames, String cause) {
+        if (toIndex <= dropBefore) {
+            return;
+        }
+        if (fromIndex < dropBefore) {
+            fromIndex = dropBefore; // only the part after the start time is reported
+            missingFrames = -1;
+        }
         flush();
         gaps++;
         Annotation.Builder a = Annotation.on(TRACK, "stream-gap").span(fs(fromIndex), fs(toIndex)).severity(Severity.ERROR)
@@ -210,6 +297,9 @@ final class SpoolDecoder {
     }
 
     private void corrupt(long at, long length, int crc, String what) {
+        if (expectedIndex < dropBefore) {
+            return;
+        }
         corruptRuns++;
         long t = fs(Math.max(0, expectedIndex));
         out.annotate(Annotation.on(TRACK, "stream-corrupt").span(t, t).severity(Severity.WARNING)
@@ -218,6 +308,9 @@ final class SpoolDecoder {
     }
 
     private void duplicate(long idx, int n, long seq) {
+        if (idx + n <= dropBefore) {
+            return;
+        }
         duplicates++;
         out.annotate(Annotation.on(TRACK, "stream-duplicate").span(fs(idx), fs(idx + n)).severity(Severity.WARNING)
                 .label("frame " + seq + " repeated or out of order; its samples are dropped").number("seq", seq, "")

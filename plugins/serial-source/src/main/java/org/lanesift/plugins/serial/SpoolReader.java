@@ -13,8 +13,8 @@ import java.util.function.BooleanSupplier;
  * only when {@code spool.closed} appears and everything has been read.
  */
 final class SpoolReader implements AutoCloseable {
-    /** What {@link #read} found. */
-    enum Event { DATA, SEGMENT_START, END }
+    /** What {@link #read} found; IDLE: nothing new yet (follow mode, after one poll wait). */
+    enum Event { DATA, SEGMENT_START, END, IDLE }
 
     private final Path dir;
     private final boolean follow;
@@ -78,7 +78,7 @@ final class SpoolReader implements AutoCloseable {
                     return Event.END;
                 }
                 Thread.sleep(pollMs);
-                continue;
+                return Event.IDLE;
             }
             int n = in.read(buf);
             if (n > 0) {
@@ -104,10 +104,28 @@ final class SpoolReader implements AutoCloseable {
                 continue;
             }
             Thread.sleep(pollMs);
+            return Event.IDLE;
         }
     }
 
     private int last;
+
+    /**
+     * Moves forward in the current segment without reading, to {@code offset} or its end.
+     *
+     * @param offset byte offset in the segment, at least the current one
+     * @return the offset reached
+     */
+    long skipTo(long offset) throws IOException {
+        while (in != null && segmentOffset < offset) {
+            long k = in.skip(offset - segmentOffset);
+            if (k <= 0) {
+                break;
+            }
+            segmentOffset += k;
+        }
+        return segmentOffset;
+    }
 
     int lastCount() {
         return last;

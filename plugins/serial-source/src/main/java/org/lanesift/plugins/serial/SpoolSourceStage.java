@@ -27,6 +27,7 @@ final class SpoolSourceStage implements org.lanesift.plugin.Stage {
     private long lastClosedEpochMs = -1;
     private long lastPosWrite;
     private boolean done;
+    private long startSample;
 
     SpoolSourceStage(StageContext ctx, Path dir) {
         this.ctx = ctx;
@@ -51,6 +52,11 @@ final class SpoolSourceStage implements org.lanesift.plugin.Stage {
             throw new DeviceException("spool " + dir + ": holds " + header.channels() + " channels but option 'channels' asks for " + channels);
         }
         periodFs = 1e15 / header.rateHz();
+        double startFs = ctx.options().getTime("start").toFs(periodFs, Double.NaN);
+        if (!(startFs >= 0)) {
+            throw new DeviceException("option 'start' of plugin 'spool': expected a time from 0, got " + ctx.options().getTime("start"));
+        }
+        startSample = (long) Math.ceil(startFs / periodFs - 1e-9);
         decoder = new SpoolDecoder(header, blockSamples, new SpoolDecoder.Out() {
             @Override
             public void samples(long firstIndex, byte[] b, int n) {
@@ -62,6 +68,7 @@ final class SpoolSourceStage implements org.lanesift.plugin.Stage {
                 ctx.annotate(a);
             }
         });
+        decoder.dropBefore(startSample);
         reader = new SpoolReader(dir, follow, POLL_MS, ctx::isCancelled);
         return true;
     }
@@ -92,6 +99,9 @@ final class SpoolSourceStage implements org.lanesift.plugin.Stage {
                 Properties info = reader.segmentInfo();
                 long opened = parse(info.getProperty("openedEpochMs"));
                 decoder.beginSegment(reader.segment(), opened, lastClosedEpochMs);
+                if (startSample > 0) {
+                    seek();
+                }
                 if (reader.segment() > 1) {
                     ctx.annotate(Annotation.on(SpoolDecoder.TRACK, "stream-segment").severity(Severity.INFO)
                             .label("segment " + reader.segment() + " (" + info.getProperty("reason", "?") + ")")
@@ -99,6 +109,7 @@ final class SpoolSourceStage implements org.lanesift.plugin.Stage {
                 }
             }
             case DATA -> decoder.feed(chunk, 0, reader.lastCount());
+            case IDLE -> decoder.flush(); // the device paused: hand on what is decoded instead of holding it
             case END -> {
                 decoder.endSegment();
                 done = true;
@@ -110,6 +121,65 @@ final class SpoolSourceStage implements org.lanesift.plugin.Stage {
         ctx.progress(decoder.samples(), -1);
         writePosition(false);
         return !done;
+    }
+
+    /**
+     * At the start of a segment, replaying from {@code start}: passes over what lies before it
+     * without reading it, the whole segment if it ends before the start, else up to the last
+     * indexed frame that begins at or before it (framed), or to the start sample (raw).
+     */
+    private void seek() throws IOException {
+        int seg = reader.segment();
+        boolean closed = Files.exists(SpoolFiles.segmentClosed(dir, seg));
+        long size = Files.size(SpoolFiles.segment(dir, seg));
+        if (!header.framed()) {
+            decoder.skipRaw(0); // applies the segment-start rules; the index after them is the segment's first
+            long base = decoder.expectedIndex();
+            long skip = Math.max(0, Math.min(startSample - base, size));
+            decoder.skipRaw(reader.skipTo(skip));
+            return;
+        }
+        Path idx = SpoolFiles.index(dir, seg);
+        if (!Files.exists(idx)) {
+            return;
+        }
+        byte[] rec = new byte[SpoolWriter.INDEX_RECORD];
+        boolean first = true;
+        long seekOffset = -1;
+        long seekIndex = -1;
+        long end = -1;
+        try (java.io.InputStream in = new java.io.BufferedInputStream(Files.newInputStream(idx), 1 << 16)) {
+            while (in.readNBytes(rec, 0, rec.length) == rec.length) {
+                if (rec[0] != SpoolWriter.REC_FRAME) {
+                    continue;
+                }
+                long sampleIndex = Framing.u64(rec, 24);
+                long offset = Framing.u64(rec, 8);
+                int samples = Framing.u32(rec, 16) - Framing.HEADER - 8 - Framing.TRAILER;
+                if (first) {
+                    first = false;
+                    decoder.enterSegment(sampleIndex);
+                }
+                long at = sampleIndex + decoder.shift();
+                // a repeated or late frame (behind what came before it) is no place to resume at
+                if (at >= end && at <= startSample && offset > seekOffset) {
+                    seekOffset = offset;
+                    seekIndex = at;
+                }
+                end = Math.max(end, at + samples);
+            }
+        }
+        if (first) {
+            return; // nothing indexed yet: read the segment from its start
+        }
+        if (closed && end <= startSample && end >= 0) {
+            // the whole segment lies before the start: continue as if it had been read
+            decoder.resumeAt(size, end);
+            reader.skipTo(size);
+        } else if (seekOffset > 0) {
+            decoder.resumeAt(seekOffset, seekIndex);
+            reader.skipTo(seekOffset);
+        }
     }
 
     private void trackClose() throws IOException {

@@ -18,7 +18,14 @@ final class Replayed {
     long samples;
 
     Replayed(Path dir) {
-        try (StageHarness h = StageHarness.of(new SpoolSourceProvider(), Map.of("dir", dir.toString()))) {
+        this(dir, Map.of());
+    }
+
+    /** Replays with more options of the spool source, such as {@code start}. */
+    Replayed(Path dir, Map<String, ?> more) {
+        Map<String, Object> options = new java.util.HashMap<>(more);
+        options.put("dir", dir.toString());
+        try (StageHarness h = StageHarness.of(new SpoolSourceProvider(), options)) {
             h.run();
             List<List<LogicBlock>> ch = new ArrayList<>();
             for (int c = 0; c < 8; c++) {
@@ -47,6 +54,12 @@ final class Replayed {
             }
             annotations = h.annotations();
         }
+    }
+
+    /** A number field of the one annotation of a kind. */
+    double field(String kind, String name) {
+        Annotation a = annotations.stream().filter(x -> x.kind().equals(kind)).findFirst().orElseThrow();
+        return ((Number) a.fields().get(name).value()).doubleValue();
     }
 
     long count(String kind) {

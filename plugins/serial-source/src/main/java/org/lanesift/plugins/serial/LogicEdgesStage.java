@@ -1,0 +1,110 @@
+package org.lanesift.plugins.serial;
+
+import org.lanesift.annotation.Annotation;
+import org.lanesift.annotation.Severity;
+import org.lanesift.data.Block;
+import org.lanesift.data.Edges;
+import org.lanesift.data.LogicBlock;
+import org.lanesift.plugin.Stage;
+import org.lanesift.plugin.StageContext;
+
+/** The running {@code logic-edges} stage: one stateful converter and one activity record per channel. */
+final class LogicEdgesStage implements Stage {
+    static final String TRACK = "activity";
+    private final StageContext ctx;
+    private final EdgeFinder[] conv;
+    private final long[] nextIndex;
+    private final long[] transitions;
+    private final long[] gaps;
+    private final long[] lastEdgeFs;
+    private final long[] shortestHighFs;
+    private final long[] shortestLowFs;
+    private final String[] names;
+
+    LogicEdgesStage(StageContext ctx, int channels) {
+        this.ctx = ctx;
+        conv = new EdgeFinder[channels];
+        nextIndex = new long[channels];
+        transitions = new long[channels];
+        gaps = new long[channels];
+        lastEdgeFs = new long[channels];
+        shortestHighFs = new long[channels];
+        shortestLowFs = new long[channels];
+        names = new String[channels];
+        for (int c = 0; c < channels; c++) {
+            conv[c] = new EdgeFinder();
+            nextIndex[c] = -1;
+            lastEdgeFs[c] = Long.MIN_VALUE;
+            shortestHighFs[c] = Long.MAX_VALUE;
+            shortestLowFs[c] = Long.MAX_VALUE;
+        }
+    }
+
+    @Override
+    public void accept(int input, Block block) {
+        LogicBlock b = (LogicBlock) block;
+        if (names[input] == null) {
+            names[input] = b.channel();
+        }
+        if (nextIndex[input] >= 0 && b.firstIndex() != nextIndex[input]) {
+            if (b.firstIndex() < nextIndex[input]) {
+                throw new IllegalArgumentException("input 'in" + input + "' (" + b.channel() + "): block starts at sample "
+                        + b.firstIndex() + " but the previous one ended at sample " + nextIndex[input]
+                        + "; blocks must come in time order without overlap");
+            }
+            conv[input].reset(); // a gap: the level before it says nothing about the level after it
+            lastEdgeFs[input] = Long.MIN_VALUE;
+            gaps[input]++;
+        }
+        nextIndex[input] = b.firstIndex() + b.length();
+        Edges e = conv[input].toEdges(b);
+        measure(input, e);
+        ctx.emit(input, e);
+    }
+
+    /** Counts transitions and keeps the shortest pulse between two transitions of one gap-free stretch. */
+    private void measure(int c, Edges e) {
+        int n = e.count();
+        if (n == 0) {
+            return;
+        }
+        transitions[c] += n;
+        if (e.invalidCount() > 0) {
+            lastEdgeFs[c] = Long.MIN_VALUE; // an unknown span may hide edges: no pulse is measured across it
+            return;
+        }
+        long[] t = e.timesFs();
+        // the interval ending at t[k] has the level before t[k]: the initial level for even k
+        long even = lastEdgeFs[c] == Long.MIN_VALUE ? Long.MAX_VALUE : t[0] - lastEdgeFs[c];
+        long odd = Long.MAX_VALUE;
+        int k = 1;
+        for (; k + 1 < n; k += 2) {
+            odd = Math.min(odd, t[k] - t[k - 1]);
+            even = Math.min(even, t[k + 1] - t[k]);
+        }
+        if (k < n) {
+            odd = Math.min(odd, t[k] - t[k - 1]);
+        }
+        boolean high = e.initialLevel();
+        shortestHighFs[c] = Math.min(shortestHighFs[c], high ? even : odd);
+        shortestLowFs[c] = Math.min(shortestLowFs[c], high ? odd : even);
+        lastEdgeFs[c] = t[n - 1];
+    }
+
+    @Override
+    public void finish() {
+        for (int c = 0; c < conv.length; c++) {
+            String name = names[c] == null ? "in" + c : names[c];
+            Annotation.Builder a = Annotation.on(TRACK, "logic-activity").severity(Severity.INFO)
+                    .label(name + ": " + transitions[c] + " transitions" + (gaps[c] > 0 ? ", " + gaps[c] + " gaps" : ""))
+                    .text("channel", name).number("transitions", transitions[c], "").number("gaps", gaps[c], "");
+            if (shortestHighFs[c] != Long.MAX_VALUE) {
+                a.number("shortestHighFs", shortestHighFs[c], "fs");
+            }
+            if (shortestLowFs[c] != Long.MAX_VALUE) {
+                a.number("shortestLowFs", shortestLowFs[c], "fs");
+            }
+            ctx.annotate(a.build());
+        }
+    }
+}

@@ -1,0 +1,108 @@
+package org.lanesift.plugins.serial;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+import static org.junit.jupiter.api.Assumptions.assumeTrue;
+
+import java.io.ByteArrayOutputStream;
+import java.io.PrintStream;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.concurrent.atomic.AtomicInteger;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+/**
+ * {@code lanesift simulate-device} on one end of a socat pty pair (Debian package socat), a
+ * capture on the other, as the README shows. Skips without socat unless env CI=true.
+ */
+class DeviceSimToolTest {
+    @TempDir
+    Path tmp;
+
+    @Test
+    void simulatorToolOnAPtyIsCapturedFromTheOtherEndAndStopsOnTheHostsStop() throws Exception {
+        if (!PtyCaptureTest.haveSocat()) {
+            assertTrue(!"true".equals(System.getenv("CI")), "socat is required in CI (apt-get install -y socat)");
+            assumeTrue(false, "socat not installed");
+        }
+        Path a = tmp.resolve("ttyHost");
+        Path b = tmp.resolve("ttyDevice");
+        Process socat = new ProcessBuilder("socat", "-d", "-d", "pty,raw,echo=0,link=" + a, "pty,raw,echo=0,link=" + b)
+                .redirectErrorStream(true).redirectOutput(tmp.resolve("socat.log").toFile()).start();
+        try {
+            for (int i = 0; i < 100 && !(Files.exists(a) && Files.exists(b)); i++) {
+                Thread.sleep(50);
+            }
+            assertTrue(Files.exists(a) && Files.exists(b), "socat made no pty pair");
+            ByteArrayOutputStream err = new ByteArrayOutputStream();
+            AtomicInteger code = new AtomicInteger(-1);
+            Thread dev = new Thread(() -> code.set(new DeviceSimTool().run(new String[] {"--port", b.toString(), "--mb", "2",
+                "--faults", "drop=5"}, System.out, new PrintStream(err, true, StandardCharsets.UTF_8))), "simulate-device");
+            dev.start();
+            Path dir = tmp.resolve("spool");
+            JSerialCommPorts ports = new JSerialCommPorts();
+            Capture c = new Capture(() -> ports.open(a.toString(), 115200), dir, new Capture.Settings());
+            Capture.Result[] result = {null};
+            Thread cap = new Thread(() -> {
+                try {
+                    result[0] = c.run();
+                } catch (Exception e) {
+                    throw new IllegalStateException(e);
+                }
+            }, "capture");
+            cap.start();
+            int spf = new DeviceSimulator.Plan().samplesPerFrame;
+            long frames = (2_000_000L + spf - 1) / spf;
+            long wantFrames = frames - 1; // frame 5 dropped
+            long deadline = System.nanoTime() + 60_000_000_000L;
+            while (System.nanoTime() < deadline && (c.writer() == null || c.writer().frames() < wantFrames)) {
+                Thread.sleep(20);
+            }
+            assertTrue(dev.isAlive(), "the simulator keeps the port open after the last sample until the host stops it");
+            c.stop(); // sends STOP
+            cap.join(30_000);
+            dev.join(30_000);
+            assertEquals(0, code.get(), err.toString(StandardCharsets.UTF_8));
+            assertTrue(err.toString(StandardCharsets.UTF_8).contains("the host stopped the stream"), err.toString(StandardCharsets.UTF_8));
+            assertEquals(wantFrames, result[0].frames());
+            Replayed p = new Replayed(dir);
+            assertEquals(1, p.count("stream-gap"));
+            assertEquals(2_000_000L - spf, p.samples);
+        } finally {
+            socat.destroy();
+            socat.waitFor();
+        }
+    }
+
+    @Test
+    void withoutAPortItSaysWhatIsMissing() {
+        ByteArrayOutputStream err = new ByteArrayOutputStream();
+        int code = new DeviceSimTool(new FakePorts()).run(new String[] {"--mb", "1"}, System.out, new PrintStream(err, true, StandardCharsets.UTF_8));
+        assertEquals(2, code);
+        assertTrue(err.toString(StandardCharsets.UTF_8).contains("--port NAME is required"), err.toString(StandardCharsets.UTF_8));
+    }
+
+    /** Ports that are never there. */
+    static final class FakePorts implements SerialPorts {
+        @Override
+        public java.util.List<PortInfo> list() {
+            return java.util.List.of();
+        }
+
+        @Override
+        public SerialLink open(String name, int baudRate) {
+            throw new DeviceException("--port " + name + ": no such port");
+        }
+    }
+
+    @Test
+    void aPortThatCannotBeOpenedIsExitOneNamingIt() {
+        ByteArrayOutputStream err = new ByteArrayOutputStream();
+        int code = new DeviceSimTool(new FakePorts()).run(new String[] {"--port", "/dev/nothing-here"}, System.out,
+                new PrintStream(err, true, StandardCharsets.UTF_8));
+        assertEquals(1, code);
+        assertTrue(err.toString(StandardCharsets.UTF_8).contains("/dev/nothing-here"), err.toString(StandardCharsets.UTF_8));
+    }
+}
