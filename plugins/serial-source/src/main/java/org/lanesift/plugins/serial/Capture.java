@@ -76,7 +76,9 @@ public final class Capture {
         long t0 = System.nanoTime();
         SerialLink l = opener.get();
         link = l;
-        SpoolWriter w = new SpoolWriter(dir, new SpoolHeader(!s.raw, s.raw ? s.rateHz : Math.max(1, s.rateHz), s.channels, "", ""));
+        // framed: the rate and channels are provisional until the device identifies itself
+        SpoolWriter w = new SpoolWriter(dir, new SpoolHeader(!s.raw, s.raw ? s.rateHz : Math.max(1, s.rateHz), s.channels, "", ""),
+                !s.raw);
         writer = w;
         String reason = "stop";
         byte[] buf = new byte[1 << 16];

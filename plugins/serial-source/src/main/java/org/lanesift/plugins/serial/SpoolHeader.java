@@ -34,7 +34,18 @@ public record SpoolHeader(boolean framed, double rateHz, int channels, String mo
     }
 
     void write(Path dir) throws IOException {
+        write(dir, false);
+    }
+
+    /**
+     * Writes the header; a provisional one (before the device has said its rate and channels)
+     * carries {@code provisional=true}, and a spool follower waits for the final one.
+     */
+    void write(Path dir, boolean provisional) throws IOException {
         Properties p = new Properties();
+        if (provisional) {
+            p.setProperty("provisional", "true");
+        }
         p.setProperty("version", "1");
         p.setProperty("mode", framed ? "framed" : "raw");
         p.setProperty("format", "logic8");
@@ -43,6 +54,11 @@ public record SpoolHeader(boolean framed, double rateHz, int channels, String mo
         p.setProperty("model", model);
         p.setProperty("firmware", firmware);
         SpoolFiles.writeAtomically(dir.resolve(SpoolFiles.HEADER), p);
+    }
+
+    /** Whether the header in {@code dir} is still the provisional one written before the identification exchange. */
+    static boolean isProvisional(Path dir) throws IOException {
+        return "true".equals(SpoolFiles.read(dir.resolve(SpoolFiles.HEADER)).getProperty("provisional"));
     }
 
     static SpoolHeader read(Path dir) throws IOException {

@@ -41,7 +41,10 @@ final class SpoolSourceStage implements org.lanesift.plugin.Stage {
     }
 
     private boolean start() throws IOException, InterruptedException {
-        while (!Files.isRegularFile(dir.resolve(SpoolFiles.HEADER))) {
+        // following a capture: wait for the header, and for the final one (after the identification
+        // exchange) rather than the provisional rate written before it
+        while (!Files.isRegularFile(dir.resolve(SpoolFiles.HEADER))
+                || (follow && SpoolHeader.isProvisional(dir) && !Files.exists(dir.resolve(SpoolFiles.CLOSED)))) {
             if (ctx.isCancelled()) {
                 return false;
             }

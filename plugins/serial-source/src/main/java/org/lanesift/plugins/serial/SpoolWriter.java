@@ -47,13 +47,27 @@ public final class SpoolWriter implements AutoCloseable {
      * @throws IOException if the directory already holds a spool or cannot be written
      */
     public SpoolWriter(Path dir, SpoolHeader header) throws IOException {
+        this(dir, header, false);
+    }
+
+    /**
+     * Opens a new spool whose header may be provisional: written at once, so that a spool is never
+     * without one, but marked so that a follower waits for {@link #updateHeader} (the rate and
+     * channel count the device reports) before it decodes.
+     *
+     * @param dir         the directory
+     * @param header      what the spool holds so far
+     * @param provisional whether the header will be replaced after the identification exchange
+     * @throws IOException if the directory already holds a spool or cannot be written
+     */
+    public SpoolWriter(Path dir, SpoolHeader header, boolean provisional) throws IOException {
         this.dir = dir;
         this.header = header;
         Files.createDirectories(dir);
         if (Files.exists(dir.resolve(SpoolFiles.HEADER))) {
             throw new DeviceException(dir + ": already holds a spool (" + SpoolFiles.HEADER + "); choose an empty directory");
         }
-        header.write(dir);
+        header.write(dir, provisional);
         openSegment("start");
     }
 
