@@ -134,6 +134,10 @@ final class RawReader implements CaptureReader {
             }
             bb.flip();
             int got = bb.remaining() / frame;
+            if (sc.format == RawSidecar.Format.INT16LE || sc.format == RawSidecar.Format.INT16BE) {
+                row = int16(got, row, v, inv, n, clip);
+                continue;
+            }
             for (int i = 0; i < got; i++, row++) {
                 for (int k = 0; k < nch; k++) {
                     double code;
@@ -176,6 +180,43 @@ final class RawReader implements CaptureReader {
         }
         pos += n;
         return true;
+    }
+
+    private short[] codes = new short[0];
+
+    /**
+     * The common 16-bit case without a per-sample format switch: the frames are read as one
+     * array of codes, then each channel is converted in one tight loop.
+     */
+    private int int16(int got, int row, float[][] v, long[][] inv, int n, boolean clip) {
+        int values = got * nch;
+        if (codes.length < values) {
+            codes = new short[values];
+        }
+        bb.asShortBuffer().get(codes, 0, values);
+        bb.position(bb.position() + 2 * values);
+        for (int k = 0; k < nch; k++) {
+            float[] out = v[k];
+            double g = sc.gain[k];
+            double o = sc.offset[k];
+            for (int i = 0, j = k; i < got; i++, j += nch) {
+                int c = codes[j];
+                out[row + i] = (float) (c * g + o);
+            }
+            if (clip) {
+                for (int i = 0, j = k; i < got; i++, j += nch) {
+                    int c = codes[j];
+                    if (c == Short.MIN_VALUE || c == Short.MAX_VALUE) {
+                        if (inv[k] == null) {
+                            inv[k] = new long[(n + 63) >>> 6];
+                        }
+                        int r = row + i;
+                        inv[k][r >>> 6] |= 1L << r;
+                    }
+                }
+            }
+        }
+        return row + got;
     }
 
     @Override

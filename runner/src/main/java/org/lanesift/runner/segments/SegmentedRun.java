@@ -421,14 +421,12 @@ public final class SegmentedRun {
                 return e.slice(from, to);
             }
             LogicBlock l = (LogicBlock) b;
-            int i0 = 0;
-            while (i0 < l.length() && l.timeFs(i0) < from) {
-                i0++;
+            int n0 = l.length();
+            if (n0 == 0 || (l.timeFs(0) >= from && l.timeFs(n0 - 1) < to)) {
+                return n0 == 0 ? null : l;
             }
-            int i1 = i0;
-            while (i1 < l.length() && l.timeFs(i1) < to) {
-                i1++;
-            }
+            int i0 = firstAtOrAfter(l, from);
+            int i1 = firstAtOrAfter(l, to);
             if (i1 == i0) {
                 return null;
             }
@@ -438,6 +436,21 @@ public final class SegmentedRun {
             int n = i1 - i0;
             return new LogicBlock(l.channel(), l.firstIndex() + i0, l.timeFs(i0), l.periodFs(), bits(l.bits(), i0, n), n,
                     l.invalid() == null ? null : bits(l.invalid(), i0, n));
+        }
+
+        /** Index of the first sample at or after time t (sample times increase), or the length. */
+        private static int firstAtOrAfter(LogicBlock l, long t) {
+            int lo = 0;
+            int hi = l.length();
+            while (lo < hi) {
+                int mid = (lo + hi) >>> 1;
+                if (l.timeFs(mid) < t) {
+                    lo = mid + 1;
+                } else {
+                    hi = mid;
+                }
+            }
+            return lo;
         }
 
         static long[] bits(long[] src, int from, int n) {
