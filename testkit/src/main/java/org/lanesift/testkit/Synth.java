@@ -203,31 +203,14 @@ public final class Synth {
     public static List<Edges> split(Edges e, long... cutsFs) {
         List<Edges> out = new ArrayList<>();
         long start = e.startFs();
-        int k = 0;
-        boolean level = e.initialLevel();
         long[] bounds = Arrays.copyOf(cutsFs, cutsFs.length + 1);
         bounds[cutsFs.length] = e.endFs();
         for (long end : bounds) {
-            int from = k;
-            while (k < e.count() && e.timesFs()[k] < end) {
-                k++;
-            }
-            long[] spans = new long[2 * e.invalidCount()];
-            int ns = 0;
-            for (int i = 0; i < e.invalidCount(); i++) {
-                long a = Math.max(start, e.invalidSpans()[2 * i]);
-                long z = Math.min(end, e.invalidSpans()[2 * i + 1]);
-                if (a < z) {
-                    spans[2 * ns] = a;
-                    spans[2 * ns + 1] = z;
-                    ns++;
-                }
-            }
-            long[] t = Arrays.copyOfRange(e.timesFs(), from, k);
-            out.add(new Edges(e.channel(), start, end, level, t, t.length, spans, ns));
-            if (((k - from) & 1) == 1) {
-                level = !level;
-            }
+            Edges piece = e.slice(start, end);
+            // a piece covering the whole block is still a copy of its own, as the callers expect
+            out.add(piece == e ? new Edges(e.channel(), e.startFs(), e.endFs(), e.initialLevel(), Arrays.copyOf(e.timesFs(), e.count()),
+                    e.count(), e.invalidSpans() == null ? null : Arrays.copyOf(e.invalidSpans(), 2 * e.invalidCount()), e.invalidCount())
+                    : piece);
             start = end;
         }
         return out;

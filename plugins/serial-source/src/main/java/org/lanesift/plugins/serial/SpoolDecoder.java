@@ -88,9 +88,16 @@ final class SpoolDecoder {
             return;
         }
         segmentStart = false;
-        long idx = deviceIndex + shift;
+        expectedIndex = resume(deviceIndex + shift);
+    }
+
+    /**
+     * The capture-wide index of a segment's first frame: a device that counts from 0 again after a
+     * reconnect is moved on by the wall-clock gap, and the samples missed become a gap.
+     */
+    private long resume(long idx) {
         if (expectedIndex >= 0) {
-            if (idx < expectedIndex) {
+            if (idx < expectedIndex) { // the device restarted its count
                 long resume = expectedIndex + wallGapSamples();
                 shift += resume - idx;
                 idx = resume;
@@ -99,7 +106,7 @@ final class SpoolDecoder {
                 gap(expectedIndex, idx, -1, "reconnect");
             }
         }
-        expectedIndex = idx;
+        return idx;
     }
 
     /**
@@ -204,16 +211,7 @@ final class SpoolDecoder {
         long seqU = seq & 0xFFFFFFFFL;
         if (segmentStart) {
             segmentStart = false;
-            if (expectedIndex >= 0) {
-                if (idx < expectedIndex) { // the device restarted its count
-                    long resume = expectedIndex + wallGapSamples();
-                    shift += resume - idx;
-                    idx = resume;
-                }
-                if (idx > expectedIndex) {
-                    gap(expectedIndex, idx, -1, "reconnect");
-                }
-            }
+            idx = resume(idx);
             expectedIndex = idx;
         } else {
             if (expectedSeq >= 0 && seqU != expectedSeq && (int) (seqU - expectedSeq) < 0) {
