@@ -140,6 +140,9 @@ final class RunCommand implements Callable<Integer> {
         if (jobs < 1) {
             throw new CliError("--jobs " + jobs + ": expected at least 1");
         }
+        if (segmentFrames < 0) {
+            throw new CliError("--segment-frames " + segmentFrames + ": expected a number of frames, at least 1");
+        }
         Execution built;
         try {
             if (jobs > 1 || segmentFrames > 0) {

@@ -97,6 +97,11 @@ class SegmentedRunTest {
         assertEquals(2, zero.code(), zero.toString());
         assertTrue(zero.err().contains("--jobs 0"), zero.err());
 
+        Cli negative = Cli.run("--quiet", "run", edgesChain(false).toString(), "--out", dir.resolve("n").toString(),
+                "--segment-frames", "-5");
+        assertEquals(2, negative.code(), negative.toString());
+        assertTrue(negative.err().contains("--segment-frames -5"), negative.err());
+
         Cli tiny = Cli.run("--quiet", "run", edgesChain(false).toString(), "--out", dir.resolve("z").toString(), "--jobs", "2",
                 "--segment-frames", "100");
         assertEquals(2, tiny.code(), tiny.toString());

@@ -56,6 +56,7 @@ public final class SegmentedRun {
     private final ProgressListener progress;
     private volatile boolean cancelled;
     private volatile Chain backChain;
+    private final java.util.Set<Chain> fronts = java.util.concurrent.ConcurrentHashMap.newKeySet();
     private int segmentsDone;
     private int segmentCount;
 
@@ -146,6 +147,9 @@ public final class SegmentedRun {
         Chain c = backChain;
         if (c != null) {
             c.cancel();
+        }
+        for (Chain f : fronts) {
+            f.cancel();
         }
     }
 
@@ -268,8 +272,16 @@ public final class SegmentedRun {
                     r.annSources.add(new String[] {src});
                     r.anns.add(a);
                 });
+        if (cancelled) {
+            return r;
+        }
         try (Chain c = b.build()) {
-            c.run();
+            fronts.add(c);
+            try {
+                c.run();
+            } finally {
+                fronts.remove(c);
+            }
         }
         return r;
     }
