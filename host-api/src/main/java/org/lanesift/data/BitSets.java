@@ -121,4 +121,30 @@ public final class BitSets {
         }
         return n;
     }
+
+    /**
+     * Copies {@code n} bits starting at bit {@code from} into a new array starting at bit 0, a word
+     * at a time.
+     *
+     * @param src  packed bits
+     * @param from first bit to copy
+     * @param n    number of bits
+     * @return the copy, {@link #words(int) words(n)} long, bits past {@code n} clear
+     */
+    public static long[] slice(long[] src, int from, int n) {
+        long[] dst = new long[words(n)];
+        int sw = from >>> 6;
+        int sh = from & 63;
+        for (int w = 0; w < dst.length; w++) {
+            long v = sw + w < src.length ? src[sw + w] >>> sh : 0;
+            if (sh != 0 && sw + w + 1 < src.length) {
+                v |= src[sw + w + 1] << (64 - sh);
+            }
+            dst[w] = v;
+        }
+        if ((n & 63) != 0) {
+            dst[dst.length - 1] &= (1L << n) - 1;
+        }
+        return dst;
+    }
 }

@@ -39,4 +39,20 @@ class BitSetsTest {
         assertEquals(to - from, BitSets.count(w, 320));
         assertEquals(to > from, BitSets.any(w, 0, 320));
     }
+
+    /** A word-wise slice holds, bit for bit, what a bit-by-bit copy would, and nothing past its length. */
+    @Property(tries = 300)
+    void sliceMatchesABitByBitCopy(@ForAll @IntRange(min = 0, max = 300) int from, @ForAll @IntRange(min = 0, max = 200) int n,
+                                   @ForAll long seed) {
+        java.util.Random r = new java.util.Random(seed);
+        long[] src = new long[8];
+        for (int i = 0; i < src.length; i++) {
+            src[i] = r.nextLong();
+        }
+        long[] d = BitSets.slice(src, from, n);
+        assertEquals(BitSets.words(n), d.length);
+        for (int i = 0; i < 64 * d.length; i++) {
+            assertEquals(i < n && BitSets.get(src, from + i), BitSets.get(d, i), "bit " + i);
+        }
+    }
 }

@@ -225,12 +225,6 @@ public final class Synth {
      * @return packed copy starting at bit 0
      */
     public static long[] sliceBits(long[] src, int from, int n) {
-        long[] dst = new long[BitSets.words(n)];
-        for (int i = 0; i < n; i++) {
-            if (BitSets.get(src, from + i)) {
-                dst[i >>> 6] |= 1L << i;
-            }
-        }
-        return dst;
+        return BitSets.slice(src, from, n);
     }
 }
