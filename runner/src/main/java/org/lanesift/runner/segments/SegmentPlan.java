@@ -104,14 +104,13 @@ public final class SegmentPlan {
         front.add(source.id());
         Map<String, String> blockers = new LinkedHashMap<>();
         long warm = 0;
-        double period;
         RawSource.Layout layout;
         try {
             layout = RawSource.layout(opts.get(source.id()));
         } catch (IOException | RuntimeException e) {
             throw new SegmentException("instance '" + source.id() + "': " + e.getMessage());
         }
-        period = layout.periodFs();
+        double period = layout.periodFs();
         boolean grew = true;
         while (grew) {
             grew = false;
@@ -188,11 +187,6 @@ public final class SegmentPlan {
                     }
                 }
             }
-        }
-        if (ports.stream().noneMatch(p -> !p.backTargets().isEmpty()) && !blockers.isEmpty()) {
-            Map.Entry<String, String> e = blockers.entrySet().iterator().next();
-            throw new SegmentException("instance '" + e.getKey() + "' (" + nodes.get(e.getKey()).plugin()
-                    + ") cannot decode in segments: " + e.getValue());
         }
         List<ChainSpec.Node> fn = new ArrayList<>();
         List<ChainSpec.Node> bn = new ArrayList<>();

@@ -5,7 +5,6 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.Comparator;
 import java.util.Deque;
-import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
@@ -64,7 +63,7 @@ public final class SegmentedRun {
     private static final class Result {
         final int index;
         final Map<String, List<Block>> blocks = new LinkedHashMap<>();
-        final List<String[]> annSources = new ArrayList<>();
+        final List<String> annSources = new ArrayList<>();
         final List<Annotation> anns = new ArrayList<>();
 
         Result(int index) {
@@ -269,7 +268,7 @@ public final class SegmentedRun {
         ChainBuilder b = ChainBuilder.fromSpec(new ChainSpec(nodes, plan.front.wires()), registry)
                 .outputs((id, port, block) -> r.blocks.computeIfAbsent(id + "." + port, x -> new ArrayList<>()).add(block))
                 .annotations((src, a) -> {
-                    r.annSources.add(new String[] {src});
+                    r.annSources.add(src);
                     r.anns.add(a);
                 });
         if (cancelled) {
@@ -340,7 +339,7 @@ public final class SegmentedRun {
         for (int i = 0; i < r.anns.size(); i++) {
             Annotation a = r.anns.get(i);
             if (a.startFs() < z1 && Math.max(a.endFs(), a.startFs() + 1) > z0) {
-                l.add(r.annSources.get(i)[0] + " " + canonical(a));
+                l.add(r.annSources.get(i) + " " + canonical(a));
             }
         }
         l.sort(null);
@@ -366,19 +365,17 @@ public final class SegmentedRun {
         for (int i = 0; i < r.anns.size(); i++) {
             Annotation a = r.anns.get(i);
             if (a.startFs() >= from && a.startFs() < to) {
-                annotations.accept(r.annSources.get(i)[0], a);
+                annotations.accept(r.annSources.get(i), a);
             }
         }
-        Map<String, SegmentPlan.Port> byKey = new HashMap<>();
         record Item(SegmentPlan.Port port, Block block) {
         }
-        PriorityQueue<Item> q = new PriorityQueue<>(Comparator.comparingLong((Item i) -> start(i.block())));
+        PriorityQueue<Item> q = new PriorityQueue<>(Comparator.comparingLong((Item i) -> i.block().startFs()));
         Map<String, Deque<Block>> queues = new LinkedHashMap<>();
         for (SegmentPlan.Port p : plan.ports) {
             if (p.kind() == org.lanesift.data.DataKind.ARTIFACT) {
                 continue;
             }
-            byKey.put(p.key(), p);
             Deque<Block> kept = new ArrayDeque<>();
             for (Block b : r.blocks.getOrDefault(p.key(), List.of())) {
                 Block s = Streams.clip(b, from, to);
@@ -410,12 +407,6 @@ public final class SegmentedRun {
         progress.progress(Math.min(plan.layout.frames(), (long) segmentsDone * segmentFrames), plan.layout.frames());
     }
 
-    private static long start(Block b) {
-        if (b instanceof Edges e) {
-            return e.startFs();
-        }
-        return ((LogicBlock) b).startFs();
-    }
 
     /** Slicing and comparing of the streams that cross a seam. */
     static final class Streams {
@@ -446,8 +437,8 @@ public final class SegmentedRun {
                 return l;
             }
             int n = i1 - i0;
-            return new LogicBlock(l.channel(), l.firstIndex() + i0, l.timeFs(i0), l.periodFs(), bits(l.bits(), i0, n), n,
-                    l.invalid() == null ? null : bits(l.invalid(), i0, n));
+            return new LogicBlock(l.channel(), l.firstIndex() + i0, l.timeFs(i0), l.periodFs(), BitSets.slice(l.bits(), i0, n), n,
+                    l.invalid() == null ? null : BitSets.slice(l.invalid(), i0, n));
         }
 
         /** Index of the first sample at or after time t (sample times increase), or the length. */
@@ -465,15 +456,6 @@ public final class SegmentedRun {
             return lo;
         }
 
-        static long[] bits(long[] src, int from, int n) {
-            long[] d = new long[BitSets.words(n)];
-            for (int i = 0; i < n; i++) {
-                if (BitSets.get(src, from + i)) {
-                    BitSets.set(d, i, true);
-                }
-            }
-            return d;
-        }
 
         /** A canonical text of a stream within [z0, z1): level at z0, transitions, unknown spans, or logic samples. */
         static String describe(List<Block> blocks, long z0, long z1) {
