@@ -125,17 +125,23 @@ final class SpoolDecoder {
      * @param bytes samples (bytes) of the segment skipped
      */
     void skipRaw(long bytes) {
-        if (segmentStart) {
-            segmentStart = false;
-            if (expectedIndex < 0) {
-                expectedIndex = 0;
-            } else {
-                long resume = expectedIndex + wallGapSamples();
-                gap(expectedIndex, resume, -1, "reconnect");
-                expectedIndex = resume;
-            }
-        }
+        startRawSegment();
         expectedIndex += bytes;
+    }
+
+    /** Raw: a segment's first byte follows the last one of the segment before, after the wall-clock gap between them. */
+    private void startRawSegment() {
+        if (!segmentStart) {
+            return;
+        }
+        segmentStart = false;
+        if (expectedIndex < 0) {
+            expectedIndex = 0;
+        } else {
+            long resume = expectedIndex + wallGapSamples();
+            gap(expectedIndex, resume, -1, "reconnect");
+            expectedIndex = resume;
+        }
     }
 
     /** Starts segment {@code n}; times in epoch ms of its opening and of the previous close (or -1). */
@@ -169,16 +175,7 @@ final class SpoolDecoder {
         if (header.framed()) {
             frames.feed(b, off, len);
         } else {
-            if (segmentStart) {
-                segmentStart = false;
-                if (expectedIndex < 0) {
-                    expectedIndex = 0;
-                } else {
-                    long resume = expectedIndex + wallGapSamples();
-                    gap(expectedIndex, resume, -1, "reconnect");
-                    expectedIndex = resume;
-                }
-            }
+            startRawSegment();
             append(b, off, len);
         }
     }
