@@ -1,8 +1,6 @@
 package org.lanesift.chain;
 
-import java.util.ArrayDeque;
 import java.util.ArrayList;
-import java.util.Deque;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
@@ -13,10 +11,7 @@ import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.Block;
 import org.lanesift.data.DataKind;
 import org.lanesift.data.LogicBlock;
-import org.lanesift.plugin.OptionException;
 import org.lanesift.plugin.OptionValues;
-import org.lanesift.plugin.PluginDescriptor;
-import org.lanesift.plugin.PluginProvider;
 import org.lanesift.plugin.PluginRegistry;
 import org.lanesift.plugin.PortSpec;
 import org.lanesift.plugin.Stage;
@@ -40,6 +35,7 @@ public final class Chain implements AutoCloseable {
     private final Map<String, Node> byId;
     private final AnnotationSink annotations;
     private final ProgressListener progress;
+    private final BlockSink hostSink;
     private volatile boolean cancelled;
     private boolean finished;
     private boolean closed;
@@ -57,42 +53,33 @@ public final class Chain implements AutoCloseable {
         }
     }
 
-    private final class Node implements StageContext {
+    /** The running form of one {@link ChainPlan.Step}: its stage, its context, and what reaches its inputs. */
+    final class Node implements StageContext {
         final String id;
-        final PluginDescriptor descriptor;
-        final PluginProvider provider;
-        final OptionValues options;
+        final ChainPlan.Step step;
         final List<PortSpec> inputs;
         final List<PortSpec> outputs;
         final DataKind externalKind;
         final List<List<Target>> targets = new ArrayList<>();
-        final List<List<Consumer<Block>>> taps = new ArrayList<>();
-        final boolean[] wiredInputs;
+        final List<List<Consumer<Block>>> taps;
         final long[] lastStart;
         double samplePeriodFs = Double.NaN;
         int samplePeriodInput = -1;
         Stage stage;
-        BlockSink hostSink;
 
-        Node(String id, PluginDescriptor d, PluginProvider p, OptionValues o, List<PortSpec> in, List<PortSpec> out, DataKind ext) {
-            this.id = id;
-            this.descriptor = d;
-            this.provider = p;
-            this.options = o;
-            this.inputs = in;
-            this.outputs = out;
-            this.externalKind = ext;
-            for (int i = 0; i < out.size(); i++) {
-                targets.add(new ArrayList<>());
-                taps.add(new ArrayList<>());
-            }
-            wiredInputs = new boolean[in.size()];
-            lastStart = new long[in.size()];
+        Node(ChainPlan.Step step) {
+            this.id = step.id();
+            this.step = step;
+            this.inputs = step.inputs();
+            this.outputs = step.outputs();
+            this.externalKind = step.externalKind();
+            this.taps = step.taps();
+            lastStart = new long[inputs.size()];
             java.util.Arrays.fill(lastStart, Long.MIN_VALUE);
         }
 
         String label() {
-            return descriptor == null ? "input '" + id + "'" : "instance '" + id + "' (" + descriptor.id() + ")";
+            return step.label();
         }
 
         @Override
@@ -102,7 +89,7 @@ public final class Chain implements AutoCloseable {
 
         @Override
         public OptionValues options() {
-            return options;
+            return step.options();
         }
 
         @Override
@@ -168,11 +155,32 @@ public final class Chain implements AutoCloseable {
         }
     }
 
-    private Chain(List<Node> order, Map<String, Node> byId, AnnotationSink a, ProgressListener p) {
-        this.order = order;
-        this.byId = byId;
-        this.annotations = a;
-        this.progress = p;
+    /**
+     * Creates the running nodes of a plan, every wire connected, no stage open yet
+     * ({@link ChainOpener} opens them).
+     */
+    Chain(ChainPlan plan, AnnotationSink annotations, ProgressListener progress, BlockSink outputs) {
+        this.annotations = annotations;
+        this.progress = progress;
+        this.hostSink = outputs;
+        List<Node> nodes = new ArrayList<>();
+        Map<String, Node> ids = new HashMap<>();
+        for (ChainPlan.Step st : plan.steps()) {
+            Node n = new Node(st);
+            nodes.add(n);
+            ids.put(n.id, n);
+        }
+        for (Node n : nodes) {
+            for (List<ChainPlan.Edge> es : n.step.targets()) {
+                List<Target> ts = new ArrayList<>(es.size());
+                for (ChainPlan.Edge e : es) {
+                    ts.add(new Target(nodes.get(e.to()), e.input(), e.wireName()));
+                }
+                n.targets.add(ts);
+            }
+        }
+        this.order = List.copyOf(nodes);
+        this.byId = ids;
     }
 
     /**
@@ -186,168 +194,16 @@ public final class Chain implements AutoCloseable {
     }
 
     static Chain open(ChainBuilder b) {
-        Chain chain = new Chain(new ArrayList<>(), new HashMap<>(), b.annotations, b.progress);
-        Map<String, Node> real = new HashMap<>();
-        for (ChainBuilder.NodeDef d : b.nodes.values()) {
-            String ptr = d.pointer();
-            Node node;
-            if (d.externalKind() != null) {
-                List<PortSpec> outs = List.of(PortSpec.of("out", d.externalKind(), "blocks pushed by the host"));
-                node = chain.new Node(d.id(), null, null, null, List.of(), outs, d.externalKind());
-            } else {
-                PluginProvider p = b.registry.find(d.plugin());
-                if (p == null) {
-                    throw new ChainException("instance '" + d.id() + "': unknown plugin '" + d.plugin() + "'; known plugins: "
-                            + String.join(", ", b.registry.all().stream().map(x -> x.descriptor().id()).toList()),
-                            ptr == null ? null : ptr + "/plugin");
-                }
-                PluginDescriptor desc = p.descriptor();
-                OptionValues ov;
-                try {
-                    ov = OptionValues.validate(desc, d.options());
-                } catch (OptionException e) {
-                    throw new ChainException("instance '" + d.id() + "': " + e.getMessage(),
-                            ptr == null ? null : ptr + "/options/" + e.option(), e);
-                }
-                List<PortSpec> in;
-                List<PortSpec> out;
-                try {
-                    in = desc.inputs(ov);
-                    out = desc.outputs(ov);
-                } catch (OptionException e) {
-                    throw new ChainException("instance '" + d.id() + "': " + e.getMessage(),
-                            ptr == null ? null : ptr + "/options/" + e.option(), e);
-                }
-                node = chain.new Node(d.id(), desc, p, ov, in, out, null);
-            }
-            real.put(d.id(), node);
-        }
-        // wires
-        for (ChainBuilder.WireDef w : b.wires) {
-            String ptr = w.pointer();
-            Object[] from = resolve(real, w.from(), true, ptr == null ? null : ptr + "/from");
-            Object[] to = resolve(real, w.to(), false, ptr == null ? null : ptr + "/to");
-            Node fn = (Node) from[0];
-            int fi = (Integer) from[1];
-            Node tn = (Node) to[0];
-            int ti = (Integer) to[1];
-            PortSpec fp = fn.outputs.get(fi);
-            PortSpec tp = tn.inputs.get(ti);
-            String name = fn.id + "." + fp.name() + " -> " + tn.id + "." + tp.name();
-            if (!tp.kind().accepts(fp.kind())) {
-                throw new ChainException("wire " + name + ": output " + fn.id + "." + fp.name() + " carries " + fp.kind()
-                        + " but input " + tn.id + "." + tp.name() + " expects " + tp.kind(), ptr);
-            }
-            if (tn.wiredInputs[ti]) {
-                throw new ChainException("wire " + name + ": input " + tn.id + "." + tp.name() + " is already wired", ptr);
-            }
-            tn.wiredInputs[ti] = true;
-            fn.targets.get(fi).add(new Target(tn, ti, name));
-        }
-        for (ChainBuilder.TapDef t : b.taps) {
-            Object[] at = resolve(real, t.at(), true, null);
-            ((Node) at[0]).taps.get((Integer) at[1]).add(t.consumer());
-        }
-        for (Node n : real.values()) {
-            n.hostSink = b.outputs;
-            for (int i = 0; i < n.inputs.size(); i++) {
-                if (n.inputs.get(i).required() && !n.wiredInputs[i]) {
-                    throw new ChainException(n.label() + ": required input '" + n.inputs.get(i).name() + "' is not wired",
-                            b.nodes.get(n.id).pointer());
-                }
-            }
-        }
-        // topological order (Kahn), in declaration order where free
-        Map<Node, Integer> indeg = new HashMap<>();
-        for (Node n : real.values()) {
-            indeg.putIfAbsent(n, 0);
-            for (List<Target> ts : n.targets) {
-                for (Target t : ts) {
-                    indeg.merge(t.node, 1, Integer::sum);
-                }
-            }
-        }
-        Deque<Node> ready = new ArrayDeque<>();
-        for (String id : b.nodes.keySet()) {
-            Node n = real.get(id);
-            if (indeg.get(n) == 0) {
-                ready.add(n);
-            }
-        }
-        List<Node> order = chain.order;
-        while (!ready.isEmpty()) {
-            Node n = ready.poll();
-            order.add(n);
-            for (List<Target> ts : n.targets) {
-                for (Target t : ts) {
-                    if (indeg.merge(t.node, -1, Integer::sum) == 0) {
-                        ready.add(t.node);
-                    }
-                }
-            }
-        }
-        if (order.size() != real.size()) {
-            List<String> cyc = real.values().stream().filter(n -> !order.contains(n)).map(n -> n.id).sorted().toList();
-            throw new ChainException("the wires form a cycle through " + String.join(", ", cyc), null);
-        }
-        chain.byId.putAll(real);
-        // open stages, upstream first; close what was opened if one fails
-        for (Node n : order) {
-            if (n.provider == null) {
-                continue;
-            }
-            try {
-                n.stage = n.provider.open(n);
-                if (n.stage == null) {
-                    throw new IllegalStateException("provider returned no stage");
-                }
-            } catch (OptionException e) {
-                chain.close();
-                String ptr = b.nodes.get(n.id).pointer();
-                throw new ChainException(n.label() + ": " + e.getMessage(), ptr == null ? null : ptr + "/options/" + e.option(), e);
-            } catch (ChainException e) {
-                chain.close();
-                throw e;
-            } catch (Exception e) {
-                chain.close();
-                throw new StageFailure(n.id, n.label() + " could not start: " + e.getMessage(), e);
-            }
-        }
-        return chain;
+        return ChainOpener.open(ChainPlan.of(b), b.annotations, b.progress, b.outputs);
     }
 
-    private static Object[] resolve(Map<String, Node> nodes, String end, boolean output, String ptr) {
-        if (end == null || end.isEmpty()) {
-            throw new ChainException("wire end missing: expected \"instance.port\"", ptr);
-        }
-        int dot = end.indexOf('.');
-        String id = dot < 0 ? end : end.substring(0, dot);
-        Node n = nodes.get(id);
-        if (n == null) {
-            throw new ChainException("wire end '" + end + "': no instance '" + id + "'; instances: "
-                    + String.join(", ", nodes.keySet().stream().sorted().toList()), ptr);
-        }
-        List<PortSpec> ports = output ? n.outputs : n.inputs;
-        String what = output ? "output" : "input";
-        if (dot < 0) {
-            if (ports.size() != 1) {
-                throw new ChainException("wire end '" + end + "': " + n.label() + " has " + ports.size() + " " + what
-                        + "s, name one: " + names(ports), ptr);
-            }
-            return new Object[] {n, 0};
-        }
-        String port = end.substring(dot + 1);
-        for (int i = 0; i < ports.size(); i++) {
-            if (ports.get(i).name().equals(port)) {
-                return new Object[] {n, i};
-            }
-        }
-        throw new ChainException("wire end '" + end + "': " + n.label() + " has no " + what + " '" + port + "'; its "
-                + what + "s: " + names(ports), ptr);
-    }
-
-    private static String names(List<PortSpec> ports) {
-        return ports.isEmpty() ? "(none)" : String.join(", ", ports.stream().map(p -> p.name() + " (" + p.kind() + ")").toList());
+    /**
+     * The running nodes, upstream first.
+     *
+     * @return the nodes in topological order
+     */
+    List<Node> nodes() {
+        return order;
     }
 
     private void deliver(Target t, Block block) {
@@ -410,7 +266,7 @@ public final class Chain implements AutoCloseable {
         ensureOpen();
         List<Node> sources = new ArrayList<>();
         for (Node n : order) {
-            if (n.provider != null && n.inputs.isEmpty()) {
+            if (n.step.provider() != null && n.inputs.isEmpty()) {
                 sources.add(n);
             }
         }
