@@ -10,16 +10,16 @@ package org.lanesift.plugins.packetlink;
  * parse with {@link #STOP_TRUNCATED}. Parsing allocates nothing; results go to a {@link Listener}
  * as offsets into the caller's array.
  */
-public final class PacketParser {
+final class PacketParser {
     /** Parsing stopped: fewer than 4 bytes were left (a partial header after the last packet). */
-    public static final int STOP_LEFTOVER = 1;
+    static final int STOP_LEFTOVER = 1;
     /** Parsing stopped: a header had two or more bit errors; the rest of the burst cannot be framed. */
-    public static final int STOP_UNCORRECTABLE = 2;
+    static final int STOP_UNCORRECTABLE = 2;
     /** Parsing stopped: a long packet's payload and checksum run past the end of the bytes. */
-    public static final int STOP_TRUNCATED = 3;
+    static final int STOP_TRUNCATED = 3;
 
     /** Receives packets as they are cut. */
-    public interface Listener {
+    interface Listener {
         /**
          * One packet.
          *
@@ -56,7 +56,7 @@ public final class PacketParser {
      * @param l    receives packets
      * @return number of bytes taken by complete packets
      */
-    public static int parse(byte[] data, int off, int len, Listener l) {
+    static int parse(byte[] data, int off, int len, Listener l) {
         int pos = off;
         int end = off + len;
         while (end - pos >= 4) {

@@ -11,13 +11,13 @@ import java.util.TreeSet;
  * every byte. Faults are given by frame number: dropped, corrupted (one payload byte flipped),
  * duplicated (sent twice), stalled (a pause after the frame), and a disconnect after a frame.
  */
-public final class DeviceSimulator implements Runnable {
+final class DeviceSimulator implements Runnable {
     /** Identity the simulator reports. */
-    public static final DeviceInfo INFO = new DeviceInfo("lanesift-sim", "1.0.0", 8, DeviceInfo.FORMAT_LOGIC8,
+    static final DeviceInfo INFO = new DeviceInfo("lanesift-sim", "1.0.0", 8, DeviceInfo.FORMAT_LOGIC8,
             new long[] {1_000_000L, 10_000_000L, 50_000_000L});
 
     /** Fault plan and stream shape; mutable, set before {@link #run()}. */
-    public static final class Plan {
+    static final class Plan {
         /** Samples per DATA frame (payload = 8 + this), 1 to {@link Framing#MAX_PAYLOAD} - 8. */
         public int samplesPerFrame = 4096;
         /** Total samples to send; then the device closes the link if {@link #closeAtEnd}. */
@@ -62,7 +62,7 @@ public final class DeviceSimulator implements Runnable {
      * @param link the device end of the link
      * @param plan what to send
      */
-    public DeviceSimulator(SerialLink link, Plan plan) {
+    DeviceSimulator(SerialLink link, Plan plan) {
         this.link = link;
         this.plan = plan;
         if (plan.samplesPerFrame < 1 || plan.samplesPerFrame > Framing.MAX_PAYLOAD - 8) {
@@ -76,22 +76,22 @@ public final class DeviceSimulator implements Runnable {
      * @param i sample index
      * @return the logic8 sample
      */
-    public static byte sample(long i) {
+    static byte sample(long i) {
         return (byte) (i ^ (i >>> 7) ^ (i >>> 13) ^ (i >>> 21));
     }
 
     /** @return frames sent so far (dropped ones count) */
-    public long framesSent() {
+    long framesSent() {
         return framesSent;
     }
 
     /** @return true once the host sent STOP, the link went away, or {@link #stop()} was called */
-    public boolean stopped() {
+    boolean stopped() {
         return stopped;
     }
 
     /** Asks the simulator to stop streaming. */
-    public void stop() {
+    void stop() {
         stopped = true;
     }
 

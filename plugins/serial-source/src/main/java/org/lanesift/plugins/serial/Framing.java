@@ -5,17 +5,17 @@ package org.lanesift.plugins.serial;
  * {@code D5 6B | type u8 | flags u8 | seq u32 LE | len u16 LE | payload | CRC-32C u32 LE}, the CRC
  * taken over type, flags, seq, len and payload (everything between the marker and the CRC).
  */
-public final class Framing {
+final class Framing {
     /** First marker byte. */
-    public static final int MARK0 = 0xD5;
+    static final int MARK0 = 0xD5;
     /** Second marker byte. */
-    public static final int MARK1 = 0x6B;
+    static final int MARK1 = 0x6B;
     /** Bytes before the payload: marker 2, type 1, flags 1, seq 4, len 2. */
-    public static final int HEADER = 10;
+    static final int HEADER = 10;
     /** Bytes after the payload: the CRC. */
-    public static final int TRAILER = 4;
+    static final int TRAILER = 4;
     /** Largest payload a frame may declare; a larger length field is a corrupt header. */
-    public static final int MAX_PAYLOAD = 16384;
+    static final int MAX_PAYLOAD = 16384;
 
     private Framing() {
     }
@@ -32,7 +32,7 @@ public final class Framing {
      * @param at      where to write
      * @return bytes written
      */
-    public static int encode(FrameType type, int seq, byte[] payload, int off, int len, byte[] out, int at) {
+    static int encode(FrameType type, int seq, byte[] payload, int off, int len, byte[] out, int at) {
         if (len < 0 || len > MAX_PAYLOAD) {
             throw new IllegalArgumentException("frame payload must be 0.." + MAX_PAYLOAD + " bytes, got " + len);
         }
@@ -57,7 +57,7 @@ public final class Framing {
      * @param payload payload
      * @return the frame bytes
      */
-    public static byte[] encode(FrameType type, int seq, byte[] payload) {
+    static byte[] encode(FrameType type, int seq, byte[] payload) {
         byte[] out = new byte[HEADER + payload.length + TRAILER];
         encode(type, seq, payload, 0, payload.length, out, 0);
         return out;

@@ -6,7 +6,7 @@ package org.lanesift.plugins.serial;
  * {@link #device()} is the end the simulator writes. Closing either end is a disconnect: the
  * other end reads what is buffered, then -1.
  */
-public final class Loopback {
+final class Loopback {
     private final Pipe toHost;
     private final Pipe toDevice;
     private final SerialLink host;
@@ -17,7 +17,7 @@ public final class Loopback {
      *
      * @param bufferBytes ring buffer size of each direction
      */
-    public Loopback(int bufferBytes) {
+    Loopback(int bufferBytes) {
         toHost = new Pipe(bufferBytes);
         toDevice = new Pipe(4096);
         host = new End("loopback-host", toHost, toDevice);
@@ -25,12 +25,12 @@ public final class Loopback {
     }
 
     /** @return the host end (what a capture opens) */
-    public SerialLink host() {
+    SerialLink host() {
         return host;
     }
 
     /** @return the device end (what the simulator drives) */
-    public SerialLink device() {
+    SerialLink device() {
         return device;
     }
 

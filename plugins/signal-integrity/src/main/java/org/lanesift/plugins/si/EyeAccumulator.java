@@ -7,10 +7,10 @@ package org.lanesift.plugins.si;
  * {@code [minVolts + y / binsPerVolt, minVolts + (y + 1) / binsPerVolt)}, row 0 at the bottom.
  *
  * <p>The hot loop {@link #accumulate} takes a run of equally spaced samples with the window phase
- * of the first one and the phase step, both in bins; it allocates nothing. Public so that the
- * benchmarks can drive it directly.
+ * of the first one and the phase step, both in bins; it allocates nothing. The benchmarks drive it
+ * directly from the same package (bench module), so it stays package-private.
  */
-public final class EyeAccumulator {
+final class EyeAccumulator {
     private final int widthBins;
     private final int heightBins;
     private final float minVolts;
@@ -27,7 +27,7 @@ public final class EyeAccumulator {
      * @param minVolts   voltage at the bottom edge of row 0
      * @param maxVolts   voltage at the top edge of the last row, above {@code minVolts}
      */
-    public EyeAccumulator(int widthBins, int heightBins, double minVolts, double maxVolts) {
+    EyeAccumulator(int widthBins, int heightBins, double minVolts, double maxVolts) {
         if (widthBins < 1 || heightBins < 1 || (long) widthBins * heightBins > 1 << 26) {
             throw new IllegalArgumentException("eye histogram size " + widthBins + " x " + heightBins + " outside 1..2^26 bins");
         }
@@ -52,7 +52,7 @@ public final class EyeAccumulator {
      * @param stepBins  phase step per sample in bins, positive
      * @return the folded phase the sample at {@code to} would have
      */
-    public double accumulate(float[] volts, int from, int to, double phaseBins, double stepBins) {
+    double accumulate(float[] volts, int from, int to, double phaseBins, double stepBins) {
         final int w = widthBins;
         final int h = heightBins;
         final float min = minVolts;
@@ -106,7 +106,7 @@ public final class EyeAccumulator {
      * @param stepBins  phase step per sample in bins
      * @return the folded phase of the sample at {@code to}
      */
-    public double accumulate(float[] volts, long[] invalid, int from, int to, double phaseBins, double stepBins) {
+    double accumulate(float[] volts, long[] invalid, int from, int to, double phaseBins, double stepBins) {
         if (invalid == null) {
             return accumulate(volts, from, to, phaseBins, stepBins);
         }
@@ -145,7 +145,7 @@ public final class EyeAccumulator {
      * @param y row, 0 at the lowest voltage
      * @return samples in the bin
      */
-    public int count(int x, int y) {
+    int count(int x, int y) {
         return counts[y * widthBins + x];
     }
 
@@ -154,7 +154,7 @@ public final class EyeAccumulator {
      *
      * @return counts
      */
-    public int[] counts() {
+    int[] counts() {
         return counts;
     }
 
@@ -163,7 +163,7 @@ public final class EyeAccumulator {
      *
      * @return width in bins
      */
-    public int widthBins() {
+    int widthBins() {
         return widthBins;
     }
 
@@ -172,7 +172,7 @@ public final class EyeAccumulator {
      *
      * @return height in bins
      */
-    public int heightBins() {
+    int heightBins() {
         return heightBins;
     }
 
@@ -181,7 +181,7 @@ public final class EyeAccumulator {
      *
      * @return volts
      */
-    public double minVolts() {
+    double minVolts() {
         return minVolts;
     }
 
@@ -190,7 +190,7 @@ public final class EyeAccumulator {
      *
      * @return bins per volt
      */
-    public double binsPerVolt() {
+    double binsPerVolt() {
         return binsPerVolt;
     }
 
@@ -199,7 +199,7 @@ public final class EyeAccumulator {
      *
      * @return count
      */
-    public long inRange() {
+    long inRange() {
         return inRange;
     }
 
@@ -208,7 +208,7 @@ public final class EyeAccumulator {
      *
      * @return count
      */
-    public long outOfRange() {
+    long outOfRange() {
         return outOfRange;
     }
 }

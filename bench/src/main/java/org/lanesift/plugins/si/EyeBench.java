@@ -1,8 +1,7 @@
-package org.lanesift.bench;
+package org.lanesift.plugins.si;
 
 import java.util.Random;
 import java.util.concurrent.TimeUnit;
-import org.lanesift.plugins.si.EyeAccumulator;
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
 import org.openjdk.jmh.annotations.Fork;

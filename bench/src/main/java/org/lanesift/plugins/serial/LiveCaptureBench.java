@@ -1,4 +1,4 @@
-package org.lanesift.bench;
+package org.lanesift.plugins.serial;
 
 import java.io.IOException;
 import java.lang.management.ManagementFactory;
@@ -18,13 +18,6 @@ import org.lanesift.chain.Chain;
 import org.lanesift.chain.ChainBuilder;
 import org.lanesift.data.Edges;
 import org.lanesift.plugin.PluginRegistry;
-import org.lanesift.plugins.serial.Capture;
-import org.lanesift.plugins.serial.DeviceSimulator;
-import org.lanesift.plugins.serial.Framing;
-import org.lanesift.plugins.serial.LogicEdgesProvider;
-import org.lanesift.plugins.serial.Loopback;
-import org.lanesift.plugins.serial.SerialLink;
-import org.lanesift.plugins.serial.SpoolSourceProvider;
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
 import org.openjdk.jmh.annotations.Fork;

@@ -1,4 +1,4 @@
-package org.lanesift.bench;
+package org.lanesift.plugins.packetlink;
 
 import java.util.ArrayList;
 import java.util.List;
@@ -11,8 +11,6 @@ import org.lanesift.data.BitSets;
 import org.lanesift.data.BitStream;
 import org.lanesift.data.DataKind;
 import org.lanesift.plugin.PluginRegistry;
-import org.lanesift.plugins.packetlink.PacketLinkPlugin;
-import org.lanesift.plugins.packetlink.PacketParser;
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
 import org.openjdk.jmh.annotations.Fork;
