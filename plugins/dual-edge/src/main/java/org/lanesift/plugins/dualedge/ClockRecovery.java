@@ -27,21 +27,63 @@ final class ClockRecovery {
     static final double ALPHA = 1.0 / 16;
     static final String TRACK = "clock";
 
-    static final byte RISING = 1;
-    static final byte RESTART = 2;
-    static final byte SUSPECT = 4;
-    static final byte REFERENCE = 8;
+    private static final byte RISING = AcceptedEdges.RISING;
+    private static final byte RESTART = AcceptedEdges.RESTART;
+    private static final byte SUSPECT = AcceptedEdges.SUSPECT;
+    private static final byte REFERENCE = AcceptedEdges.REFERENCE;
+
+    /** Where the recovery stands; see {@link #phase()}. */
+    enum Phase {
+        /** No clock transition seen yet. */
+        WAITING,
+        /** Measuring the period from the first transitions. */
+        ACQUIRING,
+        /** A dropout was found: measuring the period again from the edge after it. */
+        REACQUIRING,
+        /** Accepting edges and tracking the period. */
+        TRACKING,
+        /** The clock never had a measurable period; the rest of the input is ignored. */
+        GAVE_UP,
+        /** The input ended and the end was checked. */
+        FINISHED
+    }
+
+    /** Whether a dropout follows the last accepted edge ({@link #gapAfterLast}). */
+    enum Gap {
+        /** A dropout (or the clock stopping before the end of the capture) follows it. */
+        YES,
+        /** The capture ended first. */
+        NO,
+        /** Not known until more clock transitions arrive. */
+        UNKNOWN
+    }
+
+    /** Outcome of one acquisition attempt. */
+    private enum Acquire {
+        /** Too few transitions yet. */
+        WAIT,
+        /** The period is known; tracking starts. */
+        ACQUIRED,
+        /** The transitions looked at were no clock; try again from after them. */
+        RETRY
+    }
+
+    /** Outcome of one tracking pass. */
+    private enum Track {
+        /** Every known transition was used (or the next one is still needed). */
+        DONE,
+        /** Stopped at the time limit or with the accepted-edge buffer full. */
+        PAUSED,
+        /** A dropout: acquire again. */
+        REACQUIRE
+    }
 
     private final SamplerConfig cfg;
     private final EdgeQueue q;
     private final AnnotationQueue notes;
-
-    // accepted edges not yet taken by the planner
-    long[] accT = new long[1024];
-    double[] accP = new double[1024];
-    byte[] accFlags = new byte[1024];
-    long[] accIndex = new long[1024];
-    int accCount;
+    private final AcceptedEdges edges = new AcceptedEdges();
+    private final ClockStats stats = new ClockStats();
+    private final ClockPattern pattern;
 
     // state
     private boolean acquiring = true;
@@ -51,44 +93,27 @@ final class ClockRecovery {
     private long pendingT;
     private long pendingRaw;
     private boolean pendingRising;
-    boolean haveP;
-    double periodFs = Double.NaN;
+    private boolean haveP;
+    private double periodFs = Double.NaN;
     private boolean haveLast;
     private long lastFinalT;
     private boolean lastFinalRising;
     private final long[] lastSame = new long[2];
     private final boolean[] haveSame = new boolean[2];
-    boolean inverted;
-    private boolean dutyDecided;
     private boolean finished;
     private boolean pausedFull;
     private long timeLimit = Long.MAX_VALUE;
     private int maxAccepted = Integer.MAX_VALUE;
-    private static final int TRACK_DONE = 0;
-    private static final int TRACK_PAUSED = 1;
-    private static final int TRACK_REACQUIRE = 2;
     private boolean stoppedAtEnd;
     private boolean gaveUp;
 
-    // statistics
-    long accepted;
-    long referenceEdges;
-    long glitches;
-    long dropouts;
-    long restarts;
-    long periodCount;
-    private double periodRef;
-    private double periodSum;
-    private double periodSumSq;
-    double periodMin = Double.POSITIVE_INFINITY;
-    double periodMax = Double.NEGATIVE_INFINITY;
-    long dutyCount;
-    double dutySum;
-    double dutyMin = Double.POSITIVE_INFINITY;
-    double dutyMax = Double.NEGATIVE_INFINITY;
-    double acquiredDuty = Double.NaN;
-    long firstEdgeFs = Long.MIN_VALUE;
-    String patternVerdict = "";
+    // counts
+    private long accepted;
+    private long referenceEdges;
+    private long glitches;
+    private long dropouts;
+    private long restarts;
+    private double acquiredDuty = Double.NaN;
 
     private final double glitchFraction;
     private final double dropoutPeriods;
@@ -101,6 +126,7 @@ final class ClockRecovery {
         this.multiplied = cfg.mode() == SamplerConfig.Mode.MULTIPLIED;
         this.q = q;
         this.notes = notes;
+        this.pattern = new ClockPattern(cfg, notes);
     }
 
     /**
@@ -135,20 +161,20 @@ final class ClockRecovery {
         boolean paused = false;
         while (true) {
             if (acquiring) {
-                int r = acquire(finishing);
-                if (r == WAIT) {
+                Acquire r = acquire(finishing);
+                if (r == Acquire.WAIT) {
                     break;
                 }
-                if (r == RETRY) {
+                if (r == Acquire.RETRY) {
                     continue;
                 }
             }
-            int t = track(horizon, finishing);
-            if (t == TRACK_PAUSED) {
+            Track t = track(horizon, finishing);
+            if (t == Track.PAUSED) {
                 paused = true;
                 break;
             }
-            if (t == TRACK_DONE) {
+            if (t == Track.DONE) {
                 break;
             }
             // a dropout sent the tracker back to acquisition
@@ -185,11 +211,7 @@ final class ClockRecovery {
         }
     }
 
-    private static final int WAIT = 0;
-    private static final int ACQUIRED = 1;
-    private static final int RETRY = 2;
-
-    private int acquire(boolean finishing) {
+    private Acquire acquire(boolean finishing) {
         long end = q.globalEnd();
         // a transition that ends an unknown span is no clock edge: the clock starts at the first true one
         while (pos < end && q.levelOnly(q.time(pos))) {
@@ -197,7 +219,7 @@ final class ClockRecovery {
         }
         long avail = end - pos;
         if (avail == 0 || (avail < ACQUIRE_EDGES && !finishing)) {
-            return WAIT;
+            return Acquire.WAIT;
         }
         int w = (int) Math.min(avail, ACQUIRE_EDGES);
         double duty = Double.NaN;
@@ -211,7 +233,7 @@ final class ClockRecovery {
                 if (!haveP) {
                     // all same-direction intervals are zero: not a clock
                     pos += w;
-                    return RETRY;
+                    return Acquire.RETRY;
                 }
             } else {
                 periodFs = p;
@@ -230,7 +252,7 @@ final class ClockRecovery {
         } else if (!haveP) {
             gaveUp = true;
             pos = end;
-            return WAIT;
+            return Acquire.WAIT;
         }
         if (cfg.phaseIsUi() || Math.abs(cfg.phaseFs()) <= periodFs / cfg.uiPerPeriod()) {
             // fine
@@ -244,7 +266,7 @@ final class ClockRecovery {
             acquiredDuty = duty;
         }
         if (cfg.mode() == SamplerConfig.Mode.MULTIPLIED) {
-            decidePattern(duty, at);
+            pattern.decide(duty, at);
         }
         Annotation.Builder b = Annotation.on(TRACK, first ? "clock-acquired" : "clock-restart")
                 .span(at, at).severity(Severity.INFO)
@@ -258,63 +280,15 @@ final class ClockRecovery {
             restarts++;
         }
         acquiring = false;
-        return ACQUIRED;
+        return Acquire.ACQUIRED;
     }
 
-    private void decidePattern(double duty, long at) {
-        int n = cfg.slots();
-        double expect = cfg.highSlots() / (double) n;
-        double inv = 1 - expect;
-        boolean wasInverted = inverted;
-        boolean firstDecision = !dutyDecided;
-        String ratio = cfg.highSlots() + "/" + n;
-        String invRatio = (n - cfg.highSlots()) + "/" + n;
-        if (Double.isNaN(duty)) {
-            if (firstDecision) {
-                patternVerdict = "duty cycle not measurable: clock taken as not inverted";
-                notes.add(Annotation.on(TRACK, "clock-duty-unexpected").span(at, at).severity(Severity.WARNING)
-                        .label("duty cycle not measurable; clock taken as not inverted").build());
-            }
-            dutyDecided = true;
-            return;
-        }
-        boolean nearInv = cfg.highSlots() * 2 != n && Math.abs(duty - inv) < Math.abs(duty - expect);
-        double off = Math.min(Math.abs(duty - expect), Math.abs(duty - inv));
-        inverted = nearInv;
-        dutyDecided = true;
-        String slot0 = cfg.slot0AfterRef() + "/" + n + " period after each " + (inverted ? "falling" : "rising") + " edge";
-        if (off > 0.3 / n) {
-            patternVerdict = String.format(Locale.ROOT, "duty %.4f matches neither %s nor %s; taken as %s, slot 0 starts %s",
-                    duty, ratio, invRatio, inverted ? "inverted" : "not inverted", slot0);
-            notes.add(Annotation.on(TRACK, "clock-duty-unexpected").span(at, at).severity(Severity.WARNING)
-                    .label(String.format(Locale.ROOT, "duty %.3f, expected %s", duty, ratio)).number("duty", duty, "")
-                    .build());
-        } else if (inverted) {
-            patternVerdict = String.format(Locale.ROOT, "duty %.4f matches %s: clock lane inverted, slot 0 starts %s",
-                    duty, invRatio, slot0);
-            if (firstDecision || !wasInverted) {
-                notes.add(Annotation.on(TRACK, "clock-inverted").span(at, at).severity(Severity.WARNING)
-                        .label(String.format(Locale.ROOT, "clock inverted (duty %.3f = %s high)", duty, invRatio))
-                        .number("duty", duty, "").build());
-            }
-        } else {
-            patternVerdict = String.format(Locale.ROOT, "duty %.4f matches %s (pattern %s): slot 0 starts %s",
-                    duty, ratio, cfg.pattern(), slot0);
-            if (firstDecision || wasInverted) {
-                notes.add(Annotation.on(TRACK, "clock-pattern").span(at, at).severity(Severity.INFO)
-                        .label(String.format(Locale.ROOT, "duty %.3f = %s high: slot 0 found", duty, ratio))
-                        .number("duty", duty, "").text("pattern", cfg.pattern()).build());
-            }
-        }
-    }
-
-    /** @return {@link #TRACK_DONE}, {@link #TRACK_PAUSED}, or {@link #TRACK_REACQUIRE} after a dropout */
-    private int track(long horizon, boolean finishing) {
+    private Track track(long horizon, boolean finishing) {
         final long end = q.globalEnd();
         final long[] tt = q.t;
         final long base = q.base;
         while (pos < end) {
-            if (pending && haveLast && !afterDropout && haveSame[0] && haveSame[1] && periodCount > 0 && !q.hasSpans()) {
+            if (pending && haveLast && !afterDropout && haveSame[0] && haveSame[1] && stats.intervals() > 0 && !q.hasSpans()) {
                 steady(tt, base, end);
                 if (pos >= end) {
                     break;
@@ -322,19 +296,19 @@ final class ClockRecovery {
             }
             final long t = tt[(int) (pos - base)];
             final double minW = glitchFraction * periodFs;
-            if (accCount >= maxAccepted) {
+            if (edges.count() >= maxAccepted) {
                 pausedFull = true;
-                return TRACK_PAUSED;
+                return Track.PAUSED;
             }
             if (t > timeLimit) {
-                return TRACK_PAUSED;
+                return Track.PAUSED;
             }
             if (q.levelOnly(t)) {
                 // the transition ending an unknown span tells the level after it, not an edge time:
                 // it takes no part in the period, the dropout check or the glitch check, and it
                 // does not make the edge before it a runt
                 if (pending && !finalizePending()) {
-                    return TRACK_REACQUIRE;
+                    return Track.REACQUIRE;
                 }
                 pos++;
                 continue;
@@ -351,7 +325,7 @@ final class ClockRecovery {
                             continue;
                         }
                     } else if (!finishing && horizon <= t + w) {
-                        return TRACK_DONE; // the next transition decides; wait for it
+                        return Track.DONE; // the next transition decides; wait for it
                     }
                     glitch(pendingT, t);
                     pending = false;
@@ -359,7 +333,7 @@ final class ClockRecovery {
                     continue;
                 }
                 if (!finalizePending()) {
-                    return TRACK_REACQUIRE;
+                    return Track.REACQUIRE;
                 }
             }
             pending = true;
@@ -369,9 +343,9 @@ final class ClockRecovery {
             pos++;
         }
         if (pending && (finishing || horizon > pendingT + glitchFraction * periodFs)) {
-            return finalizePending() ? TRACK_DONE : TRACK_REACQUIRE;
+            return finalizePending() ? Track.DONE : Track.REACQUIRE;
         }
-        return TRACK_DONE;
+        return Track.DONE;
     }
 
     /**
@@ -385,14 +359,15 @@ final class ClockRecovery {
         final double dp = dropoutPeriods;
         final long tl = timeLimit;
         final boolean mult = multiplied;
-        final boolean inv = inverted;
+        final boolean inv = pattern.inverted();
         final boolean init = q.initialLevel;
-        final long[] aT = accT;
-        final double[] aP = accP;
-        final byte[] aF = accFlags;
-        final long[] aI = accIndex;
-        final int lim = Math.min(maxAccepted, aT.length);
-        final double ref = periodRef;
+        final AcceptedEdges out = edges;
+        final long[] aT = out.timesFs();
+        final double[] aP = out.periodsFs();
+        final byte[] aF = out.flags();
+        final long[] aI = out.indices();
+        final int lim = Math.min(maxAccepted, out.capacity());
+        final ClockStats st = stats;
         double period = periodFs;
         long pT = pendingT;
         boolean pR = pendingRising;
@@ -401,18 +376,9 @@ final class ClockRecovery {
         boolean lastR = lastFinalRising;
         long lsR = lastSame[1];
         long lsF = lastSame[0];
-        int ac = accCount;
+        int ac = out.count();
         long acc = accepted;
         long refs = referenceEdges;
-        long pc = periodCount;
-        double pSum = periodSum;
-        double pSq = periodSumSq;
-        double pMin = periodMin;
-        double pMax = periodMax;
-        long dc = dutyCount;
-        double dSum = dutySum;
-        double dMin = dutyMin;
-        double dMax = dutyMax;
         long p = pos;
         while (p < end && ac < lim) {
             final long t = tt[(int) (p - base)];
@@ -426,18 +392,9 @@ final class ClockRecovery {
             }
             final double iv = pT - same;
             period += (iv - period) * alpha;
-            pc++;
-            final double dv = iv - ref;
-            pSum += dv;
-            pSq += dv * dv;
-            pMin = iv < pMin ? iv : pMin;
-            pMax = iv > pMax ? iv : pMax;
+            st.addPeriod(iv);
             if (!pR && lastR) {
-                double duty = (pT - lastT) / period;
-                dc++;
-                dSum += duty;
-                dMin = duty < dMin ? duty : dMin;
-                dMax = duty > dMax ? duty : dMax;
+                st.addDuty((pT - lastT) / period);
             }
             final boolean reference = mult ? pR != inv : pR;
             aT[ac] = pT;
@@ -469,18 +426,9 @@ final class ClockRecovery {
         lastFinalRising = lastR;
         lastSame[1] = lsR;
         lastSame[0] = lsF;
-        accCount = ac;
+        out.appended(ac);
         accepted = acc;
         referenceEdges = refs;
-        periodCount = pc;
-        periodSum = pSum;
-        periodSumSq = pSq;
-        periodMin = pMin;
-        periodMax = pMax;
-        dutyCount = dc;
-        dutySum = dSum;
-        dutyMin = dMin;
-        dutyMax = dMax;
         pos = p;
     }
 
@@ -517,48 +465,14 @@ final class ClockRecovery {
         if (haveSame[d]) {
             double iv = t - lastSame[d];
             periodFs += (iv - periodFs) * ALPHA;
-            if (periodCount == 0) {
-                periodRef = iv;
-            }
-            periodCount++;
-            double dv = iv - periodRef;
-            periodSum += dv;
-            periodSumSq += dv * dv;
-            if (iv < periodMin) {
-                periodMin = iv;
-            }
-            if (iv > periodMax) {
-                periodMax = iv;
-            }
+            stats.addPeriod(iv);
         }
         if (!rising && haveLast && lastFinalRising && !restart) {
-            double duty = (t - lastFinalT) / periodFs;
-            dutyCount++;
-            dutySum += duty;
-            if (duty < dutyMin) {
-                dutyMin = duty;
-            }
-            if (duty > dutyMax) {
-                dutyMax = duty;
-            }
+            stats.addDuty((t - lastFinalT) / periodFs);
         }
-        boolean reference = multiplied ? rising != inverted : rising;
-        if (accCount == accT.length) {
-            int n = accT.length * 2;
-            accT = Arrays.copyOf(accT, n);
-            accP = Arrays.copyOf(accP, n);
-            accFlags = Arrays.copyOf(accFlags, n);
-            accIndex = Arrays.copyOf(accIndex, n);
-        }
-        accT[accCount] = t;
-        accP[accCount] = periodFs;
-        accFlags[accCount] = (byte) ((rising ? RISING : 0) | (restart ? RESTART : 0) | (suspect ? SUSPECT : 0)
-                | (reference ? REFERENCE : 0));
-        accIndex[accCount] = multiplied ? (reference ? referenceEdges : -1) : accepted;
-        accCount++;
-        if (firstEdgeFs == Long.MIN_VALUE) {
-            firstEdgeFs = t;
-        }
+        boolean reference = multiplied ? rising != pattern.inverted() : rising;
+        edges.add(t, periodFs, (byte) ((rising ? RISING : 0) | (restart ? RESTART : 0) | (suspect ? SUSPECT : 0)
+                | (reference ? REFERENCE : 0)), multiplied ? (reference ? referenceEdges : -1) : accepted);
         accepted++;
         if (reference) {
             referenceEdges++;
@@ -577,22 +491,22 @@ final class ClockRecovery {
      * Whether a dropout follows the last accepted edge.
      *
      * @param horizon every clock transition before this time is known
-     * @return 1 yes, 0 no (the capture ended first), -1 not known yet
+     * @return whether a dropout follows, or that it is not known yet
      */
-    int gapAfterLast(long horizon) {
+    Gap gapAfterLast(long horizon) {
         if (afterDropout || stoppedAtEnd) {
-            return 1;
+            return Gap.YES;
         }
         if (finished) {
-            return 0;
+            return Gap.NO;
         }
         if (haveP && haveLast) {
             double limit = cfg.dropoutPeriods() * periodFs;
             if (pending ? pendingT - lastFinalT > limit : (pos >= q.globalEnd() && horizon > lastFinalT + limit)) {
-                return 1;
+                return Gap.YES;
             }
         }
-        return -1;
+        return Gap.UNKNOWN;
     }
 
     /**
@@ -615,25 +529,82 @@ final class ClockRecovery {
         return haveLast ? lastFinalT : Long.MIN_VALUE;
     }
 
-    /** Drops the first {@code n} accepted edges (the planner took them). */
-    void consumed(int n) {
-        System.arraycopy(accT, n, accT, 0, accCount - n);
-        System.arraycopy(accP, n, accP, 0, accCount - n);
-        System.arraycopy(accFlags, n, accFlags, 0, accCount - n);
-        System.arraycopy(accIndex, n, accIndex, 0, accCount - n);
-        accCount -= n;
+    /** Accepted edges waiting for the planner; it removes what it took with {@link AcceptedEdges#consumed}. */
+    AcceptedEdges edges() {
+        return edges;
     }
 
-    double periodMean() {
-        return periodCount > 0 ? periodRef + periodSum / periodCount : periodFs;
+    /** Period and duty-cycle statistics over every accepted edge. */
+    ClockStats stats() {
+        return stats;
     }
 
-    double periodStd() {
-        if (periodCount < 2) {
-            return 0;
+    /** Where the recovery stands now. */
+    Phase phase() {
+        if (finished) {
+            return Phase.FINISHED;
         }
-        double v = (periodSumSq - periodSum * periodSum / periodCount) / (periodCount - 1);
-        return Math.sqrt(Math.max(0, v));
+        if (gaveUp) {
+            return Phase.GAVE_UP;
+        }
+        if (!q.started) {
+            return Phase.WAITING;
+        }
+        if (acquiring) {
+            return afterDropout ? Phase.REACQUIRING : Phase.ACQUIRING;
+        }
+        return Phase.TRACKING;
+    }
+
+    /** Whether a period has been measured. */
+    boolean hasPeriod() {
+        return haveP;
+    }
+
+    /** The tracked period, fs; NaN before the first acquisition. */
+    double periodFs() {
+        return periodFs;
+    }
+
+    /** Mean of the measured intervals, fs, or the tracked period when none was measured. */
+    double periodMean() {
+        return stats.periodMeanFs(periodFs);
+    }
+
+    /** Standard deviation of the measured intervals, fs. */
+    double periodStd() {
+        return stats.periodStdFs();
+    }
+
+    /** Clock frequency from the mean interval, or from the tracked period; NaN without either. */
+    double frequencyHz() {
+        return stats.intervals() > 0 ? 1e15 / periodMean() : (haveP ? 1e15 / periodFs : Double.NaN);
+    }
+
+    long acceptedEdges() {
+        return accepted;
+    }
+
+    long glitches() {
+        return glitches;
+    }
+
+    long dropouts() {
+        return dropouts;
+    }
+
+    long restarts() {
+        return restarts;
+    }
+
+    /** Duty cycle measured at the first acquisition, NaN if none. */
+    double acquiredDuty() {
+        return acquiredDuty;
+    }
+
+    /** The multiplied-clock pattern decision. */
+    ClockPattern pattern() {
+        return pattern;
     }
 
     boolean finished() {

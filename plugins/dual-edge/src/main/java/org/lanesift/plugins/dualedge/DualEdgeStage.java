@@ -106,7 +106,7 @@ final class DualEdgeStage implements Stage {
         }
         // look at the clock only a little ahead of the data; the rest waits in the queue
         long limit = hData == Long.MIN_VALUE ? Long.MIN_VALUE
-                : cr.haveP ? satAdd(hData, (long) (4 * cr.periodFs)) : Long.MAX_VALUE;
+                : cr.hasPeriod() ? satAdd(hData, (long) (4 * cr.periodFs())) : Long.MAX_VALUE;
         boolean more;
         do {
             more = cr.run(hClock, finishing, limit, CHUNK);
@@ -243,7 +243,7 @@ final class DualEdgeStage implements Stage {
     static final long NO_CLOCK_KEEP_FS = 1_000_000_000_000L; // 1 ms
 
     private void discardOld() {
-        if (!cr.haveP) {
+        if (!cr.hasPeriod()) {
             // no clock yet: no sample can reach back further than one UI before the first clock edge
             // still to come; without a period, keep a generous 1 ms so memory stays bounded
             if (clockQ.started) {
@@ -266,7 +266,7 @@ final class DualEdgeStage implements Stage {
         from = Math.min(from, planner.frontierFs());
         from = Math.min(from, cr.frontierFs(clockQ.endFs));
         long last = cr.lastAcceptedFs();
-        long slack = (long) (2 * cr.periodFs + (phaseIsUi ? Math.abs(phaseUi) * cr.periodFs : Math.abs(phaseFs)));
+        long slack = (long) (2 * cr.periodFs() + (phaseIsUi ? Math.abs(phaseUi) * cr.periodFs() : Math.abs(phaseFs)));
         long keep = sat(from, slack);
         if (keep != Long.MIN_VALUE) {
             for (EdgeQueue q : laneQ) {
@@ -298,27 +298,27 @@ final class DualEdgeStage implements Stage {
         j.name("bitsPerLane").value(emittedBits);
         j.name("clock").beginObject();
         j.name("channel").value(clockQ.channel);
-        j.name("acceptedEdges").value(cr.accepted);
-        j.name("glitches").value(cr.glitches);
-        j.name("dropouts").value(cr.dropouts);
-        j.name("restarts").value(cr.restarts);
+        j.name("acceptedEdges").value(cr.acceptedEdges());
+        j.name("glitches").value(cr.glitches());
+        j.name("dropouts").value(cr.dropouts());
+        j.name("restarts").value(cr.restarts());
         j.name("periodFs").beginObject();
         j.name("mean").value(cr.periodMean());
         j.name("std").value(cr.periodStd());
-        j.name("min").value(cr.periodCount > 0 ? cr.periodMin : Double.NaN);
-        j.name("max").value(cr.periodCount > 0 ? cr.periodMax : Double.NaN);
-        j.name("intervals").value(cr.periodCount);
+        j.name("min").value(cr.stats().periodMinFs());
+        j.name("max").value(cr.stats().periodMaxFs());
+        j.name("intervals").value(cr.stats().intervals());
         j.endObject();
-        j.name("frequencyHz").value(cr.periodCount > 0 ? 1e15 / cr.periodMean() : (cr.haveP ? 1e15 / cr.periodFs : Double.NaN));
+        j.name("frequencyHz").value(cr.frequencyHz());
         j.name("duty").beginObject();
-        j.name("mean").value(cr.dutyCount > 0 ? cr.dutySum / cr.dutyCount : Double.NaN);
-        j.name("min").value(cr.dutyCount > 0 ? cr.dutyMin : Double.NaN);
-        j.name("max").value(cr.dutyCount > 0 ? cr.dutyMax : Double.NaN);
-        j.name("atAcquisition").value(cr.acquiredDuty);
+        j.name("mean").value(cr.stats().dutyMean());
+        j.name("min").value(cr.stats().dutyMin());
+        j.name("max").value(cr.stats().dutyMax());
+        j.name("atAcquisition").value(cr.acquiredDuty());
         j.endObject();
         if (cfg.mode() == SamplerConfig.Mode.MULTIPLIED) {
-            j.name("inverted").value(cr.inverted);
-            j.name("slot0").value(cr.patternVerdict);
+            j.name("inverted").value(cr.pattern().inverted());
+            j.name("slot0").value(cr.pattern().verdict());
             j.name("pixels").value(planner.pixels);
             j.name("pixelsDroppedAtDropouts").value(planner.pixelsDropped);
         }

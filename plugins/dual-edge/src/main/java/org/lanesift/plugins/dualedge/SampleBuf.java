@@ -80,7 +80,7 @@ final class SampleBuf {
      *
      * @param accT        edge times
      * @param accP        tracked period at each edge
-     * @param accFlags    {@link ClockRecovery} flags
+     * @param accFlags    {@link AcceptedEdges} flags
      * @param accIndex    edge numbers
      * @param count       edges to take
      * @param wantRising  take rising edges
@@ -107,7 +107,7 @@ final class SampleBuf {
         int k = n;
         for (int i = 0; i < count; i++) {
             final byte f = accFlags[i];
-            final boolean rising = (f & ClockRecovery.RISING) != 0;
+            final boolean rising = (f & AcceptedEdges.RISING) != 0;
             if (rising ? !wantRising : !wantFalling) {
                 continue;
             }
@@ -124,7 +124,7 @@ final class SampleBuf {
             re[k] = cReach;
             th[k] = cThr;
             sc[k] = cScale;
-            fl[k] = (byte) ((rising ? 0 : FALLING) | ((f & ClockRecovery.SUSPECT) != 0 ? SUSPECT : 0));
+            fl[k] = (byte) ((rising ? 0 : FALLING) | ((f & AcceptedEdges.SUSPECT) != 0 ? SUSPECT : 0));
             sl[k] = 0;
             k++;
         }

@@ -38,20 +38,21 @@ final class SamplePlanner {
      * @param clockEndFs   end of the clock input's coverage
      */
     void consume(ClockRecovery cr, SampleBuf sb, long clockHorizon, long clockEndFs) {
-        int n = cr.accCount;
+        AcceptedEdges acc = cr.edges();
+        int n = acc.count();
         if (cfg.mode() != SamplerConfig.Mode.MULTIPLIED) {
             boolean ddr = cfg.mode() == SamplerConfig.Mode.DDR;
             boolean wantRising = cfg.mode() != SamplerConfig.Mode.FALLING;
             boolean wantFalling = cfg.mode() != SamplerConfig.Mode.RISING;
             double align = cfg.edgeAligned() ? 0.5 : 0;
-            sb.addEdges(cr.accT, cr.accP, cr.accFlags, cr.accIndex, n, wantRising, wantFalling, ddr ? 0.5 : 1, align);
-            cr.consumed(n);
+            sb.addEdges(acc.timesFs(), acc.periodsFs(), acc.flags(), acc.indices(), n, wantRising, wantFalling, ddr ? 0.5 : 1, align);
+            acc.consumed(n);
             return;
         }
         for (int i = 0; i < n; i++) {
-            byte f = cr.accFlags[i];
-            boolean restart = (f & ClockRecovery.RESTART) != 0;
-            boolean suspect = (f & ClockRecovery.SUSPECT) != 0;
+            byte f = acc.flags()[i];
+            boolean restart = (f & AcceptedEdges.RESTART) != 0;
+            boolean suspect = (f & AcceptedEdges.SUSPECT) != 0;
             if (pendingPixel) {
                 if (restart) {
                     pixelsDropped++;
@@ -63,29 +64,29 @@ final class SamplePlanner {
             if (restart) {
                 haveRef = false;
             }
-            if ((f & ClockRecovery.REFERENCE) != 0) {
-                long t = cr.accT[i];
+            if ((f & AcceptedEdges.REFERENCE) != 0) {
+                long t = acc.timesFs()[i];
                 if (haveRef) {
                     pendingPixel = true;
                     pxR0 = refT;
                     pxR1 = t;
                     pxIdx = refIdx;
                     pxSuspect = refSuspect || suspect;
-                    pxFalling = (f & ClockRecovery.RISING) == 0;
+                    pxFalling = (f & AcceptedEdges.RISING) == 0;
                 }
                 haveRef = true;
                 refT = t;
-                refIdx = cr.accIndex[i];
+                refIdx = acc.indices()[i];
                 refSuspect = suspect;
             }
         }
-        cr.consumed(n);
+        acc.consumed(n);
         if (pendingPixel) {
-            int g = cr.gapAfterLast(clockHorizon);
-            if (g == 1) {
+            ClockRecovery.Gap g = cr.gapAfterLast(clockHorizon);
+            if (g == ClockRecovery.Gap.YES) {
                 pixelsDropped++;
                 pendingPixel = false;
-            } else if (g == 0) {
+            } else if (g == ClockRecovery.Gap.NO) {
                 long p = pxR1 - pxR0;
                 double endF = (cfg.slot0AfterRef() + cfg.slots()) / (double) cfg.slots();
                 long lastEnd = endF <= 1 ? pxR0 + Math.round(endF * p) : pxR1 + Math.round((endF - 1) * p);

@@ -59,18 +59,18 @@ class SampleBufBulkTest {
                 accT[i] = t;
                 accP[i] = period;
                 boolean rising = (index & 1) == 0;
-                accF[i] = (byte) ((rising ? ClockRecovery.RISING : 0) | (r.nextInt(10) == 0 ? ClockRecovery.SUSPECT : 0)
-                        | (r.nextInt(50) == 0 ? ClockRecovery.RESTART : 0));
+                accF[i] = (byte) ((rising ? AcceptedEdges.RISING : 0) | (r.nextInt(10) == 0 ? AcceptedEdges.SUSPECT : 0)
+                        | (r.nextInt(50) == 0 ? AcceptedEdges.RESTART : 0));
                 accI[i] = index++;
             }
             for (int i = 0; i < count; i++) {
-                boolean rising = (accF[i] & ClockRecovery.RISING) != 0;
+                boolean rising = (accF[i] & AcceptedEdges.RISING) != 0;
                 if (rising ? !wantRising : !wantFalling) {
                     continue;
                 }
                 double ui = ddr ? accP[i] * 0.5 : accP[i];
                 long nominal = align == 0 ? accT[i] : accT[i] + Math.round(align * ui);
-                ref.add(nominal, accI[i], ui, !rising, (accF[i] & ClockRecovery.SUSPECT) != 0, 0);
+                ref.add(nominal, accI[i], ui, !rising, (accF[i] & AcceptedEdges.SUSPECT) != 0, 0);
             }
             bulk.addEdges(accT, accP, accF, accI, count, wantRising, wantFalling, ddr ? 0.5 : 1, align);
             assertSame(ref, bulk);
