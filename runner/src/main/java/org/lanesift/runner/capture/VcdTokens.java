@@ -105,4 +105,36 @@ final class VcdTokens {
     String shown() {
         return tokLen > 40 ? new String(tok, 0, 40, StandardCharsets.ISO_8859_1) + "..." : text();
     }
+
+    /** A format error at the current token's line. */
+    CaptureFormatException error(String msg) {
+        return new CaptureFormatException(file, tokLine, msg);
+    }
+
+    /** The file ended inside a section opened by {@code kw}. */
+    CaptureFormatException truncated(String kw) {
+        return new CaptureFormatException(file, tokLine, "truncated: the file ends inside " + kw + "; expected $end");
+    }
+
+    /** Reads the {@code $end} that must follow {@code kw} directly. */
+    void expectEnd(String kw) throws IOException {
+        if (!next()) {
+            throw truncated(kw);
+        }
+        if (!is("$end")) {
+            throw error(kw + ": expected $end, found '" + shown() + "'");
+        }
+    }
+
+    /** Skips everything up to and including the next {@code $end}. */
+    void skipToEnd(String kw) throws IOException {
+        while (true) {
+            if (!next()) {
+                throw truncated(kw);
+            }
+            if (is("$end")) {
+                return;
+            }
+        }
+    }
 }
