@@ -1,8 +1,6 @@
 package org.lanesift.plugins.pixellink;
 
-import java.util.Arrays;
 import org.lanesift.annotation.Annotation;
-import org.lanesift.annotation.Field;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.Frame;
 import org.lanesift.time.Femtos;
@@ -17,6 +15,12 @@ import org.lanesift.time.Femtos;
  * Vertical values are counted in lines between HS leading edges, or, without HS, in DE periods.
  * A frame is complete only when the blanking before and after it lay inside the capture and no
  * lock was lost during it; every other frame is output with {@code partial = true}.
+ *
+ * <p>This class follows the line and frame geometry (DE runs, HS and VS edges, the provisional
+ * first gap on DE-only links) and feeds the measurements into {@link Timing}; the picture is kept
+ * by a {@link PictureBuffer}, the per-frame bookkeeping by a {@link FrameState}, the sync
+ * polarities are learned by {@link SyncPolarity}, and every annotation goes through
+ * {@link FrameFindings}.
  */
 final class FrameAssembler {
     static final int SUSPECT = 1 << 27;
@@ -43,18 +47,12 @@ final class FrameAssembler {
 
     private final String id;
     private final Out out;
-    final Timing timing;
+    private final Timing timing;
     private final Pictures pictures;
+    private final FrameFindings findings;
     private final int maxWidth;
     private final int maxHeight;
-    private final Detail detail;
-    private final int hsForced;
-    private final int vsForced;
     private final double clockTol;
-    private final String trackFrames;
-    private final String trackLines;
-    private final String trackSync;
-    private final String trackAnom;
 
     private long n;
     private int ctrl = -1;
@@ -79,37 +77,14 @@ final class FrameAssembler {
     private long leadIn = -1;
 
     // frame
-    private boolean frameOpen;
-    private int[] buf = new int[0];
-    private int rows;
-    private int width = -1;
-    private boolean frameStartSeen;
-    private boolean frameStartPending;
-    private boolean frameBroken;
-    private boolean frameSuspect;
-    private String brokenReason;
-    private long frameFirstRise = NONE;
-    private long frameFirstT;
-    private long frameFirstV;
-    private long frameFirstHs;
-    private long frameIndex;
-    private long frameSuspectBits;
-    private long frameMismatch;
-    private boolean frameDriftReported;
-    private boolean frameTooTallReported;
-    private long frameLastFallT;
+    private final FrameState frame = new FrameState(NONE);
+    private final PictureBuffer picture;
 
-    // bootstrap of the first gap on DE-only links
-    private boolean bootPending;
-    private int bootRow;
-    private long bootGap;
-    private long bootPeriod;
-    private long bootIdx;
-    private long bootT;
+    // the first gap on DE-only links
+    private final FirstGap firstGap = new FirstGap();
 
     // HS
-    private int hsActive = -1;
-    private boolean deInHsRun;
+    private final SyncPolarity hs;
     private long hsLeadIdx = NONE;
     private long hsLeadT;
     private long prevHsLeadIdx = NONE;
@@ -121,8 +96,7 @@ final class FrameAssembler {
     private boolean hsKnownAtFall;
 
     // VS
-    private int vsActive = -1;
-    private boolean deInVsRun;
+    private final SyncPolarity vs;
     private long vsLeadIdx = NONE;
     private long vsLeadT;
     private long vsLeadHs;
@@ -137,17 +111,14 @@ final class FrameAssembler {
         this.out = out;
         this.timing = timing;
         this.pictures = pictures;
+        this.findings = new FrameFindings(id, out, timing, detail);
         this.maxWidth = maxWidth;
         this.maxHeight = maxHeight;
-        this.detail = detail;
-        this.hsForced = hsForced;
-        this.vsForced = vsForced;
+        this.hs = new SyncPolarity(hsForced);
+        this.vs = new SyncPolarity(vsForced);
+        this.picture = new PictureBuffer(maxHeight);
         this.clockTol = clockTolPercent / 100;
         this.line = new int[maxWidth];
-        trackFrames = id + ".frames";
-        trackLines = id + ".lines";
-        trackSync = id + ".sync";
-        trackAnom = id + ".anomalies";
     }
 
     /**
@@ -191,13 +162,11 @@ final class FrameAssembler {
             lostLock(idx, t, incomplete ? "a pixel with missing bit slots or a lane without data" : "the clock stopped or jumped", incomplete);
         }
         if ((flags & F_SUSPECT) != 0) {
-            frameSuspect |= frameOpen;
-            frameSuspectBits++;
+            frame.suspectPixel();
         }
         if ((flags & F_MISMATCH) != 0) {
-            if (frameMismatch++ == 0) {
-                timing.anomaly("link-mismatch");
-                anomaly(idx, t, "link-mismatch", Severity.WARNING, "odd and even links disagree on DE/HS/VS");
+            if (frame.firstMismatch()) {
+                findings.anomaly(idx, t, "link-mismatch", Severity.WARNING, "odd and even links disagree on DE/HS/VS");
             }
         }
         int c = incomplete ? Math.max(ctrl, 0) : (p >>> 24) & 7;
@@ -211,8 +180,8 @@ final class FrameAssembler {
                 lineStartT = t;
                 x = 0;
             }
-            deInHsRun = (c & 1) != 0;
-            deInVsRun = deInHsRun;
+            hs.start((c & 1) != 0);
+            vs.start((c & 1) != 0);
         } else {
             int changed = c ^ ctrl;
             boolean de = (c & 1) != 0;
@@ -242,16 +211,14 @@ final class FrameAssembler {
 
     private void lostLock(long idx, long t, String why, boolean incomplete) {
         if (lastLostIdx == NONE || idx - lastLostIdx > 1) {
-            timing.anomaly("lost-lock");
-            anomaly(idx, t, "lost-lock", Severity.ERROR, "lock lost: " + why);
+            findings.anomaly(idx, t, "lost-lock", Severity.ERROR, "lock lost: " + why);
         }
         lastLostIdx = idx;
         validFrom = idx + (incomplete ? 1 : 0);
-        if (frameOpen && !frameBroken) {
-            frameBroken = true;
-            brokenReason = "lock lost at " + Femtos.format(t) + " (" + why + ")";
+        if (frame.isOpen() && !frame.broken()) {
+            frame.markBroken("lock lost at " + Femtos.format(t) + " (" + why + ")");
         }
-        bootPending = false;
+        firstGap.drop();
         if (!lineOpen) {
             fallIdx = idx;
             fallT = t;
@@ -265,14 +232,14 @@ final class FrameAssembler {
         fallT = t;
         fallSinceHsLead = true;
         hsLeadsSinceFall = 0;
-        hsKnownAtFall = hsActive >= 0;
+        hsKnownAtFall = hs.known();
         if (!lineOpen) {
             return;
         }
         lineOpen = false;
         int len = x;
         x = 0;
-        if (lineTruncated || !frameOpen) {
+        if (lineTruncated || !frame.isOpen()) {
             return;
         }
         linesSeen++;
@@ -280,58 +247,33 @@ final class FrameAssembler {
         if (valid) {
             timing.hActive.add(len);
         }
+        int width = picture.width();
         if (width < 0) {
             if (len > maxWidth) {
-                timing.anomaly("line-too-long");
-                anomaly(lineStartIdx, lineStartT, "line-too-long", Severity.ERROR,
+                findings.anomaly(lineStartIdx, lineStartT, "line-too-long", Severity.ERROR,
                         "line of " + len + " pixels is longer than maxWidth " + maxWidth);
-                markBroken("a line longer than maxWidth");
+                frame.markBroken("a line longer than maxWidth");
                 return;
             }
             width = len;
+            picture.width(len);
         }
+        int rows = picture.rows();
         if (len != width) {
-            timing.anomaly("line-length");
-            frameSuspect = true;
-            out.annotate(Annotation.on(trackAnom, "line-length").span(lineStartT, t).severity(Severity.WARNING)
-                    .label("line " + rows + ": " + len + " px, expected " + width)
-                    .field("pixels", Field.integer(len, "px")).field("expected", Field.integer(width, "px"))
-                    .field("row", Field.integer(rows, "")).field("frame", Field.integer(frameIndex, "")).build());
+            frame.markSuspect();
+            findings.lineLength(lineStartT, t, len, width, rows, frame.index());
         }
         if (rows >= maxHeight) {
-            if (!frameTooTallReported) {
-                frameTooTallReported = true;
-                timing.anomaly("frame-too-tall");
-                anomaly(lineStartIdx, lineStartT, "frame-too-tall", Severity.ERROR,
+            if (frame.firstTooTallReport()) {
+                findings.anomaly(lineStartIdx, lineStartT, "frame-too-tall", Severity.ERROR,
                         "frame has more than maxHeight " + maxHeight + " lines");
             }
-            markBroken("more lines than maxHeight");
+            frame.markBroken("more lines than maxHeight");
             return;
         }
-        long need = (long) (rows + 1) * width;
-        if (need > buf.length) {
-            buf = Arrays.copyOf(buf, (int) Math.min(Math.max(need, 2L * buf.length), (long) maxHeight * width));
-        }
-        int off = rows * width;
-        int copy = Math.min(len, width);
-        System.arraycopy(line, 0, buf, off, Math.min(copy, line.length));
-        if (copy < width) {
-            Arrays.fill(buf, off + copy, off + width, 0);
-        }
-        rows++;
-        frameLastFallT = t;
-        if (detail == Detail.LINES) {
-            out.annotate(Annotation.on(trackLines, "line").span(lineStartT, t).label(len + " px")
-                    .field("pixels", Field.integer(len, "px")).field("row", Field.integer(rows - 1, ""))
-                    .field("frame", Field.integer(frameIndex, "")).build());
-        }
-    }
-
-    private void markBroken(String why) {
-        if (!frameBroken) {
-            frameBroken = true;
-            brokenReason = why;
-        }
+        picture.appendRow(line, len);
+        frame.lastFallT(t);
+        findings.line(lineStartT, t, len, rows, frame.index());
     }
 
     private long vLineOf(long idx) {
@@ -353,17 +295,18 @@ final class FrameAssembler {
 
     private void deRise(long idx, long t) {
         // resolve a provisional first gap (DE-only links, start of capture)
-        if (bootPending && lastRiseIdx == bootIdx && pRef <= 0) {
-            bootPending = false;
-            long p2 = idx - bootIdx;
-            if (2 * bootPeriod > 3 * p2 && bootGap > p2) {
-                pRef = p2;
-                splitAtBoot();
-            } else if (2 * p2 > 3 * bootPeriod) {
-                pRef = bootPeriod;
-            } else {
-                pRef = p2;
-                timing.hDePeriod.add(bootPeriod);
+        if (firstGap.pendingAt(lastRiseIdx) && pRef <= 0) {
+            long p2 = idx - firstGap.riseIdx();
+            switch (firstGap.decide(idx)) {
+                case VERTICAL -> {
+                    pRef = p2;
+                    splitAtFirstGap();
+                }
+                case HORIZONTAL_BEFORE_VERTICAL -> pRef = firstGap.periodPixels();
+                case HORIZONTAL -> {
+                    pRef = p2;
+                    timing.hDePeriod.add(firstGap.periodPixels());
+                }
             }
         }
         int kind; // 0 lead-in, 1 horizontal, 2 vertical, 3 provisional horizontal
@@ -372,38 +315,33 @@ final class FrameAssembler {
             leadIn = idx;
         } else {
             long gap = idx - fallIdx;
-            if (hsKnownAtFall && hsActive >= 0) {
+            if (hsKnownAtFall && hs.known()) {
                 kind = hsLeadsSinceFall >= 2 ? 2 : 1;
             } else if (pRef > 0) {
                 kind = gap > pRef ? 2 : 1;
             } else if (lastRiseIdx != NONE && lastRiseIdx >= validFrom) {
                 kind = 3;
-                bootPending = true;
-                bootRow = rows;
-                bootGap = gap;
-                bootPeriod = idx - lastRiseIdx;
-                bootIdx = idx;
-                bootT = t;
+                firstGap.hold(picture.rows(), gap, idx - lastRiseIdx, idx, t);
             } else {
                 kind = 1;
             }
         }
         long vLine = (lastRiseIdx != NONE && pRef > 0) ? vLineOf(idx) : lastRiseV + 1;
-        long hsL = hsActive >= 0 ? hsLines : -1;
+        long hsL = hs.known() ? hsLines : -1;
         if (kind == 2) {
-            if (vsActive >= 0 && vsTrailIdx != NONE && vsTrailIdx >= validFrom && vsTrailIdx > fallIdx) {
+            if (vs.known() && vsTrailIdx != NONE && vsTrailIdx >= validFrom && vsTrailIdx > fallIdx) {
                 long l = linesBetween(vsTrailHs, vsTrailV, hsL, vLine);
                 if (l != NONE) {
                     timing.vBack.add(l);
                 }
             }
-            boolean prevStartSeen = frameOpen && frameStartSeenNow();
-            long pfRise = frameFirstRise;
-            long pfT = frameFirstT;
-            long pfHs = frameFirstHs;
-            long pfV = frameFirstV;
-            boolean pfBroken = frameBroken;
-            if (frameOpen) {
+            boolean prevStartSeen = frame.isOpen() && frameStartSeenNow();
+            long pfRise = frame.firstRise();
+            long pfT = frame.firstT();
+            long pfHs = frame.firstHs();
+            long pfV = frame.firstV();
+            boolean pfBroken = frame.broken();
+            if (frame.isOpen()) {
                 closeFrame(true);
             }
             if (prevStartSeen && !pfBroken && pfRise != NONE && pfRise >= validFrom) {
@@ -417,7 +355,7 @@ final class FrameAssembler {
                 }
             }
             openFrame(idx, t, fallIdx >= validFrom || idx - fallIdx > Math.max(pRef, 0), false, hsL, vLine);
-        } else if (!frameOpen) {
+        } else if (!frame.isOpen()) {
             openFrame(idx, t, false, kind == 0, hsL, vLine);
         } else if (kind == 1 && fallIdx >= validFrom && lastRiseIdx != NONE && lastRiseIdx >= validFrom) {
             long per = idx - lastRiseIdx;
@@ -427,10 +365,8 @@ final class FrameAssembler {
             if (t > lastRiseT) {
                 double f = per * 1e15 / (t - lastRiseT);
                 double ref = timing.clockPerLine.mean();
-                if (timing.clockPerLine.count() >= 2 && Math.abs(f - ref) > clockTol * ref && !frameDriftReported) {
-                    frameDriftReported = true;
-                    timing.anomaly("clock-drift");
-                    anomaly(idx, t, "clock-drift", Severity.WARNING, String.format(java.util.Locale.ROOT,
+                if (timing.clockPerLine.count() >= 2 && Math.abs(f - ref) > clockTol * ref && frame.firstDriftReport()) {
+                    findings.anomaly(idx, t, "clock-drift", Severity.WARNING, String.format(java.util.Locale.ROOT,
                             "pixel clock %.0f Hz over this line, %.0f Hz on average", f, ref));
                 }
                 timing.clockPerLine.add(f);
@@ -438,12 +374,12 @@ final class FrameAssembler {
                 timing.lineTimeFs += t - lastRiseT;
             }
         }
-        if (hsActive >= 0 && !riseSinceHsTrail && hsTrailIdx != NONE && hsTrailIdx >= validFrom) {
+        if (hs.known() && !riseSinceHsTrail && hsTrailIdx != NONE && hsTrailIdx >= validFrom) {
             timing.hBack.add(idx - hsTrailIdx);
         }
         riseSinceHsTrail = true;
-        deInHsRun = true;
-        deInVsRun = true;
+        hs.deSeen();
+        vs.deSeen();
         lastRiseIdx = idx;
         lastRiseT = t;
         lastRiseV = vLine;
@@ -457,24 +393,19 @@ final class FrameAssembler {
 
     private void hsEdge(long idx, long t, boolean level, boolean deNow) {
         int lv = level ? 1 : 0;
-        if (hsActive < 0) {
-            if (hsForced >= 0) {
-                hsActive = hsForced;
-            } else if (deInHsRun) {
-                hsActive = lv;
-            } else {
-                deInHsRun = deNow;
-                return;
-            }
-            timing.hsActive = hsActive;
+        boolean knew = hs.known();
+        if (!hs.edge(lv, deNow)) {
+            return;
         }
-        deInHsRun = deNow;
-        if (lv == hsActive) {
+        if (!knew) {
+            timing.hsActive = hs.active();
+        }
+        if (lv == hs.active()) {
             hsLines++;
             if (prevHsLeadIdx != NONE && prevHsLeadIdx >= validFrom) {
                 timing.hTotal.add(idx - prevHsLeadIdx);
             }
-            if (fallSinceHsLead && !lineOpen && fallIdx != NONE && fallIdx >= validFrom && frameOpen) {
+            if (fallSinceHsLead && !lineOpen && fallIdx != NONE && fallIdx >= validFrom && frame.isOpen()) {
                 timing.hFront.add(idx - fallIdx);
             }
             fallSinceHsLead = false;
@@ -486,10 +417,7 @@ final class FrameAssembler {
             if (hsLeadIdx != NONE && hsLeadIdx >= validFrom) {
                 long w = idx - hsLeadIdx;
                 timing.hSync.add(w);
-                if (detail == Detail.LINES) {
-                    out.annotate(Annotation.on(trackSync, "hsync").span(hsLeadT, t).label("HS " + w + " px")
-                            .field("width", Field.integer(w, "px")).build());
-                }
+                findings.hsync(hsLeadT, t, w);
             }
             hsTrailIdx = idx;
             riseSinceHsTrail = false;
@@ -498,21 +426,16 @@ final class FrameAssembler {
 
     private void vsEdge(long idx, long t, boolean level, boolean deNow) {
         int lv = level ? 1 : 0;
-        if (vsActive < 0) {
-            if (vsForced >= 0) {
-                vsActive = vsForced;
-            } else if (deInVsRun) {
-                vsActive = lv;
-            } else {
-                deInVsRun = deNow;
-                return;
-            }
-            timing.vsActive = vsActive;
+        boolean knew = vs.known();
+        if (!vs.edge(lv, deNow)) {
+            return;
         }
-        deInVsRun = deNow;
-        long hsL = hsActive >= 0 ? hsLines : -1;
+        if (!knew) {
+            timing.vsActive = vs.active();
+        }
+        long hsL = hs.known() ? hsLines : -1;
         long vL = vLineOf(idx);
-        if (lv == vsActive) {
+        if (lv == vs.active()) {
             vsLeadIdx = idx;
             vsLeadT = t;
             vsLeadHs = hsL;
@@ -523,7 +446,7 @@ final class FrameAssembler {
                     timing.vFront.add(l - 1);
                 }
             }
-            if (hsActive >= 0 && hsLeadIdx != NONE && hsLeadIdx >= validFrom) {
+            if (hs.known() && hsLeadIdx != NONE && hsLeadIdx >= validFrom) {
                 timing.vSyncOffset.add(idx - hsLeadIdx);
             }
         } else {
@@ -532,15 +455,7 @@ final class FrameAssembler {
                 if (l != NONE) {
                     timing.vSync.add(l);
                 }
-                if (detail != Detail.ANOMALIES) {
-                    Annotation.Builder b = Annotation.on(trackSync, "vsync").span(vsLeadT, t)
-                            .label("VS " + (l == NONE ? "?" : Long.toString(l)) + " lines")
-                            .field("widthPixels", Field.integer(idx - vsLeadIdx, "px"));
-                    if (l != NONE) {
-                        b.field("widthLines", Field.integer(l, "lines"));
-                    }
-                    out.annotate(b.build());
-                }
+                findings.vsync(vsLeadT, t, idx - vsLeadIdx, l, NONE);
             }
             vsTrailIdx = idx;
             vsTrailHs = hsL;
@@ -551,106 +466,68 @@ final class FrameAssembler {
     // ------------------------------------------------------------------ frames
 
     private void openFrame(long idx, long t, boolean startSeen, boolean startPending, long hsL, long vL) {
-        frameOpen = true;
-        rows = 0;
-        width = -1;
-        frameStartSeen = startSeen;
-        frameStartPending = startPending;
-        frameBroken = false;
-        frameSuspect = false;
-        brokenReason = null;
-        frameFirstRise = idx;
-        frameFirstT = t;
-        frameFirstHs = hsL;
-        frameFirstV = vL;
-        frameSuspectBits = 0;
-        frameMismatch = 0;
-        frameDriftReported = false;
-        frameTooTallReported = false;
-        frameLastFallT = t;
+        frame.open(idx, t, startSeen, startPending, hsL, vL);
+        picture.reset();
     }
 
     private boolean frameStartSeenNow() {
-        if (frameStartPending) {
+        if (frame.startPending()) {
             return validFrom == 0 && pRef > 0 && leadIn > pRef;
         }
-        return frameStartSeen;
+        return frame.startSeen();
     }
 
-    private void splitAtBoot() {
-        if (!frameOpen || width <= 0 || bootRow > rows) {
+    /** The provisional first gap was vertical blanking: the rows after it start a new frame. */
+    private void splitAtFirstGap() {
+        int w = picture.width();
+        int row = firstGap.row();
+        if (!frame.isOpen() || w <= 0 || row > picture.rows()) {
             return;
         }
-        int tailRows = rows - bootRow;
-        int[] tail = Arrays.copyOfRange(buf, bootRow * width, rows * width);
-        int w = width;
-        rows = bootRow;
-        long keepLastFall = frameLastFallT;
-        frameLastFallT = bootT;
+        int tailRows = picture.rows() - row;
+        int[] tail = picture.cutFrom(row);
+        long keepLastFall = frame.lastFallT();
+        frame.lastFallT(firstGap.riseT());
         closeFrame(true);
-        openFrame(bootIdx, bootT, true, false, -1, 0);
-        width = w;
-        if (buf.length < tail.length) {
-            buf = new int[tail.length];
-        }
-        System.arraycopy(tail, 0, buf, 0, tail.length);
-        rows = tailRows;
-        frameLastFallT = keepLastFall;
+        openFrame(firstGap.riseIdx(), firstGap.riseT(), true, false, -1, 0);
+        picture.refill(w, tail, tailRows);
+        frame.lastFallT(keepLastFall);
         lastRiseV = tailRows;
     }
 
     private void closeFrame(boolean endSeen) {
-        if (!frameOpen) {
+        if (!frame.isOpen()) {
             return;
         }
-        frameOpen = false;
+        frame.close();
         boolean startSeen = frameStartSeenNow();
+        int rows = picture.rows();
+        int width = picture.width();
         if (rows == 0 || width <= 0) {
             return;
         }
-        boolean complete = startSeen && endSeen && !frameBroken;
-        int[] rgb = Arrays.copyOf(buf, rows * width);
-        Frame f = new Frame(id, frameFirstT, Math.max(frameLastFallT, frameFirstT), frameIndex, width, rows, rgb, !complete,
-                frameSuspect);
+        boolean complete = startSeen && endSeen && !frame.broken();
+        boolean suspect = frame.suspect();
+        long index = frame.index();
+        Frame f = new Frame(id, frame.firstT(), Math.max(frame.lastFallT(), frame.firstT()), index, width, rows,
+                picture.pixels(), !complete, suspect);
         if (complete) {
             timing.framesComplete++;
             timing.vActive.add(rows);
         } else {
             timing.framesPartial++;
         }
-        if (frameSuspect) {
+        if (suspect) {
             timing.framesSuspect++;
         }
-        Severity sev = complete ? (frameSuspect ? Severity.WARNING : Severity.INFO) : Severity.WARNING;
-        if (detail != Detail.ANOMALIES || !complete) {
-            out.annotate(Annotation.on(trackFrames, "frame").span(f.startFs(), f.endFs()).severity(sev)
-                    .label("frame " + frameIndex + ": " + width + "x" + rows + (complete ? "" : " partial") + (frameSuspect ? " suspect" : ""))
-                    .field("index", Field.integer(frameIndex, "")).field("width", Field.integer(width, "px"))
-                    .field("height", Field.integer(rows, "lines")).field("partial", Field.enumValue(Boolean.toString(!complete)))
-                    .field("suspect", Field.enumValue(Boolean.toString(frameSuspect))).build());
-        }
-        if (!complete) {
-            String why = frameBroken ? brokenReason : !startSeen ? "the capture began inside this frame" : "the capture ended inside this frame";
-            timing.anomaly("partial-frame");
-            out.annotate(Annotation.on(trackAnom, "partial-frame").span(f.startFs(), f.endFs()).severity(Severity.WARNING)
-                    .label("frame " + frameIndex + " partial: " + why).field("index", Field.integer(frameIndex, ""))
-                    .field("reason", Field.text(why)).build());
-        }
-        if (frameSuspectBits > 0) {
-            out.annotate(Annotation.on(trackAnom, "suspect-bits").span(f.startFs(), f.endFs()).severity(Severity.WARNING)
-                    .label("frame " + frameIndex + ": " + frameSuspectBits + " pixels with flagged bits")
-                    .field("pixels", Field.integer(frameSuspectBits, "px")).build());
-        }
+        String why = complete ? null : frame.broken() ? frame.brokenReason()
+                : !startSeen ? "the capture began inside this frame" : "the capture ended inside this frame";
+        findings.frame(f, index, complete, suspect, why, frame.suspectPixels());
         out.frame(f);
         if (pictures != null) {
             pictures.offer(f);
         }
-        frameIndex++;
-    }
-
-    private void anomaly(long idx, long t, String kind, Severity s, String label) {
-        out.annotate(Annotation.on(trackAnom, kind).span(t, t).severity(s).label(label)
-                .field("pixel", Field.integer(idx, "px")).build());
+        frame.advanceIndex();
     }
 
     /** Flushes at the end of the capture. */
@@ -658,25 +535,21 @@ final class FrameAssembler {
         if (lineOpen) {
             lineOpen = false;
             x = 0;
-            markBroken("the capture ended inside a line");
+            frame.markBroken("the capture ended inside a line");
         }
         boolean endSeen = false;
         if (fallIdx != NONE && fallIdx >= validFrom) {
-            if (hsKnownAtFall && hsActive >= 0) {
+            if (hsKnownAtFall && hs.known()) {
                 endSeen = hsLeadsSinceFall >= 2;
             } else {
                 endSeen = pRef > 0 && n - fallIdx > pRef;
             }
         }
-        if (frameOpen) {
+        if (frame.isOpen()) {
             closeFrame(endSeen);
         }
         if (linesSeen == 0) {
-            String msg = "capture shorter than one line: " + n + " pixels decoded but no complete active (DE) line";
-            timing.errors.add(msg);
-            timing.anomaly("short-capture");
-            out.annotate(Annotation.on(trackAnom, "short-capture").span(0, 0).severity(Severity.ERROR).label(msg)
-                    .field("pixels", Field.integer(n, "px")).build());
+            findings.shortCapture(n);
         }
     }
 

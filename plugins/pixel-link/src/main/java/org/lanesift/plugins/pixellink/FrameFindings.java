@@ -1,0 +1,118 @@
+package org.lanesift.plugins.pixellink;
+
+import org.lanesift.annotation.Annotation;
+import org.lanesift.annotation.Field;
+import org.lanesift.annotation.Severity;
+import org.lanesift.data.Frame;
+
+/**
+ * What the frame assembler reports, as annotations on four tracks ({@code <id>.frames},
+ * {@code .lines}, {@code .sync}, {@code .anomalies}), filtered by the detail level, and the count of
+ * each anomaly kind kept in {@link Timing} for the report. Pixel positions are pixel indices since
+ * the start of the capture; times are femtoseconds.
+ */
+final class FrameFindings {
+    private final FrameAssembler.Out out;
+    private final Timing timing;
+    private final FrameAssembler.Detail detail;
+    private final String trackFrames;
+    private final String trackLines;
+    private final String trackSync;
+    private final String trackAnom;
+
+    FrameFindings(String id, FrameAssembler.Out out, Timing timing, FrameAssembler.Detail detail) {
+        this.out = out;
+        this.timing = timing;
+        this.detail = detail;
+        trackFrames = id + ".frames";
+        trackLines = id + ".lines";
+        trackSync = id + ".sync";
+        trackAnom = id + ".anomalies";
+    }
+
+    /** An anomaly at one pixel: counted, and annotated at every detail level. */
+    void anomaly(long pixel, long t, String kind, Severity s, String label) {
+        timing.anomaly(kind);
+        out.annotate(Annotation.on(trackAnom, kind).span(t, t).severity(s).label(label)
+                .field("pixel", Field.integer(pixel, "px")).build());
+    }
+
+    /** A line of another length than the frame's first. */
+    void lineLength(long startT, long endT, int pixels, int expected, int row, long frame) {
+        timing.anomaly("line-length");
+        out.annotate(Annotation.on(trackAnom, "line-length").span(startT, endT).severity(Severity.WARNING)
+                .label("line " + row + ": " + pixels + " px, expected " + expected)
+                .field("pixels", Field.integer(pixels, "px")).field("expected", Field.integer(expected, "px"))
+                .field("row", Field.integer(row, "")).field("frame", Field.integer(frame, "")).build());
+    }
+
+    /** One active line (detail {@code lines} only). */
+    void line(long startT, long endT, int pixels, int row, long frame) {
+        if (detail == FrameAssembler.Detail.LINES) {
+            out.annotate(Annotation.on(trackLines, "line").span(startT, endT).label(pixels + " px")
+                    .field("pixels", Field.integer(pixels, "px")).field("row", Field.integer(row, ""))
+                    .field("frame", Field.integer(frame, "")).build());
+        }
+    }
+
+    /** One HS pulse (detail {@code lines} only). */
+    void hsync(long leadT, long trailT, long widthPixels) {
+        if (detail == FrameAssembler.Detail.LINES) {
+            out.annotate(Annotation.on(trackSync, "hsync").span(leadT, trailT).label("HS " + widthPixels + " px")
+                    .field("width", Field.integer(widthPixels, "px")).build());
+        }
+    }
+
+    /**
+     * One VS pulse (detail {@code lines} and {@code frames}).
+     *
+     * @param widthLines width in lines, or {@code unknown} when it could not be counted
+     */
+    void vsync(long leadT, long trailT, long widthPixels, long widthLines, long unknown) {
+        if (detail != FrameAssembler.Detail.ANOMALIES) {
+            Annotation.Builder b = Annotation.on(trackSync, "vsync").span(leadT, trailT)
+                    .label("VS " + (widthLines == unknown ? "?" : Long.toString(widthLines)) + " lines")
+                    .field("widthPixels", Field.integer(widthPixels, "px"));
+            if (widthLines != unknown) {
+                b.field("widthLines", Field.integer(widthLines, "lines"));
+            }
+            out.annotate(b.build());
+        }
+    }
+
+    /**
+     * A finished frame: its annotation (at detail {@code anomalies} only when partial), why it is
+     * partial, and how many of its pixels had flagged bits.
+     */
+    void frame(Frame f, long index, boolean complete, boolean suspect, String partialReason, long suspectPixels) {
+        Severity sev = complete ? (suspect ? Severity.WARNING : Severity.INFO) : Severity.WARNING;
+        if (detail != FrameAssembler.Detail.ANOMALIES || !complete) {
+            out.annotate(Annotation.on(trackFrames, "frame").span(f.startFs(), f.endFs()).severity(sev)
+                    .label("frame " + index + ": " + f.width() + "x" + f.height() + (complete ? "" : " partial")
+                            + (suspect ? " suspect" : ""))
+                    .field("index", Field.integer(index, "")).field("width", Field.integer(f.width(), "px"))
+                    .field("height", Field.integer(f.height(), "lines")).field("partial", Field.enumValue(Boolean.toString(!complete)))
+                    .field("suspect", Field.enumValue(Boolean.toString(suspect))).build());
+        }
+        if (!complete) {
+            timing.anomaly("partial-frame");
+            out.annotate(Annotation.on(trackAnom, "partial-frame").span(f.startFs(), f.endFs()).severity(Severity.WARNING)
+                    .label("frame " + index + " partial: " + partialReason).field("index", Field.integer(index, ""))
+                    .field("reason", Field.text(partialReason)).build());
+        }
+        if (suspectPixels > 0) {
+            out.annotate(Annotation.on(trackAnom, "suspect-bits").span(f.startFs(), f.endFs()).severity(Severity.WARNING)
+                    .label("frame " + index + ": " + suspectPixels + " pixels with flagged bits")
+                    .field("pixels", Field.integer(suspectPixels, "px")).build());
+        }
+    }
+
+    /** The capture held no complete active line. */
+    void shortCapture(long pixels) {
+        String msg = "capture shorter than one line: " + pixels + " pixels decoded but no complete active (DE) line";
+        timing.errors.add(msg);
+        timing.anomaly("short-capture");
+        out.annotate(Annotation.on(trackAnom, "short-capture").span(0, 0).severity(Severity.ERROR).label(msg)
+                .field("pixels", Field.integer(pixels, "px")).build());
+    }
+}

@@ -1,0 +1,169 @@
+package org.lanesift.plugins.pixellink;
+
+/**
+ * Bookkeeping of the frame being assembled, apart from its picture: whether one is open, whether
+ * its start was seen, whether it broke (and why), whether any pixel was suspect, where its first
+ * line began (pixel index, time in fs, and line number by HS count and by DE period), its last
+ * line's end time, and the one-report-per-frame latches. The frame index counts every frame
+ * closed so far and is not reset.
+ */
+final class FrameState {
+    private boolean open;
+    private boolean startSeen;
+    private boolean startPending;
+    private boolean broken;
+    private String brokenReason;
+    private boolean suspect;
+    private long firstRise;
+    private long firstT;
+    private long firstV;
+    private long firstHs;
+    private long index;
+    private long suspectPixels;
+    private long mismatches;
+    private boolean driftReported;
+    private boolean tooTallReported;
+    private long lastFallT;
+
+    /** @param noneIdx the pixel index meaning "none" */
+    FrameState(long noneIdx) {
+        firstRise = noneIdx;
+    }
+
+    /**
+     * Opens a frame at its first line.
+     *
+     * @param idx          pixel index of the first line's start
+     * @param t            its time, fs
+     * @param seen         the blanking before it lay in the capture
+     * @param pending      whether the start can be decided only once the line period is known
+     * @param hsLine       line number by HS count, or -1 without HS
+     * @param vLine        line number by DE period
+     */
+    void open(long idx, long t, boolean seen, boolean pending, long hsLine, long vLine) {
+        open = true;
+        startSeen = seen;
+        startPending = pending;
+        broken = false;
+        suspect = false;
+        brokenReason = null;
+        firstRise = idx;
+        firstT = t;
+        firstHs = hsLine;
+        firstV = vLine;
+        suspectPixels = 0;
+        mismatches = 0;
+        driftReported = false;
+        tooTallReported = false;
+        lastFallT = t;
+    }
+
+    /** Closes the frame; {@link #advanceIndex} follows when it was output. */
+    void close() {
+        open = false;
+    }
+
+    /** The frame was output: the next one gets the next index. */
+    void advanceIndex() {
+        index++;
+    }
+
+    boolean isOpen() {
+        return open;
+    }
+
+    /** Whether the start was seen, when that was not left pending. */
+    boolean startSeen() {
+        return startSeen;
+    }
+
+    boolean startPending() {
+        return startPending;
+    }
+
+    /** The first reason the frame broke is kept. */
+    void markBroken(String why) {
+        if (!broken) {
+            broken = true;
+            brokenReason = why;
+        }
+    }
+
+    boolean broken() {
+        return broken;
+    }
+
+    String brokenReason() {
+        return brokenReason;
+    }
+
+    void markSuspect() {
+        suspect = true;
+    }
+
+    /** A pixel with flagged bits arrived (counted also between frames; opening resets the count). */
+    void suspectPixel() {
+        suspect |= open;
+        suspectPixels++;
+    }
+
+    boolean suspect() {
+        return suspect;
+    }
+
+    long suspectPixels() {
+        return suspectPixels;
+    }
+
+    /** Counts a pixel whose odd and even links disagree; true for the first since the frame opened. */
+    boolean firstMismatch() {
+        return mismatches++ == 0;
+    }
+
+    /** True the first time it is asked per frame: clock drift is reported once a frame. */
+    boolean firstDriftReport() {
+        if (driftReported) {
+            return false;
+        }
+        driftReported = true;
+        return true;
+    }
+
+    /** True the first time it is asked per frame: too many lines is reported once a frame. */
+    boolean firstTooTallReport() {
+        if (tooTallReported) {
+            return false;
+        }
+        tooTallReported = true;
+        return true;
+    }
+
+    long firstRise() {
+        return firstRise;
+    }
+
+    long firstT() {
+        return firstT;
+    }
+
+    long firstHs() {
+        return firstHs;
+    }
+
+    long firstV() {
+        return firstV;
+    }
+
+    long index() {
+        return index;
+    }
+
+    long lastFallT() {
+        return lastFallT;
+    }
+
+    /** @param t end time of the latest line, fs */
+    void lastFallT(long t) {
+        lastFallT = t;
+    }
+}
