@@ -193,10 +193,6 @@ public final class Chain implements AutoCloseable {
         return new ChainBuilder(registry);
     }
 
-    static Chain open(ChainBuilder b) {
-        return ChainOpener.open(ChainPlan.of(b), b.annotations, b.progress, b.outputs);
-    }
-
     /**
      * The running nodes, upstream first.
      *

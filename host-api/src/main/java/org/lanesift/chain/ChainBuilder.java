@@ -177,6 +177,6 @@ public final class ChainBuilder {
      * @throws ChainException naming the offending instance, port or JSON pointer
      */
     public Chain build() {
-        return Chain.open(this);
+        return ChainOpener.open(ChainPlan.of(this), annotations, progress, outputs);
     }
 }
