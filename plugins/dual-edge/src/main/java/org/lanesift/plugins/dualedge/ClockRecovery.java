@@ -1,6 +1,5 @@
 package org.lanesift.plugins.dualedge;
 
-import java.util.Arrays;
 import java.util.Locale;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Severity;
@@ -224,11 +223,7 @@ final class ClockRecovery {
         int w = (int) Math.min(avail, ACQUIRE_EDGES);
         double duty = Double.NaN;
         if (w >= 3) {
-            double[] iv = new double[w - 2];
-            for (int i = 0; i < w - 2; i++) {
-                iv[i] = q.time(pos + i + 2) - q.time(pos + i);
-            }
-            double p = median(iv, iv.length);
+            double p = AcquisitionWindow.medianPeriodFs(q, pos, w);
             if (!(p > 0)) {
                 if (!haveP) {
                     // all same-direction intervals are zero: not a clock
@@ -239,16 +234,7 @@ final class ClockRecovery {
                 periodFs = p;
                 haveP = true;
             }
-            double[] hi = new double[w];
-            int nh = 0;
-            for (int i = 0; i < w - 1; i++) {
-                if (q.rising(pos + i)) {
-                    hi[nh++] = q.time(pos + i + 1) - q.time(pos + i);
-                }
-            }
-            if (nh > 0) {
-                duty = median(hi, nh) / periodFs;
-            }
+            duty = AcquisitionWindow.medianHighFs(q, pos, w) / periodFs;
         } else if (!haveP) {
             gaveUp = true;
             pos = end;
@@ -609,12 +595,6 @@ final class ClockRecovery {
 
     boolean finished() {
         return finished;
-    }
-
-    static double median(double[] v, int n) {
-        double[] c = Arrays.copyOf(v, n);
-        Arrays.sort(c);
-        return (n & 1) == 1 ? c[n / 2] : 0.5 * (c[n / 2 - 1] + c[n / 2]);
     }
 
     private static String fmt(double fs) {

@@ -272,4 +272,28 @@ class ClockRecoveryTest {
         org.junit.jupiter.api.Assertions.assertThrows(IllegalStateException.class, () -> e.appended(e.count() - 1));
         org.junit.jupiter.api.Assertions.assertThrows(IllegalStateException.class, () -> e.appended(e.capacity() + 1));
     }
+
+    @Test
+    void theAcquisitionWindowTakesMediansSoOneGlitchDoesNotMoveThem() {
+        // 30 % duty clock with one runt (two extra transitions) inside the window
+        long[] t = new long[40];
+        int k = 0;
+        for (int c = 0; k < 40; c++) {
+            t[k++] = T0 + c * P;
+            t[k++] = T0 + c * P + 3 * P / 10;
+            if (c == 5) {
+                t[k++] = T0 + c * P + 5 * P / 10;
+                t[k++] = T0 + c * P + 5 * P / 10 + 100;
+            }
+        }
+        feed(0, t[39] + P, false, t);
+        assertEquals(P, AcquisitionWindow.medianPeriodFs(q, 0, 40));
+        assertEquals(3 * P / 10, AcquisitionWindow.medianHighFs(q, 0, 40));
+        // a window whose only rising transition is its last has no high time
+        assertTrue(Double.isNaN(AcquisitionWindow.medianHighFs(q, 1, 2)));
+        double[] v = {5, 1, 4, 2};
+        assertEquals(3.0, AcquisitionWindow.median(v, 4));
+        assertEquals(4.0, AcquisitionWindow.median(v, 3));
+        assertEquals(5.0, v[0]); // the input is left as it was
+    }
 }
