@@ -31,7 +31,7 @@ final class FrameAssembler {
     private static final int F_GAP = GAP >>> 24;
     private static final int F_INCOMPLETE = INCOMPLETE >>> 24;
     private static final int F_MISMATCH = MISMATCH >>> 24;
-    private static final long NONE = Long.MIN_VALUE / 4;
+    private static final long NONE = LineMark.NONE;
 
     /** Where results go. */
     interface Out {
@@ -69,10 +69,7 @@ final class FrameAssembler {
     private long lineStartT;
     private long fallIdx = NONE;
     private long fallT;
-    private long lastRiseIdx = NONE;
-    private long lastRiseT;
-    private long lastRiseV;
-    private long lastRiseHs = -1;
+    private final LineMark lastRise = new LineMark(-1);
     private long pRef = -1;
     private long leadIn = -1;
 
@@ -97,13 +94,8 @@ final class FrameAssembler {
 
     // VS
     private final SyncPolarity vs;
-    private long vsLeadIdx = NONE;
-    private long vsLeadT;
-    private long vsLeadHs;
-    private long vsLeadV;
-    private long vsTrailIdx = NONE;
-    private long vsTrailHs;
-    private long vsTrailV;
+    private final LineMark vsLead = new LineMark(0);
+    private final LineMark vsTrail = new LineMark(0);
 
     FrameAssembler(String id, Out out, Timing timing, Pictures pictures, int maxWidth, int maxHeight, Detail detail,
                    int hsForced, int vsForced, double clockTolPercent) {
@@ -277,25 +269,15 @@ final class FrameAssembler {
     }
 
     private long vLineOf(long idx) {
-        if (lastRiseIdx == NONE || pRef <= 0) {
+        if (lastRise.idx() == NONE || pRef <= 0) {
             return NONE;
         }
-        return lastRiseV + Math.round((idx - lastRiseIdx) / (double) pRef);
-    }
-
-    private static long linesBetween(long aHs, long aV, long bHs, long bV) {
-        if (aHs >= 0 && bHs >= 0) {
-            return bHs - aHs;
-        }
-        if (aV != NONE && bV != NONE) {
-            return bV - aV;
-        }
-        return NONE;
+        return lastRise.vLine() + Math.round((idx - lastRise.idx()) / (double) pRef);
     }
 
     private void deRise(long idx, long t) {
         // resolve a provisional first gap (DE-only links, start of capture)
-        if (firstGap.pendingAt(lastRiseIdx) && pRef <= 0) {
+        if (firstGap.pendingAt(lastRise.idx()) && pRef <= 0) {
             long p2 = idx - firstGap.riseIdx();
             switch (firstGap.decide(idx)) {
                 case VERTICAL -> {
@@ -319,18 +301,18 @@ final class FrameAssembler {
                 kind = hsLeadsSinceFall >= 2 ? 2 : 1;
             } else if (pRef > 0) {
                 kind = gap > pRef ? 2 : 1;
-            } else if (lastRiseIdx != NONE && lastRiseIdx >= validFrom) {
+            } else if (lastRise.since(validFrom)) {
                 kind = 3;
-                firstGap.hold(picture.rows(), gap, idx - lastRiseIdx, idx, t);
+                firstGap.hold(picture.rows(), gap, idx - lastRise.idx(), idx, t);
             } else {
                 kind = 1;
             }
         }
-        long vLine = (lastRiseIdx != NONE && pRef > 0) ? vLineOf(idx) : lastRiseV + 1;
+        long vLine = (lastRise.idx() != NONE && pRef > 0) ? vLineOf(idx) : lastRise.vLine() + 1;
         long hsL = hs.known() ? hsLines : -1;
         if (kind == 2) {
-            if (vs.known() && vsTrailIdx != NONE && vsTrailIdx >= validFrom && vsTrailIdx > fallIdx) {
-                long l = linesBetween(vsTrailHs, vsTrailV, hsL, vLine);
+            if (vs.known() && vsTrail.since(validFrom) && vsTrail.idx() > fallIdx) {
+                long l = vsTrail.linesTo(hsL, vLine);
                 if (l != NONE) {
                     timing.vBack.add(l);
                 }
@@ -345,7 +327,7 @@ final class FrameAssembler {
                 closeFrame(true);
             }
             if (prevStartSeen && !pfBroken && pfRise != NONE && pfRise >= validFrom) {
-                long l = linesBetween(pfHs, pfV, hsL, vLine);
+                long l = LineMark.linesBetween(pfHs, pfV, hsL, vLine);
                 if (l != NONE) {
                     timing.vTotal.add(l);
                 }
@@ -357,13 +339,13 @@ final class FrameAssembler {
             openFrame(idx, t, fallIdx >= validFrom || idx - fallIdx > Math.max(pRef, 0), false, hsL, vLine);
         } else if (!frame.isOpen()) {
             openFrame(idx, t, false, kind == 0, hsL, vLine);
-        } else if (kind == 1 && fallIdx >= validFrom && lastRiseIdx != NONE && lastRiseIdx >= validFrom) {
-            long per = idx - lastRiseIdx;
+        } else if (kind == 1 && fallIdx >= validFrom && lastRise.since(validFrom)) {
+            long per = idx - lastRise.idx();
             timing.hDeLow.add(idx - fallIdx);
             timing.hDePeriod.add(per);
             pRef = per;
-            if (t > lastRiseT) {
-                double f = per * 1e15 / (t - lastRiseT);
+            if (t > lastRise.t()) {
+                double f = per * 1e15 / (t - lastRise.t());
                 double ref = timing.clockPerLine.mean();
                 if (timing.clockPerLine.count() >= 2 && Math.abs(f - ref) > clockTol * ref && frame.firstDriftReport()) {
                     findings.anomaly(idx, t, "clock-drift", Severity.WARNING, String.format(java.util.Locale.ROOT,
@@ -371,7 +353,7 @@ final class FrameAssembler {
                 }
                 timing.clockPerLine.add(f);
                 timing.linePixels += per;
-                timing.lineTimeFs += t - lastRiseT;
+                timing.lineTimeFs += t - lastRise.t();
             }
         }
         if (hs.known() && !riseSinceHsTrail && hsTrailIdx != NONE && hsTrailIdx >= validFrom) {
@@ -380,10 +362,7 @@ final class FrameAssembler {
         riseSinceHsTrail = true;
         hs.deSeen();
         vs.deSeen();
-        lastRiseIdx = idx;
-        lastRiseT = t;
-        lastRiseV = vLine;
-        lastRiseHs = hsL;
+        lastRise.set(idx, t, hsL, vLine);
         lineOpen = true;
         lineTruncated = false;
         lineStartIdx = idx;
@@ -436,12 +415,9 @@ final class FrameAssembler {
         long hsL = hs.known() ? hsLines : -1;
         long vL = vLineOf(idx);
         if (lv == vs.active()) {
-            vsLeadIdx = idx;
-            vsLeadT = t;
-            vsLeadHs = hsL;
-            vsLeadV = vL;
-            if (lastRiseIdx != NONE && lastRiseIdx >= validFrom && !lineOpen) {
-                long l = linesBetween(lastRiseHs, lastRiseV, hsL, vL);
+            vsLead.set(idx, t, hsL, vL);
+            if (lastRise.since(validFrom) && !lineOpen) {
+                long l = lastRise.linesTo(hsL, vL);
                 if (l != NONE) {
                     timing.vFront.add(l - 1);
                 }
@@ -450,16 +426,14 @@ final class FrameAssembler {
                 timing.vSyncOffset.add(idx - hsLeadIdx);
             }
         } else {
-            if (vsLeadIdx != NONE && vsLeadIdx >= validFrom) {
-                long l = linesBetween(vsLeadHs, vsLeadV, hsL, vL);
+            if (vsLead.since(validFrom)) {
+                long l = vsLead.linesTo(hsL, vL);
                 if (l != NONE) {
                     timing.vSync.add(l);
                 }
-                findings.vsync(vsLeadT, t, idx - vsLeadIdx, l, NONE);
+                findings.vsync(vsLead.t(), t, idx - vsLead.idx(), l, NONE);
             }
-            vsTrailIdx = idx;
-            vsTrailHs = hsL;
-            vsTrailV = vL;
+            vsTrail.set(idx, t, hsL, vL);
         }
     }
 
@@ -492,7 +466,7 @@ final class FrameAssembler {
         openFrame(firstGap.riseIdx(), firstGap.riseT(), true, false, -1, 0);
         picture.refill(w, tail, tailRows);
         frame.lastFallT(keepLastFall);
-        lastRiseV = tailRows;
+        lastRise.vLine(tailRows);
     }
 
     private void closeFrame(boolean endSeen) {

@@ -157,4 +157,19 @@ class FrameAssemblerPartsTest {
         assertEquals(List.of("line", "hsync", "vsync"), got.stream().map(Annotation::kind).toList());
         assertEquals("VS ? lines", got.get(2).label());
     }
+
+    @Test
+    void lineMarksCountLinesByHsWhenBothEndsHaveIt() {
+        LineMark m = new LineMark(-1);
+        assertFalse(m.since(0));
+        m.set(100, 5000, 10, 12);
+        assertTrue(m.since(100));
+        assertFalse(m.since(101));
+        assertEquals(5, m.linesTo(15, 40)); // HS count on both ends wins
+        assertEquals(28, m.linesTo(-1, 40)); // no HS at the far end: DE periods
+        assertEquals(LineMark.NONE, m.linesTo(-1, LineMark.NONE));
+        m.vLine(3);
+        assertEquals(37, m.linesTo(-1, 40));
+        assertEquals(LineMark.NONE, LineMark.linesBetween(-1, LineMark.NONE, 4, 7));
+    }
 }
