@@ -159,6 +159,7 @@ public final class JitterPlugin implements PluginProvider {
         private long firstFs = Long.MAX_VALUE;
         private long lastFs = Long.MIN_VALUE;
         private String channel = "clock";
+        private final EdgeFilter edgeFilter = new EdgeFilter();
 
         JitterStage(StageContext ctx) {
             this.ctx = ctx;
@@ -181,8 +182,8 @@ public final class JitterPlugin implements PluginProvider {
                 if (n > 0 && t <= times[n - 1]) {
                     continue; // not after the previous edge (blocks overlapping): the list must stay increasing
                 }
-                if (e.isUnknownAt(t)) {
-                    continue;
+                if (!edgeFilter.isEdge(e, i)) {
+                    continue; // restores the level after an unknown span: no clock edge (Edges.levelOnly)
                 }
                 if (n == maxEdges) {
                     ignored++;
@@ -193,6 +194,7 @@ public final class JitterPlugin implements PluginProvider {
                 }
                 times[n++] = t;
             }
+            edgeFilter.done(e);
         }
 
         @Override
