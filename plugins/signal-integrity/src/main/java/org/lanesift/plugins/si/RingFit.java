@@ -76,8 +76,10 @@ final class RingFit {
         while (i < n && s * (v[i] - c0) <= 0) {
             i++;
         }
+        // the crossing back, with a hysteresis of 2 % of the swing so that noise near the level does
+        // not end the first lobe early
         int j = i;
-        while (j < n && s * (v[j] - c0) > 0) {
+        while (j < n && s * (v[j] - c0) > -0.02 * swing) {
             j++;
         }
         if (i >= n || j >= n) {
