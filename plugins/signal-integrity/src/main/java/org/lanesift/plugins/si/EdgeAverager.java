@@ -6,15 +6,18 @@ package org.lanesift.plugins.si;
  * response they share stays. Falling edges are mirrored about the middle of the two levels, so
  * both directions add to one rising step. Each edge's samples are resampled by linear
  * interpolation onto a common grid {@code t50 + delayFs + k * periodFs}; the delay is fixed by the
- * first edge (twice its time from 50 % to the far crossing, plus two samples). Edges that cannot cover the grid's start are
- * left out and counted. Times femtoseconds, voltages volts. Memory: one {@code double} per sample
- * of the first edge's tail.
+ * first edge (twice its time from 50 % to the far crossing, plus two samples). Edges that cannot
+ * cover the grid's start are left out and counted. Times femtoseconds, voltages volts. Memory: a {@code double} and an {@code int} per
+ * sample of the longest tail.
  */
 final class EdgeAverager {
     private final double periodFs;
     private final double mirror;
-    private double[] sum;
-    private int length;
+    /** Samples of the average at which at least this share of the edges still contribute. */
+    static final double MIN_SHARE = 0.1;
+
+    private double[] sum = new double[0];
+    private int[] cover = new int[0];
     private int count;
     private long leftOut;
     private double delayFs = Double.NaN;
@@ -60,17 +63,18 @@ final class EdgeAverager {
             return;
         }
         if (count == 0) {
-            sum = new double[avail];
-            length = avail;
             firstT50Fs = t50Fs;
             firstDepartFs = departFs;
         }
-        int m = Math.min(length, avail);
-        for (int k = 0; k < m; k++) {
+        if (avail > sum.length) {
+            sum = java.util.Arrays.copyOf(sum, Math.max(avail, 2 * sum.length));
+            cover = java.util.Arrays.copyOf(cover, sum.length);
+        }
+        for (int k = 0; k < avail; k++) {
             double v = tail[i0 + k] + frac * (tail[i0 + k + 1] - tail[i0 + k]);
             sum[k] += rising ? v : mirror - v;
+            cover[k]++;
         }
-        length = m;
         count++;
     }
 
@@ -84,16 +88,26 @@ final class EdgeAverager {
         return leftOut;
     }
 
-    /** Samples in the average. */
+    /**
+     * Samples in the average: as far as at least {@link #MIN_SHARE} of the edges (and at least one)
+     * still had samples before their next transition. Later samples average fewer edges (those
+     * followed by a longer run); each covered sample is the mean of the edges that cover it.
+     */
     int length() {
-        return length;
+        int need = Math.max(1, (int) Math.ceil(MIN_SHARE * count));
+        int k = 0;
+        while (k < cover.length && cover[k] >= need) {
+            k++;
+        }
+        return k;
     }
 
-    /** The averaged rising step from {@link #delayFs()} after the 50 % crossing on. */
+    /** The averaged rising step from {@link #delayFs()} after the 50 % crossing on, {@link #length()} samples. */
     float[] average() {
+        int length = length();
         float[] a = new float[length];
         for (int k = 0; k < length; k++) {
-            a[k] = (float) (sum[k] / count);
+            a[k] = (float) (sum[k] / cover[k]);
         }
         return a;
     }

@@ -65,4 +65,25 @@ class RingingNoiseTest {
         }
         System.out.print(table);
     }
+
+    @Test
+    void averagingRescuesAFitThatOneEdgeAloneCannotGive(@TempDir Path dir) throws Exception {
+        // 150 mV RMS on the 1 V square wave: a single edge's samples do not show the ring well enough
+        // (R^2 of its fit far below 0.8), the average of 80 (noise / sqrt(80) = 17 mV) does
+        AnalogBlock clean = Spice.run("probe-square.cir", "probe-square.out", dir);
+        StringBuilder table = new StringBuilder();
+        for (long seed = 1; seed <= 3; seed++) {
+            StageHarness h = StageHarness.of(new RingingPlugin(), Map.of("probeCapacitancePf", 10.0,
+                    "levelsVolts", List.of(0.0, 1.0), "maxFits", 10L));
+            h.push("signal", Synth.withNoise(clean, 0.150, seed)).finish();
+            String j = RingingPluginTest.json(h, "-ringing.json");
+            double f0 = in(j, "summary", "naturalHz");
+            table.append(String.format(Locale.ROOT, "150 mV seed %d: averaged f0 %.2f MHz (%+.2f %%), single edges fitted %.0f of the first 10%n",
+                    seed, f0 / 1e6, 100 * (f0 / F0_HZ - 1), EyeDiagramPluginTest.num(j, "fitted")));
+            assertTrue(j.contains("\"from\": \"the averaged edge\""), j);
+            assertEquals(F0_HZ, f0, 0.03 * F0_HZ, table + j);
+            assertTrue(EyeDiagramPluginTest.num(j, "fitted") <= 2, "most single edges cannot be fitted at 150 mV: " + table);
+        }
+        System.out.print(table);
+    }
 }
