@@ -35,8 +35,8 @@ public final class JitterPlugin implements PluginProvider {
     static final int BINS = 50;
     /** Default bit error ratio for total jitter, the one most link specifications quote (common practice). */
     static final double DEFAULT_BER = 1e-12;
-    /** Points of the bathtub curve across one interval. */
-    static final int BATHTUB_POINTS = 101;
+    /** Points of the bathtub curve, half on each wall. */
+    static final int BATHTUB_POINTS = 100;
 
     private static final PluginDescriptor DESCRIPTOR = PluginDescriptor.builder(ID)
             .name("Jitter")
@@ -312,8 +312,8 @@ public final class JitterPlugin implements PluginProvider {
         private void writeDecomposition(JsonWriter j, JitterDecomposition.Result d, double uiPs) {
             j.field("ber", ber);
             j.name("decomposition").beginObject();
-            j.field("model", "dual-Dirac: two Gaussians; each tail fitted as a straight line on the Q scale "
-                    + "(beyond Q " + JitterDecomposition.Q_SHALLOW + ", at most Q " + JitterDecomposition.Q_DEEP + "), with the weight of its Dirac");
+            j.field("model", "dual-Dirac: two Gaussians of weight 1/2; each tail fitted as a straight line on the Q scale "
+                    + "(beyond Q " + JitterDecomposition.Q_SHALLOW + ", at most Q " + JitterDecomposition.Q_DEEP + ")");
             j.field("randomJitterRmsPs", d.rjRms());
             j.field("deterministicJitterDualDiracPs", d.djDd());
             j.field("qOfBer", d.qBer());
@@ -338,15 +338,34 @@ public final class JitterPlugin implements PluginProvider {
             j.endObject();
         }
 
-        /** Sampling instants (UI), log10 of the model's error probability, measured error share. */
+        /**
+         * Width of each wall of the bathtub shown, ps: where the model (or, without a fit, the
+         * measured TIE) has fallen well below any BER of interest, at most half the interval.
+         */
+        private static double wallPs(JitterDecomposition.Result d, double[] sorted, double uiPs) {
+            double w = sorted.length == 0 ? uiPs / 2 : 1.5 * Math.max(Math.abs(sorted[0]), Math.abs(sorted[sorted.length - 1]));
+            if (d.fitted()) {
+                double q = 8.5; // about 1e-17, below the plot's floor
+                w = Math.max(w, 1.25 * Math.max(d.right().mu() + q * d.right().sigma(), -d.left().mu() + q * d.left().sigma()));
+            }
+            return Double.isFinite(w) && w > 0 ? Math.min(w, uiPs / 2) : uiPs / 2;
+        }
+
+        /**
+         * Sampling instants (ps after the ideal edge) across both walls of the bathtub, log10 of the
+         * model's error probability, measured error share: the first half of the points cover
+         * {@code [0, wall]}, the second {@code [ui - wall, ui]} (the whole interval when the wall is half of it).
+         */
         private double[][] bathtub(JitterDecomposition.Result d, double[] sorted, double uiPs) {
+            double wall = wallPs(d, sorted, uiPs);
+            int half = BATHTUB_POINTS / 2;
             double[] x = new double[BATHTUB_POINTS];
             double[] model = new double[BATHTUB_POINTS];
             double[] meas = new double[BATHTUB_POINTS];
             for (int i = 0; i < BATHTUB_POINTS; i++) {
-                x[i] = (double) i / (BATHTUB_POINTS - 1);
-                model[i] = d.fitted() ? Math.log10(JitterDecomposition.bathtubModel(d, uiPs, x[i] * uiPs)) : Double.NaN;
-                meas[i] = sorted.length == 0 ? 0 : JitterDecomposition.bathtubMeasured(sorted, sorted.length, uiPs, x[i] * uiPs);
+                x[i] = i < half ? wall * i / (half - 1) : uiPs - wall + wall * (i - half) / (half - 1);
+                model[i] = d.fitted() ? Math.log10(JitterDecomposition.bathtubModel(d, uiPs, x[i])) : Double.NaN;
+                meas[i] = sorted.length == 0 ? 0 : JitterDecomposition.bathtubMeasured(sorted, sorted.length, uiPs, x[i]);
             }
             return new double[][] {x, model, meas};
         }
@@ -355,17 +374,18 @@ public final class JitterPlugin implements PluginProvider {
             j.name("bathtub").beginObject();
             j.field("unitIntervalPs", uiPs);
             j.field("transitionDensity", 1.0);
-            j.name("positionUi").inlineArray(b[0], b[0].length);
+            j.field("points", "the first half span the wall after one ideal edge, the second half the wall before the next");
+            j.name("positionPs").inlineArray(b[0], b[0].length);
             j.name("modelLog10ErrorProbability").inlineArray(b[1], b[1].length);
             j.name("measuredErrorShare").inlineArray(b[2], b[2].length);
             j.endObject();
         }
 
         private byte[] bathtubPng(JitterDecomposition.Result d, double[][] b, double uiPs, String what) {
-            String sub = d.fitted() ? String.format(Locale.ROOT, "RJ %.3f ps RMS, DJ(dual-Dirac) %.3f ps, TJ(%.0e) %.3f ps, eye opening %.3f UI of %.4g ps%s",
-                    d.rjRms(), d.djDd(), ber, d.tj(), Math.max(0, 1 - d.tj() / uiPs), uiPs, d.modelHolds() ? "" : "; model doubtful: " + d.caveats().get(0))
+            String sub = d.fitted() ? String.format(Locale.ROOT, "RJ %.3f ps RMS, DJ(dual-Dirac) %.3f ps, TJ(%.0e) %.3f ps, eye opening %.4f UI of %.6g ps%s",
+                    d.rjRms(), d.djDd(), ber, d.tj(), Math.max(0, 1 - d.tj() / uiPs), uiPs, d.modelHolds() ? "" : "; model doubtful")
                     : "no dual-Dirac fit: " + d.caveats().get(0);
-            return BathtubPlot.render("Bathtub of " + what, sub, b[0], b[1], b[2], ber);
+            return BathtubPlot.render("Bathtub of " + what, sub, b[0], uiPs, b[1], b[2], ber);
         }
 
         private void writeTracking(JsonWriter j, TrackingClock.Result tr, Distribution trTie) {
@@ -395,6 +415,7 @@ public final class JitterPlugin implements PluginProvider {
                     "standard: the dual-Dirac relation TJ = DJ + 2 Q(BER) RJ (docs/reference-facts.md#jitter), applied to the measured RJ and DJ");
             j.field("ber", ber == DEFAULT_BER ? "assumed by default (1e-12, common practice)" : "given (option ber)");
             j.field("bathtub.modelLog10ErrorProbability", "dual-Dirac model with the measured tails; transition density 1 assumed (a clock)");
+            j.field("bathtub.positionPs", "chosen: each wall until the model is far below any BER of interest");
             j.field("bathtub.measuredErrorShare", "measured: share of TIE values beyond each sampling instant");
             j.field("trackingReference", trackingHz > 0 ? "measured against a loop of the given bandwidth (option trackingBandwidthHz)"
                     : "not asked for (option trackingBandwidthHz 0, the default)");
