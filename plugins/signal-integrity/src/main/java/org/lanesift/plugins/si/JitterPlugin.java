@@ -12,6 +12,7 @@ import org.lanesift.data.DataKind;
 import org.lanesift.data.Edges;
 import org.lanesift.json.JsonWriter;
 import org.lanesift.json.NumberStyle;
+import org.lanesift.plugin.OptionException;
 import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.PluginDescriptor;
 import org.lanesift.plugin.PluginProvider;
@@ -232,6 +233,13 @@ public final class JitterPlugin implements PluginProvider {
             }
             JitterDecomposition.Result d = JitterDecomposition.decompose(r.tiePs(), r.tiePs().length, ber);
             double uiPs = r.periodFs() / 1000;
+            double maxTrackingHz = TrackingClock.maxBandwidthHz(r.periodFs());
+            if (trackingHz > 0 && n >= 3 && trackingHz > maxTrackingHz) {
+                throw new OptionException("trackingBandwidthHz", String.format(Locale.ROOT, "option 'trackingBandwidthHz' of plugin '%s' "
+                        + "instance '%s': %s is too wide for clock edges %.6g ps apart; expected at most %s (a loop updated once "
+                        + "per interval follows the model only well below the edge rate)", ID, id, RingingPlugin.hz(trackingHz),
+                        r.periodFs() / 1000, RingingPlugin.hz(maxTrackingHz)));
+            }
             TrackingClock.Result tr = trackingHz > 0 && n >= 3
                     ? TrackingClock.run(times, r.number(), n, r.periodFs(), trackingHz, trackingOrder) : null;
             Distribution trTie = new Distribution("ps", tr == null ? 1 : Math.min(tr.count(), 1 << 20));

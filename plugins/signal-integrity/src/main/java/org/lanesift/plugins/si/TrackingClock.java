@@ -24,6 +24,19 @@ final class TrackingClock {
     private TrackingClock() {
     }
 
+    /** Largest loop gain per interval, 2 pi B T, accepted: a tenth keeps the sampled loop close to the continuous one. */
+    static final double MAX_GAIN = 0.1;
+
+    /**
+     * The widest loop bandwidth accepted for edges {@code periodFs} apart.
+     *
+     * @param periodFs interval between edges, femtoseconds
+     * @return hertz
+     */
+    static double maxBandwidthHz(double periodFs) {
+        return MAX_GAIN / (2 * Math.PI * periodFs * 1e-15);
+    }
+
     /**
      * The result.
      *

@@ -155,4 +155,17 @@ class JitterDecompositionTest {
             assertEquals(1.0, trRms, 0.3, j);
         }
     }
+
+    @Test
+    void aLoopBandwidthTooWideForTheEdgeRateIsRefusedNamingTheOption() {
+        // 1 GHz edges: at most 0.1 / (2 pi 1 ns) = 15.9 MHz
+        StageHarness h = StageHarness.of(new JitterPlugin(), Map.of("trackingBandwidthHz", 100e6));
+        h.push("clock", clock(2_000, 1, 0, Dj.TWO_LEVEL, 2));
+        Throwable t = org.junit.jupiter.api.Assertions.assertThrows(RuntimeException.class, h::finish);
+        while (t.getCause() != null && !(t instanceof org.lanesift.plugin.OptionException)) {
+            t = t.getCause();
+        }
+        assertTrue(t instanceof org.lanesift.plugin.OptionException, String.valueOf(t));
+        assertTrue(t.getMessage().contains("trackingBandwidthHz") && t.getMessage().contains("15.9 MHz"), t.getMessage());
+    }
 }
