@@ -280,10 +280,10 @@ public final class JitterPlugin implements PluginProvider {
             j.endObject();
             ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-jitter.json", "application/json", (j.finish() + "\n").getBytes(StandardCharsets.UTF_8)));
             String what = "'" + channel + "' (" + which + " edges, " + n + " analysed)";
-            String rjdj = d.fitted() ? String.format(Locale.ROOT, "; RJ %.3f ps RMS, DJ(dual-Dirac) %.3f ps, TJ(%.0e) %.3f ps%s",
-                    d.rjRms(), d.djDd(), ber, d.tj(), d.modelHolds() ? "" : " (model doubtful, see report)") : "; no RJ/DJ split (" + d.caveats().get(0) + ")";
+            String rjdj = d.fitted() ? String.format(Locale.ROOT, "; RJ %.3f, DJ(dd) %.3f, TJ(%.0e) %.2f ps%s",
+                    d.rjRms(), d.djDd(), ber, d.tj(), d.modelHolds() ? "" : " (doubtful)") : "; no RJ/DJ split";
             java.util.ArrayList<Plot.Panel> panels = new java.util.ArrayList<>(List.of(
-                    new Plot.Panel(String.format(Locale.ROOT, "time-interval error: RMS %.3f ps, peak-to-peak %.3f ps",
+                    new Plot.Panel(String.format(Locale.ROOT, "TIE: RMS %.3f ps, p-p %.3f ps",
                             r.tieRmsPs(), r.tie().peakToPeak()) + rjdj, "TIE (ps)", r.tie().histogram(BINS), 1),
                     new Plot.Panel(String.format(Locale.ROOT, "period: mean %.4f ps, jitter RMS %.3f ps, peak-to-peak %.3f ps",
                             r.period().mean(), r.period().std(), r.period().peakToPeak()), "period (ps)", r.period().histogram(BINS), 1),
