@@ -107,14 +107,26 @@ final class JitterDecomposition {
      * @return the result
      */
     static Result decompose(double[] tie, int n, double ber) {
+        double[] x = Arrays.copyOf(tie, n);
+        Arrays.sort(x);
+        return decomposeSorted(x, n, ber);
+    }
+
+    /**
+     * {@link #decompose} of values already sorted (not modified).
+     *
+     * @param x   TIE values, increasing
+     * @param n   how many
+     * @param ber bit error ratio for TJ, 0 < ber < 0.5
+     * @return the result
+     */
+    static Result decomposeSorted(double[] x, int n, double ber) {
         double qb = q(ber);
         List<String> caveats = new ArrayList<>();
         if (n < MIN_EDGES) {
             caveats.add(String.format(Locale.ROOT, "only %d edges: a tail fit needs at least %d", n, MIN_EDGES));
             return new Result(n, null, null, Double.NaN, Double.NaN, ber, qb, Double.NaN, caveats);
         }
-        double[] x = Arrays.copyOf(tie, n);
-        Arrays.sort(x);
         Tail left = tail(x, n, false);
         Tail right = tail(x, n, true);
         if (left == null || right == null) {

@@ -231,7 +231,9 @@ public final class JitterPlugin implements PluginProvider {
                 firstFs = 0;
                 lastFs = 0;
             }
-            JitterDecomposition.Result d = JitterDecomposition.decompose(r.tiePs(), r.tiePs().length, ber);
+            double[] sorted = r.tiePs().clone();
+            Arrays.sort(sorted);
+            JitterDecomposition.Result d = JitterDecomposition.decomposeSorted(sorted, sorted.length, ber);
             double uiPs = r.periodFs() / 1000;
             double maxTrackingHz = TrackingClock.maxBandwidthHz(r.periodFs());
             if (trackingHz > 0 && n >= 3 && trackingHz > maxTrackingHz) {
@@ -268,8 +270,6 @@ public final class JitterPlugin implements PluginProvider {
             j.field("definitions", "TIE: edge time minus a least-squares line through edge time against edge number; "
                     + "period jitter: sd of consecutive edge intervals; cycle-to-cycle: differences of consecutive periods (RMS about 0)");
             writeDecomposition(j, d, uiPs);
-            double[] sorted = r.tiePs().clone();
-            Arrays.sort(sorted);
             double[][] tub = bathtub(d, sorted, uiPs);
             writeBathtub(j, tub, uiPs);
             writeTracking(j, tr, trTie);
