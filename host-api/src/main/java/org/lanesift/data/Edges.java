@@ -129,6 +129,41 @@ public record Edges(String channel, long startFs, long endFs, boolean initialLev
     }
 
     /**
+     * The project's one rule for transitions at unknown spans: a transition at {@code tFs} inside the
+     * unknown span {@code [spanStartFs, spanEndFs)} or exactly on one of its bounds only tells the
+     * level after the span (producers place such a transition at the span's end, see the class
+     * comment); it is not an edge of the signal. Consumers must not count it as an edge, a clock
+     * edge, or the end of a dropout, and must not time anything from it. A consumer that receives
+     * the signal in several blocks checks a transition at a block's start against the last span of
+     * the previous block as well (a span can end exactly where the next block begins).
+     *
+     * @param tFs         transition time, femtoseconds
+     * @param spanStartFs start of an unknown span, femtoseconds
+     * @param spanEndFs   end of that span, femtoseconds
+     * @return true if the transition only restores the level and is no edge
+     */
+    public static boolean levelOnly(long tFs, long spanStartFs, long spanEndFs) {
+        return tFs >= spanStartFs && tFs <= spanEndFs;
+    }
+
+    /**
+     * {@link #levelOnly(long, long, long)} for transition {@code i} of this block against every
+     * unknown span of this block.
+     *
+     * @param i transition index, {@code 0 <= i < count}
+     * @return true if transition {@code i} only restores the level and is no edge
+     */
+    public boolean levelOnly(int i) {
+        long t = timesFs[i];
+        for (int s = 0; s < invalidCount; s++) {
+            if (levelOnly(t, invalidSpans[2 * s], invalidSpans[2 * s + 1])) {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    /**
      * The part of this edge list inside {@code [fromFs, toFs)}, clipped to the covered span: the
      * level at the new start, the transitions inside, and the unknown spans cut to fit (empty ones
      * dropped). Concatenating the slices of consecutive ranges gives back the same signal.

@@ -213,7 +213,12 @@ final class EdgeQueue {
      * @return true if it only tells the level
      */
     boolean levelOnly(long t) {
-        return spanTail > spanHead && spanOverlaps(t - 1, t);
+        for (int i = spanHead; i < spanTail && spans[i] <= t; i += 2) {
+            if (Edges.levelOnly(t, spans[i], spans[i + 1])) {
+                return true;
+            }
+        }
+        return false;
     }
 
     /**

@@ -104,9 +104,15 @@ final class EdgeTracker {
         return incomplete;
     }
 
-    /** Forgets the previous sample, so that no crossing is interpolated across a gap. */
+    /**
+     * Forgets the previous sample, so that no crossing is interpolated across a gap, and drops the
+     * transition in progress: a transition that runs into or out of unknown samples has no
+     * trustworthy timing, so it is no edge (the rule of {@code Edges.levelOnly} for analog input).
+     */
     void gap() {
         prevT = Double.NaN;
+        Arrays.fill(cross, Double.NaN);
+        past50 = false;
     }
 
     void step(double t, float v) {

@@ -130,6 +130,7 @@ public final class EyeDiagramPlugin implements PluginProvider {
         private int tail;
         private long headIndex;
         private long clockEdges;
+        private final EdgeFilter edgeFilter = new EdgeFilter();
         private long firstEdge;
         private double carryPhase;
         private long carryIndex = Long.MIN_VALUE;
@@ -202,6 +203,9 @@ public final class EyeDiagramPlugin implements PluginProvider {
                 if (!use) {
                     continue;
                 }
+                if (!edgeFilter.isEdge(e, i)) {
+                    continue; // restores the level after an unknown span: no clock edge (Edges.levelOnly)
+                }
                 long t = e.timesFs()[i];
                 if (tail > head && t <= edgeTimes[tail - 1]) {
                     continue; // duplicate or out of order across blocks: ignore, it would make an empty interval
@@ -221,6 +225,7 @@ public final class EyeDiagramPlugin implements PluginProvider {
                 }
                 clockEdges++;
             }
+            edgeFilter.done(e);
         }
 
         private void process(boolean last) {

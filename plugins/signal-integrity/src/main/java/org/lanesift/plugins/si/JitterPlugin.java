@@ -12,6 +12,7 @@ import org.lanesift.data.DataKind;
 import org.lanesift.data.Edges;
 import org.lanesift.json.JsonWriter;
 import org.lanesift.json.NumberStyle;
+import org.lanesift.plugin.OptionException;
 import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.PluginDescriptor;
 import org.lanesift.plugin.PluginProvider;
@@ -23,12 +24,20 @@ import org.lanesift.plugin.StageContext;
  * Plugin {@code jitter}: the time-interval error (TIE) of clock edges against an ideal clock fitted
  * by least squares (a straight line through edge time against edge number; missing edges are
  * detected from the median period and skipped in the numbering), period jitter and cycle-to-cycle
- * jitter, each with RMS, peak-to-peak and a histogram. Writes {@code <id>-jitter.json} and
- * {@code <id>-jitter.png}. Times in the report are picoseconds.
+ * jitter, each with RMS, peak-to-peak and a histogram; the split of the TIE into random and
+ * deterministic jitter under the dual-Dirac model with total jitter at a bit error ratio and a
+ * bathtub curve ({@link JitterDecomposition}); optionally the TIE against a tracking reference
+ * clock of a given loop bandwidth ({@link TrackingClock}). Writes {@code <id>-jitter.json},
+ * {@code <id>-jitter.png} and {@code <id>-bathtub.png}. Times in the report are picoseconds.
+ * Method: docs/jitter.md.
  */
 public final class JitterPlugin implements PluginProvider {
     static final String ID = "jitter";
     static final int BINS = 50;
+    /** Default bit error ratio for total jitter, the one most link specifications quote (common practice). */
+    static final double DEFAULT_BER = 1e-12;
+    /** Points of the bathtub curve, half on each wall. */
+    static final int BATHTUB_POINTS = 100;
 
     private static final PluginDescriptor DESCRIPTOR = PluginDescriptor.builder(ID)
             .name("Jitter")
@@ -37,8 +46,14 @@ public final class JitterPlugin implements PluginProvider {
             .option(OptionSpec.choice("edge", "rising", "which edges are clock edges", "rising", "falling", "both"))
             .option(OptionSpec.integer("maxEdges", 4_000_000L, 3, 50_000_000,
                     "edges analysed at most (8 bytes each); later edges are counted but not analysed"))
+            .option(OptionSpec.number("ber", "", DEFAULT_BER, 1e-18, 1e-3,
+                    "bit error ratio at which total jitter and the eye opening are given (dual-Dirac extrapolation)"))
+            .option(OptionSpec.number("trackingBandwidthHz", "Hz", 0.0, 0.0, 1e12,
+                    "loop bandwidth of a tracking reference clock for a second TIE; 0 leaves it out"))
+            .option(OptionSpec.integer("trackingOrder", 2L, 1, 2,
+                    "order of the tracking loop: 1 (phase only) or 2 (phase and frequency, damping 0.707)"))
             .input(PortSpec.of("clock", DataKind.EDGES, "clock edges"))
-            .output(PortSpec.of("files", DataKind.ARTIFACT, "<id>-jitter.json and <id>-jitter.png"))
+            .output(PortSpec.of("files", DataKind.ARTIFACT, "<id>-jitter.json, <id>-jitter.png and <id>-bathtub.png"))
             .build();
 
     /** Creates the provider. */
@@ -64,8 +79,11 @@ public final class JitterPlugin implements PluginProvider {
      * @param tie          TIE distribution, ps
      * @param period       period distribution, ps (consecutive edges only)
      * @param cycleToCycle difference of consecutive periods, ps
+     * @param tiePs        every TIE value, ps ({@code edges} of them)
+     * @param number       interval number of every edge (missing edges skipped)
      */
-    record Result(int edges, double periodFs, long gaps, Distribution tie, Distribution period, Distribution cycleToCycle) {
+    record Result(int edges, double periodFs, long gaps, Distribution tie, Distribution period, Distribution cycleToCycle,
+                  double[] tiePs, long[] number) {
         /** RMS of the TIE about zero (the least-squares line makes its mean zero). */
         double tieRmsPs() {
             return Math.hypot(tie.mean(), tie.std());
@@ -89,7 +107,7 @@ public final class JitterPlugin implements PluginProvider {
         Distribution period = new Distribution("ps", keep);
         Distribution c2c = new Distribution("ps", keep);
         if (n < 3) {
-            return new Result(n, Double.NaN, 0, tie, period, c2c);
+            return new Result(n, Double.NaN, 0, tie, period, c2c, new double[0], new long[0]);
         }
         int m = Math.min(n - 1, 100_001);
         long[] d = new long[m];
@@ -128,9 +146,11 @@ public final class JitterPlugin implements PluginProvider {
             skt += dk * ((double) (t[i] - t[0]) - mt);
         }
         double b = skt / skk;
+        double[] tiePs = new double[n];
         for (int i = 0; i < n; i++) {
             double ideal = mt + b * (k[i] - mk);
-            tie.add(((double) (t[i] - t[0]) - ideal) / 1000);
+            tiePs[i] = ((double) (t[i] - t[0]) - ideal) / 1000;
+            tie.add(tiePs[i]);
         }
         double prevPeriod = Double.NaN;
         for (int i = 1; i < n; i++) {
@@ -145,7 +165,7 @@ public final class JitterPlugin implements PluginProvider {
             }
             prevPeriod = p;
         }
-        return new Result(n, b, gaps, tie, period, c2c);
+        return new Result(n, b, gaps, tie, period, c2c, tiePs, k);
     }
 
     /** The running instance. */
@@ -159,11 +179,18 @@ public final class JitterPlugin implements PluginProvider {
         private long firstFs = Long.MAX_VALUE;
         private long lastFs = Long.MIN_VALUE;
         private String channel = "clock";
+        private final EdgeFilter edgeFilter = new EdgeFilter();
+        private final double ber;
+        private final double trackingHz;
+        private final int trackingOrder;
 
         JitterStage(StageContext ctx) {
             this.ctx = ctx;
             which = ctx.options().getString("edge");
             maxEdges = ctx.options().getInt("maxEdges");
+            ber = ctx.options().getDouble("ber");
+            trackingHz = ctx.options().getDouble("trackingBandwidthHz");
+            trackingOrder = ctx.options().getInt("trackingOrder");
         }
 
         @Override
@@ -181,8 +208,8 @@ public final class JitterPlugin implements PluginProvider {
                 if (n > 0 && t <= times[n - 1]) {
                     continue; // not after the previous edge (blocks overlapping): the list must stay increasing
                 }
-                if (e.isUnknownAt(t)) {
-                    continue;
+                if (!edgeFilter.isEdge(e, i)) {
+                    continue; // restores the level after an unknown span: no clock edge (Edges.levelOnly)
                 }
                 if (n == maxEdges) {
                     ignored++;
@@ -193,6 +220,7 @@ public final class JitterPlugin implements PluginProvider {
                 }
                 times[n++] = t;
             }
+            edgeFilter.done(e);
         }
 
         @Override
@@ -202,6 +230,25 @@ public final class JitterPlugin implements PluginProvider {
             if (firstFs == Long.MAX_VALUE) {
                 firstFs = 0;
                 lastFs = 0;
+            }
+            double[] sorted = r.tiePs().clone();
+            Arrays.sort(sorted);
+            JitterDecomposition.Result d = JitterDecomposition.decomposeSorted(sorted, sorted.length, ber);
+            double uiPs = r.periodFs() / 1000;
+            double maxTrackingHz = TrackingClock.maxBandwidthHz(r.periodFs());
+            if (trackingHz > 0 && n >= 3 && trackingHz > maxTrackingHz) {
+                throw new OptionException("trackingBandwidthHz", String.format(Locale.ROOT, "option 'trackingBandwidthHz' of plugin '%s' "
+                        + "instance '%s': %s is too wide for clock edges %.6g ps apart; expected at most %s (a loop updated once "
+                        + "per interval follows the model only well below the edge rate)", ID, id, RingingPlugin.hz(trackingHz),
+                        r.periodFs() / 1000, RingingPlugin.hz(maxTrackingHz)));
+            }
+            TrackingClock.Result tr = trackingHz > 0 && n >= 3
+                    ? TrackingClock.run(times, r.number(), n, r.periodFs(), trackingHz, trackingOrder) : null;
+            Distribution trTie = new Distribution("ps", tr == null ? 1 : Math.min(tr.count(), 1 << 20));
+            if (tr != null) {
+                for (int i = 0; i < tr.count(); i++) {
+                    trTie.add(tr.tiePs()[i]);
+                }
             }
             JsonWriter j = JsonWriter.pretty().numberStyle(NumberStyle.significant(9)).nonFiniteAsNull().beginObject();
             j.field("instance", id);
@@ -222,32 +269,165 @@ public final class JitterPlugin implements PluginProvider {
             j.field("cycleToCyclePeakToPeakPs", r.cycleToCycle().peakToPeak());
             j.field("definitions", "TIE: edge time minus a least-squares line through edge time against edge number; "
                     + "period jitter: sd of consecutive edge intervals; cycle-to-cycle: differences of consecutive periods (RMS about 0)");
+            writeDecomposition(j, d, uiPs);
+            double[][] tub = bathtub(d, sorted, uiPs);
+            writeBathtub(j, tub, uiPs);
+            writeTracking(j, tr, trTie);
+            writeProvenance(j);
             r.tie().write(j, "tie", BINS);
             r.period().write(j, "period", BINS);
             r.cycleToCycle().write(j, "cycleToCycle", BINS);
             j.endObject();
             ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-jitter.json", "application/json", (j.finish() + "\n").getBytes(StandardCharsets.UTF_8)));
-            ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-jitter.png", "image/png", Plot.histograms(
-                    id + " jitter of '" + channel + "' (" + which + " edges, " + n + " analysed)", List.of(
-                            new Plot.Panel(String.format(Locale.ROOT, "time-interval error: RMS %.3f ps, peak-to-peak %.3f ps",
-                                    r.tieRmsPs(), r.tie().peakToPeak()), "TIE (ps)", r.tie().histogram(BINS), 1),
-                            new Plot.Panel(String.format(Locale.ROOT, "period: mean %.4f ps, jitter RMS %.3f ps, peak-to-peak %.3f ps",
-                                    r.period().mean(), r.period().std(), r.period().peakToPeak()), "period (ps)", r.period().histogram(BINS), 1),
-                            new Plot.Panel(String.format(Locale.ROOT, "cycle-to-cycle: RMS %.3f ps, peak-to-peak %.3f ps",
-                                    r.c2cRmsPs(), r.cycleToCycle().peakToPeak()), "period difference (ps)", r.cycleToCycle().histogram(BINS), 1)))));
+            String what = "'" + channel + "' (" + which + " edges, " + n + " analysed)";
+            String rjdj = d.fitted() ? String.format(Locale.ROOT, "; RJ %.3f, DJ(dd) %.3f, TJ(%.0e) %.2f ps%s",
+                    d.rjRms(), d.djDd(), ber, d.tj(), d.modelHolds() ? "" : " (doubtful)") : "; no RJ/DJ split";
+            java.util.ArrayList<Plot.Panel> panels = new java.util.ArrayList<>(List.of(
+                    new Plot.Panel(String.format(Locale.ROOT, "TIE: RMS %.3f ps, p-p %.3f ps",
+                            r.tieRmsPs(), r.tie().peakToPeak()) + rjdj, "TIE (ps)", r.tie().histogram(BINS), 1),
+                    new Plot.Panel(String.format(Locale.ROOT, "period: mean %.4f ps, jitter RMS %.3f ps, peak-to-peak %.3f ps",
+                            r.period().mean(), r.period().std(), r.period().peakToPeak()), "period (ps)", r.period().histogram(BINS), 1),
+                    new Plot.Panel(String.format(Locale.ROOT, "cycle-to-cycle: RMS %.3f ps, peak-to-peak %.3f ps",
+                            r.c2cRmsPs(), r.cycleToCycle().peakToPeak()), "period difference (ps)", r.cycleToCycle().histogram(BINS), 1)));
+            if (tr != null) {
+                panels.add(new Plot.Panel(String.format(Locale.ROOT, "TIE against a tracking clock (loop bandwidth %s, order %d): RMS %.3f ps, peak-to-peak %.3f ps",
+                        RingingPlugin.hz(trackingHz), trackingOrder, Math.hypot(trTie.mean(), trTie.std()), trTie.peakToPeak()),
+                        "TIE (ps)", trTie.histogram(BINS), 1));
+            }
+            ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-jitter.png", "image/png",
+                    Plot.histograms("Jitter of " + what, panels)));
+            ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-bathtub.png", "image/png", bathtubPng(d, tub, uiPs, what)));
             Annotation.Builder a = Annotation.on(id, n < 3 ? "jitter-too-few-edges" : "jitter").span(firstFs, lastFs)
                     .severity(n < 3 ? Severity.WARNING : Severity.INFO)
                     .label(n < 3 ? "fewer than 3 clock edges: no jitter figures"
-                            : String.format(Locale.ROOT, "TIE %.3f ps RMS, %.3f ps p-p", r.tieRmsPs(), r.tie().peakToPeak()));
+                            : String.format(Locale.ROOT, "TIE %.3f ps RMS, %.3f ps p-p", r.tieRmsPs(), r.tie().peakToPeak())
+                            + (d.fitted() ? String.format(Locale.ROOT, ", RJ %.3f ps, DJ %.3f ps, TJ(%.0e) %.3f ps", d.rjRms(), d.djDd(), ber, d.tj()) : ""));
             if (n >= 3) {
                 a.number("tieRmsPs", r.tieRmsPs(), "ps").number("tiePeakToPeakPs", r.tie().peakToPeak(), "ps")
                         .number("periodJitterRmsPs", r.period().std(), "ps").number("cycleToCycleRmsPs", r.c2cRmsPs(), "ps");
+                if (d.fitted()) {
+                    a.number("randomJitterRmsPs", d.rjRms(), "ps").number("deterministicJitterPs", d.djDd(), "ps")
+                            .number("totalJitterPs", d.tj(), "ps");
+                }
             }
             ctx.annotate(a.build());
             if (ignored > 0) {
                 ctx.annotate(Annotation.on(id, "jitter-edges-not-analysed").span(firstFs, lastFs).severity(Severity.WARNING)
                         .label(ignored + " edges after the first " + n + " were not analysed (option maxEdges)").build());
             }
+        }
+
+        private void writeDecomposition(JsonWriter j, JitterDecomposition.Result d, double uiPs) {
+            j.field("ber", ber);
+            j.name("decomposition").beginObject();
+            j.field("model", "dual-Dirac: two Gaussians of weight 1/2; each tail fitted as a straight line on the Q scale "
+                    + "(beyond Q " + JitterDecomposition.Q_SHALLOW + ", at most Q " + JitterDecomposition.Q_DEEP + ")");
+            j.field("randomJitterRmsPs", d.rjRms());
+            j.field("deterministicJitterDualDiracPs", d.djDd());
+            j.field("qOfBer", d.qBer());
+            j.field("totalJitterPs", d.tj());
+            j.field("relation", "TJ(BER) = DJ(dual-Dirac) + 2 Q(BER) RJ, Q(BER) = -inverse standard normal CDF of BER");
+            j.field("eyeOpeningUi", d.fitted() ? Math.max(0, 1 - d.tj() / uiPs) : Double.NaN);
+            for (JitterDecomposition.Tail t : new JitterDecomposition.Tail[] {d.left(), d.right()}) {
+                j.name(t == d.left() ? "leftTail" : "rightTail").beginObject();
+                j.field("diracPs", t == null ? Double.NaN : t.mu());
+                j.field("sigmaPs", t == null ? Double.NaN : t.sigma());
+                j.field("diracWeight", t == null ? Double.NaN : t.weight());
+                j.field("rSquared", t == null ? Double.NaN : t.r2());
+                j.field("points", t == null ? 0 : t.points());
+                j.endObject();
+            }
+            j.field("modelHolds", d.modelHolds());
+            j.name("modelCaveats").beginArray();
+            for (String c : d.caveats()) {
+                j.value(c);
+            }
+            j.endArray();
+            j.endObject();
+        }
+
+        /**
+         * Width of each wall of the bathtub shown, ps: where the model (or, without a fit, the
+         * measured TIE) has fallen well below any BER of interest, at most half the interval.
+         */
+        private static double wallPs(JitterDecomposition.Result d, double[] sorted, double uiPs) {
+            double w = sorted.length == 0 ? uiPs / 2 : 1.5 * Math.max(Math.abs(sorted[0]), Math.abs(sorted[sorted.length - 1]));
+            if (d.fitted()) {
+                double q = 8.5; // about 1e-17, below the plot's floor
+                w = Math.max(w, 1.25 * Math.max(d.right().mu() + q * d.right().sigma(), -d.left().mu() + q * d.left().sigma()));
+            }
+            return Double.isFinite(w) && w > 0 ? Math.min(w, uiPs / 2) : uiPs / 2;
+        }
+
+        /**
+         * Sampling instants (ps after the ideal edge) across both walls of the bathtub, log10 of the
+         * model's error probability, measured error share: the first half of the points cover
+         * {@code [0, wall]}, the second {@code [ui - wall, ui]} (the whole interval when the wall is half of it).
+         */
+        private double[][] bathtub(JitterDecomposition.Result d, double[] sorted, double uiPs) {
+            double wall = wallPs(d, sorted, uiPs);
+            int half = BATHTUB_POINTS / 2;
+            double[] x = new double[BATHTUB_POINTS];
+            double[] model = new double[BATHTUB_POINTS];
+            double[] meas = new double[BATHTUB_POINTS];
+            for (int i = 0; i < BATHTUB_POINTS; i++) {
+                x[i] = i < half ? wall * i / (half - 1) : uiPs - wall + wall * (i - half) / (half - 1);
+                model[i] = d.fitted() ? Math.log10(JitterDecomposition.bathtubModel(d, uiPs, x[i])) : Double.NaN;
+                meas[i] = sorted.length == 0 ? 0 : JitterDecomposition.bathtubMeasured(sorted, sorted.length, uiPs, x[i]);
+            }
+            return new double[][] {x, model, meas};
+        }
+
+        private void writeBathtub(JsonWriter j, double[][] b, double uiPs) {
+            j.name("bathtub").beginObject();
+            j.field("unitIntervalPs", uiPs);
+            j.field("transitionDensity", 1.0);
+            j.field("points", "the first half span the wall after one ideal edge, the second half the wall before the next");
+            j.name("positionPs").inlineArray(b[0], b[0].length);
+            j.name("modelLog10ErrorProbability").inlineArray(b[1], b[1].length);
+            j.name("measuredErrorShare").inlineArray(b[2], b[2].length);
+            j.endObject();
+        }
+
+        private byte[] bathtubPng(JitterDecomposition.Result d, double[][] b, double uiPs, String what) {
+            String sub = d.fitted() ? String.format(Locale.ROOT, "RJ %.3f ps RMS, DJ(dual-Dirac) %.3f ps, TJ(%.0e) %.3f ps, eye opening %.4f UI of %.6g ps%s",
+                    d.rjRms(), d.djDd(), ber, d.tj(), Math.max(0, 1 - d.tj() / uiPs), uiPs, d.modelHolds() ? "" : "; model doubtful")
+                    : "no dual-Dirac fit: " + d.caveats().get(0);
+            return BathtubPlot.render("Bathtub of " + what, sub, b[0], uiPs, b[1], b[2], ber);
+        }
+
+        private void writeTracking(JsonWriter j, TrackingClock.Result tr, Distribution trTie) {
+            j.name("trackingReference");
+            if (tr == null) {
+                j.nullValue();
+                return;
+            }
+            j.beginObject();
+            j.field("loopBandwidthHz", trackingHz);
+            j.field("order", trackingOrder);
+            j.field("dampingRatio", trackingOrder == 2 ? TrackingClock.ZETA : Double.NaN);
+            j.field("settlingEdgesLeftOut", tr.settlingEdges());
+            j.field("tieRmsPs", Math.hypot(trTie.mean(), trTie.std()));
+            j.field("tiePeakToPeakPs", trTie.peakToPeak());
+            j.field("definition", "TIE against a reference clock that follows the edges through a phase-locked loop "
+                    + "of this bandwidth (wander slower than it is removed)");
+            j.endObject();
+        }
+
+        private void writeProvenance(JsonWriter j) {
+            j.name("provenance").beginObject();
+            j.field("edgesAnalysed, idealPeriodPs, tie*, period*, cycleToCycle*", "measured from the clock edges");
+            j.field("decomposition.randomJitterRmsPs, deterministicJitterDualDiracPs, leftTail, rightTail",
+                    "measured: tail fits of the TIE distribution");
+            j.field("decomposition.qOfBer, totalJitterPs, eyeOpeningUi",
+                    "standard: the dual-Dirac relation TJ = DJ + 2 Q(BER) RJ (docs/reference-facts.md#jitter), applied to the measured RJ and DJ");
+            j.field("ber", ber == DEFAULT_BER ? "assumed by default (1e-12, common practice)" : "given (option ber)");
+            j.field("bathtub.modelLog10ErrorProbability", "dual-Dirac model with the measured tails; transition density 1 assumed (a clock)");
+            j.field("bathtub.positionPs", "chosen: each wall until the model is far below any BER of interest");
+            j.field("bathtub.measuredErrorShare", "measured: share of TIE values beyond each sampling instant");
+            j.field("trackingReference", trackingHz > 0 ? "measured against a loop of the given bandwidth (option trackingBandwidthHz)"
+                    : "not asked for (option trackingBandwidthHz 0, the default)");
+            j.endObject();
         }
     }
 }

@@ -76,8 +76,16 @@ final class RingFit {
         while (i < n && s * (v[i] - c0) <= 0) {
             i++;
         }
+        // the crossing back, with a hysteresis of three times the noise (from the spread of the last
+        // quarter about its median) so that noise near the level does not end the first lobe early
+        double[] dev = new double[lastQ.length];
+        for (int k = 0; k < dev.length; k++) {
+            dev[k] = Math.abs(lastQ[k] - c0);
+        }
+        Arrays.sort(dev);
+        double noise = 1.4826 * dev[dev.length / 2]; // median absolute deviation of a Gaussian (textbook)
         int j = i;
-        while (j < n && s * (v[j] - c0) > 0) {
+        while (j < n && s * (v[j] - c0) > -3 * noise) {
             j++;
         }
         if (i >= n || j >= n) {

@@ -19,8 +19,12 @@ import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
 
 /**
- * Plugin {@code ringing}: fits a damped sinusoid to the signal after each edge (Apache Commons Math
- * Levenberg-Marquardt), reports ring frequency, damping ratio and Q, and, with the probe's input
+ * Plugin {@code ringing}: averages the signal after every edge, aligned on the edges' interpolated
+ * 50 % crossings ({@link EdgeAverager}; noise falls as the square root of the edge count), fits a
+ * damped sinusoid to the averaged step (Apache Commons Math Levenberg-Marquardt), and also fits each
+ * edge alone for the list of fits; the summary comes from the averaged step (from the median of the
+ * single-edge fits only if the average cannot be fitted). It reports ring frequency, damping ratio
+ * and Q, and, with the probe's input
  * capacitance, the loop inductance that would resonate there, {@code L = 1 / ((2 pi f0)^2 C)}, and
  * the ground-lead length it suggests at about 1 nH per mm (common practice), with plain advice.
  * Writes {@code <id>-ringing.json}.
@@ -119,6 +123,7 @@ public final class RingingPlugin implements PluginProvider {
         private long fitted;
         private long notFitted;
         private long skipped;
+        private EdgeAverager averager;
 
         RingStage(StageContext ctx) {
             super(ctx, ID);
@@ -135,12 +140,16 @@ public final class RingingPlugin implements PluginProvider {
 
         private void edge(EdgeTracker.Edge e, Levels lv) {
             edges++;
+            double endFs = e.departFs() - (e.truncated() ? 0 : e.transitionFs());
+            int n = (int) Math.max(0, Math.min(e.tailCount(), Math.floor((endFs - e.tailStartFs()) / periodFs)));
+            if (averager == null) {
+                averager = new EdgeAverager(periodFs, lv.lowVolts, lv.highVolts);
+            }
+            averager.add(e.tail(), n, e.tailStartFs(), e.t50(), e.rising(), endFs);
             if (fitted + notFitted >= maxFits) {
                 skipped++;
                 return;
             }
-            double endFs = e.departFs() - (e.truncated() ? 0 : e.transitionFs());
-            int n = (int) Math.max(0, Math.min(e.tailCount(), Math.floor((endFs - e.tailStartFs()) / periodFs)));
             RingFit.Result r = RingFit.fit(e.tail(), n, e.tailStartFs(), periodFs, e.rising(), lv.swing());
             if (!r.ok()) {
                 notFitted++;
@@ -176,14 +185,19 @@ public final class RingingPlugin implements PluginProvider {
         @Override
         void done(Levels lv) {
             String id = ctx.instanceId();
-            double ring = median(2);
-            double nat = median(3);
-            double zeta = median(5);
-            double q = median(6);
-            double l = fits.isEmpty() ? Double.NaN : inductance(nat, capF);
+            RingFit.Result avg = averager == null || averager.count() == 0 ? RingFit.Result.fail("no complete edge to average")
+                    : RingFit.fit(averager.average(), averager.length(), averager.firstT50Fs() + averager.delayFs(), periodFs, true, lv.swing());
+            boolean fromAverage = avg.ok();
+            double ring = fromAverage ? avg.ringHz() : median(2);
+            double nat = fromAverage ? avg.naturalHz() : median(3);
+            double zeta = fromAverage ? avg.zeta() : median(5);
+            double q = fromAverage ? avg.q() : median(6);
+            boolean any = fromAverage || !fits.isEmpty();
+            double l = any ? inductance(nat, capF) : Double.NaN;
             double mm = l * 1e9 / NH_PER_MM;
-            String advice = fits.isEmpty() ? "no ringing was fitted after " + edges + " edges"
-                    + (failures.isEmpty() ? "" : " (" + failures.get(0) + ")")
+            String advice = !any ? "no ringing was fitted after " + edges + " edges"
+                    + (averager != null && averager.count() > 0 ? " (average of " + averager.count() + " edges: " + avg.reason() + ")"
+                    : failures.isEmpty() ? "" : " (" + failures.get(0) + ")")
                     : advice(ring, l, capF * 1e12, q);
             JsonWriter j = JsonWriter.pretty().numberStyle(NumberStyle.significant(9)).nonFiniteAsNull().beginObject();
             j.field("instance", id);
@@ -197,7 +211,22 @@ public final class RingingPlugin implements PluginProvider {
             j.field("notTried", skipped);
             j.field("model", "v(t) = A exp(-alpha t) cos(2 pi f t + phi) + c from the first peak after the edge, "
                     + "Levenberg-Marquardt (Apache Commons Math 3)");
+            j.name("average").beginObject();
+            j.field("method", "samples after every complete edge, resampled onto a common grid aligned on the interpolated "
+                    + "50 % crossing, falling edges mirrored, averaged; then fitted once");
+            j.field("edgesAveraged", averager == null ? 0 : averager.count());
+            j.field("edgesLeftOut", averager == null ? 0 : averager.leftOut());
+            j.field("samples", averager == null ? 0 : averager.length());
+            j.field("fitted", avg.ok());
+            j.field("reason", avg.ok() ? "" : avg.reason());
+            j.field("ringHz", avg.ringHz());
+            j.field("naturalHz", avg.naturalHz());
+            j.field("dampingRatio", avg.zeta());
+            j.field("amplitudeVolts", avg.amplitudeVolts());
+            j.field("rSquared", avg.rSquared());
+            j.endObject();
             j.name("summary").beginObject();
+            j.field("from", fromAverage ? "the averaged edge" : any ? "the median of the single-edge fits (the average could not be fitted)" : "nothing fitted");
             j.field("ringHz", ring);
             j.field("naturalHz", nat);
             j.field("dampingRatio", zeta);
@@ -214,6 +243,13 @@ public final class RingingPlugin implements PluginProvider {
                     + (capF * 1e12 == DEFAULT_PROBE_PF ? " (default: a typical 10:1 passive probe, common practice, from memory)" : " (given)"));
             j.value("a straight lead has about 1 nH per mm (common practice); a loop's real inductance depends on its area");
             j.endArray();
+            j.name("provenance").beginObject();
+            j.field("average, fits, summary.ringHz, naturalHz, dampingRatio, q, lowLevelVolts, highLevelVolts", "measured");
+            j.field("summary.probeCapacitancePf", capF * 1e12 == DEFAULT_PROBE_PF
+                    ? "assumed by default (a typical 10:1 passive probe, common practice, from memory)" : "given (option probeCapacitancePf)");
+            j.field("summary.loopInductanceNh", "derived: L = 1 / ((2 pi f0)^2 C) from the measured f0 and the capacitance above");
+            j.field("summary.leadLengthMm", "derived: about 1 nH per mm of straight lead (common practice)");
+            j.endObject();
             j.name("fits").beginArray();
             for (double[] f : fits) {
                 j.beginObject();
@@ -238,10 +274,14 @@ public final class RingingPlugin implements PluginProvider {
             j.endArray();
             j.endObject();
             ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-ringing.json", "application/json", (j.finish() + "\n").getBytes(StandardCharsets.UTF_8)));
-            Annotation.Builder a = Annotation.on(id, "ringing").span(firstFs, lastFs).label(advice)
-                    .severity(!fits.isEmpty() && mm >= 20 ? Severity.WARNING : Severity.INFO)
+            // the annotation spans the edge that was fitted (the first one averaged), not the whole capture
+            long spanFrom = fromAverage ? Math.round(averager.firstT50Fs()) : firstFs;
+            long spanTo = fromAverage ? Math.max(spanFrom, Math.round(Math.min(averager.firstDepartFs(),
+                    averager.firstT50Fs() + averager.delayFs() + averager.length() * periodFs))) : lastFs;
+            Annotation.Builder a = Annotation.on(id, "ringing").span(spanFrom, spanTo).label(advice)
+                    .severity(any && mm >= 20 ? Severity.WARNING : Severity.INFO)
                     .text("advice", advice);
-            if (!fits.isEmpty()) {
+            if (any) {
                 a.number("ringHz", ring, "Hz").number("dampingRatio", zeta, "").number("q", q, "")
                         .number("loopInductanceH", l, "H").number("leadLengthMm", mm, "mm");
             }

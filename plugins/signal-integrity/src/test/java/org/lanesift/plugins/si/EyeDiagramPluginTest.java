@@ -108,6 +108,24 @@ class EyeDiagramPluginTest {
     }
 
     @Test
+    void theTransitionEndingAnUnknownClockStartIsNoClockEdge() {
+        // the clock is unknown over [0, 300 ps); the transition at 300 ps only restores its level
+        // (Edges.levelOnly): folded on, it would shift the unit interval and the eye
+        AnalogBlock sig = SynthSignals.nrz(5_000, UI_FS, RATE, 0.2, 200e3, 0, 0.020, 3);
+        long[] t = new long[5_000];
+        for (int i = 0; i < t.length; i++) {
+            t[i] = Math.round(i * UI_FS);
+        }
+        t[0] = 300_000;
+        Edges clk = new Edges("clk", 0, Math.round(5_000 * UI_FS), false, t, t.length, new long[] {0, 300_000}, 1);
+        StageHarness h = StageHarness.of(new EyeDiagramPlugin(), Map.of("clockEdge", "both"));
+        h.push("clock", clk).push("signal", sig).finish();
+        String j = jsonOf(h, "-eye.json");
+        assertEquals(4_999, num(j, "clockEdges"), j);
+        assertEquals(1000, num(j, "uiPs"), 1e-6, j);
+    }
+
+    @Test
     void clockArrivingAfterTheSignalIsWaitedFor() {
         AnalogBlock sig = SynthSignals.nrz(2_000, UI_FS, RATE, 0.2, 200e3, 0, 0.0, 4);
         long[] t = new long[1_000];
