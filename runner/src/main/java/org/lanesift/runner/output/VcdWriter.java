@@ -503,7 +503,7 @@ public final class VcdWriter implements Closeable {
     }
 
     private void header(Writer w, List<Var> list, long origin) throws IOException {
-        w.write("$date\n   " + java.time.ZonedDateTime.now(java.time.ZoneOffset.UTC).withNano(0) + "\n$end\n");
+        w.write("$date\n   " + java.time.Instant.now().truncatedTo(java.time.temporal.ChronoUnit.SECONDS) + "\n$end\n");
         w.write("$version\n   " + version + "\n$end\n");
         if (origin != 0) {
             w.write("$comment\n   times shifted by " + (-origin) + " fs: time 0 here is " + origin
