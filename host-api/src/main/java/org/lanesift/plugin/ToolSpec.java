@@ -12,10 +12,10 @@ import java.util.Objects;
  *
  * @param name        command name, lower case with hyphens ({@code "cable-delay"})
  * @param summary     one line for the host's command list
- * @param description lines shown above the options in {@code --help}
+ * @param description text shown above the options in {@code --help}, one paragraph (the host wraps it)
  * @param options     the options, written {@code --NAME} on the command line
  * @param subcommands subcommands (such as {@code probe divider}), each with options of its own; empty if none
- * @param footer      lines shown below the options (exit codes, cautions, where the docs are)
+ * @param footer      paragraphs shown below the options (exit codes, cautions, where the docs are), each wrapped by the host
  */
 public record ToolSpec(String name, String summary, List<String> description, List<ToolOption> options,
                        List<ToolSpec> subcommands, List<String> footer) {

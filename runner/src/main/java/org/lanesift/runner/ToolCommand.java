@@ -58,7 +58,7 @@ final class ToolCommand implements Callable<Integer> {
         java.util.List<String> d = new java.util.ArrayList<>(java.util.List.of(ts.summary()));
         if (!ts.description().isEmpty()) {
             d.add("");
-            d.addAll(ts.description());
+            d.add(String.join(" ", ts.description())); // one paragraph: the help wraps it to the terminal
         }
         cs.usageMessage().description(d.toArray(String[]::new));
         cs.usageMessage().sortOptions(false);
@@ -82,7 +82,7 @@ final class ToolCommand implements Callable<Integer> {
             return b.arity("0").type(boolean.class).description(s.help()).build();
         }
         StringBuilder d = new StringBuilder(s.help());
-        if (s.defaultValue() != null && !o.required()) {
+        if (s.defaultValue() != null && !s.defaultValue().toString().isEmpty() && !o.required()) {
             d.append(" (default ").append(s.defaultValue() instanceof Double v ? fmtDefault(v) : String.valueOf(s.defaultValue()))
                     .append(s.type() == org.lanesift.plugin.OptionSpec.Type.NUMBER && !s.unit().isEmpty() ? " " + s.unit() : "")
                     .append(')');

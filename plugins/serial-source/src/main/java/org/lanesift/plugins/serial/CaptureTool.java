@@ -49,8 +49,8 @@ public final class CaptureTool implements Tool {
             .option(OptionSpec.text("sim-faults", "", "simulator: drop=F,corrupt=F,dup=F,stall=F:MS,disconnect=F (F = frame number)"),
                     "LIST")
             .footer("Exit codes: 0 done, 1 device or disk failure, 2 bad arguments. --quiet: no status line.",
-                    "Caution: connect probes and devices as their makers instruct; a device on a mains-referenced",
-                    "circuit can put the host's USB ground at a dangerous potential. Follow local codes and practice.")
+                    "Caution: connect probes and devices as their makers instruct; a device on a mains-referenced "
+                            + "circuit can put the host's USB ground at a dangerous potential. Follow local codes and practice.")
             .build();
 
     private final SerialPorts ports;
