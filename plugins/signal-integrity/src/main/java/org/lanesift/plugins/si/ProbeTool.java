@@ -21,6 +21,30 @@ public final class ProbeTool implements Tool {
     static final double DEFAULT_INPUT_MAX_WATTS = 0.5;
     static final double DEFAULT_RESISTOR_WATTS = 0.25;
     static final double NEAR = 0.8;
+    /**
+     * Default maximum working voltage of the series resistor: small film resistors are commonly rated
+     * 200 to 250 V (1206 chips about 200 V, 0.25 W leaded parts about 250 V; from memory, check the
+     * data sheet). The lower figure is taken.
+     */
+    static final double DEFAULT_RESISTOR_MAX_VOLTS = 200.0;
+    /**
+     * Upper end of extra-low voltage for AC, volts RMS: IEC 61140 and the voltage bands of IEC 60449
+     * put extra-low voltage at no more than 50 V AC RMS or 120 V ripple-free DC (from memory). The
+     * probe does not know AC from DC, so the lower figure is used for both.
+     */
+    static final double EXTRA_LOW_VOLTAGE_AC_RMS = 50.0;
+    /** Upper end of extra-low voltage for ripple-free DC, volts (IEC 61140 / IEC 60449, from memory). */
+    static final double EXTRA_LOW_VOLTAGE_DC = 120.0;
+
+    static final String HAZARD = String.join("\n",
+            "HAZARDOUS VOLTAGE",
+            "  - Above extra-low voltage (50 V AC RMS or 120 V ripple-free DC: IEC 61140 / IEC 60449 voltage bands,",
+            "    from memory) the circuit can kill. This calculator does not make a home-made divider safe there.",
+            "  - What decides safety is not the ratio: it is each resistor's maximum working voltage, the creepage",
+            "    and clearance distances across the divider and its housing, insulation of everything a hand can touch,",
+            "    and the measurement category (CAT) of the whole setup (IEC 61010-031 for probes, from memory).",
+            "  - The right tool is a probe rated for the voltage and the category (a high-voltage or differential probe),",
+            "    used as its maker instructs and as local codes and licensed practice require.");
 
     static final String CAUTIONS = String.join("\n",
             "Cautions",
@@ -55,6 +79,9 @@ public final class ProbeTool implements Tool {
                             "scope input power rating (0.5 W is from memory: check yours)"), "W")
                     .option(OptionSpec.number("resistor-watts", "W", DEFAULT_RESISTOR_WATTS, 1e-6, 1e6,
                             "the series resistor's power rating"), "W")
+                    .option(OptionSpec.number("resistor-max-volts", "V", DEFAULT_RESISTOR_MAX_VOLTS, 1e-3, 1e6,
+                            "the series resistor's maximum working voltage (200 V is from memory for small film parts: "
+                                    + "check the data sheet)"), "V")
                     .build())
             .subcommand(ToolSpec.builder("rise")
                     .summary("rise time from bandwidth and the correction of a measured rise time")
@@ -104,6 +131,7 @@ public final class ProbeTool implements Tool {
         double vmax = o.number("input-max-vrms");
         double pmax = o.number("input-max-watts");
         double prated = o.number("resistor-watts");
+        double rmaxVolts = o.number("resistor-max-volts");
         double level = o.number("level");
         ESeries series;
         try {
@@ -145,20 +173,34 @@ public final class ProbeTool implements Tool {
         double tipForV = vmax * ratio;
         double tipForP = Math.sqrt(pmax * rin) * ratio;
         double tipForR = load * Math.sqrt(0.5 * prated / r);
+        double tipForRVolts = rmaxVolts * load / r;
+        double tipLimit = Math.min(Math.min(tipForV, tipForP), Math.min(tipForR, tipForRVolts));
         line(out, "tip limits", "scope input reaches " + fmt(vmax) + " V RMS at " + fmt(tipForV) + " V RMS and " + fmt(pmax)
                 + " W at " + fmt(tipForP) + " V RMS at the tip; the resistor reaches half its " + fmt(prated) + " W at "
-                + fmt(tipForR) + " V RMS");
+                + fmt(tipForR) + " V RMS and its " + fmt(rmaxVolts) + " V working voltage at " + fmt(tipForRVolts) + " V RMS");
+        line(out, "highest tip level", fmt(tipLimit) + " V RMS, the lowest of the limits above"
+                + (tipLimit > EXTRA_LOW_VOLTAGE_AC_RMS ? "; above " + fmt(EXTRA_LOW_VOLTAGE_AC_RMS)
+                + " V RMS it is not a safe level: see HAZARDOUS VOLTAGE" : ""));
+        boolean hazardous = tipLimit > EXTRA_LOW_VOLTAGE_AC_RMS;
         if (!Double.isNaN(level)) {
             double i = ProbeMath.current(level, r, rin);
             double pr = i * i * r;
             double pin = i * i * rin;
             double vin = i * rin;
-            line(out, "at " + fmt(level) + " V RMS", "current " + si(i, "A") + "; resistor " + si(pr, "W") + "; scope input "
-                    + si(vin, "V") + " RMS and " + si(pin, "W"));
+            double vr = i * r;
+            line(out, "at " + fmt(level) + " V RMS", "current " + si(i, "A") + "; resistor " + si(pr, "W") + " and "
+                    + si(vr, "V") + " RMS; scope input " + si(vin, "V") + " RMS and " + si(pin, "W"));
             String bigger = "use a larger ratio or an attenuator rated for the power";
             check(out, "scope input voltage", vin, vmax, "V RMS", bigger);
             check(out, "scope input power", pin, pmax, "W", bigger);
             check(out, "resistor power (derated to half)", pr, 0.5 * prated, "W", "use a resistor (or several in series) rated for it");
+            check(out, "resistor working voltage", vr, rmaxVolts, "V RMS", "use resistors in series, each within its rating");
+            if (level > EXTRA_LOW_VOLTAGE_AC_RMS) {
+                hazardous = true;
+                out.println("  HAZARDOUS: " + fmt(level) + " V RMS is above extra-low voltage (" + fmt(EXTRA_LOW_VOLTAGE_AC_RMS)
+                        + " V AC RMS, " + fmt(EXTRA_LOW_VOLTAGE_DC) + " V DC); do not use a home-made divider: use a probe rated"
+                        + " for the voltage and measurement category");
+            }
         }
         out.println("Assumptions");
         out.println("  - ratio (R + R_in) / R_in and loading R + R_in (common practice); the scope input is a pure "
@@ -168,8 +210,13 @@ public final class ProbeTool implements Tool {
         out.println("  - the source is linear with " + ohms(zs) + " output impedance" + (o.given("source-ohms") ? " (given)" : " (default)"));
         out.println("  - scope input limits " + fmt(vmax) + " V RMS and " + fmt(pmax) + " W" + (o.given("input-max-vrms")
                 || o.given("input-max-watts") ? " (given)" : " (common 50-ohm input ratings, from memory: check your instrument)"));
-        out.println("  - resistor rated " + fmt(prated) + " W and derated to half (common practice)");
+        out.println("  - resistor rated " + fmt(prated) + " W and derated to half (common practice), working voltage "
+                + fmt(rmaxVolts) + " V" + (o.given("resistor-max-volts") ? " (given)" : " (a common rating of small film resistors,"
+                + " from memory: check the data sheet)"));
         out.println("  - series values from IEC 60063 (" + series + ")");
+        if (hazardous) {
+            out.println(HAZARD);
+        }
         out.println(CAUTIONS);
     }
 
