@@ -5,7 +5,7 @@ package org.lanesift.chain;
  * a stage that failed. The message names the instance, port or chain-file location
  * ({@link #pointer()}, a JSON pointer such as {@code /wires/2/to}) and what was expected.
  */
-public class ChainException extends RuntimeException {
+public class ChainException extends org.lanesift.plugin.InputException {
     /** Serialization version. */
     private static final long serialVersionUID = 1L;
     /** Where in the chain model the problem is, or null. */

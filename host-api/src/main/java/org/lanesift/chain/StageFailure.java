@@ -2,7 +2,10 @@ package org.lanesift.chain;
 
 /**
  * A stage threw while the chain ran. The message names the instance, the plugin and what it was
- * doing; the cause is the stage's own exception.
+ * doing; the cause is the stage's own exception. Hosts judge the failure by the cause's type, not
+ * by this wrapper: an {@link org.lanesift.plugin.InputException} is bad input (exit 2), a
+ * {@link org.lanesift.plugin.DeviceFailure} a failed device (exit 1), anything else a bug (exit 1,
+ * "internal error").
  */
 public final class StageFailure extends ChainException {
     /** Serialization version. */

@@ -4,7 +4,7 @@ package org.lanesift.plugin;
  * An option value that is missing, of the wrong type or out of range. The message names the
  * plugin, the option and what is allowed.
  */
-public class OptionException extends RuntimeException {
+public class OptionException extends InputException {
     /** Serialization version. */
     private static final long serialVersionUID = 1L;
     /** The offending option. */
@@ -18,6 +18,18 @@ public class OptionException extends RuntimeException {
      */
     public OptionException(String option, String message) {
         super(message);
+        this.option = option;
+    }
+
+    /**
+     * Creates the exception with a cause.
+     *
+     * @param option  option name
+     * @param message full message naming the option and what is allowed
+     * @param cause   the underlying failure
+     */
+    public OptionException(String option, String message, Throwable cause) {
+        super(message, cause);
         this.option = option;
     }
 

@@ -4,6 +4,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Objects;
 import org.lanesift.time.TimeValue;
+import org.lanesift.unit.Quantity;
 
 /**
  * One option of a plugin: name, type, unit, default, allowed range and help.
@@ -160,16 +161,42 @@ public record OptionSpec(String name, Type type, String unit, Object defaultValu
      * @throws OptionException naming plugin, option and what is allowed
      */
     public Object parse(String pluginId, Object raw) {
-        String where = "option '" + name + "' of plugin '" + pluginId + "'";
+        try {
+            return convert(raw);
+        } catch (OptionException e) {
+            throw new OptionException(name, "option '" + name + "' of plugin '" + pluginId + "': " + e.getMessage());
+        }
+    }
+
+    /**
+     * Converts a raw value (a string, or a number/boolean/list from JSON) to this option's type and
+     * checks the range. A number given as text may carry this option's unit and an SI prefix
+     * ({@code 10cm}, {@code 500MHz}; see {@link Quantity}). This is the one conversion used for chain
+     * files and for every command line.
+     *
+     * @param raw the value as given
+     * @return the typed value
+     * @throws OptionException whose message says what is allowed and what was given (without naming the option)
+     */
+    public Object convert(Object raw) {
         try {
             Object v = switch (type) {
                 case INTEGER -> {
                     if (raw instanceof Number n && n.doubleValue() == Math.rint(n.doubleValue())) {
                         yield n.longValue();
                     }
-                    yield Long.parseLong(raw.toString().trim());
+                    yield Long.parseLong(raw.toString().trim().replace("_", ""));
                 }
-                case NUMBER -> raw instanceof Number n ? n.doubleValue() : Double.parseDouble(raw.toString().trim());
+                case NUMBER -> {
+                    if (raw instanceof Number n) {
+                        yield n.doubleValue();
+                    }
+                    try {
+                        yield Quantity.parse(raw.toString(), unit);
+                    } catch (IllegalArgumentException e) {
+                        throw new NumberFormatException(e.getMessage());
+                    }
+                }
                 case BOOLEAN -> {
                     if (raw instanceof Boolean b) {
                         yield b;
@@ -178,13 +205,13 @@ public record OptionSpec(String name, Type type, String unit, Object defaultValu
                     if (s.equals("true") || s.equals("false")) {
                         yield Boolean.parseBoolean(s);
                     }
-                    throw new OptionException(name, where + ": expected true or false, got '" + raw + "'");
+                    throw new OptionException(name, "expected true or false, got '" + raw + "'");
                 }
                 case TEXT -> raw.toString();
                 case CHOICE -> {
                     String s = raw.toString();
                     if (!choices.contains(s)) {
-                        throw new OptionException(name, where + ": expected one of " + String.join(", ", choices) + ", got '" + s + "'");
+                        throw new OptionException(name, "expected one of " + String.join(", ", choices) + ", got '" + s + "'");
                     }
                     yield s;
                 }
@@ -196,15 +223,17 @@ public record OptionSpec(String name, Type type, String unit, Object defaultValu
             if (v instanceof Number n && (type == Type.NUMBER || type == Type.INTEGER)) {
                 double d = n.doubleValue();
                 if (!Double.isFinite(d) || (min != null && d < min) || (max != null && d > max)) {
-                    throw new OptionException(name, where + ": " + raw + " is outside the allowed range " + range());
+                    throw new OptionException(name, raw + " is outside the allowed range " + range());
                 }
             }
             return v;
         } catch (NumberFormatException e) {
-            throw new OptionException(name, where + ": expected " + (type == Type.INTEGER ? "an integer" : "a number")
+            throw new OptionException(name, "expected " + (type == Type.INTEGER ? "an integer" : "a number")
                     + (min != null || max != null ? " in " + range() : "") + ", got '" + raw + "'");
+        } catch (OptionException e) {
+            throw e;
         } catch (IllegalArgumentException e) {
-            throw new OptionException(name, where + ": " + e.getMessage());
+            throw new OptionException(name, e.getMessage());
         }
     }
 

@@ -1,10 +1,11 @@
 package org.lanesift.time;
 
 import java.util.Locale;
+import org.lanesift.unit.Quantity;
 
 /**
  * A time quantity as a user writes it in an option: a number and a unit, where the unit may be
- * absolute (fs, ps, ns, us, ms, s), in samples of the channel it applies to, or in unit intervals
+ * absolute (fs, ps, ns, us, ms, s, min, h), in samples of the channel it applies to, or in unit intervals
  * (UI) of the link. Resolve it to femtoseconds with {@link #toFs(double, double)}.
  *
  * @param value the number as written
@@ -26,6 +27,10 @@ public record TimeValue(double value, Unit unit) {
         MS("ms", Femtos.PER_MS),
         /** Seconds. */
         S("s", Femtos.PER_S),
+        /** Minutes. */
+        MIN("min", 60 * Femtos.PER_S),
+        /** Hours. */
+        H("h", 3600 * Femtos.PER_S),
         /** Sample periods of the channel the value applies to. */
         SAMPLES("samples", 0),
         /** Unit intervals (bit times) of the link. */
@@ -75,11 +80,7 @@ public record TimeValue(double value, Unit unit) {
      */
     public static TimeValue parse(String text, Unit defaultUnit) {
         String t = text == null ? "" : text.trim();
-        int i = 0;
-        while (i < t.length() && "+-0123456789.eE".indexOf(t.charAt(i)) >= 0) {
-            // stop at an 'e' that starts a unit? none of our units start with e, so keep it
-            i++;
-        }
+        int i = Quantity.numberLength(t);
         String num = t.substring(0, i).trim();
         String u = t.substring(i).trim().toLowerCase(Locale.ROOT);
         double v;
@@ -91,16 +92,24 @@ public record TimeValue(double value, Unit unit) {
         Unit unit;
         switch (u) {
             case "" -> unit = defaultUnit;
-            case "fs" -> unit = Unit.FS;
-            case "ps" -> unit = Unit.PS;
-            case "ns" -> unit = Unit.NS;
-            case "us", "\u00b5s" -> unit = Unit.US;
-            case "ms" -> unit = Unit.MS;
-            case "s" -> unit = Unit.S;
             case "sa", "sample", "samples" -> unit = Unit.SAMPLES;
             case "ui" -> unit = Unit.UI;
-            default -> throw new IllegalArgumentException("unknown time unit '" + u + "' in '" + text
-                    + "': expected fs, ps, ns, us, ms, s, samples or UI");
+            case "m", "min" -> unit = Unit.MIN;
+            case "h" -> unit = Unit.H;
+            default -> {
+                // absolute times share the SI prefix table of Quantity (micro as u, U+00B5 or U+03BC)
+                unit = null;
+                double scale = Quantity.scaleOf(u, "s");
+                for (Unit c : Unit.values()) {
+                    if (c.fs > 0 && c.fs < Unit.MIN.fs && Math.abs(c.fs - scale * Femtos.PER_S) < 0.5) {
+                        unit = c;
+                    }
+                }
+                if (unit == null) {
+                    throw new IllegalArgumentException("unknown time unit '" + u + "' in '" + text
+                            + "': expected fs, ps, ns, us, ms, s, min, h, samples or UI");
+                }
+            }
         }
         return new TimeValue(v, unit);
     }

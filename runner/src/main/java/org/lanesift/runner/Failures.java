@@ -1,25 +1,29 @@
 package org.lanesift.runner;
 
 import java.io.PrintStream;
-import java.io.UncheckedIOException;
 import java.nio.file.AccessDeniedException;
 import java.nio.file.FileSystemException;
-import org.lanesift.chain.ChainException;
 import org.lanesift.chain.StageFailure;
-import org.lanesift.plugin.OptionException;
-import org.lanesift.runner.capture.CaptureFormatException;
+import org.lanesift.plugin.DeviceFailure;
+import org.lanesift.plugin.InputException;
+import org.lanesift.plugin.OutputException;
 import picocli.CommandLine;
 
 /**
- * Turns any failure into an exit code and one line on stderr: 2 for bad input (options, chain
- * files, captures, a stage that failed on its input), 1 for internal errors and out of memory. A
- * stack trace follows only with {@code --debug}.
+ * Turns any failure into an exit code and one line on stderr, by the type of what was thrown and
+ * never by its message: {@link InputException} and its subtypes (options, chain files, captures,
+ * outputs, command-line errors) and picocli's parameter errors are bad input, exit 2, their message
+ * the line; a {@link DeviceFailure} is exit 1 with its message; anything else, thrown by a stage, a
+ * tool or the host itself, is a bug: exit 1, "internal error", and a hint to rerun with
+ * {@code --debug} for the stack trace. A stack trace follows only with {@code --debug}.
  */
 final class Failures {
     /** Exit code for bad input. */
     static final int BAD_INPUT = 2;
-    /** Exit code for internal errors. */
+    /** Exit code for internal errors and failed devices. */
     static final int INTERNAL = 1;
+    /** The hint printed with an internal error. */
+    static final String DEBUG_HINT = "(rerun with --debug for the stack trace)";
 
     private Failures() {
     }
@@ -45,35 +49,27 @@ final class Failures {
                     + " MB); give Java more with JAVA_TOOL_OPTIONS=-Xmx4g or use smaller blocks";
         } else if (t instanceof CommandLine.ParameterException p) {
             code = BAD_INPUT;
-            String name = commandName(p.getCommandLine());
-            String cmd = name.isEmpty() ? "lanesift" : "lanesift " + name;
+            String cmd = commandLabel(p.getCommandLine());
             line = cmd + ": " + p.getMessage() + " (see: " + cmd + " --help)";
         } else if (t instanceof StageFailure sf) {
-            Throwable root = root(sf);
-            if (isBug(root)) {
-                code = INTERNAL;
-                line = "internal error in instance '" + sf.instanceId() + "': " + root + " (run with --debug for the stack trace)";
-            } else if (writeFailure(sf) != null) {
+            Throwable cause = sf.getCause() == null ? sf : sf.getCause();
+            if (cause instanceof OutputException) {
                 code = BAD_INPUT;
-                line = writeFailure(sf);
-            } else {
-                code = BAD_INPUT;
-                String m = describe(root);
+                line = cause.getMessage();
+            } else if (cause instanceof InputException || cause instanceof DeviceFailure) {
+                code = cause instanceof InputException ? BAD_INPUT : INTERNAL;
+                String m = cause.getMessage();
                 line = m == null || m.isBlank() ? sf.getMessage() : prefixInstance(sf.instanceId(), m);
+            } else {
+                code = INTERNAL;
+                line = "internal error in instance '" + sf.instanceId() + "': " + cause + " " + DEBUG_HINT;
             }
-        } else if (t instanceof CaptureFormatException || t instanceof ChainException || t instanceof OptionException
-                || t instanceof CliError) {
-            code = BAD_INPUT;
+        } else if (t instanceof InputException || t instanceof DeviceFailure) {
+            code = t instanceof InputException ? BAD_INPUT : INTERNAL;
             line = t.getMessage();
-        } else if (t instanceof UncheckedIOException u && u.getCause() instanceof FileSystemException) {
-            code = BAD_INPUT;
-            line = u.getMessage();
-        } else if (t instanceof FileSystemException f) {
-            code = BAD_INPUT;
-            line = describe(f);
         } else {
             code = INTERNAL;
-            line = "internal error: " + t + " (run with --debug for the stack trace)";
+            line = "internal error: " + t + " " + DEBUG_HINT;
         }
         err.println(oneLine(line == null ? t.toString() : line));
         if (debug) {
@@ -81,16 +77,6 @@ final class Failures {
         }
         err.flush();
         return code;
-    }
-
-    /** The message of an output that could not be written (it names the file), or null. */
-    private static String writeFailure(Throwable t) {
-        for (Throwable c = t; c != null; c = c.getCause() == c ? null : c.getCause()) {
-            if (c instanceof UncheckedIOException u && u.getMessage() != null && u.getMessage().startsWith("cannot ")) {
-                return u.getMessage();
-            }
-        }
-        return null;
     }
 
     /** A message for a root cause; file-system errors otherwise carry only the path. */
@@ -109,15 +95,13 @@ final class Failures {
         return m.contains("'" + id + "'") ? m : "instance '" + id + "': " + m;
     }
 
-    private static String commandName(CommandLine cl) {
-        if (cl == null) {
-            return "";
-        }
+    /** {@code lanesift} followed by the command path, such as {@code lanesift probe divider}. */
+    static String commandLabel(CommandLine cl) {
         StringBuilder sb = new StringBuilder();
         for (CommandLine c = cl; c != null && c.getParent() != null; c = c.getParent()) {
-            sb.insert(0, c.getCommandName() + (sb.length() > 0 ? " " : ""));
+            sb.insert(0, " " + c.getCommandName());
         }
-        return sb.toString();
+        return "lanesift" + sb;
     }
 
     /** The innermost cause. */
@@ -127,13 +111,6 @@ final class Failures {
             r = r.getCause();
         }
         return r;
-    }
-
-    /** Failures that point at a defect in the program rather than at the input. */
-    private static boolean isBug(Throwable t) {
-        return t instanceof NullPointerException || t instanceof ClassCastException || t instanceof IndexOutOfBoundsException
-                || t instanceof ArrayStoreException || t instanceof NegativeArraySizeException
-                || (t instanceof Error && !(t instanceof OutOfMemoryError));
     }
 
     /** Collapses a message to one line. */

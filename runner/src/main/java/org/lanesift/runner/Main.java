@@ -4,7 +4,6 @@ import java.io.PrintStream;
 import java.io.PrintWriter;
 import java.nio.charset.StandardCharsets;
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
@@ -121,15 +120,6 @@ public final class Main implements Callable<Integer> {
         try {
             Host host = new Host(out, err, Main.class.getClassLoader(), debug, quiet);
             Map<String, Tool> tools = tools(host.loader, err, debug);
-            // a tool parses its own arguments: hand everything after its name to it
-            int i = 0;
-            while (i < args.length && (args[i].equals("--debug") || args[i].equals("--quiet") || args[i].equals("-q"))) {
-                i++;
-            }
-            if (i < args.length && tools.containsKey(args[i])) {
-                Tool t = tools.get(args[i]);
-                return t.run(Arrays.copyOfRange(args, i + 1, args.length), out, err);
-            }
             CommandLine cl = commandLine(host, tools);
             return cl.execute(args);
         } catch (Throwable t) {
@@ -143,9 +133,7 @@ public final class Main implements Callable<Integer> {
         cl.addSubcommand("plugins", new PluginsCommand(host));
         cl.addSubcommand("inspect", new InspectCommand(host));
         for (Tool t : tools.values()) {
-            CommandSpec ts = CommandSpec.create().name(t.name());
-            ts.usageMessage().description(t.summary());
-            cl.addSubcommand(t.name(), new CommandLine(ts));
+            cl.addSubcommand(t.name(), ToolCommand.of(t, host));
         }
         cl.setOut(new PrintWriter(host.out, true));
         cl.setErr(new PrintWriter(host.err, true));

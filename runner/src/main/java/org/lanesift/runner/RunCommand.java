@@ -1,7 +1,6 @@
 package org.lanesift.runner;
 
 import java.io.IOException;
-import java.io.UncheckedIOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Instant;
@@ -23,6 +22,7 @@ import org.lanesift.chain.ChainException;
 import org.lanesift.chain.ChainSpec;
 import org.lanesift.chain.StageFailure;
 import org.lanesift.plugin.OptionSpec;
+import org.lanesift.plugin.OutputException;
 import org.lanesift.plugin.OptionValues;
 import org.lanesift.plugin.PluginDescriptor;
 import org.lanesift.plugin.PluginProvider;
@@ -219,7 +219,7 @@ final class RunCommand implements Callable<Integer> {
                             (System.nanoTime() - t0) / 1_000_000, status, inputFiles, sets, instances), outs);
                 } catch (IOException e) {
                     if (failure == null) {
-                        failure = new UncheckedIOException("cannot finish the outputs in " + outDir + ": " + e.getMessage(), e);
+                        failure = new OutputException("cannot finish the outputs in " + outDir + ": " + e.getMessage(), e);
                     }
                 } finally {
                     done.countDown();
@@ -314,12 +314,12 @@ final class RunCommand implements Callable<Integer> {
         RunOutputs outputs() {
             if (outputs == null) {
                 if (Files.exists(dir) && !Files.isDirectory(dir)) {
-                    throw new CliError("--out " + dir + ": exists and is not a directory");
+                    throw new OutputException("--out " + dir + ": exists and is not a directory", null);
                 }
                 try {
                     outputs = new RunOutputs(dir, Version.get());
-                } catch (UncheckedIOException e) {
-                    throw new CliError("--out " + dir + ": cannot create the directory: " + Failures.describe(Failures.root(e)), e);
+                } catch (OutputException e) {
+                    throw new OutputException("--out " + dir + ": cannot create the directory: " + Failures.describe(Failures.root(e)), e);
                 }
             }
             return outputs;

@@ -32,7 +32,7 @@ class MainTest {
         for (String c : List.of("run", "plugins", "inspect", "fake-tool", "--debug", "--quiet", "50 ohm", "mains")) {
             assertTrue(r.out().contains(c), () -> "help should mention " + c + ":\n" + r.out());
         }
-        assertTrue(r.out().contains("Echoes its arguments (test only)."), r::toString);
+        assertTrue(r.out().contains("Echoes its options (test only)."), r::toString);
     }
 
     @ParameterizedTest
@@ -51,13 +51,55 @@ class MainTest {
     }
 
     @Test
-    void aToolGetsItsArgumentsVerbatimIncludingHelp() {
-        Cli r = Cli.run("--quiet", "fake-tool", "--help", "a=b", "--json");
+    void aToolGetsItsDeclaredOptionsTypedWithUnitsAndTheGlobalSwitches() {
+        Cli r = Cli.run("fake-tool", "--text", "a=b", "--length", "10cm", "--quiet", "--debug");
         assertEquals(0, r.code(), r::toString);
-        assertEquals("--help\na=b\n--json\n", r.out());
-        Cli bad = Cli.run("fake-tool", "bad");
-        assertEquals(2, bad.code());
-        assertEquals(1, bad.errLines().size());
+        assertEquals("text=a=b length=0.1 given=true quiet=true debug=true\n", r.out());
+        Cli d = Cli.run("--quiet", "fake-tool", "--shout");
+        assertEquals("TEXT=NULL LENGTH=1.0 GIVEN=FALSE QUIET=TRUE DEBUG=FALSE\n", d.out(), d::toString);
+        Cli h = Cli.run("fake-tool", "--help");
+        assertEquals(0, h.code());
+        assertTrue(h.out().startsWith("Usage: lanesift fake-tool"), h::toString);
+        assertTrue(h.out().contains("--length=METRES") && h.out().contains("a length, such as 10cm (default 1 m)"), h::toString);
+    }
+
+    @Test
+    void aBadValueIsTheSameLineForABuiltInAndAContributedCommand() {
+        Cli tool = Cli.run("fake-tool", "--length", "far");
+        Cli builtIn = Cli.run("run", "x.json", "--jobs", "many");
+        assertEquals(2, tool.code());
+        assertEquals(2, builtIn.code());
+        assertEquals(List.of("lanesift fake-tool: Invalid value for option '--length': expected a number in -100 to 100 m, got 'far'"
+                + " (see: lanesift fake-tool --help)"), tool.errLines());
+        assertEquals(List.of("lanesift run: Invalid value for option '--jobs': 'many' is not an int (see: lanesift run --help)"),
+                builtIn.errLines());
+        Cli range = Cli.run("fake-tool", "--length", "1km");
+        assertEquals(List.of("lanesift fake-tool: Invalid value for option '--length': 1km is outside the allowed range -100 to 100 m"
+                + " (see: lanesift fake-tool --help)"), range.errLines());
+        Cli unknown = Cli.run("fake-tool", "--colour", "red");
+        assertEquals(2, unknown.code());
+        assertEquals(1, unknown.errLines().size());
+        Cli missing = Cli.run("fake-tool", "--text");
+        assertEquals(List.of("lanesift fake-tool: Missing required parameter for option '--text' (TEXT) (see: lanesift fake-tool --help)"),
+                missing.errLines());
+    }
+
+    @Test
+    void whatAToolThrowsIsReportedByItsType() {
+        Cli bug = Cli.run("fake-tool", "--fail", "npe");
+        assertEquals(1, bug.code());
+        assertEquals(List.of("internal error: java.lang.NullPointerException: fake-tool: a bug (rerun with --debug for the stack trace)"),
+                bug.errLines());
+        Cli input = Cli.run("fake-tool", "--fail", "input");
+        assertEquals(2, input.code(), input::toString);
+        assertEquals(List.of("lanesift fake-tool: fake-tool: --text: expected anything else (see: lanesift fake-tool --help)"),
+                input.errLines());
+        Cli device = Cli.run("fake-tool", "--fail", "device");
+        assertEquals(1, device.code());
+        assertEquals(List.of("fake-tool: the device went away"), device.errLines());
+        Cli traced = Cli.run("--debug", "fake-tool", "--fail", "npe");
+        assertEquals(1, traced.code());
+        assertTrue(traced.err().contains("\tat org.lanesift.runner.fakes.FakeTool.run"), traced::toString);
     }
 
     @Test
@@ -114,11 +156,22 @@ class MainTest {
         assertEquals(1, Failures.report(new org.lanesift.chain.StageFailure("rx", "rx failed",
                 new RuntimeException(new OutOfMemoryError("Java heap space"))), err, false));
         assertEquals(2, Failures.report(new org.lanesift.chain.StageFailure("src", "src failed",
-                new java.io.UncheckedIOException("cannot write output of src.analog in out: No space left on device",
+                new org.lanesift.plugin.OutputException("cannot write output of src.analog in out: No space left on device",
                         new java.io.IOException("No space left on device"))), err, false));
+        // by type, not by message: an I/O error whose text looks like a write failure is still a bug
+        assertEquals(1, Failures.report(new org.lanesift.chain.StageFailure("src", "src failed",
+                new java.io.UncheckedIOException("cannot write output of src.analog", new java.io.IOException("x"))), err, false));
+        assertEquals(1, Failures.report(new org.lanesift.chain.StageFailure("rx", "rx failed",
+                new NullPointerException("oops")), err, false));
+        assertEquals(2, Failures.report(new org.lanesift.chain.StageFailure("rx", "rx failed",
+                new org.lanesift.plugin.InputFormatException("cap.csv line 3: expected a number")), err, false));
         String[] lines = b.toString(java.nio.charset.StandardCharsets.UTF_8).split("\n");
-        assertEquals(6, lines.length);
+        assertEquals(9, lines.length);
         assertEquals("cannot write output of src.analog in out: No space left on device", lines[5]);
+        assertTrue(lines[6].startsWith("internal error in instance 'src': java.io.UncheckedIOException"), lines[6]);
+        assertEquals("internal error in instance 'rx': java.lang.NullPointerException: oops (rerun with --debug for the stack trace)",
+                lines[7]);
+        assertEquals("instance 'rx': cap.csv line 3: expected a number", lines[8]);
         assertTrue(lines[0].startsWith("out of memory (maximum heap"), lines[0]);
         assertTrue(lines[1].startsWith("internal error: java.lang.IllegalStateException: boom"), lines[1]);
         assertEquals("a.csv line 7: expected 3 fields, found 2", lines[3]);

@@ -248,6 +248,29 @@ class RunCommandTest {
         assertEquals(1, r.code(), r::toString);
         assertEquals(1, r.errLines().size(), r::toString);
         assertTrue(r.errLines().get(0).startsWith("internal error in instance 'src': java.lang.NullPointerException"), r::toString);
+        assertTrue(r.errLines().get(0).endsWith("(rerun with --debug for the stack trace)"), r::toString);
+    }
+
+    @Test
+    void aFileWhereTheOutputFolderShouldBeIsBadInputThroughTheOutputType() throws Exception {
+        Path f = tmp.resolve("plain-file");
+        Files.writeString(f, "x");
+        Cli r = runAllKinds(f.resolve("sub"));
+        assertEquals(2, r.code(), r::toString);
+        assertEquals(1, r.errLines().size(), r::toString);
+        assertTrue(r.errLines().get(0).startsWith("--out " + f.resolve("sub") + ": cannot create the directory: "), r::toString);
+    }
+
+    @Test
+    void anOutputFileThatCannotBeWrittenIsBadInputNamingIt() throws Exception {
+        Path out = tmp.resolve("o2");
+        Files.createDirectories(out.resolve("signals.vcd")); // a folder where the VCD file goes
+        Cli r = runAllKinds(out);
+        assertEquals(2, r.code(), r::toString);
+        assertEquals(1, r.errLines().size(), r::toString);
+        assertTrue(r.errLines().get(0).startsWith("cannot "), r::toString);
+        assertTrue(r.errLines().get(0).contains(out.toString()), r::toString);
+        assertFalse(r.err().contains("internal error"), r::toString);
     }
 
     @Test

@@ -8,7 +8,7 @@ import java.nio.file.Path;
  * line ({@code capture.csv line 17: expected 4 fields, found 3}) or the field of the sidecar
  * ({@code capture.bin.json /rateHz: ...}), and says what was expected.
  */
-public class CaptureFormatException extends RuntimeException {
+public class CaptureFormatException extends org.lanesift.plugin.InputFormatException {
     private static final long serialVersionUID = 1L;
     private final transient Path file;
     private final long line;

@@ -1,9 +1,7 @@
 package org.lanesift.runner.live;
 
-import com.fasterxml.jackson.databind.JsonNode;
-import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.IOException;
-import java.io.PrintStream;
+import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
@@ -12,93 +10,93 @@ import java.util.ServiceLoader;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
 import java.util.concurrent.atomic.AtomicInteger;
+import java.util.concurrent.atomic.AtomicReference;
+import org.lanesift.json.JsonParseException;
+import org.lanesift.json.JsonReader;
+import org.lanesift.json.JsonValue;
+import org.lanesift.plugin.InputFormatException;
+import org.lanesift.plugin.OptionException;
+import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.Tool;
-import org.lanesift.runner.Main;
+import org.lanesift.plugin.ToolArgs;
+import org.lanesift.plugin.ToolConsole;
+import org.lanesift.plugin.ToolSpec;
+import org.lanesift.runner.ChainRun;
 
 /**
  * {@code lanesift live}: captures a device into a spool (the {@code capture} tool of the
- * serial-source plugin) and, with {@code --chain}, decodes while capturing: every node of the
- * chain with plugin {@code spool} gets {@code dir} = the spool directory and {@code follow=true},
- * and the chain runs through {@code lanesift run} on its own thread behind the capture.
+ * serial-source plugin, called through its {@link Tool#run} with the same parsed options) and,
+ * with {@code --chain}, decodes while capturing: every node of the chain with plugin
+ * {@code spool} gets {@code dir} = the spool directory and {@code follow=true}, and the chain runs
+ * through {@link ChainRun} on its own thread behind the capture.
  */
 public final class LiveTool implements Tool {
-    /** Creates the tool (ServiceLoader). */
+    private final Tool capture;
+    private final ToolSpec spec;
+
+    /** Creates the tool (ServiceLoader); it offers the options of the {@code capture} tool found beside it. */
     public LiveTool() {
+        this(findCapture());
     }
 
-    @Override
-    public String name() {
-        return "live";
-    }
-
-    @Override
-    public String summary() {
-        return "captures a USB acquisition device into a spool and decodes a chain while capturing";
-    }
-
-    @Override
-    public int run(String[] args, PrintStream out, PrintStream err) {
-        Tool capture = null;
-        for (Tool t : ServiceLoader.load(Tool.class)) {
-            if (t.name().equals("capture")) {
-                capture = t;
-            }
+    LiveTool(Tool capture) {
+        this.capture = capture;
+        ToolSpec.Builder b = ToolSpec.builder("live")
+                .summary("captures a USB acquisition device into a spool and decodes a chain while capturing")
+                .description("Captures a device into a spool directory, like 'lanesift capture', and with --chain decodes while",
+                        "capturing: the chain's 'spool' nodes read the live spool (docs/spool.md); results go to DIR/decoded.",
+                        "Without --chain, only the spool is written.")
+                .option(OptionSpec.text("chain", null, "the chain file to decode with while capturing"), "CHAIN.json");
+        if (capture != null) {
+            b.options(capture.spec().options()).footer(capture.spec().footer().toArray(String[]::new));
         }
+        spec = b.build();
+    }
+
+    private static Tool findCapture() {
+        // skip this class before instantiating: its constructor comes here
+        return ServiceLoader.load(Tool.class, LiveTool.class.getClassLoader()).stream()
+                .filter(p -> p.type() != LiveTool.class).map(ServiceLoader.Provider::get)
+                .filter(t -> t.name().equals("capture")).findFirst().orElse(null);
+    }
+
+    @Override
+    public ToolSpec spec() {
+        return spec;
+    }
+
+    @Override
+    public int run(ToolArgs args, ToolConsole console) {
         if (capture == null) {
-            err.println("live: the serial-source plugin (command 'capture') is not on the class path");
+            console.err().println("live: the serial-source plugin (command 'capture') is not on the class path");
             return 1;
         }
-        List<String> rest = new ArrayList<>();
-        String chain = null;
-        String outDir = "lanesift-spool";
-        for (int i = 0; i < args.length; i++) {
-            if (args[i].equals("-h") || args[i].equals("--help")) {
-                out.println("Usage: lanesift live (--port NAME | --device VID:PID | --simulate) [--chain CHAIN.json] [--duration T] [--out DIR]");
-                out.println("       lanesift live --list");
-                out.println("  --chain CHAIN.json  decode while capturing: the chain's 'spool' nodes read the live spool (docs/spool.md);");
-                out.println("                      results go to DIR/decoded. Without it, only the spool is written.");
-                out.println("All other options are those of 'lanesift capture --help'.");
-                return 0;
-            }
-            if (args[i].equals("--chain")) {
-                if (i + 1 >= args.length) {
-                    err.println("live: --chain needs a chain file");
-                    return 2;
-                }
-                chain = args[++i];
-                continue;
-            }
-            if (args[i].equals("--out") && i + 1 < args.length) {
-                outDir = args[i + 1];
-            }
-            rest.add(args[i]);
-        }
+        ToolArgs captureArgs = args.without("chain");
+        String chain = args.text("chain");
         if (chain == null) {
-            return capture.run(rest.toArray(String[]::new), out, err);
+            return capture.run(captureArgs, console);
         }
-        List<String> spoolNodes;
-        try {
-            spoolNodes = spoolNodes(Path.of(chain));
-        } catch (IllegalArgumentException e) {
-            err.println("live: " + e.getMessage());
-            return 2;
-        }
-        Path dir = Path.of(outDir).toAbsolutePath();
-        List<String> runArgs = new ArrayList<>(List.of("run", chain, "--out", dir.resolve("decoded").toString(), "--quiet"));
+        List<String> spoolNodes = spoolNodes(Path.of(chain));
+        Path dir = Path.of(args.text("out")).toAbsolutePath();
+        ChainRun run = ChainRun.of(Path.of(chain)).out(dir.resolve("decoded")).quiet(true).debug(console.debug());
         for (String id : spoolNodes) {
-            runArgs.add("--set");
-            runArgs.add(id + ".dir=" + dir);
-            runArgs.add("--set");
-            runArgs.add(id + ".follow=true");
+            run.set(id, "dir", dir.toString()).set(id, "follow", "true");
         }
         AtomicInteger captureCode = new AtomicInteger(-1);
+        AtomicReference<RuntimeException> captureFailure = new AtomicReference<>();
         AtomicInteger chainCode = new AtomicInteger(-1);
         CountDownLatch chainDone = new CountDownLatch(1);
-        Tool cap = capture;
-        Thread capThread = new Thread(() -> captureCode.set(cap.run(rest.toArray(String[]::new), out, err)), "live-capture");
+        Thread capThread = new Thread(() -> {
+            try {
+                captureCode.set(capture.run(captureArgs, console));
+            } catch (RuntimeException e) {
+                captureFailure.set(e);
+                captureCode.set(1);
+            }
+        }, "live-capture");
         Thread chainThread = new Thread(() -> {
             try {
-                chainCode.set(Main.run(runArgs.toArray(String[]::new), out, err));
+                chainCode.set(run.run(console.out(), console.err()));
             } finally {
                 chainDone.countDown();
             }
@@ -128,11 +126,14 @@ public final class LiveTool implements Tool {
                 // Ctrl-C
             }
         }
+        if (captureFailure.get() != null) {
+            throw captureFailure.get();
+        }
         if (captureCode.get() != 0) {
             return captureCode.get();
         }
         if (chainCode.get() != 0) {
-            err.println("live: the capture is complete in " + dir + "; decoding failed (exit " + chainCode.get()
+            console.err().println("live: the capture is complete in " + dir + "; decoding failed (exit " + chainCode.get()
                     + "); decode it again with: lanesift run " + chain + " --set NODE.dir=" + dir);
         }
         return Math.max(0, chainCode.get());
@@ -140,29 +141,33 @@ public final class LiveTool implements Tool {
 
     /** Ids of the chain's nodes with plugin {@code spool}; the message names the file when there are none. */
     static List<String> spoolNodes(Path chain) {
-        JsonNode root;
+        JsonValue root;
         try {
             if (!Files.isRegularFile(chain)) {
-                throw new IllegalArgumentException("--chain " + chain + ": no such file");
+                throw new OptionException("chain", "--chain " + chain + ": no such file");
             }
             if (Files.size(chain) > 4 << 20) {
-                throw new IllegalArgumentException("--chain " + chain + ": larger than 4 MiB");
+                throw new OptionException("chain", "--chain " + chain + ": larger than 4 MiB");
             }
-            root = new ObjectMapper().readTree(chain.toFile());
+            root = JsonReader.parse(chain.toString(), Files.readString(chain, StandardCharsets.UTF_8));
         } catch (IOException e) {
-            throw new IllegalArgumentException("--chain " + chain + ": not valid JSON (" + String.valueOf(e.getMessage()).lines().findFirst().orElse("") + ")");
+            throw new InputFormatException("--chain " + chain + ": cannot be read (" + e.getMessage() + ")", e);
+        } catch (JsonParseException e) {
+            throw new InputFormatException("--chain " + chain + ": not valid JSON (" + e.getMessage() + ")", e);
         }
         List<String> ids = new ArrayList<>();
-        JsonNode nodes = root == null ? null : root.get("nodes");
+        JsonValue nodes = root.isObject() ? root.get("nodes") : null;
         if (nodes != null && nodes.isArray()) {
-            for (JsonNode n : nodes) {
-                if ("spool".equals(n.path("plugin").asText()) && n.path("id").isTextual()) {
-                    ids.add(n.get("id").asText());
+            for (JsonValue n : nodes.elements()) {
+                JsonValue plugin = n.isObject() ? n.get("plugin") : null;
+                JsonValue id = n.isObject() ? n.get("id") : null;
+                if (plugin != null && plugin.isString() && plugin.asString().equals("spool") && id != null && id.isString()) {
+                    ids.add(id.asString());
                 }
             }
         }
         if (ids.isEmpty()) {
-            throw new IllegalArgumentException("--chain " + chain + " /nodes: no node with plugin 'spool'; a live chain reads the capture through one");
+            throw new InputFormatException("--chain " + chain + " /nodes: no node with plugin 'spool'; a live chain reads the capture through one");
         }
         return ids;
     }

@@ -1,9 +1,9 @@
 package org.lanesift.runner.output;
 
+import org.lanesift.plugin.OutputException;
 import java.awt.image.BufferedImage;
 import java.io.Closeable;
 import java.io.IOException;
-import java.io.UncheckedIOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
@@ -153,14 +153,14 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
      *
      * @param dir     output directory
      * @param version program version for the VCD header
-     * @throws UncheckedIOException if the directory cannot be created
+     * @throws OutputException if the directory cannot be created
      */
     public RunOutputs(Path dir, String version) {
         this.dir = dir;
         try {
             Files.createDirectories(dir);
         } catch (IOException e) {
-            throw new UncheckedIOException("cannot create output directory " + dir + ": " + e, e);
+            throw new OutputException("cannot create output directory " + dir + ": " + e, e);
         }
         this.vcd = new VcdWriter(dir.resolve(VCD), dir.resolve(".lanesift-spool"), "lanesift " + version);
     }
@@ -195,7 +195,7 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
         try {
             write(s, key, block);
         } catch (IOException e) {
-            throw new UncheckedIOException("cannot write output of " + key + " in " + dir + ": " + e.getMessage(), e);
+            throw new OutputException("cannot write output of " + key + " in " + dir + ": " + e.getMessage(), e);
         }
     }
 
@@ -279,7 +279,7 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
             }
             annotations.write(source, a);
         } catch (IOException e) {
-            throw new UncheckedIOException("cannot write " + dir.resolve(ANNOTATIONS) + ": " + e.getMessage(), e);
+            throw new OutputException("cannot write " + dir.resolve(ANNOTATIONS) + ": " + e.getMessage(), e);
         }
         severityCounts.merge(a.severity(), 1L, Long::sum);
         kindCounts.merge(a.severity().name().toLowerCase(java.util.Locale.ROOT) + " " + a.kind(), 1L, Long::sum);

@@ -1,5 +1,6 @@
 package org.lanesift.runner.output;
 
+import org.lanesift.plugin.OutputException;
 import java.io.BufferedInputStream;
 import java.io.BufferedOutputStream;
 import java.io.BufferedWriter;
@@ -8,7 +9,6 @@ import java.io.DataInputStream;
 import java.io.DataOutputStream;
 import java.io.EOFException;
 import java.io.IOException;
-import java.io.UncheckedIOException;
 import java.io.Writer;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
@@ -168,7 +168,7 @@ public final class VcdWriter implements Closeable {
                 v = new Var(Texts.safe(scope), Texts.safe(name), width, vars.size());
                 v.key = key;
             } catch (IOException e) {
-                throw new UncheckedIOException("cannot create spool in " + spoolDir + ": " + e.getMessage(), e);
+                throw new OutputException("cannot create spool in " + spoolDir + ": " + e.getMessage(), e);
             }
             vars.put(key, v);
         }
@@ -190,14 +190,14 @@ public final class VcdWriter implements Closeable {
      * @param scope instance id
      * @param name  signal name (the output port)
      * @param e     the edges
-     * @throws UncheckedIOException if the spool cannot be written
+     * @throws OutputException if the spool cannot be written
      */
     public void edges(String scope, String name, Edges e) {
         Var v = var(scope, name, 1);
         try {
             writeEdges(v, e);
         } catch (IOException x) {
-            throw new UncheckedIOException("cannot write spool for " + scope + "." + name + ": " + x.getMessage(), x);
+            throw new OutputException("cannot write spool for " + scope + "." + name + ": " + x.getMessage(), x);
         }
     }
 
@@ -216,7 +216,7 @@ public final class VcdWriter implements Closeable {
         try {
             writeLogic(v, b);
         } catch (IOException x) {
-            throw new UncheckedIOException("cannot write spool for " + scope + "." + name + ": " + x.getMessage(), x);
+            throw new OutputException("cannot write spool for " + scope + "." + name + ": " + x.getMessage(), x);
         }
     }
 
@@ -291,7 +291,7 @@ public final class VcdWriter implements Closeable {
                 v.lastWordEnd = en[i];
             }
         } catch (IOException x) {
-            throw new UncheckedIOException("cannot write spool for " + scope + "." + name + ": " + x.getMessage(), x);
+            throw new OutputException("cannot write spool for " + scope + "." + name + ": " + x.getMessage(), x);
         }
     }
 
@@ -503,7 +503,7 @@ public final class VcdWriter implements Closeable {
     }
 
     private void header(Writer w, List<Var> list, long origin) throws IOException {
-        w.write("$date\n   " + java.time.ZonedDateTime.now(java.time.ZoneOffset.UTC).withNano(0) + "\n$end\n");
+        w.write("$date\n   " + java.time.Instant.now().truncatedTo(java.time.temporal.ChronoUnit.SECONDS) + "\n$end\n");
         w.write("$version\n   " + version + "\n$end\n");
         if (origin != 0) {
             w.write("$comment\n   times shifted by " + (-origin) + " fs: time 0 here is " + origin

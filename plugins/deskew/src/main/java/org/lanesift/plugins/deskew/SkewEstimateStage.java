@@ -134,7 +134,7 @@ final class SkewEstimateStage implements Stage {
         }
         if (legsStartP != Long.MIN_VALUE && legsStartN != Long.MIN_VALUE
                 && Math.abs(legsStartP - legsStartN) > legsPeriodFs / 2) {
-            throw new IllegalArgumentException("inputs 'p' and 'n' must start at the same sample time; 'p' starts at "
+            throw new org.lanesift.plugin.InputFormatException("inputs 'p' and 'n' must start at the same sample time; 'p' starts at "
                     + Femtos.format(legsStartP) + ", 'n' at " + Femtos.format(legsStartN));
         }
         if (input == 0) {

@@ -134,7 +134,7 @@ final class AnalogStage implements Stage {
             return;
         }
         if (seen[input] && Math.abs(b.startFs() - expectedStart[input]) > periodFs / 2) {
-            throw new IllegalArgumentException("input '" + inputNames[input] + "': block starts at " + b.startFs()
+            throw new org.lanesift.plugin.InputFormatException("input '" + inputNames[input] + "': block starts at " + b.startFs()
                     + " fs but the previous block ended at " + expectedStart[input]
                     + " fs; blocks of a channel must follow each other without gaps (mark missing samples invalid)");
         }

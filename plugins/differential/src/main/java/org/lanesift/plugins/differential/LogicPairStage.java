@@ -78,14 +78,14 @@ final class LogicPairStage implements Stage {
         }
         String name = input == 0 ? "p" : "n";
         if (seen[input] && Math.abs(b.startFs() - expected[input]) > periodFs / 2) {
-            throw new IllegalArgumentException("input '" + name + "': block starts at " + b.startFs()
+            throw new org.lanesift.plugin.InputFormatException("input '" + name + "': block starts at " + b.startFs()
                     + " fs but the previous block ended at " + expected[input] + " fs; blocks must follow each other without gaps");
         }
         if (!seen[input]) {
             seen[input] = true;
             int other = 1 - input;
             if (seen[other] && Math.abs(b.startFs() - firstStart(other)) > periodFs / 2) {
-                throw new IllegalArgumentException("input '" + name + "' starts at " + b.startFs() + " fs but input '"
+                throw new org.lanesift.plugin.InputFormatException("input '" + name + "' starts at " + b.startFs() + " fs but input '"
                         + (other == 0 ? "p" : "n") + "' at " + firstStart(other)
                         + " fs; the legs of a logic pair must be sampled together (correct the skew first)");
             }

@@ -243,7 +243,7 @@ final class ClockRecovery {
         if (cfg.phaseIsUi() || Math.abs(cfg.phaseFs()) <= periodFs / cfg.uiPerPeriod()) {
             // fine
         } else {
-            throw new IllegalArgumentException("option 'phase' of plugin '" + DualEdgePlugin.ID + "': " + fmt(cfg.phaseFs())
+            throw new org.lanesift.plugin.OptionException("phase", "option 'phase' of plugin '" + DualEdgePlugin.ID + "': " + fmt(cfg.phaseFs())
                     + " fs is more than one unit interval (" + fmt(periodFs / cfg.uiPerPeriod()) + " fs) of the recovered clock");
         }
         long at = q.time(pos);

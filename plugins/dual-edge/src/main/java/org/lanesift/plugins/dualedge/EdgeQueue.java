@@ -46,7 +46,7 @@ final class EdgeQueue {
             endFs = e.startFs();
         } else {
             if (e.startFs() < endFs) {
-                throw new IllegalArgumentException("input '" + port + "' (channel '" + e.channel() + "'): block starts at "
+                throw new org.lanesift.plugin.InputFormatException("input '" + port + "' (channel '" + e.channel() + "'): block starts at "
                         + e.startFs() + " fs, before the end " + endFs + " fs of the previous block; blocks on one input must"
                         + " follow each other without overlapping");
             }

@@ -103,7 +103,7 @@ final class LaneBuffer {
     void add(BitStream b) {
         byte[] slot = b.slot();
         if (slot == null) {
-            throw new IllegalArgumentException("lane '" + name + "': bit stream '" + b.channel()
+            throw new org.lanesift.plugin.InputFormatException("lane '" + name + "': bit stream '" + b.channel()
                     + "' has no slot numbers; a 7:1 pixel link needs bits sampled with 7 slots per clock period");
         }
         int n = b.count();

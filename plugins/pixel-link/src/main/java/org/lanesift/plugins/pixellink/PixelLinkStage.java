@@ -87,7 +87,7 @@ final class PixelLinkStage implements Stage {
                     empty.add("'" + l.name + "' (" + l.bitsSeen + " bits so far)");
                 }
             }
-            throw new IllegalStateException("lane '" + lb.name + "' holds " + lb.size() + " pixel clocks waiting for lane"
+            throw new org.lanesift.plugin.InputFormatException("lane '" + lb.name + "' holds " + lb.size() + " pixel clocks waiting for lane"
                     + (empty.size() > 1 ? "s " : " ") + String.join(", ", empty)
                     + "; every lane must be wired and sampled against the same pixel clock");
         }

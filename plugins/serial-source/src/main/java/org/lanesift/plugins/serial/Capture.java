@@ -1,5 +1,6 @@
 package org.lanesift.plugins.serial;
 
+import org.lanesift.plugin.OptionException;
 import java.io.IOException;
 import java.nio.file.Path;
 import java.util.function.Supplier;
@@ -52,7 +53,7 @@ public final class Capture {
         this.dir = dir;
         this.s = s;
         if (s.raw && !(s.rateHz > 0)) {
-            throw new DeviceException("--rate: raw mode needs the device's sample rate in Hz");
+            throw new OptionException("rate", "--rate: raw mode needs the device's sample rate in Hz");
         }
     }
 
@@ -146,7 +147,7 @@ public final class Capture {
         while (!stop && System.nanoTime() < end) {
             try {
                 return opener.get();
-            } catch (DeviceException e) {
+            } catch (DeviceException | OptionException e) { // a port not there yet counts as gone for now
                 try {
                     Thread.sleep(200);
                 } catch (InterruptedException ie) {
@@ -202,7 +203,7 @@ public final class Capture {
                 }
             }
             if (rate < 0) {
-                throw new DeviceException("--rate " + (long) s.rateHz + ": the device supports " + java.util.Arrays.toString(info.ratesHz()) + " Hz");
+                throw new OptionException("rate", "--rate " + (long) s.rateHz + ": the device supports " + java.util.Arrays.toString(info.ratesHz()) + " Hz");
             }
         }
         device = info;

@@ -10,34 +10,48 @@ import java.util.Locale;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
 import java.util.function.Supplier;
+import org.lanesift.plugin.OptionException;
+import org.lanesift.plugin.OptionSpec;
+import org.lanesift.plugin.OutputException;
 import org.lanesift.plugin.Tool;
+import org.lanesift.plugin.ToolArgs;
+import org.lanesift.plugin.ToolConsole;
+import org.lanesift.plugin.ToolSpec;
+import org.lanesift.time.Femtos;
+import org.lanesift.time.TimeValue;
 
 /**
  * {@code lanesift capture}: captures a device (or the built-in simulator) into a spool directory
  * with a one-line live status on stderr, stopping cleanly on Ctrl-C. {@code lanesift live} uses
- * it and adds decoding while capturing. Usage: {@link #USAGE}.
+ * it and adds decoding while capturing. Options: {@link #SPEC}.
  */
 public final class CaptureTool implements Tool {
-    static final String USAGE = String.join("\n",
-            "Usage: lanesift capture (--port NAME | --device VID:PID | --simulate) [options]",
-            "       lanesift capture --list",
-            "Captures a device into a spool directory (docs/spool.md); every received byte is kept.",
-            "  --port NAME        serial port name or path (a pseudo-terminal's path works)",
-            "  --device VID:PID   first port with this USB id, hex (see --list)",
-            "  --simulate         the built-in device simulator over an in-memory link",
-            "  --out DIR          spool directory, new or empty (default lanesift-spool)",
-            "  --duration T       stop after T: 30s, 500ms, 2m, 1h; a bare number is seconds (default: until Ctrl-C)",
-            "  --raw --rate HZ    the device streams plain logic8 bytes at HZ with no framing",
-            "  --rate HZ          (framed) sample rate to configure; one the device lists",
-            "  --channels N       raw mode: channels 1..8 (default 8)",
-            "  --reconnect T      keep trying to reopen after a disconnect for T (default 10s; 0 = stop)",
-            "  --baud N           baud rate for real UARTs (default 115200; USB CDC ignores it)",
-            "  --sim-mb N         simulator: megabytes of samples to send (default 64)",
-            "  --sim-faults LIST  simulator: drop=F,corrupt=F,dup=F,stall=F:MS,disconnect=F (F = frame number)",
-            "  -q, --quiet        no status line",
-            "Exit codes: 0 done, 1 device or disk failure, 2 bad arguments.",
-            "Caution: connect probes and devices as their makers instruct; a device on a mains-referenced",
-            "circuit can put the host's USB ground at a dangerous potential. Follow local codes and practice.");
+    /** The command line; {@code lanesift live} offers the same options. */
+    static final ToolSpec SPEC = ToolSpec.builder("capture")
+            .summary("captures a USB acquisition device (or the simulator) into a spool, losing nothing")
+            .description("Captures a device into a spool directory (docs/spool.md); every received byte is kept.",
+                    "Give exactly one of --port, --device, --simulate (or --list).")
+            .flag("list", "list the serial ports and exit")
+            .option(OptionSpec.text("port", null, "serial port name or path (a pseudo-terminal's path works)"), "NAME")
+            .option(OptionSpec.text("device", null, "first port with this USB id, hex (see --list)"), "VID:PID")
+            .flag("simulate", "the built-in device simulator over an in-memory link")
+            .option(OptionSpec.text("out", "lanesift-spool", "spool directory, new or empty"), "DIR")
+            .option(OptionSpec.time("duration", TimeValue.Unit.S, null,
+                    "stop after this long: 30s, 500ms, 2min, 1h; a bare number is seconds (default: until Ctrl-C)"), "T")
+            .flag("raw", "the device streams plain logic8 bytes at --rate with no framing")
+            .option(OptionSpec.number("rate", "Hz", null, 1.0, 1e12,
+                    "framed: sample rate to configure, one the device lists; raw: the device's rate (such as 24MHz)"), "HZ")
+            .option(OptionSpec.integer("channels", 8L, 1, 8, "raw mode: channels"), "N")
+            .option(OptionSpec.time("reconnect", TimeValue.Unit.S, "10s",
+                    "keep trying to reopen after a disconnect for this long (0 = stop)"), "T")
+            .option(OptionSpec.integer("baud", 115200L, 1, 100_000_000, "baud rate for real UARTs (USB CDC ignores it)"), "N")
+            .option(OptionSpec.integer("sim-mb", 64L, 1, 1_000_000, "simulator: megabytes of samples to send"), "N")
+            .option(OptionSpec.text("sim-faults", "", "simulator: drop=F,corrupt=F,dup=F,stall=F:MS,disconnect=F (F = frame number)"),
+                    "LIST")
+            .footer("Exit codes: 0 done, 1 device or disk failure, 2 bad arguments. --quiet: no status line.",
+                    "Caution: connect probes and devices as their makers instruct; a device on a mains-referenced "
+                            + "circuit can put the host's USB ground at a dangerous potential. Follow local codes and practice.")
+            .build();
 
     private final SerialPorts ports;
 
@@ -56,103 +70,70 @@ public final class CaptureTool implements Tool {
     }
 
     @Override
-    public String name() {
-        return "capture";
+    public ToolSpec spec() {
+        return SPEC;
     }
 
     @Override
-    public String summary() {
-        return "captures a USB acquisition device (or the simulator) into a spool, losing nothing";
-    }
-
-    /** Thrown for a bad argument; the message is the one line shown. */
-    static final class BadArgument extends RuntimeException {
-        private static final long serialVersionUID = 1L;
-
-        BadArgument(String m) {
-            super(m);
+    public int run(ToolArgs args, ToolConsole console) {
+        if (args.flag("list")) {
+            return list(console.out());
         }
-    }
-
-    @Override
-    public int run(String[] args, PrintStream out, PrintStream err) {
-        String port = null;
-        String device = null;
-        boolean simulate = false;
-        boolean list = false;
-        boolean quiet = false;
-        Path dir = Path.of("lanesift-spool");
+        String port = args.text("port");
+        String device = args.text("device");
+        boolean simulate = args.flag("simulate");
+        Path dir = Path.of(args.text("out"));
         Capture.Settings s = new Capture.Settings();
-        s.reconnectMs = 10_000;
-        int baud = 115200;
-        long simMb = 64;
-        String faults = "";
-        try {
-            for (int i = 0; i < args.length; i++) {
-                String a = args[i];
-                switch (a) {
-                    case "-h", "--help" -> {
-                        out.println(USAGE);
-                        return 0;
-                    }
-                    case "--list" -> list = true;
-                    case "--port" -> port = value(args, ++i, a);
-                    case "--device" -> device = value(args, ++i, a);
-                    case "--simulate" -> simulate = true;
-                    case "--out" -> dir = Path.of(value(args, ++i, a));
-                    case "--duration" -> s.durationMs = millis(value(args, ++i, a), a);
-                    case "--raw" -> s.raw = true;
-                    case "--rate" -> s.rateHz = positive(value(args, ++i, a), a, 1e12);
-                    case "--channels" -> s.channels = (int) positive(value(args, ++i, a), a, 8);
-                    case "--reconnect" -> s.reconnectMs = millis(value(args, ++i, a), a);
-                    case "--baud" -> baud = (int) positive(value(args, ++i, a), a, 1e8);
-                    case "--sim-mb" -> simMb = (long) positive(value(args, ++i, a), a, 1e6);
-                    case "--sim-faults" -> faults = value(args, ++i, a);
-                    case "-q", "--quiet" -> quiet = true;
-                    default -> throw new BadArgument("unknown argument '" + a + "'; see --help");
-                }
-            }
-            if (list) {
-                return list(out);
-            }
-            int sources = (port != null ? 1 : 0) + (device != null ? 1 : 0) + (simulate ? 1 : 0);
-            if (sources != 1) {
-                throw new BadArgument("give exactly one of --port NAME, --device VID:PID, --simulate (or --list)");
-            }
-            if (s.raw && !(s.rateHz > 0)) {
-                throw new BadArgument("--raw needs --rate HZ, the device's sample rate");
-            }
-            if (s.channels < 1 || s.channels != Math.floor(s.channels)) {
-                throw new BadArgument("--channels: expected 1 to 8");
-            }
-            if (Files.exists(dir) && (!Files.isDirectory(dir) || Files.list(dir).findAny().isPresent())) {
-                throw new BadArgument("--out " + dir + ": exists and is not an empty directory; a spool needs a new or empty one");
-            }
-            Supplier<SerialLink> opener;
-            if (simulate) {
-                DeviceSimulator.Plan plan = simPlan(faults, simMb, s.raw);
-                SimulatedDevice sim = new SimulatedDevice(plan);
-                opener = sim::connect;
-            } else if (device != null) {
-                int[] id = SerialPorts.parseUsbId(device);
-                int b = baud;
-                opener = () -> ports.openById(id[0], id[1], b);
-            } else {
-                String p = port;
-                int b = baud;
-                opener = () -> ports.open(p, b);
-            }
-            return capture(opener, dir, s, quiet, err);
-        } catch (BadArgument e) {
-            err.println("capture: " + e.getMessage());
-            return 2;
-        } catch (DeviceException e) {
-            err.println("capture: " + e.getMessage());
-            return e.getMessage().startsWith("--") ? 2 : 1;
-        } catch (IOException e) {
-            err.println("capture: " + dir + ": " + e.getMessage());
-            return 1;
+        s.raw = args.flag("raw");
+        s.rateHz = args.has("rate") ? args.number("rate") : 0;
+        s.channels = (int) args.integer("channels", 8);
+        s.durationMs = args.has("duration") ? millis(args, "duration") : -1;
+        s.reconnectMs = millis(args, "reconnect");
+        int baud = (int) args.integer("baud", 115200);
+        int sources = (port != null ? 1 : 0) + (device != null ? 1 : 0) + (simulate ? 1 : 0);
+        if (sources != 1) {
+            throw new OptionException("port", "give exactly one of --port NAME, --device VID:PID, --simulate (or --list)");
         }
+        if (s.raw && !(s.rateHz > 0)) {
+            throw new OptionException("rate", "--raw needs --rate HZ, the device's sample rate");
+        }
+        if (Files.exists(dir) && (!Files.isDirectory(dir) || !isEmpty(dir))) {
+            throw new OptionException("out", "--out " + dir + ": exists and is not an empty directory; a spool needs a new or empty one");
+        }
+        Supplier<SerialLink> opener;
+        if (simulate) {
+            DeviceSimulator.Plan plan = simPlan(args.text("sim-faults"), args.integer("sim-mb", 64), s.raw);
+            SimulatedDevice sim = new SimulatedDevice(plan);
+            opener = sim::connect;
+        } else if (device != null) {
+            int[] id = SerialPorts.parseUsbId(device);
+            opener = () -> ports.openById(id[0], id[1], baud);
+        } else {
+            opener = () -> ports.open(port, baud);
+        }
+        try {
+            return capture(opener, dir, s, console.quiet(), console.err());
+        } catch (IOException e) {
+            throw new OutputException("capture: " + dir + ": " + e.getMessage(), e);
+        }
+    }
+
+    private static boolean isEmpty(Path dir) {
+        try (var files = Files.list(dir)) {
+            return files.findAny().isEmpty();
+        } catch (IOException e) {
+            throw new OutputException("--out " + dir + ": cannot be listed: " + e.getMessage(), e);
+        }
+    }
+
+    /** A time option in whole milliseconds, from 0 up to about 31 years. */
+    private static long millis(ToolArgs args, String name) {
+        TimeValue t = args.time(name);
+        double ms = t.toFs(Double.NaN, Double.NaN) / Femtos.PER_MS;
+        if (!(ms >= 0) || ms > 1e12) {
+            throw new OptionException(name, "--" + name + " " + t + ": expected a time from 0 up to about 31 years");
+        }
+        return Math.round(ms);
     }
 
     private int list(PrintStream out) {
@@ -267,54 +248,6 @@ public final class CaptureTool implements Tool {
         }
     }
 
-    static String value(String[] args, int i, String opt) {
-        if (i >= args.length || args[i].startsWith("--")) {
-            throw new BadArgument(opt + " needs a value; see --help");
-        }
-        return args[i];
-    }
-
-    static double positive(String v, String opt, double max) {
-        double d;
-        try {
-            d = Double.parseDouble(v);
-        } catch (NumberFormatException e) {
-            throw new BadArgument(opt + " " + v + ": expected a number");
-        }
-        if (!(d > 0) || d > max) {
-            throw new BadArgument(opt + " " + v + ": expected a number above 0 and at most " + (long) max);
-        }
-        return d;
-    }
-
-    static long millis(String v, String opt) {
-        String t = v.trim().toLowerCase(Locale.ROOT);
-        double mult = 1000;
-        String num = t;
-        if (t.endsWith("ms")) {
-            mult = 1;
-            num = t.substring(0, t.length() - 2);
-        } else if (t.endsWith("s")) {
-            num = t.substring(0, t.length() - 1);
-        } else if (t.endsWith("m")) {
-            mult = 60_000;
-            num = t.substring(0, t.length() - 1);
-        } else if (t.endsWith("h")) {
-            mult = 3_600_000;
-            num = t.substring(0, t.length() - 1);
-        }
-        double d;
-        try {
-            d = Double.parseDouble(num);
-        } catch (NumberFormatException e) {
-            throw new BadArgument(opt + " " + v + ": expected a time such as 30s, 500ms, 2m or 1h");
-        }
-        if (!(d >= 0) || d * mult > 1e12) {
-            throw new BadArgument(opt + " " + v + ": expected a time from 0 up to about 31 years");
-        }
-        return Math.round(d * mult);
-    }
-
     static DeviceSimulator.Plan simPlan(String faults, long mb, boolean raw) {
         DeviceSimulator.Plan p = new DeviceSimulator.Plan();
         p.raw = raw;
@@ -325,7 +258,7 @@ public final class CaptureTool implements Tool {
         for (String f : faults.split(",")) {
             String[] kv = f.split("=", 2);
             if (kv.length != 2) {
-                throw new BadArgument("--sim-faults " + faults + ": '" + f + "' is not NAME=FRAME");
+                throw new OptionException("sim-faults", "--sim-faults " + faults + ": '" + f + "' is not NAME=FRAME");
             }
             try {
                 switch (kv[0]) {
@@ -337,10 +270,10 @@ public final class CaptureTool implements Tool {
                         String[] fm = kv[1].split(":", 2);
                         p.stallMs.put(Long.parseLong(fm[0]), fm.length > 1 ? Long.parseLong(fm[1]) : 500L);
                     }
-                    default -> throw new BadArgument("--sim-faults: unknown fault '" + kv[0] + "'; expected drop, corrupt, dup, stall, disconnect");
+                    default -> throw new OptionException("sim-faults", "--sim-faults: unknown fault '" + kv[0] + "'; expected drop, corrupt, dup, stall, disconnect");
                 }
             } catch (NumberFormatException e) {
-                throw new BadArgument("--sim-faults " + faults + ": '" + f + "' needs a whole frame number");
+                throw new OptionException("sim-faults", "--sim-faults " + faults + ": '" + f + "' needs a whole frame number");
             }
         }
         return p;

@@ -1,7 +1,7 @@
 package org.lanesift.plugins.serial;
 
 /** A device, port or spool problem; the message names the port, file or field and what was expected. */
-public class DeviceException extends RuntimeException {
+public class DeviceException extends org.lanesift.plugin.DeviceFailure {
     private static final long serialVersionUID = 1L;
 
     /**

@@ -1,5 +1,6 @@
 package org.lanesift.plugins.serial;
 
+import org.lanesift.plugin.OptionException;
 import com.fazecast.jSerialComm.SerialPort;
 import java.util.ArrayList;
 import java.util.List;
@@ -27,13 +28,13 @@ public final class JSerialCommPorts implements SerialPorts {
         try {
             p = SerialPort.getCommPort(name);
         } catch (RuntimeException e) {
-            throw new DeviceException("--port " + name + ": no such port (" + e.getMessage() + ")", e);
+            throw new OptionException("port", "--port " + name + ": no such port (" + e.getMessage() + ")", e);
         }
         p.setComPortParameters(baudRate, 8, SerialPort.ONE_STOP_BIT, SerialPort.NO_PARITY);
         p.setFlowControl(SerialPort.FLOW_CONTROL_DISABLED);
         p.setComPortTimeouts(SerialPort.TIMEOUT_READ_SEMI_BLOCKING | SerialPort.TIMEOUT_WRITE_BLOCKING, 100, 1000);
         if (!p.openPort()) {
-            throw new DeviceException("--port " + name + ": cannot open the port (error " + p.getLastErrorCode() + "; is it there, and may this user open it?)");
+            throw new OptionException("port", "--port " + name + ": cannot open the port (error " + p.getLastErrorCode() + "; is it there, and may this user open it?)");
         }
         return new Link(p, name);
     }

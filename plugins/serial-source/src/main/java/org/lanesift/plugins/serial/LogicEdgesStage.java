@@ -48,7 +48,7 @@ final class LogicEdgesStage implements Stage {
         }
         if (nextIndex[input] >= 0 && b.firstIndex() != nextIndex[input]) {
             if (b.firstIndex() < nextIndex[input]) {
-                throw new IllegalArgumentException("input 'in" + input + "' (" + b.channel() + "): block starts at sample "
+                throw new org.lanesift.plugin.InputFormatException("input 'in" + input + "' (" + b.channel() + "): block starts at sample "
                         + b.firstIndex() + " but the previous one ended at sample " + nextIndex[input]
                         + "; blocks must come in time order without overlap");
             }

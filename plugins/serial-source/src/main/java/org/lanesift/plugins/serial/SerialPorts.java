@@ -1,5 +1,6 @@
 package org.lanesift.plugins.serial;
 
+import org.lanesift.plugin.OptionException;
 import java.util.List;
 
 /** Lists and opens serial ports; {@link JSerialCommPorts} is the real one, tests fake it. */
@@ -17,7 +18,7 @@ public interface SerialPorts {
      * @param name     name or path
      * @param baudRate baud rate (ignored by USB CDC devices and pseudo-terminals)
      * @return the open link
-     * @throws DeviceException when it cannot be opened, naming the port
+     * @throws org.lanesift.plugin.OptionException when it cannot be opened, naming the port
      */
     SerialLink open(String name, int baudRate);
 
@@ -28,7 +29,7 @@ public interface SerialPorts {
      * @param productId USB product id
      * @param baudRate  baud rate
      * @return the open link
-     * @throws DeviceException when no listed port has the id, listing the ids there are
+     * @throws org.lanesift.plugin.OptionException when no listed port has the id, listing the ids there are
      */
     default SerialLink openById(int vendorId, int productId, int baudRate) {
         List<PortInfo> ports = list();
@@ -39,7 +40,7 @@ public interface SerialPorts {
         }
         String wanted = String.format("%04x:%04x", vendorId, productId);
         String have = ports.stream().map(PortInfo::usbId).filter(s -> !s.isEmpty()).distinct().reduce((a, b) -> a + ", " + b).orElse("none");
-        throw new DeviceException("--device " + wanted + ": no port with this USB id; ids present: " + have);
+        throw new OptionException("device", "--device " + wanted + ": no port with this USB id; ids present: " + have);
     }
 
     /**
@@ -47,11 +48,11 @@ public interface SerialPorts {
      *
      * @param text the id text
      * @return {vendor, product}
-     * @throws DeviceException if it is not two 1-4 digit hex numbers
+     * @throws org.lanesift.plugin.OptionException if it is not two 1-4 digit hex numbers
      */
     static int[] parseUsbId(String text) {
         if (text == null || !text.matches("[0-9a-fA-F]{1,4}:[0-9a-fA-F]{1,4}")) {
-            throw new DeviceException("--device " + text + ": expected VID:PID in hex, such as 1209:0001");
+            throw new OptionException("device", "--device " + text + ": expected VID:PID in hex, such as 1209:0001");
         }
         String[] p = text.split(":");
         return new int[] {Integer.parseInt(p[0], 16), Integer.parseInt(p[1], 16)};

@@ -11,6 +11,7 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.concurrent.atomic.AtomicInteger;
 import org.junit.jupiter.api.Test;
+import org.lanesift.testkit.ToolHarness;
 import org.junit.jupiter.api.io.TempDir;
 
 /**
@@ -38,8 +39,12 @@ class DeviceSimToolTest {
             assertTrue(Files.exists(a) && Files.exists(b), "socat made no pty pair");
             ByteArrayOutputStream err = new ByteArrayOutputStream();
             AtomicInteger code = new AtomicInteger(-1);
-            Thread dev = new Thread(() -> code.set(new DeviceSimTool().run(new String[] {"--port", b.toString(), "--mb", "2",
-                "--faults", "drop=5"}, System.out, new PrintStream(err, true, StandardCharsets.UTF_8))), "simulate-device");
+            Thread dev = new Thread(() -> {
+                ToolHarness.Result r = ToolHarness.of(new DeviceSimTool()).option("port", b.toString()).option("mb", "2")
+                        .option("faults", "drop=5").run();
+                err.writeBytes(r.err().getBytes(StandardCharsets.UTF_8));
+                code.set(r.code());
+            }, "simulate-device");
             dev.start();
             Path dir = tmp.resolve("spool");
             JSerialCommPorts ports = new JSerialCommPorts();
@@ -78,10 +83,9 @@ class DeviceSimToolTest {
 
     @Test
     void withoutAPortItSaysWhatIsMissing() {
-        ByteArrayOutputStream err = new ByteArrayOutputStream();
-        int code = new DeviceSimTool(new FakePorts()).run(new String[] {"--mb", "1"}, System.out, new PrintStream(err, true, StandardCharsets.UTF_8));
-        assertEquals(2, code);
-        assertTrue(err.toString(StandardCharsets.UTF_8).contains("--port NAME is required"), err.toString(StandardCharsets.UTF_8));
+        ToolHarness.Result r = ToolHarness.of(new DeviceSimTool(new FakePorts())).option("mb", "1").run();
+        assertEquals(2, r.code());
+        assertEquals("missing required option '--port=NAME'", r.err().trim());
     }
 
     /** Ports that are never there. */
@@ -99,10 +103,8 @@ class DeviceSimToolTest {
 
     @Test
     void aPortThatCannotBeOpenedIsExitOneNamingIt() {
-        ByteArrayOutputStream err = new ByteArrayOutputStream();
-        int code = new DeviceSimTool(new FakePorts()).run(new String[] {"--port", "/dev/nothing-here"}, System.out,
-                new PrintStream(err, true, StandardCharsets.UTF_8));
-        assertEquals(1, code);
-        assertTrue(err.toString(StandardCharsets.UTF_8).contains("/dev/nothing-here"), err.toString(StandardCharsets.UTF_8));
+        ToolHarness.Result r = ToolHarness.of(new DeviceSimTool(new FakePorts())).option("port", "/dev/nothing-here").run();
+        assertEquals(1, r.code());
+        assertTrue(r.err().contains("/dev/nothing-here"), r.err());
     }
 }

@@ -166,7 +166,7 @@ public final class EyeDiagramPlugin implements PluginProvider {
                     periodFs = b.periodFs();
                     t0Fs = b.startFs() - b.firstIndex() * periodFs;
                 } else if (Math.abs(b.periodFs() - periodFs) > 1e-9 * periodFs) {
-                    throw new IllegalArgumentException("eye-diagram '" + ctx.instanceId() + "': channel '" + b.channel()
+                    throw new org.lanesift.plugin.InputFormatException("eye-diagram '" + ctx.instanceId() + "': channel '" + b.channel()
                             + "' changed its sample period from " + periodFs + " fs to " + b.periodFs() + " fs at sample " + b.firstIndex());
                 }
                 firstFs = Math.min(firstFs, b.startFs());
@@ -179,7 +179,7 @@ public final class EyeDiagramPlugin implements PluginProvider {
                 pendingSamples += b.length();
                 process(false);
                 if (pendingSamples > MAX_PENDING) {
-                    throw new IllegalStateException("eye-diagram '" + ctx.instanceId() + "': " + pendingSamples
+                    throw new org.lanesift.plugin.InputFormatException("eye-diagram '" + ctx.instanceId() + "': " + pendingSamples
                             + " samples of input 'signal' are waiting for clock edges that have not arrived; wire input 'clock' "
                             + "to a clock edge list or set option bitRateHz");
                 }
@@ -339,12 +339,12 @@ public final class EyeDiagramPlugin implements PluginProvider {
         public void finish() {
             process(true);
             if (acc == null || acc.inRange() + acc.outOfRange() == 0) {
-                throw new IllegalStateException("eye-diagram '" + ctx.instanceId() + "': no samples to fold"
+                throw new org.lanesift.plugin.InputFormatException("eye-diagram '" + ctx.instanceId() + "': no samples to fold"
                         + (samplesSeen == 0 ? " (input 'signal' received none)"
                         : clockMode ? " (" + clockEdges + " clock edges arrived on input 'clock'; at least 2 are needed, or set option bitRateHz)" : ""));
             }
             if (acc.inRange() == 0) {
-                throw new IllegalStateException("eye-diagram '" + ctx.instanceId() + "': all " + acc.outOfRange()
+                throw new org.lanesift.plugin.InputFormatException("eye-diagram '" + ctx.instanceId() + "': all " + acc.outOfRange()
                         + " samples fell outside the voltage range " + Math.round(acc.minVolts() * 1000) + " to "
                         + Math.round((acc.minVolts() + acc.heightBins() / acc.binsPerVolt()) * 1000) + " mV; set option rangeMv");
             }

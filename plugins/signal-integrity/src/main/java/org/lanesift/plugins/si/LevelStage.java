@@ -64,7 +64,7 @@ abstract class LevelStage implements Stage {
             t0Fs = b.startFs() - b.firstIndex() * periodFs;
             channel = b.channel();
         } else if (Math.abs(b.periodFs() - periodFs) > 1e-9 * periodFs) {
-            throw new IllegalArgumentException(pluginId + " '" + ctx.instanceId() + "': channel '" + b.channel()
+            throw new org.lanesift.plugin.InputFormatException(pluginId + " '" + ctx.instanceId() + "': channel '" + b.channel()
                     + "' changed its sample period from " + periodFs + " fs to " + b.periodFs() + " fs at sample " + b.firstIndex());
         }
         firstFs = Math.min(firstFs, b.startFs());
@@ -87,7 +87,7 @@ abstract class LevelStage implements Stage {
         if (levels == null) {
             levels = collector.levels();
             if (levels == null) {
-                throw new IllegalStateException(pluginId + " '" + ctx.instanceId() + "': the first " + collector.count()
+                throw new org.lanesift.plugin.InputFormatException(pluginId + " '" + ctx.instanceId() + "': the first " + collector.count()
                         + " samples of '" + channel + "' show no two distinct levels; set option levelsVolts [low, high]");
             }
         }
@@ -122,7 +122,7 @@ abstract class LevelStage implements Stage {
     @Override
     public void finish() {
         if (samples == 0) {
-            throw new IllegalStateException(pluginId + " '" + ctx.instanceId() + "': input 'signal' received no samples");
+            throw new org.lanesift.plugin.InputFormatException(pluginId + " '" + ctx.instanceId() + "': input 'signal' received no samples");
         }
         if (tracker == null) {
             start();

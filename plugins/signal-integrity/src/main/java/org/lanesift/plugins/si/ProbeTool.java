@@ -1,13 +1,13 @@
 package org.lanesift.plugins.si;
 
 import java.io.PrintStream;
-import java.util.LinkedHashMap;
-import java.util.List;
 import java.util.Locale;
-import java.util.Map;
-import java.util.regex.Matcher;
-import java.util.regex.Pattern;
+import org.lanesift.plugin.OptionException;
+import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.Tool;
+import org.lanesift.plugin.ToolArgs;
+import org.lanesift.plugin.ToolConsole;
+import org.lanesift.plugin.ToolSpec;
 
 /**
  * The command-line probe calculator, {@code lanesift probe}: designs and checks a resistive
@@ -21,6 +21,30 @@ public final class ProbeTool implements Tool {
     static final double DEFAULT_INPUT_MAX_WATTS = 0.5;
     static final double DEFAULT_RESISTOR_WATTS = 0.25;
     static final double NEAR = 0.8;
+    /**
+     * Default maximum working voltage of the series resistor: small film resistors are commonly rated
+     * 200 to 250 V (1206 chips about 200 V, 0.25 W leaded parts about 250 V; from memory, check the
+     * data sheet). The lower figure is taken.
+     */
+    static final double DEFAULT_RESISTOR_MAX_VOLTS = 200.0;
+    /**
+     * Upper end of extra-low voltage for AC, volts RMS: IEC 61140 and the voltage bands of IEC 60449
+     * put extra-low voltage at no more than 50 V AC RMS or 120 V ripple-free DC (from memory). The
+     * probe does not know AC from DC, so the lower figure is used for both.
+     */
+    static final double EXTRA_LOW_VOLTAGE_AC_RMS = 50.0;
+    /** Upper end of extra-low voltage for ripple-free DC, volts (IEC 61140 / IEC 60449, from memory). */
+    static final double EXTRA_LOW_VOLTAGE_DC = 120.0;
+
+    static final String HAZARD = String.join("\n",
+            "HAZARDOUS VOLTAGE",
+            "  - Above extra-low voltage (50 V AC RMS or 120 V ripple-free DC: IEC 61140 / IEC 60449 voltage bands,",
+            "    from memory) the circuit can kill. This calculator does not make a home-made divider safe there.",
+            "  - What decides safety is not the ratio: it is each resistor's maximum working voltage, the creepage",
+            "    and clearance distances across the divider and its housing, insulation of everything a hand can touch,",
+            "    and the measurement category (CAT) of the whole setup (IEC 61010-031 for probes, from memory).",
+            "  - The right tool is a probe rated for the voltage and the category (a high-voltage or differential probe),",
+            "    used as its maker instructs and as local codes and licensed practice require.");
 
     static final String CAUTIONS = String.join("\n",
             "Cautions",
@@ -33,136 +57,93 @@ public final class ProbeTool implements Tool {
             "    probe to the board's ground before touching them, and never hot-plug a panel.",
             "  - These figures are estimates from rules of thumb, not a safety assessment.");
 
-    private static final String USAGE = String.join("\n",
-            "usage: lanesift probe SUBJECT [options]",
-            "",
-            "subjects:",
-            "  divider   a resistive divider probe into a 50-ohm scope input",
-            "            --ratio N | --resistor OHMS   wanted ratio (series R computed and snapped) or a resistor to check",
-            "            --series E12|E24|E96          IEC 60063 series to snap to (default E96)",
-            "            --input-ohms OHMS             scope input resistance (default 50)",
-            "            --source-ohms OHMS            impedance of the probed source (default 50)",
-            "            --level VRMS                  signal at the tip, volts RMS (DC counts as RMS)",
-            "            --input-max-vrms V            scope input voltage rating (default 5, from memory: check yours)",
-            "            --input-max-watts W           scope input power rating (default 0.5, from memory: check yours)",
-            "            --resistor-watts W            the series resistor's rating (default 0.25)",
-            "  rise      rise time from bandwidth and the correction of a measured rise time",
-            "            --bandwidth HZ                scope bandwidth (required)",
-            "            --probe-bandwidth HZ          probe bandwidth (optional)",
-            "            --measured S                  measured 10-90 % rise time (optional)",
-            "  lead      resonance of a ground lead with the probe capacitance",
-            "            --length MM                   lead length (mm, cm or m; a bare number is mm)",
-            "            --capacitance F               probe input capacitance (default 10pF)",
-            "            --bandwidth HZ                bandwidth you need (optional): longest lead that keeps clear of it",
-            "",
-            "Numbers take SI prefixes and units: 4.7k, 450ohm, 1GHz, 800ps, 10pF, 100mm, 500mV.",
-            "Examples: docs/probe.md");
+    /** The command line: one subcommand per subject; every number takes SI prefixes and its unit. */
+    static final ToolSpec SPEC = ToolSpec.builder("probe")
+            .summary("probe calculator: divider probes for 50-ohm inputs, rise time and bandwidth, ground-lead resonance")
+            .description("Designs and checks a resistive divider probe for a 50-ohm scope input, converts bandwidth to rise",
+                    "time, and finds the resonance of a ground lead with the probe capacitance. Every result states its",
+                    "assumptions; results that involve a voltage also print the safety cautions.")
+            .subcommand(ToolSpec.builder("divider")
+                    .summary("a resistive divider probe into a 50-ohm scope input")
+                    .description("A resistive divider probe into a 50-ohm scope input: give the wanted --ratio (the series",
+                            "resistor is computed and snapped to a series value) or a --resistor to check.")
+                    .option(OptionSpec.number("ratio", "", null, 1.000001, 1e6, "wanted division ratio N (N:1)"), "N")
+                    .option(OptionSpec.number("resistor", "ohm", null, 1e-3, 1e12, "series resistor to check, such as 4.7k"), "OHMS")
+                    .option(OptionSpec.text("series", "E96", "IEC 60063 series to snap to: E12, E24 or E96"), "E12|E24|E96")
+                    .option(OptionSpec.number("input-ohms", "ohm", 50.0, 1e-3, 1e9, "scope input resistance"), "OHMS")
+                    .option(OptionSpec.number("source-ohms", "ohm", 50.0, 0.0, 1e12, "impedance of the probed source"), "OHMS")
+                    .option(OptionSpec.number("level", "V", null, 0.0, 1e7, "signal at the tip, volts RMS (DC counts as RMS)"), "VRMS")
+                    .option(OptionSpec.number("input-max-vrms", "V", DEFAULT_INPUT_MAX_VRMS, 1e-6, 1e6,
+                            "scope input voltage rating (5 V RMS is from memory: check yours)"), "V")
+                    .option(OptionSpec.number("input-max-watts", "W", DEFAULT_INPUT_MAX_WATTS, 1e-9, 1e6,
+                            "scope input power rating (0.5 W is from memory: check yours)"), "W")
+                    .option(OptionSpec.number("resistor-watts", "W", DEFAULT_RESISTOR_WATTS, 1e-6, 1e6,
+                            "the series resistor's power rating"), "W")
+                    .option(OptionSpec.number("resistor-max-volts", "V", DEFAULT_RESISTOR_MAX_VOLTS, 1e-3, 1e6,
+                            "the series resistor's maximum working voltage (200 V is from memory for small film parts: "
+                                    + "check the data sheet)"), "V")
+                    .build())
+            .subcommand(ToolSpec.builder("rise")
+                    .summary("rise time from bandwidth and the correction of a measured rise time")
+                    .required(OptionSpec.number("bandwidth", "Hz", null, 1.0, 1e13, "scope bandwidth, such as 500MHz"), "HZ")
+                    .option(OptionSpec.number("probe-bandwidth", "Hz", null, 1.0, 1e13, "probe bandwidth"), "HZ")
+                    .option(OptionSpec.number("measured", "s", null, 1e-15, 1e3, "measured 10-90 % rise time, such as 800ps"), "S")
+                    .build())
+            .subcommand(ToolSpec.builder("lead")
+                    .summary("resonance of a ground lead with the probe capacitance")
+                    .required(OptionSpec.number("length", "mm", null, 1e-3, 1e5, "lead length (mm, cm or m; a bare number is mm)"), "MM")
+                    .option(OptionSpec.number("capacitance", "F", 10e-12, 1e-16, 1e-6, "probe input capacitance, such as 10pF"), "F")
+                    .option(OptionSpec.number("bandwidth", "Hz", null, 1.0, 1e13,
+                            "bandwidth you need: the longest lead that keeps clear of it"), "HZ")
+                    .build())
+            .footer("Numbers take SI prefixes and units: 4.7k, 450ohm, 1GHz, 800ps, 10pF, 100mm, 500mV.",
+                    "Examples: docs/probe.md")
+            .build();
 
     /** Creates the tool. */
     public ProbeTool() {
     }
 
     @Override
-    public String name() {
-        return "probe";
+    public ToolSpec spec() {
+        return SPEC;
     }
 
     @Override
-    public String summary() {
-        return "probe calculator: divider probes for 50-ohm inputs, rise time and bandwidth, ground-lead resonance";
-    }
-
-    /** Bad command-line input; the message is the one line printed. */
-    static final class UsageException extends Exception {
-        private static final long serialVersionUID = 1L;
-
-        UsageException(String message) {
-            super(message);
+    public int run(ToolArgs args, ToolConsole console) {
+        switch (args.command()) {
+            case "divider" -> divider(args, console.out());
+            case "rise" -> rise(args, console.out());
+            case "lead" -> lead(args, console.out());
+            default -> throw new OptionException("subject", "missing subject: expected divider, rise or lead");
         }
-    }
-
-    @Override
-    public int run(String[] args, PrintStream out, PrintStream err) {
-        try {
-            if (args.length == 0) {
-                throw new UsageException("missing subject: expected divider, rise or lead (see lanesift probe --help)");
-            }
-            if (args[0].equals("--help") || args[0].equals("-h") || args[0].equals("help")) {
-                out.println(USAGE);
-                return 0;
-            }
-            String subject = args[0];
-            List<String> allowed = switch (subject) {
-                case "divider" -> List.of("ratio", "resistor", "series", "input-ohms", "source-ohms", "level", "input-max-vrms",
-                        "input-max-watts", "resistor-watts");
-                case "rise" -> List.of("bandwidth", "probe-bandwidth", "measured");
-                case "lead" -> List.of("length", "capacitance", "bandwidth");
-                default -> throw new UsageException("unknown subject '" + subject + "': expected divider, rise or lead");
-            };
-            Map<String, String> o = new LinkedHashMap<>();
-            for (int i = 1; i < args.length; i++) {
-                String a = args[i];
-                if (a.equals("--help") || a.equals("-h")) {
-                    out.println(USAGE);
-                    return 0;
-                }
-                if (!a.startsWith("--") || a.length() == 2) {
-                    throw new UsageException(subject + ": unexpected argument '" + a + "': options start with --");
-                }
-                String name = a.substring(2);
-                String value;
-                int eq = name.indexOf('=');
-                if (eq >= 0) {
-                    value = name.substring(eq + 1);
-                    name = name.substring(0, eq);
-                } else {
-                    if (i + 1 >= args.length) {
-                        throw new UsageException(subject + ": option --" + name + " needs a value");
-                    }
-                    value = args[++i];
-                }
-                if (!allowed.contains(name)) {
-                    throw new UsageException(subject + ": unknown option --" + name + "; options: --" + String.join(", --", allowed));
-                }
-                if (o.put(name, value) != null) {
-                    throw new UsageException(subject + ": option --" + name + " given twice");
-                }
-            }
-            switch (subject) {
-                case "divider" -> divider(o, out);
-                case "rise" -> rise(o, out);
-                default -> lead(o, out);
-            }
-            return 0;
-        } catch (UsageException e) {
-            err.println("lanesift probe: " + e.getMessage());
-            return 2;
-        }
+        return 0;
     }
 
     // ---------------------------------------------------------------------------------------- divider
 
-    private static void divider(Map<String, String> o, PrintStream out) throws UsageException {
-        if (o.containsKey("ratio") == o.containsKey("resistor")) {
-            throw new UsageException("divider: give exactly one of --ratio N or --resistor OHMS");
+    private static void divider(ToolArgs o, PrintStream out) {
+        if (o.given("ratio") == o.given("resistor")) {
+            throw new OptionException("ratio", "divider: give exactly one of --ratio N or --resistor OHMS");
         }
-        double rin = qty(o, "input-ohms", "ohm", 50.0, 1e-3, 1e9);
-        double zs = qty(o, "source-ohms", "ohm", 50.0, 0, 1e12);
-        double vmax = qty(o, "input-max-vrms", "V", DEFAULT_INPUT_MAX_VRMS, 1e-6, 1e6);
-        double pmax = qty(o, "input-max-watts", "W", DEFAULT_INPUT_MAX_WATTS, 1e-9, 1e6);
-        double prated = qty(o, "resistor-watts", "W", DEFAULT_RESISTOR_WATTS, 1e-6, 1e6);
-        double level = qty(o, "level", "V", Double.NaN, 0, 1e7);
+        double rin = o.number("input-ohms");
+        double zs = o.number("source-ohms");
+        double vmax = o.number("input-max-vrms");
+        double pmax = o.number("input-max-watts");
+        double prated = o.number("resistor-watts");
+        double rmaxVolts = o.number("resistor-max-volts");
+        double level = o.number("level");
         ESeries series;
         try {
-            series = ESeries.parse(o.getOrDefault("series", "E96"));
+            series = ESeries.parse(o.text("series"));
         } catch (IllegalArgumentException e) {
-            throw new UsageException("divider: option --series: " + e.getMessage());
+            throw new OptionException("series", "divider: option --series: " + e.getMessage());
         }
-        double n = qty(o, "ratio", "", Double.NaN, 1.000001, 1e6);
-        double given = qty(o, "resistor", "ohm", Double.NaN, 1e-3, 1e12);
+        double n = o.number("ratio");
+        double given = o.number("resistor");
         out.println("Resistive divider probe into a " + ohms(rin) + " scope input");
         double r;
-        if (o.containsKey("ratio")) {
+        if (o.given("ratio")) {
             double ideal = ProbeMath.seriesForRatio(n, rin);
             double[] s = series.snap(ideal);
             r = s[2];
@@ -192,31 +173,50 @@ public final class ProbeTool implements Tool {
         double tipForV = vmax * ratio;
         double tipForP = Math.sqrt(pmax * rin) * ratio;
         double tipForR = load * Math.sqrt(0.5 * prated / r);
+        double tipForRVolts = rmaxVolts * load / r;
+        double tipLimit = Math.min(Math.min(tipForV, tipForP), Math.min(tipForR, tipForRVolts));
         line(out, "tip limits", "scope input reaches " + fmt(vmax) + " V RMS at " + fmt(tipForV) + " V RMS and " + fmt(pmax)
                 + " W at " + fmt(tipForP) + " V RMS at the tip; the resistor reaches half its " + fmt(prated) + " W at "
-                + fmt(tipForR) + " V RMS");
+                + fmt(tipForR) + " V RMS and its " + fmt(rmaxVolts) + " V working voltage at " + fmt(tipForRVolts) + " V RMS");
+        line(out, "highest tip level", fmt(tipLimit) + " V RMS, the lowest of the limits above"
+                + (tipLimit > EXTRA_LOW_VOLTAGE_AC_RMS ? "; above " + fmt(EXTRA_LOW_VOLTAGE_AC_RMS)
+                + " V RMS it is not a safe level: see HAZARDOUS VOLTAGE" : ""));
+        boolean hazardous = tipLimit > EXTRA_LOW_VOLTAGE_AC_RMS;
         if (!Double.isNaN(level)) {
             double i = ProbeMath.current(level, r, rin);
             double pr = i * i * r;
             double pin = i * i * rin;
             double vin = i * rin;
-            line(out, "at " + fmt(level) + " V RMS", "current " + si(i, "A") + "; resistor " + si(pr, "W") + "; scope input "
-                    + si(vin, "V") + " RMS and " + si(pin, "W"));
+            double vr = i * r;
+            line(out, "at " + fmt(level) + " V RMS", "current " + si(i, "A") + "; resistor " + si(pr, "W") + " and "
+                    + si(vr, "V") + " RMS; scope input " + si(vin, "V") + " RMS and " + si(pin, "W"));
             String bigger = "use a larger ratio or an attenuator rated for the power";
             check(out, "scope input voltage", vin, vmax, "V RMS", bigger);
             check(out, "scope input power", pin, pmax, "W", bigger);
             check(out, "resistor power (derated to half)", pr, 0.5 * prated, "W", "use a resistor (or several in series) rated for it");
+            check(out, "resistor working voltage", vr, rmaxVolts, "V RMS", "use resistors in series, each within its rating");
+            if (level > EXTRA_LOW_VOLTAGE_AC_RMS) {
+                hazardous = true;
+                out.println("  HAZARDOUS: " + fmt(level) + " V RMS is above extra-low voltage (" + fmt(EXTRA_LOW_VOLTAGE_AC_RMS)
+                        + " V AC RMS, " + fmt(EXTRA_LOW_VOLTAGE_DC) + " V DC); do not use a home-made divider: use a probe rated"
+                        + " for the voltage and measurement category");
+            }
         }
         out.println("Assumptions");
         out.println("  - ratio (R + R_in) / R_in and loading R + R_in (common practice); the scope input is a pure "
                 + ohms(rin) + " to ground");
         out.println("  - DC and low frequency: the resistor's own capacitance and the tip capacitance lower the loading at high"
                 + " frequency, and the resistor's tolerance adds to the ratio error");
-        out.println("  - the source is linear with " + ohms(zs) + " output impedance" + (o.containsKey("source-ohms") ? " (given)" : " (default)"));
-        out.println("  - scope input limits " + fmt(vmax) + " V RMS and " + fmt(pmax) + " W" + (o.containsKey("input-max-vrms")
-                || o.containsKey("input-max-watts") ? " (given)" : " (common 50-ohm input ratings, from memory: check your instrument)"));
-        out.println("  - resistor rated " + fmt(prated) + " W and derated to half (common practice)");
+        out.println("  - the source is linear with " + ohms(zs) + " output impedance" + (o.given("source-ohms") ? " (given)" : " (default)"));
+        out.println("  - scope input limits " + fmt(vmax) + " V RMS and " + fmt(pmax) + " W" + (o.given("input-max-vrms")
+                || o.given("input-max-watts") ? " (given)" : " (common 50-ohm input ratings, from memory: check your instrument)"));
+        out.println("  - resistor rated " + fmt(prated) + " W and derated to half (common practice), working voltage "
+                + fmt(rmaxVolts) + " V" + (o.given("resistor-max-volts") ? " (given)" : " (a common rating of small film resistors,"
+                + " from memory: check the data sheet)"));
         out.println("  - series values from IEC 60063 (" + series + ")");
+        if (hazardous) {
+            out.println(HAZARD);
+        }
         out.println(CAUTIONS);
     }
 
@@ -232,13 +232,10 @@ public final class ProbeTool implements Tool {
 
     // ---------------------------------------------------------------------------------------- rise
 
-    private static void rise(Map<String, String> o, PrintStream out) throws UsageException {
-        if (!o.containsKey("bandwidth")) {
-            throw new UsageException("rise: option --bandwidth HZ is required (such as --bandwidth 500MHz)");
-        }
-        double bw = qty(o, "bandwidth", "Hz", Double.NaN, 1, 1e13);
-        double pbw = qty(o, "probe-bandwidth", "Hz", Double.NaN, 1, 1e13);
-        double meas = qty(o, "measured", "s", Double.NaN, 1e-15, 1e3);
+    private static void rise(ToolArgs o, PrintStream out) {
+        double bw = o.number("bandwidth");
+        double pbw = o.number("probe-bandwidth");
+        double meas = o.number("measured");
         out.println("Rise time from bandwidth");
         double ts = ProbeMath.riseFromBandwidth(bw);
         line(out, "scope " + si(bw, "Hz"), "10-90 % rise time about 0.35 / BW = " + si(ts, "s"));
@@ -272,13 +269,10 @@ public final class ProbeTool implements Tool {
 
     // ---------------------------------------------------------------------------------------- lead
 
-    private static void lead(Map<String, String> o, PrintStream out) throws UsageException {
-        if (!o.containsKey("length")) {
-            throw new UsageException("lead: option --length is required (such as --length 100mm)");
-        }
-        double mm = length(o.get("length"));
-        double c = qty(o, "capacitance", "F", 10e-12, 1e-16, 1e-6);
-        double bw = qty(o, "bandwidth", "Hz", Double.NaN, 1, 1e13);
+    private static void lead(ToolArgs o, PrintStream out) {
+        double mm = o.number("length");
+        double c = o.number("capacitance");
+        double bw = o.number("bandwidth");
         double l = ProbeMath.leadInductance(mm);
         double f = ProbeMath.resonance(l, c);
         out.println("Ground-lead resonance");
@@ -293,106 +287,11 @@ public final class ProbeTool implements Tool {
         out.println("Assumptions");
         out.println("  - a straight lead has about 1 nH per mm (common practice); a wide loop has more, a tight spring less");
         out.println("  - the lead and the probe capacitance form a series resonance f = 1 / (2 pi sqrt(L C)) (common practice)");
-        out.println("  - probe capacitance " + si(c, "F") + (o.containsKey("capacitance") ? " (given)"
+        out.println("  - probe capacitance " + si(c, "F") + (o.given("capacitance") ? " (given)"
                 : " (default: a typical 10:1 passive probe, common practice, from memory)"));
         if (!Double.isNaN(bw)) {
             out.println("  - the factor of two between resonance and bandwidth is a working margin of this tool, not a standard");
         }
-    }
-
-    // ---------------------------------------------------------------------------------------- parsing
-
-    private static final Pattern NUMBER = Pattern.compile("([+-]?(?:[0-9]+\\.?[0-9]*|\\.[0-9]+)(?:[eE][+-]?[0-9]+)?)\\s*([fpnuµmkMG]?)");
-
-    /** Parses a number with an optional SI prefix and unit; a missing option gives {@code def}. */
-    static double qty(Map<String, String> o, String name, String unit, double def, double min, double max) throws UsageException {
-        String raw = o.get(name);
-        if (raw == null) {
-            return def;
-        }
-        double v = parse(raw, unit);
-        if (Double.isNaN(v)) {
-            throw new UsageException("option --" + name + ": expected a number" + (unit.isEmpty() ? "" : " in " + unit)
-                    + " (SI prefixes allowed, such as " + example(unit) + "), got '" + raw + "'");
-        }
-        if (v < min || v > max) {
-            throw new UsageException("option --" + name + ": " + raw + " is outside " + fmt(min) + " to " + fmt(max)
-                    + (unit.isEmpty() ? "" : " " + unit));
-        }
-        return v;
-    }
-
-    static double parse(String raw, String unit) {
-        String s = raw.trim();
-        if (!unit.isEmpty()) {
-            for (String u : aliases(unit)) {
-                if (s.length() > u.length() && s.toLowerCase(Locale.ROOT).endsWith(u.toLowerCase(Locale.ROOT))) {
-                    s = s.substring(0, s.length() - u.length()).trim();
-                    break;
-                }
-            }
-        }
-        Matcher m = NUMBER.matcher(s);
-        if (!m.matches()) {
-            return Double.NaN;
-        }
-        double v = Double.parseDouble(m.group(1));
-        double mult = switch (m.group(2)) {
-            case "f" -> 1e-15;
-            case "p" -> 1e-12;
-            case "n" -> 1e-9;
-            case "u", "µ" -> 1e-6;
-            case "m" -> 1e-3;
-            case "k" -> 1e3;
-            case "M" -> 1e6;
-            case "G" -> 1e9;
-            default -> 1;
-        };
-        v *= mult;
-        return Double.isFinite(v) ? v : Double.NaN;
-    }
-
-    private static List<String> aliases(String unit) {
-        return switch (unit) {
-            case "ohm" -> List.of("ohms", "ohm", "\u03a9");
-            default -> List.of(unit);
-        };
-    }
-
-    private static String example(String unit) {
-        return switch (unit) {
-            case "ohm" -> "4.7k";
-            case "Hz" -> "500MHz";
-            case "s" -> "800ps";
-            case "F" -> "10pF";
-            case "V" -> "3.3V";
-            case "W" -> "0.25W";
-            default -> "10";
-        };
-    }
-
-    static double length(String raw) throws UsageException {
-        String s = raw.trim().toLowerCase(Locale.ROOT);
-        double scale = 1;
-        if (s.endsWith("mm")) {
-            s = s.substring(0, s.length() - 2);
-        } else if (s.endsWith("cm")) {
-            s = s.substring(0, s.length() - 2);
-            scale = 10;
-        } else if (s.endsWith("m")) {
-            s = s.substring(0, s.length() - 1);
-            scale = 1000;
-        }
-        double v;
-        try {
-            v = Double.parseDouble(s.trim()) * scale;
-        } catch (NumberFormatException e) {
-            throw new UsageException("option --length: expected a length such as 100mm, 10cm or 0.1m, got '" + raw + "'");
-        }
-        if (!(v > 0) || v > 1e5) {
-            throw new UsageException("option --length: " + raw + " is outside 0 to 100 m");
-        }
-        return v;
     }
 
     // ---------------------------------------------------------------------------------------- formatting

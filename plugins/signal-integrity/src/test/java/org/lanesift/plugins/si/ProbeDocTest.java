@@ -26,5 +26,6 @@ class ProbeDocTest {
         }
         assertTrue(n >= 5, "examples found: " + n);
         assertTrue(text.contains(ProbeTool.CAUTIONS), "the cautions block is shown in full once");
+        assertTrue(text.contains(ProbeTool.HAZARD), "the hazard block above extra-low voltage is shown in full");
     }
 }

@@ -1,4 +1,4 @@
-package org.lanesift.runner.demo;
+package org.lanesift.examples.demo;
 
 import java.nio.file.Path;
 import java.util.ArrayList;

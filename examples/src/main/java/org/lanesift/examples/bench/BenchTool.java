@@ -1,4 +1,4 @@
-package org.lanesift.runner.bench;
+package org.lanesift.examples.bench;
 
 import java.io.PrintStream;
 import java.lang.management.ManagementFactory;
@@ -14,8 +14,13 @@ import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.DataKind;
 import org.lanesift.examples.demo.Impairments;
 import org.lanesift.examples.demo.PixelLinkScene;
+import org.lanesift.plugin.OptionException;
+import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.PluginRegistry;
 import org.lanesift.plugin.Tool;
+import org.lanesift.plugin.ToolArgs;
+import org.lanesift.plugin.ToolConsole;
+import org.lanesift.plugin.ToolSpec;
 
 /**
  * {@code lanesift bench}: the whole analog chain of the demo's pixel link (leg deskew, four
@@ -30,59 +35,36 @@ public final class BenchTool implements Tool {
     public BenchTool() {
     }
 
+    /** One frame of the demo pixel link at 2.5 GS/s and 20 MHz: the smallest capture bench lays out. */
+    static final int TILE_SAMPLES = PixelLinkScene.V_TOTAL * 11_000;
+
+    /** The command line. */
+    static final ToolSpec SPEC = ToolSpec.builder("bench")
+            .summary("throughput of the whole analog chain on an in-memory capture, as a ratio to a plain sequential read")
+            .description("Runs the demo's pixel-link chain (deskew -> differential -> deskew -> 7:1 sampling -> decoder)",
+                    "over an in-memory capture of 8 channels and prints samples/s per channel, the ratio to a plain",
+                    "sequential read of the same arrays measured in the same run, and the peak heap.")
+            .option(OptionSpec.integer("samples", 50_000_000L, TILE_SAMPLES, 400_000_000L,
+                    "samples per channel, rounded to whole frames"), "N")
+            .footer("Memory: 8 x N x 4 bytes for the capture (1.6 GB at the default); the launcher's JVM default heap suffices.")
+            .build();
+
     @Override
-    public String name() {
-        return "bench";
+    public ToolSpec spec() {
+        return SPEC;
     }
 
     @Override
-    public String summary() {
-        return "throughput of the whole analog chain on an in-memory capture, as a ratio to a plain sequential read";
-    }
-
-    @Override
-    public int run(String[] args, PrintStream out, PrintStream err) {
-        long samples = 50_000_000L;
-        for (int i = 0; i < args.length; i++) {
-            switch (args[i]) {
-                case "-h", "--help" -> {
-                    out.println("Usage: lanesift bench [--samples N]");
-                    out.println("Runs the demo's pixel-link chain (deskew -> differential -> deskew -> 7:1 sampling -> decoder)");
-                    out.println("over an in-memory capture of 8 channels and prints samples/s per channel, the ratio to a plain");
-                    out.println("sequential read of the same arrays measured in the same run, and the peak heap.");
-                    out.println("  --samples N   samples per channel (default 50000000; at least 528000, rounded to whole frames)");
-                    out.println("Memory: 8 x N x 4 bytes for the capture (1.6 GB at the default); the launcher's JVM default heap suffices.");
-                    return 0;
-                }
-                case "--samples" -> {
-                    if (i + 1 >= args.length) {
-                        err.println("bench: --samples needs a number");
-                        return 2;
-                    }
-                    try {
-                        samples = Long.parseLong(args[++i].replace("_", ""));
-                    } catch (NumberFormatException e) {
-                        err.println("bench: --samples: expected a whole number of samples, got '" + args[i] + "'");
-                        return 2;
-                    }
-                }
-                default -> {
-                    err.println("bench: unknown argument '" + args[i] + "'; expected --samples N or --help");
-                    return 2;
-                }
-            }
-        }
-        int tileSamples = PixelLinkScene.V_TOTAL * 11_000; // one frame at 2.5 GS/s and 20 MHz
-        if (samples < tileSamples || samples > 400_000_000L) {
-            err.println("bench: --samples must be from " + tileSamples + " to 400000000, got " + samples);
-            return 2;
-        }
+    public int run(ToolArgs args, ToolConsole console) {
+        PrintStream out = console.out();
+        PrintStream err = console.err();
+        long samples = args.integer("samples", 50_000_000L);
+        int tileSamples = TILE_SAMPLES;
         long need = samples * 8 * 4;
         long max = Runtime.getRuntime().maxMemory();
         if (need > max * 0.8) {
-            err.println(String.format(Locale.ROOT, "bench: %d samples x 8 channels need %.1f GB of heap, the JVM has %.1f GB; "
-                    + "use fewer --samples or a larger -Xmx", samples, need / 1e9, max / 1e9));
-            return 2;
+            throw new OptionException("samples", String.format(Locale.ROOT, "bench: %d samples x 8 channels need %.1f GB of heap, "
+                    + "the JVM has %.1f GB; use fewer --samples or a larger -Xmx", samples, need / 1e9, max / 1e9));
         }
         out.printf(Locale.ROOT, "lanesift bench: rendering one frame of the demo pixel link and laying %d samples per channel "
                 + "in memory...%n", samples);
@@ -114,7 +96,7 @@ public final class BenchTool implements Tool {
         for (String id : new String[] {"deskew", "differential", "dual-edge", "pixel-link"}) {
             if (reg.find(id) == null) {
                 err.println("bench: plugin '" + id + "' is not on the class path");
-                return 2;
+                return 1;
             }
         }
         // warm up the JIT on the first 10 % of the capture

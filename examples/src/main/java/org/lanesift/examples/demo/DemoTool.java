@@ -1,18 +1,15 @@
-package org.lanesift.runner.demo;
+package org.lanesift.examples.demo;
 
-import com.fasterxml.jackson.databind.JsonNode;
-import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.SerializationFeature;
-import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.awt.image.BufferedImage;
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
+import java.io.UncheckedIOException;
 import java.io.PrintStream;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.Iterator;
+import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
@@ -20,66 +17,49 @@ import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
 import javax.imageio.ImageIO;
-import org.lanesift.examples.demo.CaptureFiles;
-import org.lanesift.examples.demo.Impairments;
-import org.lanesift.examples.demo.PacketLinkScene;
-import org.lanesift.examples.demo.PixelLinkScene;
+import org.lanesift.json.JsonReader;
+import org.lanesift.json.JsonValue;
+import org.lanesift.json.JsonWriter;
+import org.lanesift.plugin.OptionSpec;
+import org.lanesift.plugin.OutputException;
 import org.lanesift.plugin.Tool;
-import org.lanesift.runner.Main;
+import org.lanesift.plugin.ToolArgs;
+import org.lanesift.plugin.ToolConsole;
+import org.lanesift.plugin.ToolSpec;
+import org.lanesift.runner.ChainRun;
 
 /**
  * {@code lanesift demo}: writes the invented demo scenario's captures as instrument exports, the
  * chain files it uses, runs them (three passes per link: leg skew, lane skew, decode) and compares
- * what was decoded with the scenario's ground truth.
+ * what was decoded with the scenario's ground truth. It lives beside the scenario and reaches the
+ * runner through its Java API ({@link ChainRun}); the runner finds it through ServiceLoader.
  */
 public final class DemoTool implements Tool {
-    private static final ObjectMapper JSON = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
+    /** The command line. */
+    static final ToolSpec SPEC = ToolSpec.builder("demo")
+            .summary("runs the main job on the bundled demo scenario and compares it with the scenario's ground truth")
+            .description("Writes the demo scenario (docs/demo-scenario.md) as instrument exports (raw + sidecar, CSV),",
+                    "the chain files it uses, runs them and compares the result with the scenario's ground truth.")
+            .option(OptionSpec.text("out", "lanesift-demo", "output directory"), "DIR")
+            .footer("Exit codes: 0 everything matched, 1 a mismatch or failure, 2 bad arguments.")
+            .build();
 
     /** Creates the tool (ServiceLoader). */
     public DemoTool() {
     }
 
     @Override
-    public String name() {
-        return "demo";
+    public ToolSpec spec() {
+        return SPEC;
     }
 
     @Override
-    public String summary() {
-        return "runs the main job on the bundled demo scenario and compares it with the scenario's ground truth";
-    }
-
-    @Override
-    public int run(String[] args, PrintStream out, PrintStream err) {
-        Path dir = Path.of("lanesift-demo");
-        for (int i = 0; i < args.length; i++) {
-            switch (args[i]) {
-                case "-h", "--help" -> {
-                    out.println("Usage: lanesift demo [--out DIR]");
-                    out.println("Writes the demo scenario (docs/demo-scenario.md) as instrument exports (raw + sidecar, CSV),");
-                    out.println("the chain files it uses, runs them and compares the result with the scenario's ground truth.");
-                    out.println("  --out DIR   output directory (default lanesift-demo)");
-                    out.println("Exit codes: 0 everything matched, 1 a mismatch or failure, 2 bad arguments.");
-                    return 0;
-                }
-                case "--out" -> {
-                    if (i + 1 >= args.length) {
-                        err.println("demo: --out needs a directory");
-                        return 2;
-                    }
-                    dir = Path.of(args[++i]);
-                }
-                default -> {
-                    err.println("demo: unknown argument '" + args[i] + "'; expected --out DIR or --help");
-                    return 2;
-                }
-            }
-        }
+    public int run(ToolArgs args, ToolConsole console) {
+        Path dir = Path.of(args.text("out"));
         try {
-            return new DemoRun(dir, out, err).execute();
-        } catch (IOException e) {
-            err.println("demo: " + e.getMessage());
-            return 1;
+            return new DemoRun(dir, console.out(), console.err()).execute();
+        } catch (IOException | UncheckedIOException e) {
+            throw new OutputException("demo: " + dir + ": " + e.getMessage(), e);
         }
     }
 
@@ -134,11 +114,13 @@ public final class DemoTool implements Tool {
 
         private void runChain(Map<String, Object> model, String name, Path outDir) throws IOException {
             Path chain = dir.resolve("chains").resolve(name);
-            JSON.writeValue(chain.toFile(), model);
+            JsonWriter w = JsonWriter.pretty();
+            writeJson(w, model);
+            Files.writeString(chain, w.finish() + "\n", StandardCharsets.UTF_8);
             ByteArrayOutputStream o = new ByteArrayOutputStream();
             ByteArrayOutputStream e = new ByteArrayOutputStream();
-            int code = Main.run(new String[] {"--quiet", "run", chain.toString(), "--out", outDir.toString()},
-                    new PrintStream(o, true, StandardCharsets.UTF_8), new PrintStream(e, true, StandardCharsets.UTF_8));
+            int code = ChainRun.of(chain).out(outDir).quiet(true)
+                    .run(new PrintStream(o, true, StandardCharsets.UTF_8), new PrintStream(e, true, StandardCharsets.UTF_8));
             if (code != 0) {
                 throw new DemoFailure("chain " + chain + " failed (exit " + code + "): " + e.toString(StandardCharsets.UTF_8).trim());
             }
@@ -146,31 +128,31 @@ public final class DemoTool implements Tool {
 
         /** Merges the per-instance skew tables of a pass into one table, keeping only confident entries. */
         private Path mergeTables(Path passDir, String prefix, Path target, List<String> notes) throws IOException {
-            ObjectNode merged = JSON.createObjectNode();
-            merged.put("format", "lanesift-skew-table");
-            merged.put("version", 1);
-            merged.put("mode", prefix.startsWith("legs") ? "legs" : "lanes");
-            ObjectNode channels = merged.putObject("channels");
+            Map<String, JsonValue> channels = new LinkedHashMap<>();
             try (var files = Files.list(passDir)) {
                 for (Path f : files.filter(p -> p.getFileName().toString().startsWith(prefix)
                         && p.getFileName().toString().endsWith("-skew.json")).sorted().toList()) {
-                    JsonNode t = JSON.readTree(f.toFile());
-                    Iterator<Map.Entry<String, JsonNode>> it = t.get("channels").fields();
-                    while (it.hasNext()) {
-                        Map.Entry<String, JsonNode> en = it.next();
-                        ObjectNode entry = en.getValue().deepCopy();
-                        double conf = entry.path("confidence").asDouble(1);
+                    JsonValue t = read(f);
+                    for (Map.Entry<String, JsonValue> en : t.get("channels").members().entrySet()) {
+                        Map<String, JsonValue> entry = new LinkedHashMap<>(en.getValue().members());
+                        double conf = number(entry.get("confidence"), 1);
                         if (conf < 0.5) {
-                            notes.add(en.getKey() + ": estimate " + fmt(entry.get("offsetPs").asDouble()) + " ps has confidence "
+                            notes.add(en.getKey() + ": estimate " + fmt(number(entry.get("offsetPs"), 0)) + " ps has confidence "
                                     + fmt(conf) + ", not applied (0 ps used)");
-                            entry.put("offsetPs", 0.0);
-                            entry.put("method", "manual");
+                            entry.put("offsetPs", JsonValue.number(0.0));
+                            entry.put("method", JsonValue.string("manual"));
                         }
-                        channels.set(en.getKey(), entry);
+                        channels.put(en.getKey(), JsonValue.object(entry));
                     }
                 }
             }
-            JSON.writeValue(target.toFile(), merged);
+            JsonWriter w = JsonWriter.pretty().beginObject()
+                    .field("format", "lanesift-skew-table")
+                    .field("version", 1)
+                    .field("mode", prefix.startsWith("legs") ? "legs" : "lanes")
+                    .name("channels").value(JsonValue.object(channels))
+                    .endObject();
+            Files.writeString(target, w.finish() + "\n", StandardCharsets.UTF_8);
             return target;
         }
 
@@ -244,50 +226,50 @@ public final class DemoTool implements Tool {
                     "pixel link: %d of %d pixels match in %d complete frames%s; partial first frame labelled partial: %s",
                     match, total, t.completeFrames().size(), missing.isEmpty() ? "" : " (missing " + missing + ")",
                     partialOk ? "yes" : "NO"));
-            JsonNode timing = JSON.readTree(dir.resolve("pixel/panel-timing.json").toFile());
+            JsonValue timing = read(dir.resolve("pixel/panel-timing.json"));
             int[] expH = {PixelLinkScene.H_ACTIVE, PixelLinkScene.H_FRONT, PixelLinkScene.H_SYNC, PixelLinkScene.H_BACK, PixelLinkScene.H_TOTAL};
             int[] expV = {PixelLinkScene.V_ACTIVE, PixelLinkScene.V_FRONT, PixelLinkScene.V_SYNC, PixelLinkScene.V_BACK, PixelLinkScene.V_TOTAL};
             String[] keys = {"active", "frontPorch", "syncWidth", "backPorch", "total"};
             boolean timingOk = true;
             StringBuilder got = new StringBuilder();
             for (int i = 0; i < keys.length; i++) {
-                int h = timing.path("horizontal").path(keys[i]).path("value").asInt(-1);
-                int v = timing.path("vertical").path(keys[i]).path("value").asInt(-1);
+                int h = (int) number(at(timing, "horizontal", keys[i], "value"), -1);
+                int v = (int) number(at(timing, "vertical", keys[i], "value"), -1);
                 timingOk &= h == expH[i] && v == expV[i];
                 got.append(i == 0 ? "" : "/").append(h);
             }
-            double clk = timing.path("pixelClockHz").path("value").asDouble();
+            double clk = number(at(timing, "pixelClockHz", "value"), 0);
             timingOk &= Math.abs(clk - t.pixelClockHz()) < 1e-4 * t.pixelClockHz();
             check(timingOk, String.format(Locale.ROOT, "pixel link timing: H %s, V %d/%d/%d/%d/%d lines, pixel clock %.4f MHz "
                             + "(truth 64/8/8/8/88, 40/2/2/4/48, 20 MHz)", got,
-                    timing.path("vertical").path("active").path("value").asInt(), timing.path("vertical").path("frontPorch").path("value").asInt(),
-                    timing.path("vertical").path("syncWidth").path("value").asInt(), timing.path("vertical").path("backPorch").path("value").asInt(),
-                    timing.path("vertical").path("total").path("value").asInt(), clk / 1e6));
+                    vertical(timing, "active"), vertical(timing, "frontPorch"), vertical(timing, "syncWidth"),
+                    vertical(timing, "backPorch"), vertical(timing, "total"), clk / 1e6));
             skewLines("pixel link", dir.resolve("skew/pixel-legs.json"), dir.resolve("skew/pixel-lanes.json"),
                     DemoChains.PIXEL_PAIRS, t.legSkewPs(), t.laneSkewPs(), pixelNotes);
-            JsonNode ring = JSON.readTree(dir.resolve("pixel/ring-ringing.json").toFile()).path("summary");
-            double fn = ring.path("naturalHz").asDouble();
+            JsonValue ring = at(read(dir.resolve("pixel/ring-ringing.json")), "summary");
+            double fn = number(at(ring, "naturalHz"), 0);
             double truthFn = Impairments.pixelLinkDefaults().ringFrequencyHz();
             check(Math.abs(fn - truthFn) < 0.05 * truthFn, String.format(Locale.ROOT,
                     "probe ringing on CLK_P: natural frequency %.1f MHz, damping %.3f (scenario: %.1f MHz, %.2f)", fn / 1e6,
-                    ring.path("dampingRatio").asDouble(), truthFn / 1e6, Impairments.pixelLinkDefaults().ringDamping()));
+                    number(at(ring, "dampingRatio"), 0), truthFn / 1e6, Impairments.pixelLinkDefaults().ringDamping()));
             report.append("Files: `pixel/` (frames `panel-frame-N.png`, `panel-timing.json`/`.txt`, `eye-eye.png`, ")
                     .append("`sampler-margins.json`, `ring-ringing.json`, `jitter-jitter.json`, `report.md` of the decode pass).\n\n");
         }
 
         private void comparePacket(PacketLinkScene.Truth t) throws IOException {
             report.append("## Part (b): packet link\n\n");
-            JsonNode log = JSON.readTree(dir.resolve("packet/dsi-commands.json").toFile()).path("commands");
+            JsonValue commands = at(read(dir.resolve("packet/dsi-commands.json")), "commands");
+            List<JsonValue> log = commands != null && commands.isArray() ? commands.elements() : List.of();
             int match = 0;
             int n = t.commands().size();
             List<String> diffs = new ArrayList<>();
             for (int i = 0; i < n; i++) {
                 PacketLinkScene.Command c = t.commands().get(i);
-                JsonNode d = log.path(i);
+                JsonValue d = i < log.size() ? log.get(i) : null;
                 boolean memory = c.command() == 0x2C || c.command() == 0x3C;
-                boolean ok = d.isObject() && Integer.decode(d.path("command").asText("-1")) == c.command()
-                        && Integer.decode(d.path("dataType").asText("-1")) == c.dataType()
-                        && (memory || d.path("params").asText("").equals(hex(c.params())));
+                boolean ok = d != null && d.isObject() && Integer.decode(text(at(d, "command"), "-1")) == c.command()
+                        && Integer.decode(text(at(d, "dataType"), "-1")) == c.dataType()
+                        && (memory || text(at(d, "params"), "").equals(hex(c.params())));
                 if (ok) {
                     match++;
                 } else if (diffs.size() < 5) {
@@ -325,14 +307,14 @@ public final class DemoTool implements Tool {
         /** Skew errors: the corrections should be minus the injected skews. */
         private void skewLines(String link, Path legs, Path lanes, String[][] pairs, double[] legTruth, double[] laneTruth,
                                List<String> notes) throws IOException {
-            JsonNode lg = JSON.readTree(legs.toFile()).path("channels");
-            JsonNode ln = JSON.readTree(lanes.toFile()).path("channels");
+            JsonValue lg = at(read(legs), "channels");
+            JsonValue ln = at(read(lanes), "channels");
             StringBuilder legText = new StringBuilder();
             double worst = 0;
             for (int k = 0; k < pairs.length; k++) {
-                double corr = lg.path(pairs[k][2]).path("offsetPs").asDouble() - lg.path(pairs[k][1]).path("offsetPs").asDouble();
+                double corr = number(at(lg, pairs[k][2], "offsetPs"), 0) - number(at(lg, pairs[k][1], "offsetPs"), 0);
                 double errPs = corr + legTruth[k];
-                boolean applied = !lg.path(pairs[k][2]).path("method").asText().equals("manual");
+                boolean applied = !text(at(lg, pairs[k][2], "method"), "").equals("manual");
                 legText.append(String.format(Locale.ROOT, "%s%s %+.1f ps (truth %+.0f, error %s)", k == 0 ? "" : ", ", pairs[k][2],
                         -corr, legTruth[k], applied ? String.format(Locale.ROOT, "%.1f ps", errPs) : "not estimated"));
                 if (applied) {
@@ -342,7 +324,7 @@ public final class DemoTool implements Tool {
             StringBuilder laneText = new StringBuilder();
             double worstLane = 0;
             for (int k = 1; k < pairs.length; k++) {
-                double corr = ln.path(pairs[k][0]).path("offsetPs").asDouble() - ln.path(pairs[0][0]).path("offsetPs").asDouble();
+                double corr = number(at(ln, pairs[k][0], "offsetPs"), 0) - number(at(ln, pairs[0][0], "offsetPs"), 0);
                 double errPs = corr + laneTruth[k - 1];
                 worstLane = Math.max(worstLane, Math.abs(errPs));
                 laneText.append(String.format(Locale.ROOT, "%s%s %+.1f ps (truth %+.0f, error %.1f ps)", k == 1 ? "" : ", ", pairs[k][0],
@@ -377,6 +359,62 @@ public final class DemoTool implements Tool {
             r.append(String.format(Locale.ROOT, "Result: %s (%.1f s).%n", allMatched ? "everything matched the ground truth"
                     : "mismatches against the ground truth", seconds));
             Files.writeString(dir.resolve("report.md"), r.toString());
+        }
+
+        private static JsonValue read(Path f) throws IOException {
+            return JsonReader.parse(f.getFileName().toString(), Files.readString(f, StandardCharsets.UTF_8));
+        }
+
+        /** The member at a path of names, or null where one is missing or not an object. */
+        private static JsonValue at(JsonValue v, String... names) {
+            JsonValue c = v;
+            for (String n : names) {
+                if (c == null || !c.isObject()) {
+                    return null;
+                }
+                c = c.get(n);
+            }
+            return c;
+        }
+
+        private static double number(JsonValue v, double absent) {
+            return v != null && v.isNumber() ? v.asDouble() : absent;
+        }
+
+        private static String text(JsonValue v, String absent) {
+            return v != null && v.isString() ? v.asString() : absent;
+        }
+
+        private static int vertical(JsonValue timing, String key) {
+            return (int) number(at(timing, "vertical", key, "value"), 0);
+        }
+
+        /** Writes the chain model: maps, lists, strings, numbers and booleans. */
+        private static void writeJson(JsonWriter w, Object v) {
+            if (v instanceof Map<?, ?> m) {
+                w.beginObject();
+                for (Map.Entry<?, ?> e : m.entrySet()) {
+                    w.name(e.getKey().toString());
+                    writeJson(w, e.getValue());
+                }
+                w.endObject();
+            } else if (v instanceof List<?> l) {
+                w.beginArray();
+                for (Object o : l) {
+                    writeJson(w, o);
+                }
+                w.endArray();
+            } else if (v instanceof String str) {
+                w.value(str);
+            } else if (v instanceof Boolean b) {
+                w.value(b);
+            } else if (v instanceof Integer || v instanceof Long) {
+                w.value(((Number) v).longValue());
+            } else if (v instanceof Number n) {
+                w.value(n.doubleValue());
+            } else {
+                throw new IllegalArgumentException("chain model: unexpected " + v);
+            }
         }
 
         private static String hex(byte[] b) {

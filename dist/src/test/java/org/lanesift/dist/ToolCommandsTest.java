@@ -1,0 +1,119 @@
+package org.lanesift.dist;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.ByteArrayOutputStream;
+import java.io.PrintStream;
+import java.nio.charset.StandardCharsets;
+import java.util.List;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.ValueSource;
+import org.junit.jupiter.api.Test;
+import org.lanesift.runner.Main;
+
+/** Every command, built-in or contributed by a module, through the one command line of the shaded distribution. */
+class ToolCommandsTest {
+    record Run(int code, String out, String err) {
+        List<String> errLines() {
+            return err.lines().toList();
+        }
+    }
+
+    static Run run(String... args) {
+        ByteArrayOutputStream o = new ByteArrayOutputStream();
+        ByteArrayOutputStream e = new ByteArrayOutputStream();
+        int code = Main.run(args, new PrintStream(o, true, StandardCharsets.UTF_8), new PrintStream(e, true, StandardCharsets.UTF_8));
+        return new Run(code, o.toString(StandardCharsets.UTF_8), e.toString(StandardCharsets.UTF_8));
+    }
+
+    @ParameterizedTest
+    @ValueSource(strings = {"run", "plugins", "inspect", "probe", "probe divider", "probe rise", "probe lead", "cable-delay",
+        "capture", "simulate-device", "live", "demo", "bench"})
+    void everyCommandAnswersHelpWithExitZero(String command) {
+        String[] words = command.split(" ");
+        String[] args = java.util.Arrays.copyOf(words, words.length + 1);
+        args[words.length] = "--help";
+        Run r = run(args);
+        assertEquals(0, r.code(), r::toString);
+        assertTrue(r.out().startsWith("Usage: lanesift " + command), r::toString);
+        assertEquals("", r.err());
+    }
+
+    @Test
+    void globalSwitchesWorkAfterAContributedCommandsOptions() {
+        Run plain = run("cable-delay", "--length", "0.1");
+        Run debug = run("cable-delay", "--length", "0.1", "--debug");
+        Run quiet = run("cable-delay", "--length", "0.1", "--quiet");
+        assertEquals(0, plain.code(), plain::toString);
+        assertEquals(0, debug.code(), debug::toString);
+        assertEquals(0, quiet.code(), quiet::toString);
+        assertTrue(plain.out().startsWith("delay 505.4 ps"), plain::toString);
+        assertEquals(plain.out(), debug.out());
+        assertEquals(plain.out(), quiet.out());
+        Run probe = run("probe", "rise", "--bandwidth", "500MHz", "--quiet");
+        assertEquals(0, probe.code(), probe::toString);
+        assertTrue(probe.out().contains("700 ps"), probe::toString);
+        Run probeDebug = run("--debug", "probe", "lead", "--length", "10cm", "--debug");
+        assertEquals(0, probeDebug.code(), probeDebug::toString);
+    }
+
+    @Test
+    void unitsAndPrefixesAreTakenEverywhere() {
+        Run metres = run("cable-delay", "--length", "0.1", "--bit-rate", "200e6");
+        for (String[] same : List.of(new String[] {"--length", "10cm", "--bit-rate", "200Mbit/s"},
+                new String[] {"--length", "100mm", "--bit-rate", "0.2Gbit/s"}, new String[] {"--length=0.1m", "--bit-rate=200e6"})) {
+            String[] args = new String[same.length + 1];
+            args[0] = "cable-delay";
+            System.arraycopy(same, 0, args, 1, same.length);
+            Run r = run(args);
+            assertEquals(0, r.code(), r::toString);
+            assertEquals(metres.out(), r.out(), String.join(" ", args));
+        }
+        // micro in its three spellings: u, U+00B5 (micro sign), U+03BC (Greek mu)
+        Run u = run("probe", "rise", "--bandwidth", "500MHz", "--measured", "0.001us");
+        for (String mu : List.of("0.001\u00b5s", "0.001\u03bcs")) {
+            Run r = run("probe", "rise", "--bandwidth", "500MHz", "--measured", mu);
+            assertEquals(0, r.code(), r::toString);
+            assertEquals(u.out(), r.out());
+        }
+    }
+
+    @Test
+    void aBadValueIsOneLineNamingTheOptionWithExitTwoForEveryCommand() {
+        Run builtIn = run("run", "x.json", "--jobs", "many");
+        Run contributed = run("cable-delay", "--length", "ten");
+        Run nested = run("probe", "lead", "--length", "far");
+        Run capture = run("capture", "--simulate", "--channels", "9");
+        for (Run r : List.of(builtIn, contributed, nested, capture)) {
+            assertEquals(2, r.code(), r::toString);
+            assertEquals(1, r.errLines().size(), r::toString);
+            assertEquals("", r.out(), r::toString);
+        }
+        // the same shape: "lanesift COMMAND: Invalid value for option '--NAME': WHAT (see: lanesift COMMAND --help)"
+        String shape = "lanesift [a-z -]+: Invalid value for option '--[a-z-]+': .+ \\(see: lanesift [a-z -]+ --help\\)";
+        for (Run r : List.of(builtIn, contributed, nested, capture)) {
+            assertTrue(r.errLines().get(0).matches(shape), r::toString);
+        }
+        assertEquals("lanesift cable-delay: Invalid value for option '--length': expected a number in -10000 to 10000 m, got 'ten'"
+                + " (see: lanesift cable-delay --help)", contributed.errLines().get(0));
+        assertEquals("lanesift capture: Invalid value for option '--channels': 9 is outside the allowed range 1 to 8"
+                + " (see: lanesift capture --help)", capture.errLines().get(0));
+    }
+
+    @Test
+    void missingValuesUnknownOptionsAndMissingSubcommandsAreOneLine() {
+        for (String[] args : List.of(new String[] {"cable-delay", "--length"}, new String[] {"cable-delay", "--length", "1", "--colour", "red"},
+                new String[] {"probe"}, new String[] {"probe", "nope"}, new String[] {"probe", "rise"}, new String[] {"demo", "--frobnicate"},
+                new String[] {"bench", "--samples", "12"}, new String[] {"simulate-device", "--mb", "1"})) {
+            Run r = run(args);
+            assertEquals(2, r.code(), () -> String.join(" ", args) + ": " + r);
+            assertEquals(1, r.errLines().size(), r::toString);
+            assertTrue(r.errLines().get(0).startsWith("lanesift "), r::toString);
+        }
+        assertEquals(List.of("lanesift probe: missing subcommand: expected one of divider, rise, lead (see: lanesift probe --help)"),
+                run("probe").errLines());
+        assertEquals(List.of("lanesift probe divider: divider: give exactly one of --ratio N or --resistor OHMS"
+                + " (see: lanesift probe divider --help)"), run("probe", "divider", "--level", "1").errLines());
+    }
+}
