@@ -1,0 +1,55 @@
+package org.lanesift.kit;
+
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertNull;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Random;
+import org.junit.jupiter.api.Test;
+import org.lanesift.data.Edges;
+
+class EdgeListBuilderTest {
+    @Test
+    void buildsExactArraysOfWhatWasAddedAcrossGrowth() {
+        Random r = new Random(9);
+        EdgeListBuilder b = new EdgeListBuilder(1);
+        for (int round = 0; round < 3; round++) {
+            b.clear();
+            List<Long> times = new ArrayList<>();
+            List<Long> spans = new ArrayList<>();
+            long t = 1000;
+            int n = r.nextInt(5000);
+            for (int i = 0; i < n; i++) {
+                t += 1 + r.nextInt(1000);
+                if (r.nextInt(50) == 0) {
+                    b.addSpan(t, t + 5);
+                    spans.add(t);
+                    spans.add(t + 5);
+                    t += 5;
+                } else {
+                    if (r.nextInt(7) == 0) {
+                        b.reserve(r.nextInt(100));
+                    }
+                    b.addTime(t);
+                    times.add(t);
+                }
+            }
+            Edges e = b.build("d", 0, t + 1, round == 1);
+            assertEquals(times.size(), e.count());
+            assertEquals(times.size(), e.timesFs().length);
+            assertArrayEquals(times.stream().mapToLong(Long::longValue).toArray(), e.timesFs());
+            assertEquals(spans.size() / 2, e.invalidCount());
+            if (spans.isEmpty()) {
+                assertNull(e.invalidSpans());
+            } else {
+                assertArrayEquals(spans.stream().mapToLong(Long::longValue).toArray(), e.invalidSpans());
+            }
+            assertEquals(round == 1, e.initialLevel());
+            for (int i = 0; i < b.timeCount(); i++) {
+                assertEquals(times.get(i), b.time(i));
+            }
+        }
+    }
+}
