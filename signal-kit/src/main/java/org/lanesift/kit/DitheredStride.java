@@ -1,10 +1,12 @@
 package org.lanesift.kit;
 
 /**
- * Chooses on average one sample in {@code stride} for statistics, without aliasing: whether sample
- * {@code index} (counted from the stream start) is taken depends on a hash of the index alone, so
- * the chosen samples fall at every phase of any periodic signal (a fixed stride of 16 sees only
- * five phases of an 80-sample clock period) and do not depend on where blocks are cut.
+ * Chooses one sample in each run of {@code stride} samples for statistics, at a position within
+ * the run that a hash of the run's number decides (stratified, jittered sampling). The chosen
+ * samples fall at every phase of any periodic signal, where a fixed stride of 16 sees only five
+ * phases of an 80-sample clock period, yet exactly one sample in {@code stride} is taken, spread as
+ * evenly as a fixed stride spreads them. The choice depends on the sample index from the stream
+ * start alone, so it does not depend on where blocks are cut.
  *
  * <p>The hash is the SplitMix64 output function (Steele, Lea and Flood, Fast splittable
  * pseudorandom number generators, OOPSLA 2014), whose output bits pass the usual randomness tests.
@@ -17,11 +19,35 @@ public final class DitheredStride {
      * Whether a sample is taken.
      *
      * @param index  sample index from the stream start
-     * @param stride mean distance between taken samples, at least 1 (1 takes every sample)
+     * @param stride length of the runs, at least 1 (1 takes every sample)
      * @return true when the sample counts
      */
     public static boolean taken(long index, int stride) {
-        return stride <= 1 || Long.remainderUnsigned(mix(index), stride) == 0;
+        if (stride <= 1) {
+            return true;
+        }
+        long run = Math.floorDiv(index, stride);
+        return index - run * stride == offset(run, stride);
+    }
+
+    /**
+     * The first sample taken at or after {@code index}.
+     *
+     * @param index  sample index from the stream start
+     * @param stride length of the runs, at least 1
+     * @return the index of the next sample taken
+     */
+    public static long next(long index, int stride) {
+        if (stride <= 1) {
+            return index;
+        }
+        long run = Math.floorDiv(index, stride);
+        long k = run * stride + offset(run, stride);
+        return k >= index ? k : (run + 1) * stride + offset(run + 1, stride);
+    }
+
+    private static long offset(long run, int stride) {
+        return Long.remainderUnsigned(mix(run), stride);
     }
 
     /**

@@ -10,8 +10,10 @@ import java.util.Arrays;
  * threshold: Ridler and Calvard, Picture thresholding using an iterative selection method, IEEE
  * Trans. SMC-8, 1978): start from the middle of the 0.1 and 99.9 percentiles, split the samples
  * there, move the threshold to the mean of the two class means, repeat until the split no longer
- * moves. Each level is then the median of its class, so samples on an edge or in ringing do not
- * pull it in. Nothing depends on histogram bins, so ADC code steps cannot make a bin peak out of
+ * moves; then repeat the same with the mean of the central half of each class (the interquartile
+ * mean, J. W. Tukey's midmean) in place of its mean. Each level is the midmean of its class, so
+ * samples on an edge or in ringing do not pull it in, and the final split sits halfway between
+ * the levels, so a sine's two crests come out symmetric. Nothing depends on histogram bins, so ADC code steps cannot make a bin peak out of
  * step with the real level, and every sample given is used (no stride to alias with a period).
  *
  * <p><b>Two levels or one.</b> The result says {@link TwoLevels#twoLevels()} when each class holds
@@ -92,8 +94,19 @@ public final class TwoLevelFinder {
         if (split == 0 || split == n) {
             return new TwoLevels(min, max, min, max, median, median, false);
         }
-        double low = median(s, 0, split);
-        double high = median(s, split, n);
+        // then the same iteration with the midmeans, which edges and ringing do not pull in
+        double low = midmean(prefix, 0, split);
+        double high = midmean(prefix, split, n);
+        for (int it = 0; it < MAX_ITERATIONS; it++) {
+            thr = 0.5 * (low + high);
+            int next = upperBound(s, n, thr);
+            if (next == split || next == 0 || next == n) {
+                break;
+            }
+            split = next;
+            low = midmean(prefix, 0, split);
+            high = midmean(prefix, split, n);
+        }
         double spread = Math.max(iqr(s, 0, split), iqr(s, split, n));
         boolean enough = split >= MIN_CLASS_FRACTION * n && n - split >= MIN_CLASS_FRACTION * n;
         boolean apart = high - low > MIN_SEPARATION_IQR * spread && high - low > MIN_RANGE;
@@ -122,6 +135,14 @@ public final class TwoLevelFinder {
         int c = to - from;
         int h = from + c / 2;
         return (c & 1) == 1 ? s[h] : 0.5 * ((double) s[h - 1] + s[h]);
+    }
+
+    /** Mean of the central half of a sorted run, from its prefix sums. */
+    private static double midmean(double[] prefix, int from, int to) {
+        int c = to - from;
+        int a = from + c / 4;
+        int z = to - c / 4;
+        return (prefix[z] - prefix[a]) / (z - a);
     }
 
     /** Interquartile range of a sorted run, nearest-rank quartiles. */

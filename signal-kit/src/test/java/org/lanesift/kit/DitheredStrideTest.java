@@ -15,18 +15,23 @@ class DitheredStrideTest {
     }
 
     @Test
-    void takesOneInStrideOnAverage() {
+    void takesExactlyOneInEachRunAndNextAgreesWithTaken() {
         for (int stride : new int[] {2, 7, 16, 64}) {
-            long taken = 0;
-            int n = 1_000_000;
-            for (long i = 0; i < n; i++) {
-                if (DitheredStride.taken(i, stride)) {
-                    taken++;
+            long previous = -1;
+            for (long run = -3; run < 20_000; run++) {
+                int inRun = 0;
+                for (long i = run * stride; i < (run + 1) * stride; i++) {
+                    if (DitheredStride.taken(i, stride)) {
+                        inRun++;
+                        // oracle for next(): a plain scan forward with taken()
+                        for (long from = previous + 1; from <= i; from++) {
+                            assertEquals(i, DitheredStride.next(from, stride));
+                        }
+                        previous = i;
+                    }
                 }
+                assertEquals(1, inRun, "run " + run + " of stride " + stride);
             }
-            double expected = (double) n / stride;
-            // binomial: within 5 standard deviations
-            assertEquals(expected, taken, 5 * Math.sqrt(expected));
         }
     }
 

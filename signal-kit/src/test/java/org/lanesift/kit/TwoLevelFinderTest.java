@@ -59,7 +59,7 @@ class TwoLevelFinderTest {
         float[] v = nrz(-0.175, 0.175, 2.2e-9, 200e-12, 300e-12, 0.002, stepVolts, 40_000, 11);
         TwoLevels lv = TwoLevelFinder.find(v, v.length);
         assertTrue(lv.twoLevels());
-        // within half a code step (the median of a class is a code) plus noise and edge effects
+        // within half a code step plus noise and edge effects
         assertEquals(-0.175, lv.low(), stepVolts / 2 + 0.002);
         assertEquals(0.175, lv.high(), stepVolts / 2 + 0.002);
     }
@@ -94,9 +94,11 @@ class TwoLevelFinderTest {
         }
         TwoLevels lv = TwoLevelFinder.find(v, v.length);
         assertTrue(lv.twoLevels());
-        // the class medians of a sine's two halves sit at sin(45 deg) of the amplitude (arcsine distribution)
-        assertEquals(0.3 - 0.2 * Math.sqrt(0.5), lv.low(), 0.003);
-        assertEquals(0.3 + 0.2 * Math.sqrt(0.5), lv.high(), 0.003);
+        // a sine's two crests are found symmetric about its centre, between the crest mean over the half-wave
+        // (2/pi of the amplitude) and the amplitude
+        assertEquals(lv.high() - 0.3, 0.3 - lv.low(), 2e-4);
+        assertTrue(lv.high() - 0.3 > 0.2 * 2 / Math.PI && lv.high() - 0.3 < 0.2, "crest " + lv.high());
+        assertEquals(0.3, lv.mid(), 1e-4);
     }
 
     @Test

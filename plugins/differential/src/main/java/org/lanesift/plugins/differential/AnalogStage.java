@@ -18,6 +18,8 @@ import org.lanesift.data.Edges;
 import org.lanesift.data.LogicBlock;
 import org.lanesift.json.JsonWriter;
 import org.lanesift.json.NumberStyle;
+import org.lanesift.kit.TwoLevelFinder;
+import org.lanesift.kit.TwoLevels;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
 
@@ -305,7 +307,7 @@ final class AnalogStage implements Stage {
                     .label("no valid samples to learn levels from").number("thresholdVolts", thr, "V")
                     .number("hysteresisVolts", hys, "V").build());
         } else {
-            LevelFinder.Levels lv = LevelFinder.find(v, nv);
+            TwoLevels lv = TwoLevelFinder.find(v, nv);
             double swing = lv.twoLevels() ? lv.swing() : lv.max() - lv.min();
             if (lv.twoLevels()) {
                 levelLow = lv.low();
