@@ -4,6 +4,7 @@ import java.nio.charset.StandardCharsets;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
+import org.lanesift.kit.SampleStats;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.Artifact;
@@ -65,7 +66,7 @@ public final class JitterPlugin implements PluginProvider {
      * @param period       period distribution, ps (consecutive edges only)
      * @param cycleToCycle difference of consecutive periods, ps
      */
-    record Result(int edges, double periodFs, long gaps, Distribution tie, Distribution period, Distribution cycleToCycle) {
+    record Result(int edges, double periodFs, long gaps, SampleStats tie, SampleStats period, SampleStats cycleToCycle) {
         /** RMS of the TIE about zero (the least-squares line makes its mean zero). */
         double tieRmsPs() {
             return Math.hypot(tie.mean(), tie.std());
@@ -85,9 +86,9 @@ public final class JitterPlugin implements PluginProvider {
      */
     static Result analyse(long[] t, int n) {
         int keep = Math.min(n, 1 << 20);
-        Distribution tie = new Distribution("ps", keep);
-        Distribution period = new Distribution("ps", keep);
-        Distribution c2c = new Distribution("ps", keep);
+        SampleStats tie = new SampleStats("ps", keep);
+        SampleStats period = new SampleStats("ps", keep);
+        SampleStats c2c = new SampleStats("ps", keep);
         if (n < 3) {
             return new Result(n, Double.NaN, 0, tie, period, c2c);
         }
@@ -222,19 +223,19 @@ public final class JitterPlugin implements PluginProvider {
             j.field("cycleToCyclePeakToPeakPs", r.cycleToCycle().peakToPeak());
             j.field("definitions", "TIE: edge time minus a least-squares line through edge time against edge number; "
                     + "period jitter: sd of consecutive edge intervals; cycle-to-cycle: differences of consecutive periods (RMS about 0)");
-            r.tie().write(j, "tie", BINS);
-            r.period().write(j, "period", BINS);
-            r.cycleToCycle().write(j, "cycleToCycle", BINS);
+            r.tie().write(j, "tie", BINS, 1.0);
+            r.period().write(j, "period", BINS, 1.0);
+            r.cycleToCycle().write(j, "cycleToCycle", BINS, 1.0);
             j.endObject();
             ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-jitter.json", "application/json", (j.finish() + "\n").getBytes(StandardCharsets.UTF_8)));
             ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-jitter.png", "image/png", Plot.histograms(
                     id + " jitter of '" + channel + "' (" + which + " edges, " + n + " analysed)", List.of(
                             new Plot.Panel(String.format(Locale.ROOT, "time-interval error: RMS %.3f ps, peak-to-peak %.3f ps",
-                                    r.tieRmsPs(), r.tie().peakToPeak()), "TIE (ps)", r.tie().histogram(BINS), 1),
+                                    r.tieRmsPs(), r.tie().peakToPeak()), "TIE (ps)", r.tie().histogram(BINS, 1.0), 1),
                             new Plot.Panel(String.format(Locale.ROOT, "period: mean %.4f ps, jitter RMS %.3f ps, peak-to-peak %.3f ps",
-                                    r.period().mean(), r.period().std(), r.period().peakToPeak()), "period (ps)", r.period().histogram(BINS), 1),
+                                    r.period().mean(), r.period().std(), r.period().peakToPeak()), "period (ps)", r.period().histogram(BINS, 1.0), 1),
                             new Plot.Panel(String.format(Locale.ROOT, "cycle-to-cycle: RMS %.3f ps, peak-to-peak %.3f ps",
-                                    r.c2cRmsPs(), r.cycleToCycle().peakToPeak()), "period difference (ps)", r.cycleToCycle().histogram(BINS), 1)))));
+                                    r.c2cRmsPs(), r.cycleToCycle().peakToPeak()), "period difference (ps)", r.cycleToCycle().histogram(BINS, 1.0), 1)))));
             Annotation.Builder a = Annotation.on(id, n < 3 ? "jitter-too-few-edges" : "jitter").span(firstFs, lastFs)
                     .severity(n < 3 ? Severity.WARNING : Severity.INFO)
                     .label(n < 3 ? "fewer than 3 clock edges: no jitter figures"
