@@ -21,7 +21,7 @@ import org.lanesift.plugin.PluginRegistry;
 import org.lanesift.plugins.serial.Capture;
 import org.lanesift.plugins.serial.DeviceSimulator;
 import org.lanesift.plugins.serial.Framing;
-import org.lanesift.plugins.serial.LogicEdgesProvider;
+import org.lanesift.plugins.differential.LogicEdgesProvider;
 import org.lanesift.plugins.serial.Loopback;
 import org.lanesift.plugins.serial.SerialLink;
 import org.lanesift.plugins.serial.SpoolSourceProvider;
