@@ -69,6 +69,56 @@ public final class EdgeListBuilder {
         return times[i];
     }
 
+    /** @return the last transition collected, femtoseconds; the builder must hold one */
+    public long lastTime() {
+        return times[timeCount - 1];
+    }
+
+    /** @return how many leading transitions lie before {@code timeFs} */
+    public int timesBefore(long timeFs) {
+        int n = 0;
+        while (n < timeCount && times[n] < timeFs) {
+            n++;
+        }
+        return n;
+    }
+
+    /**
+     * Takes the first {@code n} transitions out, for a caller that hands edges on in pieces.
+     *
+     * @param n how many, at most {@link #timeCount()}
+     * @return them, in an array of exact length
+     */
+    public long[] removeFirstTimes(int n) {
+        long[] out = Arrays.copyOf(times, n);
+        System.arraycopy(times, n, times, 0, timeCount - n);
+        timeCount -= n;
+        return out;
+    }
+
+    /** @return start of unknown span {@code i}, femtoseconds */
+    public long spanStart(int i) {
+        return spans[2 * i];
+    }
+
+    /** @return end of unknown span {@code i}, femtoseconds */
+    public long spanEnd(int i) {
+        return spans[2 * i + 1];
+    }
+
+    /** Keeps, in order, only the unknown spans that end after {@code timeFs}. */
+    public void keepSpansEndingAfter(long timeFs) {
+        int keep = 0;
+        for (int i = 0; i < spanCount; i++) {
+            if (spans[2 * i + 1] > timeFs) {
+                spans[2 * keep] = spans[2 * i];
+                spans[2 * keep + 1] = spans[2 * i + 1];
+                keep++;
+            }
+        }
+        spanCount = keep;
+    }
+
     /** Forgets everything collected, keeping the arrays. */
     public void clear() {
         timeCount = 0;

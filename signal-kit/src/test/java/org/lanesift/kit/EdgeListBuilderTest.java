@@ -52,4 +52,44 @@ class EdgeListBuilderTest {
             }
         }
     }
+
+    @Test
+    void handsOnInPiecesLikeAListWould() {
+        Random r = new Random(13);
+        EdgeListBuilder b = new EdgeListBuilder(2);
+        List<Long> times = new ArrayList<>();
+        List<long[]> spans = new ArrayList<>();
+        long t = 0;
+        for (int round = 0; round < 2000; round++) {
+            int add = r.nextInt(20);
+            for (int i = 0; i < add; i++) {
+                t += 1 + r.nextInt(50);
+                if (r.nextInt(10) == 0) {
+                    b.addSpan(t, t + 7);
+                    spans.add(new long[] {t, t + 7});
+                } else {
+                    b.addTime(t);
+                    times.add(t);
+                }
+            }
+            long cut = t - r.nextInt(200);
+            // oracle: the list's own filters
+            int before = (int) times.stream().takeWhile(x -> x < cut).count();
+            assertEquals(before, b.timesBefore(cut));
+            if (!times.isEmpty()) {
+                assertEquals(times.get(times.size() - 1), b.lastTime());
+            }
+            long[] taken = b.removeFirstTimes(before);
+            assertArrayEquals(times.subList(0, before).stream().mapToLong(Long::longValue).toArray(), taken);
+            times.subList(0, before).clear();
+            assertEquals(times.size(), b.timeCount());
+            spans.removeIf(sp -> sp[1] <= cut);
+            b.keepSpansEndingAfter(cut);
+            assertEquals(spans.size(), b.spanCount());
+            for (int i = 0; i < spans.size(); i++) {
+                assertEquals(spans.get(i)[0], b.spanStart(i));
+                assertEquals(spans.get(i)[1], b.spanEnd(i));
+            }
+        }
+    }
 }
