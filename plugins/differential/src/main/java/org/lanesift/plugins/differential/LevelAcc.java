@@ -80,8 +80,18 @@ final class LevelAcc {
         double rq1 = sqRaw[1];
         double rcq0 = cqRaw[0];
         double rcq1 = cqRaw[1];
-        for (int i = (int) (DitheredStride.next(base + s0, stride) - base); i < s1;
-                i = (int) (DitheredStride.next(base + i + 1, stride) - base)) {
+        // one sample per run of stride samples, at the run's hashed offset (runs counted from the stream start)
+        long from = base + s0;
+        long to = base + s1;
+        for (long run = Math.floorDiv(from, stride); ; run++) {
+            long k = run * stride + DitheredStride.offset(run, stride);
+            if (k < from) {
+                continue;
+            }
+            if (k >= to) {
+                break;
+            }
+            int i = (int) (k - base);
             if (inv != null && (inv[i >>> 6] & (1L << i)) != 0) {
                 continue;
             }
