@@ -43,7 +43,7 @@ class SegmentsTest {
         run("--quiet", "run", chain.toString(), "--out", dir.resolve("two").toString(), "--jobs", "2", "--segment-frames", "262144");
         TreeSet<String> files = names(dir.resolve("one"));
         assertEquals(files, names(dir.resolve("two")));
-        assertTrue(files.contains("panel-frame-1.png") && files.contains("panel-timing.json"), files.toString());
+        assertTrue(files.contains("panel-frame-0001.png") && files.contains("panel-timing.json"), files.toString());
         for (String f : files) {
             Path a = dir.resolve("one").resolve(f);
             Path b = dir.resolve("two").resolve(f);

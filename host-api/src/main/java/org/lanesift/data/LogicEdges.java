@@ -16,10 +16,16 @@ package org.lanesift.data;
  * level, the transition is placed at the end of the span, so the known samples after it keep
  * their true level (and sampling the edges back gives every known sample exactly).
  *
+ * <p><b>Speed.</b> A 64-bit word at a time: transitions are the set bits of {@code x ^ (x << 1 | carry)},
+ * taken in order with {@code Long.numberOfTrailingZeros}; a block without unknown samples is
+ * counted first so its time array is allocated once, at its exact length.
+ *
  * <p>Use one instance per channel: it carries the last level across block boundaries, so a
  * transition between two blocks is not lost. Instances are not thread-safe.
  */
 public final class LogicEdges {
+    /** Products below this are exact in a double. */
+    private static final double EXACT = 0x1p52;
     private boolean havePrevious;
     private boolean previousLevel;
 
@@ -48,6 +54,9 @@ public final class LogicEdges {
         final long spanEnd = origin + Math.round((n - 0.5) * p);
         if (n == 0) {
             return new Edges(b.channel(), spanStart, Math.max(spanStart, spanEnd), previousLevel, new long[0], 0, null, 0);
+        }
+        if (inv == null || BitSets.count(inv, n) == 0) {
+            return allKnown(b, spanStart, spanEnd);
         }
         final int words = BitSets.words(n);
         // the level before sample 0: the previous block's, else the first known sample's
@@ -135,6 +144,60 @@ public final class LogicEdges {
             previousLevel = level;
         }
         return new Edges(b.channel(), spanStart, spanEnd, initial, times, total, spans, spanCount);
+    }
+
+    /**
+     * A block without unknown samples: the transitions are counted first (one {@code Long.bitCount}
+     * per word) so the time array is allocated once at its exact length; when the sample period is a
+     * whole number of femtoseconds each time is {@code origin + j * period - floor(period / 2)} in
+     * integer arithmetic, which is what {@code Math.round((j - 0.5) * period)} gives whenever the
+     * product is exact in a double (checked per block).
+     */
+    private Edges allKnown(LogicBlock b, long spanStart, long spanEnd) {
+        final int n = b.length();
+        final long[] bits = b.bits();
+        final double p = b.periodFs();
+        final long origin = b.startFs();
+        final int words = BitSets.words(n);
+        final boolean initial = havePrevious ? previousLevel : (bits[0] & 1L) != 0;
+        final long lastMask = (n & 63) != 0 ? (1L << (n & 63)) - 1 : -1L;
+        // pass 1: count
+        int count = 0;
+        long carry = initial ? 1L : 0L;
+        for (int w = 0; w < words; w++) {
+            long x = bits[w];
+            long mask = w == words - 1 ? lastMask : -1L;
+            count += Long.bitCount((x ^ (x << 1 | carry)) & mask);
+            carry = x >>> 63;
+        }
+        long[] times = new long[count];
+        // pass 2: times
+        int k = 0;
+        carry = initial ? 1L : 0L;
+        boolean integral = p == Math.rint(p) && 2.0 * n * p < EXACT;
+        long period = (long) p;
+        long offset = origin - (period >> 1);
+        for (int w = 0; w < words; w++) {
+            long x = bits[w];
+            long mask = w == words - 1 ? lastMask : -1L;
+            long diff = (x ^ (x << 1 | carry)) & mask;
+            carry = x >>> 63;
+            int base = w << 6;
+            if (integral) {
+                while (diff != 0) {
+                    times[k++] = offset + (base + Long.numberOfTrailingZeros(diff)) * period;
+                    diff &= diff - 1;
+                }
+            } else {
+                while (diff != 0) {
+                    times[k++] = origin + Math.round((base + Long.numberOfTrailingZeros(diff) - 0.5) * p);
+                    diff &= diff - 1;
+                }
+            }
+        }
+        havePrevious = true;
+        previousLevel = b.get(n - 1);
+        return new Edges(b.channel(), spanStart, spanEnd, initial, times, count, null, 0);
     }
 
     /**

@@ -18,6 +18,7 @@ import org.lanesift.chain.Chain;
 import org.lanesift.chain.ChainBuilder;
 import org.lanesift.data.Edges;
 import org.lanesift.plugin.PluginRegistry;
+import org.lanesift.plugins.differential.LogicEdgesProvider;
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
 import org.openjdk.jmh.annotations.Fork;

@@ -119,7 +119,7 @@ final class DemoChains {
         for (int k = 0; k < 3; k++) {
             c.wire("lanes.out" + (k + 1), "sampler.lane" + k);
         }
-        c.node("panel", "pixel-link", "mapping", "bits-18", "pictures", "none");
+        c.node("panel", "pixel-link", "mapping", "bits-18", "pictures", "all");
         for (int k = 0; k < 3; k++) {
             c.wire("sampler.bits" + k, "panel.lane" + k);
         }

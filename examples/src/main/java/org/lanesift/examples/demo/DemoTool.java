@@ -22,6 +22,7 @@ import org.lanesift.json.JsonValue;
 import org.lanesift.json.JsonWriter;
 import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.OutputException;
+import org.lanesift.kit.FramePictures;
 import org.lanesift.plugin.Tool;
 import org.lanesift.plugin.ToolArgs;
 import org.lanesift.plugin.ToolConsole;
@@ -199,7 +200,7 @@ public final class DemoTool implements Tool {
             for (int i = 0; i < t.completeFrames().size(); i++) {
                 int k = t.completeFrames().get(i);
                 int[] truth = t.pictures().get(i);
-                Path png = dir.resolve("pixel/panel-frame-" + k + ".png");
+                Path png = dir.resolve("pixel/" + FramePictures.fileName("panel", k, false));
                 total += truth.length;
                 if (!Files.exists(png)) {
                     missing.add(png.getFileName().toString());
@@ -220,8 +221,8 @@ public final class DemoTool implements Tool {
                     }
                 }
             }
-            boolean partialOk = Files.exists(dir.resolve("pixel/panel-frame-0-partial.png"))
-                    && !Files.exists(dir.resolve("pixel/panel-frame-0.png"));
+            boolean partialOk = Files.exists(dir.resolve("pixel/" + FramePictures.fileName("panel", 0, true)))
+                    && !Files.exists(dir.resolve("pixel/" + FramePictures.fileName("panel", 0, false)));
             check(match == total && missing.isEmpty() && partialOk, String.format(Locale.ROOT,
                     "pixel link: %d of %d pixels match in %d complete frames%s; partial first frame labelled partial: %s",
                     match, total, t.completeFrames().size(), missing.isEmpty() ? "" : " (missing " + missing + ")",
@@ -252,7 +253,7 @@ public final class DemoTool implements Tool {
             check(Math.abs(fn - truthFn) < 0.05 * truthFn, String.format(Locale.ROOT,
                     "probe ringing on CLK_P: natural frequency %.1f MHz, damping %.3f (scenario: %.1f MHz, %.2f)", fn / 1e6,
                     number(at(ring, "dampingRatio"), 0), truthFn / 1e6, Impairments.pixelLinkDefaults().ringDamping()));
-            report.append("Files: `pixel/` (frames `panel-frame-N.png`, `panel-timing.json`/`.txt`, `eye-eye.png`, ")
+            report.append("Files: `pixel/` (frames `panel-frame-NNNN.png`, `panel-timing.json`/`.txt`, `eye-eye.png`, ")
                     .append("`sampler-margins.json`, `ring-ringing.json`, `jitter-jitter.json`, `report.md` of the decode pass).\n\n");
         }
 
@@ -284,7 +285,7 @@ public final class DemoTool implements Tool {
             for (int k = 0; k < t.pictures().size(); k++) {
                 int[] truth = t.pictures().get(k);
                 pt += truth.length;
-                Path png = dir.resolve("packet/dsi-frame-" + k + ".png");
+                Path png = dir.resolve("packet/" + FramePictures.fileName("dsi", k, false));
                 if (!Files.exists(png)) {
                     continue;
                 }
@@ -300,7 +301,7 @@ public final class DemoTool implements Tool {
             check(pm == pt, "packet link: " + pm + " of " + pt + " pixels match in " + t.pictures().size() + " frames");
             skewLines("packet link", dir.resolve("skew/packet-legs.json"), dir.resolve("skew/packet-lanes.json"),
                     DemoChains.PACKET_PAIRS, t.legSkewPs(), t.laneSkewPs(), packetNotes);
-            report.append("Files: `packet/` (`dsi-commands.json`/`.csv`, the init sequence `dsi-init.h`, frames `dsi-frame-N.png`, ")
+            report.append("Files: `packet/` (`dsi-commands.json`/`.csv`, the init sequence `dsi-init.h`, frames `dsi-frame-NNNN.png`, ")
                     .append("`dsi-timing.json`, `report.md` of the decode pass).\n\n");
         }
 

@@ -50,7 +50,7 @@ public record InspectReport(String file, String format, List<Channel> channels, 
      * @param sampleRateHz   analog sample rate
      * @param min            smallest valid analog value
      * @param max            largest valid analog value
-     * @param lowLevel       lower dominant level (histogram peak)
+     * @param lowLevel       lower level (the shared two-level finder)
      * @param highLevel      upper dominant level
      * @param threshold      automatic threshold, the midpoint of the two levels
      * @param hysteresis     hysteresis either side of the threshold

@@ -6,6 +6,9 @@ import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import org.lanesift.kit.DitheredStride;
+import org.lanesift.kit.TwoLevelFinder;
+import org.lanesift.kit.TwoLevels;
 import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.Block;
 import org.lanesift.data.DataKind;
@@ -19,12 +22,16 @@ import org.lanesift.plugin.PortSpec;
  * Summarises a capture without keeping it in memory: per channel its kind, size, duration and,
  * for analog channels, the level statistics, an automatic threshold and the edges it gives; then
  * guesses of differential pairs and clocks. Analog channels take three streaming passes over the
- * file (range; histogram; edges at the threshold); logic-only files one. The rules and the JSON
+ * file (range; samples for the level finder; edges at the threshold); logic-only files one. The rules and the JSON
  * schema are in docs/capture-csv.md, section "inspect".
  */
 public final class Inspector {
-    /** Histogram bins for the level search. */
-    static final int BINS = 256;
+    /** Most samples of one channel given to the level finder; longer channels are thinned evenly. */
+    static final int MAX_LEVEL_SAMPLES = 1 << 16;
+    /** Fewest samples per channel for the level finder, however many channels there are. */
+    static final int MIN_LEVEL_SAMPLES = 1 << 12;
+    /** Level-finder samples of all channels together, so many channels stay within memory. */
+    static final long LEVEL_SAMPLE_BUDGET = 1L << 24;
     /** Hysteresis either side of the threshold, as a fraction of the distance between the two levels. */
     static final double HYSTERESIS = 0.1;
     /** Correlation at or below which two analog channels are guessed to be the legs of one pair. */
@@ -89,7 +96,11 @@ public final class Inspector {
         double min = Double.POSITIVE_INFINITY;
         double max = Double.NEGATIVE_INFINITY;
         double shift = Double.NaN; // first valid value, subtracted for stable sums
-        long[] hist;
+        /** Samples for the level finder: one in each run of {@code pickStride} valid samples, at a hashed position. */
+        float[] picked;
+        int pickedCount;
+        int pickStride;
+        long validSeen;
         double low = Double.NaN;
         double high = Double.NaN;
         // edges (counted or found at the threshold)
@@ -187,12 +198,16 @@ public final class Inspector {
                 java.util.Arrays.fill(span, null);
             }
         }
-        // pass 2: histograms; pass 3: edges at the threshold
+        // pass 2: samples for the level finder; pass 3: edges at the threshold
         boolean anyAnalog = acc.stream().anyMatch(a -> a.kind == DataKind.ANALOG && a.samples > a.invalid && a.max > a.min);
         if (anyAnalog) {
+            long analogCount = acc.stream().filter(a -> a.kind == DataKind.ANALOG).count();
+            int perChannel = (int) Math.max(MIN_LEVEL_SAMPLES, Math.min(MAX_LEVEL_SAMPLES, LEVEL_SAMPLE_BUDGET / analogCount));
             for (Acc a : acc) {
                 if (a.kind == DataKind.ANALOG) {
-                    a.hist = new long[BINS];
+                    long valid = a.samples - a.invalid;
+                    a.pickStride = (int) Math.max(1, (valid + perChannel - 1) / perChannel);
+                    a.picked = new float[(int) Math.min(valid, perChannel) + 1];
                 }
             }
             try (CaptureReader r = open(plugin, ov)) {
@@ -357,66 +372,32 @@ public final class Inspector {
         if (!(a.max > a.min)) {
             return;
         }
-        double scale = BINS / (a.max - a.min);
         float[] v = b.volts();
-        long[] h = a.hist;
         for (int i = 0, n = b.length(); i < n; i++) {
             if (!b.isValid(i)) {
                 continue;
             }
-            int k = (int) ((v[i] - a.min) * scale);
-            h[k >= BINS ? BINS - 1 : k]++;
+            if (DitheredStride.taken(a.validSeen++, a.pickStride) && a.pickedCount < a.picked.length) {
+                a.picked[a.pickedCount++] = v[i];
+            }
         }
     }
 
-    /** Two dominant levels: Otsu's split of the histogram (N. Otsu, IEEE Trans. SMC 9(1), 1979), then the peak of each side. */
+    /**
+     * The two levels, by the shared {@link TwoLevelFinder} (the one the differential plugin learns its
+     * threshold with) over the channel's valid samples, thinned evenly to at most
+     * {@link #MAX_LEVEL_SAMPLES}; the minimum and maximum when there are not two.
+     */
     static void levels(Acc a) {
-        if (!(a.max > a.min)) {
+        TwoLevels lv = a.max > a.min ? TwoLevelFinder.find(a.picked, a.pickedCount) : null;
+        a.picked = null;
+        if (lv == null || !lv.twoLevels()) {
             a.low = a.min;
             a.high = a.max;
             return;
         }
-        long[] h = a.hist;
-        double total = 0;
-        double sumAll = 0;
-        for (int i = 0; i < BINS; i++) {
-            total += h[i];
-            sumAll += (double) i * h[i];
-        }
-        double w0 = 0;
-        double sum0 = 0;
-        double best = -1;
-        int split = BINS / 2;
-        for (int t = 0; t < BINS - 1; t++) {
-            w0 += h[t];
-            sum0 += (double) t * h[t];
-            double w1 = total - w0;
-            if (w0 == 0 || w1 == 0) {
-                continue;
-            }
-            double m0 = sum0 / w0;
-            double m1 = (sumAll - sum0) / w1;
-            double between = w0 * w1 * (m0 - m1) * (m0 - m1);
-            if (between > best) {
-                best = between;
-                split = t;
-            }
-        }
-        int lo = 0;
-        for (int i = 0; i <= split; i++) {
-            if (h[i] > h[lo]) {
-                lo = i;
-            }
-        }
-        int hi = split + 1;
-        for (int i = split + 1; i < BINS; i++) {
-            if (h[i] > h[hi]) {
-                hi = i;
-            }
-        }
-        double w = (a.max - a.min) / BINS;
-        a.low = a.min + (lo + 0.5) * w;
-        a.high = a.min + (hi + 0.5) * w;
+        a.low = lv.low();
+        a.high = lv.high();
     }
 
     private static void thresholdPass(Acc a, AnalogBlock b) {

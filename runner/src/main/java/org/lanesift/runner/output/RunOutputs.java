@@ -1,7 +1,6 @@
 package org.lanesift.runner.output;
 
 import org.lanesift.plugin.OutputException;
-import java.awt.image.BufferedImage;
 import java.io.Closeable;
 import java.io.IOException;
 import java.nio.file.Files;
@@ -13,7 +12,6 @@ import java.util.List;
 import java.util.Map;
 import java.util.Set;
 import java.util.TreeMap;
-import javax.imageio.ImageIO;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.AnnotationSink;
 import org.lanesift.annotation.Severity;
@@ -34,7 +32,7 @@ import org.lanesift.data.WordStream;
  * <ul>
  * <li>edges and logic, and word streams as vectors: one VCD, {@value #VCD};</li>
  * <li>analog: {@code <instance>-<output>.csv}; bit streams: {@code <instance>-<output>-bits.csv};</li>
- * <li>frames: {@code <instance>-frame-<index>.png} ({@code ...-partial.png} for partial frames);</li>
+ * <li>frames: counted only; a stage writes its frame pictures as artifacts ({@code <id>-frame-NNNN.png});</li>
  * <li>artifacts: a file of the artifact's name (a later artifact of the same name replaces it);</li>
  * <li>annotations: {@value #ANNOTATIONS}, JSON Lines.</li>
  * </ul>
@@ -58,7 +56,6 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
     private final Map<String, OutputStats> stats = new LinkedHashMap<>();
     private final Map<String, AnalogCsvWriter> analog = new LinkedHashMap<>();
     private final Map<String, BitsCsvWriter> bits = new LinkedHashMap<>();
-    private final Map<String, Integer> frameOutputsPerInstance = new TreeMap<>();
     private final Map<String, Path> files = new LinkedHashMap<>();
     private final Map<Severity, Long> severityCounts = new EnumMap<>(Severity.class);
     private final Map<String, Long> kindCounts = new TreeMap<>();
@@ -177,9 +174,6 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
         if (kind == DataKind.EDGES || kind == DataKind.LOGIC || kind == DataKind.WORDS) {
             vcd.declare(instance, output);
         }
-        if (kind == DataKind.FRAME) {
-            frameOutputsPerInstance.merge(instance, 1, Integer::sum);
-        }
     }
 
     @Override
@@ -233,19 +227,10 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
             }
             wr.write(b);
             s.items += b.count();
-        } else if (block instanceof Frame f) {
-            String prefix = Texts.safe(s.instance) + (frameOutputsPerInstance.getOrDefault(s.instance, 1) > 1 ? "-" + Texts.safe(s.output) : "");
-            String name = prefix + "-frame-" + f.index() + (f.partial() ? "-partial" : "") + ".png";
+        } else if (block instanceof Frame) {
+            // frames are counted, not drawn: pictures are the stage's artifacts, chosen by its own picture
+            // options and encoded by the one picture writer (signal-kit FramePictures), so each is written once
             s.items++;
-            if (f.width() == 0 || f.height() == 0) {
-                return; // nothing to draw; counted, and the report shows no file for it
-            }
-            BufferedImage img = new BufferedImage(f.width(), f.height(), BufferedImage.TYPE_INT_RGB);
-            img.setRGB(0, 0, f.width(), f.height(), f.rgb(), 0, f.width());
-            if (!ImageIO.write(img, "png", file(name).toFile())) {
-                throw new IOException("no PNG writer in this Java runtime");
-            }
-            noteFile(s, name);
         } else if (block instanceof Artifact a) {
             String name = a.fileName();
             if (RESERVED.contains(name) || name.startsWith(".lanesift")) {

@@ -1,6 +1,7 @@
 package org.lanesift.plugins.differential;
 
 import java.util.Arrays;
+import org.lanesift.kit.EdgeListBuilder;
 import org.lanesift.data.BitSets;
 import org.lanesift.data.Edges;
 
@@ -82,10 +83,8 @@ final class Comparator {
     private double pendY2;
     private boolean pendHaveY0;
 
-    private long[] times = new long[256];
-    private int timeCount;
-    private long[] spans = new long[16];
-    private int spanCount;
+    /** Transitions and unknown spans found but not yet handed on. */
+    private final EdgeListBuilder held = new EdgeListBuilder(256);
     private boolean initialKnown;
     private boolean emittedLevel;
     private long emittedUntil;
@@ -546,20 +545,12 @@ final class Comparator {
     }
 
     private void addTime(long t) {
-        if (timeCount == times.length) {
-            times = Arrays.copyOf(times, times.length * 2);
-        }
-        times[timeCount++] = t;
+        held.addTime(t);
         transitionsTotal++;
     }
 
     private void addSpan(long s, long e) {
-        if (2 * spanCount + 2 > spans.length) {
-            spans = Arrays.copyOf(spans, spans.length * 2);
-        }
-        spans[2 * spanCount] = s;
-        spans[2 * spanCount + 1] = e;
-        spanCount++;
+        held.addSpan(s, e);
     }
 
     /** The earliest time any transition not yet recorded can have. */
@@ -610,28 +601,23 @@ final class Comparator {
         } else {
             safe = Math.max(emittedUntil, safeTime());
         }
-        int n = 0;
-        while (n < timeCount && times[n] < safe) {
-            n++;
-        }
-        if (atEnd && n < timeCount) {
-            safe = times[timeCount - 1] + 1;
-            n = timeCount;
+        int n = held.timesBefore(safe);
+        if (atEnd && n < held.timeCount()) {
+            safe = held.lastTime() + 1;
+            n = held.timeCount();
         }
         long start = emittedUntil;
         if (safe <= start && n == 0) {
             return null;
         }
-        long[] out = Arrays.copyOf(times, n);
-        System.arraycopy(times, n, times, 0, timeCount - n);
-        timeCount -= n;
+        long[] out = held.removeFirstTimes(n);
         // unknown spans overlapping [start, safe)
         long[] sp = null;
         int sc = 0;
-        int keep = 0;
+        int spanCount = held.spanCount();
         for (int s = 0; s < spanCount; s++) {
-            long a = Math.max(start, spans[2 * s]);
-            long z = Math.min(safe, spans[2 * s + 1]);
+            long a = Math.max(start, held.spanStart(s));
+            long z = Math.min(safe, held.spanEnd(s));
             if (z > a) {
                 if (sp == null) {
                     sp = new long[2 * spanCount + 2];
@@ -640,13 +626,8 @@ final class Comparator {
                 sp[2 * sc + 1] = z;
                 sc++;
             }
-            if (spans[2 * s + 1] > safe) {
-                spans[2 * keep] = spans[2 * s];
-                spans[2 * keep + 1] = spans[2 * s + 1];
-                keep++;
-            }
         }
-        spanCount = keep;
+        held.keepSpansEndingAfter(safe);
         if (inInvalid) {
             long a = Math.max(start, Math.max(originFs, timeAt(invalidStart, -0.5)));
             if (safe > a) {

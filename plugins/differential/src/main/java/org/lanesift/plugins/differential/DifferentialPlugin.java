@@ -86,8 +86,8 @@ public final class DifferentialPlugin implements PluginProvider {
             .option(OptionSpec.integer("warmupSamples", 8192L, 64, 1L << 22,
                     "samples learned from before any output, when threshold or hysteresis are learned"))
             .option(OptionSpec.integer("statsStride", 16L, 1, 1024,
-                    "level statistics use every n-th sample (1 for exact overshoot peaks; edges at random phases"
-                    + " to this grid let the peaks of many edges converge anyway)"))
+                    "level statistics use one sample in each run of n, at a position in the run chosen by a hash of"
+                    + " its index, so that no signal period aliases with the choice (1 takes every sample, for exact overshoot peaks)"))
             .option(OptionSpec.bool("levelReport", true, "capture-wide level report: per-window level checks, the level"
                     + " summary and <instance>-levels.json; false leaves them out (needed to decode in segments)"))
             .inputs(DifferentialPlugin::inputs)

@@ -1,5 +1,7 @@
 package org.lanesift.plugins.differential;
 
+import org.lanesift.kit.DitheredStride;
+
 /**
  * Level statistics over a span of samples, split by the comparator's state: for the low (0) and
  * high (1) state the count, sum, sum of squares, minimum and maximum of the difference (volts), and
@@ -31,7 +33,9 @@ final class LevelAcc {
     }
 
     /**
-     * Adds every {@code stride}-th sample (by index from the stream start) of a segment.
+     * Adds one sample in each run of {@code stride} (by index from the stream start), at a position in
+     * the run chosen by {@link DitheredStride}, so the choice neither aliases with a signal period nor
+     * depends on where the segments start.
      *
      * @param a      first leg or the only channel
      * @param ao     offset of chunk sample 0 in {@code a}
@@ -45,14 +49,11 @@ final class LevelAcc {
      * @param thr    threshold
      * @param half   half the hysteresis band: samples closer to the threshold are on an edge
      * @param settled half the band outside which samples count as settled on a level (at least {@code half})
-     * @param stride take every stride-th sample
+     * @param stride one sample is taken in each run of this many, 1 for every sample
      */
     void add(float[] a, int ao, float[] b, int bo, long base, int s0, int s1, long[] bits, long[] inv, float thr,
              float half, float settled, int stride) {
         samples += s1 - s0;
-        long k0 = base + s0;
-        long first = ((k0 + stride - 1) / stride) * stride;
-        int i0 = (int) (first - base);
         // accumulate in locals (registers), in the same order as one sample at a time, and write back once, so the
         // sums do not depend on where the segments start
         long n0 = n[0];
@@ -79,7 +80,18 @@ final class LevelAcc {
         double rq1 = sqRaw[1];
         double rcq0 = cqRaw[0];
         double rcq1 = cqRaw[1];
-        for (int i = i0; i < s1; i += stride) {
+        // one sample per run of stride samples, at the run's hashed offset (runs counted from the stream start)
+        long from = base + s0;
+        long to = base + s1;
+        for (long run = Math.floorDiv(from, stride); ; run++) {
+            long k = run * stride + DitheredStride.offset(run, stride);
+            if (k < from) {
+                continue;
+            }
+            if (k >= to) {
+                break;
+            }
+            int i = (int) (k - base);
             if (inv != null && (inv[i >>> 6] & (1L << i)) != 0) {
                 continue;
             }

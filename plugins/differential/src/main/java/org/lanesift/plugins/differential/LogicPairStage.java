@@ -3,15 +3,15 @@ package org.lanesift.plugins.differential;
 import java.nio.charset.StandardCharsets;
 import java.util.ArrayDeque;
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.List;
+import org.lanesift.kit.EdgeListBuilder;
+import org.lanesift.kit.PackedBits;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Field;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.Artifact;
 import org.lanesift.data.BitSets;
 import org.lanesift.data.Block;
-import org.lanesift.data.Edges;
 import org.lanesift.data.LogicBlock;
 import org.lanesift.json.JsonWriter;
 import org.lanesift.json.NumberStyle;
@@ -134,15 +134,14 @@ final class LogicPairStage implements Stage {
         long tailMask = (len & 63) == 0 ? -1L : (1L << len) - 1;
         long[] pw = new long[words];
         long[] nw = new long[words];
-        AnalogStage.orShifted(pw, p.bits(), po, len);
-        AnalogStage.orShifted(nw, n.bits(), no, len);
-        long[] inputInv = AnalogStage.slice(p.invalid(), po, len, n.invalid(), no);
+        PackedBits.orShifted(pw, p.bits(), po, len);
+        PackedBits.orShifted(nw, n.bits(), no, len);
+        long[] inputInv = Chunk.mask(p.invalid(), po, len, n.invalid(), no);
         long[] inv = new long[words];
         long[] agree = new long[words];
         long base = next;
         long[] out = new long[words];
-        long[] times = new long[16];
-        int tc = 0;
+        EdgeListBuilder edges = new EdgeListBuilder();
         if (base == 0 && words > 0) {
             long ii0 = inputInv == null ? 0 : inputInv[0];
             boolean valid0 = (ii0 & 1) == 0 && ((pw[0] ^ nw[0]) & 1) != 0;
@@ -178,25 +177,20 @@ final class LogicPairStage implements Stage {
             long diff = (x ^ ((x << 1) | carry)) & m;
             while (diff != 0) {
                 int j = Long.numberOfTrailingZeros(diff);
-                if (tc == times.length) {
-                    times = Arrays.copyOf(times, tc * 2);
-                }
-                times[tc++] = timeAt(base + ((long) w << 6) + j, -0.5);
+                edges.addTime(timeAt(base + ((long) w << 6) + j, -0.5));
                 diff &= diff - 1;
             }
             out[w] = x;
             int last = w == words - 1 ? ((len - 1) & 63) : 63;
             level = (x >>> last & 1) != 0;
         }
-        transitions += tc;
+        transitions += edges.timeCount();
         next = base + len;
         agreeStart = runs(agree, len, base, agreeStart, true);
         inputStart = runs(inputInv, len, base, inputStart, false);
         countWindow(agree, inputInv, len, base);
         // unknown spans of this block
         long blockEnd = timeAt(next, -0.5);
-        long[] spans = new long[8];
-        int sc = 0;
         int i = 0;
         long open = unknownStart;
         unknownStart = -1;
@@ -210,12 +204,7 @@ final class LogicPairStage implements Stage {
             long sFs = Math.max(emittedUntil, Math.max(originFs, timeAt(start, -0.5)));
             long eFs = z >= len ? blockEnd : timeAt(base + z, -0.5);
             if (eFs > sFs) {
-                if (2 * sc + 2 > spans.length) {
-                    spans = Arrays.copyOf(spans, spans.length * 2);
-                }
-                spans[2 * sc] = sFs;
-                spans[2 * sc + 1] = eFs;
-                sc++;
+                edges.addSpan(sFs, eFs);
             }
             if (z >= len) {
                 unknownStart = start;
@@ -228,7 +217,7 @@ final class LogicPairStage implements Stage {
             }
         }
         ctx.emit(AnalogStage.OUT_LOGIC, new LogicBlock(s.channel, base, timeAt(base, 0), periodFs, out, len, inv));
-        emitEdges(times, tc, blockEnd, spans, sc);
+        emitEdges(edges, blockEnd);
     }
 
     private static int nextBit(long[] bits, int i, int end, boolean set) {
@@ -242,17 +231,17 @@ final class LogicPairStage implements Stage {
         return end;
     }
 
-    private void emitEdges(long[] times, int tc, long end, long[] spans, int sc) {
+    private void emitEdges(EdgeListBuilder edges, long end) {
         long start = emittedUntil;
         if (end < start) {
             end = start;
         }
         boolean initial = emittedLevel ^ s.invert;
-        if ((tc & 1) != 0) {
+        if ((edges.timeCount() & 1) != 0) {
             emittedLevel = !emittedLevel;
         }
         emittedUntil = end;
-        ctx.emit(AnalogStage.OUT_EDGES, new Edges(s.channel, start, end, initial, times, tc, sc == 0 ? null : spans, sc));
+        ctx.emit(AnalogStage.OUT_EDGES, edges.build(s.channel, start, end, initial));
     }
 
     /** Annotates runs of set bits, carrying an open run (stream index, or -1) into the next block; returns the open run. */
@@ -374,16 +363,14 @@ final class LogicPairStage implements Stage {
             inputStart = -1;
         }
         long end = timeAt(next, 0);
-        long[] spans = null;
-        int sc = 0;
+        EdgeListBuilder last = new EdgeListBuilder();
         if (unknownStart >= 0) {
             long a = Math.max(emittedUntil, Math.max(originFs, timeAt(unknownStart, -0.5)));
             if (end > a) {
-                spans = new long[] {a, end};
-                sc = 1;
+                last.addSpan(a, end);
             }
         }
-        emitEdges(new long[0], 0, end, spans, sc);
+        emitEdges(last, end);
         if (window != null) {
             windows.add(window);
             window = null;

@@ -8,6 +8,8 @@ import java.nio.charset.StandardCharsets;
 import java.util.HashMap;
 import java.util.Map;
 import org.junit.jupiter.api.Test;
+import org.lanesift.json.JsonReader;
+import org.lanesift.json.JsonValue;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.AnalogBlock;
@@ -114,9 +116,22 @@ class LevelLimitTest {
         String json = new String(h.outputs("report", Artifact.class).get(0).content(), StandardCharsets.UTF_8);
         assertTrue(json.startsWith("{\"instance\":\"dut\""), json);
         assertEquals(10, json.split("\"settledHigh\"").length - 2, "ten windows plus the capture");
-        // over the whole capture the mean |VOD| is 275 mV, inside the limits; the windows tell the story
-        assertTrue(json.contains("{\"quantity\":\"vod-high\",\"what\":\"|VOD| in the high state\",\"valueVolts\":0.274999976"), json);
-        assertTrue(json.contains("\"quantities\":{\"vod-high\":0.200000048"), json);
+        // over the whole capture |VOD| is the mean of every settled high sample taken, between 200 and 350 mV and
+        // inside the limits: the windows' levels weighted by their settled counts; the windows tell the story
+        JsonValue report = JsonReader.parse("levels report", json);
+        double weighted = 0;
+        long count = 0;
+        for (JsonValue w : report.get("windows").elements()) {
+            long k = (long) w.get("settledHigh").asDouble();
+            weighted += k * w.get("highLevelVolts").asDouble();
+            count += k;
+        }
+        JsonValue vodHigh = report.get("checks").elements().get(0);
+        assertEquals("vod-high", vodHigh.get("quantity").asString());
+        assertEquals(weighted / count, vodHigh.get("valueVolts").asDouble(), 1e-6);
+        assertEquals(0.275, vodHigh.get("valueVolts").asDouble(), 0.01);
+        assertEquals("info", vodHigh.get("verdict").asString());
+        assertEquals(0.2, report.get("windows").elements().get(9).get("quantities").get("vod-high").asDouble(), 1e-6);
     }
 
     @Test

@@ -1,6 +1,7 @@
 package org.lanesift.plugins.packetlink;
 
 import java.util.Arrays;
+import org.lanesift.kit.PackedBits;
 import org.lanesift.data.BitSets;
 import org.lanesift.data.BitStream;
 
@@ -146,9 +147,9 @@ final class LaneDeserializer {
             bits = Arrays.copyOf(bits, cap);
             flagged = Arrays.copyOf(flagged, cap);
         }
-        Bits.append(s.values(), i, bits, nbits, n);
+        PackedBits.append(s.values(), i, bits, nbits, n);
         if (BitSets.any(s.flagged(), i, i + n)) {
-            Bits.append(s.flagged(), i, flagged, nbits, n);
+            PackedBits.append(s.flagged(), i, flagged, nbits, n);
             anyFlagged = true;
         }
         long[] t = s.timesFs();
@@ -166,7 +167,7 @@ final class LaneDeserializer {
 
     /** Number of bits before the trail: the final run of equal bits is the trail (MIPI D-PHY, from memory). */
     int dataBits() {
-        return nbits == 0 ? 0 : Bits.finalRunStart(bits, nbits);
+        return nbits == 0 ? 0 : PackedBits.finalRunStart(bits, nbits);
     }
 
     /** Number of complete words in the buffer. */
@@ -181,7 +182,7 @@ final class LaneDeserializer {
      * @return its value, first wire bit in bit 0 ({@code lsb}) or in the top bit ({@code msb})
      */
     long word(int k) {
-        long x = Bits.get64(bits, k * wordBits);
+        long x = PackedBits.get64(bits, k * wordBits);
         if (wordBits < 64) {
             x &= (1L << wordBits) - 1;
         }
@@ -222,12 +223,12 @@ final class LaneDeserializer {
         int keep = nbits - drop;
         long[] nb = new long[Math.max(17, BitSets.words(keep) + 2)];
         if (keep > 0) {
-            Bits.append(bits, drop, nb, 0, keep);
+            PackedBits.append(bits, drop, nb, 0, keep);
         }
         if (anyFlagged) {
             long[] nf = new long[nb.length];
             if (keep > 0) {
-                Bits.append(flagged, drop, nf, 0, keep);
+                PackedBits.append(flagged, drop, nf, 0, keep);
             }
             flagged = nf;
         } else {

@@ -1,11 +1,9 @@
 package org.lanesift.plugins.packetlink;
 
-import java.io.ByteArrayOutputStream;
-import java.io.IOException;
 import java.util.ArrayDeque;
 import java.util.ArrayList;
 import java.util.List;
-import java.util.Locale;
+import org.lanesift.kit.FramePictures;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Field;
 import org.lanesift.annotation.Severity;
@@ -389,22 +387,8 @@ final class PacketLinkStage implements Stage {
         ctx.emit(OUT_FRAMES, f);
         if (pngWritten < cfg.pngFrames && f.width() > 0 && f.height() > 0) {
             pngWritten++;
-            String name = String.format(Locale.ROOT, "%s-frame-%04d.png", id, f.index());
-            ctx.emit(OUT_FILES, new Artifact(id, f.startFs(), f.endFs(), name, "image/png", png(f)));
+            ctx.emit(OUT_FILES, FramePictures.artifact(id, f));
         }
-    }
-
-    static byte[] png(Frame f) {
-        java.awt.image.BufferedImage img = new java.awt.image.BufferedImage(f.width(), f.height(), java.awt.image.BufferedImage.TYPE_INT_RGB);
-        int[] dst = ((java.awt.image.DataBufferInt) img.getRaster().getDataBuffer()).getData();
-        System.arraycopy(f.rgb(), 0, dst, 0, f.width() * f.height());
-        ByteArrayOutputStream bos = new ByteArrayOutputStream();
-        try {
-            javax.imageio.ImageIO.write(img, "png", bos);
-        } catch (IOException e) {
-            throw new IllegalStateException("PNG encoding of frame " + f.index() + " failed: " + e.getMessage(), e);
-        }
-        return bos.toByteArray();
     }
 
     @Override

@@ -1,22 +1,18 @@
 package org.lanesift.plugins.pixellink;
 
-import java.awt.image.BufferedImage;
-import java.io.ByteArrayOutputStream;
-import java.io.IOException;
-import java.io.UncheckedIOException;
 import java.util.Arrays;
-import java.util.Locale;
 import java.util.function.Consumer;
-import javax.imageio.ImageIO;
 import org.lanesift.data.Artifact;
+import org.lanesift.kit.FramePictures;
 import org.lanesift.data.Frame;
 import org.lanesift.plugin.OptionException;
 
 /**
- * Chooses which frames become PNG files and encodes them: {@code all} frames, only frames that
- * differ from the previous complete one ({@code changed}), or {@code none}, limited to a frame
- * index range. Complete frames are named {@code <id>-frame-NNNN.png}; partial frames are written
- * only under {@code all}, as {@code <id>-frame-NNNN-partial.png}, never under the complete name.
+ * Chooses which frames become PNG files: {@code all} frames, only frames that differ from the
+ * previous complete one ({@code changed}), or {@code none}, limited to a frame index range; the
+ * shared {@link FramePictures} encodes and names them ({@code <id>-frame-NNNN.png}). Partial frames
+ * are written only under {@code all}, as {@code <id>-frame-NNNN-partial.png}, never under the
+ * complete name.
  */
 final class Pictures {
     enum Mode {
@@ -81,7 +77,7 @@ final class Pictures {
         boolean inRange = f.index() >= first && f.index() <= last;
         if (f.partial()) {
             if (mode == Mode.ALL && inRange) {
-                write(f, "-partial");
+                write(f);
             }
             return;
         }
@@ -90,24 +86,11 @@ final class Pictures {
         prevW = f.width();
         prevH = f.height();
         if (inRange && (mode == Mode.ALL || changed)) {
-            write(f, "");
+            write(f);
         }
     }
 
-    private void write(Frame f, String suffix) {
-        String name = String.format(Locale.ROOT, "%s-frame-%04d%s.png", id, f.index(), suffix);
-        sink.accept(new Artifact(id, f.startFs(), f.endFs(), name, "image/png", png(f.width(), f.height(), f.rgb())));
-    }
-
-    static byte[] png(int w, int h, int[] rgb) {
-        BufferedImage img = new BufferedImage(w, h, BufferedImage.TYPE_INT_RGB);
-        img.setRGB(0, 0, w, h, rgb, 0, w);
-        ByteArrayOutputStream bos = new ByteArrayOutputStream();
-        try {
-            ImageIO.write(img, "png", bos);
-        } catch (IOException e) {
-            throw new UncheckedIOException("PNG encoding failed: " + e.getMessage(), e);
-        }
-        return bos.toByteArray();
+    private void write(Frame f) {
+        sink.accept(FramePictures.artifact(id, f));
     }
 }

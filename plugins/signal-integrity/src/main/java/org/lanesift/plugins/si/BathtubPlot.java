@@ -1,5 +1,6 @@
 package org.lanesift.plugins.si;
 
+import org.lanesift.kit.FramePictures;
 import java.awt.BasicStroke;
 import java.awt.Color;
 import java.awt.Graphics2D;
@@ -50,7 +51,7 @@ final class BathtubPlot {
         g.setColor(Plot.INK);
         Plot.centred(g, "line: dual-Dirac model    dots: measured    dashed: target", w / 2, h - 12);
         g.dispose();
-        return Plot.png(img);
+        return FramePictures.png(img);
     }
 
     private static void panel(Graphics2D g, int x0, int y0, int pw, int ph, double yLo, double ber, double[] xPs, int from, int to,

@@ -4,6 +4,7 @@ import java.nio.charset.StandardCharsets;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
+import org.lanesift.kit.SampleStats;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.Artifact;
@@ -65,14 +66,14 @@ public final class EdgeMetricsPlugin implements PluginProvider {
     static final class MetricsStage extends LevelStage {
         private final double settleFraction;
         private final boolean annotateEdges;
-        private final Distribution rise1090 = new Distribution("ps", KEEP);
-        private final Distribution rise2080 = new Distribution("ps", KEEP);
-        private final Distribution fall1090 = new Distribution("ps", KEEP);
-        private final Distribution fall2080 = new Distribution("ps", KEEP);
-        private final Distribution overshoot = new Distribution("%", KEEP);
-        private final Distribution undershoot = new Distribution("%", KEEP);
-        private final Distribution settleRise = new Distribution("ps", KEEP);
-        private final Distribution settleFall = new Distribution("ps", KEEP);
+        private final SampleStats rise1090 = new SampleStats("ps", KEEP);
+        private final SampleStats rise2080 = new SampleStats("ps", KEEP);
+        private final SampleStats fall1090 = new SampleStats("ps", KEEP);
+        private final SampleStats fall2080 = new SampleStats("ps", KEEP);
+        private final SampleStats overshoot = new SampleStats("%", KEEP);
+        private final SampleStats undershoot = new SampleStats("%", KEEP);
+        private final SampleStats settleRise = new SampleStats("ps", KEEP);
+        private final SampleStats settleFall = new SampleStats("ps", KEEP);
         private long unsettled;
         private long truncated;
         private EdgeTracker tracker;
@@ -138,21 +139,21 @@ public final class EdgeMetricsPlugin implements PluginProvider {
             j.field("definitions", "rise/fall: last crossings of the 10/20/80/90 % levels, linearly interpolated; "
                     + "overshoot: extreme beyond the arrival level before the next transition leaves, % of swing; "
                     + "settling: from the 50 % crossing to the last entry into the band");
-            rise1090.write(j, "rise1090", BINS);
-            rise2080.write(j, "rise2080", BINS);
-            fall1090.write(j, "fall1090", BINS);
-            fall2080.write(j, "fall2080", BINS);
-            overshoot.write(j, "overshoot", BINS);
-            undershoot.write(j, "undershoot", BINS);
-            settleRise.write(j, "settlingAfterRise", BINS);
-            settleFall.write(j, "settlingAfterFall", BINS);
+            rise1090.write(j, "rise1090", BINS, 1.0);
+            rise2080.write(j, "rise2080", BINS, 1.0);
+            fall1090.write(j, "fall1090", BINS, 1.0);
+            fall2080.write(j, "fall2080", BINS, 1.0);
+            overshoot.write(j, "overshoot", BINS, 1.0);
+            undershoot.write(j, "undershoot", BINS, 1.0);
+            settleRise.write(j, "settlingAfterRise", BINS, 1.0);
+            settleFall.write(j, "settlingAfterFall", BINS, 1.0);
             j.endObject();
             ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-edges.json", "application/json", (j.finish() + "\n").getBytes(StandardCharsets.UTF_8)));
             List<Plot.Panel> panels = new ArrayList<>();
-            panels.add(new Plot.Panel(summary("rise 10-90 %", rise1090), "rise time 10-90 % (ps)", rise1090.histogram(BINS), 1));
-            panels.add(new Plot.Panel(summary("fall 90-10 %", fall1090), "fall time 90-10 % (ps)", fall1090.histogram(BINS), 1));
-            panels.add(new Plot.Panel(summary("overshoot after rising edges", overshoot), "overshoot (% of swing)", overshoot.histogram(BINS), 1));
-            panels.add(new Plot.Panel(summary("undershoot after falling edges", undershoot), "undershoot (% of swing)", undershoot.histogram(BINS), 1));
+            panels.add(new Plot.Panel(summary("rise 10-90 %", rise1090), "rise time 10-90 % (ps)", rise1090.histogram(BINS, 1.0), 1));
+            panels.add(new Plot.Panel(summary("fall 90-10 %", fall1090), "fall time 90-10 % (ps)", fall1090.histogram(BINS, 1.0), 1));
+            panels.add(new Plot.Panel(summary("overshoot after rising edges", overshoot), "overshoot (% of swing)", overshoot.histogram(BINS, 1.0), 1));
+            panels.add(new Plot.Panel(summary("undershoot after falling edges", undershoot), "undershoot (% of swing)", undershoot.histogram(BINS, 1.0), 1));
             ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-edges.png", "image/png",
                     Plot.histograms(id + " edge metrics of '" + channel + "': " + rise1090.count() + " rising, "
                             + fall1090.count() + " falling edges", panels)));
@@ -171,7 +172,7 @@ public final class EdgeMetricsPlugin implements PluginProvider {
             }
         }
 
-        private static String summary(String what, Distribution d) {
+        private static String summary(String what, SampleStats d) {
             return String.format(Locale.ROOT, "%s: n = %d, mean %.4g, sd %.3g, min %.4g, max %.4g %s", what, d.count(),
                     d.mean(), d.std(), d.min(), d.max(), d.unit());
         }

@@ -1,11 +1,13 @@
 package org.lanesift.plugins.si;
 
+
 import java.awt.BasicStroke;
 import java.awt.Color;
 import java.awt.Graphics2D;
 import java.awt.geom.Path2D;
 import java.awt.image.BufferedImage;
 import java.util.Locale;
+import org.lanesift.kit.FramePictures;
 
 /**
  * Draws an {@link EyeAnalysis} as a PNG: the density plot (one pixel per bin, logarithmic colour
@@ -144,7 +146,7 @@ final class EyeRenderer {
         }
         g.drawString(sub, 12, 38);
         g.dispose();
-        return Plot.png(img);
+        return FramePictures.png(img);
     }
 
     private static String count(long n) {

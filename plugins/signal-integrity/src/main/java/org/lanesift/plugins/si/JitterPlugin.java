@@ -4,6 +4,7 @@ import java.nio.charset.StandardCharsets;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
+import org.lanesift.kit.SampleStats;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.Artifact;
@@ -82,7 +83,7 @@ public final class JitterPlugin implements PluginProvider {
      * @param tiePs        every TIE value, ps ({@code edges} of them)
      * @param number       interval number of every edge (missing edges skipped)
      */
-    record Result(int edges, double periodFs, long gaps, Distribution tie, Distribution period, Distribution cycleToCycle,
+    record Result(int edges, double periodFs, long gaps, SampleStats tie, SampleStats period, SampleStats cycleToCycle,
                   double[] tiePs, long[] number) {
         /** RMS of the TIE about zero (the least-squares line makes its mean zero). */
         double tieRmsPs() {
@@ -103,9 +104,9 @@ public final class JitterPlugin implements PluginProvider {
      */
     static Result analyse(long[] t, int n) {
         int keep = Math.min(n, 1 << 20);
-        Distribution tie = new Distribution("ps", keep);
-        Distribution period = new Distribution("ps", keep);
-        Distribution c2c = new Distribution("ps", keep);
+        SampleStats tie = new SampleStats("ps", keep);
+        SampleStats period = new SampleStats("ps", keep);
+        SampleStats c2c = new SampleStats("ps", keep);
         if (n < 3) {
             return new Result(n, Double.NaN, 0, tie, period, c2c, new double[0], new long[0]);
         }
@@ -244,7 +245,7 @@ public final class JitterPlugin implements PluginProvider {
             }
             TrackingClock.Result tr = trackingHz > 0 && n >= 3
                     ? TrackingClock.run(times, r.number(), n, r.periodFs(), trackingHz, trackingOrder) : null;
-            Distribution trTie = new Distribution("ps", tr == null ? 1 : Math.min(tr.count(), 1 << 20));
+            SampleStats trTie = new SampleStats("ps", tr == null ? 1 : Math.min(tr.count(), 1 << 20));
             if (tr != null) {
                 for (int i = 0; i < tr.count(); i++) {
                     trTie.add(tr.tiePs()[i]);
@@ -274,9 +275,9 @@ public final class JitterPlugin implements PluginProvider {
             writeBathtub(j, tub, uiPs);
             writeTracking(j, tr, trTie);
             writeProvenance(j);
-            r.tie().write(j, "tie", BINS);
-            r.period().write(j, "period", BINS);
-            r.cycleToCycle().write(j, "cycleToCycle", BINS);
+            r.tie().write(j, "tie", BINS, 1.0);
+            r.period().write(j, "period", BINS, 1.0);
+            r.cycleToCycle().write(j, "cycleToCycle", BINS, 1.0);
             j.endObject();
             ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-jitter.json", "application/json", (j.finish() + "\n").getBytes(StandardCharsets.UTF_8)));
             String what = "'" + channel + "' (" + which + " edges, " + n + " analysed)";
@@ -284,15 +285,15 @@ public final class JitterPlugin implements PluginProvider {
                     d.rjRms(), d.djDd(), ber, d.tj(), d.modelHolds() ? "" : " (doubtful)") : "; no RJ/DJ split";
             java.util.ArrayList<Plot.Panel> panels = new java.util.ArrayList<>(List.of(
                     new Plot.Panel(String.format(Locale.ROOT, "TIE: RMS %.3f ps, p-p %.3f ps",
-                            r.tieRmsPs(), r.tie().peakToPeak()) + rjdj, "TIE (ps)", r.tie().histogram(BINS), 1),
+                            r.tieRmsPs(), r.tie().peakToPeak()) + rjdj, "TIE (ps)", r.tie().histogram(BINS, 1.0), 1),
                     new Plot.Panel(String.format(Locale.ROOT, "period: mean %.4f ps, jitter RMS %.3f ps, peak-to-peak %.3f ps",
-                            r.period().mean(), r.period().std(), r.period().peakToPeak()), "period (ps)", r.period().histogram(BINS), 1),
+                            r.period().mean(), r.period().std(), r.period().peakToPeak()), "period (ps)", r.period().histogram(BINS, 1.0), 1),
                     new Plot.Panel(String.format(Locale.ROOT, "cycle-to-cycle: RMS %.3f ps, peak-to-peak %.3f ps",
-                            r.c2cRmsPs(), r.cycleToCycle().peakToPeak()), "period difference (ps)", r.cycleToCycle().histogram(BINS), 1)));
+                            r.c2cRmsPs(), r.cycleToCycle().peakToPeak()), "period difference (ps)", r.cycleToCycle().histogram(BINS, 1.0), 1)));
             if (tr != null) {
                 panels.add(new Plot.Panel(String.format(Locale.ROOT, "TIE against a tracking clock (loop bandwidth %s, order %d): RMS %.3f ps, peak-to-peak %.3f ps",
                         RingingPlugin.hz(trackingHz), trackingOrder, Math.hypot(trTie.mean(), trTie.std()), trTie.peakToPeak()),
-                        "TIE (ps)", trTie.histogram(BINS), 1));
+                        "TIE (ps)", trTie.histogram(BINS, 1.0), 1));
             }
             ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-jitter.png", "image/png",
                     Plot.histograms("Jitter of " + what, panels)));
@@ -396,7 +397,7 @@ public final class JitterPlugin implements PluginProvider {
             return BathtubPlot.render("Bathtub of " + what, sub, b[0], uiPs, b[1], b[2], ber);
         }
 
-        private void writeTracking(JsonWriter j, TrackingClock.Result tr, Distribution trTie) {
+        private void writeTracking(JsonWriter j, TrackingClock.Result tr, SampleStats trTie) {
             j.name("trackingReference");
             if (tr == null) {
                 j.nullValue();

@@ -7,16 +7,14 @@ import java.awt.FontMetrics;
 import java.awt.Graphics2D;
 import java.awt.RenderingHints;
 import java.awt.image.BufferedImage;
-import java.io.ByteArrayOutputStream;
-import java.io.IOException;
-import java.io.UncheckedIOException;
 import java.util.List;
 import java.util.Locale;
-import javax.imageio.ImageIO;
+import org.lanesift.kit.FramePictures;
+import org.lanesift.kit.SampleStats;
 
 /**
  * Drawing helpers for the pictures of this module: tick positions, number labels, the colour scale
- * of density plots, PNG encoding (javax.imageio) and a histogram bar chart. Works headless.
+ * of density plots and a histogram bar chart, encoded by the shared {@link FramePictures}. Works headless.
  */
 final class Plot {
     static final Color BACKGROUND = new Color(250, 250, 247);
@@ -129,20 +127,8 @@ final class Plot {
         g2.dispose();
     }
 
-    static byte[] png(BufferedImage img) {
-        try {
-            ByteArrayOutputStream bos = new ByteArrayOutputStream();
-            if (!ImageIO.write(img, "png", bos)) {
-                throw new IllegalStateException("no PNG writer in this Java runtime");
-            }
-            return bos.toByteArray();
-        } catch (IOException e) {
-            throw new UncheckedIOException(e);
-        }
-    }
-
     /** One panel of a {@link #histograms} picture. */
-    record Panel(String title, String axis, Distribution.Histogram histogram, double scale) {
+    record Panel(String title, String axis, SampleStats.Histogram histogram, double scale) {
     }
 
     /**
@@ -168,7 +154,7 @@ final class Plot {
             top += ph;
         }
         g.dispose();
-        return png(img);
+        return FramePictures.png(img);
     }
 
     private static void drawPanel(Graphics2D g, Panel p, int x0, int y0, int pw, int ph) {

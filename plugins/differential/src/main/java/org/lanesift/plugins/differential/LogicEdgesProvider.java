@@ -1,4 +1,4 @@
-package org.lanesift.plugins.serial;
+package org.lanesift.plugins.differential;
 
 import java.util.ArrayList;
 import java.util.List;
@@ -18,7 +18,9 @@ import org.lanesift.plugin.StageContext;
  * ({@link org.lanesift.data.LogicEdges}). Where a channel's blocks do not follow each other (a gap
  * in the capture) the converter forgets the level, so no transition is invented across the gap.
  * At the end each channel gets a {@code logic-activity} annotation: transitions, shortest high
- * and low pulse seen between two transitions of one gap-free stretch, and the gaps.
+ * and low pulse seen between two transitions of one gap-free stretch, and the gaps. It lives here,
+ * with the module's other conversions of signals to logic and edges; its id and options are those
+ * it had in the serial-source module, so chain files keep working.
  */
 public final class LogicEdgesProvider implements PluginProvider {
     /** Largest channel count. */

@@ -1,10 +1,11 @@
-package org.lanesift.plugins.serial;
+package org.lanesift.plugins.differential;
 
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.Block;
 import org.lanesift.data.Edges;
 import org.lanesift.data.LogicBlock;
+import org.lanesift.data.LogicEdges;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
 
@@ -12,7 +13,7 @@ import org.lanesift.plugin.StageContext;
 final class LogicEdgesStage implements Stage {
     static final String TRACK = "activity";
     private final StageContext ctx;
-    private final EdgeFinder[] conv;
+    private final LogicEdges[] conv;
     private final long[] nextIndex;
     private final long[] transitions;
     private final long[] gaps;
@@ -23,7 +24,7 @@ final class LogicEdgesStage implements Stage {
 
     LogicEdgesStage(StageContext ctx, int channels) {
         this.ctx = ctx;
-        conv = new EdgeFinder[channels];
+        conv = new LogicEdges[channels];
         nextIndex = new long[channels];
         transitions = new long[channels];
         gaps = new long[channels];
@@ -32,7 +33,7 @@ final class LogicEdgesStage implements Stage {
         shortestLowFs = new long[channels];
         names = new String[channels];
         for (int c = 0; c < channels; c++) {
-            conv[c] = new EdgeFinder();
+            conv[c] = new LogicEdges();
             nextIndex[c] = -1;
             lastEdgeFs[c] = Long.MIN_VALUE;
             shortestHighFs[c] = Long.MAX_VALUE;

@@ -1,4 +1,4 @@
-package org.lanesift.plugins.serial;
+package org.lanesift.plugins.differential;
 
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
