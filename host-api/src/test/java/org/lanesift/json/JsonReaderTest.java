@@ -175,6 +175,18 @@ class JsonReaderTest {
     }
 
     @Test
+    void pointersLeadToValues() {
+        JsonValue v = JsonReader.parse("t", "{\"a/b\": {\"~\": [10, 20]}, \"c\": [{\"d\": true}]}");
+        assertEquals(20.0, v.at("/a~1b/~0/1").asDouble());
+        assertEquals(true, v.at("/c/0/d").asBoolean());
+        assertEquals(v, v.at(""));
+        assertEquals(null, v.at("/c/1"));
+        assertEquals(null, v.at("/c/01"));
+        assertEquals(null, v.at("/a~1b/~0/1/x"));
+        assertThrows(IllegalArgumentException.class, () -> v.at("c"));
+    }
+
+    @Test
     void accessorsRefuseTheWrongKind() {
         JsonValue v = JsonReader.parse("t", "{\"a\": \"35\"}");
         IllegalStateException e = assertThrows(IllegalStateException.class, () -> v.get("a").asDouble());

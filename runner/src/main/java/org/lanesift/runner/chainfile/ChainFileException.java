@@ -3,7 +3,7 @@ package org.lanesift.runner.chainfile;
 import org.lanesift.chain.ChainException;
 
 /**
- * A chain file that cannot be read: a JSON syntax error (with line and column), a field of the
+ * A chain file that cannot be read: a JSON syntax error (with line, column and pointer), a field of the
  * wrong type, an unknown key, a missing field. {@link #getMessage()} is one line that starts with
  * the file and the location, such as {@code chain.json /wires/2/to: expected a string}.
  */
@@ -25,6 +25,18 @@ public final class ChainFileException extends ChainException {
         super(where(file, pointer, line, column) + ": " + what, pointer);
         this.file = file;
         this.line = line;
+    }
+
+    /**
+     * A chain file that is not acceptable JSON; the message is the JSON reader's, which names the
+     * file, line, column and JSON pointer, so it reads the same as for every other JSON input.
+     *
+     * @param e the reader's fault
+     */
+    public ChainFileException(org.lanesift.json.JsonParseException e) {
+        super(e.getMessage(), e.pointer(), e);
+        this.file = e.source();
+        this.line = e.line();
     }
 
     private static String where(String file, String pointer, long line, long column) {

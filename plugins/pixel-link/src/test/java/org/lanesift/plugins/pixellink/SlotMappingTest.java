@@ -142,7 +142,7 @@ class SlotMappingTest {
                 "{\"name\": \"x\", \"colourBits\": 7, \"lanes\": []}", "/colourBits must be 6 or 8",
                 "{\"name\": \"x\", \"colourBits\": 6, \"lanes\": [[\"G0\",\"R5\",\"R4\",\"R3\",\"R2\",\"R1\",\"R7\"]]}",
                 "/lanes/0/6 (lane 0, slot 6): 'R7' is not a bit name",
-                "{\"name\": \"x\", \"colourBits\": 6,\n \"lanes\": [}", "line 2, column 12",
+                "{\"name\": \"x\", \"colourBits\": 6,\n \"lanes\": [}", "line 2 column 12 at /lanes/0: expected a value",
                 "{\"colourBits\": 6, \"lanes\": []}", "/name is required");
         int k = 0;
         for (Map.Entry<String, String> c : cases.entrySet()) {
