@@ -6,7 +6,7 @@ import java.util.List;
 import java.util.Random;
 
 /**
- * Part (b) of the demo scenario: the invented "Tern T-64" also has a 32 x 24 status display on a
+ * Part (b) of the demo scenario: the invented "Siftlet-64" also has a 32 x 24 status display on a
  * two-lane packet link (D-PHY style: low-power single-ended states between high-speed bursts; DSI
  * packets inside). The capture holds the display controller's init sequence and two command-mode
  * frame writes. Six legs (clock P/N, lane 0 P/N, lane 1 P/N) are probed single-ended at 2.5 GS/s.

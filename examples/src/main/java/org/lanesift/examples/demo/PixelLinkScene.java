@@ -5,7 +5,7 @@ import java.util.List;
 import java.util.Random;
 
 /**
- * Part (a) of the demo scenario: the invented "Tern T-64" handheld meter drives its small
+ * Part (a) of the demo scenario: the invented "Siftlet-64" handheld meter drives its small
  * 64 x 40 colour panel over a 7:1 pixel link, 18-bit colour, one clock pair and three data pairs.
  * Every leg is probed single-ended and recorded by a scope at 2.5 GS/s (8 analog channels).
  *

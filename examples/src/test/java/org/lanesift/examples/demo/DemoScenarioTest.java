@@ -55,12 +55,19 @@ class DemoScenarioTest {
         Path csv = dir.resolve("c.csv");
         CaptureFiles.writeCsv(csv, new String[] {"A", "B"}, v, 1e9, -1e-9);
         List<String> lines = Files.readAllLines(csv);
+        // metadata keys of our own (docs/capture-csv.md, "Metadata lines the demo writes")
+        assertEquals(List.of("generator,lanesift demo scenario (simulated capture)", "device,Siftlet-64 (invented)",
+                "samples,3", "sample-period-s,1.000000e-09", ""), lines.subList(0, 5));
         assertEquals("Time (s),A (V),B (V)", lines.get(5));
         assertEquals("-0.000000001000,0.10000,1.00000", lines.get(6));
         assertEquals("0.000000000000,-0.25000,2.00000", lines.get(7));
         Path raw = dir.resolve("c.bin");
         CaptureFiles.writeRaw(raw, new String[] {"A", "B"}, v, 1e9, 1e-3);
         assertEquals(12, Files.size(raw));
-        assertTrue(Files.readString(Path.of(raw + ".json")).contains("\"format\": \"int16le\""));
+        org.lanesift.json.JsonValue side = org.lanesift.json.JsonReader.read(Path.of(raw + ".json"), "c.bin.json");
+        assertEquals("int16le", side.get("format").asString());
+        assertEquals(1e9, side.get("rateHz").asDouble());
+        assertEquals("B", side.at("/channels/1/name").asString());
+        assertEquals(1e-3, side.at("/channels/1/gain").asDouble());
     }
 }
