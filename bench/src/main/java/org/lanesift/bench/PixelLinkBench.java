@@ -55,7 +55,7 @@ public class PixelLinkBench {
     static final int V_TOT = V_ACT + V_FP + V_SYNC + V_BP;
     static final int PIXELS_PER_FRAME = H_TOT * V_TOT;
     static final double PERIOD_FS = 1e15 / 25.175e6;
-    // VESA 24-bit slots 0..6 (DESIGN.md section 6)
+    // VESA 24-bit slots 0..6 (docs/reference-facts.md#pixel-link-clock-and-slot-mappings)
     static final String[][] VESA24 = {
         {"G0", "R5", "R4", "R3", "R2", "R1", "R0"},
         {"B1", "B0", "G5", "G4", "G3", "G2", "G1"},

@@ -16,7 +16,7 @@ class DemoScenarioTest {
     void encoderMatchesThePublishedChecks() {
         // CRC RevEng catalogue, CRC-16/MCRF4XX: check value 0x6F91 for ASCII "123456789".
         assertEquals(0x6F91, DsiEncoder.crc16("123456789".getBytes(StandardCharsets.US_ASCII)));
-        // Worked example of a display init sequence (shared/DESIGN.md section 6, from memory there):
+        // Worked example of a display init sequence (docs/reference-facts.md#dsi-packets-ecc-and-checksum, from memory):
         // header 39 04 00 -> ECC 2C; payload B9 F1 12 83 -> checksum bytes 84 5D.
         assertEquals(0x2C, DsiEncoder.ecc(0x39, 0x04, 0x00));
         byte[] p = DsiEncoder.longPacket(0, 0x39, new byte[] {(byte) 0xB9, (byte) 0xF1, 0x12, (byte) 0x83});

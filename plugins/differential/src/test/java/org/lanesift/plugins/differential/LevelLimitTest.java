@@ -15,9 +15,10 @@ import org.lanesift.data.Artifact;
 import org.lanesift.testkit.StageHarness;
 
 /**
- * Level checks at and just past every limit. Source of the limits: ANSI/TIA/EIA-644-A as listed in DESIGN.md
- * section 6 (|VOD| 247-454 mV, VOS 1.125-1.375 V, receiver threshold +/-100 mV; values from memory), and MIPI
- * D-PHY from the same section (HS swing 140-270 mV, common mode about 200 mV; LP thresholds 880 / 550 mV; from memory).
+ * Level checks at and just past every limit. Source of the limits: ANSI/TIA/EIA-644-A as listed in
+ * docs/reference-facts.md#lvds-electrical-levels (|VOD| 247-454 mV, VOS 1.125-1.375 V, receiver threshold +/-100 mV;
+ * values from memory), and MIPI D-PHY from docs/reference-facts.md#d-phy-levels-and-states (HS swing 140-270 mV,
+ * common mode about 200 mV; LP thresholds 880 / 550 mV; from memory).
  */
 class LevelLimitTest {
     static final int N = 40_000;
@@ -121,7 +122,7 @@ class LevelLimitTest {
 
     @Test
     void dphyProfiles() {
-        // MIPI D-PHY HS (DESIGN.md section 6, from memory): 200 mV swing around 200 mV common mode passes
+        // MIPI D-PHY HS (docs/reference-facts.md#d-phy-levels-and-states, from memory): 200 mV swing around 200 mV common mode passes
         assertEquals(Severity.INFO, verdicts(Map.of("levelProfile", "dphy-hs"), pair(0.200, 0.200)).get("vod-high"));
         assertEquals(Severity.INFO, verdicts(Map.of("levelProfile", "dphy-hs"), pair(0.200, 0.200)).get("vos"));
         assertEquals(Severity.ERROR, verdicts(Map.of("levelProfile", "dphy-hs"), pair(0.300, 0.200)).get("vod-high"));

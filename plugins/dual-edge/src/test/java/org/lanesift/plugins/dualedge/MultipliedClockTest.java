@@ -11,7 +11,7 @@ import org.lanesift.data.Edges;
 
 /**
  * The 7:1 multiplied-clock mode against synthetic pixel links whose slot 0 is known. The clock
- * pattern (high in slots 0-1 and 5-6, low in 2-4) is the one of DESIGN.md section 6 (JEIDA-59-1999,
+ * pattern (high in slots 0-1 and 5-6, low in 2-4) is the one of docs/reference-facts.md#pixel-link-clock-and-slot-mappings (JEIDA-59-1999,
  * Open LVDS Display Interface 0.95 and VESA Notebook Panel Standard 2007 as tabulated there).
  */
 class MultipliedClockTest {

@@ -87,7 +87,7 @@ class UnknownClockSpanTest {
     }
 
     /**
-     * The same start on a 7:1 link (duty 4/7, the pattern of DESIGN.md section 6): pixel c lies
+     * The same start on a 7:1 link (duty 4/7, the pattern of docs/reference-facts.md#pixel-link-clock-and-slot-mappings): pixel c lies
      * between true rising edges c and c+1, slot 0 starting 2/7 period after edge c; the first true
      * rising edge is edge 1, so pixels 1 .. cycles-2 are made and numbered from 0.
      */

@@ -23,7 +23,7 @@ import org.lanesift.testkit.StageHarness;
 /**
  * A synthetic two-lane link (LinkSynth, invented demo scenario) with a known init sequence, sent
  * partly as low-power data and partly in high-speed bursts, and three known command-mode frames.
- * Packets are built with the reference ECC and CRC of RefCodes (DESIGN.md section 6 equations;
+ * Packets are built with the reference ECC and CRC of RefCodes (docs/reference-facts.md#dsi-packets-ecc-and-checksum equations;
  * CRC RevEng catalogue CRC-16/MCRF4XX), not with the production code.
  */
 class DsiBurstTest {

@@ -82,7 +82,7 @@ class VerilogSerialiserTest {
         assertTrue(rises.size() > pixels - 10, "clock edges: " + rises.size());
         MiniVcd.Signal[] lanes = {vcd.signal("d0"), vcd.signal("d1"), vcd.signal("d2"), vcd.signal("d3")};
         // sample at slot centres: the clock lane rises at the start of slot 5, so slot 0 of the next
-        // pixel starts 2/7 of a period after the rising edge (DESIGN.md section 6: clock high in slots 0-1 and 5-6)
+        // pixel starts 2/7 of a period after the rising edge (docs/reference-facts.md#pixel-link-clock-and-slot-mappings: clock high in slots 0-1 and 5-6)
         int n = rises.size() - 1;
         try (StageHarness h = StageHarness.of(new PixelLinkPlugin(), Map.of("pictures", "all", "mapping", "vesa-24"))) {
             int block = 100;
