@@ -2,6 +2,7 @@ package org.lanesift.testkit;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.List;
 import java.util.Map;
@@ -87,5 +88,23 @@ class TestkitTest {
             ss += noisy.volts()[i] * noisy.volts()[i];
         }
         assertEquals(0.01, Math.sqrt(ss / noisy.length()), 0.001);
+    }
+
+    @Test
+    void pollReturnsOnceTheConditionHoldsAndFailsNamingItOtherwise() throws Exception {
+        long t0 = System.nanoTime();
+        int[] calls = {0};
+        Poll.until(java.time.Duration.ofSeconds(10), "the third check", () -> ++calls[0] >= 3);
+        assertEquals(3, calls[0]);
+        assertTrue(System.nanoTime() - t0 < 5_000_000_000L, "returned as soon as the condition held");
+        AssertionError e = org.junit.jupiter.api.Assertions.assertThrows(AssertionError.class,
+                () -> Poll.until(java.time.Duration.ofMillis(30), "a condition that never holds", () -> false));
+        assertEquals("waited 30 ms for a condition that never holds; it did not happen", e.getMessage());
+    }
+
+    @Test
+    void externalToolsAreFoundOnThePath() {
+        assertTrue(ExternalTool.find("sh") != null, "every Debian image has sh");
+        assertEquals(null, ExternalTool.find("no-such-program-lanesift-test"));
     }
 }
