@@ -107,4 +107,18 @@ class TestkitTest {
         assertTrue(ExternalTool.find("sh") != null, "every Debian image has sh");
         assertEquals(null, ExternalTool.find("no-such-program-lanesift-test"));
     }
+
+    @Test
+    void jsonScanFindsMembersInDocumentOrder() {
+        var root = JsonScan.parse("t", "{\"a\": {\"lane\": 0, \"min\": 5}, \"b\": [{\"lane\": 1, \"min\": 7, \"ok\": true}], \"n\": null}");
+        assertEquals(5, JsonScan.number(root, "min"));
+        assertEquals(7, JsonScan.number(JsonScan.after(root, "lane", "1", "min")));
+        assertEquals("/b/0/min", JsonScan.after(root, "lane", "1", "min").pointer());
+        assertEquals(1, JsonScan.number(root, "ok"));
+        assertTrue(Double.isNaN(JsonScan.number(root, "n")));
+        assertEquals(2, JsonScan.count(root, "lane"));
+        assertThrows(AssertionError.class, () -> JsonScan.number(root, "absent"));
+        assertThrows(AssertionError.class, () -> JsonScan.after(root, "lane", "2", "min"));
+        assertThrows(AssertionError.class, () -> JsonScan.number(root, "a"), "an object is not a number");
+    }
 }

@@ -113,11 +113,16 @@ class LevelLimitTest {
         assertEquals(40_000 * 1e6, runs.get(0).endFs(), 1);
         assertEquals(5L, runs.get(0).fields().get("windows").value());
         String json = new String(h.outputs("report", Artifact.class).get(0).content(), StandardCharsets.UTF_8);
-        assertTrue(json.startsWith("{\"instance\":\"dut\""), json);
-        assertEquals(10, json.split("\"settledHigh\"").length - 2, "ten windows plus the capture");
+        org.lanesift.json.JsonValue report = org.lanesift.testkit.JsonScan.parse("level report", json);
+        assertEquals("dut", report.get("instance").asString(), json);
+        assertEquals(11, org.lanesift.testkit.JsonScan.count(report, "settledHigh"), "ten windows plus the capture");
         // over the whole capture the mean |VOD| is 275 mV, inside the limits; the windows tell the story
-        assertTrue(json.contains("{\"quantity\":\"vod-high\",\"what\":\"|VOD| in the high state\",\"valueVolts\":0.274999976"), json);
-        assertTrue(json.contains("\"quantities\":{\"vod-high\":0.200000048"), json);
+        org.lanesift.testkit.JsonScan.Member q = org.lanesift.testkit.JsonScan.after(report, "quantity", "\"vod-high\"", "valueVolts");
+        assertEquals("0.274999976", q.value().numberText(), json);
+        assertEquals("|VOD| in the high state", report.at(q.pointer().substring(0, q.pointer().lastIndexOf('/')) + "/what").asString());
+        // and one window's |VOD| in the high state is 200 mV, below the 247 mV limit
+        assertTrue(org.lanesift.testkit.JsonScan.members(report).stream().anyMatch(m -> m.name().equals("quantities")
+                && m.value().get("vod-high") != null && "0.200000048".equals(m.value().get("vod-high").toString())), json);
     }
 
     @Test
