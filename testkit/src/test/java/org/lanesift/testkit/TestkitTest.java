@@ -92,11 +92,9 @@ class TestkitTest {
 
     @Test
     void pollReturnsOnceTheConditionHoldsAndFailsNamingItOtherwise() throws Exception {
-        long t0 = System.nanoTime();
         int[] calls = {0};
         Poll.until(java.time.Duration.ofSeconds(10), "the third check", () -> ++calls[0] >= 3);
-        assertEquals(3, calls[0]);
-        assertTrue(System.nanoTime() - t0 < 5_000_000_000L, "returned as soon as the condition held");
+        assertEquals(3, calls[0], "returns at the first check that holds, not later");
         AssertionError e = org.junit.jupiter.api.Assertions.assertThrows(AssertionError.class,
                 () -> Poll.until(java.time.Duration.ofMillis(30), "a condition that never holds", () -> false));
         assertEquals("waited 30 ms for a condition that never holds; it did not happen", e.getMessage());
