@@ -147,7 +147,7 @@ final class RawSidecar {
     }
 
     private CaptureFormatException bad(String pointer, String msg) {
-        return new CaptureFormatException(path, 0, (pointer.isEmpty() ? "/" : pointer) + ": " + msg);
+        return new CaptureFormatException(path, 0, (pointer.isEmpty() ? "at the top level" : pointer) + ": " + msg);
     }
 
     int frameBytes() {

@@ -47,7 +47,8 @@ public final class ChainFileException extends ChainException {
                 sb.append(" column ").append(column);
             }
         } else if (pointer != null) {
-            sb.append(' ').append(pointer.isEmpty() ? "/" : pointer);
+            // RFC 6901: "" is the whole document ("/" would be a member with an empty name)
+            sb.append(' ').append(pointer.isEmpty() ? "at the top level" : pointer);
         }
         return sb.toString();
     }
