@@ -1,4 +1,4 @@
-// 7:1 pixel link serialiser, 24-bit VESA slot order (DESIGN.md section 6:
+// 7:1 pixel link serialiser, 24-bit VESA slot order (docs/reference-facts.md#pixel-link-clock-and-slot-mappings:
 // VESA Notebook Panel Standard 2007 / Open LVDS Display Interface 0.95).
 // One pixel per 7 bit clocks; slot 0 goes out first. The clock lane is high
 // in slots 0-1 and 5-6 and low in slots 2-4.

@@ -58,72 +58,9 @@ public class DifferentialBench {
     float[][] p = new float[BLOCKS][];
     float[][] n = new float[BLOCKS][];
     Stage stage;
-    Ctx ctx;
+    CountingContext ctx;
     long nextStartFs;
     long index;
-
-    /** A context that counts what the stage emits. */
-    static final class Ctx implements StageContext {
-        final OptionValues options;
-        final List<PortSpec> in;
-        final List<PortSpec> out;
-        long transitions;
-        long logicSamples;
-
-        Ctx(Map<String, ?> raw) {
-            PluginDescriptor d = new DifferentialPlugin().descriptor();
-            options = OptionValues.validate(d, raw);
-            in = d.inputs(options);
-            out = d.outputs(options);
-        }
-
-        @Override
-        public String instanceId() {
-            return "rx";
-        }
-
-        @Override
-        public OptionValues options() {
-            return options;
-        }
-
-        @Override
-        public List<PortSpec> inputs() {
-            return in;
-        }
-
-        @Override
-        public List<PortSpec> outputs() {
-            return out;
-        }
-
-        @Override
-        public boolean isConnected(int output) {
-            return true;
-        }
-
-        @Override
-        public void emit(int output, Block block) {
-            if (block instanceof Edges e) {
-                transitions += e.count();
-            } else if (block instanceof LogicBlock l) {
-                logicSamples += l.length();
-            }
-        }
-
-        @Override
-        public void annotate(Annotation a) {
-        }
-
-        @Override
-        public void progress(long done, long total) {
-        }
-
-        @Override
-        public boolean isCancelled() {
-            return false;
-        }
-    }
 
     @Setup(Level.Trial)
     public void setup() throws Exception {
@@ -148,7 +85,7 @@ public class DifferentialBench {
     }
 
     void open(Map<String, ?> options) throws Exception {
-        ctx = new Ctx(options);
+        ctx = new CountingContext("rx", new DifferentialPlugin(), options);
         stage = new DifferentialPlugin().open(ctx);
         nextStartFs = 0;
         index = 0;

@@ -55,7 +55,7 @@ public class PixelLinkBench {
     static final int V_TOT = V_ACT + V_FP + V_SYNC + V_BP;
     static final int PIXELS_PER_FRAME = H_TOT * V_TOT;
     static final double PERIOD_FS = 1e15 / 25.175e6;
-    // VESA 24-bit slots 0..6 (DESIGN.md section 6)
+    // VESA 24-bit slots 0..6 (docs/reference-facts.md#pixel-link-clock-and-slot-mappings)
     static final String[][] VESA24 = {
         {"G0", "R5", "R4", "R3", "R2", "R1", "R0"},
         {"B1", "B0", "G5", "G4", "G3", "G2", "G1"},
@@ -71,8 +71,7 @@ public class PixelLinkBench {
     /** Clock index the blocks currently start at. */
     long frameClock;
     Stage stage;
-    long frames;
-    long annotations;
+    CountingContext ctx;
 
     @Setup(Level.Trial)
     public void setup() throws Exception {
@@ -93,8 +92,8 @@ public class PixelLinkBench {
             lines[line] = serialise(words, (long) line * H_TOT);
         }
         PixelLinkPlugin p = new PixelLinkPlugin();
-        OptionValues ov = OptionValues.validate(p.descriptor(), Map.of("pictures", "none", "detail", detail));
-        stage = p.open(new Ctx(ov, p));
+        ctx = new CountingContext("bench", p, Map.of("pictures", "none", "detail", detail));
+        stage = p.open(ctx);
         frameClock = -1;
     }
 
@@ -185,7 +184,7 @@ public class PixelLinkBench {
                 stage.accept(lane, t[lane]);
             }
         }
-        bh.consume(frames);
+        bh.consume(ctx.blocks);
     }
 
     /** Baseline: a plain sequential read of the arrays the decoder reads (values, slots, clock indices, times, flags). */
@@ -211,61 +210,5 @@ public class PixelLinkBench {
             }
         }
         return acc;
-    }
-
-    final class Ctx implements StageContext {
-        private final OptionValues ov;
-        private final List<PortSpec> in;
-        private final List<PortSpec> out;
-
-        Ctx(OptionValues ov, PixelLinkPlugin p) {
-            this.ov = ov;
-            this.in = new ArrayList<>(p.descriptor().inputs(ov));
-            this.out = new ArrayList<>(p.descriptor().outputs(ov));
-        }
-
-        @Override
-        public String instanceId() {
-            return "bench";
-        }
-
-        @Override
-        public OptionValues options() {
-            return ov;
-        }
-
-        @Override
-        public List<PortSpec> inputs() {
-            return in;
-        }
-
-        @Override
-        public List<PortSpec> outputs() {
-            return out;
-        }
-
-        @Override
-        public boolean isConnected(int output) {
-            return true;
-        }
-
-        @Override
-        public void emit(int output, Block block) {
-            frames++;
-        }
-
-        @Override
-        public void annotate(Annotation a) {
-            annotations++;
-        }
-
-        @Override
-        public void progress(long done, long total) {
-        }
-
-        @Override
-        public boolean isCancelled() {
-            return false;
-        }
     }
 }

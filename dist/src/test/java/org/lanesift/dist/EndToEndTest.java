@@ -3,8 +3,8 @@ package org.lanesift.dist;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import com.fasterxml.jackson.databind.JsonNode;
-import com.fasterxml.jackson.databind.ObjectMapper;
+import org.lanesift.json.JsonReader;
+import org.lanesift.json.JsonValue;
 import java.io.BufferedWriter;
 import java.io.ByteArrayOutputStream;
 import java.io.PrintStream;
@@ -73,9 +73,9 @@ class EndToEndTest {
     void pluginsListsEveryDiscoveredPluginWithItsPorts() throws Exception {
         Cli r = cli("plugins", "--json");
         assertEquals(0, r.code(), r::toString);
-        JsonNode root = new ObjectMapper().readTree(r.out());
+        JsonValue root = JsonReader.parse("plugins --json", r.out());
         Set<String> listed = new TreeSet<>();
-        root.get("plugins").forEach(p -> listed.add(p.get("id").asText()));
+        root.get("plugins").elements().forEach(p -> listed.add(p.get("id").asString()));
         Set<String> discovered = new TreeSet<>();
         for (PluginProvider p : PluginRegistry.discover(null).all()) {
             discovered.add(p.descriptor().id());

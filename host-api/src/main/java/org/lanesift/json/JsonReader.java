@@ -1,5 +1,12 @@
 package org.lanesift.json;
 
+import java.io.IOException;
+import java.nio.ByteBuffer;
+import java.nio.charset.CharacterCodingException;
+import java.nio.charset.CodingErrorAction;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Collections;
 import java.util.LinkedHashMap;
@@ -14,17 +21,24 @@ import java.util.Map;
  * mark U+FEFF is skipped, as RFC 8259 section 8.1 allows); no comments, trailing commas, single
  * quotes, leading zeros, {@code +}, NaN or infinities; no raw control characters inside strings.
  * Beyond the grammar it refuses a member name that appears twice in one object (RFC 8259 leaves
- * that to the reader), a number too large for a double, and nesting deeper than a limit (default
- * {@value #DEFAULT_MAX_DEPTH} containers), so a hostile file cannot exhaust the stack. Escaped
- * surrogate pairs ({@code \}{@code uD83D}{@code \}{@code uDE00}) become one character outside the
- * Basic Multilingual Plane.
+ * that to the reader), a number too large for a double, nesting deeper than a limit (default
+ * {@value #DEFAULT_MAX_DEPTH} containers), so a hostile file cannot exhaust the stack, and a text
+ * longer than a limit (default {@value #DEFAULT_MAX_BYTES} bytes, or characters for a text given
+ * as a string), so a wrong file cannot exhaust the heap. Escaped surrogate pairs
+ * ({@code \}{@code uD83D}{@code \}{@code uDE00}) become one character outside the Basic
+ * Multilingual Plane.
  *
- * <p>Every fault is a {@link JsonParseException} whose message reads
- * {@code source:line:column: what was found and what was expected}.
+ * <p>This is the project's one JSON reader: chain files, raw capture sidecars, skew tables, slot
+ * mapping files and every test that looks into a report read through it, with the same limits.
+ * Every fault is a {@link JsonParseException} whose message reads
+ * {@code source line L column C at POINTER: what was found and what was expected}, where POINTER
+ * is the RFC 6901 JSON pointer of the offending place ({@code the top level} for the whole text).
  */
 public final class JsonReader {
     /** The default nesting limit. */
     public static final int DEFAULT_MAX_DEPTH = 64;
+    /** The default size limit: bytes of a file, or characters of a text. */
+    public static final int DEFAULT_MAX_BYTES = 4 << 20;
 
     private final String source;
     private final String s;
@@ -32,11 +46,68 @@ public final class JsonReader {
     private int pos;
     private int line = 1;
     private int lineStart;
+    /** The path to the value being read: member names, or null where an array index stands. */
+    private final String[] names;
+    /** Array indices of the path, where {@link #names} holds null. */
+    private final int[] indices;
+    /** How many path segments are valid. */
+    private int segments;
 
     private JsonReader(String source, String text, int maxDepth) {
         this.source = source;
         this.s = text;
         this.maxDepth = maxDepth;
+        this.names = new String[maxDepth];
+        this.indices = new int[maxDepth];
+    }
+
+    /**
+     * Reads a UTF-8 file that holds exactly one JSON value, within the default limits. The size
+     * is checked before the file is loaded.
+     *
+     * @param file      the file
+     * @param shownName what to call the file in messages (usually as the user named it)
+     * @return the value
+     * @throws JsonParseException naming the file, line, column and JSON pointer of a fault, a file
+     *                            over {@value #DEFAULT_MAX_BYTES} bytes, or bytes that are not UTF-8
+     * @throws IOException        if the file cannot be read (a missing file is a
+     *                            {@link java.nio.file.NoSuchFileException})
+     */
+    public static JsonValue read(Path file, String shownName) throws IOException {
+        long size = Files.size(file);
+        if (size > DEFAULT_MAX_BYTES) {
+            throw new JsonParseException(shownName, 1, 1, "", "the file has " + size + " bytes; expected at most "
+                    + DEFAULT_MAX_BYTES + " bytes of JSON");
+        }
+        byte[] bytes = Files.readAllBytes(file);
+        String text;
+        try {
+            text = StandardCharsets.UTF_8.newDecoder().onMalformedInput(CodingErrorAction.REPORT)
+                    .onUnmappableCharacter(CodingErrorAction.REPORT).decode(ByteBuffer.wrap(bytes)).toString();
+        } catch (CharacterCodingException e) {
+            throw notUtf8(shownName, bytes);
+        }
+        return parse(shownName, text);
+    }
+
+    /** Names the first byte that is not UTF-8 by line and column (columns count bytes here). */
+    private static JsonParseException notUtf8(String shownName, byte[] bytes) {
+        var dec = StandardCharsets.UTF_8.newDecoder().onMalformedInput(CodingErrorAction.REPORT)
+                .onUnmappableCharacter(CodingErrorAction.REPORT);
+        ByteBuffer in = ByteBuffer.wrap(bytes);
+        java.nio.CharBuffer out = java.nio.CharBuffer.allocate(bytes.length + 1);
+        dec.decode(in, out, true);
+        int bad = in.position();
+        int ln = 1;
+        int start = 0;
+        for (int i = 0; i < bad; i++) {
+            if (bytes[i] == '\n') {
+                ln++;
+                start = i + 1;
+            }
+        }
+        return new JsonParseException(shownName, ln, bad - start + 1, "",
+                String.format(Locale.ROOT, "byte 0x%02X is not UTF-8; expected a UTF-8 text", bytes[bad] & 0xff));
     }
 
     /**
@@ -63,6 +134,10 @@ public final class JsonReader {
     public static JsonValue parse(String source, String text, int maxDepth) {
         if (maxDepth < 1) {
             throw new IllegalArgumentException("maxDepth must be at least 1, got " + maxDepth);
+        }
+        if (text.length() > DEFAULT_MAX_BYTES) {
+            throw new JsonParseException(source, 1, 1, "", "the text has " + text.length() + " characters; expected at most "
+                    + DEFAULT_MAX_BYTES + " characters of JSON");
         }
         JsonReader r = new JsonReader(source, text, maxDepth);
         if (text.startsWith("\uFEFF")) {
@@ -91,7 +166,21 @@ public final class JsonReader {
         if (start == 0 && s.startsWith("\uFEFF")) {
             col--;
         }
-        return new JsonParseException(source, ln, col, what);
+        return new JsonParseException(source, ln, col, pointer(), what);
+    }
+
+    /** The RFC 6901 pointer of the current path. */
+    private String pointer() {
+        StringBuilder p = new StringBuilder();
+        for (int i = 0; i < segments; i++) {
+            p.append('/');
+            if (names[i] == null) {
+                p.append(indices[i]);
+            } else {
+                p.append(names[i].replace("~", "~0").replace("/", "~1"));
+            }
+        }
+        return p.toString();
     }
 
     /** The character at pos, described for a message. */
@@ -132,7 +221,8 @@ public final class JsonReader {
             case '{':
             case '[':
                 if (depth >= maxDepth) {
-                    throw error(pos, "nesting deeper than " + maxDepth + " levels");
+                    throw error(pos, "nesting deeper than " + maxDepth + " levels; expected at most " + maxDepth
+                            + " objects and arrays inside one another");
                 }
                 return c == '{' ? object(depth + 1) : array(depth + 1);
             case '"': {
@@ -173,6 +263,7 @@ public final class JsonReader {
             pos++;
             return new JsonValue(JsonValue.Kind.OBJECT, Collections.unmodifiableMap(m), null, ln, col);
         }
+        int seg = segments;
         while (true) {
             ws();
             if (pos >= s.length() || s.charAt(pos) != '"') {
@@ -180,6 +271,11 @@ public final class JsonReader {
             }
             int at = pos;
             String k = string();
+            names[seg] = k;
+            segments = seg + 1;
+            if (m.containsKey(k)) {
+                throw error(at, "member " + JsonWriter.quote(k) + " appears twice; expected each name once in an object");
+            }
             ws();
             if (pos >= s.length() || s.charAt(pos) != ':') {
                 throw error(pos, "expected ':' after member name " + JsonWriter.quote(k));
@@ -187,11 +283,10 @@ public final class JsonReader {
             pos++;
             ws();
             JsonValue v = value(depth);
-            if (m.containsKey(k)) {
-                throw error(at, "member " + JsonWriter.quote(k) + " appears twice");
-            }
             m.put(k, v);
-            if (!another('}', "an object")) {
+            boolean more = another('}', "an object");
+            segments = seg;
+            if (!more) {
                 return new JsonValue(JsonValue.Kind.OBJECT, Collections.unmodifiableMap(m), null, ln, col);
             }
         }
@@ -207,10 +302,16 @@ public final class JsonReader {
             pos++;
             return new JsonValue(JsonValue.Kind.ARRAY, Collections.unmodifiableList(l), null, ln, col);
         }
+        int seg = segments;
+        names[seg] = null;
         while (true) {
             ws();
+            indices[seg] = l.size();
+            segments = seg + 1;
             l.add(value(depth));
-            if (!another(']', "an array")) {
+            boolean more = another(']', "an array");
+            segments = seg;
+            if (!more) {
                 return new JsonValue(JsonValue.Kind.ARRAY, Collections.unmodifiableList(l), null, ln, col);
             }
         }

@@ -236,6 +236,39 @@ public final class JsonValue {
     }
 
     /**
+     * The value an RFC 6901 JSON pointer leads to from here ({@code /fields/volts/value},
+     * {@code /options/2}; {@code ~1} stands for {@code /} and {@code ~0} for {@code ~} in a name).
+     *
+     * @param pointer the pointer, "" for this value itself
+     * @return the value, or null if the path leads nowhere
+     * @throws IllegalArgumentException if the pointer is not empty and does not start with '/'
+     */
+    public JsonValue at(String pointer) {
+        if (pointer.isEmpty()) {
+            return this;
+        }
+        if (pointer.charAt(0) != '/') {
+            throw new IllegalArgumentException("a JSON pointer starts with '/', got \"" + pointer + "\"");
+        }
+        JsonValue v = this;
+        for (String raw : pointer.substring(1).split("/", -1)) {
+            String seg = raw.replace("~1", "/").replace("~0", "~");
+            if (v.kind == Kind.OBJECT) {
+                v = v.members().get(seg);
+            } else if (v.kind == Kind.ARRAY && seg.matches("0|[1-9][0-9]{0,8}")) {
+                int i = Integer.parseInt(seg);
+                v = i < v.elements().size() ? v.elements().get(i) : null;
+            } else {
+                return null;
+            }
+            if (v == null) {
+                return null;
+            }
+        }
+        return v;
+    }
+
+    /**
      * The text of a string.
      *
      * @return the text

@@ -1,14 +1,11 @@
 package org.lanesift.runner;
 
-import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.SerializationFeature;
-import com.fasterxml.jackson.databind.node.ArrayNode;
-import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.concurrent.Callable;
+import org.lanesift.json.JsonWriter;
 import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.OptionValues;
 import org.lanesift.plugin.PluginDescriptor;
@@ -71,15 +68,12 @@ final class PluginsCommand implements Callable<Integer> {
     public Integer call() throws Exception {
         var all = host.registry().all();
         if (json) {
-            ObjectMapper m = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
-            ObjectNode root = m.createObjectNode();
-            root.put("format", FORMAT);
-            root.put("lanesift", Version.get());
-            ArrayNode arr = root.putArray("plugins");
+            JsonWriter w = JsonWriter.pretty().nonFiniteAsNull().beginObject().field("format", FORMAT).field("lanesift", Version.get());
+            w.name("plugins").beginArray();
             for (PluginProvider p : all) {
-                arr.add(json(m, p.descriptor()));
+                json(w, p.descriptor());
             }
-            host.out.println(m.writeValueAsString(root));
+            host.out.println(w.endArray().endObject().finish());
             return 0;
         }
         if (all.isEmpty()) {
@@ -166,77 +160,85 @@ final class PluginsCommand implements Callable<Integer> {
         return String.valueOf(v);
     }
 
-    private static ObjectNode json(ObjectMapper m, PluginDescriptor d) {
-        ObjectNode o = m.createObjectNode();
-        o.put("id", d.id());
-        o.put("name", d.displayName() == null ? d.id() : d.displayName());
-        o.put("version", d.version());
-        o.put("description", d.description());
+    private static void json(JsonWriter w, PluginDescriptor d) {
+        w.beginObject();
+        w.field("id", d.id());
+        w.field("name", d.displayName() == null ? d.id() : d.displayName());
+        w.field("version", d.version());
+        w.field("description", d.description());
         Ports ports = ports(d);
         if (ports.inputs() == null) {
-            o.putNull("inputs");
-            o.putNull("outputs");
-            o.put("portsNote", ports.why());
+            w.name("inputs").nullValue();
+            w.name("outputs").nullValue();
+            w.field("portsNote", ports.why());
         } else {
-            o.set("inputs", portsJson(m, ports.inputs()));
-            o.set("outputs", portsJson(m, ports.outputs()));
+            portsJson(w.name("inputs"), ports.inputs());
+            portsJson(w.name("outputs"), ports.outputs());
         }
-        ArrayNode opts = o.putArray("options");
+        w.name("options").beginArray();
         for (OptionSpec s : d.options()) {
-            ObjectNode x = opts.addObject();
-            x.put("name", s.name());
-            x.put("type", s.type().name().toLowerCase(Locale.ROOT));
-            x.put("unit", s.unit());
-            x.put("required", s.defaultValue() == null);
+            w.beginObject();
+            w.field("name", s.name());
+            w.field("type", s.type().name().toLowerCase(Locale.ROOT));
+            w.field("unit", s.unit());
+            w.field("required", s.defaultValue() == null);
             Object def = s.defaultValue();
+            w.name("default");
             if (def == null) {
-                x.putNull("default");
+                w.nullValue();
             } else if (def instanceof Boolean b) {
-                x.put("default", b);
+                w.value(b);
             } else if (def instanceof Long l) {
-                x.put("default", l);
+                w.value(l);
             } else if (def instanceof Number n) {
-                x.put("default", n.doubleValue());
+                w.value(n.doubleValue());
             } else if (def instanceof List<?> l) {
-                ArrayNode a = x.putArray("default");
+                w.beginArray();
                 for (Object e : l) {
                     if (e instanceof Number n) {
-                        a.add(n.doubleValue());
+                        w.value(n.doubleValue());
                     } else {
-                        a.add(String.valueOf(e));
+                        w.value(String.valueOf(e));
                     }
                 }
+                w.endArray();
             } else if (def instanceof TimeValue tv) {
-                x.put("default", tv.toString());
+                w.value(tv.toString());
             } else {
-                x.put("default", String.valueOf(def));
+                w.value(String.valueOf(def));
             }
+            w.name("min");
             if (s.min() == null) {
-                x.putNull("min");
+                w.nullValue();
             } else {
-                x.put("min", s.min());
+                w.value(s.min());
             }
+            w.name("max");
             if (s.max() == null) {
-                x.putNull("max");
+                w.nullValue();
             } else {
-                x.put("max", s.max());
+                w.value(s.max());
             }
-            ArrayNode ch = x.putArray("choices");
-            s.choices().forEach(ch::add);
-            x.put("help", s.help());
+            w.name("choices").beginArray();
+            s.choices().forEach(w::value);
+            w.endArray();
+            w.field("help", s.help());
+            w.endObject();
         }
-        return o;
+        w.endArray();
+        w.endObject();
     }
 
-    private static ArrayNode portsJson(ObjectMapper m, List<PortSpec> ports) {
-        ArrayNode a = m.createArrayNode();
+    private static void portsJson(JsonWriter w, List<PortSpec> ports) {
+        w.beginArray();
         for (PortSpec p : ports) {
-            ObjectNode x = a.addObject();
-            x.put("name", p.name());
-            x.put("kind", p.kind().name());
-            x.put("required", p.required());
-            x.put("help", p.help());
+            w.beginObject();
+            w.field("name", p.name());
+            w.field("kind", p.kind().name());
+            w.field("required", p.required());
+            w.field("help", p.help());
+            w.endObject();
         }
-        return a;
+        w.endArray();
     }
 }

@@ -12,6 +12,7 @@ import java.util.Map;
 import java.util.TreeSet;
 import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
+import org.lanesift.testkit.ExternalTool;
 import org.junit.jupiter.api.io.TempDir;
 
 /**

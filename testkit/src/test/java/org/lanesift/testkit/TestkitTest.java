@@ -2,6 +2,7 @@ package org.lanesift.testkit;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.List;
 import java.util.Map;
@@ -87,5 +88,35 @@ class TestkitTest {
             ss += noisy.volts()[i] * noisy.volts()[i];
         }
         assertEquals(0.01, Math.sqrt(ss / noisy.length()), 0.001);
+    }
+
+    @Test
+    void pollReturnsOnceTheConditionHoldsAndFailsNamingItOtherwise() throws Exception {
+        int[] calls = {0};
+        Poll.until(java.time.Duration.ofSeconds(10), "the third check", () -> ++calls[0] >= 3);
+        assertEquals(3, calls[0], "returns at the first check that holds, not later");
+        AssertionError e = org.junit.jupiter.api.Assertions.assertThrows(AssertionError.class,
+                () -> Poll.until(java.time.Duration.ofMillis(30), "a condition that never holds", () -> false));
+        assertEquals("waited 30 ms for a condition that never holds; it did not happen", e.getMessage());
+    }
+
+    @Test
+    void externalToolsAreFoundOnThePath() {
+        assertTrue(ExternalTool.find("sh") != null, "every Debian image has sh");
+        assertEquals(null, ExternalTool.find("no-such-program-lanesift-test"));
+    }
+
+    @Test
+    void jsonScanFindsMembersInDocumentOrder() {
+        var root = JsonScan.parse("t", "{\"a\": {\"lane\": 0, \"min\": 5}, \"b\": [{\"lane\": 1, \"min\": 7, \"ok\": true}], \"n\": null}");
+        assertEquals(5, JsonScan.number(root, "min"));
+        assertEquals(7, JsonScan.number(JsonScan.after(root, "lane", "1", "min")));
+        assertEquals("/b/0/min", JsonScan.after(root, "lane", "1", "min").pointer());
+        assertEquals(1, JsonScan.number(root, "ok"));
+        assertTrue(Double.isNaN(JsonScan.number(root, "n")));
+        assertEquals(2, JsonScan.count(root, "lane"));
+        assertThrows(AssertionError.class, () -> JsonScan.number(root, "absent"));
+        assertThrows(AssertionError.class, () -> JsonScan.after(root, "lane", "2", "min"));
+        assertThrows(AssertionError.class, () -> JsonScan.number(root, "a"), "an object is not a number");
     }
 }

@@ -9,13 +9,18 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Locale;
+import org.lanesift.json.JsonWriter;
 
 /**
- * Writes demo captures the way instruments export them: a scope-style CSV (a few metadata lines,
- * then a header with units, a time column in seconds and one column per channel in volts), or
- * interleaved signed 16-bit little-endian codes with a JSON sidecar (see docs/capture-raw.md).
+ * Writes demo captures in the two shapes an instrument export commonly takes: a CSV with a few
+ * metadata lines (keys of our own, listed in docs/capture-csv.md), a header with units, a time
+ * column in seconds and one column per channel in volts; or interleaved signed 16-bit
+ * little-endian codes with a JSON sidecar (see docs/capture-raw.md).
  */
 public final class CaptureFiles {
+    /** The invented device of the demo scenario (docs/demo-scenario.md); no real product. */
+    public static final String DEVICE = "Siftlet-64";
+
     private CaptureFiles() {
     }
 
@@ -36,10 +41,10 @@ public final class CaptureFiles {
         long startPs = Math.round(startS * 1e12);
         try (OutputStream o = new BufferedOutputStream(Files.newOutputStream(file), 1 << 20)) {
             StringBuilder h = new StringBuilder();
-            h.append("Instrument,Tern bench scope (simulated)\n");
-            h.append("Record Length,").append(n).append('\n');
-            h.append(String.format(Locale.ROOT, "Sample Interval,%.6e%n", 1 / sampleRateHz));
-            h.append("Trigger Point,0\n\n");
+            h.append("generator,lanesift demo scenario (simulated capture)\n");
+            h.append("device,").append(DEVICE).append(" (invented)\n");
+            h.append("samples,").append(n).append('\n');
+            h.append(String.format(Locale.ROOT, "sample-period-s,%.6e%n%n", 1 / sampleRateHz));
             h.append("Time (s)");
             for (String c : channels) {
                 h.append(',').append(c).append(" (V)");
@@ -128,14 +133,13 @@ public final class CaptureFiles {
             }
             o.write(buf.array(), 0, buf.position());
         }
-        StringBuilder s = new StringBuilder();
-        s.append("{\n  \"rateHz\": ").append(sampleRateHz).append(",\n  \"format\": \"int16le\",\n  \"startTimeS\": 0,\n");
-        s.append("  \"channels\": [\n");
+        JsonWriter s = JsonWriter.pretty().beginObject();
+        s.field("rateHz", sampleRateHz).field("format", "int16le").field("startTimeS", 0);
+        s.name("channels").beginArray();
         for (int k = 0; k < c; k++) {
-            s.append(String.format(Locale.ROOT, "    {\"name\": \"%s\", \"gain\": %s, \"offset\": 0}%s%n", channels[k],
-                    Double.toString(gainVolts), k + 1 < c ? "," : ""));
+            s.beginObjectInline().field("name", channels[k]).field("gain", gainVolts).field("offset", 0).endObject();
         }
-        s.append("  ]\n}\n");
-        Files.writeString(Path.of(file.toString() + ".json"), s.toString());
+        s.endArray().endObject();
+        Files.writeString(Path.of(file.toString() + ".json"), s.finish() + "\n", StandardCharsets.UTF_8);
     }
 }

@@ -4,7 +4,7 @@ import java.io.ByteArrayOutputStream;
 
 /**
  * An independent encoder of display-serial-interface packets for the demo's packet link, written
- * from the equations in shared/DESIGN.md section 6 (MIPI DSI; from memory there): header = data
+ * from the equations in docs/reference-facts.md#dsi-packets-ecc-and-checksum (MIPI DSI; from memory): header = data
  * identifier, two data bytes, ECC; long packets add payload and a CRC-16 checksum, LSB first.
  * It shares no code with the decoder plugin, so the demo checks one against the other.
  */

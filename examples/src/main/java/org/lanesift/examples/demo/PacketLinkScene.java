@@ -6,12 +6,12 @@ import java.util.List;
 import java.util.Random;
 
 /**
- * Part (b) of the demo scenario: the invented "Tern T-64" also has a 32 x 24 status display on a
+ * Part (b) of the demo scenario: the invented "Siftlet-64" also has a 32 x 24 status display on a
  * two-lane packet link (D-PHY style: low-power single-ended states between high-speed bursts; DSI
  * packets inside). The capture holds the display controller's init sequence and two command-mode
  * frame writes. Six legs (clock P/N, lane 0 P/N, lane 1 P/N) are probed single-ended at 2.5 GS/s.
  *
- * <p>Electrical model (D-PHY levels from shared/DESIGN.md section 6, from memory there): LP high
+ * <p>Electrical model (D-PHY levels from docs/reference-facts.md#d-phy-levels-and-states, from memory): LP high
  * 1.2 V, LP low 0 V; HS legs 100 mV / 300 mV (200 mV swing around 200 mV); HS unit interval 5 ns
  * (200 Mb/s per lane); continuous DDR clock (100 MHz) with its edges in the middle of the data
  * bits. Each burst: LP-11, LP-01 (60 ns), LP-00 (60 ns), HS-0 (150 ns), sync byte 0xB8, bytes

@@ -5,13 +5,13 @@ import java.util.List;
 import java.util.Random;
 
 /**
- * Part (a) of the demo scenario: the invented "Tern T-64" handheld meter drives its small
+ * Part (a) of the demo scenario: the invented "Siftlet-64" handheld meter drives its small
  * 64 x 40 colour panel over a 7:1 pixel link, 18-bit colour, one clock pair and three data pairs.
  * Every leg is probed single-ended and recorded by a scope at 2.5 GS/s (8 analog channels).
  *
  * <p>Link facts: slots 0..6 per pixel clock on each lane, lane 0 = G0 R5 R4 R3 R2 R1 R0,
  * lane 1 = B1 B0 G5 G4 G3 G2 G1, lane 2 = DE VS HS B5 B4 B3 B2, clock lane high in slots 0-1 and
- * 5-6 (the 18-bit mapping of JEIDA-59-1999 / VESA, as tabulated in shared/DESIGN.md section 6).
+ * 5-6 (the 18-bit mapping of JEIDA-59-1999 / VESA, as tabulated in docs/reference-facts.md#pixel-link-clock-and-slot-mappings).
  * Levels: LVDS, 350 mV differential swing around 1.2 V. HS and VS are active low, DE active high.
  *
  * <p>All numbers here are invented for the demo.

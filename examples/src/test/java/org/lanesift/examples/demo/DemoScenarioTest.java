@@ -16,7 +16,7 @@ class DemoScenarioTest {
     void encoderMatchesThePublishedChecks() {
         // CRC RevEng catalogue, CRC-16/MCRF4XX: check value 0x6F91 for ASCII "123456789".
         assertEquals(0x6F91, DsiEncoder.crc16("123456789".getBytes(StandardCharsets.US_ASCII)));
-        // Worked example of a display init sequence (shared/DESIGN.md section 6, from memory there):
+        // Worked example of a display init sequence (docs/reference-facts.md#dsi-packets-ecc-and-checksum, from memory):
         // header 39 04 00 -> ECC 2C; payload B9 F1 12 83 -> checksum bytes 84 5D.
         assertEquals(0x2C, DsiEncoder.ecc(0x39, 0x04, 0x00));
         byte[] p = DsiEncoder.longPacket(0, 0x39, new byte[] {(byte) 0xB9, (byte) 0xF1, 0x12, (byte) 0x83});
@@ -55,12 +55,19 @@ class DemoScenarioTest {
         Path csv = dir.resolve("c.csv");
         CaptureFiles.writeCsv(csv, new String[] {"A", "B"}, v, 1e9, -1e-9);
         List<String> lines = Files.readAllLines(csv);
+        // metadata keys of our own (docs/capture-csv.md, "Metadata lines the demo writes")
+        assertEquals(List.of("generator,lanesift demo scenario (simulated capture)", "device,Siftlet-64 (invented)",
+                "samples,3", "sample-period-s,1.000000e-09", ""), lines.subList(0, 5));
         assertEquals("Time (s),A (V),B (V)", lines.get(5));
         assertEquals("-0.000000001000,0.10000,1.00000", lines.get(6));
         assertEquals("0.000000000000,-0.25000,2.00000", lines.get(7));
         Path raw = dir.resolve("c.bin");
         CaptureFiles.writeRaw(raw, new String[] {"A", "B"}, v, 1e9, 1e-3);
         assertEquals(12, Files.size(raw));
-        assertTrue(Files.readString(Path.of(raw + ".json")).contains("\"format\": \"int16le\""));
+        org.lanesift.json.JsonValue side = org.lanesift.json.JsonReader.read(Path.of(raw + ".json"), "c.bin.json");
+        assertEquals("int16le", side.get("format").asString());
+        assertEquals(1e9, side.get("rateHz").asDouble());
+        assertEquals("B", side.at("/channels/1/name").asString());
+        assertEquals(1e-3, side.at("/channels/1/gain").asDouble());
     }
 }

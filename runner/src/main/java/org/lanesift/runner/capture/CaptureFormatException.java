@@ -40,6 +40,19 @@ public class CaptureFormatException extends org.lanesift.plugin.InputFormatExcep
         this.line = line;
     }
 
+    /**
+     * A JSON file of a capture (a sidecar) that the JSON reader refused; the message is the
+     * reader's, naming the file, line, column and JSON pointer, like every other JSON input's.
+     *
+     * @param file the JSON file
+     * @param e    the reader's fault
+     */
+    public CaptureFormatException(Path file, org.lanesift.json.JsonParseException e) {
+        super(e.getMessage(), e);
+        this.file = file;
+        this.line = e.line();
+    }
+
     private static String prefix(Path file, long line) {
         String name = file == null ? "(capture)" : String.valueOf(file.getFileName() == null ? file : file.getFileName());
         return name + (line > 0 ? " line " + line + ": " : ": ");

@@ -1,12 +1,8 @@
 package org.lanesift.runner.capture;
 
-import com.fasterxml.jackson.core.JsonProcessingException;
-import com.fasterxml.jackson.databind.ObjectMapper;
-import com.fasterxml.jackson.databind.SerializationFeature;
-import com.fasterxml.jackson.databind.node.ArrayNode;
-import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.util.List;
 import java.util.Locale;
+import org.lanesift.json.JsonWriter;
 import org.lanesift.time.Femtos;
 
 /**
@@ -158,67 +154,58 @@ public record InspectReport(String file, String format, List<Channel> channels, 
      * @return pretty-printed JSON
      */
     public String toJson() {
-        ObjectMapper m = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
-        ObjectNode root = m.createObjectNode();
-        root.put("schema", SCHEMA);
-        root.put("file", file);
-        root.put("format", format);
-        ArrayNode ch = root.putArray("channels");
+        JsonWriter w = JsonWriter.pretty().nonFiniteAsNull().beginObject();
+        w.field("schema", SCHEMA).field("file", file).field("format", format);
+        w.name("channels").beginArray();
         for (Channel c : channels) {
-            ObjectNode o = ch.addObject();
-            o.put("name", c.name());
-            o.put("kind", c.kind());
-            putIf(o, "unit", c.unit());
-            putIf(o, "samples", c.samples());
-            putIf(o, "invalidSamples", c.invalidSamples());
-            putIf(o, "words", c.words());
-            putIf(o, "suspectWords", c.suspectWords());
-            putIf(o, "widthBits", c.widthBits());
-            putIf(o, "edges", c.edges());
-            putIf(o, "unknownS", c.unknownS());
-            o.put("durationS", c.durationS());
-            putIf(o, "sampleRateHz", c.sampleRateHz());
-            putIf(o, "min", c.min());
-            putIf(o, "max", c.max());
-            putIf(o, "lowLevel", c.lowLevel());
-            putIf(o, "highLevel", c.highLevel());
-            putIf(o, "threshold", c.threshold());
-            putIf(o, "hysteresis", c.hysteresis());
-            putIf(o, "fundamentalHz", c.fundamentalHz());
-            putIf(o, "periodCv", c.periodCv());
+            w.beginObject();
+            w.field("name", c.name());
+            w.field("kind", c.kind());
+            putIf(w, "unit", c.unit());
+            putIf(w, "samples", c.samples());
+            putIf(w, "invalidSamples", c.invalidSamples());
+            putIf(w, "words", c.words());
+            putIf(w, "suspectWords", c.suspectWords());
+            putIf(w, "widthBits", c.widthBits());
+            putIf(w, "edges", c.edges());
+            putIf(w, "unknownS", c.unknownS());
+            w.field("durationS", c.durationS());
+            putIf(w, "sampleRateHz", c.sampleRateHz());
+            putIf(w, "min", c.min());
+            putIf(w, "max", c.max());
+            putIf(w, "lowLevel", c.lowLevel());
+            putIf(w, "highLevel", c.highLevel());
+            putIf(w, "threshold", c.threshold());
+            putIf(w, "hysteresis", c.hysteresis());
+            putIf(w, "fundamentalHz", c.fundamentalHz());
+            putIf(w, "periodCv", c.periodCv());
+            w.endObject();
         }
-        ArrayNode pr = root.putArray("differentialPairs");
+        w.endArray();
+        w.name("differentialPairs").beginArray();
         for (Pair p : pairs) {
-            ObjectNode o = pr.addObject();
-            o.put("first", p.first());
-            o.put("second", p.second());
-            o.put("correlation", p.correlation());
+            w.beginObject().field("first", p.first()).field("second", p.second()).field("correlation", p.correlation()).endObject();
         }
-        ArrayNode cl = root.putArray("clocks");
+        w.endArray();
+        w.name("clocks").beginArray();
         for (Clock c : clocks) {
-            ObjectNode o = cl.addObject();
-            o.put("channel", c.channel());
-            o.put("frequencyHz", c.frequencyHz());
-            o.put("periodCv", c.periodCv());
+            w.beginObject().field("channel", c.channel()).field("frequencyHz", c.frequencyHz()).field("periodCv", c.periodCv())
+                    .endObject();
         }
-        try {
-            return m.writeValueAsString(root) + "\n";
-        } catch (JsonProcessingException e) {
-            throw new IllegalStateException("cannot write the inspect report as JSON", e);
-        }
+        w.endArray();
+        return w.endObject().finish() + "\n";
     }
 
-    private static void putIf(ObjectNode o, String k, Object v) {
+    /** Writes a member only when the value is there (a null or non-finite value is left out). */
+    private static void putIf(JsonWriter w, String k, Object v) {
         if (v instanceof String s) {
-            o.put(k, s);
+            w.field(k, s);
         } else if (v instanceof Long l) {
-            o.put(k, l);
+            w.field(k, l);
         } else if (v instanceof Integer i) {
-            o.put(k, i);
-        } else if (v instanceof Double d) {
-            if (Double.isFinite(d)) {
-                o.put(k, d);
-            }
+            w.field(k, i);
+        } else if (v instanceof Double d && Double.isFinite(d)) {
+            w.field(k, d);
         }
     }
 

@@ -1,20 +1,21 @@
 package org.lanesift.runner.capture;
 
-import com.fasterxml.jackson.core.JsonProcessingException;
-import com.fasterxml.jackson.databind.JsonNode;
-import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.Iterator;
 import java.util.List;
 import java.util.Set;
+import org.lanesift.json.JsonParseException;
+import org.lanesift.json.JsonReader;
+import org.lanesift.json.JsonValue;
 
-/** The JSON sidecar of a raw binary capture, checked field by field (see docs/capture-raw.md). */
+/**
+ * The JSON sidecar of a raw binary capture, checked field by field (see docs/capture-raw.md). The
+ * text is read by the project's one JSON reader ({@link JsonReader}), with its limits.
+ */
 final class RawSidecar {
-    static final long MAX_BYTES = 1 << 20;
     static final int MAX_CHANNELS = 1024;
     private static final Set<String> FIELDS = Set.of("rateHz", "format", "channels", "startTimeS", "markClipped");
     private static final Set<String> CHANNEL_FIELDS = Set.of("name", "gain", "offset");
@@ -43,93 +44,87 @@ final class RawSidecar {
     static RawSidecar read(Path sidecar) {
         RawSidecar s = new RawSidecar();
         s.path = sidecar;
-        JsonNode root;
+        JsonValue root;
         try {
-            if (Files.size(sidecar) > MAX_BYTES) {
-                throw new CaptureFormatException(sidecar, 0, "sidecar larger than " + MAX_BYTES + " bytes; expected a small JSON object");
-            }
-            root = new ObjectMapper().readTree(Files.readAllBytes(sidecar));
+            root = JsonReader.read(sidecar, String.valueOf(sidecar.getFileName() == null ? sidecar : sidecar.getFileName()));
+        } catch (JsonParseException e) {
+            throw new CaptureFormatException(sidecar, e);
         } catch (NoSuchFileException e) {
             throw new CaptureFormatException(sidecar, 0, "sidecar not found; a raw capture needs a JSON sidecar with rateHz, format"
                     + " and channels (option 'sidecar' names another path)");
-        } catch (JsonProcessingException e) {
-            long line = e.getLocation() == null ? 0 : e.getLocation().getLineNr();
-            throw new CaptureFormatException(sidecar, Math.max(0, line), "not valid JSON: " + e.getOriginalMessage());
         } catch (IOException e) {
             throw new CaptureFormatException(sidecar, 0, "cannot read: " + e.getMessage(), e);
         }
-        if (root == null || !root.isObject()) {
+        if (!root.isObject()) {
             throw s.bad("", "expected a JSON object");
         }
-        for (Iterator<String> it = root.fieldNames(); it.hasNext(); ) {
-            String f = it.next();
+        for (String f : root.members().keySet()) {
             if (!FIELDS.contains(f)) {
                 throw s.bad("/" + f, "unknown field; expected one of rateHz, format, channels, startTimeS, markClipped");
             }
         }
-        JsonNode rate = root.get("rateHz");
+        JsonValue rate = root.get("rateHz");
         if (rate == null || !rate.isNumber()) {
-            throw s.bad("/rateHz", "expected a positive number of samples per second" + (rate == null ? ", missing" : ", found " + rate));
+            throw s.bad("/rateHz", "expected a positive number of samples per second" + (rate == null ? ", missing" : ", found " + rate.describe()));
         }
         s.rateHz = rate.asDouble();
         if (!(s.rateHz > 0) || !Double.isFinite(s.rateHz)) {
             throw s.bad("/rateHz", "expected a positive number of samples per second, found " + rate);
         }
-        JsonNode fmt = root.get("format");
-        if (fmt == null || !fmt.isTextual()) {
+        JsonValue fmt = root.get("format");
+        if (fmt == null || !fmt.isString()) {
             throw s.bad("/format", "expected one of uint8, int8, int16le, int16be, float32le" + (fmt == null ? ", missing" : ", found " + fmt));
         }
         for (Format f : Format.values()) {
-            if (f.text.equals(fmt.asText())) {
+            if (f.text.equals(fmt.asString())) {
                 s.format = f;
             }
         }
         if (s.format == null) {
             throw s.bad("/format", "unknown format " + fmt + "; expected one of uint8, int8, int16le, int16be, float32le");
         }
-        JsonNode start = root.get("startTimeS");
+        JsonValue start = root.get("startTimeS");
         if (start != null) {
             if (!start.isNumber() || !Double.isFinite(start.asDouble()) || Math.abs(start.asDouble()) > 1e3) {
                 throw s.bad("/startTimeS", "expected a number of seconds within +/-1000, found " + start);
             }
             s.startTimeS = start.asDouble();
         }
-        JsonNode mc = root.get("markClipped");
+        JsonValue mc = root.get("markClipped");
         if (mc != null) {
             if (!mc.isBoolean()) {
                 throw s.bad("/markClipped", "expected true or false, found " + mc);
             }
             s.markClipped = mc.asBoolean();
         }
-        JsonNode chs = root.get("channels");
-        if (chs == null || !chs.isArray() || chs.isEmpty()) {
+        JsonValue chs = root.get("channels");
+        if (chs == null || !chs.isArray() || chs.elements().isEmpty()) {
             throw s.bad("/channels", "expected a non-empty array of {name, gain, offset}" + (chs == null ? ", missing" : ""));
         }
-        if (chs.size() > MAX_CHANNELS) {
-            throw s.bad("/channels", chs.size() + " channels; at most " + MAX_CHANNELS + " are supported");
+        if (chs.elements().size() > MAX_CHANNELS) {
+            throw s.bad("/channels", chs.elements().size() + " channels; at most " + MAX_CHANNELS + " are supported");
         }
-        int n = chs.size();
+        int n = chs.elements().size();
         s.names = new String[n];
         s.gain = new double[n];
         s.offset = new double[n];
         List<String> raw = new ArrayList<>();
         for (int i = 0; i < n; i++) {
-            JsonNode c = chs.get(i);
+            JsonValue c = chs.elements().get(i);
             String p = "/channels/" + i;
             if (!c.isObject()) {
                 throw s.bad(p, "expected an object {name, gain, offset}");
             }
-            for (Iterator<String> it = c.fieldNames(); it.hasNext(); ) {
-                String f = it.next();
+            for (String f : c.members().keySet()) {
                 if (!CHANNEL_FIELDS.contains(f)) {
                     throw s.bad(p + "/" + f, "unknown field; expected name, gain, offset");
                 }
             }
-            JsonNode name = c.get("name");
-            if (name == null || !name.isTextual() || name.asText().isBlank()) {
+            JsonValue name = c.get("name");
+            if (name == null || !name.isString() || name.asString().isBlank()) {
                 throw s.bad(p + "/name", "expected a channel name");
             }
-            raw.add(name.asText());
+            raw.add(name.asString());
             s.gain[i] = number(s, c, p, "gain", 1);
             s.offset[i] = number(s, c, p, "offset", 0);
             if (s.gain[i] == 0) {
@@ -140,8 +135,8 @@ final class RawSidecar {
         return s;
     }
 
-    private static double number(RawSidecar s, JsonNode c, String p, String f, double def) {
-        JsonNode v = c.get(f);
+    private static double number(RawSidecar s, JsonValue c, String p, String f, double def) {
+        JsonValue v = c.get(f);
         if (v == null) {
             return def;
         }
@@ -152,7 +147,7 @@ final class RawSidecar {
     }
 
     private CaptureFormatException bad(String pointer, String msg) {
-        return new CaptureFormatException(path, 0, (pointer.isEmpty() ? "/" : pointer) + ": " + msg);
+        return new CaptureFormatException(path, 0, (pointer.isEmpty() ? "at the top level" : pointer) + ": " + msg);
     }
 
     int frameBytes() {

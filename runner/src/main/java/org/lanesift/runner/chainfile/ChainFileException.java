@@ -3,7 +3,7 @@ package org.lanesift.runner.chainfile;
 import org.lanesift.chain.ChainException;
 
 /**
- * A chain file that cannot be read: a JSON syntax error (with line and column), a field of the
+ * A chain file that cannot be read: a JSON syntax error (with line, column and pointer), a field of the
  * wrong type, an unknown key, a missing field. {@link #getMessage()} is one line that starts with
  * the file and the location, such as {@code chain.json /wires/2/to: expected a string}.
  */
@@ -27,6 +27,18 @@ public final class ChainFileException extends ChainException {
         this.line = line;
     }
 
+    /**
+     * A chain file that is not acceptable JSON; the message is the JSON reader's, which names the
+     * file, line, column and JSON pointer, so it reads the same as for every other JSON input.
+     *
+     * @param e the reader's fault
+     */
+    public ChainFileException(org.lanesift.json.JsonParseException e) {
+        super(e.getMessage(), e.pointer(), e);
+        this.file = e.source();
+        this.line = e.line();
+    }
+
     private static String where(String file, String pointer, long line, long column) {
         StringBuilder sb = new StringBuilder(file);
         if (line > 0) {
@@ -35,7 +47,8 @@ public final class ChainFileException extends ChainException {
                 sb.append(" column ").append(column);
             }
         } else if (pointer != null) {
-            sb.append(' ').append(pointer.isEmpty() ? "/" : pointer);
+            // RFC 6901: "" is the whole document ("/" would be a member with an empty name)
+            sb.append(' ').append(pointer.isEmpty() ? "at the top level" : pointer);
         }
         return sb.toString();
     }

@@ -1,61 +1,39 @@
 package org.lanesift.runner.chainfile;
 
-import com.fasterxml.jackson.core.JsonFactory;
-import com.fasterxml.jackson.core.JsonLocation;
-import com.fasterxml.jackson.core.JsonParser;
-import com.fasterxml.jackson.core.JsonProcessingException;
-import com.fasterxml.jackson.core.StreamReadConstraints;
-import com.fasterxml.jackson.core.StreamReadFeature;
-import com.fasterxml.jackson.databind.DeserializationFeature;
-import com.fasterxml.jackson.databind.JsonNode;
-import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.IOException;
-import java.io.InputStream;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.HashMap;
-import java.util.HashSet;
-import java.util.Iterator;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
 import org.lanesift.chain.ChainSpec;
+import org.lanesift.json.JsonParseException;
+import org.lanesift.json.JsonReader;
+import org.lanesift.json.JsonValue;
 
 /**
  * Reads a JSON chain file ({@code docs/chain-file.md}) into a {@link ChainSpec}, checking its shape
  * before any plugin is looked up: every problem becomes a {@link ChainFileException} naming the
- * file and a JSON pointer (or, for syntax errors, line and column) and what was expected.
+ * file and a JSON pointer and what was expected. The text is read by the project's one JSON reader
+ * ({@link JsonReader}) with its limits on size, nesting, duplicate names and trailing text.
  *
  * <p>Besides the shape it checks what can be checked without plugins: instance ids are unique and
  * well formed, both ends of every wire name a declared instance, and the wires form no cycle.
  * Relative paths in options named {@code file} are resolved against the chain file's directory.
  */
 public final class ChainFileReader {
-    /** Largest chain file accepted, in bytes; a chain is a few kilobytes. */
-    public static final long MAX_BYTES = 4L << 20;
-    /** Deepest JSON nesting accepted (a chain file needs five levels). */
-    public static final int MAX_DEPTH = 32;
-
     private static final Set<String> ROOT_KEYS = Set.of("nodes", "wires", "description");
     private static final Set<String> NODE_KEYS = Set.of("id", "plugin", "options");
     private static final Set<String> WIRE_KEYS = Set.of("from", "to");
     private static final String ID_PATTERN = "[A-Za-z0-9_-]+";
 
-    private final ObjectMapper mapper;
-
     /** Creates a reader. */
     public ChainFileReader() {
-        JsonFactory f = JsonFactory.builder()
-                .streamReadConstraints(StreamReadConstraints.builder().maxNestingDepth(MAX_DEPTH).build())
-                .enable(StreamReadFeature.STRICT_DUPLICATE_DETECTION)
-                .build();
-        mapper = new ObjectMapper(f);
-        mapper.enable(DeserializationFeature.FAIL_ON_TRAILING_TOKENS);
-        mapper.enable(DeserializationFeature.USE_BIG_DECIMAL_FOR_FLOATS);
-        mapper.disable(JsonParser.Feature.AUTO_CLOSE_SOURCE);
+        // stateless: every limit is the JSON reader's
     }
 
     /**
@@ -67,71 +45,47 @@ public final class ChainFileReader {
      * @throws ChainFileException for any problem, including a missing or unreadable file
      */
     public ChainFile read(Path path, String shownName) {
-        long size;
+        if (Files.isDirectory(path)) {
+            throw new ChainFileException(shownName, null, 0, 0, "is a directory (expected a JSON chain file)");
+        }
+        JsonValue root;
         try {
-            size = Files.size(path);
+            root = JsonReader.read(path, shownName);
+        } catch (JsonParseException e) {
+            throw new ChainFileException(e);
         } catch (NoSuchFileException e) {
             throw new ChainFileException(shownName, null, 0, 0, "no such file (expected a JSON chain file)");
         } catch (IOException e) {
             throw new ChainFileException(shownName, null, 0, 0, "cannot read: " + e.getMessage());
         }
-        if (Files.isDirectory(path)) {
-            throw new ChainFileException(shownName, null, 0, 0, "is a directory (expected a JSON chain file)");
-        }
-        if (size > MAX_BYTES) {
-            throw new ChainFileException(shownName, null, 0, 0, "is " + size + " bytes; a chain file may have at most "
-                    + MAX_BYTES + " bytes");
-        }
-        JsonNode root;
-        try (InputStream in = Files.newInputStream(path)) {
-            root = mapper.readTree(in);
-        } catch (JsonProcessingException e) {
-            JsonLocation loc = e.getLocation();
-            String what = e.getOriginalMessage();
-            if (e instanceof com.fasterxml.jackson.core.exc.StreamConstraintsException) {
-                what = "nested deeper than " + MAX_DEPTH + " levels (a chain file needs at most 5)";
-            }
-            what = what == null ? "invalid JSON" : what.replace('\n', ' ').replace('\r', ' ');
-            if (what.length() > 200) {
-                what = what.substring(0, 200) + "...";
-            }
-            throw new ChainFileException(shownName, null, loc == null ? 1 : Math.max(1, loc.getLineNr()),
-                    loc == null ? 0 : Math.max(0, loc.getColumnNr()), "invalid JSON: " + what);
-        } catch (IOException e) {
-            throw new ChainFileException(shownName, null, 0, 0, "cannot read: " + e.getMessage());
-        }
-        if (root == null || root.isMissingNode()) {
-            throw new ChainFileException(shownName, "", 0, 0,
-                    "the file is empty; expected a JSON object with \"nodes\" and \"wires\"");
-        }
         Path dir = path.toAbsolutePath().getParent();
         return parse(root, shownName, path, dir);
     }
 
-    private ChainFile parse(JsonNode root, String file, Path path, Path dir) {
+    private ChainFile parse(JsonValue root, String file, Path path, Path dir) {
         if (!root.isObject()) {
             throw err(file, "", "expected a JSON object with \"nodes\" and \"wires\", got " + describe(root));
         }
         checkKeys(root, ROOT_KEYS, "", file);
         String description = "";
-        if (root.has("description")) {
+        if (root.get("description") != null) {
             description = text(root.get("description"), "/description", file);
         }
-        JsonNode nodes = root.get("nodes");
+        JsonValue nodes = root.get("nodes");
         if (nodes == null) {
             throw err(file, "/nodes", "missing; expected an array of plugin instances");
         }
         if (!nodes.isArray()) {
             throw err(file, "/nodes", "expected an array of plugin instances, got " + describe(nodes));
         }
-        if (nodes.isEmpty()) {
+        if (nodes.elements().isEmpty()) {
             throw err(file, "/nodes", "is empty; a chain needs at least one plugin instance");
         }
         List<ChainSpec.Node> specNodes = new ArrayList<>();
         Map<String, Integer> ids = new HashMap<>();
-        for (int i = 0; i < nodes.size(); i++) {
+        for (int i = 0; i < nodes.elements().size(); i++) {
             String p = "/nodes/" + i;
-            JsonNode n = nodes.get(i);
+            JsonValue n = nodes.elements().get(i);
             if (!n.isObject()) {
                 throw err(file, p, "expected an object with \"id\", \"plugin\" and \"options\", got " + describe(n));
             }
@@ -146,13 +100,12 @@ public final class ChainFileReader {
             }
             String plugin = required(n, "plugin", p, file, "a plugin id such as \"differential\" (see: lanesift plugins)");
             Map<String, Object> options = new LinkedHashMap<>();
-            JsonNode opts = n.get("options");
+            JsonValue opts = n.get("options");
             if (opts != null && !opts.isNull()) {
                 if (!opts.isObject()) {
                     throw err(file, p + "/options", "expected an object of option values, got " + describe(opts));
                 }
-                for (Iterator<Map.Entry<String, JsonNode>> it = opts.fields(); it.hasNext(); ) {
-                    Map.Entry<String, JsonNode> e = it.next();
+                for (Map.Entry<String, JsonValue> e : opts.members().entrySet()) {
                     String op = p + "/options/" + escape(e.getKey());
                     Object v = optionValue(e.getValue(), op, file);
                     if (e.getKey().equals("file") && v instanceof String s) {
@@ -164,14 +117,14 @@ public final class ChainFileReader {
             specNodes.add(new ChainSpec.Node(id, plugin, options));
         }
         List<ChainSpec.Wire> specWires = new ArrayList<>();
-        JsonNode wires = root.get("wires");
+        JsonValue wires = root.get("wires");
         if (wires != null && !wires.isNull()) {
             if (!wires.isArray()) {
                 throw err(file, "/wires", "expected an array of wires {\"from\": \"a.out\", \"to\": \"b.in\"}, got " + describe(wires));
             }
-            for (int i = 0; i < wires.size(); i++) {
+            for (int i = 0; i < wires.elements().size(); i++) {
                 String p = "/wires/" + i;
-                JsonNode w = wires.get(i);
+                JsonValue w = wires.elements().get(i);
                 if (!w.isObject()) {
                     throw err(file, p, "expected an object {\"from\": \"instance.output\", \"to\": \"instance.input\"}, got " + describe(w));
                 }
@@ -274,31 +227,29 @@ public final class ChainFileReader {
         return dot < 0 ? end : end.substring(0, dot);
     }
 
-    private static Object optionValue(JsonNode v, String pointer, String file) {
-        if (v.isTextual()) {
-            return v.textValue();
+    private static Object optionValue(JsonValue v, String pointer, String file) {
+        if (v.isString()) {
+            return v.asString();
         }
         if (v.isBoolean()) {
-            return v.booleanValue();
-        }
-        if (v.isIntegralNumber()) {
-            if (!v.canConvertToLong()) {
-                throw err(file, pointer, "integer " + v.asText() + " is too large");
-            }
-            return v.longValue();
+            return v.asBoolean();
         }
         if (v.isNumber()) {
-            double d = v.doubleValue();
-            if (!Double.isFinite(d)) {
-                throw err(file, pointer, "number " + v.asText() + " is too large");
+            String t = v.numberText();
+            if (t.indexOf('.') < 0 && t.indexOf('e') < 0 && t.indexOf('E') < 0) {
+                try {
+                    return Long.parseLong(t);
+                } catch (NumberFormatException e) {
+                    throw err(file, pointer, "integer " + t + " is too large");
+                }
             }
-            return d;
+            return v.asDouble();
         }
         if (v.isArray()) {
             List<Object> list = new ArrayList<>();
-            for (int i = 0; i < v.size(); i++) {
-                JsonNode e = v.get(i);
-                if (!(e.isNumber() || e.isTextual())) {
+            for (int i = 0; i < v.elements().size(); i++) {
+                JsonValue e = v.elements().get(i);
+                if (!(e.isNumber() || e.isString())) {
                     throw err(file, pointer + "/" + i, "expected a number or a string in an option list, got " + describe(e));
                 }
                 list.add(optionValue(e, pointer + "/" + i, file));
@@ -308,26 +259,23 @@ public final class ChainFileReader {
         throw err(file, pointer, "expected a string, number, boolean or list of numbers as option value, got " + describe(v));
     }
 
-    private static String required(JsonNode n, String key, String p, String file, String expected) {
-        JsonNode v = n.get(key);
+    private static String required(JsonValue n, String key, String p, String file, String expected) {
+        JsonValue v = n.get(key);
         if (v == null || v.isNull()) {
             throw err(file, p + "/" + key, "missing; expected " + expected);
         }
         return text(v, p + "/" + key, file);
     }
 
-    private static String text(JsonNode v, String pointer, String file) {
-        if (!v.isTextual()) {
+    private static String text(JsonValue v, String pointer, String file) {
+        if (!v.isString()) {
             throw err(file, pointer, "expected a string, got " + describe(v));
         }
-        return v.textValue();
+        return v.asString();
     }
 
-    private static void checkKeys(JsonNode obj, Set<String> allowed, String p, String file) {
-        Set<String> seen = new HashSet<>();
-        for (Iterator<String> it = obj.fieldNames(); it.hasNext(); ) {
-            String k = it.next();
-            seen.add(k);
+    private static void checkKeys(JsonValue obj, Set<String> allowed, String p, String file) {
+        for (String k : obj.members().keySet()) {
             if (!allowed.contains(k)) {
                 List<String> a = new ArrayList<>(allowed);
                 a.sort(null);
@@ -336,22 +284,20 @@ public final class ChainFileReader {
         }
     }
 
-    private static String describe(JsonNode v) {
+    private static String describe(JsonValue v) {
         if (v.isObject()) {
             return "an object";
         } else if (v.isArray()) {
             return "an array";
-        } else if (v.isTextual()) {
-            String s = v.textValue();
+        } else if (v.isString()) {
+            String s = v.asString();
             return "the string \"" + (s.length() > 40 ? s.substring(0, 40) + "..." : s) + "\"";
         } else if (v.isBoolean()) {
-            return v.booleanValue() ? "true" : "false";
+            return v.asBoolean() ? "true" : "false";
         } else if (v.isNumber()) {
-            return "the number " + v.asText();
-        } else if (v.isNull()) {
-            return "null";
+            return "the number " + v.numberText();
         }
-        return v.getNodeType().toString().toLowerCase(java.util.Locale.ROOT);
+        return "null";
     }
 
     /** Escapes a key for a JSON pointer (RFC 6901). */

@@ -34,6 +34,23 @@ class CsvReaderTest {
         return CsvSource.DESCRIPTOR.outputs(ov).stream().map(PortSpec::name).toList();
     }
 
+    /**
+     * The metadata lines the demo writes now (keys of our own, docs/capture-csv.md) are skipped like
+     * any other; the older layout with instrument-style keys is still read
+     * ({@link #metadataUnitsBlankAndRepeatedHeaderLines()}, scope-meta.csv).
+     */
+    @Test
+    void theDemoLayoutWithItsOwnMetadataKeysIsRead() {
+        Path f = res("demo-meta.csv");
+        assertEquals(List.of("CH1", "CH2"), portNames(f, Map.of()));
+        Collected c = Collected.run(new CsvSource(), Map.of("file", f.toString()));
+        assertArrayEquals(new double[] {1.025, 1.025, 1.375, 1.375}, c.analog("CH1"), 1e-6);
+        assertArrayEquals(new double[] {1.375, 1.375, 1.025, 1.025}, c.analog("CH2"), 1e-6);
+        AnalogBlock first = c.blocks("CH1").stream().map(AnalogBlock.class::cast).findFirst().orElseThrow();
+        assertEquals(-2_000_000L, first.startFs());
+        assertEquals(1_000_000.0, first.periodFs(), 1e-6);
+    }
+
     @Test
     void metadataUnitsBlankAndRepeatedHeaderLines() {
         Path f = res("scope-meta.csv");

@@ -14,8 +14,8 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import java.util.concurrent.TimeUnit;
-import org.junit.jupiter.api.Assumptions;
 import org.junit.jupiter.api.Test;
+import org.lanesift.testkit.ExternalTool;
 import org.junit.jupiter.api.io.TempDir;
 import org.lanesift.data.WordStream;
 
@@ -29,26 +29,9 @@ import org.lanesift.data.WordStream;
 class VcdIcarusTest {
     private static final long NS = 1_000_000L;
 
-    static Path tool(String name) {
-        String path = System.getenv("PATH");
-        if (path != null) {
-            for (String d : path.split(File.pathSeparator)) {
-                Path p = Path.of(d, name);
-                if (Files.isExecutable(p)) {
-                    return p;
-                }
-            }
-        }
-        if ("true".equals(System.getenv("CI"))) {
-            fail(name + " is not installed; CI must install the Debian package iverilog");
-        }
-        Assumptions.assumeTrue(false, name + " not installed (Debian package iverilog); skipping the Icarus Verilog check");
-        return null;
-    }
-
     static Path simulate(Path dir) throws IOException, InterruptedException {
-        Path iverilog = tool("iverilog");
-        Path vvp = tool("vvp");
+        Path iverilog = ExternalTool.require("iverilog");
+        Path vvp = ExternalTool.require("vvp");
         Path src = Path.of("src/test/verilog/counter_tb.v").toAbsolutePath();
         assertTrue(Files.exists(src), "testbench missing: " + src);
         exec(dir, iverilog.toString(), "-o", "tb.vvp", src.toString());

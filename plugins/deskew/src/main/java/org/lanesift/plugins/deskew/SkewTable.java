@@ -30,8 +30,6 @@ public final class SkewTable {
     public static final String FORMAT = "lanesift-skew-table";
     /** The format version this code writes and reads. */
     public static final int VERSION = 1;
-    /** Files larger than this are refused before reading (a table is a few kilobytes). */
-    static final long MAX_FILE_BYTES = 1 << 20;
     static final String CONVENTION = "offsetPs is the correction to apply: output time = input time + offsetPs;"
             + " a positive offset delays the channel";
 
@@ -140,12 +138,7 @@ public final class SkewTable {
     public static SkewTable read(Path file) {
         String name = file.toString();
         try {
-            long size = Files.size(file);
-            if (size > MAX_FILE_BYTES) {
-                throw new IllegalArgumentException(name + ": " + size + " bytes is too large for a skew table (at most "
-                        + MAX_FILE_BYTES + " bytes)");
-            }
-            return parse(name, new String(Files.readAllBytes(file), StandardCharsets.UTF_8));
+            return of(name, JsonReader.read(file, name));
         } catch (NoSuchFileException e) {
             throw new IllegalArgumentException(name + ": no such skew table file");
         } catch (IOException e) {
@@ -162,7 +155,10 @@ public final class SkewTable {
      * @throws IllegalArgumentException naming the source, the position or JSON pointer and what was expected
      */
     public static SkewTable parse(String source, String text) {
-        JsonValue top = JsonReader.parse(source, text);
+        return of(source, JsonReader.parse(source, text));
+    }
+
+    private static SkewTable of(String source, JsonValue top) {
         if (!top.isObject()) {
             throw new IllegalArgumentException(source + ": expected a JSON object at the top level (pointer \"\")");
         }

@@ -62,7 +62,7 @@ class LegsEstimatorTest {
     @Test
     void commonModeStepsDoNotPullTheEstimate() {
         // a lane that leaves high speed for low-power states: both legs move by 1 V together, slowly,
-        // every 3000 samples (the D-PHY pattern of LP-11 between bursts; levels from shared/DESIGN.md section 6)
+        // every 3000 samples (the D-PHY pattern of LP-11 between bursts; levels from docs/reference-facts.md#d-phy-levels-and-states)
         AnalogBlock[] pn = LinkSynth.legs(60000, 1_000_000, 10e9, 250_000, 231_000, 20_000, 0.005, 11);
         float[] p = pn[0].volts().clone();
         float[] n = pn[1].volts().clone();

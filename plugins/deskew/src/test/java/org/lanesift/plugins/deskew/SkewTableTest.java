@@ -69,15 +69,16 @@ class SkewTableTest {
     void syntaxErrorsGiveLineAndColumn() {
         String text = "{\"format\":\"lanesift-skew-table\",\n\"version\":1,\n\"channels\":{\"a\":{\"offsetPs\":3,}}}";
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class, () -> SkewTable.parse("t.json", text));
-        assertEquals("t.json:3:31: expected a quoted member name", e.getMessage());
+        assertEquals("t.json line 3 column 31 at /channels/a: expected a quoted member name", e.getMessage());
     }
 
     @Test
     void oversizedFilesAreRefusedBeforeReading(@TempDir Path dir) throws Exception {
         Path f = dir.resolve("big.json");
-        Files.write(f, new byte[(int) SkewTable.MAX_FILE_BYTES + 1]);
+        Files.write(f, new byte[org.lanesift.json.JsonReader.DEFAULT_MAX_BYTES + 1]);
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class, () -> SkewTable.read(f));
-        assertTrue(e.getMessage().contains("too large"), e.getMessage());
+        assertTrue(e.getMessage().contains("expected at most " + org.lanesift.json.JsonReader.DEFAULT_MAX_BYTES + " bytes of JSON"),
+                e.getMessage());
     }
 
     @Test

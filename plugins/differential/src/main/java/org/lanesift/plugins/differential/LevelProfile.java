@@ -34,8 +34,8 @@ enum LevelProfile {
     /** No limits; levels are only reported. */
     NONE("none", List.of());
 
-    static final String TIA644 = "ANSI/TIA/EIA-644-A (values from memory, DESIGN.md section 6)";
-    static final String DPHY = "MIPI D-PHY (values from memory, DESIGN.md section 6)";
+    static final String TIA644 = "ANSI/TIA/EIA-644-A (values from memory, docs/reference-facts.md#lvds-electrical-levels)";
+    static final String DPHY = "MIPI D-PHY (values from memory, docs/reference-facts.md#d-phy-levels-and-states)";
     /** Relative distance to a limit under which a level inside it is reported as near the limit. */
     static final double NEAR_FRACTION = 0.05;
     /** Numerical tolerance on limits, volts: float samples cannot hit a limit exactly. */

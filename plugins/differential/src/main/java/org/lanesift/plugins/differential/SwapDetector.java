@@ -62,7 +62,7 @@ final class SwapDetector {
         Boolean swapped;
         String why;
         if (s.swapPattern == Settings.SwapPattern.CLOCK_1100011) {
-            // the 7:1 clock lane is high for slots 0-1 and 5-6: 4/7 of the time (DESIGN.md section 6)
+            // the 7:1 clock lane is high for slots 0-1 and 5-6: 4/7 of the time (docs/reference-facts.md#pixel-link-clock-and-slot-mappings)
             if (transitions < 8) {
                 swapped = null;
                 why = "too few clock edges in the warm-up (" + transitions + ")";

@@ -6,8 +6,6 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import java.nio.charset.StandardCharsets;
 import java.util.Map;
 import java.util.Random;
-import java.util.regex.Matcher;
-import java.util.regex.Pattern;
 import org.junit.jupiter.api.Test;
 import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.Artifact;
@@ -18,10 +16,9 @@ import org.lanesift.testkit.StageHarness;
 class DriftAndReportTest {
     static final double P = 200_000;
 
+    /** The first member {@code key} of the report, read with the JSON reader. */
     static double number(String json, String key) {
-        Matcher m = Pattern.compile("\"" + key + "\":(-?[0-9.Ee+-]+)").matcher(json);
-        assertTrue(m.find(), key + " missing in " + json);
-        return Double.parseDouble(m.group(1));
+        return org.lanesift.testkit.JsonScan.number(org.lanesift.testkit.JsonScan.parse("level report", json), key);
     }
 
     @Test

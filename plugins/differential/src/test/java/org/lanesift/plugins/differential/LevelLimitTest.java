@@ -8,7 +8,6 @@ import java.nio.charset.StandardCharsets;
 import java.util.HashMap;
 import java.util.Map;
 import org.junit.jupiter.api.Test;
-import org.lanesift.json.JsonReader;
 import org.lanesift.json.JsonValue;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Severity;
@@ -17,9 +16,10 @@ import org.lanesift.data.Artifact;
 import org.lanesift.testkit.StageHarness;
 
 /**
- * Level checks at and just past every limit. Source of the limits: ANSI/TIA/EIA-644-A as listed in DESIGN.md
- * section 6 (|VOD| 247-454 mV, VOS 1.125-1.375 V, receiver threshold +/-100 mV; values from memory), and MIPI
- * D-PHY from the same section (HS swing 140-270 mV, common mode about 200 mV; LP thresholds 880 / 550 mV; from memory).
+ * Level checks at and just past every limit. Source of the limits: ANSI/TIA/EIA-644-A as listed in
+ * docs/reference-facts.md#lvds-electrical-levels (|VOD| 247-454 mV, VOS 1.125-1.375 V, receiver threshold +/-100 mV;
+ * values from memory), and MIPI D-PHY from docs/reference-facts.md#d-phy-levels-and-states (HS swing 140-270 mV,
+ * common mode about 200 mV; LP thresholds 880 / 550 mV; from memory).
  */
 class LevelLimitTest {
     static final int N = 40_000;
@@ -114,11 +114,11 @@ class LevelLimitTest {
         assertEquals(40_000 * 1e6, runs.get(0).endFs(), 1);
         assertEquals(5L, runs.get(0).fields().get("windows").value());
         String json = new String(h.outputs("report", Artifact.class).get(0).content(), StandardCharsets.UTF_8);
-        assertTrue(json.startsWith("{\"instance\":\"dut\""), json);
-        assertEquals(10, json.split("\"settledHigh\"").length - 2, "ten windows plus the capture");
+        JsonValue report = org.lanesift.testkit.JsonScan.parse("level report", json);
+        assertEquals("dut", report.get("instance").asString(), json);
+        assertEquals(11, org.lanesift.testkit.JsonScan.count(report, "settledHigh"), "ten windows plus the capture");
         // over the whole capture |VOD| is the mean of every settled high sample taken, between 200 and 350 mV and
         // inside the limits: the windows' levels weighted by their settled counts; the windows tell the story
-        JsonValue report = JsonReader.parse("levels report", json);
         double weighted = 0;
         long count = 0;
         for (JsonValue w : report.get("windows").elements()) {
@@ -136,7 +136,7 @@ class LevelLimitTest {
 
     @Test
     void dphyProfiles() {
-        // MIPI D-PHY HS (DESIGN.md section 6, from memory): 200 mV swing around 200 mV common mode passes
+        // MIPI D-PHY HS (docs/reference-facts.md#d-phy-levels-and-states, from memory): 200 mV swing around 200 mV common mode passes
         assertEquals(Severity.INFO, verdicts(Map.of("levelProfile", "dphy-hs"), pair(0.200, 0.200)).get("vod-high"));
         assertEquals(Severity.INFO, verdicts(Map.of("levelProfile", "dphy-hs"), pair(0.200, 0.200)).get("vos"));
         assertEquals(Severity.ERROR, verdicts(Map.of("levelProfile", "dphy-hs"), pair(0.300, 0.200)).get("vod-high"));

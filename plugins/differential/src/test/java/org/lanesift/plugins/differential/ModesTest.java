@@ -88,7 +88,7 @@ class ModesTest {
         }
     }
 
-    /** A 7:1 pixel-link clock (high for slots 0-1 and 5-6, DESIGN.md section 6), 7 samples per slot. */
+    /** A 7:1 pixel-link clock (high for slots 0-1 and 5-6, docs/reference-facts.md#pixel-link-clock-and-slot-mappings), 7 samples per slot. */
     static float[] clock7(int n, boolean swapped) {
         float[] v = new float[n];
         for (int i = 0; i < n; i++) {

@@ -10,7 +10,7 @@ import org.lanesift.data.AnalogBlock;
 import org.lanesift.testkit.StageHarness;
 
 /**
- * A symmetric clock lane of |VOD| 350 mV of a 7:1 pixel link (high for slots 0-1 and 5-6, DESIGN.md section 6)
+ * A symmetric clock lane of |VOD| 350 mV of a 7:1 pixel link (high for slots 0-1 and 5-6, docs/reference-facts.md#pixel-link-clock-and-slot-mappings)
  * at 80 samples per clock period, with a damped ring after every edge. A fixed statistics stride of
  * 16 sees the high state only 7 and 16 samples after its edges and the low state 9 and 25 samples
  * after them, so the ring made a false delta-VOD; the chosen samples now fall at every phase.

@@ -286,7 +286,7 @@ final class DualEdgeStage implements Stage {
         j.name("instance").value(ctx.instanceId());
         j.name("plugin").value(DualEdgePlugin.ID);
         j.name("mode").value(cfg.mode().option);
-        j.name("lanes").value(cfg.lanes());
+        j.name("laneCount").value(cfg.lanes());
         if (cfg.mode() == SamplerConfig.Mode.MULTIPLIED) {
             j.name("slots").value(cfg.slots());
             j.name("clockPattern").value(cfg.pattern());

@@ -47,7 +47,7 @@ record SamplerConfig(int lanes, Mode mode, int slots, String pattern, int slot0A
         }
     }
 
-    /** The 7:1 pixel-link clock pattern, slot 0 first (DESIGN.md section 6). */
+    /** The 7:1 pixel-link clock pattern, slot 0 first (docs/reference-facts.md#pixel-link-clock-and-slot-mappings). */
     static final String SEVEN_TO_ONE = "1100011";
 
     /**

@@ -15,7 +15,7 @@ import org.lanesift.data.Edges;
  * (edge-aligned), shifted by the lane's skew, each boundary moved by data jitter.
  *
  * <p>7:1 ({@link #sevenToOne}): slot j of pixel p occupies {@code [t0 + (7p+j)*UI, +UI)}, UI = P/7;
- * the clock is high in slots 0, 1, 5, 6 and low in 2, 3, 4 (DESIGN.md section 6), so it falls at
+ * the clock is high in slots 0, 1, 5, 6 and low in 2, 3, 4 (docs/reference-facts.md#pixel-link-clock-and-slot-mappings), so it falls at
  * the start of slot 2 and rises at the start of slot 5 of every pixel.
  */
 final class LinkSim {

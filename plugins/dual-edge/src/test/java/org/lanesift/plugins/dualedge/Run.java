@@ -5,13 +5,13 @@ import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.List;
 import java.util.Map;
-import java.util.regex.Matcher;
-import java.util.regex.Pattern;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.data.Artifact;
 import org.lanesift.data.BitSets;
 import org.lanesift.data.BitStream;
 import org.lanesift.data.Edges;
+import org.lanesift.json.JsonValue;
+import org.lanesift.testkit.JsonScan;
 import org.lanesift.testkit.StageHarness;
 import org.lanesift.testkit.Synth;
 
@@ -125,18 +125,19 @@ final class Run {
         return annotations.stream().filter(a -> a.kind().equals(kind)).toList();
     }
 
-    /** A number from the report: the first {@code "key": value} after the optional anchor text. */
+    /**
+     * A number from the report, read with the JSON reader: the first member {@code key} in
+     * document order, after the first member named {@code anchor} when that is not null (true is
+     * 1, false 0, null NaN).
+     */
     double reportNumber(String anchor, String key) {
-        int from = anchor == null ? 0 : report.indexOf(anchor);
-        if (from < 0) {
-            throw new AssertionError("no '" + anchor + "' in report:\n" + report);
-        }
-        Matcher m = Pattern.compile("\"" + Pattern.quote(key) + "\": (null|[-0-9.eE+]+|true|false)").matcher(report);
-        if (!m.find(from)) {
-            throw new AssertionError("no '" + key + "' after '" + anchor + "' in report:\n" + report);
-        }
-        String v = m.group(1);
-        return v.equals("null") ? Double.NaN : v.equals("true") ? 1 : v.equals("false") ? 0 : Double.parseDouble(v);
+        return reportNumber(anchor, null, key);
+    }
+
+    /** As {@link #reportNumber(String, String)}, the anchor member also having the value {@code anchorValue} (JSON text). */
+    double reportNumber(String anchor, String anchorValue, String key) {
+        JsonValue root = JsonScan.parse("report", report);
+        return anchor == null ? JsonScan.number(root, key) : JsonScan.number(JsonScan.after(root, anchor, anchorValue, key));
     }
 
     static Comparator<Annotation> byTime() {

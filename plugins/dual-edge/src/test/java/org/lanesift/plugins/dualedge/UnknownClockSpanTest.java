@@ -73,9 +73,9 @@ class UnknownClockSpanTest {
         assertEquals(t[1], acq.get(0).startFs(), "the clock is acquired at its first true edge");
         assertEquals(0, r.reportNumber(null, "dropouts"));
         // every same-direction interval of the true edges is one period (rounding: 1 fs)
-        assertEquals(P, r.reportNumber("\"periodFs\"", "min"), 1);
-        assertEquals(P, r.reportNumber("\"periodFs\"", "max"), 1);
-        assertEquals(0.5, r.reportNumber("\"duty\"", "min"), 1e-6);
+        assertEquals(P, r.reportNumber("periodFs", "min"), 1);
+        assertEquals(P, r.reportNumber("periodFs", "max"), 1);
+        assertEquals(0.5, r.reportNumber("duty", "min"), 1e-6);
         // one bit per true edge, numbered from the first true edge
         Run.Lane lane = r.lanes.get(0);
         assertEquals(2 * cycles - 1, lane.size());
@@ -87,7 +87,7 @@ class UnknownClockSpanTest {
     }
 
     /**
-     * The same start on a 7:1 link (duty 4/7, the pattern of DESIGN.md section 6): pixel c lies
+     * The same start on a 7:1 link (duty 4/7, the pattern of docs/reference-facts.md#pixel-link-clock-and-slot-mappings): pixel c lies
      * between true rising edges c and c+1, slot 0 starting 2/7 period after edge c; the first true
      * rising edge is edge 1, so pixels 1 .. cycles-2 are made and numbered from 0.
      */
@@ -104,8 +104,8 @@ class UnknownClockSpanTest {
         assertEquals(List.of(), r.of("clock-restart"));
         assertEquals(1, r.of("clock-pattern").size());
         assertEquals(t[1], r.of("clock-acquired").get(0).startFs());
-        assertEquals(P, r.reportNumber("\"periodFs\"", "min"), 1);
-        assertEquals(P, r.reportNumber("\"periodFs\"", "max"), 1);
+        assertEquals(P, r.reportNumber("periodFs", "min"), 1);
+        assertEquals(P, r.reportNumber("periodFs", "max"), 1);
         assertEquals(0, r.reportNumber(null, "pixelsDroppedAtDropouts"));
         Run.Lane lane = r.lanes.get(0);
         assertEquals(7 * (cycles - 2), lane.size());

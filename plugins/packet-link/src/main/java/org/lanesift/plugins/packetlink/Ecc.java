@@ -7,7 +7,7 @@ package org.lanesift.plugins.packetlink;
  *
  * <p>Header bit {@code i} is bit {@code i & 7} of header byte {@code i >> 3} (bit 0 = least
  * significant bit of the data identifier). ECC bit {@code p} is the XOR of the header bits listed
- * in {@code DESIGN.md} section 6 (MIPI DSI specification, from memory). Every header bit feeds an
+ * in docs/reference-facts.md#dsi-packets-ecc-and-checksum (MIPI DSI specification, from memory). Every header bit feeds an
  * odd number (3 or 5) of parity bits, so a single error gives a syndrome of odd weight that names
  * the bit, and two errors give a non-zero syndrome of even weight that names none.
  */
@@ -21,7 +21,7 @@ public final class Ecc {
     /** Result status: two or more bits were wrong; the header cannot be trusted. */
     public static final int UNCORRECTABLE = 3;
 
-    /** Header bits that make up each ECC bit (DESIGN.md section 6, MIPI DSI specification, from memory). */
+    /** Header bits that make up each ECC bit (docs/reference-facts.md#dsi-packets-ecc-and-checksum, MIPI DSI specification, from memory). */
     static final int[][] PARITY_SETS = {
         {0, 1, 2, 4, 5, 7, 10, 11, 13, 16, 20, 21, 22, 23},
         {0, 1, 3, 4, 6, 8, 10, 12, 14, 17, 20, 21, 22, 23},

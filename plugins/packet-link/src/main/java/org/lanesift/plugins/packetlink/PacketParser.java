@@ -3,7 +3,7 @@ package org.lanesift.plugins.packetlink;
 /**
  * Cuts a merged high-speed (or low-power data) byte stream into packets: a 4-byte header (data
  * identifier, two data or word-count bytes, ECC), and for long packets the payload and a 16-bit
- * checksum, least significant byte first (MIPI DSI specification, from memory; DESIGN.md section 6).
+ * checksum, least significant byte first (MIPI DSI specification, from memory; docs/reference-facts.md#dsi-packets-ecc-and-checksum).
  *
  * <p>The header's ECC is checked and a single-bit error corrected before the length is used, so a
  * corrupted word count never sizes anything: a length that runs past the bytes at hand stops the

@@ -3,7 +3,7 @@ package org.lanesift.plugins.packetlink;
 /**
  * The 16-bit checksum of a long packet's payload: CRC-16 with polynomial x^16+x^12+x^5+1,
  * reflected, initial value 0xFFFF, no final XOR (catalogued as CRC-16/MCRF4XX in the CRC RevEng
- * catalogue; DESIGN.md section 6). It is sent after the payload, least significant byte first.
+ * catalogue; docs/reference-facts.md#dsi-packets-ecc-and-checksum). It is sent after the payload, least significant byte first.
  * Table-driven, eight bytes per step (slicing-by-8).
  */
 public final class PayloadCrc {

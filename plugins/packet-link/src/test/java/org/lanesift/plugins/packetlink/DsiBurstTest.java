@@ -23,7 +23,7 @@ import org.lanesift.testkit.StageHarness;
 /**
  * A synthetic two-lane link (LinkSynth, invented demo scenario) with a known init sequence, sent
  * partly as low-power data and partly in high-speed bursts, and three known command-mode frames.
- * Packets are built with the reference ECC and CRC of RefCodes (DESIGN.md section 6 equations;
+ * Packets are built with the reference ECC and CRC of RefCodes (docs/reference-facts.md#dsi-packets-ecc-and-checksum equations;
  * CRC RevEng catalogue CRC-16/MCRF4XX), not with the production code.
  */
 class DsiBurstTest {
@@ -138,10 +138,15 @@ class DsiBurstTest {
 
         // init sequence: JSON, CSV and C array
         String json = file(h, "dut-commands.json");
-        assertTrue(json.contains("\"initSequence\""));
-        String init = json.substring(json.indexOf("\"initSequence\""));
-        assertEquals(11, init.split("\"index\"").length - 1, init);
-        assertTrue(init.contains("\"repeat\": 3, \"repeatBlock\": 3"), init);
+        org.lanesift.json.JsonValue commands = org.lanesift.testkit.JsonScan.parse("dut-commands.json", json);
+        org.lanesift.json.JsonValue init = org.lanesift.testkit.JsonScan.members(commands).stream()
+                .filter(m -> m.name().equals("initSequence")).findFirst().orElseThrow(() -> new AssertionError(json)).value();
+        assertEquals(11, org.lanesift.testkit.JsonScan.count(init, "index"), json);
+        // one command of the sequence repeats three times, as a block of three
+        assertTrue(org.lanesift.testkit.JsonScan.members(init).stream().anyMatch(m -> m.name().equals("repeat")
+                && "3".equals(m.value().toString())
+                && "3".equals(String.valueOf(init.at(m.pointer().substring(0, m.pointer().lastIndexOf('/')) + "/repeatBlock")))),
+                json);
         String csv = file(h, "dut-commands.csv");
         assertEquals(21, csv.split("\n").length);
         assertTrue(csv.contains(",set_pixel_format,1,77,"), csv);
@@ -174,8 +179,9 @@ class DsiBurstTest {
             assertEquals(pixel(f, 5, 7), img.getRGB(5, 7) & 0xFFFFFF);
         }
         String timing = file(h, "dut-timing.json");
-        assertTrue(timing.contains("\"mode\": \"command\""), timing);
-        assertTrue(timing.contains("\"frames\": 3"), timing);
+        org.lanesift.json.JsonValue t = org.lanesift.testkit.JsonScan.parse("dut-timing.json", timing);
+        assertEquals("command", org.lanesift.testkit.JsonScan.first(t, "mode").value().asString(), timing);
+        assertEquals(3, org.lanesift.testkit.JsonScan.number(t, "frames"), timing);
 
         // packets output: bytes of all bursts, lanes alternating, no flags but packet structure
         List<WordStream> ws = h.outputs("packets", WordStream.class);
@@ -207,7 +213,8 @@ class DsiBurstTest {
         assertArrayEquals(new byte[] {0x77}, (byte[]) fmt.fields().get("params").value());
         assertEquals(20, h.annotations("command").size());
         assertEquals(3, h.outputs("frames").size());
-        assertTrue(file(h, "dut-commands.json").contains("\"eccCorrected\": true"));
+        assertTrue(org.lanesift.testkit.JsonScan.members(org.lanesift.testkit.JsonScan.parse("dut-commands.json", file(h, "dut-commands.json"))).stream()
+                .anyMatch(m -> m.name().equals("eccCorrected") && m.value().isBoolean() && m.value().asBoolean()));
     }
 
     // Same link with one payload bit flipped in the 0xB0 long write: checksum failure annotated,

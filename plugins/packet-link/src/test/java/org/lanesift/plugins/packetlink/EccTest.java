@@ -6,7 +6,7 @@ import java.util.Random;
 import org.junit.jupiter.api.Test;
 
 class EccTest {
-    // Source: the worked example of DESIGN.md section 6 (a published walkthrough; from memory):
+    // Source: the worked example of docs/reference-facts.md#dsi-packets-ecc-and-checksum (a published walkthrough; from memory):
     // header 39 04 00 has ECC 2C.
     @Test
     void workedExampleHeader() {
@@ -15,7 +15,7 @@ class EccTest {
         assertEquals(Ecc.OK, Ecc.status(Ecc.check(0x000439, 0x2C)));
     }
 
-    // Source: the published parity equations (DESIGN.md section 6, MIPI DSI specification, from
+    // Source: the published parity equations (docs/reference-facts.md#dsi-packets-ecc-and-checksum, MIPI DSI specification, from
     // memory), evaluated bit by bit in RefCodes, against the table-driven production code.
     @Test
     void tableMatchesEquationsForRandomHeaders() {
@@ -26,7 +26,7 @@ class EccTest {
         }
     }
 
-    // Source: MIPI DSI ECC equations (DESIGN.md section 6). Exhaustive over the 30 protected bit
+    // Source: MIPI DSI ECC equations (docs/reference-facts.md#dsi-packets-ecc-and-checksum). Exhaustive over the 30 protected bit
     // positions (24 header bits + 6 ECC bits): every single-bit error is corrected back to the sent
     // header, and every one of the 435 double-bit errors is reported uncorrectable.
     @Test

@@ -12,7 +12,7 @@ import org.lanesift.testkit.StageHarness;
 /**
  * Test-only generator of a D-PHY-like multi-lane link: the two single-ended legs of every data
  * lane (low-power states and high-speed bursts, with a little noise) and the bit streams a
- * double-edge sampler would give for the same lanes. Levels follow DESIGN.md section 6 (from
+ * double-edge sampler would give for the same lanes. Levels follow docs/reference-facts.md#d-phy-levels-and-states (from
  * memory): LP high 1.2 V, LP low 0 V, HS common mode 0.2 V with +/-0.1 V per leg.
  *
  * <p>A high-speed burst: LP-11, LP-01, LP-00, HS-zero, sync byte B8, the lane's bytes (byte k on

@@ -25,7 +25,7 @@ class PacketParserTest {
         }
     }
 
-    // Source: worked example of DESIGN.md section 6 (from memory): the packet 39 04 00 2C B9 F1 12 83 84 5D
+    // Source: worked example of docs/reference-facts.md#dsi-packets-ecc-and-checksum (from memory): the packet 39 04 00 2C B9 F1 12 83 84 5D
     // is a DCS long write of 4 bytes with a good ECC and checksum.
     @Test
     void workedExamplePacket() {

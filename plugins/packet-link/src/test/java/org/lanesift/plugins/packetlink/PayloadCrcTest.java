@@ -14,7 +14,7 @@ class PayloadCrcTest {
         assertEquals(0x6F91, PayloadCrc.of(d, 0, d.length));
     }
 
-    // Source: worked example of DESIGN.md section 6 (from memory): payload B9 F1 12 83 has checksum
+    // Source: worked example of docs/reference-facts.md#dsi-packets-ecc-and-checksum (from memory): payload B9 F1 12 83 has checksum
     // bytes 84 5D (sent least significant byte first).
     @Test
     void workedExamplePayload() {

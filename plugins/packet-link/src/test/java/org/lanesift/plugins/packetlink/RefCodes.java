@@ -4,7 +4,7 @@ import java.io.ByteArrayOutputStream;
 
 /**
  * Independent, deliberately plain re-implementations for the tests: the header ECC straight from
- * the published parity equations (DESIGN.md section 6, MIPI DSI specification, from memory) and the
+ * the published parity equations (docs/reference-facts.md#dsi-packets-ecc-and-checksum, MIPI DSI specification, from memory) and the
  * payload CRC bit by bit (CRC RevEng catalogue, CRC-16/MCRF4XX: poly 0x1021 reflected, init 0xFFFF,
  * no final XOR). Packet builders use these, not the production code.
  */

@@ -137,10 +137,15 @@ class VideoModeTest {
         String t = new String(h.outputs("files", Artifact.class).stream().filter(a -> a.fileName().equals("dut-timing.json"))
                 .findFirst().orElseThrow().content(), StandardCharsets.UTF_8);
         // 10 lines of 20 us: frame period 200 us; vertical sync 2 lines, back porch 2, front porch 2
-        assertTrue(t.contains("\"periodS\": 0.0002,") || t.contains("\"periodS\": 2e-04,") || t.contains("\"periodS\": 0.000200000000,"), t);
-        assertTrue(t.contains("\"linesTotal\": 10, \"vsyncLines\": 2, \"backPorchLines\": 2, \"activeLines\": 4, \"frontPorchLines\": 2"), t);
-        assertTrue(t.contains("\"linePeriodS\": 2e-05") || t.contains("\"linePeriodS\": 0.00002"), t);
-        assertTrue(t.contains("\"frameRateHz\": 5000"), t);
+        org.lanesift.json.JsonValue timing = org.lanesift.testkit.JsonScan.parse("dut-timing.json", t);
+        assertEquals(2e-4, org.lanesift.testkit.JsonScan.number(timing, "periodS"), 1e-12, t);
+        assertEquals(10, org.lanesift.testkit.JsonScan.number(timing, "linesTotal"), t);
+        assertEquals(2, org.lanesift.testkit.JsonScan.number(timing, "vsyncLines"), t);
+        assertEquals(2, org.lanesift.testkit.JsonScan.number(timing, "backPorchLines"), t);
+        assertEquals(4, org.lanesift.testkit.JsonScan.number(timing, "activeLines"), t);
+        assertEquals(2, org.lanesift.testkit.JsonScan.number(timing, "frontPorchLines"), t);
+        assertEquals(2e-5, org.lanesift.testkit.JsonScan.number(timing, "linePeriodS"), 1e-13, t);
+        assertEquals(5000, org.lanesift.testkit.JsonScan.number(timing, "frameRateHz"), 1e-9, t);
         assertEquals(3 * H, h.annotations("packet").stream().filter(a -> DataTypes.name(dt).equals(a.fields().get("dataType").value())).count());
     }
 }

@@ -77,23 +77,16 @@ public record SlotMapping(String name, String title, String source, int colourBi
      */
     public static SlotMapping load(Path file) {
         String where = "mapping file '" + file + "'";
-        long size;
+        JsonValue m;
         try {
-            size = Files.size(file);
+            m = JsonReader.read(file, file.toString());
+        } catch (JsonParseException e) {
+            throw bad("mappingFile", e.getMessage());
         } catch (IOException e) {
             throw new OptionException("mappingFile", "option 'mappingFile' of plugin 'pixel-link': cannot read " + where
                     + ": " + e.getMessage());
         }
-        if (size > 1 << 20) {
-            throw new OptionException("mappingFile", "option 'mappingFile' of plugin 'pixel-link': " + where + " is "
-                    + size + " bytes; a mapping table is a small JSON file (at most 1 MiB)");
-        }
-        try {
-            return parse(Files.readString(file, StandardCharsets.UTF_8), where, "mappingFile");
-        } catch (IOException e) {
-            throw new OptionException("mappingFile", "option 'mappingFile' of plugin 'pixel-link': cannot read " + where
-                    + ": " + e.getMessage());
-        }
+        return of(m, where, "mappingFile");
     }
 
     /**
@@ -110,8 +103,12 @@ public record SlotMapping(String name, String title, String source, int colourBi
         try {
             m = JsonReader.parse(where, json);
         } catch (JsonParseException e) {
-            throw bad(option, where + ": line " + e.line() + ", column " + e.column() + ": " + e.reason());
+            throw bad(option, e.getMessage());
         }
+        return of(m, where, option);
+    }
+
+    private static SlotMapping of(JsonValue m, String where, String option) {
         if (!m.isObject()) {
             throw bad(option, where + ": expected a JSON object at /");
         }

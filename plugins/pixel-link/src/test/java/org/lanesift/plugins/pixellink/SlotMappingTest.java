@@ -25,12 +25,13 @@ class SlotMappingTest {
     }
 
     /**
-     * The built-in JSON tables against the tables transcribed from DESIGN.md section 6, whose
+     * The built-in JSON tables against the tables transcribed from
+     * docs/reference-facts.md#pixel-link-clock-and-slot-mappings, whose
      * sources are JEIDA-59-1999, Open LVDS Display Interface 0.95 and VESA Notebook Panel
      * Standard 2007.
      */
     @Test
-    void builtInTablesMatchDesignSection6() {
+    void builtInTablesMatchTheTranscribedTables() {
         assertEquals(rows(TestLink.VESA24), SlotMapping.builtIn("vesa-24").lanes());
         assertEquals(rows(TestLink.JEIDA24), SlotMapping.builtIn("jeida-24").lanes());
         assertEquals(rows(TestLink.BITS18), SlotMapping.builtIn("bits-18").lanes());
@@ -41,19 +42,22 @@ class SlotMappingTest {
         assertEquals(4, SlotMapping.builtIn("vesa-24").laneCount());
     }
 
-    /** Same check straight from the shared design document, when the checkout has it beside the repo. */
+    /**
+     * Same check straight from the text of docs/reference-facts.md#pixel-link-clock-and-slot-mappings,
+     * found by walking up from the module to the repository root (the test never leaves the repository).
+     */
     @Test
-    void builtInTablesMatchDesignDocumentText() throws Exception {
-        Path design = null;
+    void builtInTablesMatchReferenceFactsText() throws Exception {
+        Path facts = null;
         for (Path p = Path.of("").toAbsolutePath(); p != null; p = p.getParent()) {
-            Path c = p.resolve("shared").resolve("DESIGN.md");
-            if (Files.isRegularFile(c)) {
-                design = c;
+            Path c = p.resolve("docs").resolve("reference-facts.md");
+            if (Files.isRegularFile(c) && Files.isRegularFile(p.resolve("pom.xml"))) {
+                facts = c;
                 break;
             }
         }
-        org.junit.jupiter.api.Assumptions.assumeTrue(design != null, "shared/DESIGN.md not found beside the checkout");
-        String text = Files.readString(design);
+        assertTrue(facts != null, "docs/reference-facts.md not found above " + Path.of("").toAbsolutePath());
+        String text = Files.readString(facts);
         // 18-bit line: "lane 0 = G0 R5 ...; lane 1 = ...; lane 2 = ..."
         assertEquals(rows(TestLink.BITS18), lanesOf(lineStarting(text, "- 18-bit"), 0));
         List<List<String>> vesa = new ArrayList<>(rows(TestLink.BITS18));
@@ -68,7 +72,7 @@ class SlotMappingTest {
                 return l;
             }
         }
-        throw new AssertionError("DESIGN.md has no line starting with " + prefix);
+        throw new AssertionError("docs/reference-facts.md has no line starting with " + prefix);
     }
 
     private static List<List<String>> lanesOf(String line, int firstLane) {
@@ -142,7 +146,7 @@ class SlotMappingTest {
                 "{\"name\": \"x\", \"colourBits\": 7, \"lanes\": []}", "/colourBits must be 6 or 8",
                 "{\"name\": \"x\", \"colourBits\": 6, \"lanes\": [[\"G0\",\"R5\",\"R4\",\"R3\",\"R2\",\"R1\",\"R7\"]]}",
                 "/lanes/0/6 (lane 0, slot 6): 'R7' is not a bit name",
-                "{\"name\": \"x\", \"colourBits\": 6,\n \"lanes\": [}", "line 2, column 12",
+                "{\"name\": \"x\", \"colourBits\": 6,\n \"lanes\": [}", "line 2 column 12 at /lanes/0: expected a value",
                 "{\"colourBits\": 6, \"lanes\": []}", "/name is required");
         int k = 0;
         for (Map.Entry<String, String> c : cases.entrySet()) {

@@ -8,7 +8,7 @@ import org.lanesift.data.BitStream;
 
 /**
  * Test-only 7:1 serialiser: makes the bit streams a multiplied-clock sampler would deliver for a
- * video source, using its own copy of the slot tables (transcribed from DESIGN.md section 6), so
+ * video source, using its own copy of the slot tables (transcribed from docs/reference-facts.md#pixel-link-clock-and-slot-mappings), so
  * that the plugin's JSON tables are checked, not reused.
  *
  * <p>Source layout (common practice): each line starts at the HS leading edge: sync, back porch,
@@ -16,7 +16,7 @@ import org.lanesift.data.BitStream;
  * edge): sync lines, back porch lines, active lines, front porch lines.
  */
 final class TestLink {
-    // DESIGN.md section 6 (JEIDA-59-1999, Open LVDS Display Interface 0.95, VESA Notebook Panel Standard 2007)
+    // docs/reference-facts.md#pixel-link-clock-and-slot-mappings (JEIDA-59-1999, Open LVDS Display Interface 0.95, VESA Notebook Panel Standard 2007)
     static final String[][] VESA24 = {
         {"G0", "R5", "R4", "R3", "R2", "R1", "R0"},
         {"B1", "B0", "G5", "G4", "G3", "G2", "G1"},

@@ -16,6 +16,7 @@ import java.util.Random;
 import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Assumptions;
 import org.junit.jupiter.api.Test;
+import org.lanesift.testkit.ExternalTool;
 import org.junit.jupiter.api.io.TempDir;
 import org.lanesift.data.BitSets;
 import org.lanesift.data.BitStream;
@@ -29,16 +30,6 @@ import org.lanesift.testkit.StageHarness;
  * {@code CI=true}, where it fails.
  */
 class VerilogSerialiserTest {
-
-    static Path onPath(String exe) {
-        for (String dir : System.getenv().getOrDefault("PATH", "").split(File.pathSeparator)) {
-            Path p = Path.of(dir, exe);
-            if (Files.isExecutable(p)) {
-                return p;
-            }
-        }
-        return null;
-    }
 
     static void run(Path dir, List<String> cmd) throws Exception {
         Process p = new ProcessBuilder(cmd).directory(dir.toFile()).redirectErrorStream(true)
@@ -55,14 +46,8 @@ class VerilogSerialiserTest {
 
     @Test
     void verilogSerialisedPictureIsRecovered(@TempDir Path dir) throws Exception {
-        Path iverilog = onPath("iverilog");
-        Path vvp = onPath("vvp");
-        if (iverilog == null || vvp == null) {
-            if ("true".equals(System.getenv("CI"))) {
-                fail("iverilog/vvp not found on PATH; install the Debian package iverilog");
-            }
-            Assumptions.assumeTrue(false, "iverilog not installed");
-        }
+        Path iverilog = ExternalTool.require("iverilog");
+        Path vvp = ExternalTool.require("vvp");
         Path src = Path.of("src", "test", "verilog").toAbsolutePath();
         int[] img = new int[16 * 8];
         Random r = new Random(20261201);
@@ -82,7 +67,7 @@ class VerilogSerialiserTest {
         assertTrue(rises.size() > pixels - 10, "clock edges: " + rises.size());
         MiniVcd.Signal[] lanes = {vcd.signal("d0"), vcd.signal("d1"), vcd.signal("d2"), vcd.signal("d3")};
         // sample at slot centres: the clock lane rises at the start of slot 5, so slot 0 of the next
-        // pixel starts 2/7 of a period after the rising edge (DESIGN.md section 6: clock high in slots 0-1 and 5-6)
+        // pixel starts 2/7 of a period after the rising edge (docs/reference-facts.md#pixel-link-clock-and-slot-mappings: clock high in slots 0-1 and 5-6)
         int n = rises.size() - 1;
         try (StageHarness h = StageHarness.of(new PixelLinkPlugin(), Map.of("pictures", "all", "mapping", "vesa-24"))) {
             int block = 100;

@@ -10,8 +10,10 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.concurrent.atomic.AtomicInteger;
+import java.time.Duration;
 import org.junit.jupiter.api.Test;
 import org.lanesift.testkit.ToolHarness;
+import org.lanesift.testkit.Poll;
 import org.junit.jupiter.api.io.TempDir;
 
 /**
@@ -24,19 +26,10 @@ class DeviceSimToolTest {
 
     @Test
     void simulatorToolOnAPtyIsCapturedFromTheOtherEndAndStopsOnTheHostsStop() throws Exception {
-        if (!PtyCaptureTest.haveSocat()) {
-            assertTrue(!"true".equals(System.getenv("CI")), "socat is required in CI (apt-get install -y socat)");
-            assumeTrue(false, "socat not installed");
-        }
         Path a = tmp.resolve("ttyHost");
         Path b = tmp.resolve("ttyDevice");
-        Process socat = new ProcessBuilder("socat", "-d", "-d", "pty,raw,echo=0,link=" + a, "pty,raw,echo=0,link=" + b)
-                .redirectErrorStream(true).redirectOutput(tmp.resolve("socat.log").toFile()).start();
+        Process socat = PtyCaptureTest.ptyPair(a, b, tmp.resolve("socat.log"));
         try {
-            for (int i = 0; i < 100 && !(Files.exists(a) && Files.exists(b)); i++) {
-                Thread.sleep(50);
-            }
-            assertTrue(Files.exists(a) && Files.exists(b), "socat made no pty pair");
             ByteArrayOutputStream err = new ByteArrayOutputStream();
             AtomicInteger code = new AtomicInteger(-1);
             Thread dev = new Thread(() -> {
@@ -61,10 +54,8 @@ class DeviceSimToolTest {
             int spf = new DeviceSimulator.Plan().samplesPerFrame;
             long frames = (2_000_000L + spf - 1) / spf;
             long wantFrames = frames - 1; // frame 5 dropped
-            long deadline = System.nanoTime() + 60_000_000_000L;
-            while (System.nanoTime() < deadline && (c.writer() == null || c.writer().frames() < wantFrames)) {
-                Thread.sleep(20);
-            }
+            Poll.until(Duration.ofSeconds(60), "the spool to hold " + wantFrames + " frames",
+                    () -> c.writer() != null && c.writer().frames() >= wantFrames);
             assertTrue(dev.isAlive(), "the simulator keeps the port open after the last sample until the host stops it");
             c.stop(); // sends STOP
             cap.join(30_000);

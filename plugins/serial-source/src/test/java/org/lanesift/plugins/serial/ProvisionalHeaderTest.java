@@ -8,7 +8,9 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
+import java.time.Duration;
 import org.junit.jupiter.api.Test;
+import org.lanesift.testkit.Poll;
 import org.junit.jupiter.api.io.TempDir;
 import org.lanesift.chain.Chain;
 import org.lanesift.data.LogicBlock;
@@ -19,6 +21,21 @@ import org.lanesift.plugin.PluginRegistry;
  * header: it never times samples with the provisional rate written before the exchange.
  */
 class ProvisionalHeaderTest {
+    /** True while some thread sleeps in the spool source's wait for a final header. */
+    static boolean followerWaits() {
+        for (Map.Entry<Thread, StackTraceElement[]> e : Thread.getAllStackTraces().entrySet()) {
+            if (e.getKey().getState() != Thread.State.TIMED_WAITING) {
+                continue;
+            }
+            for (StackTraceElement f : e.getValue()) {
+                if (f.getClassName().equals(SpoolSourceStage.class.getName()) && f.getMethodName().equals("start")) {
+                    return true;
+                }
+            }
+        }
+        return false;
+    }
+
     @TempDir
     Path tmp;
 
@@ -38,7 +55,8 @@ class ProvisionalHeaderTest {
                 .build();
         Thread decode = new Thread(chain::run, "decode");
         decode.start();
-        Thread.sleep(300);                    // the follower is up and sees only the provisional header
+        // the follower is up and waits, seeing only the provisional header
+        Poll.until(Duration.ofSeconds(20), "the spool follower to wait for the final header", ProvisionalHeaderTest::followerWaits);
         w.updateHeader(new SpoolHeader(true, 50e6, 8, "sim", "1"));
         assertFalse(SpoolHeader.isProvisional(dir));
         byte[] payload = new byte[8 + 256];   // sample index 0, then 256 samples

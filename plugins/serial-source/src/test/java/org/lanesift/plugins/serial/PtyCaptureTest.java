@@ -6,7 +6,10 @@ import static org.junit.jupiter.api.Assumptions.assumeTrue;
 
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.time.Duration;
 import org.junit.jupiter.api.Test;
+import org.lanesift.testkit.ExternalTool;
+import org.lanesift.testkit.Poll;
 import org.junit.jupiter.api.io.TempDir;
 
 /**
@@ -19,31 +22,21 @@ class PtyCaptureTest {
     @TempDir
     Path tmp;
 
-    static boolean haveSocat() {
-        for (String d : System.getenv().getOrDefault("PATH", "/usr/bin").split(":")) {
-            if (Files.isExecutable(Path.of(d, "socat"))) {
-                return true;
-            }
-        }
-        return false;
+    /** Starts socat making a linked pty pair, and waits until both links exist. */
+    static Process ptyPair(Path a, Path b, Path log) throws Exception {
+        Path socat = ExternalTool.require("socat");
+        Process p = new ProcessBuilder(socat.toString(), "-d", "-d", "pty,raw,echo=0,link=" + a, "pty,raw,echo=0,link=" + b)
+                .redirectErrorStream(true).redirectOutput(log.toFile()).start();
+        Poll.until(Duration.ofSeconds(5), "socat's pty pair " + a + " and " + b, () -> Files.exists(a) && Files.exists(b));
+        return p;
     }
 
     @Test
     void streamThroughAPtyIsSpooledByteExactWithFaultsAnnotated() throws Exception {
-        boolean ci = "true".equals(System.getenv("CI"));
-        if (!haveSocat()) {
-            assertTrue(!ci, "socat is required in CI (apt-get install -y socat)");
-            assumeTrue(false, "socat not installed");
-        }
         Path a = tmp.resolve("ptyA");
         Path b = tmp.resolve("ptyB");
-        Process socat = new ProcessBuilder("socat", "-d", "-d", "pty,raw,echo=0,link=" + a, "pty,raw,echo=0,link=" + b)
-                .redirectErrorStream(true).redirectOutput(tmp.resolve("socat.log").toFile()).start();
+        Process socat = ptyPair(a, b, tmp.resolve("socat.log"));
         try {
-            for (int i = 0; i < 100 && !(Files.exists(a) && Files.exists(b)); i++) {
-                Thread.sleep(50);
-            }
-            assertTrue(Files.exists(a) && Files.exists(b), "socat made no pty pair");
             JSerialCommPorts ports = new JSerialCommPorts();
             SerialLink deviceEnd = ports.open(b.toString(), 115200);
             Recording rec = new Recording(deviceEnd);
@@ -70,10 +63,8 @@ class PtyCaptureTest {
             long t0 = System.nanoTime();
             cap.start();
             dev.join(600_000);
-            long deadline = System.nanoTime() + 120_000_000_000L;
-            while (System.nanoTime() < deadline && (c.writer() == null || c.writer().bytes() < rec.bytes())) {
-                Thread.sleep(20);
-            }
+            Poll.until(Duration.ofSeconds(120), "the spool to hold every byte the device sent",
+                    () -> c.writer() != null && c.writer().bytes() >= rec.bytes());
             double secs = (System.nanoTime() - t0) / 1e9;
             System.out.printf("pty: %d bytes in %.2f s = %.1f MB/s%n", rec.bytes(), secs, rec.bytes() / 1e6 / secs);
             c.stop();

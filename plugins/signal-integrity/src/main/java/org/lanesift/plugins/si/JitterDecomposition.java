@@ -20,7 +20,7 @@ import org.apache.commons.math3.distribution.NormalDistribution;
  * smaller RJ whose TJ is still close; for sinusoidal DJ it reports less than the peak-to-peak (the
  * dual-Dirac DJ is a model figure, not a peak-to-peak); docs/jitter.md. Then RJ = (sigmaL + sigmaR) / 2 (RMS),
  * DJ(dual-Dirac) = muR - muL, and TJ(BER) = DJ + 2 Q(BER) RJ with Q(BER) = -Phi^-1(BER), the
- * relation of the dual-Dirac model (docs/reference-facts.md#jitter).
+ * relation of the dual-Dirac model (docs/reference-facts.md#jitter-under-the-dual-dirac-model).
  *
  * <p>The model does not describe every distribution: the result lists the reasons it may not hold
  * here (too few edges for the tails, tails that are not straight on the Q scale, very different

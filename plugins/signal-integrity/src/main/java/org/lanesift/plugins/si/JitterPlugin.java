@@ -421,7 +421,7 @@ public final class JitterPlugin implements PluginProvider {
             j.field("decomposition.randomJitterRmsPs, deterministicJitterDualDiracPs, leftTail, rightTail",
                     "measured: tail fits of the TIE distribution");
             j.field("decomposition.qOfBer, totalJitterPs, eyeOpeningUi",
-                    "standard: the dual-Dirac relation TJ = DJ + 2 Q(BER) RJ (docs/reference-facts.md#jitter), applied to the measured RJ and DJ");
+                    "standard: the dual-Dirac relation TJ = DJ + 2 Q(BER) RJ (docs/reference-facts.md#jitter-under-the-dual-dirac-model), applied to the measured RJ and DJ");
             j.field("ber", ber == DEFAULT_BER ? "assumed by default (1e-12, common practice)" : "given (option ber)");
             j.field("bathtub.modelLog10ErrorProbability", "dual-Dirac model with the measured tails; transition density 1 assumed (a clock)");
             j.field("bathtub.positionPs", "chosen: each wall until the model is far below any BER of interest");

@@ -37,9 +37,8 @@ class EdgeMetricsPluginTest {
 
     /** Value of {@code key} inside the object named {@code section}. */
     static double in(String json, String section, String key) {
-        int i = json.indexOf("\"" + section + "\": {");
-        assertTrue(i >= 0, "no section " + section);
-        return num(json.substring(i), key);
+        org.lanesift.json.JsonValue root = org.lanesift.testkit.JsonScan.parse("edge report", json);
+        return org.lanesift.testkit.JsonScan.number(org.lanesift.testkit.JsonScan.after(root, section, null, key));
     }
 
     @Test

@@ -14,8 +14,6 @@ import java.util.ArrayList;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
-import java.util.regex.Matcher;
-import java.util.regex.Pattern;
 import javax.imageio.ImageIO;
 import net.jqwik.api.ForAll;
 import net.jqwik.api.Property;
@@ -44,12 +42,9 @@ class EyeDiagramPluginTest {
         throw new AssertionError("no artifact *" + suffix);
     }
 
+    /** The first member {@code key} of the report (null is NaN), read with the JSON reader. */
     static double num(String json, String key) {
-        Matcher m = Pattern.compile("\"" + key + "\": (-?[0-9.eE+-]+|null)").matcher(json);
-        if (!m.find()) {
-            throw new AssertionError("no " + key + " in " + json);
-        }
-        return m.group(1).equals("null") ? Double.NaN : Double.parseDouble(m.group(1));
+        return org.lanesift.testkit.JsonScan.number(org.lanesift.testkit.JsonScan.parse("report", json), key);
     }
 
     static StageHarness run(AnalogBlock sig, Map<String, Object> opts) {

@@ -39,7 +39,7 @@ class ProbeToolTest {
 
     @Test
     void dividerFormulasOnHandWorkedCases() {
-        // Worked by hand (formulas: common practice, DESIGN.md section 6):
+        // Worked by hand (formulas: common practice, docs/reference-facts.md#probe-and-bench-rules-of-thumb):
         // 10:1 into 50 ohm: R = 50 (10 - 1) = 450 ohm; (450 + 50) / 50 = 10 exactly; loading 500 ohm.
         assertEquals(450, ProbeMath.seriesForRatio(10, 50), 1e-12);
         assertEquals(10, ProbeMath.ratio(450, 50), 1e-12);

@@ -1,4 +1,4 @@
-package org.lanesift.runner;
+package org.lanesift.testkit;
 
 import java.io.File;
 import java.nio.file.Files;
@@ -6,9 +6,9 @@ import java.nio.file.Path;
 import org.junit.jupiter.api.Assumptions;
 
 /**
- * Finds an external program (from a Debian package) that a test needs. Outside CI a missing
- * program skips the test; under {@code CI=true} it fails it, so a green CI run means the check
- * really ran.
+ * Finds an external program (from a Debian package: iverilog, vvp, ngspice, socat) that a test
+ * needs. Outside CI a missing program skips the test; under {@code CI=true} it fails it, so a green
+ * CI run means the check really ran. Every module's tests use this one rule.
  */
 public final class ExternalTool {
     private ExternalTool() {
@@ -24,12 +24,22 @@ public final class ExternalTool {
         Path p = find(program);
         if (p == null) {
             String msg = program + " is not installed (Debian package; .ci/run installs it)";
-            if ("true".equalsIgnoreCase(System.getenv("CI"))) {
+            if (underCi()) {
                 throw new AssertionError(msg + " and CI=true, so this check must run");
             }
             Assumptions.abort(msg);
         }
         return p;
+    }
+
+    /**
+     * Whether the tests run under CI ({@code CI=true} in the environment), where every external
+     * check must run.
+     *
+     * @return true under CI
+     */
+    public static boolean underCi() {
+        return "true".equalsIgnoreCase(System.getenv("CI"));
     }
 
     /**
