@@ -84,7 +84,7 @@ public final class DemoTool implements Tool {
             for (String d : new String[] {"captures", "chains", "skew", "pixel", "packet", "work"}) {
                 Files.createDirectories(dir.resolve(d));
             }
-            out.println("lanesift demo: the invented Tern T-64 (docs/demo-scenario.md), output in " + dir);
+            out.println("lanesift demo: the invented Siftlet-64 (docs/demo-scenario.md), output in " + dir);
             ExecutorService pool = Executors.newFixedThreadPool(2);
             try {
                 Future<PixelLinkScene.Truth> pixel = pool.submit(this::pixelLink);
@@ -350,7 +350,7 @@ public final class DemoTool implements Tool {
         private void writeReport(double seconds) throws IOException {
             StringBuilder r = new StringBuilder();
             r.append("# Lanesift demo report\n\n");
-            r.append("Scenario: the invented Tern T-64 (docs/demo-scenario.md). Captures in `captures/`, the chain files that ")
+            r.append("Scenario: the invented Siftlet-64 (docs/demo-scenario.md). Captures in `captures/`, the chain files that ")
                     .append("ran in `chains/` (copy them for your own captures: `./lanesift run chains/pixel-3-decode.json ")
                     .append("--input cap=YOUR.bin`), merged skew tables in `skew/`, intermediate passes in `work/`.\n\n");
             r.append("Each link was decoded in three passes: (1) skew between the legs of every pair (cross-correlation), ")
