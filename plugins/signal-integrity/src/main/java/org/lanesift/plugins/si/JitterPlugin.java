@@ -329,8 +329,10 @@ public final class JitterPlugin implements PluginProvider {
             j.field("totalJitterPs", d.tj());
             j.field("relation", "TJ(BER) = DJ(dual-Dirac) + 2 Q(BER) RJ, Q(BER) = -inverse standard normal CDF of BER");
             j.field("eyeOpeningUi", d.fitted() ? Math.max(0, 1 - d.tj() / uiPs) : Double.NaN);
-            for (JitterDecomposition.Tail t : new JitterDecomposition.Tail[] {d.left(), d.right()}) {
-                j.name(t == d.left() ? "leftTail" : "rightTail").beginObject();
+            JitterDecomposition.Tail[] tails = {d.left(), d.right()};
+            for (int side = 0; side < 2; side++) {
+                JitterDecomposition.Tail t = tails[side];
+                j.name(side == 0 ? "leftTail" : "rightTail").beginObject();
                 j.field("diracPs", t == null ? Double.NaN : t.mu());
                 j.field("sigmaPs", t == null ? Double.NaN : t.sigma());
                 j.field("diracWeight", t == null ? Double.NaN : t.weight());
