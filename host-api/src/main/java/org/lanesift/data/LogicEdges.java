@@ -73,8 +73,7 @@ public final class LogicEdges {
             known = first < n;
         }
         final boolean initial = level;
-        long[] times = new long[16 + (n >>> 5)];
-        int k = 0;
+        EdgeListBuilder out = new EdgeListBuilder(16 + (n >>> 5));
         for (int w = 0; w < words; w++) {
             final long x = bits[w];
             final long iv = inv == null ? 0 : inv[w];
@@ -84,13 +83,10 @@ public final class LogicEdges {
             if ((iv & lastMask) == 0) {
                 // fast path: every sample of this word is known
                 long diff = (x ^ ((x << 1) | (level ? 1L : 0L))) & lastMask;
-                int c = Long.bitCount(diff);
-                if (k + c > times.length) {
-                    times = java.util.Arrays.copyOf(times, Math.max(times.length * 2, k + c));
-                }
+                out.reserve(Long.bitCount(diff));
                 while (diff != 0) {
                     int j = Long.numberOfTrailingZeros(diff);
-                    times[k++] = origin + Math.round((base + j) * p);
+                    out.addTime(origin + Math.round((base + j) * p));
                     diff &= diff - 1;
                 }
                 level = ((x >>> (inWord - 1)) & 1L) != 0;
@@ -103,23 +99,13 @@ public final class LogicEdges {
                     }
                     boolean v = ((x >>> j) & 1L) != 0;
                     if (v != level) {
-                        if (k == times.length) {
-                            times = java.util.Arrays.copyOf(times, times.length * 2);
-                        }
-                        times[k++] = origin + Math.round((base + j) * p);
+                        out.addTime(origin + Math.round((base + j) * p));
                         level = v;
                     }
                 }
             }
         }
-        final int total = k;
-        if (times.length != total) {
-            times = java.util.Arrays.copyOf(times, total); // exact length: callers may rely on it
-        }
-        long[] spans = null;
-        int spanCount = 0;
         if (inv != null && BitSets.count(inv, n) > 0) {
-            spans = new long[8];
             int i = 0;
             while (i < n) {
                 if (!BitSets.get(inv, i)) {
@@ -130,12 +116,8 @@ public final class LogicEdges {
                 while (i < n && BitSets.get(inv, i)) {
                     i++;
                 }
-                if (2 * spanCount + 2 > spans.length) {
-                    spans = java.util.Arrays.copyOf(spans, spans.length * 2);
-                }
-                spans[2 * spanCount] = Math.max(spanStart, origin + Math.round((s - 0.5) * p));
-                spans[2 * spanCount + 1] = Math.min(spanEnd, origin + Math.round((i - 0.5) * p));
-                spanCount++;
+                out.addSpan(Math.max(spanStart, origin + Math.round((s - 0.5) * p)),
+                        Math.min(spanEnd, origin + Math.round((i - 0.5) * p)));
             }
         }
         if (known) {
@@ -143,7 +125,7 @@ public final class LogicEdges {
             havePrevious = true;
             previousLevel = level;
         }
-        return new Edges(b.channel(), spanStart, spanEnd, initial, times, total, spans, spanCount);
+        return out.build(b.channel(), spanStart, spanEnd, initial); // exact-length arrays: callers may rely on it
     }
 
     /**

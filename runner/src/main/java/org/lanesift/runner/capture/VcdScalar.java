@@ -1,6 +1,6 @@
 package org.lanesift.runner.capture;
 
-import java.util.Arrays;
+import org.lanesift.data.EdgeListBuilder;
 import org.lanesift.data.Block;
 import org.lanesift.data.DataKind;
 import org.lanesift.data.Edges;
@@ -11,10 +11,7 @@ final class VcdScalar extends VcdSignal {
     private boolean unknown = true;
     private long unknownSince;
     private boolean spanInitial;
-    private long[] times = new long[16];
-    private int count;
-    private long[] spans = new long[8];
-    private int spanCount;
+    private final EdgeListBuilder edges = new EdgeListBuilder();
 
     VcdScalar(int index, String path, String code) {
         super(index, 1, path, code);
@@ -72,35 +69,17 @@ final class VcdScalar extends VcdSignal {
             addSpan(Math.max(unknownSince, spanStartFs), endFs);
             unknownSince = endFs;
         }
-        Edges e = new Edges(port(), spanStartFs, endFs, spanInitial, times, count, spans, spanCount);
+        Edges e = edges.build(port(), spanStartFs, endFs, spanInitial);
         spanInitial = level;
-        times = new long[Math.max(16, Math.min(count, 1 << 16))];
-        count = 0;
-        spans = new long[8];
-        spanCount = 0;
+        edges.clear();
         return e;
     }
 
     private void addTime(long t) {
-        if (count == times.length) {
-            times = Arrays.copyOf(times, count * 2);
-        }
-        times[count++] = t;
+        edges.addTime(t);
     }
 
     private void addSpan(long a, long b) {
-        if (b <= a) {
-            return;
-        }
-        if (spanCount > 0 && spans[2 * spanCount - 1] == a) {
-            spans[2 * spanCount - 1] = b;
-            return;
-        }
-        if (2 * spanCount + 2 > spans.length) {
-            spans = Arrays.copyOf(spans, spans.length * 2);
-        }
-        spans[2 * spanCount] = a;
-        spans[2 * spanCount + 1] = b;
-        spanCount++;
+        edges.addSpanJoined(a, b);
     }
 }

@@ -1,7 +1,7 @@
 package org.lanesift.plugins.differential;
 
 import java.util.Arrays;
-import org.lanesift.kit.EdgeListBuilder;
+import org.lanesift.data.EdgeListBuilder;
 import org.lanesift.data.BitSets;
 import org.lanesift.data.Edges;
 

@@ -4,7 +4,7 @@ import java.nio.charset.StandardCharsets;
 import java.util.ArrayDeque;
 import java.util.ArrayList;
 import java.util.List;
-import org.lanesift.kit.EdgeListBuilder;
+import org.lanesift.data.EdgeListBuilder;
 import org.lanesift.kit.PackedBits;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Field;

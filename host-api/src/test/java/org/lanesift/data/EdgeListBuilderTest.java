@@ -1,4 +1,4 @@
-package org.lanesift.kit;
+package org.lanesift.data;
 
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
@@ -8,7 +8,6 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Random;
 import org.junit.jupiter.api.Test;
-import org.lanesift.data.Edges;
 
 class EdgeListBuilderTest {
     @Test

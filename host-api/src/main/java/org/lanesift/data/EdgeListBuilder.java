@@ -1,12 +1,13 @@
-package org.lanesift.kit;
+package org.lanesift.data;
 
 import java.util.Arrays;
-import org.lanesift.data.Edges;
 
 /**
  * Collects the transition times (femtoseconds, ascending) and unknown spans of one edge list as it
  * is found, in primitive arrays that grow by doubling, then builds the {@link Edges} block with
- * arrays of exact length. Reusable after {@link #clear()}; not thread-safe.
+ * arrays of exact length. Reusable after {@link #clear()}; not thread-safe. The one growable edge
+ * list of the project: the logic-to-edges converter, the VCD reader and the plugins build their
+ * edge lists with it.
  */
 public final class EdgeListBuilder {
     private long[] times;
@@ -24,7 +25,11 @@ public final class EdgeListBuilder {
         times = new long[Math.max(1, capacity)];
     }
 
-    /** Makes room for {@code more} further transitions at once. */
+    /**
+     * Makes room for further transitions at once.
+     *
+     * @param more how many transitions will follow
+     */
     public void reserve(int more) {
         if (timeCount + more > times.length) {
             times = Arrays.copyOf(times, Math.max(times.length * 2, timeCount + more));
@@ -54,6 +59,24 @@ public final class EdgeListBuilder {
         spanCount++;
     }
 
+    /**
+     * Appends an unknown span, or extends the last one when it ends exactly where this one starts;
+     * an empty span ({@code endFs <= startFs}) is ignored.
+     *
+     * @param startFs span start, femtoseconds
+     * @param endFs   span end, femtoseconds
+     */
+    public void addSpanJoined(long startFs, long endFs) {
+        if (endFs <= startFs) {
+            return;
+        }
+        if (spanCount > 0 && spans[2 * spanCount - 1] == startFs) {
+            spans[2 * spanCount - 1] = endFs;
+            return;
+        }
+        addSpan(startFs, endFs);
+    }
+
     /** @return transitions collected */
     public int timeCount() {
         return timeCount;
@@ -64,7 +87,12 @@ public final class EdgeListBuilder {
         return spanCount;
     }
 
-    /** @return transition {@code i}, femtoseconds */
+    /**
+     * A transition collected so far.
+     *
+     * @param i its number, from 0
+     * @return transition {@code i}, femtoseconds
+     */
     public long time(int i) {
         return times[i];
     }
@@ -74,7 +102,12 @@ public final class EdgeListBuilder {
         return times[timeCount - 1];
     }
 
-    /** @return how many leading transitions lie before {@code timeFs} */
+    /**
+     * Counts the leading transitions before a time.
+     *
+     * @param timeFs the time, femtoseconds
+     * @return how many leading transitions lie before {@code timeFs}
+     */
     public int timesBefore(long timeFs) {
         int n = 0;
         while (n < timeCount && times[n] < timeFs) {
@@ -96,17 +129,31 @@ public final class EdgeListBuilder {
         return out;
     }
 
-    /** @return start of unknown span {@code i}, femtoseconds */
+    /**
+     * Start of an unknown span.
+     *
+     * @param i its number, from 0
+     * @return start of unknown span {@code i}, femtoseconds
+     */
     public long spanStart(int i) {
         return spans[2 * i];
     }
 
-    /** @return end of unknown span {@code i}, femtoseconds */
+    /**
+     * End of an unknown span.
+     *
+     * @param i its number, from 0
+     * @return end of unknown span {@code i}, femtoseconds
+     */
     public long spanEnd(int i) {
         return spans[2 * i + 1];
     }
 
-    /** Keeps, in order, only the unknown spans that end after {@code timeFs}. */
+    /**
+     * Keeps, in order, only the unknown spans that end after a time.
+     *
+     * @param timeFs the time, femtoseconds
+     */
     public void keepSpansEndingAfter(long timeFs) {
         int keep = 0;
         for (int i = 0; i < spanCount; i++) {
