@@ -19,7 +19,8 @@ import org.lanesift.plugin.StageContext;
  * The stage for analog modes: the {@link LegAligner} lines the legs up, the {@link WarmupLearner}
  * learns the levels, the {@link Comparator} runs chunk by chunk, windowed {@link LevelAcc}
  * statistics feed the {@link LevelTracker} (drift), the {@link WindowFindings} (level checks) and
- * the {@link LevelReport}; {@link InvalidRuns} annotates invalid input.
+ * the {@link LevelReport}; {@link InvalidRuns} annotates invalid input; {@link PairSignals} gives
+ * P-N and (P+N)/2 when asked for.
  */
 final class AnalogStage implements Stage, LegAligner.Sink {
     static final int OUT_EDGES = 0;
@@ -37,6 +38,8 @@ final class AnalogStage implements Stage, LegAligner.Sink {
     private final WindowFindings findings;
     private final LevelReport report;
     private final InvalidRuns invalid;
+    /** The optional analog outputs P-N and (P+N)/2; null unless mode pair asks for one. */
+    private final PairSignals pair;
 
     private double periodFs = Double.NaN;
     private double adaptSamples;
@@ -60,6 +63,7 @@ final class AnalogStage implements Stage, LegAligner.Sink {
         this.report = new LevelReport(s);
         this.invalid = new InvalidRuns(ctx, s.channel);
         this.learning = s.needsWarmup();
+        this.pair = s.diffOutput || s.commonOutput ? new PairSignals(ctx, s.channel) : null;
     }
 
     @Override
@@ -150,6 +154,9 @@ final class AnalogStage implements Stage, LegAligner.Sink {
                 }
             }
             ctx.emit(OUT_LOGIC, new LogicBlock(s.channel, base, cmp.timeAt(base, 0), periodFs, bits, c.len(), inv));
+        }
+        if (pair != null && pair.wanted()) {
+            pair.emit(c, base, cmp.timeAt(base, 0), periodFs);
         }
         Edges e = cmp.takeEdges(s.channel, false);
         if (e != null) {
