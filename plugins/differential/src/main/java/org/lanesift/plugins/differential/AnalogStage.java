@@ -44,6 +44,8 @@ final class AnalogStage implements Stage, LegAligner.Sink {
     private double periodFs = Double.NaN;
     private double adaptSamples;
     private long originFs;
+    /** Capture sample number of the first aligned sample (of leg p), for the analog outputs. */
+    private long originIndex;
     private Comparator cmp;
     private boolean learning;
     private WarmupLearner.Result initial = new WarmupLearner.Result(Double.NaN, Double.NaN, "");
@@ -86,7 +88,8 @@ final class AnalogStage implements Stage, LegAligner.Sink {
             return;
         }
         originFs = first.startFs() + Math.round(offset * periodFs);
-        invalid.origin(first.firstIndex() + offset);
+        originIndex = first.firstIndex() + offset;
+        invalid.origin(originIndex);
         cmp = new Comparator(originFs, periodFs, s.cubic, invalid);
         cmp.setInvert(s.invert);
         window = new LevelAcc(0);
@@ -156,7 +159,7 @@ final class AnalogStage implements Stage, LegAligner.Sink {
             ctx.emit(OUT_LOGIC, new LogicBlock(s.channel, base, cmp.timeAt(base, 0), periodFs, bits, c.len(), inv));
         }
         if (pair != null && pair.wanted()) {
-            pair.emit(c, base, cmp.timeAt(base, 0), periodFs);
+            pair.emit(c, originIndex + base, cmp.timeAt(base, 0), periodFs);
         }
         Edges e = cmp.takeEdges(s.channel, false);
         if (e != null) {

@@ -49,7 +49,7 @@ final class PairSignals {
      * Emits P-N and (P+N)/2 of a two-leg chunk.
      *
      * @param c        the chunk (both legs present)
-     * @param index    index of its first sample, counted from the first aligned sample
+     * @param index    capture sample number of its first sample (as leg p counts them)
      * @param startFs  time of its first sample, femtoseconds
      * @param periodFs sample period, femtoseconds
      */

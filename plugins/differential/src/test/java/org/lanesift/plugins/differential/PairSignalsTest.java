@@ -55,7 +55,8 @@ class PairSignalsTest {
         boolean[] inv = new boolean[n];
         int pos = 0;
         for (AnalogBlock b : bs) {
-            assertEquals(pos, b.firstIndex(), port + ": blocks must follow each other");
+            // sample numbers as the capture counts them (leg p's), so segments of a capture agree
+            assertEquals(LEAD + pos, b.firstIndex(), port + ": blocks must follow each other");
             assertEquals(bs.get(0).startFs() + Math.round(pos * P), b.startFs(), 1, port + " block time");
             for (int i = 0; i < b.length(); i++) {
                 v[pos + i] = b.volts()[i];
@@ -144,7 +145,7 @@ class PairSignalsTest {
         assertTrue(m.contains("option 'diffOutput' of plugin 'differential'") && m.contains("only available in mode 'pair'"), m);
         m = ChainAndOptionsTest.optionError(Map.of("mode", "single", "commonOutput", true));
         assertTrue(m.contains("option 'commonOutput'") && m.contains("mode 'pair'"), m);
-        StageHarness h = run(Map.of("diffOutput", true), List.of(leg(true, 3000, 0, 5)), List.of(leg(false, 3000, 0, 6)));
+        StageHarness h = run(Map.of("diffOutput", true), List.of(leg(true, 3000 + LEAD, 0, 5)), List.of(leg(false, 3000, Math.round(LEAD * P), 6)));
         assertEquals(3000, ((float[]) joined(h, "diff")[0]).length);
     }
 }
