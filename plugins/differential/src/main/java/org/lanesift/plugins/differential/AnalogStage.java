@@ -159,7 +159,7 @@ final class AnalogStage implements Stage, LegAligner.Sink {
             ctx.emit(OUT_LOGIC, new LogicBlock(s.channel, base, cmp.timeAt(base, 0), periodFs, bits, c.len(), inv));
         }
         if (pair != null && pair.wanted()) {
-            pair.emit(c, originIndex + base, cmp.timeAt(base, 0), periodFs);
+            pair.emit(c, originIndex + base, cmp.timeAt(base, 0), periodFs, inv);
         }
         Edges e = cmp.takeEdges(s.channel, false);
         if (e != null) {

@@ -10,7 +10,7 @@ import org.lanesift.plugin.StageContext;
  * and {@code common} ((P+N)/2, volts) of mode {@code pair}: one block out per aligned chunk in,
  * computed in one pass over the chunk's primitive arrays (one array per output block, nothing per
  * sample). An output is computed only when it exists (its option is on) and the context says that
- * someone receives it. A sample is invalid where either leg is (the chunk's combined mask).
+ * someone receives it. A sample is invalid where either leg is invalid or not a number.
  *
  * <p>What they are: the differential output voltage VOD is defined on P-N and the offset (common
  * mode) voltage as (P+N)/2 (docs/reference-facts.md#lvds-electrical-levels,
@@ -52,14 +52,14 @@ final class PairSignals {
      * @param index    capture sample number of its first sample (as leg p counts them)
      * @param startFs  time of its first sample, femtoseconds
      * @param periodFs sample period, femtoseconds
+     * @param inv      the chunk's invalid samples (either leg invalid or not a number), or null
      */
-    void emit(Chunk c, long index, long startFs, double periodFs) {
+    void emit(Chunk c, long index, long startFs, double periodFs, long[] inv) {
         int len = c.len();
         float[] p = c.a();
         float[] n = c.b();
         int po = c.ao();
         int no = c.bo();
-        long[] inv = c.inv();
         if (diffPort >= 0 && ctx.isConnected(diffPort)) {
             float[] d = new float[len];
             for (int i = 0; i < len; i++) {
