@@ -44,27 +44,29 @@ class PairSignalsTest {
         return new AnalogBlock(b.channel(), b.firstIndex(), b.startFs(), b.periodFs(), b.volts(), b.length(), inv);
     }
 
-    /** Samples and invalid flags of a port's blocks, checking that they follow each other. */
-    static Object[] joined(StageHarness h, String port) {
+    /** One output's blocks joined: samples, invalid flags, time of the first sample and channel name. */
+    record Joined(float[] volts, boolean[] invalid, long startFs, String channel) {
+    }
+
+    /** Joins a port's blocks, checking that each follows the one before in sample number and time. */
+    static Joined joined(StageHarness h, String port) {
         List<AnalogBlock> bs = h.outputs(port, AnalogBlock.class);
-        int n = 0;
-        for (AnalogBlock b : bs) {
-            n += b.length();
-        }
-        float[] v = new float[n];
-        boolean[] inv = new boolean[n];
+        assertTrue(!bs.isEmpty(), port + ": no blocks");
+        AnalogBlock head = bs.get(0);
+        int total = bs.stream().mapToInt(AnalogBlock::length).sum();
+        Joined j = new Joined(new float[total], new boolean[total], head.startFs(), head.channel());
         int pos = 0;
         for (AnalogBlock b : bs) {
             // sample numbers as the capture counts them (leg p's), so segments of a capture agree
             assertEquals(LEAD + pos, b.firstIndex(), port + ": blocks must follow each other");
-            assertEquals(bs.get(0).startFs() + Math.round(pos * P), b.startFs(), 1, port + " block time");
-            for (int i = 0; i < b.length(); i++) {
-                v[pos + i] = b.volts()[i];
-                inv[pos + i] = b.invalid() != null && BitSets.get(b.invalid(), i);
+            assertEquals(head.startFs() + Math.round(pos * P), b.startFs(), 1, port + " block time");
+            System.arraycopy(b.volts(), 0, j.volts(), pos, b.length());
+            for (int i = 0; b.invalid() != null && i < b.length(); i++) {
+                j.invalid()[pos + i] = BitSets.get(b.invalid(), i);
             }
             pos += b.length();
         }
-        return new Object[] {v, inv, bs.isEmpty() ? Long.MIN_VALUE : bs.get(0).startFs(), bs.isEmpty() ? "" : bs.get(0).channel()};
+        return j;
     }
 
     static StageHarness run(Map<String, ?> options, List<AnalogBlock> p, List<AnalogBlock> n) {
@@ -93,23 +95,23 @@ class PairSignalsTest {
         for (Map<String, Object> o : List.<Map<String, Object>>of(BOTH, Map.of("name", "D0", "diffOutput", true, "commonOutput",
                 true, "thresholdVolts", 0.0, "hysteresisVolts", 0.05))) {
             StageHarness h = run(o, List.of(p), List.of(n));
-            Object[] d = joined(h, "diff");
-            Object[] c = joined(h, "common");
-            float[] dv = (float[]) d[0];
-            float[] cv = (float[]) c[0];
-            boolean[] inv = (boolean[]) d[1];
+            Joined d = joined(h, "diff");
+            Joined c = joined(h, "common");
+            float[] dv = d.volts();
+            float[] cv = c.volts();
+            boolean[] inv = d.invalid();
             assertEquals(N, dv.length, o + ": one difference sample per aligned sample pair");
             assertEquals(N, cv.length);
-            assertEquals(n.startFs(), (long) d[2], "the difference starts at the first sample both legs have");
-            assertEquals("D0 (P-N)", d[3]);
-            assertEquals("D0 (P+N)/2", c[3]);
+            assertEquals(n.startFs(), d.startFs(), "the difference starts at the first sample both legs have");
+            assertEquals("D0 (P-N)", d.channel());
+            assertEquals("D0 (P+N)/2", c.channel());
             for (int i = 0; i < N; i++) {
                 float pv = p.volts()[i + LEAD];
                 float nv = n.volts()[i];
                 assertEquals(pv - nv, dv[i], 0f, "P-N at sample " + i);
                 assertEquals((float) ((pv + (double) nv) / 2), cv[i], 0f, "(P+N)/2 at sample " + i);
                 assertEquals(i >= 3000 && i < 3017 || i == 5000, inv[i], "invalid where a leg is, sample " + i);
-                assertEquals(inv[i], ((boolean[]) c[1])[i]);
+                assertEquals(inv[i], c.invalid()[i]);
             }
         }
     }
@@ -123,12 +125,12 @@ class PairSignalsTest {
         for (int k = 0; k < cuts.length; k++) {
             StageHarness cut = run(BOTH, Synth.split(p, cuts[k]), Synth.split(n, cuts[(k + 1) % cuts.length]));
             for (String port : new String[] {"diff", "common"}) {
-                Object[] a = joined(whole, port);
-                Object[] b = joined(cut, port);
-                assertEquals(N, ((float[]) b[0]).length);
-                assertTrue(java.util.Arrays.equals((float[]) a[0], (float[]) b[0]), port + " samples, cuts " + k);
-                assertTrue(java.util.Arrays.equals((boolean[]) a[1], (boolean[]) b[1]), port + " invalid flags, cuts " + k);
-                assertEquals(a[2], b[2]);
+                Joined a = joined(whole, port);
+                Joined b = joined(cut, port);
+                assertEquals(N, b.volts().length);
+                assertTrue(java.util.Arrays.equals(a.volts(), b.volts()), port + " samples, cuts " + k);
+                assertTrue(java.util.Arrays.equals(a.invalid(), b.invalid()), port + " invalid flags, cuts " + k);
+                assertEquals(a.startFs(), b.startFs());
             }
         }
     }
@@ -147,6 +149,6 @@ class PairSignalsTest {
         m = ChainAndOptionsTest.optionError(Map.of("mode", "single", "commonOutput", true));
         assertTrue(m.contains("option 'commonOutput'") && m.contains("mode 'pair'"), m);
         StageHarness h = run(Map.of("diffOutput", true), List.of(leg(true, 3000 + LEAD, 0, 5)), List.of(leg(false, 3000, Math.round(LEAD * P), 6)));
-        assertEquals(3000, ((float[]) joined(h, "diff")[0]).length);
+        assertEquals(3000, joined(h, "diff").volts().length);
     }
 }
