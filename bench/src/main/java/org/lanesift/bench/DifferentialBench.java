@@ -33,7 +33,8 @@ import org.openjdk.jmh.annotations.Warmup;
  * The differential stage, pair mode: two float legs in memory to logic + edges (+ level statistics
  * every {@code statsStride} samples and report bookkeeping). The capture is a random NRZ pair, 8 samples per
  * bit (a transition every 16 samples on average), tanh edges, 10 mV noise, around 1.2 V; blocks of
- * 64 Ki samples per leg. Throughput in samples per second per pair (ops = samples). The baseline
+ * 64 Ki samples per leg; with {@code analogOutputs} the stage also emits P-N and (P+N)/2.
+ * Throughput in samples per second per pair (ops = samples). The baseline
  * reads the same two float arrays sequentially in the same run.
  */
 @State(Scope.Thread)
@@ -54,6 +55,13 @@ public class DifferentialBench {
     /** Option statsStride: 16 (the default) or 1024 (level statistics nearly off, the comparator alone). */
     @Param({"16", "1024"})
     public int statsStride;
+
+    /**
+     * Options diffOutput and commonOutput: false (the default, logic and edges only) or true (also
+     * the analog outputs P-N and (P+N)/2, one new float array per block and output).
+     */
+    @Param({"false", "true"})
+    public boolean analogOutputs;
 
     float[][] p = new float[BLOCKS][];
     float[][] n = new float[BLOCKS][];
@@ -81,7 +89,7 @@ public class DifferentialBench {
                 n[b][i] = (float) (1.2 - d / 2);
             }
         }
-        open(Map.of("statsStride", statsStride));
+        open(Map.of("statsStride", statsStride, "diffOutput", analogOutputs, "commonOutput", analogOutputs));
     }
 
     void open(Map<String, ?> options) throws Exception {
@@ -116,6 +124,6 @@ public class DifferentialBench {
             index += N;
             nextStartFs += Math.round(N * PERIOD_FS);
         }
-        return ctx.transitions;
+        return ctx.transitions + ctx.blocks;
     }
 }

@@ -66,6 +66,18 @@ class DemoDigestTest {
         assertEquals(List.of(), wrong, "demo files whose bytes changed");
         assertTrue(varying.contains("report.md") && varying.contains("chains/pixel-3-decode.json"), varying::toString);
         assertEquals(17, varying.size(), () -> "files that vary between runs: " + varying);
+        List<String> doubled = new ArrayList<>();
+        for (String rel : got.keySet()) {
+            if (DoubledWords.find(rel) != null) {
+                doubled.add(rel + " (" + DoubledWords.find(rel) + ")");
+            }
+        }
+        for (String rel : varying) {
+            if (DoubledWords.find(rel) != null) {
+                doubled.add(rel + " (" + DoubledWords.find(rel) + ")");
+            }
+        }
+        assertEquals(List.of(), doubled, "demo output names with a doubled word");
     }
 
     /** Reads {@code demo-digests.sha256}: "HEX  relative/path" lines, '#' comments. */

@@ -28,7 +28,7 @@ class DemoTest {
         assertTrue(Files.exists(dir.resolve("report.md")));
         assertTrue(Files.exists(dir.resolve("chains/pixel-3-decode.json")));
         assertTrue(Files.exists(dir.resolve("packet/dsi-init.h")));
-        assertTrue(Files.exists(dir.resolve("pixel/eye-eye.png")));
+        assertTrue(Files.exists(dir.resolve("pixel/d0-eye.png")));
     }
 
     @Test

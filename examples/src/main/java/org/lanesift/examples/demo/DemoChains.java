@@ -71,11 +71,21 @@ final class DemoChains {
 
     /** Analog leg deskew of every channel, then one differential receiver per pair. */
     private DemoChains receivers(String[][] pairs, Path legTable, boolean packet) {
+        return receivers(pairs, legTable, packet, List.of());
+    }
+
+    /**
+     * As above; the pairs named in {@code withDiff} also give their difference P-N (output
+     * {@code diff}) for the signal-integrity instances.
+     */
+    private DemoChains receivers(String[][] pairs, Path legTable, boolean packet, List<String> withDiff) {
         node("legs", "deskew", "kind", "analog", "channels", 2 * pairs.length, "offsetsFile", abs(legTable));
         for (int k = 0; k < pairs.length; k++) {
             wire("cap." + pairs[k][1], "legs.in" + (2 * k)).wire("cap." + pairs[k][2], "legs.in" + (2 * k + 1));
             String id = "rx-" + pairs[k][0];
-            if (!packet) {
+            if (!packet && withDiff.contains(pairs[k][0])) {
+                node(id, "differential", "mode", "pair", "name", pairs[k][0], "levelProfile", "lvds", "diffOutput", true);
+            } else if (!packet) {
                 node(id, "differential", "mode", "pair", "name", pairs[k][0], "levelProfile", "lvds");
             } else if (k == 0) {
                 node(id, "differential", "mode", "pair", "name", pairs[k][0], "levelProfile", "dphy-hs");
@@ -109,7 +119,7 @@ final class DemoChains {
 
     static Map<String, Object> pixelDecode(Path capture, Path legTable, Path laneTable) {
         DemoChains c = new DemoChains("demo pixel link, pass 3: both skews corrected; 7:1 sampling, frames, timing, eye, ringing, jitter")
-                .capture("raw", capture).receivers(PIXEL_PAIRS, legTable, false);
+                .capture("raw", capture).receivers(PIXEL_PAIRS, legTable, false, List.of("D0", "D1"));
         c.node("lanes", "deskew", "kind", "edges", "channels", 4, "offsetsFile", abs(laneTable));
         for (int k = 0; k < 4; k++) {
             c.wire("rx-" + PIXEL_PAIRS[k][0] + ".edges", "lanes.in" + k);
@@ -123,14 +133,18 @@ final class DemoChains {
         for (int k = 0; k < 3; k++) {
             c.wire("sampler.bits" + k, "panel.lane" + k);
         }
-        c.node("eye", "eye-diagram", "clockEdge", "rising", "uiPerClockInterval", 7, "uiCount", 2);
-        c.wire("legs.out2", "eye.signal").wire("lanes.out0", "eye.clock");
-        c.node("ring", "ringing");
-        c.wire("cap.CLK_P", "ring.signal");
-        c.node("edges", "edge-metrics");
-        c.wire("cap.D0_P", "edges.signal");
-        c.node("jitter", "jitter", "edge", "rising");
-        c.wire("lanes.out0", "jitter.clock");
+        // signal integrity, each instance named after the signal it measures, so its files read
+        // "<signal>-<what>": the eye and the edge metrics look at the differential signal P-N of a
+        // pair (what the LVDS limits are defined on), the ringing at one leg, because the ringing
+        // comes from the ground lead of that leg's probe, and the jitter at the clock lane's edges
+        c.node("d0", "eye-diagram", "clockEdge", "rising", "uiPerClockInterval", 7, "uiCount", 2);
+        c.wire("rx-D0.diff", "d0.signal").wire("lanes.out0", "d0.clock");
+        c.node("clk-p", "ringing");
+        c.wire("cap.CLK_P", "clk-p.signal");
+        c.node("d1", "edge-metrics");
+        c.wire("rx-D1.diff", "d1.signal");
+        c.node("clk", "jitter", "edge", "rising");
+        c.wire("lanes.out0", "clk.clock");
         return c.model();
     }
 

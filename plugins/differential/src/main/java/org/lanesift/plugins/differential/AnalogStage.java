@@ -19,7 +19,8 @@ import org.lanesift.plugin.StageContext;
  * The stage for analog modes: the {@link LegAligner} lines the legs up, the {@link WarmupLearner}
  * learns the levels, the {@link Comparator} runs chunk by chunk, windowed {@link LevelAcc}
  * statistics feed the {@link LevelTracker} (drift), the {@link WindowFindings} (level checks) and
- * the {@link LevelReport}; {@link InvalidRuns} annotates invalid input.
+ * the {@link LevelReport}; {@link InvalidRuns} annotates invalid input; {@link PairSignals} gives
+ * P-N and (P+N)/2 when asked for.
  */
 final class AnalogStage implements Stage, LegAligner.Sink {
     static final int OUT_EDGES = 0;
@@ -37,10 +38,14 @@ final class AnalogStage implements Stage, LegAligner.Sink {
     private final WindowFindings findings;
     private final LevelReport report;
     private final InvalidRuns invalid;
+    /** The optional analog outputs P-N and (P+N)/2; null unless mode pair asks for one. */
+    private final PairSignals pair;
 
     private double periodFs = Double.NaN;
     private double adaptSamples;
     private long originFs;
+    /** Capture sample number of the first aligned sample (of leg p), for the analog outputs. */
+    private long originIndex;
     private Comparator cmp;
     private boolean learning;
     private WarmupLearner.Result initial = new WarmupLearner.Result(Double.NaN, Double.NaN, "");
@@ -60,6 +65,7 @@ final class AnalogStage implements Stage, LegAligner.Sink {
         this.report = new LevelReport(s);
         this.invalid = new InvalidRuns(ctx, s.channel);
         this.learning = s.needsWarmup();
+        this.pair = s.diffOutput || s.commonOutput ? new PairSignals(ctx, s.channel) : null;
     }
 
     @Override
@@ -82,7 +88,8 @@ final class AnalogStage implements Stage, LegAligner.Sink {
             return;
         }
         originFs = first.startFs() + Math.round(offset * periodFs);
-        invalid.origin(first.firstIndex() + offset);
+        originIndex = first.firstIndex() + offset;
+        invalid.origin(originIndex);
         cmp = new Comparator(originFs, periodFs, s.cubic, invalid);
         cmp.setInvert(s.invert);
         window = new LevelAcc(0);
@@ -150,6 +157,9 @@ final class AnalogStage implements Stage, LegAligner.Sink {
                 }
             }
             ctx.emit(OUT_LOGIC, new LogicBlock(s.channel, base, cmp.timeAt(base, 0), periodFs, bits, c.len(), inv));
+        }
+        if (pair != null && pair.wanted()) {
+            pair.emit(c, originIndex + base, cmp.timeAt(base, 0), periodFs, inv);
         }
         Edges e = cmp.takeEdges(s.channel, false);
         if (e != null) {

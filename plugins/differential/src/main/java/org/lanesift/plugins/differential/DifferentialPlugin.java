@@ -40,7 +40,13 @@ import org.lanesift.time.TimeValue;
  * (ARTIFACT): {@code <instance>-levels.json} with levels, common mode, spread, overshoot and
  * undershoot for the whole capture and per window, checked against {@code levelProfile}
  * ({@code lvds}: ANSI/TIA/EIA-644-A; {@code dphy-hs}, {@code dphy-lp}: MIPI D-PHY); findings are
- * annotations with severities.
+ * annotations with severities. Mode {@code pair} can add {@code diff} (ANALOG, option
+ * {@code diffOutput}): the difference P-N at each aligned sample time, the signal the LVDS and
+ * D-PHY differential limits (VOD, eye, edges) are defined on, and {@code common} (ANALOG, option
+ * {@code commonOutput}): the common mode (P+N)/2 (docs/reference-facts.md#lvds-electrical-levels,
+ * #d-phy-levels-and-states). Both are as wired (options {@code invert} and {@code detectSwap} turn
+ * the logic, not these), start with the comparator's first output sample, and mark a sample
+ * invalid where either leg is.
  *
  * <p><b>Caution.</b> Probing a live link: keep within the voltage and power limits of the scope
  * input (a 50-ohm input in particular), do not tie the scope ground to a mains-referenced circuit,
@@ -90,16 +96,38 @@ public final class DifferentialPlugin implements PluginProvider {
                     + " its index, so that no signal period aliases with the choice (1 takes every sample, for exact overshoot peaks)"))
             .option(OptionSpec.bool("levelReport", true, "capture-wide level report: per-window level checks, the level"
                     + " summary and <instance>-levels.json; false leaves them out (needed to decode in segments)"))
+            .option(OptionSpec.bool("diffOutput", false, "mode pair: add output 'diff', the difference P-N of the aligned"
+                    + " legs in volts (what the eye, edge metrics and differential level limits look at); off by default"
+                    + " because run writes every unwired analog output to a CSV file"))
+            .option(OptionSpec.bool("commonOutput", false, "mode pair: add output 'common', the common mode (P+N)/2 of"
+                    + " the aligned legs in volts"))
             .inputs(DifferentialPlugin::inputs)
             .segments(DifferentialPlugin::segments)
-            .outputs(o -> List.of(
-                    PortSpec.of("edges", DataKind.EDGES, "transitions with interpolated times; unknown spans where input was invalid"),
-                    PortSpec.of("logic", DataKind.LOGIC, "comparator output at the input sample times"),
-                    PortSpec.of("report", DataKind.ARTIFACT, "<instance>-levels.json: levels per capture and per window")))
+            .outputs(DifferentialPlugin::outputs)
             .build();
+
+    /** Name of the optional output carrying P-N. */
+    static final String OUT_DIFF = "diff";
+    /** Name of the optional output carrying (P+N)/2. */
+    static final String OUT_COMMON = "common";
 
     /** Creates the provider (stateless). */
     public DifferentialPlugin() {
+    }
+
+    private static List<PortSpec> outputs(OptionValues o) {
+        List<PortSpec> out = new java.util.ArrayList<>(List.of(
+                PortSpec.of("edges", DataKind.EDGES, "transitions with interpolated times; unknown spans where input was invalid"),
+                PortSpec.of("logic", DataKind.LOGIC, "comparator output at the input sample times"),
+                PortSpec.of("report", DataKind.ARTIFACT, "<instance>-levels.json: levels per capture and per window")));
+        boolean pair = o.getString("mode").equals("pair");
+        if (pair && o.getBoolean("diffOutput")) {
+            out.add(PortSpec.of(OUT_DIFF, DataKind.ANALOG, "P-N of the aligned legs, volts, channel '<name> (P-N)'"));
+        }
+        if (pair && o.getBoolean("commonOutput")) {
+            out.add(PortSpec.of(OUT_COMMON, DataKind.ANALOG, "(P+N)/2 of the aligned legs, volts, channel '<name> (P+N)/2'"));
+        }
+        return out;
     }
 
     private static List<PortSpec> inputs(OptionValues o) {

@@ -31,6 +31,10 @@ final class Settings {
     final TimeValue adaptTimeConstant;
     final int warmupSamples;
     final int statsStride;
+    /** Whether output {@code diff} (P-N, volts) exists: mode pair with option {@code diffOutput}. */
+    final boolean diffOutput;
+    /** Whether output {@code common} ((P+N)/2, volts) exists: mode pair with option {@code commonOutput}. */
+    final boolean commonOutput;
 
     Settings(OptionValues o, String instanceId) {
         pluginId = o.pluginId();
@@ -65,6 +69,8 @@ final class Settings {
         warmupSamples = o.getInt("warmupSamples");
         statsStride = o.getInt("statsStride");
         levelReport = o.getBoolean("levelReport");
+        diffOutput = o.getBoolean("diffOutput");
+        commonOutput = o.getBoolean("commonOutput");
         check();
     }
 
@@ -97,6 +103,12 @@ final class Settings {
         if (profile == LevelProfile.DPHY_LP && mode != Mode.SINGLE) {
             throw bad("levelProfile", "'dphy-lp' checks single-ended low-power levels: use it with mode 'single'"
                     + " on one leg (expected lvds, dphy-hs or none for mode '" + modeName() + "')");
+        }
+        for (String k : new String[] {"diffOutput", "commonOutput"}) {
+            boolean on = k.equals("diffOutput") ? diffOutput : commonOutput;
+            if (on && mode != Mode.PAIR) {
+                throw bad(k, "only available in mode 'pair', which has both legs (expected false for mode '" + modeName() + "')");
+            }
         }
         TimeValue t = adaptTimeConstant;
         if (t.unit() == TimeValue.Unit.UI) {

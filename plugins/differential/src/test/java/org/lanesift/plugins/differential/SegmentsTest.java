@@ -73,6 +73,44 @@ class SegmentsTest {
     }
 
     @Test
+    void aSegmentGivesTheSameDifferenceAndCommonModeSamplesWithTheCaptureSampleNumbers() {
+        AnalogBlock[] c = SplitPropertyTest.capture(31);
+        Map<String, Object> o = with(FIXED, "diffOutput", true, "commonOutput", true);
+        int cut = 4096;
+        List<AnalogBlock> p = Synth.split(c[0], cut);
+        List<AnalogBlock> n = Synth.split(c[1], cut);
+        for (String port : new String[] {"diff", "common"}) {
+            Map<Long, Float> whole = samples(o, port, c[0], c[1]);
+            Map<Long, Float> seg = samples(o, port, p.get(1), n.get(1), p.get(2), n.get(2));
+            assertEquals(c[0].length() - cut, seg.size(), port + ": the segment's samples");
+            for (Map.Entry<Long, Float> e : seg.entrySet()) {
+                assertEquals(whole.get(e.getKey()), e.getValue(), port + " at capture sample " + e.getKey());
+            }
+            assertEquals(cut + c[0].firstIndex(), seg.keySet().stream().mapToLong(Long::longValue).min().orElse(-1));
+        }
+    }
+
+    /** The samples of an analog output by capture sample number, checking each block's time against its number. */
+    private static Map<Long, Float> samples(Map<String, Object> o, String port, AnalogBlock... pn) {
+        Map<Long, Float> out = new HashMap<>();
+        try (StageHarness h = StageHarness.of(new DifferentialPlugin(), o)) {
+            for (int i = 0; i < pn.length; i += 2) {
+                h.push("p", pn[i]).push("n", pn[i + 1]);
+            }
+            h.finish();
+            AnalogBlock first = pn[0];
+            for (AnalogBlock b : h.outputs(port, AnalogBlock.class)) {
+                long k = b.firstIndex() - first.firstIndex();
+                assertEquals(first.startFs() + Math.round(k * first.periodFs()), b.startFs(), 1, port + " block time");
+                for (int i = 0; i < b.length(); i++) {
+                    out.put(b.firstIndex() + i, b.volts()[i]);
+                }
+            }
+        }
+        return out;
+    }
+
+    @Test
     void theLevelReportIsOnlyAReport() {
         AnalogBlock[] c = SplitPropertyTest.capture(5);
         long[] without = edges(FIXED, c[0], c[1]);

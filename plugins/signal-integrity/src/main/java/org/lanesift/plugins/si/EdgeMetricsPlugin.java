@@ -155,7 +155,7 @@ public final class EdgeMetricsPlugin implements PluginProvider {
             panels.add(new Plot.Panel(summary("overshoot after rising edges", overshoot), "overshoot (% of swing)", overshoot.histogram(BINS, 1.0), 1));
             panels.add(new Plot.Panel(summary("undershoot after falling edges", undershoot), "undershoot (% of swing)", undershoot.histogram(BINS, 1.0), 1));
             ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-edges.png", "image/png",
-                    Plot.histograms(id + " edge metrics of '" + channel + "': " + rise1090.count() + " rising, "
+                    Plot.histograms("edge metrics of " + channel + ": " + rise1090.count() + " rising, "
                             + fall1090.count() + " falling edges", panels)));
             ctx.annotate(Annotation.on(id, "edge-summary").span(firstFs, lastFs)
                     .label(String.format(Locale.ROOT, "rise %.1f ps, fall %.1f ps, overshoot %.1f %%", rise1090.mean(),

@@ -135,6 +135,8 @@ public final class EyeDiagramPlugin implements PluginProvider {
         private double carryPhase;
         private long carryIndex = Long.MIN_VALUE;
         private long carryEdge = -1;
+        /** Name of the folded signal's channel, as its first block gives it. */
+        private String signalChannel = "signal";
 
         EyeStage(StageContext ctx, EyeMask mask) {
             this.ctx = ctx;
@@ -163,6 +165,7 @@ public final class EyeDiagramPlugin implements PluginProvider {
                     return;
                 }
                 if (Double.isNaN(t0Fs)) {
+                    signalChannel = b.channel();
                     periodFs = b.periodFs();
                     t0Fs = b.startFs() - b.firstIndex() * periodFs;
                 } else if (Math.abs(b.periodFs() - periodFs) > 1e-9 * periodFs) {
@@ -357,7 +360,7 @@ public final class EyeDiagramPlugin implements PluginProvider {
             }
             EyeAnalysis e = new EyeAnalysis(acc, uiCount, uiFs, samplePoint, align, offsetUi, thresholdMv, mask);
             String id = ctx.instanceId();
-            String title = id + " eye diagram: " + acc.inRange() + " samples, "
+            String title = "eye diagram of " + signalChannel + ": " + acc.inRange() + " samples, "
                     + (clockMode ? "folded on " + clockEdges + " clock edges" : "folded at " + EyeRenderer.fmt(bitRateHz / 1e6) + " Mbit/s");
             byte[] png = EyeRenderer.render(e, title);
             ctx.emit(0, new Artifact(id, firstFs, lastFs, id + "-eye.png", "image/png", png));
@@ -393,6 +396,7 @@ public final class EyeDiagramPlugin implements PluginProvider {
             JsonWriter j = JsonWriter.pretty().numberStyle(NumberStyle.significant(9)).nonFiniteAsNull().beginObject();
             j.field("instance", ctx.instanceId());
             j.field("plugin", ID);
+            j.field("channel", signalChannel);
             j.field("foldedOn", clockMode ? "clock" : "bitRate");
             if (clockMode) {
                 j.field("clockEdges", clockEdges);
