@@ -170,6 +170,15 @@ final class SkewEstimateStage implements Stage {
         } else {
             finishEdges(rows, s, e);
         }
+        for (SkewTable.Entry row : rows) {
+            if (row.isSuspect()) {
+                ctx.annotate(Annotation.on(row.name(), "skew-suspect").span(s, e).severity(Severity.WARNING).label("suspect skew estimate")
+                        .text("detail", String.format(Locale.ROOT, "the estimate %+.3f ps for %s is suspect: %s; a decode corrected"
+                                + " with it is suspect too", row.offsetPs(), row.name(), row.suspect()))
+                        .number("offsetPs", row.offsetPs(), "ps").number("confidence", row.confidence(), "")
+                        .text("reason", row.suspect()).build());
+            }
+        }
         byte[] json = new SkewTable(mode, rows).toJson().getBytes(StandardCharsets.UTF_8);
         ctx.emit(0, new Artifact(ctx.instanceId(), s, e, ctx.instanceId() + "-skew.json", "application/json", json));
     }

@@ -126,6 +126,9 @@ class SkewGuardsTest {
             assertTrue(t.get("B").isSuspect(), t.toString());
             assertTrue(t.get("B").suspect().contains("half an interval"), t.get("B").suspect());
             assertFalse(t.get("C").isSuspect(), t.get("C").suspect());
+            List<Annotation> warned = h.annotations("skew-suspect");
+            assertEquals(1, warned.size(), warned.toString());
+            assertEquals("B", warned.get(0).track());
         }
     }
 
