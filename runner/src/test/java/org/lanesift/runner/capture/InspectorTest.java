@@ -144,39 +144,23 @@ class InspectorTest {
      */
     @Test
     void lowPowerDataLanesArePairsAndAClockPairIsListedOnce(@TempDir Path dir) throws Exception {
-        Path f = dir.resolve("dphy bench.csv");
         Random r = new Random(23);
-        int n = 120_000;
-        int bitSamples = 4;
-        boolean bit = false;
-        try (BufferedWriter w = Files.newBufferedWriter(f)) {
-            w.write("Time (s),CKX_P (V),CKX_N (V),DLX_P (V),DLX_N (V)\n");
-            for (int i = 0; i < n; i++) {
-                boolean clk = (i / bitSamples) % 2 == 0; // continuous high-speed clock, one edge per bit
-                double c = clk ? 0.1 : -0.1;
-                int inCycle = i % 20_000;         // every 20 us: 15 us LP-11, 0.2 us LP-01, 0.2 us LP-00, 4.6 us burst
-                double p;
-                double m;
-                if (inCycle < 15_000) {
-                    p = 1.2;
-                    m = 1.2;
-                } else if (inCycle < 15_200) {
-                    p = 0.0;
-                    m = 1.2;
-                } else if (inCycle < 15_400) {
-                    p = 0.0;
-                    m = 0.0;
-                } else {
-                    if (i % bitSamples == 0) {
-                        bit = r.nextBoolean();
-                    }
-                    p = 0.2 + (bit ? 0.1 : -0.1);
-                    m = 0.2 - (bit ? 0.1 : -0.1);
-                }
-                w.write(String.format(Locale.ROOT, "%.9e,%.5f,%.5f,%.5f,%.5f%n", i / RATE, 0.2 + c + r.nextGaussian() * 0.002,
-                        0.2 - c + r.nextGaussian() * 0.002, p + r.nextGaussian() * 0.002, m + r.nextGaussian() * 0.002));
+        boolean[] bit = new boolean[1];
+        // every 20 us: 15 us LP-11, 0.2 us LP-01, 0.2 us LP-00, 4.6 us high-speed burst of 4-sample bits
+        double[][] lp = {{1.2, 1.2}, {0.0, 1.2}, {0.0, 0.0}};
+        Path f = csv(dir.resolve("dphy bench.csv"), "CKX_P (V),CKX_N (V),DLX_P (V),DLX_N (V)", 120_000, i -> {
+            double c = (i / 4) % 2 == 0 ? 0.1 : -0.1; // continuous high-speed clock, one edge per bit
+            int inCycle = i % 20_000;
+            int state = inCycle < 15_000 ? 0 : inCycle < 15_200 ? 1 : inCycle < 15_400 ? 2 : 3;
+            if (state == 3 && i % 4 == 0) {
+                bit[0] = r.nextBoolean();
             }
-        }
+            double d = bit[0] ? 0.1 : -0.1;
+            double p = state < 3 ? lp[state][0] : 0.2 + d;
+            double m = state < 3 ? lp[state][1] : 0.2 - d;
+            return new double[] {0.2 + c + r.nextGaussian() * 0.002, 0.2 - c + r.nextGaussian() * 0.002,
+                p + r.nextGaussian() * 0.002, m + r.nextGaussian() * 0.002};
+        });
         InspectReport rep = Inspector.inspect(f, Map.of());
         List<String> pairs = rep.pairs().stream().map(p -> p.first() + "&" + p.second()).sorted().toList();
         assertEquals(List.of("CKX_P&CKX_N", "DLX_P&DLX_N"), pairs, rep::toText);
@@ -198,6 +182,23 @@ class InspectorTest {
         JsonValue j = JsonReader.parse("inspect --json", rep.toJson());
         assertEquals("CKX_N", j.at("/clocks/0/otherLeg").asString());
         assertEquals(next.get(0).substring("next: ".length()), j.get("next").asString());
+    }
+
+    /** Writes a CSV capture at {@link #RATE}: a time column, then the columns {@code row} gives for each sample index. */
+    static Path csv(Path f, String header, int n, java.util.function.IntFunction<double[]> row) throws Exception {
+        try (BufferedWriter w = Files.newBufferedWriter(f)) {
+            w.write("Time (s)," + header + "\n");
+            StringBuilder line = new StringBuilder();
+            for (int i = 0; i < n; i++) {
+                line.setLength(0);
+                line.append(String.format(Locale.ROOT, "%.9e", i / RATE));
+                for (double v : row.apply(i)) {
+                    line.append(',').append(String.format(Locale.ROOT, "%.5f", v));
+                }
+                w.write(line.append('\n').toString());
+            }
+        }
+        return f;
     }
 
     @Test

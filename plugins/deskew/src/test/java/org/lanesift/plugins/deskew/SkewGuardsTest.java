@@ -113,15 +113,24 @@ class SkewGuardsTest {
         throw new AssertionError("no OptionException in " + t, t);
     }
 
+    /**
+     * Lanes-mode estimate at a given 1 ns unit interval over random-data lanes named A, B, C...
+     * with the given skews and jitter (femtoseconds); the harness is finished, the caller closes it.
+     */
+    private static StageHarness estimateLanes(double[] skewFs, double[] jitterFs, long seed) {
+        StageHarness h = StageHarness.of(new SkewEstimatePlugin(), Map.of("mode", "lanes", "lanes", skewFs.length, "unitInterval", "1ns"));
+        Edges[] e = new Edges[skewFs.length];
+        for (int l = 0; l < e.length; l++) {
+            e[l] = LinkSynth.lane(String.valueOf((char) ('A' + l)), 20_000, UI_FS, T0, 0, skewFs[l], jitterFs[l], seed + l);
+        }
+        pushAll(h, e);
+        return h;
+    }
+
     /** A lane whose transitions sit 0.45 UI from the reference's cannot be told from one 0.55 UI the other way. */
     @Test
     void aSkewNearHalfAnIntervalIsSuspectInTheTable() {
-        int bits = 20_000;
-        try (StageHarness h = StageHarness.of(new SkewEstimatePlugin(), Map.of("mode", "lanes", "lanes", 3, "unitInterval", "1ns"))) {
-            Edges a = LinkSynth.lane("A", bits, UI_FS, T0, 0, 0, 10_000, 7);
-            Edges b = LinkSynth.lane("B", bits, UI_FS, T0, 0, 450_000, 10_000, 8);
-            Edges c = LinkSynth.lane("C", bits, UI_FS, T0, 0, 120_000, 10_000, 9);
-            pushAll(h, a, b, c);
+        try (StageHarness h = estimateLanes(new double[] {0, 450_000, 120_000}, new double[] {10_000, 10_000, 10_000}, 7)) {
             SkewTable t = table(h);
             assertTrue(t.get("B").isSuspect(), t.toString());
             assertTrue(t.get("B").suspect().contains("half an interval"), t.get("B").suspect());
@@ -135,11 +144,7 @@ class SkewGuardsTest {
     /** Jitter of a third of the UI leaves no fixed phase: the row is suspect and says why. */
     @Test
     void aLowConfidenceEstimateIsSuspectInTheTable() {
-        int bits = 20_000;
-        try (StageHarness h = StageHarness.of(new SkewEstimatePlugin(), Map.of("mode", "lanes", "lanes", 2, "unitInterval", "1ns"))) {
-            Edges a = LinkSynth.lane("A", bits, UI_FS, T0, 0, 0, 10_000, 11);
-            Edges b = LinkSynth.lane("B", bits, UI_FS, T0, 0, 100_000, 330_000, 12);
-            pushAll(h, a, b);
+        try (StageHarness h = estimateLanes(new double[] {0, 100_000}, new double[] {10_000, 330_000}, 11)) {
             SkewTable.Entry row = table(h).get("B");
             assertTrue(row.confidence() < 0.5, row.toString());
             assertTrue(row.suspect().contains("low confidence"), row.suspect());
