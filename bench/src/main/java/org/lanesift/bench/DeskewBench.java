@@ -144,12 +144,12 @@ public class DeskewBench {
         c.close();
     }
 
-    /** Lanes-mode estimation over 10 M edges (4 lanes, UI estimated from lane 0). */
+    /** Lanes-mode estimation over 10 M edges (4 lanes, UI from the even clock on lane 0 at 2 bits per clock). */
     @Benchmark
     public void estimateLanes10MEdges(Blackhole bh) {
         Chain c = Chain.builder(registry).input("l0", DataKind.EDGES).input("l1", DataKind.EDGES)
                 .input("l2", DataKind.EDGES).input("l3", DataKind.EDGES)
-                .add("est", "skew-estimate", Map.of("mode", "lanes", "lanes", 4))
+                .add("est", "skew-estimate", Map.of("mode", "lanes", "lanes", 4, "bitsPerClock", 2))
                 .wire("l0", "est.lane0").wire("l1", "est.lane1").wire("l2", "est.lane2").wire("l3", "est.lane3")
                 .tap("est.table", bh::consume).build();
         String[] in = {"l0", "l1", "l2", "l3"};

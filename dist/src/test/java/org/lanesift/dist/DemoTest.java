@@ -29,6 +29,23 @@ class DemoTest {
         assertTrue(Files.exists(dir.resolve("chains/pixel-3-decode.json")));
         assertTrue(Files.exists(dir.resolve("packet/dsi-init.h")));
         assertTrue(Files.exists(dir.resolve("pixel/d0-eye.png")));
+        // no advice to run the decode pass (with this capture's skew tables) on another capture (issue 16)
+        String report = Files.readString(dir.resolve("report.md"));
+        assertTrue(!report.contains("--input") && report.contains("never pass 3 alone"), report);
+
+        // the chain files name their files relative to themselves: moved whole, the decode pass gives the same result
+        Path moved = dir.resolveSibling(dir.getFileName() + "-moved");
+        Files.move(dir, moved);
+        try {
+            Path again = moved.resolve("again");
+            int rerun = Main.run(new String[] {"run", moved.resolve("chains/packet-3-decode.json").toString(), "--out", again.toString(),
+                    "--quiet"}, new PrintStream(out, true, StandardCharsets.UTF_8), new PrintStream(err, true, StandardCharsets.UTF_8));
+            assertEquals(0, rerun, err.toString(StandardCharsets.UTF_8));
+            assertEquals(-1L, Files.mismatch(again.resolve("dsi-commands.json"), moved.resolve("packet/dsi-commands.json")));
+            assertEquals(-1L, Files.mismatch(again.resolve("lanes-applied-skew.json"), moved.resolve("packet/lanes-applied-skew.json")));
+        } finally {
+            Files.move(moved, dir); // @TempDir cleans its own folder
+        }
     }
 
     @Test

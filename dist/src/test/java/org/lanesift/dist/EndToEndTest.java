@@ -128,6 +128,39 @@ class EndToEndTest {
         assertTrue(insp.out().contains("CLK_P & CLK_N"), insp::out);
     }
 
+    /**
+     * Issue 16: an offsetsFile relative to the chain file is found wherever the run starts; a
+     * suspect row in it makes the report say SUSPECT with the channel and the reason; a missing
+     * table is one line naming the folder it was looked for in, exit 2.
+     */
+    @Test
+    void aSuspectSkewRowMakesTheRunReportSuspectAndTablesResolveAgainstTheChain() throws Exception {
+        Path sub = Files.createDirectories(tmp.resolve("chains/skew"));
+        Files.writeString(sub.resolve("legs.json"), """
+                {"format": "lanesift-skew-table", "version": 1, "channels": {
+                  "CLK_P": {"offsetPs": 0, "confidence": 1, "method": "reference"},
+                  "CLK_N": {"offsetPs": -12.5, "confidence": 0.93, "method": "legs-xcorr",
+                            "suspect": "ambiguous: a second correlation peak reaches 91 % of the main one"}}}
+                """);
+        String chain = """
+                {"nodes": [{"id": "cap", "plugin": "csv", "options": {"file": "../pair.csv"}},
+                           {"id": "fix", "plugin": "deskew", "options": {"kind": "analog", "channels": 2, "offsetsFile": "skew/TABLE"}},
+                           {"id": "clk", "plugin": "differential"}],
+                 "wires": [{"from": "cap.CLK_P", "to": "fix.in0"}, {"from": "cap.CLK_N", "to": "fix.in1"},
+                           {"from": "fix.out0", "to": "clk.p"}, {"from": "fix.out1", "to": "clk.n"}]}
+                """;
+        Files.writeString(tmp.resolve("chains/ok.json"), chain.replace("TABLE", "legs.json"));
+        Files.writeString(tmp.resolve("chains/missing.json"), chain.replace("TABLE", "none.json"));
+        Cli r = cli("run", tmp.resolve("chains/ok.json").toString(), "--out", tmp.resolve("o").toString(), "-q");
+        assertEquals(0, r.code(), r::toString);
+        String report = Files.readString(tmp.resolve("o/report.md"));
+        assertTrue(report.contains("- trust: SUSPECT: the skew of CLK_N (ambiguous: a second correlation peak"), report);
+        Cli m = cli("run", tmp.resolve("chains/missing.json").toString(), "--out", tmp.resolve("m").toString(), "-q");
+        assertEquals(2, m.code(), m::toString);
+        assertEquals(1, m.errLines().size(), m::toString);
+        assertTrue(m.errLines().get(0).contains("looked in folder " + sub.toAbsolutePath().normalize()), m::toString);
+    }
+
     @Test
     void aMalformedCaptureIsOneLineWithItsLine() throws Exception {
         List<String> lines = new ArrayList<>(Files.readAllLines(capture));

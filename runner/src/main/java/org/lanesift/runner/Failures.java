@@ -82,7 +82,7 @@ final class Failures {
     /** A message for a root cause; file-system errors otherwise carry only the path. */
     static String describe(Throwable root) {
         if (root instanceof java.nio.file.NoSuchFileException f) {
-            return "no such file: " + f.getFile();
+            return "no such file: " + f.getFile() + lookedIn(f.getFile());
         } else if (root instanceof AccessDeniedException f) {
             return "permission denied: " + f.getFile();
         } else if (root instanceof FileSystemException f) {
@@ -116,5 +116,14 @@ final class Failures {
     /** Collapses a message to one line. */
     static String oneLine(String s) {
         return s.replace("\r\n", " ").replace('\n', ' ').replace('\r', ' ');
+    }
+
+    /** Names the folder a missing file was looked for in, as an absolute path. */
+    private static String lookedIn(String file) {
+        if (file == null) {
+            return "";
+        }
+        java.nio.file.Path dir = java.nio.file.Path.of(file).toAbsolutePath().normalize().getParent();
+        return dir == null ? "" : " (looked in folder " + dir + ")";
     }
 }

@@ -126,7 +126,7 @@ final class RunCommand implements Callable<Integer> {
                 throw new CliError("--set " + s + ": " + shown + " has no instance '" + name + "'; instances: "
                         + String.join(", ", index.keySet().stream().sorted().toList()));
             }
-            if (option.equals("file") && !value.isEmpty()) {
+            if (org.lanesift.runner.chainfile.ChainFileReader.isPathOption(option) && !value.isEmpty()) {
                 value = Path.of(value).toAbsolutePath().normalize().toString();
             }
             nodes.set(i, with(nodes.get(i), option, value));

@@ -10,14 +10,17 @@ import java.util.Map;
  * The chain files the demo writes and runs, in the chain-file model (docs/chain-file.md). Each
  * link is decoded in three passes, as a practitioner would: (1) estimate the skew between the two
  * legs of every pair, (2) correct it and estimate the skew of every data pair against the clock,
- * (3) correct both and decode.
+ * (3) correct both and decode. Every path in them is relative to the chain file's folder, so the
+ * output folder can be moved or copied whole.
  */
 final class DemoChains {
     private final List<Map<String, Object>> nodes = new ArrayList<>();
     private final List<Map<String, Object>> wires = new ArrayList<>();
     private final String description;
+    private final Path chainDir;
 
-    private DemoChains(String description) {
+    private DemoChains(Path chainDir, String description) {
+        this.chainDir = chainDir.toAbsolutePath().normalize();
         this.description = description;
     }
 
@@ -35,7 +38,10 @@ final class DemoChains {
     }
 
     private DemoChains wire(String from, String to) {
-        wires.add(Map.of("from", from, "to", to));
+        Map<String, Object> w = new LinkedHashMap<>(); // a fixed member order: the chain files are byte-identical run to run
+        w.put("from", from);
+        w.put("to", to);
+        wires.add(w);
         return this;
     }
 
@@ -53,12 +59,14 @@ final class DemoChains {
     /** Packet link pairs. */
     static final String[][] PACKET_PAIRS = {{"HSCLK", "HSCLK_P", "HSCLK_N"}, {"L0", "L0_P", "L0_N"}, {"L1", "L1_P", "L1_N"}};
 
-    private static String abs(Path p) {
-        return p.toAbsolutePath().normalize().toString();
+    /** A path as the chain file names it: relative to the chain file's folder, '/' between names on every system. */
+    private String rel(Path p) {
+        Path r = chainDir.relativize(p.toAbsolutePath().normalize());
+        return r.toString().replace(java.io.File.separatorChar, '/');
     }
 
     private DemoChains capture(String plugin, Path file) {
-        return node("cap", plugin, "file", abs(file));
+        return node("cap", plugin, "file", rel(file));
     }
 
     private DemoChains legEstimates(String[][] pairs) {
@@ -79,7 +87,7 @@ final class DemoChains {
      * {@code diff}) for the signal-integrity instances.
      */
     private DemoChains receivers(String[][] pairs, Path legTable, boolean packet, List<String> withDiff) {
-        node("legs", "deskew", "kind", "analog", "channels", 2 * pairs.length, "offsetsFile", abs(legTable));
+        node("legs", "deskew", "kind", "analog", "channels", 2 * pairs.length, "offsetsFile", rel(legTable));
         for (int k = 0; k < pairs.length; k++) {
             wire("cap." + pairs[k][1], "legs.in" + (2 * k)).wire("cap." + pairs[k][2], "legs.in" + (2 * k + 1));
             String id = "rx-" + pairs[k][0];
@@ -101,13 +109,13 @@ final class DemoChains {
         return this;
     }
 
-    static Map<String, Object> pixelLegs(Path capture) {
-        return new DemoChains("demo pixel link, pass 1: skew between the two legs of each pair")
+    static Map<String, Object> pixelLegs(Path chainDir, Path capture) {
+        return new DemoChains(chainDir, "demo pixel link, pass 1: skew between the two legs of each pair")
                 .capture("raw", capture).legEstimates(PIXEL_PAIRS).model();
     }
 
-    static Map<String, Object> pixelLanes(Path capture, Path legTable) {
-        DemoChains c = new DemoChains("demo pixel link, pass 2: legs corrected; skew of each data pair against the clock pair")
+    static Map<String, Object> pixelLanes(Path chainDir, Path capture, Path legTable) {
+        DemoChains c = new DemoChains(chainDir, "demo pixel link, pass 2: legs corrected; skew of each data pair against the clock pair")
                 .capture("raw", capture).receivers(PIXEL_PAIRS, legTable, false);
         // on a 7:1 link every lane, the clock included, changes only on bit-slot boundaries: align them on the slot grid
         c.node("lanes", "skew-estimate", "mode", "lanes", "lanes", 4, "unitInterval", "7142.857ps");
@@ -117,10 +125,10 @@ final class DemoChains {
         return c.model();
     }
 
-    static Map<String, Object> pixelDecode(Path capture, Path legTable, Path laneTable) {
-        DemoChains c = new DemoChains("demo pixel link, pass 3: both skews corrected; 7:1 sampling, frames, timing, eye, ringing, jitter")
+    static Map<String, Object> pixelDecode(Path chainDir, Path capture, Path legTable, Path laneTable) {
+        DemoChains c = new DemoChains(chainDir, "demo pixel link, pass 3: both skews corrected; 7:1 sampling, frames, timing, eye, ringing, jitter")
                 .capture("raw", capture).receivers(PIXEL_PAIRS, legTable, false, List.of("D0", "D1"));
-        c.node("lanes", "deskew", "kind", "edges", "channels", 4, "offsetsFile", abs(laneTable));
+        c.node("lanes", "deskew", "kind", "edges", "channels", 4, "offsetsFile", c.rel(laneTable));
         for (int k = 0; k < 4; k++) {
             c.wire("rx-" + PIXEL_PAIRS[k][0] + ".edges", "lanes.in" + k);
         }
@@ -148,13 +156,13 @@ final class DemoChains {
         return c.model();
     }
 
-    static Map<String, Object> packetLegs(Path capture) {
-        return new DemoChains("demo packet link, pass 1: skew between the two legs of each pair")
+    static Map<String, Object> packetLegs(Path chainDir, Path capture) {
+        return new DemoChains(chainDir, "demo packet link, pass 1: skew between the two legs of each pair")
                 .capture("csv", capture).legEstimates(PACKET_PAIRS).model();
     }
 
-    static Map<String, Object> packetLanes(Path capture, Path legTable) {
-        DemoChains c = new DemoChains("demo packet link, pass 2: legs corrected; skew of each data lane against the clock")
+    static Map<String, Object> packetLanes(Path chainDir, Path capture, Path legTable) {
+        DemoChains c = new DemoChains(chainDir, "demo packet link, pass 2: legs corrected; skew of each data lane against the clock")
                 .capture("csv", capture).receivers(PACKET_PAIRS, legTable, true);
         // the clock's edges sit in the middle of the data bits, and data change on both clock edges
         c.node("lanes", "skew-estimate", "mode", "clock", "lanes", 2, "alignment", "centre", "ddr", true);
@@ -162,10 +170,10 @@ final class DemoChains {
         return c.model();
     }
 
-    static Map<String, Object> packetDecode(Path capture, Path legTable, Path laneTable) {
-        DemoChains c = new DemoChains("demo packet link, pass 3: skews corrected; DDR sampling, packets, commands, init sequence, frames")
+    static Map<String, Object> packetDecode(Path chainDir, Path capture, Path legTable, Path laneTable) {
+        DemoChains c = new DemoChains(chainDir, "demo packet link, pass 3: skews corrected; DDR sampling, packets, commands, init sequence, frames")
                 .capture("csv", capture).receivers(PACKET_PAIRS, legTable, true);
-        c.node("lanes", "deskew", "kind", "edges", "channels", 3, "offsetsFile", abs(laneTable));
+        c.node("lanes", "deskew", "kind", "edges", "channels", 3, "offsetsFile", c.rel(laneTable));
         for (int k = 0; k < 3; k++) {
             c.wire("rx-" + PACKET_PAIRS[k][0] + ".edges", "lanes.in" + k);
         }

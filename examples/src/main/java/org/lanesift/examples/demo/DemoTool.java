@@ -162,11 +162,11 @@ public final class DemoTool implements Tool {
             Path cap = dir.resolve("captures/pixel-link.bin");
             CaptureFiles.writeRaw(cap, c.channels(), c.volts(), c.sampleRateHz(), 50e-6);
             List<String> notes = new ArrayList<>();
-            runChain(DemoChains.pixelLegs(cap), "pixel-1-legs.json", dir.resolve("work/pixel-1"));
+            runChain(DemoChains.pixelLegs(dir.resolve("chains"), cap), "pixel-1-legs.json", dir.resolve("work/pixel-1"));
             Path legs = mergeTables(dir.resolve("work/pixel-1"), "legs-", dir.resolve("skew/pixel-legs.json"), notes);
-            runChain(DemoChains.pixelLanes(cap, legs), "pixel-2-lanes.json", dir.resolve("work/pixel-2"));
+            runChain(DemoChains.pixelLanes(dir.resolve("chains"), cap, legs), "pixel-2-lanes.json", dir.resolve("work/pixel-2"));
             Path lanes = mergeTables(dir.resolve("work/pixel-2"), "lanes-", dir.resolve("skew/pixel-lanes.json"), notes);
-            runChain(DemoChains.pixelDecode(cap, legs, lanes), "pixel-3-decode.json", dir.resolve("pixel"));
+            runChain(DemoChains.pixelDecode(dir.resolve("chains"), cap, legs, lanes), "pixel-3-decode.json", dir.resolve("pixel"));
             synchronized (this) {
                 pixelNotes.addAll(notes);
             }
@@ -178,11 +178,11 @@ public final class DemoTool implements Tool {
             Path cap = dir.resolve("captures/packet-link.csv");
             CaptureFiles.writeCsv(cap, c.channels(), c.volts(), c.sampleRateHz(), 0);
             List<String> notes = new ArrayList<>();
-            runChain(DemoChains.packetLegs(cap), "packet-1-legs.json", dir.resolve("work/packet-1"));
+            runChain(DemoChains.packetLegs(dir.resolve("chains"), cap), "packet-1-legs.json", dir.resolve("work/packet-1"));
             Path legs = mergeTables(dir.resolve("work/packet-1"), "legs-", dir.resolve("skew/packet-legs.json"), notes);
-            runChain(DemoChains.packetLanes(cap, legs), "packet-2-lanes.json", dir.resolve("work/packet-2"));
+            runChain(DemoChains.packetLanes(dir.resolve("chains"), cap, legs), "packet-2-lanes.json", dir.resolve("work/packet-2"));
             Path lanes = mergeTables(dir.resolve("work/packet-2"), "lanes-", dir.resolve("skew/packet-lanes.json"), notes);
-            runChain(DemoChains.packetDecode(cap, legs, lanes), "packet-3-decode.json", dir.resolve("packet"));
+            runChain(DemoChains.packetDecode(dir.resolve("chains"), cap, legs, lanes), "packet-3-decode.json", dir.resolve("packet"));
             synchronized (this) {
                 packetNotes.addAll(notes);
             }
@@ -352,8 +352,9 @@ public final class DemoTool implements Tool {
             StringBuilder r = new StringBuilder();
             r.append("# Lanesift demo report\n\n");
             r.append("Scenario: the invented Siftlet-64 (docs/demo-scenario.md). Captures in `captures/`, the chain files that ")
-                    .append("ran in `chains/` (copy them for your own captures: `./lanesift run chains/pixel-3-decode.json ")
-                    .append("--input cap=YOUR.bin`), merged skew tables in `skew/`, intermediate passes in `work/`.\n\n");
+                    .append("ran in `chains/` (paths relative to that folder), merged skew tables in `skew/`, intermediate passes ")
+                    .append("in `work/`. Passes 2 and 3 apply the skew tables measured on this capture: on a capture of your own, ")
+                    .append("run pass 1 and pass 2 on it first and merge their tables, never pass 3 alone.\n\n");
             r.append("Each link was decoded in three passes: (1) skew between the legs of every pair (cross-correlation), ")
                     .append("(2) legs corrected, skew of every data pair against the clock pair, (3) both corrected, then sampling ")
                     .append("and decoding. Skews are reported as measured (the correction is their negative).\n\n");

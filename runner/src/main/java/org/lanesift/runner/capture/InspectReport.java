@@ -64,9 +64,10 @@ public record InspectReport(String file, String format, List<Channel> channels, 
      *
      * @param first       one leg
      * @param second      the other leg
-     * @param correlation Pearson coefficient, -1 to -0.8
+     * @param correlation     Pearson coefficient of the levels, -1 to 1
+     * @param stepCorrelation Pearson coefficient of the sample-to-sample steps (about zero mean), -1 to 1
      */
-    public record Pair(String first, String second, double correlation) {
+    public record Pair(String first, String second, double correlation, double stepCorrelation) {
     }
 
     /**
@@ -75,8 +76,9 @@ public record InspectReport(String file, String format, List<Channel> channels, 
      * @param channel     port name
      * @param frequencyHz 1 / mean rising-edge interval
      * @param periodCv    coefficient of variation of the intervals
+     * @param otherLeg    the other leg when the clock is a differential pair (listed once per pair), or null
      */
-    public record Clock(String channel, double frequencyHz, double periodCv) {
+    public record Clock(String channel, double frequencyHz, double periodCv, String otherLeg) {
     }
 
     /**
@@ -133,7 +135,7 @@ public record InspectReport(String file, String format, List<Channel> channels, 
         for (int i = 0; i < pairs.size(); i++) {
             Pair p = pairs.get(i);
             sb.append(i == 0 ? "" : ", ").append(p.first()).append(" & ").append(p.second())
-                    .append(String.format(Locale.ROOT, " (r = %.3f)", p.correlation()));
+                    .append(String.format(Locale.ROOT, " (r = %.3f, steps r = %.3f)", p.correlation(), p.stepCorrelation()));
         }
         sb.append("\nclocks (guess): ");
         if (clocks.isEmpty()) {
@@ -141,10 +143,12 @@ public record InspectReport(String file, String format, List<Channel> channels, 
         }
         for (int i = 0; i < clocks.size(); i++) {
             Clock c = clocks.get(i);
-            sb.append(i == 0 ? "" : ", ").append(c.channel()).append(' ').append(si(c.frequencyHz(), "Hz"))
+            sb.append(i == 0 ? "" : ", ").append(c.channel()).append(c.otherLeg() == null ? "" : " & " + c.otherLeg())
+                    .append(' ').append(si(c.frequencyHz(), "Hz"))
                     .append(String.format(Locale.ROOT, " (period cv %.2f %%)", 100 * c.periodCv()));
         }
         sb.append('\n');
+        sb.append("next: ").append(NextCommand.suggest(this)).append('\n');
         return sb.toString();
     }
 
@@ -184,15 +188,18 @@ public record InspectReport(String file, String format, List<Channel> channels, 
         w.endArray();
         w.name("differentialPairs").beginArray();
         for (Pair p : pairs) {
-            w.beginObject().field("first", p.first()).field("second", p.second()).field("correlation", p.correlation()).endObject();
+            w.beginObject().field("first", p.first()).field("second", p.second()).field("correlation", p.correlation())
+                    .field("stepCorrelation", p.stepCorrelation()).endObject();
         }
         w.endArray();
         w.name("clocks").beginArray();
         for (Clock c : clocks) {
-            w.beginObject().field("channel", c.channel()).field("frequencyHz", c.frequencyHz()).field("periodCv", c.periodCv())
-                    .endObject();
+            w.beginObject().field("channel", c.channel());
+            putIf(w, "otherLeg", c.otherLeg());
+            w.field("frequencyHz", c.frequencyHz()).field("periodCv", c.periodCv()).endObject();
         }
         w.endArray();
+        w.field("next", NextCommand.suggest(this));
         return w.endObject().finish() + "\n";
     }
 

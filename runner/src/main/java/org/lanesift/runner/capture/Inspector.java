@@ -36,6 +36,14 @@ public final class Inspector {
     static final double HYSTERESIS = 0.1;
     /** Correlation at or below which two analog channels are guessed to be the legs of one pair. */
     static final double PAIR_CORRELATION = -0.8;
+    /**
+     * Correlation of sample-to-sample steps at or below which two analog channels are guessed to be
+     * the legs of one pair even when their levels correlate positively: D-PHY data lanes spend most
+     * of the time in low-power states where both legs sit high or low together
+     * (docs/reference-facts.md#d-phy-levels-and-states), while at every high-speed edge the legs step
+     * against each other.
+     */
+    static final double PAIR_STEP_CORRELATION = -0.5;
     /** Coefficient of variation of rising-edge intervals below which a channel is guessed to be a clock. */
     static final double CLOCK_CV = 0.05;
     /** Fewest rising edges for a clock guess. */
@@ -152,7 +160,7 @@ public final class Inspector {
     private static InspectReport run(Path file, String plugin, OptionValues ov) throws IOException {
         List<Acc> acc = new ArrayList<>();
         List<Integer> analog = new ArrayList<>();
-        double[][][] sums;   // per pair p<q: sums of dx, dy, dx^2, dy^2, dx*dy of shifted values
+        double[][][] sums;   // per pair p<q: sums of dx, dy, dx^2, dy^2, dx*dy of shifted values; ex*ey, ex^2, ey^2 of steps
         long[][] n2;         // per pair: samples valid in both
         try (CaptureReader r = open(plugin, ov)) {
             List<PortSpec> ports = r.ports();
@@ -168,7 +176,7 @@ public final class Inspector {
             for (int k = 0; k < na; k++) {
                 slot[analog.get(k)] = k;
             }
-            sums = new double[na][na][5];
+            sums = new double[na][na][8];
             n2 = new long[na][na];
             // pass 1: range, counts, correlations, logic edges and words
             AnalogBlock[] span = new AnalogBlock[na];
@@ -309,12 +317,17 @@ public final class Inspector {
                 double sxx = 0;
                 double syy = 0;
                 double sxy = 0;
+                double exy = 0;
+                double exx = 0;
+                double eyy = 0;
                 long n = 0;
                 float[] x = a.volts();
                 float[] y = b.volts();
                 boolean clean = a.invalid() == null && b.invalid() == null;
+                boolean prevValid = false;
                 for (int i = 0, len = a.length(); i < len; i++) {
                     if (!clean && (!a.isValid(i) || !b.isValid(i))) {
+                        prevValid = false;
                         continue;
                     }
                     double dx = x[i] - kx;
@@ -324,6 +337,16 @@ public final class Inspector {
                     sxx += dx * dx;
                     syy += dy * dy;
                     sxy += dx * dy;
+                    if (prevValid) {
+                        // steps between neighbouring samples: the legs of a pair step against each other at every
+                        // differential edge, whatever their common-mode levels do between bursts
+                        double ex = x[i] - x[i - 1];
+                        double ey = y[i] - y[i - 1];
+                        exy += ex * ey;
+                        exx += ex * ex;
+                        eyy += ey * ey;
+                    }
+                    prevValid = true;
                     n++;
                 }
                 double[] t = sums[p][q];
@@ -332,6 +355,9 @@ public final class Inspector {
                 t[2] += sxx;
                 t[3] += syy;
                 t[4] += sxy;
+                t[5] += exy;
+                t[6] += exx;
+                t[7] += eyy;
                 n2[p][q] += n;
             }
         }
@@ -469,7 +495,7 @@ public final class Inspector {
                     th, valid ? HYSTERESIS * (a.high - a.low) : null, freq, cv);
             chans.add(c);
             if (a.rising >= CLOCK_MIN_EDGES && cv != null && cv < CLOCK_CV) {
-                clocks.add(new InspectReport.Clock(a.name, freq, cv));
+                clocks.add(new InspectReport.Clock(a.name, freq, cv, null));
             }
         }
         List<InspectReport.Pair> pairs = new ArrayList<>();
@@ -488,12 +514,14 @@ public final class Inspector {
                     continue;
                 }
                 double rr = cov / Math.sqrt(vx * vy);
-                if (rr <= PAIR_CORRELATION) {
-                    cands.add(new InspectReport.Pair(acc.get(analog.get(p)).name, acc.get(analog.get(q)).name, rr));
+                double re = s[6] > 0 && s[7] > 0 ? s[5] / Math.sqrt(s[6] * s[7]) : 0;
+                if (rr <= PAIR_CORRELATION || re <= PAIR_STEP_CORRELATION) {
+                    cands.add(new InspectReport.Pair(acc.get(analog.get(p)).name, acc.get(analog.get(q)).name, rr, re));
                 }
             }
         }
-        cands.sort((x, y) -> Double.compare(x.correlation(), y.correlation()));
+        cands.sort((x, y) -> Double.compare(Math.min(x.correlation(), x.stepCorrelation()),
+                Math.min(y.correlation(), y.stepCorrelation())));
         java.util.Set<String> used = new java.util.HashSet<>();
         for (InspectReport.Pair c : cands) {
             if (!used.contains(c.first()) && !used.contains(c.second())) {
@@ -502,6 +530,29 @@ public final class Inspector {
                 pairs.add(c);
             }
         }
-        return new InspectReport(file.toString(), plugin, chans, pairs, clocks);
+        return new InspectReport(file.toString(), plugin, chans, pairs, onePerPair(clocks, pairs));
+    }
+
+    /** A clock found on both legs of a pair is listed once, on its first leg, naming the other leg. */
+    static List<InspectReport.Clock> onePerPair(List<InspectReport.Clock> clocks, List<InspectReport.Pair> pairs) {
+        java.util.Map<String, String> other = new java.util.HashMap<>();
+        for (InspectReport.Pair p : pairs) {
+            other.put(p.first(), p.second());
+            other.put(p.second(), p.first());
+        }
+        List<InspectReport.Clock> out = new ArrayList<>();
+        java.util.Set<String> listed = new java.util.HashSet<>();
+        for (InspectReport.Clock c : clocks) {
+            String leg = other.get(c.channel());
+            if (listed.contains(c.channel())) {
+                continue;
+            }
+            listed.add(c.channel());
+            if (leg != null) {
+                listed.add(leg);
+            }
+            out.add(new InspectReport.Clock(c.channel(), c.frequencyHz(), c.periodCv(), leg));
+        }
+        return out;
     }
 }

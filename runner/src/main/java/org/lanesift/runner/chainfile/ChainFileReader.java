@@ -23,7 +23,9 @@ import org.lanesift.json.JsonValue;
  *
  * <p>Besides the shape it checks what can be checked without plugins: instance ids are unique and
  * well formed, both ends of every wire name a declared instance, and the wires form no cycle.
- * Relative paths in options named {@code file} are resolved against the chain file's directory.
+ * Relative paths in every option that names a file or folder ({@link #isPathOption}: {@code file},
+ * {@code dir}, {@code sidecar} and any name ending in {@code File}, such as {@code offsetsFile},
+ * {@code mappingFile}, {@code maskFile}) are resolved against the chain file's directory.
  */
 public final class ChainFileReader {
     private static final Set<String> ROOT_KEYS = Set.of("nodes", "wires", "description");
@@ -108,7 +110,7 @@ public final class ChainFileReader {
                 for (Map.Entry<String, JsonValue> e : opts.members().entrySet()) {
                     String op = p + "/options/" + escape(e.getKey());
                     Object v = optionValue(e.getValue(), op, file);
-                    if (e.getKey().equals("file") && v instanceof String s) {
+                    if (isPathOption(e.getKey()) && v instanceof String s) {
                         v = resolve(dir, s);
                     }
                     options.put(e.getKey(), v);
@@ -138,6 +140,18 @@ public final class ChainFileReader {
         }
         checkCycles(specWires, ids.size(), ids, file);
         return new ChainFile(new ChainSpec(specNodes, specWires), path, file, description);
+    }
+
+    /**
+     * Whether an option names a file or folder, so that a relative value is taken relative to the
+     * chain file: {@code file}, {@code dir}, {@code sidecar}, or a name ending in {@code File}.
+     *
+     * @param option option name
+     * @return true for a path option
+     */
+    public static boolean isPathOption(String option) {
+        return option.equals("file") || option.equals("dir") || option.equals("sidecar")
+                || (option.length() > 4 && option.endsWith("File"));
     }
 
     /** Resolves a relative path against the chain file's directory. */

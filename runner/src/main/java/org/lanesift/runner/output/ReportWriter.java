@@ -43,7 +43,13 @@ public final class ReportWriter {
         sb.append('\n');
         sb.append("- lanesift ").append(run.version()).append(", started ").append(run.started().truncatedTo(java.time.temporal.ChronoUnit.SECONDS))
                 .append(", took ").append(String.format(Locale.ROOT, "%.1f", run.millis() / 1000.0)).append(" s\n");
-        sb.append("- status: ").append(oneLine(run.status())).append("\n\n");
+        sb.append("- status: ").append(oneLine(run.status())).append("\n");
+        if (!outs.suspectSkews().isEmpty()) {
+            // a decode through a doubtful skew correction is never reported as clean, whatever its counts say
+            sb.append("- trust: SUSPECT: the skew of ").append(oneLine(String.join(", ", outs.suspectSkews())))
+                    .append(" is not to be trusted; whatever was decoded through it is suspect, however complete it looks\n");
+        }
+        sb.append('\n');
 
         sb.append("## Inputs\n\n");
         if (run.inputs().isEmpty()) {

@@ -59,6 +59,9 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
     private final Map<String, Path> files = new LinkedHashMap<>();
     private final Map<Severity, Long> severityCounts = new EnumMap<>(Severity.class);
     private final Map<String, Long> kindCounts = new TreeMap<>();
+    /** Kind of the finding a skew correction or estimate that is not to be trusted carries (deskew, skew-estimate). */
+    public static final String SUSPECT_SKEW_KIND = "skew-suspect";
+    private final List<String> suspectSkews = new ArrayList<>();
     private final Map<Severity, java.util.TreeSet<Example>> earliest = new EnumMap<>(Severity.class);
     private long arrivals;
     private AnnotationJsonlWriter annotations;
@@ -267,6 +270,10 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
             throw new OutputException("cannot write " + dir.resolve(ANNOTATIONS) + ": " + e.getMessage(), e);
         }
         severityCounts.merge(a.severity(), 1L, Long::sum);
+        if (a.kind().equals(SUSPECT_SKEW_KIND) && suspectSkews.size() < EXAMPLES_PER_SEVERITY) {
+            org.lanesift.annotation.Field why = a.fields().get("reason");
+            suspectSkews.add(a.track() + " (" + (why == null ? a.label() : why.value()) + ")");
+        }
         kindCounts.merge(a.severity().name().toLowerCase(java.util.Locale.ROOT) + " " + a.kind(), 1L, Long::sum);
         // the earliest findings, whatever order the stages reported them in
         java.util.TreeSet<Example> ex = earliest.computeIfAbsent(a.severity(), k -> new java.util.TreeSet<>());
@@ -347,6 +354,16 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
      */
     public Map<String, Long> kindCounts() {
         return kindCounts;
+    }
+
+    /**
+     * Channels whose skew estimate or correction was reported suspect ({@link #SUSPECT_SKEW_KIND}),
+     * each as "channel (reason)", in arrival order, at most as many as the examples per severity.
+     *
+     * @return the lines, empty when none
+     */
+    public List<String> suspectSkews() {
+        return suspectSkews;
     }
 
     /**

@@ -136,6 +136,71 @@ class InspectorTest {
         assertEquals("CLK", j.at("/clocks/0/channel").asString());
     }
 
+    /**
+     * Issue 16: a D-PHY-like capture (invented, written here): a data lane that sits in LP-11 (both
+     * legs high, about 1.2 V) most of the time with short high-speed bursts (+/-100 mV around
+     * 200 mV) is still found as a pair, though its levels correlate positively; the clock pair is
+     * listed once; the next command names the file. Levels: docs/reference-facts.md#d-phy-levels-and-states.
+     */
+    @Test
+    void lowPowerDataLanesArePairsAndAClockPairIsListedOnce(@TempDir Path dir) throws Exception {
+        Random r = new Random(23);
+        boolean[] bit = new boolean[1];
+        // every 20 us: 15 us LP-11, 0.2 us LP-01, 0.2 us LP-00, 4.6 us high-speed burst of 4-sample bits
+        double[][] lp = {{1.2, 1.2}, {0.0, 1.2}, {0.0, 0.0}};
+        Path f = csv(dir.resolve("dphy bench.csv"), "CKX_P (V),CKX_N (V),DLX_P (V),DLX_N (V)", 120_000, i -> {
+            double c = (i / 4) % 2 == 0 ? 0.1 : -0.1; // continuous high-speed clock, one edge per bit
+            int inCycle = i % 20_000;
+            int state = inCycle < 15_000 ? 0 : inCycle < 15_200 ? 1 : inCycle < 15_400 ? 2 : 3;
+            if (state == 3 && i % 4 == 0) {
+                bit[0] = r.nextBoolean();
+            }
+            double d = bit[0] ? 0.1 : -0.1;
+            double p = state < 3 ? lp[state][0] : 0.2 + d;
+            double m = state < 3 ? lp[state][1] : 0.2 - d;
+            return new double[] {0.2 + c + r.nextGaussian() * 0.002, 0.2 - c + r.nextGaussian() * 0.002,
+                p + r.nextGaussian() * 0.002, m + r.nextGaussian() * 0.002};
+        });
+        InspectReport rep = Inspector.inspect(f, Map.of());
+        List<String> pairs = rep.pairs().stream().map(p -> p.first() + "&" + p.second()).sorted().toList();
+        assertEquals(List.of("CKX_P&CKX_N", "DLX_P&DLX_N"), pairs, rep::toText);
+        InspectReport.Pair data = rep.pairs().stream().filter(p -> p.first().equals("DLX_P")).findFirst().orElseThrow();
+        assertTrue(data.correlation() > 0, "the levels alone would not pair it: r = " + data.correlation());
+        assertTrue(data.stepCorrelation() < -0.8, "steps r = " + data.stepCorrelation());
+
+        assertEquals(1, rep.clocks().size(), rep::toText);
+        assertEquals("CKX_P", rep.clocks().get(0).channel());
+        assertEquals("CKX_N", rep.clocks().get(0).otherLeg());
+        assertEquals(RATE / 8, rep.clocks().get(0).frequencyHz(), RATE / 8 * 1e-3);
+
+        String text = rep.toText();
+        assertTrue(text.contains("CKX_P & CKX_N 125.0 MHz"), text);
+        List<String> next = text.lines().filter(l -> l.startsWith("next: ")).toList();
+        assertEquals(1, next.size(), text);
+        assertTrue(next.get(0).contains("lanesift run chain.json --input cap='" + f + "'")
+                && next.get(0).contains("DLX_P/DLX_N"), next.get(0));
+        JsonValue j = JsonReader.parse("inspect --json", rep.toJson());
+        assertEquals("CKX_N", j.at("/clocks/0/otherLeg").asString());
+        assertEquals(next.get(0).substring("next: ".length()), j.get("next").asString());
+    }
+
+    /** Writes a CSV capture at {@link #RATE}: a time column, then the columns {@code row} gives for each sample index. */
+    static Path csv(Path f, String header, int n, java.util.function.IntFunction<double[]> row) throws Exception {
+        try (BufferedWriter w = Files.newBufferedWriter(f)) {
+            w.write("Time (s)," + header + "\n");
+            StringBuilder line = new StringBuilder();
+            for (int i = 0; i < n; i++) {
+                line.setLength(0);
+                line.append(String.format(Locale.ROOT, "%.9e", i / RATE));
+                for (double v : row.apply(i)) {
+                    line.append(',').append(String.format(Locale.ROOT, "%.5f", v));
+                }
+                w.write(line.append('\n').toString());
+            }
+        }
+        return f;
+    }
+
     @Test
     void logicCaptureNeedsOnePass() {
         InspectReport rep = Inspector.inspect(CsvReaderTest.res("scopes-and-states.vcd"), Map.of("realRateHz", "1e11"));

@@ -44,6 +44,28 @@ class ChainFileReaderTest {
         assertEquals(new ChainSpec.Wire("cap.CH1", "abs"), s.wires().get(0));
     }
 
+    /** Every option naming a file resolves like 'file' does (issue 16): a skew table next to the chain is found from any directory. */
+    @Test
+    void everyFileOptionResolvesAgainstTheChainFolder() throws Exception {
+        ChainFile cf = read("""
+                {"nodes": [
+                  {"id": "raw", "plugin": "raw", "options": {"file": "../cap.bin", "sidecar": "cap.json"}},
+                  {"id": "fix", "plugin": "deskew", "options": {"offsetsFile": "skew/t.json", "name": "not/a/path"}},
+                  {"id": "pix", "plugin": "pixel-link", "options": {"mappingFile": "m.json", "mapping": "bits-18"}},
+                  {"id": "eye", "plugin": "eye-diagram", "options": {"maskFile": "/masks/a.txt"}},
+                  {"id": "sp", "plugin": "spool", "options": {"dir": "spool"}}]}
+                """);
+        List<ChainSpec.Node> n = cf.spec().nodes();
+        assertEquals(tmp.resolve("cap.bin").toString(), n.get(0).options().get("file"));
+        assertEquals(tmp.resolve("sub/cap.json").toString(), n.get(0).options().get("sidecar"));
+        assertEquals(tmp.resolve("sub/skew/t.json").toString(), n.get(1).options().get("offsetsFile"));
+        assertEquals("not/a/path", n.get(1).options().get("name"));
+        assertEquals(tmp.resolve("sub/m.json").toString(), n.get(2).options().get("mappingFile"));
+        assertEquals("bits-18", n.get(2).options().get("mapping"));
+        assertEquals("/masks/a.txt", n.get(3).options().get("maskFile"));
+        assertEquals(tmp.resolve("sub/spool").toString(), n.get(4).options().get("dir"));
+    }
+
     @Test
     void wiresAreOptional() throws Exception {
         assertEquals(0, read("{\"nodes\": [{\"id\": \"a\", \"plugin\": \"p\"}]}").spec().wires().size());

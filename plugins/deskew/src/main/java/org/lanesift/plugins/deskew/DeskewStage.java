@@ -6,6 +6,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import org.lanesift.annotation.Annotation;
+import org.lanesift.annotation.Severity;
 import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.Artifact;
 import org.lanesift.data.Block;
@@ -25,6 +26,8 @@ final class DeskewStage implements Stage {
     static final double MAX_DELAY_SAMPLES = 1 << 20;
     /** Largest offset, femtoseconds (1 ms). */
     static final double MAX_OFFSET_FS = 1e12;
+    /** A table row below this confidence is reported as a suspect correction (the estimator's default minConfidence). */
+    static final double SUSPECT_CONFIDENCE = 0.5;
 
     private final StageContext ctx;
     private final DataKind kind;
@@ -45,6 +48,7 @@ final class DeskewStage implements Stage {
         double offsetFs;
         double confidence = 1;
         String method = "manual";
+        String suspect = "";
         AnalogDelayLine line;
 
         Channel(int index) {
@@ -156,6 +160,7 @@ final class DeskewStage implements Stage {
             c.offsetFs = e.offsetPs() * Femtos.PER_PS;
             c.confidence = e.confidence();
             c.method = e.method();
+            c.suspect = e.suspect();
         } else {
             double v = given.get(c.index);
             c.offsetFs = switch (unit) {
@@ -178,6 +183,17 @@ final class DeskewStage implements Stage {
         ctx.annotate(Annotation.on(c.name, "skew-applied").span(b.startFs(), b.startFs())
                 .label(String.format(Locale.ROOT, "offset %+.3f ps", c.offsetFs / Femtos.PER_PS))
                 .number("offsetPs", c.offsetFs / Femtos.PER_PS, "ps").text("method", c.method).build());
+        if (c.suspect.isEmpty() && c.confidence < SUSPECT_CONFIDENCE) {
+            c.suspect = String.format(Locale.ROOT, "confidence %.2f is below %.2f", c.confidence, SUSPECT_CONFIDENCE);
+        }
+        if (!c.suspect.isEmpty()) {
+            ctx.annotate(Annotation.on(c.name, "skew-suspect").span(b.startFs(), b.startFs()).severity(Severity.WARNING)
+                    .label("suspect skew correction")
+                    .text("detail", String.format(Locale.ROOT, "the correction %+.3f ps for %s from %s is suspect: %s; whatever is"
+                            + " decoded from this channel is suspect too", c.offsetFs / Femtos.PER_PS, c.name, tableName, c.suspect))
+                    .number("offsetPs", c.offsetFs / Femtos.PER_PS, "ps").number("confidence", c.confidence, "")
+                    .text("reason", c.suspect).build());
+        }
     }
 
     @Override
@@ -192,7 +208,7 @@ final class DeskewStage implements Stage {
                 // two inputs carrying the same channel name are told apart by their port name
                 String key = used.add(c.name) ? c.name : "in" + c.index;
                 used.add(key);
-                rows.add(new SkewTable.Entry(key, c.offsetFs / Femtos.PER_PS, c.confidence, c.method, 0));
+                rows.add(new SkewTable.Entry(key, c.offsetFs / Femtos.PER_PS, c.confidence, c.method, 0, c.suspect));
             } else if (table == null && !unit.equals("samples")) {
                 double fs = given.get(c.index) * (unit.equals("ns") ? Femtos.PER_NS : Femtos.PER_PS);
                 rows.add(new SkewTable.Entry("in" + c.index, fs / Femtos.PER_PS, 1, "manual", 0));

@@ -34,6 +34,8 @@ final class EdgeAligner {
     private final int lanes;
     private double periodFs;      // nominal clock interval (CLOCK) or UI (LANES); NaN until known
     private final boolean givenPeriod;
+    private final int bitsPerClock; // LANES: bits per clock period when lane 0 is a clock, 0 unknown
+    private UnitIntervalSource.Finding uiFinding; // LANES with the UI estimated: how it was found, null until known
 
     private long[] ref = new long[1024];
     private long refBase;         // global index of ref[0]
@@ -59,7 +61,22 @@ final class EdgeAligner {
      * @param periodFs LANES: the unit interval, or 0 to estimate it
      */
     EdgeAligner(Mode mode, int lanes, boolean ddr, double periodFs) {
+        this(mode, lanes, ddr, periodFs, 0);
+    }
+
+    /**
+     * Creates an aligner.
+     *
+     * @param mode         clock or lanes
+     * @param lanes        number of data lanes compared with the reference
+     * @param ddr          CLOCK: both clock edges bound intervals
+     * @param periodFs     LANES: the unit interval, or 0 to estimate it
+     * @param bitsPerClock LANES with the unit interval estimated: bits per clock period when lane 0
+     *                     turns out to be a clock, 0 to derive them from the clock's shape
+     */
+    EdgeAligner(Mode mode, int lanes, boolean ddr, double periodFs, int bitsPerClock) {
         this.mode = mode;
+        this.bitsPerClock = bitsPerClock;
         this.lanes = lanes;
         this.ddr = ddr;
         this.givenPeriod = periodFs > 0;
@@ -180,6 +197,16 @@ final class EdgeAligner {
             periodFs = d[m / 2];
             return;
         }
+        long[] seq = new long[m];
+        for (int i = 0; i < m; i++) {
+            seq[i] = ref[i + 1] - ref[i]; // d is sorted; the clock test needs the order
+        }
+        UnitIntervalSource.Finding f = UnitIntervalSource.fromReference(seq, bitsPerClock);
+        if (f != null) {
+            uiFinding = f;
+            periodFs = f.unitIntervalFs() > 0 ? f.unitIntervalFs() : Double.NaN;
+            return;
+        }
         double u = d[m / 20];
         if (!(u > 0)) {
             u = d[m / 2];
@@ -201,6 +228,16 @@ final class EdgeAligner {
             u = sd / sn;
         }
         periodFs = u > 0 ? u : Double.NaN;
+        uiFinding = new UnitIntervalSource.Finding(periodFs, 0, 0, "estimated from the intervals between lane0 transitions");
+    }
+
+    /**
+     * How the unit interval was found when it was not given (LANES only).
+     *
+     * @return the finding, or null while unknown or when the interval was given
+     */
+    UnitIntervalSource.Finding unitIntervalFinding() {
+        return uiFinding;
     }
 
     private void drain(int lane) {

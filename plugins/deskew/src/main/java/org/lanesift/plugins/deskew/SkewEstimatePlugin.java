@@ -33,14 +33,19 @@ import org.lanesift.plugin.StageContext;
  * reference. Confidence: the cluster concentration (mean resultant length).</li>
  * <li>{@code mode=lanes}: inputs {@code lane0..}. Each lane's transitions against the nearest
  * lane-0 transition, folded into one unit interval ({@code unitInterval}, or estimated from lane
- * 0); lane 0 is the reference.</li>
+ * 0); lane 0 is the reference. When lane 0 is a clock, an estimated unit interval is its period divided
+ * by {@code bitsPerClock} or by the bits its high:low shape shows ({@link UnitIntervalSource}); an even
+ * clock with no {@code bitsPerClock} is refused naming the option.</li>
  * </ul>
  * The edge modes resolve skew modulo one clock interval or UI: a lane more than half an interval
  * off is folded back. Annotations: {@code skew-low-confidence}, {@code skew-few-edges},
  * {@code skew-multimodal} (more than one cluster: wrong clock, wrong {@code ddr} or
  * {@code alignment}), {@code skew-out-of-range} (legs peak at the edge of the search),
  * {@code skew-ambiguous} (a second correlation peak nearly as high: a periodic signal),
- * {@code skew-clock-gaps}, {@code skew-bad-samples} (legs: NaN or infinite samples), {@code skew-no-estimate}.
+ * {@code skew-clock-gaps}, {@code skew-bad-samples} (legs: NaN or infinite samples), {@code skew-no-estimate},
+ * {@code skew-unit-interval} (info: how an estimated unit interval was found). A row whose
+ * estimate is ambiguous, weak or near half an interval carries a {@code suspect} reason in the
+ * table ({@link SkewTable.Entry#suspect()}), which {@code deskew} reports when it applies it.
  */
 public final class SkewEstimatePlugin implements PluginProvider {
     /** Largest lane count. */
@@ -57,7 +62,9 @@ public final class SkewEstimatePlugin implements PluginProvider {
                     + " or midway between them (centre)", "edge", "centre"))
             .option(OptionSpec.bool("ddr", true, "clock mode: data changes on both clock edges (fold on half the period)"))
             .option(OptionSpec.time("unitInterval", org.lanesift.time.TimeValue.Unit.PS, "0ps",
-                    "lanes mode: the unit interval; 0 estimates it from lane0"))
+                    "lanes mode: the unit interval; 0 derives it from lane0 (a clock on lane0: its period / bitsPerClock)"))
+            .option(OptionSpec.integer("bitsPerClock", 0L, 0, 64, "lanes mode with unitInterval 0 and a clock on lane0: bits"
+                    + " per clock period (7 on a 7:1 pixel link); 0 derives them from the clock's high:low shape"))
             .option(OptionSpec.time("maxSkew", org.lanesift.time.TimeValue.Unit.PS, "2ns",
                     "legs mode: largest skew searched, either way (ps, ns or samples)"))
             .option(OptionSpec.number("minConfidence", "", 0.5, 0.0, 1.0, "estimates below this confidence get a warning"))

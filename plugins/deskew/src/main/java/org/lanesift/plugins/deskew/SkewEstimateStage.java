@@ -21,6 +21,13 @@ import org.lanesift.time.TimeValue;
 final class SkewEstimateStage implements Stage {
     /** Largest legs search range in samples either way (bounds the FFT size). */
     static final int MAX_LAG = 1 << 15;
+    /** Second-to-first correlation peak ratio from which a legs estimate is ambiguous. */
+    static final double AMBIGUOUS_PEAK_RATIO = 0.8;
+    /**
+     * Edge modes: a folded phase (fraction of the interval) beyond this is near half an interval,
+     * where the fold may have picked the wrong side (common practice: keep skew well inside half a UI).
+     */
+    static final double NEAR_HALF_INTERVAL = 0.4;
 
     private final StageContext ctx;
     private final String mode;
@@ -75,7 +82,7 @@ final class SkewEstimateStage implements Stage {
                 if (uiFs < 0) {
                     throw new OptionException("unitInterval", who + ": option 'unitInterval' must be positive, or 0 to estimate it; got " + ui);
                 }
-                aligner = new EdgeAligner(EdgeAligner.Mode.LANES, lanes - 1, false, uiFs);
+                aligner = new EdgeAligner(EdgeAligner.Mode.LANES, lanes - 1, false, uiFs, o.getInt("bitsPerClock"));
             }
             default -> {
                 if (maxSkew.value() <= 0) {
@@ -108,10 +115,19 @@ final class SkewEstimateStage implements Stage {
             default -> {
                 if (input == 0) {
                     aligner.reference((Edges) block);
+                    refuseUnknownUnitInterval();
                 } else {
                     aligner.data(input - 1, (Edges) block);
                 }
             }
+        }
+    }
+
+    /** Lanes mode: a clock on lane 0 whose bits per clock are unknown leaves no unit interval: stop naming the option. */
+    private void refuseUnknownUnitInterval() {
+        UnitIntervalSource.Finding f = aligner.unitIntervalFinding();
+        if (f != null && f.refused()) {
+            throw new OptionException("unitInterval", who + ": option 'unitInterval' is 0 and " + f.how());
         }
     }
 
@@ -154,6 +170,15 @@ final class SkewEstimateStage implements Stage {
         } else {
             finishEdges(rows, s, e);
         }
+        for (SkewTable.Entry row : rows) {
+            if (row.isSuspect()) {
+                ctx.annotate(Annotation.on(row.name(), "skew-suspect").span(s, e).severity(Severity.WARNING).label("suspect skew estimate")
+                        .text("detail", String.format(Locale.ROOT, "the estimate %+.3f ps for %s is suspect: %s; a decode corrected"
+                                + " with it is suspect too", row.offsetPs(), row.name(), row.suspect()))
+                        .number("offsetPs", row.offsetPs(), "ps").number("confidence", row.confidence(), "")
+                        .text("reason", row.suspect()).build());
+            }
+        }
         byte[] json = new SkewTable(mode, rows).toJson().getBytes(StandardCharsets.UTF_8);
         ctx.emit(0, new Artifact(ctx.instanceId(), s, e, ctx.instanceId() + "-skew.json", "application/json", json));
     }
@@ -170,7 +195,7 @@ final class SkewEstimateStage implements Stage {
         double skewFs = r.lagSamples() * legsPeriodFs;
         double conf = r.samples() == 0 ? 0 : r.correlation();
         rows.add(new SkewTable.Entry(names[0], 0, 1, "reference", r.samples()));
-        rows.add(new SkewTable.Entry(names[1], -skewFs / Femtos.PER_PS, conf, "legs-xcorr", r.samples()));
+        rows.add(new SkewTable.Entry(names[1], -skewFs / Femtos.PER_PS, conf, "legs-xcorr", r.samples(), legsSuspect(r, conf)));
         ctx.annotate(Annotation.on(names[1], "skew-estimate").span(s, e)
                 .label(String.format(Locale.ROOT, "lags by %.1f ps", skewFs / Femtos.PER_PS))
                 .number("offsetPs", -skewFs / Femtos.PER_PS, "ps").number("confidence", conf, "")
@@ -188,7 +213,7 @@ final class SkewEstimateStage implements Stage {
             warn(names[1], "skew-out-of-range", Severity.ERROR, "skew beyond search range", "correlation peak at the edge of the search range (+/-"
                     + maxSkew + "): the skew is larger, raise maxSkew", s, e);
         }
-        if (r.secondPeakRatio() >= 0.8) {
+        if (r.secondPeakRatio() >= AMBIGUOUS_PEAK_RATIO) {
             warn(names[1], "skew-ambiguous", Severity.WARNING, "ambiguous skew", String.format(Locale.ROOT,
                     "a second correlation peak reaches %.0f %% of the main one: periodic signal, reduce maxSkew below half its period",
                     100 * r.secondPeakRatio()), s, e);
@@ -199,9 +224,60 @@ final class SkewEstimateStage implements Stage {
         }
     }
 
+    /** Why a legs estimate is not to be trusted, or empty. */
+    private String legsSuspect(LegsEstimator.Result r, double conf) {
+        List<String> why = new ArrayList<>();
+        if (r.samples() == 0) {
+            why.add("no estimate (too few samples)");
+        }
+        if (r.atEdge()) {
+            why.add("peak at the edge of the +/-" + maxSkew + " search");
+        }
+        if (r.secondPeakRatio() >= AMBIGUOUS_PEAK_RATIO) {
+            why.add(String.format(Locale.ROOT, "ambiguous: a second correlation peak reaches %.0f %% of the main one",
+                    100 * r.secondPeakRatio()));
+        }
+        if (conf < minConfidence) {
+            why.add(String.format(Locale.ROOT, "low confidence %.2f (below %.2f)", conf, minConfidence));
+        }
+        return String.join("; ", why);
+    }
+
+    /** Why an edge-mode estimate is not to be trusted, or empty. */
+    private String edgesSuspect(EdgeAligner.Result r, double conf, double phaseFromTarget) {
+        List<String> why = new ArrayList<>();
+        if (r.count() == 0) {
+            return "no estimate (no usable transitions)";
+        }
+        if (r.count() < minEdges) {
+            why.add(r.count() + " transitions (fewer than " + minEdges + ")");
+        }
+        if (r.clusters() > 1) {
+            why.add("ambiguous: transitions fall in " + r.clusters() + " clusters");
+        }
+        if (conf < minConfidence) {
+            why.add(String.format(Locale.ROOT, "low confidence %.2f (below %.2f)", conf, minConfidence));
+        }
+        if (Math.abs(phaseFromTarget) > NEAR_HALF_INTERVAL) {
+            why.add(String.format(Locale.ROOT, "skew of %.2f of an interval is near half an interval: the true skew may be"
+                    + " one interval the other way", phaseFromTarget));
+        }
+        return String.join("; ", why);
+    }
+
     private void finishEdges(List<SkewTable.Entry> rows, long s, long e) {
         aligner.finish();
         boolean clock = mode.equals("clock");
+        if (!clock) {
+            refuseUnknownUnitInterval();
+            UnitIntervalSource.Finding f = aligner.unitIntervalFinding();
+            if (f != null) {
+                ctx.annotate(Annotation.on(names[0], "skew-unit-interval").span(s, e).severity(Severity.INFO)
+                        .label(String.format(Locale.ROOT, "unit interval %.3f ps", f.unitIntervalFs() / Femtos.PER_PS))
+                        .number("unitIntervalPs", f.unitIntervalFs() / Femtos.PER_PS, "ps")
+                        .number("bitsPerClock", f.bitsPerClock(), "").text("detail", f.how()).build());
+            }
+        }
         rows.add(new SkewTable.Entry(names[0], 0, 1, "reference", 0));
         if (!aligner.referenceSeen() || Double.isNaN(aligner.periodFs())) {
             warn(names[0], "skew-no-estimate", Severity.ERROR, "no estimate", clock ? "too few clock edges to know the clock interval"
@@ -214,11 +290,13 @@ final class SkewEstimateStage implements Stage {
             String name = names[l + 1];
             double offFs = 0;
             double conf = 0;
+            double phase = 0;
             if (r.count() > 0 && !Double.isNaN(r.centre())) {
-                offFs = -PhaseHistogram.wrap(r.centre() - target) * r.intervalFs();
+                phase = PhaseHistogram.wrap(r.centre() - target);
+                offFs = -phase * r.intervalFs();
                 conf = Math.max(0, Math.min(1, r.concentration()));
             }
-            rows.add(new SkewTable.Entry(name, offFs / Femtos.PER_PS, conf, method, r.count()));
+            rows.add(new SkewTable.Entry(name, offFs / Femtos.PER_PS, conf, method, r.count(), edgesSuspect(r, conf, phase)));
             ctx.annotate(Annotation.on(name, "skew-estimate").span(s, e)
                     .label(String.format(Locale.ROOT, "correct %+.1f ps", offFs / Femtos.PER_PS))
                     .number("offsetPs", offFs / Femtos.PER_PS, "ps").number("confidence", conf, "")

@@ -42,12 +42,15 @@ public final class SkewTable {
      * @param method     how it was obtained, such as {@code "manual"}, {@code "reference"},
      *                   {@code "legs-xcorr"}, {@code "clock-edge"}, {@code "clock-centre"}, {@code "lanes"}
      * @param edges      transitions or samples the estimate rests on, 0 when not applicable
+     * @param suspect    why the estimate is not to be trusted (ambiguous, weak, near half an
+     *                   interval), or empty when nothing is known against it
      */
-    public record Entry(String name, double offsetPs, double confidence, String method, long edges) {
+    public record Entry(String name, double offsetPs, double confidence, String method, long edges, String suspect) {
         /** Checks the values. */
         public Entry {
             Objects.requireNonNull(name, "name");
             Objects.requireNonNull(method, "method");
+            Objects.requireNonNull(suspect, "suspect");
             if (name.isEmpty()) {
                 throw new IllegalArgumentException("skew table: channel name is empty");
             }
@@ -57,6 +60,24 @@ public final class SkewTable {
             if (!(confidence >= 0 && confidence <= 1)) {
                 throw new IllegalArgumentException("skew table: confidence of '" + name + "' must be 0 to 1, got " + confidence);
             }
+        }
+
+        /**
+         * A row with nothing known against it.
+         *
+         * @param name       channel name
+         * @param offsetPs   correction to apply, picoseconds
+         * @param confidence 0 to 1
+         * @param method     how it was obtained
+         * @param edges      transitions or samples behind it
+         */
+        public Entry(String name, double offsetPs, double confidence, String method, long edges) {
+            this(name, offsetPs, confidence, method, edges, "");
+        }
+
+        /** @return true when the row carries a suspect reason */
+        public boolean isSuspect() {
+            return !suspect.isEmpty();
         }
     }
 
@@ -118,7 +139,11 @@ public final class SkewTable {
                 .field("convention", CONVENTION).field("mode", mode).name("channels").beginObject();
         for (Entry e : entries.values()) {
             j.name(e.name()).beginObjectInline().field("offsetPs", round(e.offsetPs())).field("confidence", round(e.confidence()))
-                    .field("method", e.method()).field("edges", e.edges()).endObject();
+                    .field("method", e.method()).field("edges", e.edges());
+            if (e.isSuspect()) {
+                j.field("suspect", e.suspect());
+            }
+            j.endObject();
         }
         return j.endObject().endObject().finish() + "\n";
     }
@@ -140,7 +165,8 @@ public final class SkewTable {
         try {
             return of(name, JsonReader.read(file, name));
         } catch (NoSuchFileException e) {
-            throw new IllegalArgumentException(name + ": no such skew table file");
+            Path dir = file.toAbsolutePath().normalize().getParent();
+            throw new IllegalArgumentException(name + ": no such skew table file (looked in folder " + dir + ")");
         } catch (IOException e) {
             throw new IllegalArgumentException(name + ": cannot read the skew table: " + e.getMessage());
         }
@@ -223,7 +249,16 @@ public final class SkewTable {
                 }
                 edges = (long) edd;
             }
-            out.add(new Entry(cname, off, conf, method, edges));
+            String suspect = "";
+            JsonValue su = row.get("suspect");
+            if (su != null) {
+                if (!su.isString()) {
+                    throw new IllegalArgumentException(source + ": " + ptr + "/suspect must be a string (why the estimate is"
+                            + " suspect), got " + describe(su));
+                }
+                suspect = su.asString();
+            }
+            out.add(new Entry(cname, off, conf, method, edges, suspect));
         }
         return new SkewTable(mode, out);
     }

@@ -35,7 +35,9 @@ class EstimateSplitTest {
     }
 
     static String runEdges(String mode, long[] cut) {
-        Map<String, Object> opts = mode.equals("clock") ? Map.of("mode", "clock", "lanes", 2) : Map.of("mode", "lanes", "lanes", 3);
+        // lanes mode with the even clock on lane0: its bits per clock must be given (issue 16)
+        Map<String, Object> opts = mode.equals("clock") ? Map.of("mode", "clock", "lanes", 2)
+                : Map.of("mode", "lanes", "lanes", 3, "bitsPerClock", 2);
         try (StageHarness h = StageHarness.of(new SkewEstimatePlugin(), opts)) {
             List<List<Edges>> s = new ArrayList<>();
             for (Edges e : new Edges[] {CLK, L0, L1}) {

@@ -82,6 +82,9 @@ public record SlotMapping(String name, String title, String source, int colourBi
             m = JsonReader.read(file, file.toString());
         } catch (JsonParseException e) {
             throw bad("mappingFile", e.getMessage());
+        } catch (java.nio.file.NoSuchFileException e) {
+            throw new OptionException("mappingFile", "option 'mappingFile' of plugin 'pixel-link': no such " + where
+                    + " (looked in folder " + file.toAbsolutePath().normalize().getParent() + ")");
         } catch (IOException e) {
             throw new OptionException("mappingFile", "option 'mappingFile' of plugin 'pixel-link': cannot read " + where
                     + ": " + e.getMessage());

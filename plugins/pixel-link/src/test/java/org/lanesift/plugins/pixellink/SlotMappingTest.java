@@ -156,7 +156,8 @@ class SlotMappingTest {
             assertTrue(e.getMessage().contains(c.getValue()), e.getMessage());
         }
         OptionException e = assertThrows(OptionException.class, () -> SlotMapping.load(dir.resolve("absent.json")));
-        assertTrue(e.getMessage().contains("cannot read mapping file"), e.getMessage());
+        assertTrue(e.getMessage().contains("no such mapping file")
+                && e.getMessage().contains("looked in folder " + dir.toAbsolutePath().normalize()), e.getMessage());
     }
 
     /** A bad table named in a chain gives a chain error pointing at the option, not a stack trace. */

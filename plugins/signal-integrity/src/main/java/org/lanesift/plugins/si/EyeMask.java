@@ -65,6 +65,9 @@ final class EyeMask {
                 throw new MaskException("eye mask file " + file + ": larger than 4 MiB, not a mask");
             }
             lines = Files.readAllLines(file, StandardCharsets.UTF_8);
+        } catch (java.nio.file.NoSuchFileException e) {
+            throw new MaskException("eye mask file " + file + ": no such file (looked in folder "
+                    + file.toAbsolutePath().normalize().getParent() + ")");
         } catch (IOException e) {
             throw new MaskException("eye mask file " + file + ": cannot read it (" + e.getMessage() + ")");
         }
