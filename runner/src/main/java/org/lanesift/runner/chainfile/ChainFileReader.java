@@ -23,7 +23,7 @@ import org.lanesift.json.JsonValue;
  *
  * <p>Besides the shape it checks what can be checked without plugins: instance ids are unique and
  * well formed, both ends of every wire name a declared instance, and the wires form no cycle.
- * Relative paths in options named {@code file} are resolved against the chain file's directory.
+ * Relative paths in options named {@code file} or ending in {@code File} (such as {@code offsetsFile}) are resolved against the chain file's directory.
  */
 public final class ChainFileReader {
     private static final Set<String> ROOT_KEYS = Set.of("nodes", "wires", "description");
@@ -108,7 +108,7 @@ public final class ChainFileReader {
                 for (Map.Entry<String, JsonValue> e : opts.members().entrySet()) {
                     String op = p + "/options/" + escape(e.getKey());
                     Object v = optionValue(e.getValue(), op, file);
-                    if (e.getKey().equals("file") && v instanceof String s) {
+                    if ((e.getKey().equals("file") || e.getKey().endsWith("File")) && v instanceof String s) {
                         v = resolve(dir, s);
                     }
                     options.put(e.getKey(), v);
