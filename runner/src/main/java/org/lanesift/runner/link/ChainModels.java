@@ -26,6 +26,18 @@ public final class ChainModels {
         Files.writeString(file, w.finish() + "\n", StandardCharsets.UTF_8);
     }
 
+    /**
+     * The model as pretty JSON text with a final newline (also used for the {@code sift} report).
+     *
+     * @param model maps, lists, strings, numbers (non-finite ones become null) and booleans
+     * @return the JSON text
+     */
+    public static String text(Map<String, Object> model) {
+        JsonWriter w = JsonWriter.pretty().nonFiniteAsNull();
+        writeJson(w, model);
+        return w.finish() + "\n";
+    }
+
     private static void writeJson(JsonWriter w, Object v) {
         if (v instanceof Map<?, ?> m) {
             w.beginObject();
@@ -48,6 +60,8 @@ public final class ChainModels {
             w.value(((Number) v).longValue());
         } else if (v instanceof Number n) {
             w.value(n.doubleValue());
+        } else if (v == null) {
+            w.nullValue();
         } else {
             throw new IllegalArgumentException("chain model: unexpected " + v);
         }
