@@ -15,13 +15,21 @@ import java.util.Random;
  * Times are in seconds, levels in volts.
  */
 final class LegWaves {
-    /** tanh edge time constant: 10-90 % rise of about 2.2 x this (common practice for a smooth edge model). */
-    static final double EDGE_TAU_S = 90e-12;
+    private final double edgeTauS;
     private final double rateHz;
     private final int samples;
     private final Random rnd;
 
-    LegWaves(double rateHz, int samples, long seed) {
+    /**
+     * @param rateHz   sample rate
+     * @param samples  samples per leg
+     * @param edgeTauS tanh edge time constant; the 10-90 % time is about 2.2 x this. Keep the edge slower than
+     *                 about two sample periods: an instrument's bandwidth limit does the same, and a faster edge
+     *                 on a sample grid that divides the unit interval biases every interpolated crossing alike
+     * @param seed     jitter and noise seed
+     */
+    LegWaves(double rateHz, int samples, double edgeTauS, long seed) {
+        this.edgeTauS = edgeTauS;
         this.rateHz = rateHz;
         this.samples = samples;
         this.rnd = new Random(seed);
@@ -56,15 +64,15 @@ final class LegWaves {
             }
             double nominal = s * slotS + delayS;
             double te = nominal + jitterRmsS * rnd.nextGaussian();
-            int from = Math.max(0, (int) Math.floor((Math.min(te, nominal) - 8 * EDGE_TAU_S) * rateHz));
+            int from = Math.max(0, (int) Math.floor((Math.min(te, nominal) - 8 * edgeTauS) * rateHz));
             int to = Math.min(samples - 1, (int) Math.ceil((te + 4 * tauRing) * rateHz));
             for (int i = from; i <= to; i++) {
                 double t = i * dt;
                 double ideal = t >= nominal ? 1 : 0; // the piecewise level already holds this step
-                double shape = 0.5 * (1 + Math.tanh((t - te) / EDGE_TAU_S));
+                double shape = 0.5 * (1 + Math.tanh((t - te) / edgeTauS));
                 double tau = t - te;
                 if (tau > 0) {
-                    shape += ringFrac * Math.exp(-tau / tauRing) * Math.sin(2 * Math.PI * ringHz * tau) * Math.tanh(tau / EDGE_TAU_S);
+                    shape += ringFrac * Math.exp(-tau / tauRing) * Math.sin(2 * Math.PI * ringHz * tau) * Math.tanh(tau / edgeTauS);
                 }
                 v[i] += (float) (step * (shape - ideal));
             }

@@ -72,7 +72,7 @@ final class PixelLinkCapture {
         }
         double slotS = 1 / PIXEL_CLOCK_HZ / 7;
         int samples = (int) (slots * slotS * RATE_HZ) - 8;
-        LegWaves waves = new LegWaves(RATE_HZ, samples, seed + 1);
+        LegWaves waves = new LegWaves(RATE_HZ, samples, 90e-12, seed + 1);
         float[][] volts = new float[8][];
         for (int p = 0; p < 4; p++) {
             double[] hi = new double[slots];

@@ -130,12 +130,66 @@ class SiftTest {
         assertTrue(badOpt.err().contains("--map PCLK=CH5: expected NAME=P,N"), badOpt.err());
     }
 
+    @Test
+    void packetLinkDecodesEveryCommandWithSkewsWithin50ps(@TempDir Path dir) throws IOException {
+        Path cap = dir.resolve("dsi-probe.csv");
+        PacketLinkCapture gen = new PacketLinkCapture();
+        gen.write(cap, new String[] {"CKP", "CKN", "D0P", "D0N", "D1P", "D1N"}, 9313);
+        Path out = dir.resolve("o");
+        Run r = lanesift("sift", "--capture", cap.toString(), "--out", out.toString(), "--quiet");
+        assertEquals(0, r.code(), r.err());
+        JsonValue report = json(out.resolve("report.json"));
+        assertEquals("packet", report.at("/link/kind/value").asString());
+        // D-PHY HS data on both clock edges: UI = half the clock period (docs/reference-facts.md#d-phy-levels-and-states)
+        assertEquals(PacketLinkCapture.UI_S, report.at("/link/unitIntervalS/value").asDouble(), 1e-12);
+        List<JsonValue> log = json(out.resolve("decode/dsi-commands.json")).get("commands").elements();
+        List<String> want = new ArrayList<>();
+        List<String> got = new ArrayList<>();
+        for (PacketLinkCapture.Command c : gen.commands) {
+            StringBuilder p = new StringBuilder();
+            for (int b : c.params()) {
+                p.append(p.length() == 0 ? "" : " ").append(String.format("%02X", b));
+            }
+            want.add(String.format("0x%02X 0x%02X [%s]", c.dataType(), c.command(), p));
+        }
+        for (JsonValue d : log) {
+            got.add(d.get("dataType").asString() + " " + d.get("command").asString() + " [" + d.get("params").asString() + "]");
+        }
+        assertEquals(want, got, "every command, in order, with its parameters");
+        assertEquals(gen.commands.size(), (int) report.at("/result/commands").asDouble());
+        List<String> wrong = new ArrayList<>();
+        String[] nLegs = {"CKN", "D0N", "D1N"};
+        String[] lanes = {"D0", "D1"};
+        for (JsonValue s : report.at("/skews").elements()) {
+            String ch = s.get("channel").asString();
+            double ps = s.get("skewPs").asDouble();
+            if (!s.get("source").asString().startsWith("measured")) {
+                wrong.add(ch + " not measured: " + s.get("source").asString());
+            }
+            for (int k = 0; k < nLegs.length; k++) {
+                if (ch.equals(nLegs[k]) && Math.abs(ps - PacketLinkCapture.LEG_SKEW_PS[k]) > 50) {
+                    wrong.add(ch + " " + ps + " ps, injected " + PacketLinkCapture.LEG_SKEW_PS[k]);
+                }
+            }
+            for (int k = 0; k < lanes.length; k++) {
+                if (ch.equals(lanes[k]) && Math.abs(ps - PacketLinkCapture.LANE_SKEW_PS[k]) > 50) {
+                    wrong.add(ch + " " + ps + " ps, injected " + PacketLinkCapture.LANE_SKEW_PS[k]);
+                }
+            }
+        }
+        assertEquals(5, report.at("/skews").elements().size());
+        assertEquals(List.of(), wrong);
+    }
+
     /** Every skew within 50 ps of the injected one: legs (N against P) first, then lanes against the clock. */
     static void assertSkews(JsonValue skews, String[] nLegs, String[] lanes) {
         List<String> wrong = new ArrayList<>();
         for (JsonValue s : skews.elements()) {
             String ch = s.get("channel").asString();
             double ps = s.get("skewPs").asDouble();
+            if (!s.get("source").asString().startsWith("measured")) {
+                wrong.add(ch + " not measured: " + s.get("source").asString());
+            }
             for (int k = 0; k < nLegs.length; k++) {
                 if (ch.equals(nLegs[k]) && Math.abs(ps - PixelLinkCapture.LEG_SKEW_PS[k]) > 50) {
                     wrong.add(ch + " " + ps + " ps, injected " + PixelLinkCapture.LEG_SKEW_PS[k]);
