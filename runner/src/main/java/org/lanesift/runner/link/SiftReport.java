@@ -112,6 +112,7 @@ final class SiftReport {
                             "**%d packets**, **%d commands**, %d frames (%d suspect). Commands: `decode/dsi-commands.csv`, "
                                     + "init sequence: `decode/dsi-init.h`.%n%n", packets, nc, nf, suspect));
         }
+        res.put("source", "measured: decoded by chains/3-decode.json");
         model.put("result", res);
     }
 
@@ -251,6 +252,7 @@ final class SiftReport {
         double dur = inspect.channels().stream().mapToDouble(InspectReport.Channel::durationS).max().orElse(Double.NaN);
         in.put("sampleRateHz", rate);
         in.put("durationS", dur);
+        in.put("source", "measured: read from the capture by inspect");
         model.put("inputs", in);
         md.append("### Inputs\n\n- file: `").append(capture).append("` (").append(inspect.format()).append(", ")
                 .append(String.format(Locale.ROOT, "%.3g MB", Files.size(capture) / 1e6)).append(")\n- channels: ")
@@ -315,15 +317,13 @@ final class SiftReport {
         return JsonReader.parse(f.getFileName().toString(), Files.readString(f, StandardCharsets.UTF_8));
     }
 
+    /** The value at a path of member names (as an RFC 6901 pointer), or null where the path leads nowhere. */
     private static JsonValue at(JsonValue v, String... names) {
-        JsonValue c = v;
+        StringBuilder pointer = new StringBuilder();
         for (String n : names) {
-            if (c == null || !c.isObject()) {
-                return null;
-            }
-            c = c.get(n);
+            pointer.append('/').append(n.replace("~", "~0").replace("/", "~1"));
         }
-        return c;
+        return v == null ? null : v.at(pointer.toString());
     }
 
     private static double num(JsonValue v) {
