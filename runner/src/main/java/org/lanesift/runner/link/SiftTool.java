@@ -54,10 +54,13 @@ public final class SiftTool implements Tool {
             .flag("json", "print the report as JSON on standard output (also written to OUT/report.json)")
             .option(OptionSpec.choice("fail-on", "none", "exit with status 3 when findings of this severity or worse exist:"
                     + " none, warning or error", "none", "warning", "error"), "SEVERITY")
-            .footer("Exit codes: 0 decoded, 2 bad input (capture, map, options), 3 findings at the --fail-on severity,",
-                    "1 internal error. Safety: probing a live display link is low voltage, but display flex cables and",
-                    "connectors are sensitive to electrostatic discharge (use a wrist strap), and a scope's ground lead",
-                    "is earthed: never clip it to a mains-referenced circuit. Follow local codes and licensed practice.")
+            .footer("Exit codes: 0 decoded; 3 decoded, with findings at the --fail-on severity;",
+                    "2 bad input (capture, map, options); 1 internal error. See docs/sift.md.",
+                    "",
+                    "Safety: display flex cables and connectors are sensitive to electrostatic",
+                    "discharge (wrist strap, power down before plugging); a scope's ground lead is",
+                    "earthed: never clip it to a mains-referenced circuit. Follow local codes and",
+                    "licensed practice (README, Safety).")
             .build();
 
     /** Creates the tool (ServiceLoader). */
