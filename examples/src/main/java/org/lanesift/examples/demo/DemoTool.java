@@ -9,7 +9,6 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
@@ -19,7 +18,6 @@ import java.util.concurrent.Future;
 import javax.imageio.ImageIO;
 import org.lanesift.json.JsonReader;
 import org.lanesift.json.JsonValue;
-import org.lanesift.json.JsonWriter;
 import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.OutputException;
 import org.lanesift.kit.FramePictures;
@@ -28,6 +26,8 @@ import org.lanesift.plugin.ToolArgs;
 import org.lanesift.plugin.ToolConsole;
 import org.lanesift.plugin.ToolSpec;
 import org.lanesift.runner.ChainRun;
+import org.lanesift.runner.link.ChainModels;
+import org.lanesift.runner.link.SkewTables;
 
 /**
  * {@code lanesift demo}: writes the invented demo scenario's captures as instrument exports, the
@@ -115,9 +115,7 @@ public final class DemoTool implements Tool {
 
         private void runChain(Map<String, Object> model, String name, Path outDir) throws IOException {
             Path chain = dir.resolve("chains").resolve(name);
-            JsonWriter w = JsonWriter.pretty();
-            writeJson(w, model);
-            Files.writeString(chain, w.finish() + "\n", StandardCharsets.UTF_8);
+            ChainModels.write(chain, model);
             ByteArrayOutputStream o = new ByteArrayOutputStream();
             ByteArrayOutputStream e = new ByteArrayOutputStream();
             int code = ChainRun.of(chain).out(outDir).quiet(true)
@@ -127,34 +125,8 @@ public final class DemoTool implements Tool {
             }
         }
 
-        /** Merges the per-instance skew tables of a pass into one table, keeping only confident entries. */
-        private Path mergeTables(Path passDir, String prefix, Path target, List<String> notes) throws IOException {
-            Map<String, JsonValue> channels = new LinkedHashMap<>();
-            try (var files = Files.list(passDir)) {
-                for (Path f : files.filter(p -> p.getFileName().toString().startsWith(prefix)
-                        && p.getFileName().toString().endsWith("-skew.json")).sorted().toList()) {
-                    JsonValue t = read(f);
-                    for (Map.Entry<String, JsonValue> en : t.get("channels").members().entrySet()) {
-                        Map<String, JsonValue> entry = new LinkedHashMap<>(en.getValue().members());
-                        double conf = number(entry.get("confidence"), 1);
-                        if (conf < 0.5) {
-                            notes.add(en.getKey() + ": estimate " + fmt(number(entry.get("offsetPs"), 0)) + " ps has confidence "
-                                    + fmt(conf) + ", not applied (0 ps used)");
-                            entry.put("offsetPs", JsonValue.number(0.0));
-                            entry.put("method", JsonValue.string("manual"));
-                        }
-                        channels.put(en.getKey(), JsonValue.object(entry));
-                    }
-                }
-            }
-            JsonWriter w = JsonWriter.pretty().beginObject()
-                    .field("format", "lanesift-skew-table")
-                    .field("version", 1)
-                    .field("mode", prefix.startsWith("legs") ? "legs" : "lanes")
-                    .name("channels").value(JsonValue.object(channels))
-                    .endObject();
-            Files.writeString(target, w.finish() + "\n", StandardCharsets.UTF_8);
-            return target;
+        private static Path mergeTables(Path passDir, String prefix, Path target, List<String> notes) throws IOException {
+            return SkewTables.merge(passDir, prefix, target, notes);
         }
 
         private PixelLinkScene.Truth pixelLink() throws IOException {
@@ -392,34 +364,6 @@ public final class DemoTool implements Tool {
             return (int) number(at(timing, "vertical", key, "value"), 0);
         }
 
-        /** Writes the chain model: maps, lists, strings, numbers and booleans. */
-        private static void writeJson(JsonWriter w, Object v) {
-            if (v instanceof Map<?, ?> m) {
-                w.beginObject();
-                for (Map.Entry<?, ?> e : m.entrySet()) {
-                    w.name(e.getKey().toString());
-                    writeJson(w, e.getValue());
-                }
-                w.endObject();
-            } else if (v instanceof List<?> l) {
-                w.beginArray();
-                for (Object o : l) {
-                    writeJson(w, o);
-                }
-                w.endArray();
-            } else if (v instanceof String str) {
-                w.value(str);
-            } else if (v instanceof Boolean b) {
-                w.value(b);
-            } else if (v instanceof Integer || v instanceof Long) {
-                w.value(((Number) v).longValue());
-            } else if (v instanceof Number n) {
-                w.value(n.doubleValue());
-            } else {
-                throw new IllegalArgumentException("chain model: unexpected " + v);
-            }
-        }
-
         private static String hex(byte[] b) {
             StringBuilder s = new StringBuilder();
             for (byte x : b) {
@@ -429,10 +373,6 @@ public final class DemoTool implements Tool {
                 s.append(String.format("%02X", x & 0xFF));
             }
             return s.toString();
-        }
-
-        private static String fmt(double d) {
-            return String.format(Locale.ROOT, "%.3g", d);
         }
     }
 

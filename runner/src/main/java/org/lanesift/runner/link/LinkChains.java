@@ -1,0 +1,278 @@
+package org.lanesift.runner.link;
+
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * Chain models (docs/chain-file.md) for decoding a differential link in three passes, as a
+ * practitioner would: (1) estimate the skew between the two legs of every pair, (2) correct it
+ * and estimate the skew of every data pair against the clock pair, (3) correct both and decode.
+ * The first pair is the clock; the others are the data lanes in lane order. Paths are written as
+ * given (the {@code sift} command gives them relative to the chain file, the demo absolute).
+ * The models are plain maps and lists, written with {@link ChainModels#write}.
+ */
+public final class LinkChains {
+    /**
+     * One differential pair.
+     *
+     * @param name the pair's name (used for the receiver and its output channel)
+     * @param p    the capture channel of the P leg
+     * @param n    the capture channel of the N leg
+     */
+    public record Pair(String name, String p, String n) {
+    }
+
+    /**
+     * Where the chains read from.
+     *
+     * @param plugin capture reader plugin id: csv, vcd or raw
+     * @param file   the capture file as it goes into the chain file
+     * @param pairs  the clock pair first, then the data pairs in lane order
+     */
+    public record Capture(String plugin, String file, List<Pair> pairs) {
+        /** Copies the list; at least a clock and one data pair. */
+        public Capture {
+            pairs = List.copyOf(pairs);
+            if (pairs.size() < 2) {
+                throw new IllegalArgumentException("a link needs a clock pair and at least one data pair, got " + pairs);
+            }
+        }
+
+        int dataLanes() {
+            return pairs.size() - 1;
+        }
+    }
+
+    private final List<Map<String, Object>> nodes = new ArrayList<>();
+    private final List<Map<String, Object>> wires = new ArrayList<>();
+    private final String description;
+    private final Capture cap;
+
+    private LinkChains(String description, Capture cap) {
+        this.description = description;
+        this.cap = cap;
+        node("cap", cap.plugin(), "file", cap.file());
+    }
+
+    private LinkChains node(String id, String plugin, Object... kv) {
+        Map<String, Object> o = new LinkedHashMap<>();
+        for (int i = 0; i < kv.length; i += 2) {
+            o.put((String) kv[i], kv[i + 1]);
+        }
+        Map<String, Object> n = new LinkedHashMap<>();
+        n.put("id", id);
+        n.put("plugin", plugin);
+        n.put("options", o);
+        nodes.add(n);
+        return this;
+    }
+
+    private LinkChains wire(String from, String to) {
+        Map<String, Object> w = new LinkedHashMap<>(); // a fixed member order: chain files are byte-identical run to run
+        w.put("from", from);
+        w.put("to", to);
+        wires.add(w);
+        return this;
+    }
+
+    private Map<String, Object> model() {
+        Map<String, Object> m = new LinkedHashMap<>();
+        m.put("description", description);
+        m.put("nodes", nodes);
+        m.put("wires", wires);
+        return m;
+    }
+
+    /** Analog leg deskew of every channel, then one differential receiver per pair. */
+    private LinkChains receivers(String legTable, boolean packet) {
+        return receivers(legTable, packet, List.of());
+    }
+
+    /**
+     * As above; the pairs named in {@code withDiff} also give their difference P-N (output
+     * {@code diff}) for the signal-integrity instances.
+     */
+    private LinkChains receivers(String legTable, boolean packet, List<String> withDiff) {
+        List<Pair> pairs = cap.pairs();
+        node("legs", "deskew", "kind", "analog", "channels", 2 * pairs.size(), "offsetsFile", legTable);
+        for (int k = 0; k < pairs.size(); k++) {
+            Pair pr = pairs.get(k);
+            wire("cap." + pr.p(), "legs.in" + (2 * k)).wire("cap." + pr.n(), "legs.in" + (2 * k + 1));
+            String id = "rx-" + pr.name();
+            if (!packet && withDiff.contains(pr.name())) {
+                node(id, "differential", "mode", "pair", "name", pr.name(), "levelProfile", "lvds", "diffOutput", true);
+            } else if (!packet) {
+                node(id, "differential", "mode", "pair", "name", pr.name(), "levelProfile", "lvds");
+            } else if (k == 0) {
+                node(id, "differential", "mode", "pair", "name", pr.name(), "levelProfile", "dphy-hs");
+            } else {
+                // data lanes spend most of the time in low-power states (difference near 0 V in LP-11):
+                // a fixed threshold with hysteresis instead of one learned from the histogram; the
+                // low-power levels are checked by the packet-link decoder, not here
+                node(id, "differential", "mode", "pair", "name", pr.name(), "thresholdVolts", 0.0, "hysteresisVolts", 0.05,
+                        "levelProfile", "none");
+            }
+            wire("legs.out" + (2 * k), id + ".p").wire("legs.out" + (2 * k + 1), id + ".n");
+        }
+        return this;
+    }
+
+    /** An instance id from a pair name: lower case, anything but letters and digits as '-'. */
+    private static String idOf(String name) {
+        String id = name.toLowerCase(java.util.Locale.ROOT).replaceAll("[^a-z0-9]+", "-").replaceAll("^-|-$", "");
+        return id.isEmpty() ? "pair" : id;
+    }
+
+    /** {@code id}, or {@code id-si} when an instance of that id already exists. */
+    private String freeId(String id) {
+        for (Map<String, Object> n : nodes) {
+            if (id.equals(n.get("id"))) {
+                return id + "-si";
+            }
+        }
+        return id;
+    }
+
+    private LinkChains laneDeskew(String laneTable) {
+        List<Pair> pairs = cap.pairs();
+        node("lanes", "deskew", "kind", "edges", "channels", pairs.size(), "offsetsFile", laneTable);
+        for (int k = 0; k < pairs.size(); k++) {
+            wire("rx-" + pairs.get(k).name() + ".edges", "lanes.in" + k);
+        }
+        return this;
+    }
+
+    /**
+     * Pass 1 of either link: one {@code skew-estimate} in legs mode per pair.
+     *
+     * @param description the chain's description
+     * @param cap         the capture
+     * @return the chain model
+     */
+    public static Map<String, Object> legs(String description, Capture cap) {
+        LinkChains c = new LinkChains(description, cap);
+        for (Pair p : cap.pairs()) {
+            c.node("legs-" + p.name(), "skew-estimate", "mode", "legs");
+            c.wire("cap." + p.p(), "legs-" + p.name() + ".p").wire("cap." + p.n(), "legs-" + p.name() + ".n");
+        }
+        return c.model();
+    }
+
+    /**
+     * Pass 2 of a 7:1 pixel link: legs corrected, every lane (the clock included) aligned on the slot grid.
+     *
+     * @param description  the chain's description
+     * @param cap          the capture
+     * @param legTable     the merged leg skew table
+     * @param unitInterval the slot time as an option value, such as "7142.857ps"
+     * @return the chain model
+     */
+    public static Map<String, Object> pixelLanes(String description, Capture cap, String legTable, String unitInterval) {
+        LinkChains c = new LinkChains(description, cap).receivers(legTable, false);
+        int n = cap.pairs().size();
+        // on a 7:1 link every lane, the clock included, changes only on bit-slot boundaries: align them on the slot grid
+        c.node("lanes", "skew-estimate", "mode", "lanes", "lanes", n, "unitInterval", unitInterval);
+        for (int k = 0; k < n; k++) {
+            c.wire("rx-" + cap.pairs().get(k).name() + ".edges", "lanes.lane" + k);
+        }
+        return c.model();
+    }
+
+    /**
+     * Pass 3 of a 7:1 pixel link: both skews corrected; 7:1 sampling, frames, timing, eye, ringing, jitter.
+     *
+     * @param description the chain's description
+     * @param cap         the capture
+     * @param legTable    the merged leg skew table
+     * @param laneTable   the merged lane skew table
+     * @param mapping     the pixel-link slot mapping (bits-18, vesa-24 or jeida-24)
+     * @return the chain model
+     */
+    public static Map<String, Object> pixelDecode(String description, Capture cap, String legTable, String laneTable,
+                                                  String mapping) {
+        LinkChains c = new LinkChains(description, cap)
+                .receivers(legTable, false, List.of(cap.pairs().get(1).name(), cap.pairs().get(Math.min(2, cap.pairs().size() - 1)).name()))
+                .laneDeskew(laneTable);
+        int lanes = cap.dataLanes();
+        c.node("sampler", "dual-edge", "mode", "multiplied", "slots", 7, "lanes", lanes);
+        c.wire("lanes.out0", "sampler.clock");
+        for (int k = 0; k < lanes; k++) {
+            c.wire("lanes.out" + (k + 1), "sampler.lane" + k);
+        }
+        c.node("panel", "pixel-link", "mapping", mapping, "pictures", "all");
+        for (int k = 0; k < lanes; k++) {
+            c.wire("sampler.bits" + k, "panel.lane" + k);
+        }
+        // signal integrity, each instance named after the signal it measures, so its files read
+        // "<signal>-<what>": the eye and the edge metrics look at the differential signal P-N of a
+        // data pair (what the LVDS limits are defined on), the ringing at one leg of the clock,
+        // because ringing comes from the ground lead of that leg's probe, and the jitter at the
+        // clock lane's edges
+        Pair clock = cap.pairs().get(0);
+        Pair eyePair = cap.pairs().get(1);
+        Pair edgePair = cap.pairs().get(Math.min(2, cap.pairs().size() - 1));
+        String eye = c.freeId(idOf(eyePair.name()));
+        c.node(eye, "eye-diagram", "clockEdge", "rising", "uiPerClockInterval", 7, "uiCount", 2);
+        c.wire("rx-" + eyePair.name() + ".diff", eye + ".signal").wire("lanes.out0", eye + ".clock");
+        String ring = c.freeId(idOf(clock.name()) + "-p");
+        c.node(ring, "ringing");
+        c.wire("cap." + clock.p(), ring + ".signal");
+        String edges = c.freeId(idOf(edgePair.name()));
+        c.node(edges, "edge-metrics");
+        c.wire("rx-" + edgePair.name() + ".diff", edges + ".signal");
+        String jitter = c.freeId(idOf(clock.name()));
+        c.node(jitter, "jitter", "edge", "rising");
+        c.wire("lanes.out0", jitter + ".clock");
+        return c.model();
+    }
+
+    /**
+     * Pass 2 of a packet link: legs corrected; data lanes against the DDR clock, edges centred in the bits.
+     *
+     * @param description the chain's description
+     * @param cap         the capture
+     * @param legTable    the merged leg skew table
+     * @return the chain model
+     */
+    public static Map<String, Object> packetLanes(String description, Capture cap, String legTable) {
+        LinkChains c = new LinkChains(description, cap).receivers(legTable, true);
+        int lanes = cap.dataLanes();
+        // the clock's edges sit in the middle of the data bits, and data change on both clock edges
+        c.node("lanes", "skew-estimate", "mode", "clock", "lanes", lanes, "alignment", "centre", "ddr", true);
+        c.wire("rx-" + cap.pairs().get(0).name() + ".edges", "lanes.clock");
+        for (int k = 0; k < lanes; k++) {
+            c.wire("rx-" + cap.pairs().get(k + 1).name() + ".edges", "lanes.lane" + k);
+        }
+        return c.model();
+    }
+
+    /**
+     * Pass 3 of a packet link: skews corrected; DDR sampling, packets, commands, init sequence, frames.
+     *
+     * @param description the chain's description
+     * @param cap         the capture
+     * @param legTable    the merged leg skew table
+     * @param laneTable   the merged lane skew table
+     * @return the chain model
+     */
+    public static Map<String, Object> packetDecode(String description, Capture cap, String legTable, String laneTable) {
+        LinkChains c = new LinkChains(description, cap).receivers(legTable, true).laneDeskew(laneTable);
+        int lanes = cap.dataLanes();
+        c.node("sampler", "dual-edge", "mode", "ddr", "lanes", lanes, "alignment", "center");
+        c.wire("lanes.out0", "sampler.clock");
+        for (int k = 0; k < lanes; k++) {
+            c.wire("lanes.out" + (k + 1), "sampler.lane" + k);
+        }
+        c.node("dsi", "packet-link", "lanes", lanes);
+        for (int k = 0; k < lanes; k++) {
+            Pair p = cap.pairs().get(k + 1);
+            c.wire("cap." + p.p(), "dsi.lane" + k + "p").wire("cap." + p.n(), "dsi.lane" + k + "n");
+        }
+        for (int k = 0; k < lanes; k++) {
+            c.wire("sampler.bits" + k, "dsi.bits" + k);
+        }
+        return c.model();
+    }
+}

@@ -1,0 +1,191 @@
+package org.lanesift.runner.link;
+
+import java.io.IOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.HashSet;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import org.lanesift.plugin.InputFormatException;
+import org.lanesift.plugin.OptionException;
+import org.lanesift.runner.capture.InspectReport;
+
+/**
+ * Which capture channels form which pair, and which pair is the clock: from a channel map given
+ * by the user ({@code --map} and/or {@code --map-file}), or found in what {@code inspect} reports
+ * (its anti-correlated pairs and regular clocks). A channel map lists one pair per entry as
+ * {@code NAME=P,N}; the first entry is the clock pair, the others are the data lanes in lane order.
+ */
+public final class LinkPairs {
+    private LinkPairs() {
+    }
+
+    /**
+     * Parses {@code --map} text: entries separated by spaces or semicolons.
+     *
+     * @param text  the option's value
+     * @param known the capture's channel names
+     * @return the pairs in the order given
+     * @throws OptionException naming the entry and what was expected
+     */
+    public static List<LinkChains.Pair> parseOption(String text, Set<String> known) {
+        List<LinkChains.Pair> out = new ArrayList<>();
+        for (String entry : text.trim().split("[;\\s]+")) {
+            if (entry.isEmpty()) {
+                continue;
+            }
+            String problem = problem(entry, known, out);
+            if (problem != null) {
+                throw new OptionException("map", "--map " + entry + ": " + problem);
+            }
+            out.add(pair(entry));
+        }
+        return out;
+    }
+
+    /**
+     * Reads a map file: one {@code NAME=P,N} per line, blank lines and {@code #} comments ignored.
+     *
+     * @param file  the map file
+     * @param known the capture's channel names
+     * @param into  the pairs given so far (by {@code --map}); the file's are added after them
+     * @throws InputFormatException naming the file and line
+     */
+    public static void parseFile(Path file, Set<String> known, List<LinkChains.Pair> into) {
+        List<String> lines;
+        try {
+            lines = Files.readAllLines(file, StandardCharsets.UTF_8);
+        } catch (IOException e) {
+            throw new InputFormatException(file + ": cannot read the channel map (expected a text file of NAME=P,N lines): "
+                    + e.getMessage(), e);
+        }
+        for (int i = 0; i < lines.size(); i++) {
+            String line = lines.get(i).replaceAll("#.*", "").trim();
+            if (line.isEmpty()) {
+                continue;
+            }
+            String problem = problem(line, known, into);
+            if (problem != null) {
+                throw new InputFormatException(file + ":" + (i + 1) + ": " + problem);
+            }
+            into.add(pair(line));
+        }
+    }
+
+    private static LinkChains.Pair pair(String entry) {
+        int eq = entry.indexOf('=');
+        String[] legs = entry.substring(eq + 1).split(",");
+        return new LinkChains.Pair(entry.substring(0, eq).trim(), legs[0].trim(), legs[1].trim());
+    }
+
+    /** What is wrong with one entry, or null. */
+    private static String problem(String entry, Set<String> known, List<LinkChains.Pair> before) {
+        int eq = entry.indexOf('=');
+        String[] legs = eq < 0 ? new String[0] : entry.substring(eq + 1).split(",", -1);
+        if (eq <= 0 || legs.length != 2 || legs[0].isBlank() || legs[1].isBlank()) {
+            return "expected NAME=P,N (a pair name, then the P and N channels), such as CLK=CH1,CH2";
+        }
+        String name = entry.substring(0, eq).trim();
+        if (!name.matches("[A-Za-z][A-Za-z0-9_]*")) {
+            return "pair name '" + name + "': expected a letter, then letters, digits or '_'";
+        }
+        for (String leg : legs) {
+            if (!known.contains(leg.trim())) {
+                return "no channel '" + leg.trim() + "' in the capture (it has " + String.join(", ", known) + ")";
+            }
+        }
+        for (LinkChains.Pair p : before) {
+            if (p.name().equals(name)) {
+                return "pair name '" + name + "' given twice";
+            }
+            for (String leg : legs) {
+                if (p.p().equals(leg.trim()) || p.n().equals(leg.trim())) {
+                    return "channel '" + leg.trim() + "' is already in pair " + p.name();
+                }
+            }
+        }
+        return null;
+    }
+
+    /**
+     * Finds the pairs in an inspect report: the anti-correlated pairs it found, then analog channels
+     * whose names differ only in a P/N ending (a data lane that idles in a single-ended state does
+     * not anti-correlate); the pair holding the steadiest clock comes first, the others follow in
+     * name order.
+     *
+     * @param r the inspect report of the capture
+     * @return the clock pair first, then the data pairs
+     * @throws InputFormatException when no clock pair or no data pair is found
+     */
+    public static List<LinkChains.Pair> find(InspectReport r) {
+        List<LinkChains.Pair> pairs = new ArrayList<>();
+        Set<String> used = new HashSet<>();
+        for (InspectReport.Pair p : r.pairs()) {
+            if (used.add(p.first()) && used.add(p.second())) {
+                pairs.add(oriented(p.first(), p.second()));
+            }
+        }
+        Map<String, String> byStem = new LinkedHashMap<>();
+        for (InspectReport.Channel c : r.channels()) {
+            String stem = stem(c.name());
+            if (!"ANALOG".equals(c.kind()) || used.contains(c.name()) || stem == null) {
+                continue;
+            }
+            String other = byStem.putIfAbsent(stem, c.name());
+            if (other != null && used.add(other) && used.add(c.name())) {
+                pairs.add(oriented(other, c.name()));
+            }
+        }
+        InspectReport.Clock clock = r.clocks().stream().min(Comparator.comparingDouble(InspectReport.Clock::periodCv)).orElse(null);
+        LinkChains.Pair clk = clock == null ? null : pairs.stream()
+                .filter(p -> p.p().equals(clock.channel()) || p.n().equals(clock.channel())).findFirst().orElse(null);
+        if (clk == null) {
+            throw new InputFormatException(r.file() + ": found no differential pair that carries a regular clock (pairs: "
+                    + pairs + "; clocks: " + r.clocks().stream().map(InspectReport.Clock::channel).toList()
+                    + "); give the channels with --map CLK=P,N D0=P,N ... or --map-file");
+        }
+        List<LinkChains.Pair> data = new ArrayList<>(pairs);
+        data.remove(clk);
+        if (data.isEmpty()) {
+            throw new InputFormatException(r.file() + ": found the clock pair " + clk.name()
+                    + " but no data pair; give the channels with --map CLK=P,N D0=P,N ... or --map-file");
+        }
+        data.sort(Comparator.comparing(LinkChains.Pair::name));
+        List<LinkChains.Pair> out = new ArrayList<>();
+        out.add(clk);
+        out.addAll(data);
+        return out;
+    }
+
+    /** The name without a P/N ending ("D0_P" -> "D0"), or null when it has none. */
+    static String stem(String name) {
+        String u = name.toUpperCase(java.util.Locale.ROOT);
+        for (String end : new String[] {"_P", "_N", "-P", "-N", "+", "-", "P", "N"}) {
+            if (u.endsWith(end) && u.length() > end.length()) {
+                String s = name.substring(0, name.length() - end.length());
+                return s.endsWith("_") || s.endsWith("-") ? s.substring(0, s.length() - 1) : s;
+            }
+        }
+        return null;
+    }
+
+    private static boolean isN(String name) {
+        String u = name.toUpperCase(java.util.Locale.ROOT);
+        return u.endsWith("N") || u.endsWith("-");
+    }
+
+    /** P first when the names say which is which, else in the order found; the pair is named after the stem. */
+    private static LinkChains.Pair oriented(String a, String b) {
+        String p = isN(a) && !isN(b) ? b : a;
+        String n = p.equals(a) ? b : a;
+        String stem = stem(p);
+        String name = stem != null && stem.equals(stem(n)) && stem.matches("[A-Za-z][A-Za-z0-9_]*") ? stem
+                : (p + "_" + n).replaceAll("[^A-Za-z0-9_]", "_");
+        return new LinkChains.Pair(name, p, n);
+    }
+}

@@ -1,0 +1,179 @@
+package org.lanesift.runner.link;
+
+import java.io.ByteArrayOutputStream;
+import java.io.IOException;
+import java.io.PrintStream;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.LinkedHashSet;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.Set;
+import org.lanesift.plugin.InputFormatException;
+import org.lanesift.plugin.OptionException;
+import org.lanesift.plugin.OptionSpec;
+import org.lanesift.plugin.OutputException;
+import org.lanesift.plugin.Tool;
+import org.lanesift.plugin.ToolArgs;
+import org.lanesift.plugin.ToolConsole;
+import org.lanesift.plugin.ToolSpec;
+import org.lanesift.runner.ChainRun;
+import org.lanesift.runner.capture.InspectReport;
+import org.lanesift.runner.capture.Inspector;
+
+/**
+ * {@code lanesift sift}: the whole job on one capture in one command. It finds the pairs and the
+ * clock (or takes a channel map), decides the link kind, derives the unit interval from the
+ * measured clock, writes the three chain files (leg skew, lane skew, decode) with paths relative
+ * to themselves, runs them, merges each estimation pass's tables for the next pass
+ * ({@link SkewTables}) and writes one report ({@link SiftReport}) that leads with the result.
+ */
+public final class SiftTool implements Tool {
+    /** Exit status of a run whose findings reach the {@code --fail-on} severity. */
+    public static final int EXIT_FINDINGS = 3;
+
+    static final ToolSpec SPEC = ToolSpec.builder("sift")
+            .summary("decodes a capture of a pixel or packet link in one run: pairs, skews, unit interval, decode, report")
+            .description("Finds the differential pairs and the clock pair (or takes --map / --map-file), estimates the skew",
+                    "between the legs of every pair and between every data pair and the clock, derives the unit interval",
+                    "from the measured clock (pixel link: clock period / 7; packet link: half the DDR clock period), chooses",
+                    "the slot mapping from the lane count and decodes. Writes OUT/report.md, OUT/report.json, the chain",
+                    "files it ran (OUT/chains, rerunnable with 'lanesift run') and every decoder output (OUT/decode).")
+            .required(OptionSpec.text("capture", null, "the capture: CSV, VCD with analog (real) signals, or raw binary with a JSON sidecar"),
+                    "FILE")
+            .option(OptionSpec.choice("link", "auto", "link kind: pixel (7:1 LVDS), packet (D-PHY/DSI-like) or auto",
+                    "auto", "pixel", "packet"), "KIND")
+            .option(OptionSpec.text("map", "", "channel map: NAME=P,N entries separated by spaces or ';', the clock pair first,"
+                    + " then the data lanes in order, such as \"CLK=CH1,CH2 D0=CH3,CH4\""), "MAP")
+            .option(OptionSpec.text("map-file", "", "channel map file: one NAME=P,N per line, '#' comments; added after --map"),
+                    "FILE")
+            .option(OptionSpec.text("out", "lanesift-sift", "output folder"), "DIR")
+            .flag("json", "print the report as JSON on standard output (also written to OUT/report.json)")
+            .option(OptionSpec.choice("fail-on", "none", "exit with status 3 when findings of this severity or worse exist:"
+                    + " none, warning or error", "none", "warning", "error"), "SEVERITY")
+            .footer("Exit codes: 0 decoded; 3 decoded, with findings at the --fail-on severity;",
+                    "2 bad input (capture, map, options); 1 internal error. See docs/sift.md.",
+                    "",
+                    "Safety: display flex cables and connectors are sensitive to electrostatic",
+                    "discharge (wrist strap, power down before plugging); a scope's ground lead is",
+                    "earthed: never clip it to a mains-referenced circuit. Follow local codes and",
+                    "licensed practice (README, Safety).")
+            .build();
+
+    /** Creates the tool (ServiceLoader). */
+    public SiftTool() {
+    }
+
+    @Override
+    public ToolSpec spec() {
+        return SPEC;
+    }
+
+    @Override
+    public int run(ToolArgs args, ToolConsole console) {
+        Path capture = Path.of(args.text("capture"));
+        if (!Files.isRegularFile(capture)) {
+            throw new OptionException("capture", "--capture " + capture + ": no such file (expected a capture: .csv, .vcd or raw"
+                    + " binary with a .json sidecar)");
+        }
+        Path out = Path.of(args.text("out"));
+        InspectReport inspect = Inspector.inspect(capture, Map.of());
+        List<LinkChains.Pair> pairs = pairs(args, inspect);
+        LinkFacts facts = LinkFacts.of(inspect, pairs, args.text("link"));
+        try {
+            SiftResult result = runPasses(capture, out, inspect.format(), pairs, facts, console);
+            if (result.failedExit != 0) {
+                return result.failedExit;
+            }
+            SiftReport report = SiftReport.read(out, capture, inspect, pairs, facts, result.notes, args);
+            Files.writeString(out.resolve("report.md"), report.markdown(), StandardCharsets.UTF_8);
+            String json = report.json();
+            Files.writeString(out.resolve("report.json"), json, StandardCharsets.UTF_8);
+            if (args.flag("json")) {
+                console.out().print(json);
+            } else if (!console.quiet()) {
+                console.out().print(report.headline());
+                console.out().println("report: " + out.resolve("report.md"));
+            }
+            String failOn = args.text("fail-on");
+            return report.reaches(failOn) ? EXIT_FINDINGS : 0;
+        } catch (IOException e) {
+            throw new OutputException("sift: " + out + ": " + e.getMessage(), e);
+        }
+    }
+
+    private static List<LinkChains.Pair> pairs(ToolArgs args, InspectReport inspect) {
+        Set<String> known = new LinkedHashSet<>();
+        inspect.channels().forEach(c -> known.add(c.name()));
+        List<LinkChains.Pair> pairs = new ArrayList<>(LinkPairs.parseOption(args.text("map"), known));
+        if (!args.text("map-file").isEmpty()) {
+            LinkPairs.parseFile(Path.of(args.text("map-file")), known, pairs);
+        }
+        if (pairs.isEmpty()) {
+            return LinkPairs.find(inspect);
+        }
+        if (pairs.size() < 2) {
+            throw new OptionException("map", "the channel map gives " + pairs.size() + " pair; expected the clock pair first and"
+                    + " at least one data pair");
+        }
+        return pairs;
+    }
+
+    /** What the passes left behind. */
+    private record SiftResult(int failedExit, List<String> notes) {
+    }
+
+    private static SiftResult runPasses(Path capture, Path out, String plugin, List<LinkChains.Pair> pairs, LinkFacts facts,
+                                        ToolConsole console) throws IOException {
+        Path chains = out.resolve("chains");
+        for (String d : new String[] {"chains", "skew", "work/1-legs", "work/2-lanes", "decode"}) {
+            Files.createDirectories(out.resolve(d));
+        }
+        String capRel = rel(chains, capture);
+        LinkChains.Capture cap = new LinkChains.Capture(plugin, capRel, pairs);
+        String legTable = "../skew/legs.json";
+        String laneTable = "../skew/lanes.json";
+        String what = facts.packet() ? "packet link" : "7:1 pixel link";
+        List<String> notes = new ArrayList<>();
+        ChainModels.write(chains.resolve("1-legs.json"), LinkChains.legs(what + ", pass 1: skew between the two legs of each pair", cap));
+        int code = run(chains.resolve("1-legs.json"), out.resolve("work/1-legs"), console);
+        if (code != 0) {
+            return new SiftResult(code, notes);
+        }
+        SkewTables.merge(out.resolve("work/1-legs"), "legs-", out.resolve("skew/legs.json"), notes);
+        ChainModels.write(chains.resolve("2-lanes.json"), facts.packet()
+                ? LinkChains.packetLanes(what + ", pass 2: legs corrected; skew of each data lane against the clock", cap, legTable)
+                : LinkChains.pixelLanes(what + ", pass 2: legs corrected; skew of each lane on the slot grid", cap, legTable,
+                        String.format(Locale.ROOT, "%.3fps", facts.unitIntervalFs() / 1e3)));
+        code = run(chains.resolve("2-lanes.json"), out.resolve("work/2-lanes"), console);
+        if (code != 0) {
+            return new SiftResult(code, notes);
+        }
+        SkewTables.merge(out.resolve("work/2-lanes"), "lanes", out.resolve("skew/lanes.json"), notes);
+        ChainModels.write(chains.resolve("3-decode.json"), facts.packet()
+                ? LinkChains.packetDecode(what + ", pass 3: skews corrected; DDR sampling, packets, commands, frames", cap,
+                        legTable, laneTable)
+                : LinkChains.pixelDecode(what + ", pass 3: skews corrected; 7:1 sampling, frames, timing, eye, jitter", cap,
+                        legTable, laneTable, facts.mapping()));
+        code = run(chains.resolve("3-decode.json"), out.resolve("decode"), console);
+        return new SiftResult(code, notes);
+    }
+
+    private static String rel(Path from, Path to) {
+        return from.toAbsolutePath().normalize().relativize(to.toAbsolutePath().normalize()).toString().replace('\\', '/');
+    }
+
+    private static int run(Path chain, Path outDir, ToolConsole console) {
+        ByteArrayOutputStream err = new ByteArrayOutputStream();
+        int code = ChainRun.of(chain).out(outDir).quiet(true).debug(console.debug())
+                .run(new PrintStream(new ByteArrayOutputStream(), true, StandardCharsets.UTF_8),
+                        new PrintStream(err, true, StandardCharsets.UTF_8));
+        if (code != 0) {
+            console.err().println("sift: chain " + chain + " (" + outDir + "): " + err.toString(StandardCharsets.UTF_8).trim());
+        }
+        return code;
+    }
+}
