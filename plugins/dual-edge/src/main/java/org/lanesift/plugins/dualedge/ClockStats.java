@@ -1,92 +1,64 @@
 package org.lanesift.plugins.dualedge;
 
+import org.lanesift.kit.SampleStats;
+
 /**
  * Running statistics of the recovered clock: same-direction intervals (the period, in
- * femtoseconds) and duty cycle (high time over the tracked period, a fraction). Intervals are
- * summed as offsets from the first one, so that the variance of a long capture keeps its digits.
+ * femtoseconds) and duty cycle (high time over the tracked period, a fraction), kept by the shared
+ * {@link SampleStats} (no values kept, so the memory is constant over any capture length).
  */
 final class ClockStats {
-    private long periodCount;
-    private double periodRef;
-    private double periodSum;
-    private double periodSumSq;
-    private double periodMin = Double.POSITIVE_INFINITY;
-    private double periodMax = Double.NEGATIVE_INFINITY;
-    private long dutyCount;
-    private double dutySum;
-    private double dutyMin = Double.POSITIVE_INFINITY;
-    private double dutyMax = Double.NEGATIVE_INFINITY;
+    private final SampleStats period = new SampleStats("fs", 0);
+    private final SampleStats duty = new SampleStats("", 0);
 
     /** @param intervalFs one same-direction interval, fs */
     void addPeriod(double intervalFs) {
-        if (periodCount == 0) {
-            periodRef = intervalFs;
-        }
-        periodCount++;
-        double dv = intervalFs - periodRef;
-        periodSum += dv;
-        periodSumSq += dv * dv;
-        if (intervalFs < periodMin) {
-            periodMin = intervalFs;
-        }
-        if (intervalFs > periodMax) {
-            periodMax = intervalFs;
-        }
+        period.add(intervalFs);
     }
 
-    /** @param duty one high time over the tracked period */
-    void addDuty(double duty) {
-        dutyCount++;
-        dutySum += duty;
-        if (duty < dutyMin) {
-            dutyMin = duty;
-        }
-        if (duty > dutyMax) {
-            dutyMax = duty;
-        }
+    /** @param dutyFraction one high time over the tracked period */
+    void addDuty(double dutyFraction) {
+        duty.add(dutyFraction);
     }
 
     /** Number of intervals measured. */
     long intervals() {
-        return periodCount;
+        return period.count();
     }
 
     /** Mean interval, fs, or {@code fallbackFs} when none was measured. */
     double periodMeanFs(double fallbackFs) {
-        return periodCount > 0 ? periodRef + periodSum / periodCount : fallbackFs;
+        return period.count() > 0 ? period.mean() : fallbackFs;
     }
 
-    /** Sample standard deviation of the intervals, fs; 0 with fewer than two. */
+    /** Sample standard deviation of the intervals (n - 1 in the denominator), fs; 0 with fewer than two. */
     double periodStdFs() {
-        if (periodCount < 2) {
-            return 0;
-        }
-        double v = (periodSumSq - periodSum * periodSum / periodCount) / (periodCount - 1);
-        return Math.sqrt(Math.max(0, v));
+        long n = period.count();
+        return n < 2 ? 0 : period.std() * Math.sqrt((double) n / (n - 1));
     }
 
     /** Shortest interval, fs, or NaN when none. */
     double periodMinFs() {
-        return periodCount > 0 ? periodMin : Double.NaN;
+        return period.min();
     }
 
     /** Longest interval, fs, or NaN when none. */
     double periodMaxFs() {
-        return periodCount > 0 ? periodMax : Double.NaN;
+        return period.max();
     }
 
     /** Mean duty cycle, or NaN when none was measured. */
     double dutyMean() {
-        return dutyCount > 0 ? dutySum / dutyCount : Double.NaN;
+        return duty.mean();
     }
 
     /** Lowest duty cycle, or NaN when none. */
     double dutyMin() {
-        return dutyCount > 0 ? dutyMin : Double.NaN;
+        return duty.min();
     }
 
     /** Highest duty cycle, or NaN when none. */
     double dutyMax() {
-        return dutyCount > 0 ? dutyMax : Double.NaN;
+        return duty.max();
     }
 }
