@@ -172,7 +172,8 @@ final class DeskewStage implements Stage {
                         + (long) MAX_DELAY_SAMPLES + " samples are supported");
             }
             final int out = c.index;
-            c.line = new AnalogDelayLine(kernel, s, blk -> ctx.emit(out, blk));
+            long[] m = sharedMargins(period);
+            c.line = new AnalogDelayLine(kernel, s, m[0], m[1], blk -> ctx.emit(out, blk));
         }
         c.resolved = true;
         ctx.annotate(Annotation.on(c.name, "skew-applied").span(b.startFs(), b.startFs())
@@ -180,13 +181,52 @@ final class DeskewStage implements Stage {
                 .number("offsetPs", c.offsetFs / Femtos.PER_PS, "ps").text("method", c.method).build());
     }
 
+    /**
+     * The largest kernel margins {front, end} over every offset this stage may apply, in samples of
+     * the given period: every channel leaves out the same samples at the capture ends, so channels
+     * that came in on one sample grid leave on one too.
+     */
+    private long[] sharedMargins(double period) {
+        List<Double> offsetsFs = new ArrayList<>();
+        if (table != null) {
+            for (SkewTable.Entry e : table.entries()) {
+                offsetsFs.add(e.offsetPs() * Femtos.PER_PS);
+            }
+        } else {
+            for (double v : given) {
+                offsetsFs.add(switch (unit) {
+                    case "ns" -> v * Femtos.PER_NS;
+                    case "samples" -> v * period;
+                    default -> v * Femtos.PER_PS;
+                });
+            }
+        }
+        long[] m = new long[2];
+        for (double fs : offsetsFs) {
+            double s = fs / period;
+            if (Math.abs(s) <= MAX_DELAY_SAMPLES) {
+                long[] k = AnalogDelayLine.margins(kernel, s);
+                m[0] = Math.max(m[0], k[0]);
+                m[1] = Math.max(m[1], k[1]);
+            }
+        }
+        return m;
+    }
+
     @Override
     public void finish() {
         List<SkewTable.Entry> rows = new ArrayList<>();
         java.util.Set<String> used = new java.util.HashSet<>();
+        StringBuilder margins = new StringBuilder();
+        long marginMax = 0;
         for (Channel c : ch) {
             if (c.line != null) {
                 c.line.finish();
+                long m = c.line.marginSamples();
+                if (m > 0) {
+                    margins.append(margins.length() == 0 ? "" : ", ").append(c.name).append(' ').append(m);
+                    marginMax = Math.max(marginMax, m);
+                }
             }
             if (c.resolved) {
                 // two inputs carrying the same channel name are told apart by their port name
@@ -197,6 +237,12 @@ final class DeskewStage implements Stage {
                 double fs = given.get(c.index) * (unit.equals("ns") ? Femtos.PER_NS : Femtos.PER_PS);
                 rows.add(new SkewTable.Entry("in" + c.index, fs / Femtos.PER_PS, 1, "manual", 0));
             }
+        }
+        if (marginMax > 0) {
+            // said once, as information: these samples were never the user's, the kernel needs neighbours on both sides
+            ctx.annotate(Annotation.on(ctx.instanceId(), "kernel-margin").span(firstFs, Math.max(firstFs, lastFs))
+                    .label("interpolation kernel: up to " + marginMax + " samples per channel at the capture ends not produced")
+                    .text("channels", margins.toString()).number("samples", marginMax, "").build());
         }
         if (ctx.isConnected(n)) {
             byte[] json = new SkewTable("manual", rows).toJson().getBytes(StandardCharsets.UTF_8);
