@@ -254,8 +254,8 @@ final class DualEdgeStage implements Stage {
     /**
      * Refuses a logic capture sampled too slowly for the link: once an input has
      * {@link SampleGrid#MIN_EDGES} edges queued, the grid they lie on (if any) must be finer than
-     * half a unit interval. Edges on the bit grid itself (a simulation or an exact generator whose
-     * times are whole unit intervals) lose nothing and pass.
+     * half a unit interval. Edges on the bit grid itself (grid = one UI: a simulation or an exact
+     * generator) lose nothing and pass; a grid of several UI is a capture that lost edges.
      */
     private void judgeGrid(double uiFs) {
         for (int k = 0; k <= lanes.length; k++) {
@@ -268,9 +268,8 @@ final class DualEdgeStage implements Stage {
             if (Double.isNaN(g) || g * SampleGrid.MIN_SAMPLES_PER_UI <= uiFs * (1 + 1e-6)) {
                 continue;
             }
-            double units = g / uiFs;
-            if (Math.abs(units - Math.rint(units)) < 0.01) {
-                continue; // edges on whole unit intervals: an exact source, nothing lost
+            if (Math.abs(g / uiFs - 1) < 0.01) {
+                continue; // edges on the bit grid itself: an exact source (a simulation), nothing lost
             }
             double minRate = SampleGrid.MIN_SAMPLES_PER_UI * 1e15 / uiFs;
             throw new org.lanesift.plugin.InputFormatException(String.format(Locale.ROOT,

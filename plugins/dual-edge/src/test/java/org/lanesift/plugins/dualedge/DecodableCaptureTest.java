@@ -76,6 +76,29 @@ class DecodableCaptureTest {
         assertTrue(msg.contains("100 MS/s") && msg.contains("280 MS/s") && msg.contains("7.143 ns"), msg);
     }
 
+    /**
+     * An exact source (a simulation: every edge on a whole unit interval, here 1 ns) passes; the
+     * same link taken at 100 MS/s, a grid of exactly 10 UI, is refused all the same.
+     */
+    @Test
+    void edgesOnTheBitGridPassButAGridOfSeveralUnitIntervalsDoesNot() {
+        LinkSim sim = LinkSim.sevenToOne(7_000_000, 400, 3); // UI exactly 1 ns, edges on whole ns
+        sim.build();
+        Run r = Run.whole(SEVEN, sim.clock(), sim.lane(0), sim.lane(1), sim.lane(2));
+        assertTrue(r.lanes.get(0).size() > 300 * 7);
+        long grid = 10_000_000;
+        RuntimeException e = assertThrows(RuntimeException.class, () -> Run.whole(SEVEN, onGrid(sim.clock(), grid),
+                onGrid(sim.lane(0), grid), onGrid(sim.lane(1), grid), onGrid(sim.lane(2), grid)));
+        // the 7 ns clock is itself aliased at 10 ns a sample, so the unit interval the message states is
+        // that of the clock as captured; the refusal and the capture's rate are what must hold
+        Throwable c = e;
+        while (c != null && !(c instanceof InputFormatException)) {
+            c = c.getCause();
+        }
+        assertTrue(c instanceof InputFormatException, String.valueOf(e));
+        assertTrue(c.getMessage().contains("sample grid (100 MS/s)"), c.getMessage());
+    }
+
     /** At 400 MS/s (2.8 samples per UI) the same link decodes bit for bit, with the same grid check passed. */
     @Test
     void aLogicCaptureAboveTheMinimumRateDecodes() {
