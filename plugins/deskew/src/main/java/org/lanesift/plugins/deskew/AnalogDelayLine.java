@@ -15,8 +15,8 @@ import org.lanesift.data.BitSets;
  * (an advance) or the kernel's look-ahead holds back the last few samples until the next block or
  * {@link #finish}. Output samples whose kernel reaches before the first or after the last input
  * sample of a contiguous run (the kernel margins) are not produced: the output run starts and ends
- * a few samples inside the input run, and {@link #marginSamples()} counts what was left out, so the
- * stage can say so once instead of handing on samples it made up. Output samples whose kernel
+ * a few samples inside the input run ({@link #margins}), so the stage can say so once instead of
+ * handing on samples it made up. Output samples whose kernel
  * touches an invalid input sample are marked invalid (their value uses the nearest input sample).
  * A gap in the input (a block that does not start one period after the previous one) ends the run
  * and starts a new one.
@@ -50,7 +50,6 @@ final class AnalogDelayLine {
     private long bufStart;      // run index of buf[0]
     private int bufLen;
     private long lastBadIndex = Long.MIN_VALUE; // highest run index of an invalid entry in buf
-    private long marginSamples; // output samples left out at run ends (kernel margins), all runs
     private final long frontMargin; // outputs left out at a run's start (its kernel reaches before the run, or a shared margin)
     private final long endMargin;   // outputs left out at a run's end
 
@@ -107,10 +106,6 @@ final class AnalogDelayLine {
         return delaySamples;
     }
 
-    /** Output samples left out so far because the kernel reached past the ends of an input run. */
-    long marginSamples() {
-        return marginSamples;
-    }
 
 
     /**
@@ -282,17 +277,14 @@ final class AnalogDelayLine {
     }
 
     /**
-     * Ends the current run: emits every output whose kernel lies inside the run and counts the
-     * kernel margins left out at both ends.
+     * Ends the current run: emits every output whose kernel lies inside the run (the kernel
+     * margins at both ends are left out).
      */
     void finish() {
         if (!open) {
             return;
         }
-        long end = Math.max(0, received - endMargin);
-        long produced = Math.max(0, end - frontMargin);
-        produce(end);
-        marginSamples += received - produced;
+        produce(Math.max(0, received - endMargin));
         open = false;
         buf = new float[0];
         bad = new byte[0];

@@ -37,6 +37,7 @@ final class DeskewStage implements Stage {
     private final Channel[] ch;
     private long firstFs = Long.MAX_VALUE;
     private long lastFs = Long.MIN_VALUE;
+    private boolean marginNoted;
 
     private final class Channel {
         final int index;
@@ -173,6 +174,15 @@ final class DeskewStage implements Stage {
             }
             final int out = c.index;
             long[] m = sharedMargins(period);
+            if (!marginNoted && m[0] + m[1] > 0) {
+                // said once, as information, when the first channel starts: these samples were never the user's (the
+                // kernel needs neighbours on both sides); in a segmented run only the first segment's note is kept
+                marginNoted = true;
+                ctx.annotate(Annotation.on(ctx.instanceId(), "kernel-margin").span(b.startFs(), b.startFs())
+                        .label("interpolation kernel: the first " + m[0] + " and the last " + m[1]
+                                + " samples of every channel are not produced")
+                        .number("startSamples", m[0], "").number("endSamples", m[1], "").number("channels", n, "").build());
+            }
             c.line = new AnalogDelayLine(kernel, s, m[0], m[1], blk -> ctx.emit(out, blk));
         }
         c.resolved = true;
@@ -217,16 +227,9 @@ final class DeskewStage implements Stage {
     public void finish() {
         List<SkewTable.Entry> rows = new ArrayList<>();
         java.util.Set<String> used = new java.util.HashSet<>();
-        StringBuilder margins = new StringBuilder();
-        long marginMax = 0;
         for (Channel c : ch) {
             if (c.line != null) {
                 c.line.finish();
-                long m = c.line.marginSamples();
-                if (m > 0) {
-                    margins.append(margins.length() == 0 ? "" : ", ").append(c.name).append(' ').append(m);
-                    marginMax = Math.max(marginMax, m);
-                }
             }
             if (c.resolved) {
                 // two inputs carrying the same channel name are told apart by their port name
@@ -237,12 +240,6 @@ final class DeskewStage implements Stage {
                 double fs = given.get(c.index) * (unit.equals("ns") ? Femtos.PER_NS : Femtos.PER_PS);
                 rows.add(new SkewTable.Entry("in" + c.index, fs / Femtos.PER_PS, 1, "manual", 0));
             }
-        }
-        if (marginMax > 0) {
-            // said once, as information: these samples were never the user's, the kernel needs neighbours on both sides
-            ctx.annotate(Annotation.on(ctx.instanceId(), "kernel-margin").span(firstFs, Math.max(firstFs, lastFs))
-                    .label("interpolation kernel: up to " + marginMax + " samples per channel at the capture ends not produced")
-                    .text("channels", margins.toString()).number("samples", marginMax, "").build());
         }
         if (ctx.isConnected(n)) {
             byte[] json = new SkewTable("manual", rows).toJson().getBytes(StandardCharsets.UTF_8);
