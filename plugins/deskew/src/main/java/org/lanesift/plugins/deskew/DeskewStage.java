@@ -179,11 +179,13 @@ final class DeskewStage implements Stage {
                 // kernel needs neighbours on both sides); in a segmented run only the first segment's note is kept
                 marginNoted = true;
                 ctx.annotate(Annotation.on(ctx.instanceId(), "kernel-margin").span(b.startFs(), b.startFs())
-                        .label("interpolation kernel: the first " + m[0] + " and the last " + m[1]
+                        .label("interpolation kernel: the first " + m[0] + " and at most the last " + m[1]
                                 + " samples of every channel are not produced")
                         .number("startSamples", m[0], "").number("endSamples", m[1], "").number("channels", n, "").build());
             }
-            c.line = new AnalogDelayLine(kernel, s, m[0], m[1], blk -> ctx.emit(out, blk));
+            // every channel starts on the same sample (a later stage may need the legs to start together); each ends
+            // where its own kernel allows, so blocks are cut where they were before the margins were left out
+            c.line = new AnalogDelayLine(kernel, s, m[0], 0, blk -> ctx.emit(out, blk));
         }
         c.resolved = true;
         ctx.annotate(Annotation.on(c.name, "skew-applied").span(b.startFs(), b.startFs())
