@@ -110,9 +110,10 @@ public final class LinkChains {
             } else {
                 // data lanes spend most of the time in low-power states (difference near 0 V in LP-11):
                 // a fixed threshold with hysteresis instead of one learned from the histogram; the
-                // low-power levels are checked by the packet-link decoder, not here
+                // high-speed levels are checked here (the dphy-hs profile leaves LP-01/LP-10 samples
+                // out of the level statistics), the low-power levels by the packet-link decoder
                 node(id, "differential", "mode", "pair", "name", pr.name(), "thresholdVolts", 0.0, "hysteresisVolts", 0.05,
-                        "levelProfile", "none");
+                        "levelProfile", "dphy-hs");
             }
             wire("legs.out" + (2 * k), id + ".p").wire("legs.out" + (2 * k + 1), id + ".n");
         }

@@ -14,9 +14,12 @@ import org.lanesift.data.BitSets;
  * output samples. Output is emitted as soon as the input it needs has arrived: a negative delay
  * (an advance) or the kernel's look-ahead holds back the last few samples until the next block or
  * {@link #finish}. Output samples whose kernel reaches before the first or after the last input
- * sample of a contiguous run, or touches an invalid input sample, are marked invalid (their value
- * uses the nearest input sample). A gap in the input (a block that does not start one period after
- * the previous one) ends the run and starts a new one.
+ * sample of a contiguous run (the kernel margins) are not produced: the output run starts and ends
+ * a few samples inside the input run ({@link #margins}), so the stage can say so once instead of
+ * handing on samples it made up. Output samples whose kernel
+ * touches an invalid input sample are marked invalid (their value uses the nearest input sample).
+ * A gap in the input (a block that does not start one period after the previous one) ends the run
+ * and starts a new one.
  */
 final class AnalogDelayLine {
     private static final int CHUNK = 1024;
@@ -44,10 +47,11 @@ final class AnalogDelayLine {
     private long nextOut;       // next output index to produce
     private float[] buf = new float[0];
     private byte[] bad = new byte[0];
-    private long bufStart;      // run index of buf[0] (negative for front padding)
+    private long bufStart;      // run index of buf[0]
     private int bufLen;
     private long lastBadIndex = Long.MIN_VALUE; // highest run index of an invalid entry in buf
-    private float lastValue;    // the run's latest input sample, for end padding
+    private final long frontMargin; // outputs left out at a run's start (its kernel reaches before the run, or a shared margin)
+    private final long endMargin;   // outputs left out at a run's end
 
     /**
      * Creates a delay line.
@@ -57,6 +61,20 @@ final class AnalogDelayLine {
      * @param out          receives output blocks
      */
     AnalogDelayLine(DelayKernel kernel, double delaySamples, Consumer<AnalogBlock> out) {
+        this(kernel, delaySamples, 0, 0, out);
+    }
+
+    /**
+     * Creates a delay line that leaves out at least the given margins at the run ends, so that
+     * several channels delayed by different amounts still start and end on the same sample.
+     *
+     * @param kernel       interpolation kernel
+     * @param delaySamples delay in samples; positive delays, negative advances
+     * @param minFront     output samples left out at least at the start of a run
+     * @param minEnd       output samples left out at least at the end of a run
+     * @param out          receives output blocks
+     */
+    AnalogDelayLine(DelayKernel kernel, double delaySamples, long minFront, long minEnd, Consumer<AnalogBlock> out) {
         this.kernel = kernel;
         this.delaySamples = delaySamples;
         this.out = out;
@@ -71,11 +89,24 @@ final class AnalogDelayLine {
         this.lo = kernel.lo(mu);
         this.hi = kernel.hi(mu);
         this.taps = kernel.taps(mu);
+        this.frontMargin = Math.max(minFront, Math.max(0, -((long) fl + lo)));
+        this.endMargin = Math.max(minEnd, Math.max(0, (long) fl + hi));
+    }
+
+    /**
+     * The kernel margins of a delay: {front, end}, the output samples at the start and at the end
+     * of a run whose kernel reaches past the run's input.
+     */
+    static long[] margins(DelayKernel kernel, double delaySamples) {
+        AnalogDelayLine l = new AnalogDelayLine(kernel, delaySamples, b -> { });
+        return new long[] {l.frontMargin, l.endMargin};
     }
 
     double delaySamples() {
         return delaySamples;
     }
+
+
 
     /**
      * Takes the next input block.
@@ -96,8 +127,7 @@ final class AnalogDelayLine {
             start(b);
         }
         append(b);
-        long end = Math.min(received, received - fl - hi);
-        produce(end);
+        produce(received - endMargin);
     }
 
     private void start(AnalogBlock b) {
@@ -107,22 +137,10 @@ final class AnalogDelayLine {
         originIndex = b.firstIndex();
         periodFs = b.periodFs();
         received = 0;
-        nextOut = 0;
-        long first = Math.min(0, (long) fl + lo);
-        bufStart = first;
+        nextOut = frontMargin; // the outputs before it would read the front padding only partly real
+        bufStart = 0;
         bufLen = 0;
         lastBadIndex = Long.MIN_VALUE;
-        int pad = (int) -first;
-        ensure(pad + b.length());
-        float v0 = b.volts()[0];
-        for (int i = 0; i < pad; i++) {
-            buf[i] = v0;
-            bad[i] = 1;
-        }
-        bufLen = pad;
-        if (pad > 0) {
-            lastBadIndex = -1;
-        }
     }
 
     private void append(AnalogBlock b) {
@@ -156,7 +174,6 @@ final class AnalogDelayLine {
         }
         bufLen += n;
         received += n;
-        lastValue = buf[bufLen - 1];
     }
 
     private void ensure(int cap) {
@@ -259,24 +276,15 @@ final class AnalogDelayLine {
         }
     }
 
-    /** Ends the current run: pads its end with the last sample (marked invalid) and emits the rest. */
+    /**
+     * Ends the current run: emits every output whose kernel lies inside the run (the kernel
+     * margins at both ends are left out).
+     */
     void finish() {
         if (!open) {
             return;
         }
-        long needEnd = received - 1 + fl + hi; // highest run index needed by the last output, inclusive
-        if (needEnd >= received) {
-            int pad = (int) (needEnd - received + 1);
-            ensure(bufLen + pad);
-            float last = lastValue;
-            for (int i = 0; i < pad; i++) {
-                buf[bufLen + i] = last;
-                bad[bufLen + i] = 1;
-            }
-            bufLen += pad;
-            lastBadIndex = received + pad - 1;
-        }
-        produce(received);
+        produce(Math.max(0, received - endMargin));
         open = false;
         buf = new float[0];
         bad = new byte[0];

@@ -40,6 +40,7 @@ final class DeskewStage implements Stage {
     private final Channel[] ch;
     private long firstFs = Long.MAX_VALUE;
     private long lastFs = Long.MIN_VALUE;
+    private boolean marginNoted;
 
     private final class Channel {
         final int index;
@@ -177,7 +178,19 @@ final class DeskewStage implements Stage {
                         + (long) MAX_DELAY_SAMPLES + " samples are supported");
             }
             final int out = c.index;
-            c.line = new AnalogDelayLine(kernel, s, blk -> ctx.emit(out, blk));
+            long[] m = sharedMargins(period);
+            if (!marginNoted && m[0] + m[1] > 0) {
+                // said once, as information, when the first channel starts: these samples were never the user's (the
+                // kernel needs neighbours on both sides); in a segmented run only the first segment's note is kept
+                marginNoted = true;
+                ctx.annotate(Annotation.on(ctx.instanceId(), "kernel-margin").span(b.startFs(), b.startFs())
+                        .label("interpolation kernel: the first " + m[0] + " and at most the last " + m[1]
+                                + " samples of every channel are not produced")
+                        .number("startSamples", m[0], "").number("endSamples", m[1], "").number("channels", n, "").build());
+            }
+            // every channel starts on the same sample (a later stage may need the legs to start together); each ends
+            // where its own kernel allows, so blocks are cut where they were before the margins were left out
+            c.line = new AnalogDelayLine(kernel, s, m[0], 0, blk -> ctx.emit(out, blk));
         }
         c.resolved = true;
         ctx.annotate(Annotation.on(c.name, "skew-applied").span(b.startFs(), b.startFs())
@@ -194,6 +207,38 @@ final class DeskewStage implements Stage {
                     .number("offsetPs", c.offsetFs / Femtos.PER_PS, "ps").number("confidence", c.confidence, "")
                     .text("reason", c.suspect).build());
         }
+    }
+
+    /**
+     * The largest kernel margins {front, end} over every offset this stage may apply, in samples of
+     * the given period: every channel leaves out the same samples at the capture ends, so channels
+     * that came in on one sample grid leave on one too.
+     */
+    private long[] sharedMargins(double period) {
+        List<Double> offsetsFs = new ArrayList<>();
+        if (table != null) {
+            for (SkewTable.Entry e : table.entries()) {
+                offsetsFs.add(e.offsetPs() * Femtos.PER_PS);
+            }
+        } else {
+            for (double v : given) {
+                offsetsFs.add(switch (unit) {
+                    case "ns" -> v * Femtos.PER_NS;
+                    case "samples" -> v * period;
+                    default -> v * Femtos.PER_PS;
+                });
+            }
+        }
+        long[] m = new long[2];
+        for (double fs : offsetsFs) {
+            double s = fs / period;
+            if (Math.abs(s) <= MAX_DELAY_SAMPLES) {
+                long[] k = AnalogDelayLine.margins(kernel, s);
+                m[0] = Math.max(m[0], k[0]);
+                m[1] = Math.max(m[1], k[1]);
+            }
+        }
+        return m;
     }
 
     @Override

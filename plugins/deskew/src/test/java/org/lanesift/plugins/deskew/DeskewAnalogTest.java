@@ -34,34 +34,71 @@ class DeskewAnalogTest {
         return v;
     }
 
-    record Out(float[] v, boolean[] valid, List<AnalogBlock> blocks) {
+    /**
+     * The output placed on the input's sample indices: {@code produced[i]} says whether output
+     * sample i exists at all (the kernel margins at run ends are left out), {@code valid[i]} whether
+     * it exists and is valid; {@code v[i]} is 0 where nothing was produced.
+     */
+    record Out(float[] v, boolean[] valid, boolean[] produced, List<AnalogBlock> blocks) {
+        int producedCount() {
+            int c = 0;
+            for (boolean p : produced) {
+                c += p ? 1 : 0;
+            }
+            return c;
+        }
     }
 
     static Out run(List<AnalogBlock> in, Map<String, ?> opts) {
         try (StageHarness h = StageHarness.of(new DeskewPlugin(), opts)) {
+            long last = 0;
             for (AnalogBlock b : in) {
                 h.push("in0", b);
+                last = Math.max(last, b.firstIndex() + b.length());
             }
             h.finish();
-            return collect(h.outputs("out0", AnalogBlock.class));
+            long origin = in.get(0).firstIndex();
+            return collect(h.outputs("out0", AnalogBlock.class), origin, (int) (last - origin));
         }
     }
 
-    static Out collect(List<AnalogBlock> blocks) {
-        int n = 0;
-        for (AnalogBlock b : blocks) {
-            n += b.length();
-        }
+    static Out collect(List<AnalogBlock> blocks, long originIndex, int n) {
         float[] v = new float[n];
         boolean[] ok = new boolean[n];
-        int k = 0;
+        boolean[] made = new boolean[n];
         for (AnalogBlock b : blocks) {
-            for (int i = 0; i < b.length(); i++) {
+            int k = (int) (b.firstIndex() - originIndex);
+            for (int i = 0; i < b.length(); i++, k++) {
+                assertFalse(made[k], "output sample " + k + " produced twice");
                 v[k] = b.volts()[i];
-                ok[k++] = b.isValid(i);
+                ok[k] = b.isValid(i);
+                made[k] = true;
             }
         }
-        return new Out(v, ok, blocks);
+        return new Out(v, ok, made, blocks);
+    }
+
+    /** Whole samples of delay plus the 16-tap kernel: the most an output run may lose at one end. */
+    static int marginBound(double offsetPs) {
+        return 16 + (int) Math.ceil(Math.abs(offsetPs) * 1e-12 * RATE);
+    }
+
+    /** Outputs are missing only in one run at each end, each at most the delay plus a kernel length long. */
+    static void assertMarginsOnlyAtTheEnds(Out o, double offsetPs) {
+        int n = o.produced.length;
+        int first = 0;
+        while (first < n && !o.produced[first]) {
+            first++;
+        }
+        int last = n - 1;
+        while (last >= 0 && !o.produced[last]) {
+            last--;
+        }
+        int bound = marginBound(offsetPs);
+        assertTrue(first <= bound && n - 1 - last <= bound, "margins " + first + " and " + (n - 1 - last) + " samples");
+        for (int i = first; i <= last; i++) {
+            assertTrue(o.produced[i], "output sample " + i + " missing inside the run");
+        }
     }
 
     /**
@@ -75,7 +112,8 @@ class DeskewAnalogTest {
         int n = 20_000;
         AnalogBlock x = Synth.analog("d0p", RATE, n, DeskewAnalogTest::signal);
         Out o = run(Synth.split(x, 4096, 777, 10_000), Map.of("kind", "analog", "channels", 1, "offsets", List.of(offsetPs)));
-        assertEquals(n, o.v.length, "one output sample per input sample");
+        assertMarginsOnlyAtTheEnds(o, offsetPs);
+        assertTrue(o.producedCount() > n - 2 * marginBound(offsetPs), "produced " + o.producedCount());
         double se = 0;
         int cnt = 0;
         for (int i = 0; i < n; i++) {
@@ -134,11 +172,12 @@ class DeskewAnalogTest {
         Out parts = run(Synth.split(x, sz), opts);
         assertArrayEquals(whole.v, parts.v);
         assertArrayEquals(whole.valid, parts.valid);
-        assertOnInputGrid(parts.blocks, x);
+        assertOnInputGrid(parts.blocks, x, offsetPs);
     }
 
-    static void assertOnInputGrid(List<AnalogBlock> out, AnalogBlock x) {
-        long idx = 0;
+    static void assertOnInputGrid(List<AnalogBlock> out, AnalogBlock x, double offsetPs) {
+        long idx = out.get(0).firstIndex() - x.firstIndex();
+        assertTrue(idx >= 0 && idx <= marginBound(offsetPs), "front margin " + idx);
         for (AnalogBlock b : out) {
             assertEquals(x.periodFs(), b.periodFs());
             assertEquals(idx, b.firstIndex() - x.firstIndex());
@@ -216,10 +255,51 @@ class DeskewAnalogTest {
         long later = a.endFs() + 50_000_000L; // 50 ns gap
         AnalogBlock b = new AnalogBlock("g", 5000, later, b0.periodFs(), b0.volts(), 1000, null);
         Out o = run(List.of(a, b), Map.of("channels", 1, "offsets", List.of(250.0)));
-        assertEquals(2000, o.v.length);
         AnalogBlock last = o.blocks.get(o.blocks.size() - 1);
-        assertTrue(o.blocks.stream().anyMatch(k -> k.startFs() == later), "second run starts on its own grid");
+        AnalogBlock second = o.blocks.stream().filter(k -> k.firstIndex() >= 5000).findFirst().orElseThrow();
+        long m = second.firstIndex() - 5000;
+        assertTrue(m > 0 && m <= 16, "the second run starts after its own kernel margin: " + m);
+        assertEquals(later + Math.round(m * b0.periodFs()), second.startFs(), "second run starts on its own grid");
         assertEquals(later + Math.round((last.firstIndex() - 5000) * b0.periodFs()), last.startFs());
-        assertFalse(o.valid[1000], "first samples after the gap have no history");
+        for (int i = 0; i < 6000; i++) {
+            assertTrue(!o.produced()[i] || o.valid()[i], "produced samples of clean runs are valid: " + i);
+        }
+        // each run loses a margin at both ends: its first samples after the gap have no history
+        assertFalse(o.produced()[5000]);
+        assertFalse(o.produced()[999]);
+    }
+
+    /** The samples the kernel cannot make at the capture ends are said once, as information, naming every channel. */
+    @org.junit.jupiter.api.Test
+    void kernelMarginsAreStatedOnceAsInformation() {
+        AnalogBlock a = Synth.analog("m0", RATE, 2000, DeskewAnalogTest::signal);
+        AnalogBlock b = Synth.analog("m1", RATE, 2000, DeskewAnalogTest::signal);
+        try (StageHarness h = StageHarness.of(new DeskewPlugin(), Map.of("channels", 2, "offsets", List.of(35.0, -120.0)))) {
+            for (int k = 0; k < 2; k++) {
+                h.push("in0", Synth.split(a, 1000).get(k));
+                h.push("in1", Synth.split(b, 1000).get(k));
+            }
+            h.finish();
+            var notes = h.annotations("kernel-margin");
+            assertEquals(1, notes.size(), notes.toString());
+            var note = notes.get(0);
+            assertEquals(org.lanesift.annotation.Severity.INFO, note.severity());
+            long front = ((Number) note.fields().get("startSamples").value()).longValue();
+            long end = ((Number) note.fields().get("endSamples").value()).longValue();
+            assertEquals(2L, ((Number) note.fields().get("channels").value()).longValue());
+            for (String port : List.of("out0", "out1")) {
+                List<AnalogBlock> outs = h.outputs(port, AnalogBlock.class);
+                int produced = 0;
+                for (AnalogBlock o : outs) {
+                    produced += o.length();
+                    assertTrue(o.invalid() == null || org.lanesift.data.BitSets.count(o.invalid(), o.length()) == 0,
+                            "no output of a clean input is marked invalid");
+                }
+                // what the note says is what was left out, the same on both channels
+                assertEquals(front, outs.get(0).firstIndex(), port);
+                assertTrue(produced >= 2000 - front - end && produced < 2000 - front, port + ": " + produced);
+            }
+            assertTrue(front + end > 0 && front + end <= 2 * marginBound(120), front + "+" + end);
+        }
     }
 }

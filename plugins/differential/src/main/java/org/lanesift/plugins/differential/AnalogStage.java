@@ -140,7 +140,8 @@ final class AnalogStage implements Stage, LegAligner.Sink {
             float half = cmp.hysteresis() / 2;
             float settled = Math.max(half, tracker.settledHalfBand());
             cmp.runSegment(pos, e);
-            window.add(c.a(), c.ao(), c.b(), c.bo(), base, pos, e, bits, cmp.chunkInvalid(), thr, half, settled, s.statsStride);
+            window.add(c.a(), c.ao(), c.b(), c.bo(), base, pos, e, bits, cmp.chunkInvalid(), thr, half, settled, s.statsStride,
+                    s.profile.levelMaxAbsVolts());
             pos = e;
             if (base + e == winEnd) {
                 endWindow();

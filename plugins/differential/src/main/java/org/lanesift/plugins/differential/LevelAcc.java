@@ -6,7 +6,9 @@ import org.lanesift.kit.DitheredStride;
  * Level statistics over a span of samples, split by the comparator's state: for the low (0) and
  * high (1) state the count, sum, sum of squares, minimum and maximum of the difference (volts), and
  * the same sums for the common mode {@code (p + n) / 2} when both legs are known. Samples inside
- * the hysteresis band (in transition) are left out, so the means are the settled levels.
+ * the hysteresis band (in transition) are left out, so the means are the settled levels. Samples
+ * whose difference is beyond {@code maxAbsVolts} are left out too: on a D-PHY lane those are
+ * low-power states (LP-01 reads -1.2 V differential), which are no high-speed levels.
  */
 final class LevelAcc {
     final long[] n = new long[2];
@@ -50,9 +52,10 @@ final class LevelAcc {
      * @param half   half the hysteresis band: samples closer to the threshold are on an edge
      * @param settled half the band outside which samples count as settled on a level (at least {@code half})
      * @param stride one sample is taken in each run of this many, 1 for every sample
+     * @param maxAbsVolts samples whose difference is larger in magnitude are left out (infinity: none)
      */
     void add(float[] a, int ao, float[] b, int bo, long base, int s0, int s1, long[] bits, long[] inv, float thr,
-             float half, float settled, int stride) {
+             float half, float settled, int stride, float maxAbsVolts) {
         samples += s1 - s0;
         // accumulate in locals (registers), in the same order as one sample at a time, and write back once, so the
         // sums do not depend on where the segments start
@@ -99,7 +102,7 @@ final class LevelAcc {
             float y = b == null ? 0f : b[bo + i];
             float d = b == null ? x : x - y;
             float dist = Math.abs(d - thr);
-            if (dist < half) {
+            if (dist < half || Math.abs(d) > maxAbsVolts) {
                 continue;
             }
             double cm = 0.5 * ((double) x + y);

@@ -49,6 +49,17 @@ enum LevelProfile {
         this.checks = checks;
     }
 
+    /**
+     * Largest difference magnitude of a sample that counts for the level statistics, volts. For
+     * {@code dphy-hs}, twice the largest high-speed swing, 2 x 270 mV (MIPI D-PHY from memory,
+     * docs/reference-facts.md#d-phy-levels-and-states): no high-speed level reaches it even with
+     * full overshoot, while a low-power LP-01 or LP-10 state reads about -1.2 or +1.2 V
+     * differential and would pull the settled low or high level. Other profiles: no limit.
+     */
+    float levelMaxAbsVolts() {
+        return this == DPHY_HS ? 0.540f : Float.POSITIVE_INFINITY;
+    }
+
     static LevelProfile of(String id) {
         for (LevelProfile p : values()) {
             if (p.id.equals(id)) {

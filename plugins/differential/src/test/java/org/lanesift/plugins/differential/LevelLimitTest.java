@@ -163,4 +163,49 @@ class LevelLimitTest {
         assertEquals(Severity.ERROR, h2.annotations("level-check").stream()
                 .filter(a -> a.fields().get("quantity").value().equals("lp-high")).findFirst().orElseThrow().severity());
     }
+
+    /**
+     * A D-PHY data lane between bursts: each burst of 200 mV high-speed swing around 200 mV
+     * (legs 100/300 mV) starts with LP-11 (both legs 1.2 V), LP-01 (p 0 V, n 1.2 V: -1.2 V
+     * differential) and LP-00 (MIPI D-PHY entry sequence, docs/reference-facts.md#d-phy-levels-and-states,
+     * from memory). The low-power states are no high-speed levels: |VOD| low must read 200 mV, not
+     * the mean with the LP-01 samples (which would be about 0.2 + 0.25 * 1.0 V here), and delta-VOD
+     * stays near 0.
+     */
+    @Test
+    void lowPowerStatesAreNoHighSpeedLevels() {
+        float[] p = new float[N];
+        float[] n = new float[N];
+        for (int i = 0; i < N; i++) {
+            int phase = i % 400;
+            if (phase < 50) { // LP-11
+                p[i] = 1.2f;
+                n[i] = 1.2f;
+            } else if (phase < 100) { // LP-01
+                p[i] = 0f;
+                n[i] = 1.2f;
+            } else if (phase < 150) { // LP-00
+                p[i] = 0f;
+                n[i] = 0f;
+            } else { // HS: 200 mV swing around 200 mV, 10 samples a bit
+                boolean high = ((phase - 150) / 10) % 2 == 1;
+                p[i] = high ? 0.3f : 0.1f;
+                n[i] = high ? 0.1f : 0.3f;
+            }
+        }
+        StageHarness h = TestSignals.runPair(Map.of("levelProfile", "dphy-hs", "thresholdVolts", 0.0, "hysteresisVolts", 0.05),
+                new AnalogBlock("p", 0, 0, 1e6, p, N, null), new AnalogBlock("n", 0, 0, 1e6, n, N, null));
+        Map<String, Double> value = new HashMap<>();
+        Map<String, Severity> verdict = new HashMap<>();
+        for (Annotation a : h.annotations("level-check")) {
+            String q = (String) a.fields().get("quantity").value();
+            value.put(q, ((Number) a.fields().get("valueVolts").value()).doubleValue());
+            verdict.put(q, a.severity());
+        }
+        assertEquals(0.200, value.get("vod-low"), 0.002, value.toString());
+        assertEquals(0.200, value.get("vod-high"), 0.002, value.toString());
+        assertEquals(0.200, value.get("vos"), 0.002, value.toString());
+        assertEquals(Severity.INFO, verdict.get("vod-low"));
+        assertEquals(Severity.INFO, verdict.get("vos"));
+    }
 }

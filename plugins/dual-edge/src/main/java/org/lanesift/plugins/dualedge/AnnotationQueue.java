@@ -49,6 +49,21 @@ final class AnnotationQueue {
     }
 
     /**
+     * Withdraws the held (not yet published) annotations of one kind on one track.
+     *
+     * @param track track
+     * @param kind  kind
+     */
+    void withdraw(String track, String kind) {
+        int before = queue.size();
+        queue.removeIf(i -> i.a.track().equals(track) && i.a.kind().equals(kind));
+        long[] c = counts.get(track + "\u0000" + kind);
+        if (c != null) {
+            c[0] -= before - queue.size();
+        }
+    }
+
+    /**
      * Publishes every held annotation that starts before {@code safeFs}.
      *
      * @param safeFs no annotation starting before this time can still be added

@@ -74,6 +74,12 @@ import org.lanesift.time.TimeValue;
  * lane's capture, or when its clock edge lies next to an unknown span of the clock. Runs of flagged
  * bits are annotated ({@code margin-low}); the report holds per lane the minimum, percentiles and a
  * histogram of both margins.
+ *
+ * <p><b>Guards</b> (docs/sampling-rate.md). Edges that lie on a sample grid coarser than half a UI
+ * (a logic capture below 2 samples per unit interval) stop the run as bad input naming the minimum
+ * rate. A lane whose transitions sit more than 0.35 UI from the mid-points between sample points may
+ * be skewed by more than half a UI: it is named once ({@code lane-skew-ambiguous}, an error) and
+ * all its bits are flagged, instead of {@code margin-low} runs.
  */
 public final class DualEdgePlugin implements PluginProvider {
     /** The plugin id used in chain files. */

@@ -41,6 +41,15 @@ final class DualEdgeStage implements Stage {
     private long emittedBits;
     private double uiSumAll;
     private boolean done;
+    /** Per input (clock, then lanes): its sample grid was judged against the unit interval. */
+    private final boolean[] gridJudged;
+    /** Per lane: the lane's eye lies so far from the clock's bit centre that its bits may be those of a neighbouring slot. */
+    private final boolean[] skewAmbiguous;
+    private final boolean[] skewJudged;
+    /** A lane's eye centre this far from the sample point (UI) makes its slot ambiguous. */
+    static final double AMBIGUOUS_OFFSET_UI = 0.35;
+    /** Bits with a transition within reach on both sides needed to judge a lane's eye centre. */
+    static final int SKEW_JUDGE_BITS = 64;
 
     DualEdgeStage(StageContext ctx, SamplerConfig cfg) {
         this.ctx = ctx;
@@ -52,6 +61,9 @@ final class DualEdgeStage implements Stage {
             laneQ[i] = new EdgeQueue("lane" + i);
             lanes[i] = new LaneSampler(i, laneQ[i], cfg.marginThreshold());
         }
+        gridJudged = new boolean[cfg.lanes() + 1];
+        skewAmbiguous = new boolean[cfg.lanes()];
+        skewJudged = new boolean[cfg.lanes()];
         cr = new ClockRecovery(cfg, clockQ, notes);
         planner = new SamplePlanner(cfg);
         sb = new SampleBuf(cfg.marginThreshold());
@@ -219,12 +231,17 @@ final class DualEdgeStage implements Stage {
         long end = Math.max(start, maxS + 1);
         prevBlockEnd = end;
         double meanUi = uiSum / ready;
+        judgeGrid(meanUi);
         for (int i = 0; i < lanes.length; i++) {
             EdgeQueue q = laneQ[i];
             boolean fast = q.started && minS >= 0 && minS - reach >= q.startFs && (!finishing || maxS + reach < q.endFs)
                     && !(q.hasSpans() && q.spanOverlaps(minS - reach, maxS + reach));
             LaneSampler l = lanes[i];
             l.sample(sb, ready, fast, finishing, notes);
+            judgeLaneSkew(i, l, ready, times[0], maxS);
+            if (skewAmbiguous[i]) {
+                BitSets.setRange(l.flagged, 0, ready);
+            }
             BitStream bs = new BitStream(q.channel != null ? q.channel : "lane" + i, start, end, ready, l.values, times, edges,
                     falling, slot, l.setup, l.hold, l.flagged, meanUi);
             ctx.emit(i, bs);
@@ -232,6 +249,84 @@ final class DualEdgeStage implements Stage {
         emittedBits += ready;
         uiSumAll += uiSum;
         sb.removePrefix(ready);
+    }
+
+    /**
+     * Refuses a logic capture sampled too slowly for the link: once an input has
+     * {@link SampleGrid#MIN_EDGES} edges queued, the grid they lie on (if any) must be finer than
+     * half a unit interval. Edges on the bit grid itself (grid = one UI: a simulation or an exact
+     * generator) lose nothing and pass; a grid of several UI is a capture that lost edges.
+     */
+    private void judgeGrid(double uiFs) {
+        for (int k = 0; k <= lanes.length; k++) {
+            EdgeQueue q = k == 0 ? clockQ : laneQ[k - 1];
+            if (gridJudged[k] || q.tail - q.head < SampleGrid.MIN_EDGES) {
+                continue;
+            }
+            gridJudged[k] = true;
+            double g = SampleGrid.periodFs(q.t, q.head, q.tail);
+            if (Double.isNaN(g) || g * SampleGrid.MIN_SAMPLES_PER_UI <= uiFs * (1 + 1e-6)) {
+                continue;
+            }
+            if (Math.abs(g / uiFs - 1) < 0.01) {
+                continue; // edges on the bit grid itself: an exact source (a simulation), nothing lost
+            }
+            double minRate = SampleGrid.MIN_SAMPLES_PER_UI * 1e15 / uiFs;
+            throw new org.lanesift.plugin.InputFormatException(String.format(Locale.ROOT,
+                    "input '%s' (channel '%s'): its edges lie on a %s sample grid (%s) but the link's unit interval is %s;"
+                            + " a logic capture needs at least %.0f samples per unit interval to place every bit, so at least %s:"
+                            + " capture again at %s or faster, or capture the legs as analog",
+                    q.port, q.channel, org.lanesift.time.Femtos.format(g), rate(1e15 / g), org.lanesift.time.Femtos.format(uiFs),
+                    SampleGrid.MIN_SAMPLES_PER_UI, rate(minRate), rate(minRate)));
+        }
+    }
+
+    /**
+     * Judges once where a lane's eye sits against the sample point: half the difference of setup
+     * and hold margin, averaged over the bits of this block that have a transition within reach on
+     * both sides, is the offset of the lane's transitions from the mid-points between sample points.
+     * A skew s of the lane against the clock shows as s wrapped into [-0.5, 0.5) UI: beyond
+     * {@value #AMBIGUOUS_OFFSET_UI} UI the lane may equally be skewed by s or by s - 1 UI the
+     * other way, that is by more than half a UI, and then every bit belongs to the neighbouring
+     * slot and still shows wide margins. Such a lane's bits are flagged (the decode is marked suspect)
+     * and one warning names it.
+     */
+    private void judgeLaneSkew(int lane, LaneSampler l, int ready, long a, long b) {
+        if (skewJudged[lane]) {
+            return;
+        }
+        double sum = 0;
+        int n = 0;
+        for (int i = 0; i < ready; i++) {
+            long su = l.setup[i];
+            long ho = l.hold[i];
+            if (su != LaneSampler.UNKNOWN && ho != LaneSampler.UNKNOWN) {
+                sum += 0.5 * (su - ho) / sb.ui[i];
+                n++;
+            }
+        }
+        if (n < SKEW_JUDGE_BITS) {
+            return;
+        }
+        skewJudged[lane] = true;
+        double offsetUi = sum / n;
+        if (Math.abs(offsetUi) > AMBIGUOUS_OFFSET_UI) {
+            skewAmbiguous[lane] = true;
+            // one finding for the lane: its margin runs (this block's held ones and all later) are not annotated
+            l.quiet = true;
+            notes.withdraw(l.track, "margin-low");
+            String name = laneQ[lane].channel != null ? laneQ[lane].channel : "lane" + lane;
+            double other = offsetUi > 0 ? offsetUi - 1 : offsetUi + 1;
+            notes.add(Annotation.on(lanes[lane].track, "lane-skew-ambiguous").span(a, Math.max(a, b)).severity(Severity.ERROR)
+                    .label(String.format(Locale.ROOT, "%s: transitions %+.2f UI from the sample point's mid-points; skewed by %+.2f or"
+                            + " %+.2f UI against the clock, its bits may belong to the neighbouring slot: bits flagged", name,
+                            offsetUi, offsetUi, other))
+                    .number("offsetUI", offsetUi, "UI").text("lane", name).build());
+        }
+    }
+
+    private static String rate(double perSecond) {
+        return NumberStyle.shortest().format(Math.round(perSecond / 1e4) / 100.0) + " MS/s";
     }
 
     private static long sat(long a, long b) {

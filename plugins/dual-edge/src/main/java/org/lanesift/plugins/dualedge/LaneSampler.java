@@ -33,6 +33,8 @@ final class LaneSampler {
     long[] setup;
     long[] hold;
     long[] flagged;
+    /** The lane is already named for a graver reason (its slot is ambiguous): runs of flagged bits are counted, not annotated. */
+    boolean quiet;
 
     private final double threshold;
 
@@ -267,8 +269,12 @@ final class LaneSampler {
         }
         inRun = false;
         stats.lowRuns++;
+        if (quiet) {
+            return;
+        }
+        String lane = q.channel != null ? q.channel : track;
         Annotation.Builder b = Annotation.on(track, "margin-low").span(runStart, runEnd).severity(Severity.WARNING)
-                .label(runBits == 1 ? "1 flagged bit" : runBits + " flagged bits")
+                .label(lane + ": " + (runBits == 1 ? "1 flagged bit" : runBits + " flagged bits")).text("lane", lane)
                 .field("bits", Field.integer(runBits, ""));
         if (runMinSetup != UNKNOWN) {
             b.number("minSetupFs", runMinSetup, "fs");

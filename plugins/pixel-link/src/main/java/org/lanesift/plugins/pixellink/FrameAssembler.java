@@ -496,7 +496,9 @@ final class FrameAssembler {
         }
         String why = complete ? null : frame.broken() ? frame.brokenReason()
                 : !startSeen ? "the capture began inside this frame" : "the capture ended inside this frame";
-        findings.frame(f, index, complete, suspect, why, frame.suspectPixels());
+        // partial only because the capture began or ended inside it: a fact of the capture window, no fault
+        boolean windowOnly = !complete && (!frame.broken() || frame.brokenByCaptureEnd());
+        findings.frame(f, index, complete, suspect, why, windowOnly, frame.suspectPixels());
         out.frame(f);
         if (pictures != null) {
             pictures.offer(f);
@@ -509,7 +511,7 @@ final class FrameAssembler {
         if (lineOpen) {
             lineOpen = false;
             x = 0;
-            frame.markBroken("the capture ended inside a line");
+            frame.markCaptureEnd("the capture ended inside a line");
         }
         boolean endSeen = false;
         if (fallIdx != NONE && fallIdx >= validFrom) {

@@ -82,10 +82,13 @@ final class FrameFindings {
 
     /**
      * A finished frame: its annotation (at detail {@code anomalies} only when partial), why it is
-     * partial, and how many of its pixels had flagged bits.
+     * partial, and how many of its pixels had flagged bits. A frame that is partial only because
+     * the capture began or ended inside it ({@code windowOnly}) is information, not a finding
+     * about the link: both its annotations are info.
      */
-    void frame(Frame f, long index, boolean complete, boolean suspect, String partialReason, long suspectPixels) {
-        Severity sev = complete ? (suspect ? Severity.WARNING : Severity.INFO) : Severity.WARNING;
+    void frame(Frame f, long index, boolean complete, boolean suspect, String partialReason, boolean windowOnly, long suspectPixels) {
+        Severity partialSev = windowOnly ? Severity.INFO : Severity.WARNING;
+        Severity sev = suspect ? Severity.WARNING : complete ? Severity.INFO : partialSev;
         if (detail != FrameAssembler.Detail.ANOMALIES || !complete) {
             out.annotate(Annotation.on(trackFrames, "frame").span(f.startFs(), f.endFs()).severity(sev)
                     .label("frame " + index + ": " + f.width() + "x" + f.height() + (complete ? "" : " partial")
@@ -96,7 +99,7 @@ final class FrameFindings {
         }
         if (!complete) {
             timing.anomaly("partial-frame");
-            out.annotate(Annotation.on(trackAnom, "partial-frame").span(f.startFs(), f.endFs()).severity(Severity.WARNING)
+            out.annotate(Annotation.on(trackAnom, "partial-frame").span(f.startFs(), f.endFs()).severity(partialSev)
                     .label("frame " + index + " partial: " + partialReason).field("index", Field.integer(index, ""))
                     .field("reason", Field.text(partialReason)).build());
         }

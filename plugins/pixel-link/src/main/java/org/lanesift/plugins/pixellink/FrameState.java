@@ -13,6 +13,7 @@ final class FrameState {
     private boolean startPending;
     private boolean broken;
     private String brokenReason;
+    private boolean brokenByCaptureEnd;
     private boolean suspect;
     private long firstRise;
     private long firstT;
@@ -45,6 +46,7 @@ final class FrameState {
         startSeen = seen;
         startPending = pending;
         broken = false;
+        brokenByCaptureEnd = false;
         suspect = false;
         brokenReason = null;
         firstRise = idx;
@@ -87,6 +89,18 @@ final class FrameState {
             broken = true;
             brokenReason = why;
         }
+    }
+
+    /** The capture ended inside this frame's line: partial through the capture window, not a fault. */
+    void markCaptureEnd(String why) {
+        if (!broken) {
+            brokenByCaptureEnd = true;
+        }
+        markBroken(why);
+    }
+
+    boolean brokenByCaptureEnd() {
+        return brokenByCaptureEnd;
     }
 
     boolean broken() {

@@ -113,6 +113,16 @@ class VerilogSerialiserTest {
             assertEquals("negative", rep.str("vertical/syncPolarity"));
             assertEquals(Math.round(1e12 / 7000), rep.num("pixelClockHz/value")); // 7 ns pixel period in the bench
             assertTrue(FrameAssemblyTest.pngs(h).contains("dut-frame-0001.png"));
+            // a clean capture gives no warning and no error: the frames cut by the capture window at
+            // either end are stated as information (partial), once each as a frame and once as the reason
+            List<String> findings = new ArrayList<>();
+            for (org.lanesift.annotation.Annotation a : h.annotations()) {
+                if (a.severity() != org.lanesift.annotation.Severity.INFO) {
+                    findings.add(a.kind() + " " + a.label());
+                }
+            }
+            assertTrue(findings.isEmpty(), findings.toString());
+            assertEquals(2, h.annotations("partial-frame").size());
         }
     }
 

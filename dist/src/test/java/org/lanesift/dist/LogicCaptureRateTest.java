@@ -1,0 +1,146 @@
+package org.lanesift.dist;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+import static org.junit.jupiter.api.Assertions.fail;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Random;
+import java.util.concurrent.TimeUnit;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.lanesift.json.JsonReader;
+import org.lanesift.json.JsonValue;
+import org.lanesift.testkit.ExternalTool;
+
+/**
+ * End to end through the command line: the 7:1 serialiser written in Verilog (the pixel-link
+ * module's test bench, simulated with Icarus Verilog, Debian package {@code iverilog}) writes a
+ * VCD; read as a logic capture it decodes with no warning and no error. The same VCD re-timed as a
+ * 100 MS/s logic capture (every change seen at the next 10 ns sample; the link's unit interval is
+ * 1 ns) is refused with exit code 2 and one line naming the lane and the capture's rate
+ * (docs/sampling-rate.md: at least 2 samples per unit interval).
+ */
+class LogicCaptureRateTest {
+    @TempDir
+    Path tmp;
+
+    @Test
+    void aCleanSerialiserCaptureGivesNoFindingAndTheSameCaptureTooSlowIsRefused() throws Exception {
+        Path iverilog = ExternalTool.require("iverilog");
+        Path vvp = ExternalTool.require("vvp");
+        Path src = Path.of("..", "plugins", "pixel-link", "src", "test", "verilog").toAbsolutePath().normalize();
+        StringBuilder hex = new StringBuilder();
+        Random r = new Random(20261203);
+        for (int i = 0; i < 16 * 8; i++) {
+            hex.append(String.format("%06x%n", r.nextInt(1 << 24)));
+        }
+        Files.writeString(tmp.resolve("image.hex"), hex);
+        exec(List.of(iverilog.toString(), "-g2005", "-o", "sim.vvp", src.resolve("lvds71_tx.v").toString(),
+                src.resolve("tb_lvds71.v").toString()));
+        exec(List.of(vvp.toString(), "-n", "sim.vvp", "+image=image.hex", "+vcd=link.vcd", "+pixels=1500"));
+
+        Path clean = tmp.resolve("link.vcd");
+        EndToEndTest.Cli ok = EndToEndTest.cli("run", chain("fast.json", clean).toString(), "--out", tmp.resolve("o1").toString(), "-q");
+        assertEquals(0, ok.code(), ok.err());
+        List<String> findings = new ArrayList<>();
+        int frames = 0;
+        for (String line : Files.readAllLines(tmp.resolve("o1").resolve("annotations.jsonl"))) {
+            JsonValue a = JsonReader.parse("annotations.jsonl", line);
+            String severity = a.get("severity").asString();
+            if (!severity.equals("info")) {
+                findings.add(a.get("kind").asString() + ": " + a.get("label").asString());
+            }
+            if (a.get("kind").asString().equals("frame")) {
+                frames++;
+            }
+        }
+        assertTrue(findings.isEmpty(), findings.toString());
+        assertTrue(frames >= 4, "frames " + frames);
+
+        Path slow = tmp.resolve("slow.vcd");
+        Files.writeString(slow, retime(Files.readAllLines(clean), 10_000)); // timescale 1 ps: 10 ns
+        EndToEndTest.Cli refused = EndToEndTest.cli("run", chain("slow.json", slow).toString(), "--out", tmp.resolve("o2").toString(), "-q");
+        assertEquals(2, refused.code(), refused.err());
+        assertEquals(1, refused.errLines().size(), refused.err());
+        String msg = refused.errLines().get(0);
+        assertTrue(msg.contains("lane0") && msg.contains("sample grid (100 MS/s)") && msg.contains("at least 2 samples per unit interval"), msg);
+    }
+
+    /** The VCD as a logic capture at one sample every {@code stepTicks}: each change shows at the next sample. */
+    static String retime(List<String> lines, long stepTicks) {
+        StringBuilder out = new StringBuilder();
+        Map<String, String> pending = new LinkedHashMap<>();
+        boolean header = true;
+        long at = -1;
+        for (String l : lines) {
+            if (header) {
+                out.append(l).append('\n');
+                header = !l.startsWith("$enddefinitions");
+                continue;
+            }
+            if (l.startsWith("#")) {
+                long t = Long.parseLong(l.substring(1).trim());
+                long q = Math.floorDiv(t + stepTicks - 1, stepTicks) * stepTicks;
+                if (q != at) {
+                    flush(out, at, pending);
+                    at = q;
+                }
+            } else if (!l.isBlank() && !l.startsWith("$")) {
+                pending.put(l.substring(1), l); // scalar change: value then identifier code
+            }
+        }
+        flush(out, at, pending);
+        return out.toString();
+    }
+
+    private static void flush(StringBuilder out, long at, Map<String, String> pending) {
+        if (!pending.isEmpty()) {
+            out.append('#').append(at).append('\n');
+            pending.values().forEach(v -> out.append(v).append('\n'));
+            pending.clear();
+        }
+    }
+
+    private Path chain(String name, Path vcd) throws Exception {
+        StringBuilder wires = new StringBuilder("{\"from\":\"cap.clk_out\",\"to\":\"sampler.clock\"}");
+        for (int l = 0; l < 4; l++) {
+            wires.append(",{\"from\":\"cap.d").append(l).append("\",\"to\":\"sampler.lane").append(l).append("\"}");
+            wires.append(",{\"from\":\"sampler.bits").append(l).append("\",\"to\":\"panel.lane").append(l).append("\"}");
+        }
+        String json = "{\"nodes\":[{\"id\":\"cap\",\"plugin\":\"vcd\",\"options\":{\"file\":" + quote(vcd.toString()) + "}},"
+                + "{\"id\":\"sampler\",\"plugin\":\"dual-edge\",\"options\":{\"mode\":\"multiplied\",\"slots\":7,\"lanes\":4}},"
+                + "{\"id\":\"panel\",\"plugin\":\"pixel-link\",\"options\":{\"mapping\":\"vesa-24\",\"pictures\":\"none\"}}],"
+                + "\"wires\":[" + wires + "]}";
+        Path p = tmp.resolve(name);
+        Files.writeString(p, json);
+        return p;
+    }
+
+    private static String quote(String s) {
+        return "\"" + s.replace("\\", "\\\\").replace("\"", "\\\"") + "\"";
+    }
+
+    private void exec(List<String> cmd) throws Exception {
+        Path log = tmp.resolve("log.txt");
+        Process p = new ProcessBuilder(cmd).directory(tmp.toFile()).redirectErrorStream(true).redirectOutput(log.toFile()).start();
+        if (!p.waitFor(120, TimeUnit.SECONDS)) {
+            p.destroyForcibly();
+            fail(cmd + " did not finish in 120 s");
+        }
+        assertEquals(0, p.exitValue(), () -> cmd + ": " + readQuietly(log));
+    }
+
+    private static String readQuietly(Path p) {
+        try {
+            return Files.readString(p);
+        } catch (java.io.IOException e) {
+            return e.toString();
+        }
+    }
+}

@@ -1,0 +1,158 @@
+package org.lanesift.plugins.dualedge;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.Arrays;
+import java.util.List;
+import java.util.Map;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.ValueSource;
+import org.lanesift.annotation.Annotation;
+import org.lanesift.data.Edges;
+import org.lanesift.plugin.InputFormatException;
+
+/**
+ * The sampler's guards against captures it cannot decode: a logic capture sampled below two
+ * samples per unit interval is refused with the minimum rate, and a lane whose transitions sit
+ * near the sample points (skewed by about half a UI or more against the clock) is flagged and named.
+ */
+class DecodableCaptureTest {
+    static final Map<String, Object> SEVEN = Map.of("mode", "multiplied", "slots", 7, "lanes", 3);
+    /** A 20 MHz pixel clock: UI = 50 ns / 7 = 7.142857 ns. */
+    static final double PERIOD_FS = 50_000_000;
+
+    /**
+     * What a logic capture at one sample every {@code gridFs} makes of an edge list: each edge is
+     * seen at the first sample after it, and a pulse between two samples is lost.
+     */
+    static Edges onGrid(Edges e, long gridFs) {
+        long[] t = new long[e.count()];
+        int n = 0;
+        for (int i = 0; i < e.count(); i++) {
+            long q = Math.floorDiv(e.timesFs()[i], gridFs) * gridFs + gridFs;
+            if (n > 0 && t[n - 1] == q) {
+                n--; // two transitions in one sample interval: the capture sees neither
+            } else {
+                t[n++] = q;
+            }
+        }
+        long end = Math.floorDiv(e.endFs(), gridFs) * gridFs;
+        long[] tt = Arrays.copyOf(t, n);
+        int m = 0;
+        while (m < n && tt[m] < end) {
+            m++;
+        }
+        return Edges.of(e.channel(), 0, end, e.initialLevel(), Arrays.copyOf(tt, m));
+    }
+
+    static LinkSim link(double skewUi) {
+        LinkSim sim = LinkSim.sevenToOne(PERIOD_FS, 400, 3);
+        sim.skewFs[1] = skewUi * PERIOD_FS / 7;
+        sim.build();
+        return sim;
+    }
+
+    /**
+     * Rule (derived in docs/sampling-rate.md): a logic capture sees every edge up to one sample
+     * period late, on the clock and the data alike, so it needs Ts <= UI / 2: here at least
+     * 2 / 7.142857 ns = 280 MS/s. 100 MS/s is refused, naming the lane and the minimum rate.
+     */
+    @Test
+    void aLogicCaptureBelowTwoSamplesPerUnitIntervalIsRefusedWithTheMinimumRate() {
+        LinkSim sim = link(0);
+        long grid = 10_000_000; // 100 MS/s
+        RuntimeException e = assertThrows(RuntimeException.class, () -> Run.whole(SEVEN, onGrid(sim.clock(), grid),
+                onGrid(sim.lane(0), grid), onGrid(sim.lane(1), grid), onGrid(sim.lane(2), grid)));
+        Throwable c = e;
+        while (c != null && !(c instanceof InputFormatException)) {
+            c = c.getCause();
+        }
+        assertTrue(c instanceof InputFormatException, "bad input, exit 2: " + e);
+        String msg = c.getMessage();
+        assertTrue(msg.contains("100 MS/s") && msg.contains("280 MS/s") && msg.contains("7.143 ns"), msg);
+    }
+
+    /**
+     * An exact source (a simulation: every edge on a whole unit interval, here 1 ns) passes; the
+     * same link taken at 100 MS/s, a grid of exactly 10 UI, is refused all the same.
+     */
+    @Test
+    void edgesOnTheBitGridPassButAGridOfSeveralUnitIntervalsDoesNot() {
+        LinkSim sim = LinkSim.sevenToOne(7_000_000, 400, 3); // UI exactly 1 ns, edges on whole ns
+        sim.build();
+        Run r = Run.whole(SEVEN, sim.clock(), sim.lane(0), sim.lane(1), sim.lane(2));
+        assertTrue(r.lanes.get(0).size() > 300 * 7);
+        long grid = 10_000_000;
+        RuntimeException e = assertThrows(RuntimeException.class, () -> Run.whole(SEVEN, onGrid(sim.clock(), grid),
+                onGrid(sim.lane(0), grid), onGrid(sim.lane(1), grid), onGrid(sim.lane(2), grid)));
+        // the 7 ns clock is itself aliased at 10 ns a sample, so the unit interval the message states is
+        // that of the clock as captured; the refusal and the capture's rate are what must hold
+        Throwable c = e;
+        while (c != null && !(c instanceof InputFormatException)) {
+            c = c.getCause();
+        }
+        assertTrue(c instanceof InputFormatException, String.valueOf(e));
+        assertTrue(c.getMessage().contains("sample grid (100 MS/s)"), c.getMessage());
+    }
+
+    /** At 400 MS/s (2.8 samples per UI) the same link decodes bit for bit, with the same grid check passed. */
+    @Test
+    void aLogicCaptureAboveTheMinimumRateDecodes() {
+        LinkSim sim = link(0);
+        long grid = 2_500_000; // 400 MS/s
+        Run r = Run.whole(SEVEN, onGrid(sim.clock(), grid), onGrid(sim.lane(0), grid), onGrid(sim.lane(1), grid),
+                onGrid(sim.lane(2), grid));
+        for (int l = 0; l < 3; l++) {
+            Run.Lane lane = r.lanes.get(l);
+            assertTrue(lane.size() > 300 * 7, "bits " + lane.size());
+            for (int i = 0; i < lane.size(); i++) {
+                int k = (int) (7 * (lane.edge.get(i) + 1) + lane.slot.get(i)); // generator slot index (as in MultipliedClockTest)
+                if (k < sim.bits) {
+                    assertEquals(sim.data[l][k], lane.values.get(i), "lane " + l + " bit " + k);
+                }
+            }
+        }
+        assertTrue(r.of("lane-skew-ambiguous").isEmpty());
+    }
+
+    /**
+     * A data pair skewed 0.61 UI against the clock samples every bit one slot off with wide
+     * margins; the sampler names the lane once and flags all its bits, and only its bits.
+     */
+    @ParameterizedTest
+    @ValueSource(doubles = {0.61, -0.61, 0.45})
+    void aLaneSkewedAboutHalfAUnitIntervalOrMoreIsNamedAndFlagged(double skewUi) {
+        Run r = runSkewed(skewUi);
+        List<Annotation> notes = r.of("lane-skew-ambiguous");
+        assertEquals(1, notes.size(), notes.toString());
+        assertTrue(notes.get(0).label().startsWith("D1:"), notes.get(0).label());
+        assertTrue(r.of("margin-low").isEmpty(), "one finding for the lane, not margin runs besides: " + r.of("margin-low"));
+        for (int l = 0; l < 3; l++) {
+            Run.Lane lane = r.lanes.get(l);
+            long flagged = lane.flagged.stream().filter(b -> b).count();
+            if (l == 1) {
+                assertEquals(lane.size(), flagged, "every bit of the skewed lane");
+            } else {
+                assertEquals(0, flagged, "lane " + l);
+            }
+        }
+    }
+
+    /** Skews well inside half a UI leave the lanes alone. */
+    @ParameterizedTest
+    @ValueSource(doubles = {0.0, 0.2, -0.3})
+    void aLaneSkewedWellInsideHalfAUnitIntervalIsNotFlagged(double skewUi) {
+        Run r = runSkewed(skewUi);
+        assertTrue(r.of("lane-skew-ambiguous").isEmpty());
+        assertFalse(r.lanes.get(1).flagged.stream().anyMatch(b -> b) && Math.abs(skewUi) < 0.3);
+    }
+
+    private static Run runSkewed(double skewUi) {
+        LinkSim sim = link(skewUi);
+        return Run.whole(SEVEN, sim.clock(), sim.lane(0), sim.lane(1), sim.lane(2));
+    }
+}
