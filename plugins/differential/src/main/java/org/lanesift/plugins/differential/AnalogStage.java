@@ -199,8 +199,11 @@ final class AnalogStage implements Stage, LegAligner.Sink {
         if (rest >= 0) {
             int other = 1 - rest;
             long extra = legs.leftovers(rest);
+            // information, not a warning: it says which samples were not used, and it comes from the
+            // processing upstream (a leg deskew ends each channel at its own kernel margin), never
+            // from the signal; the channels of one capture file have equal lengths
             ctx.annotate(Annotation.on(s.channel, "legs-unequal-length").span(cmp.timeAt(cmp.nextIndex(), 0),
-                            cmp.timeAt(cmp.nextIndex() + extra, 0)).severity(Severity.WARNING)
+                            cmp.timeAt(cmp.nextIndex() + extra, 0)).severity(Severity.INFO)
                     .label("leg '" + legs.inputName(rest) + "' has " + extra + " samples more than leg '" + legs.inputName(other)
                             + "'; they were not used")
                     .field("samples", Field.integer(extra, "")).build());

@@ -104,6 +104,7 @@ class ChainAndOptionsTest {
         var left = h.annotations("legs-unequal-length");
         assertEquals(1, left.size());
         assertEquals(50L, left.get(0).fields().get("samples").value());
+        assertEquals(org.lanesift.annotation.Severity.INFO, left.get(0).severity(), "samples left unused are information");
     }
 
     static String optionError(Map<String, Object> options) {
