@@ -53,33 +53,6 @@ public class PacketLinkBench {
     BitStream[] laneBits;
     AnalogBlock[][] legs;
 
-    static int ecc(int h) {
-        int[][] sets = {
-            {0, 1, 2, 4, 5, 7, 10, 11, 13, 16, 20, 21, 22, 23}, {0, 1, 3, 4, 6, 8, 10, 12, 14, 17, 20, 21, 22, 23},
-            {0, 2, 3, 5, 6, 9, 11, 12, 15, 18, 20, 21, 22}, {1, 2, 3, 7, 8, 9, 13, 14, 15, 19, 20, 21, 23},
-            {4, 5, 6, 7, 8, 9, 16, 17, 18, 19, 20, 22, 23}, {10, 11, 12, 13, 14, 15, 16, 17, 18, 19, 21, 22, 23}};
-        int e = 0;
-        for (int p = 0; p < 6; p++) {
-            int x = 0;
-            for (int b : sets[p]) {
-                x ^= h >> b & 1;
-            }
-            e |= x << p;
-        }
-        return e;
-    }
-
-    static int crc(byte[] d, int off, int len) {
-        int c = 0xFFFF;
-        for (int i = off; i < off + len; i++) {
-            c ^= d[i] & 0xFF;
-            for (int k = 0; k < 8; k++) {
-                c = (c & 1) != 0 ? (c >>> 1) ^ 0x8408 : c >>> 1;
-            }
-        }
-        return c;
-    }
-
     /** Fills packets (hsync-start + 1020-byte rgb888 line) into buf up to limit; returns the length used. */
     static int packets(byte[] buf, int limit, Random r) {
         int pos = 0;
@@ -87,18 +60,18 @@ public class PacketLinkBench {
         while (pos + 4 + 6 + payload <= limit) {
             int h = 0x21;
             buf[pos] = 0x21;
-            buf[pos + 3] = (byte) ecc(h);
+            buf[pos + 3] = (byte) Ecc.compute(h);
             pos += 4;
             int lh = 0x3E | payload << 8;
             buf[pos] = 0x3E;
             buf[pos + 1] = (byte) payload;
             buf[pos + 2] = (byte) (payload >> 8);
-            buf[pos + 3] = (byte) ecc(lh);
+            buf[pos + 3] = (byte) Ecc.compute(lh);
             pos += 4;
             for (int i = 0; i < payload; i++) {
                 buf[pos + i] = (byte) r.nextInt(256);
             }
-            int c = crc(buf, pos, payload);
+            int c = PayloadCrc.of(buf, pos, payload);
             pos += payload;
             buf[pos] = (byte) c;
             buf[pos + 1] = (byte) (c >> 8);

@@ -125,19 +125,15 @@ public final class DemoTool implements Tool {
             }
         }
 
-        private static Path mergeTables(Path passDir, String prefix, Path target, List<String> notes) throws IOException {
-            return SkewTables.merge(passDir, prefix, target, notes);
-        }
-
         private PixelLinkScene.Truth pixelLink() throws IOException {
             PixelLinkScene.Capture c = PixelLinkScene.render(Impairments.pixelLinkDefaults());
             Path cap = dir.resolve("captures/pixel-link.bin");
             CaptureFiles.writeRaw(cap, c.channels(), c.volts(), c.sampleRateHz(), 50e-6);
             List<String> notes = new ArrayList<>();
             runChain(DemoChains.pixelLegs(dir.resolve("chains"), cap), "pixel-1-legs.json", dir.resolve("work/pixel-1"));
-            Path legs = mergeTables(dir.resolve("work/pixel-1"), "legs-", dir.resolve("skew/pixel-legs.json"), notes);
+            Path legs = SkewTables.merge(dir.resolve("work/pixel-1"), "legs-", dir.resolve("skew/pixel-legs.json"), notes);
             runChain(DemoChains.pixelLanes(dir.resolve("chains"), cap, legs), "pixel-2-lanes.json", dir.resolve("work/pixel-2"));
-            Path lanes = mergeTables(dir.resolve("work/pixel-2"), "lanes-", dir.resolve("skew/pixel-lanes.json"), notes);
+            Path lanes = SkewTables.merge(dir.resolve("work/pixel-2"), "lanes-", dir.resolve("skew/pixel-lanes.json"), notes);
             runChain(DemoChains.pixelDecode(dir.resolve("chains"), cap, legs, lanes), "pixel-3-decode.json", dir.resolve("pixel"));
             synchronized (this) {
                 pixelNotes.addAll(notes);
@@ -151,9 +147,9 @@ public final class DemoTool implements Tool {
             CaptureFiles.writeCsv(cap, c.channels(), c.volts(), c.sampleRateHz(), 0);
             List<String> notes = new ArrayList<>();
             runChain(DemoChains.packetLegs(dir.resolve("chains"), cap), "packet-1-legs.json", dir.resolve("work/packet-1"));
-            Path legs = mergeTables(dir.resolve("work/packet-1"), "legs-", dir.resolve("skew/packet-legs.json"), notes);
+            Path legs = SkewTables.merge(dir.resolve("work/packet-1"), "legs-", dir.resolve("skew/packet-legs.json"), notes);
             runChain(DemoChains.packetLanes(dir.resolve("chains"), cap, legs), "packet-2-lanes.json", dir.resolve("work/packet-2"));
-            Path lanes = mergeTables(dir.resolve("work/packet-2"), "lanes-", dir.resolve("skew/packet-lanes.json"), notes);
+            Path lanes = SkewTables.merge(dir.resolve("work/packet-2"), "lanes-", dir.resolve("skew/packet-lanes.json"), notes);
             runChain(DemoChains.packetDecode(dir.resolve("chains"), cap, legs, lanes), "packet-3-decode.json", dir.resolve("packet"));
             synchronized (this) {
                 packetNotes.addAll(notes);

@@ -7,9 +7,7 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.HashSet;
-import java.util.LinkedHashMap;
 import java.util.List;
-import java.util.Map;
 import java.util.Set;
 import org.lanesift.plugin.InputFormatException;
 import org.lanesift.plugin.OptionException;
@@ -113,10 +111,9 @@ public final class LinkPairs {
     }
 
     /**
-     * Finds the pairs in an inspect report: the anti-correlated pairs it found, then analog channels
-     * whose names differ only in a P/N ending (a data lane that idles in a single-ended state does
-     * not anti-correlate); the pair holding the steadiest clock comes first, the others follow in
-     * name order.
+     * Finds the pairs in an inspect report: the pairs inspect found (anti-correlated levels or, for
+     * data lanes that idle in single-ended low-power states, anti-correlated steps); the pair
+     * holding the steadiest clock comes first, the others follow in name order.
      *
      * @param r the inspect report of the capture
      * @return the clock pair first, then the data pairs
@@ -128,17 +125,6 @@ public final class LinkPairs {
         for (InspectReport.Pair p : r.pairs()) {
             if (used.add(p.first()) && used.add(p.second())) {
                 pairs.add(oriented(p.first(), p.second()));
-            }
-        }
-        Map<String, String> byStem = new LinkedHashMap<>();
-        for (InspectReport.Channel c : r.channels()) {
-            String stem = stem(c.name());
-            if (!"ANALOG".equals(c.kind()) || used.contains(c.name()) || stem == null) {
-                continue;
-            }
-            String other = byStem.putIfAbsent(stem, c.name());
-            if (other != null && used.add(other) && used.add(c.name())) {
-                pairs.add(oriented(other, c.name()));
             }
         }
         InspectReport.Clock clock = r.clocks().stream().min(Comparator.comparingDouble(InspectReport.Clock::periodCv)).orElse(null);

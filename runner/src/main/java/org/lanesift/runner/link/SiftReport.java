@@ -223,7 +223,7 @@ final class SiftReport {
             pairList.add(Map.of("name", p.name(), "p", p.p(), "n", p.n()));
         }
         link.put("pairs", value(pairList, null, args.text("map").isEmpty() && args.text("map-file").isEmpty()
-                ? "measured: inspect's anti-correlated pairs and P/N names, the steadiest clock first" : "given (channel map)"));
+                ? "measured: the pairs inspect found (anti-correlated levels or steps), the steadiest clock first" : "given (channel map)"));
         model.put("link", link);
         md.append("## Details\n\n### Link\n\n")
                 .append("- kind: ").append(f.packet() ? "packet link" : "7:1 pixel link").append(" (").append(f.kindSource()).append(")\n")

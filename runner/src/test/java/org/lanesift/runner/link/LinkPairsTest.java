@@ -56,12 +56,13 @@ class LinkPairsTest {
     }
 
     @Test
-    void findPutsTheClockPairFirstAndPairsIdleLanesByName() {
+    void findPutsTheClockPairFirstWithPFirstAndTheDataPairsInNameOrder() {
         List<InspectReport.Channel> ch = new ArrayList<>();
         for (String n : new String[] {"L1_P", "L1_N", "HCK_N", "HCK_P", "L0_P", "L0_N"}) {
             ch.add(analog(n, 0, 1.2));
         }
-        InspectReport r = new InspectReport("c.csv", "csv", ch, List.of(new InspectReport.Pair("HCK_N", "HCK_P", -0.99, -0.99)),
+        InspectReport r = new InspectReport("c.csv", "csv", ch, List.of(new InspectReport.Pair("L1_N", "L1_P", 0.9, -0.9),
+                new InspectReport.Pair("HCK_N", "HCK_P", -0.99, -0.99), new InspectReport.Pair("L0_P", "L0_N", 0.9, -0.9)),
                 List.of(new InspectReport.Clock("HCK_P", 1e8, 0.001, "HCK_N")));
         assertEquals(List.of(new LinkChains.Pair("HCK", "HCK_P", "HCK_N"), new LinkChains.Pair("L0", "L0_P", "L0_N"),
                 new LinkChains.Pair("L1", "L1_P", "L1_N")), LinkPairs.find(r));
