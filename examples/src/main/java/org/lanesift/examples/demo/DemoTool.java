@@ -333,7 +333,7 @@ public final class DemoTool implements Tool {
         }
 
         private static JsonValue read(Path f) throws IOException {
-            return JsonReader.parse(f.getFileName().toString(), Files.readString(f, StandardCharsets.UTF_8));
+            return JsonReader.read(f, f.getFileName().toString());
         }
 
         /** The member at a path of names, or null where one is missing or not an object. */

@@ -314,7 +314,7 @@ final class SiftReport {
     }
 
     private static JsonValue read(Path f) throws IOException {
-        return JsonReader.parse(f.getFileName().toString(), Files.readString(f, StandardCharsets.UTF_8));
+        return JsonReader.read(f, f.getFileName().toString());
     }
 
     /** The value at a path of member names (as an RFC 6901 pointer), or null where the path leads nowhere. */

@@ -40,7 +40,7 @@ public final class SkewTables {
         try (var files = Files.list(passDir)) {
             for (Path f : files.filter(p -> p.getFileName().toString().startsWith(prefix)
                     && p.getFileName().toString().endsWith("-skew.json")).sorted().toList()) {
-                JsonValue t = JsonReader.parse(f.getFileName().toString(), Files.readString(f, StandardCharsets.UTF_8));
+                JsonValue t = JsonReader.read(f, f.getFileName().toString());
                 for (Map.Entry<String, JsonValue> en : t.get("channels").members().entrySet()) {
                     Map<String, JsonValue> entry = new LinkedHashMap<>(en.getValue().members());
                     double conf = number(entry.get("confidence"), 1);

@@ -1,7 +1,6 @@
 package org.lanesift.runner.live;
 
 import java.io.IOException;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
@@ -146,10 +145,7 @@ public final class LiveTool implements Tool {
             if (!Files.isRegularFile(chain)) {
                 throw new OptionException("chain", "--chain " + chain + ": no such file");
             }
-            if (Files.size(chain) > 4 << 20) {
-                throw new OptionException("chain", "--chain " + chain + ": larger than 4 MiB");
-            }
-            root = JsonReader.parse(chain.toString(), Files.readString(chain, StandardCharsets.UTF_8));
+            root = JsonReader.read(chain, chain.toString());
         } catch (IOException e) {
             throw new InputFormatException("--chain " + chain + ": cannot be read (" + e.getMessage() + ")", e);
         } catch (JsonParseException e) {
