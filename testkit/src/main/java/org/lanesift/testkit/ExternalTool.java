@@ -6,7 +6,8 @@ import java.nio.file.Path;
 import org.junit.jupiter.api.Assumptions;
 
 /**
- * Finds an external program (from a Debian package: iverilog, vvp, ngspice, socat) that a test
+ * Finds an external program (from a Debian package: iverilog, vvp, ngspice, socat, dtc from
+ * device-tree-compiler, gcc) that a test
  * needs. Outside CI a missing program skips the test; under {@code CI=true} it fails it, so a green
  * CI run means the check really ran. Every module's tests use this one rule.
  */

@@ -393,6 +393,11 @@ final class PixelLinkStage implements Stage {
                 timing.toJson(id).getBytes(StandardCharsets.UTF_8)));
         ctx.emit(1, new Artifact(id, end, end, id + "-timing.txt", "text/plain",
                 timing.toText(id).getBytes(StandardCharsets.UTF_8)));
+        PanelTimingExport panel = new PanelTimingExport(timing, id);
+        if (panel.measured()) {
+            ctx.emit(1, new Artifact(id, end, end, id + "-timing.dts", "text/plain", panel.dts().getBytes(StandardCharsets.UTF_8)));
+            ctx.emit(1, new Artifact(id, end, end, id + "-timing.h", "text/x-c", panel.cHeader().getBytes(StandardCharsets.UTF_8)));
+        }
     }
 
     Timing timing() {
