@@ -36,6 +36,10 @@ final class CommandLog {
         String meaning;
         boolean checksumBad;
         boolean eccCorrected;
+        /** Sent as a long packet. */
+        boolean longPacket;
+        /** Data bytes as sent (both short-packet bytes, or the long payload); null for memory writes. */
+        byte[] data;
         int packets = 1;
         int repeat = 1;
         int period = 1;
@@ -61,19 +65,37 @@ final class CommandLog {
         this.max = max;
     }
 
-    /** Adds a command; returns false (and drops it) when the log is full. */
+    /**
+     * Adds a command in time order (a low-power packet on one lane can be decoded before a
+     * high-speed burst that started earlier, whose lanes are merged only when all have ended);
+     * returns false (and drops it) when the log is full.
+     */
     boolean add(Entry e) {
-        if (!entries.isEmpty()) {
-            Entry prev = entries.get(entries.size() - 1);
-            // commands in one burst on several lanes may overlap by a few bytes: no delay then
-            prev.delayFs = Math.max(0, e.startFs - prev.endFs);
-        }
         if (entries.size() >= max) {
             overflow = true;
+            int last = entries.size() - 1;
+            if (last >= 0 && e.startFs >= entries.get(last).startFs) {
+                delay(entries.get(last), e);
+            }
             return false;
         }
-        entries.add(e);
+        int at = entries.size();
+        while (at > 0 && entries.get(at - 1).startFs > e.startFs) {
+            at--;
+        }
+        entries.add(at, e);
+        if (at > 0) {
+            delay(entries.get(at - 1), e);
+        }
+        if (at + 1 < entries.size()) {
+            delay(e, entries.get(at + 1));
+        }
         return true;
+    }
+
+    private static void delay(Entry prev, Entry next) {
+        // commands in one burst on several lanes may overlap by a few bytes: no delay then
+        prev.delayFs = Math.max(0, next.startFs - prev.endFs);
     }
 
     /** The folded init sequence. */
@@ -92,6 +114,12 @@ final class CommandLog {
                 }
             }
             runs.add(copy(e));
+        }
+        for (Entry r : runs) {
+            if (r.isMemoryWrite()) {
+                // the meaning of a folded run describes the whole run, as payloadBytes does
+                r.meaning = r.payloadBytes + " bytes of pixel data" + (r.packets > 1 ? " in " + r.packets + " packets" : "");
+            }
         }
         List<Entry> out = new ArrayList<>();
         int i = 0;
@@ -151,6 +179,8 @@ final class CommandLog {
         c.meaning = e.meaning;
         c.checksumBad = e.checksumBad;
         c.eccCorrected = e.eccCorrected;
+        c.longPacket = e.longPacket;
+        c.data = e.data;
         c.packets = e.packets;
         c.delayFs = e.delayFs;
         return c;
@@ -213,72 +243,6 @@ final class CommandLog {
             String f = (e.checksumBad ? "checksum-bad " : "") + (e.eccCorrected ? "ecc-corrected " : "");
             sb.append(f.trim()).append('\n');
         }
-        return sb.toString().getBytes(StandardCharsets.UTF_8);
-    }
-
-    /**
-     * Delay in whole milliseconds for replay: under 0.1 ms (commands sent back to back) is 0,
-     * otherwise rounded up so that a replay never waits less than the capture did; capped at 65535.
-     */
-    static int replayDelayMs(long delayFs) {
-        if (delayFs < 100_000_000_000L) {
-            return 0;
-        }
-        long ms = (delayFs + 999_999_999_999L) / 1_000_000_000_000L;
-        return (int) Math.min(65535, ms);
-    }
-
-    byte[] cHeader(String id) {
-        String sym = id.replaceAll("[^A-Za-z0-9_]", "_");
-        if (sym.isEmpty() || Character.isDigit(sym.charAt(0))) {
-            sym = "_" + sym;
-        }
-        StringBuilder sb = new StringBuilder(4096);
-        sb.append("/* Display init sequence decoded by lanesift packet-link, instance ").append(id.replace("*/", "")).append(".\n")
-                .append(" * Layout (docs/init-sequence.md): records of\n")
-                .append(" *   kind, command, count_lo, count_hi, params[count], delay_ms_lo, delay_ms_hi\n")
-                .append(" * kind = (virtual channel << 6) | type; type 1 = DCS write, 2 = generic write, 0x00 ends the table.\n")
-                .append(" * Delays: time from the end of a command to the start of the next one; under 0.1 ms\n")
-                .append(" * written as 0, otherwise rounded up to whole ms. Memory writes (pixel data) and reads are left out.\n */\n")
-                .append("#ifndef ").append(sym.toUpperCase(Locale.ROOT)).append("_INIT_H\n#define ").append(sym.toUpperCase(Locale.ROOT))
-                .append("_INIT_H\n\n#include <stdint.h>\n\n")
-                .append("static const uint8_t ").append(sym).append("_init[] = {\n");
-        int records = 0;
-        List<String> skipped = new ArrayList<>();
-        for (Entry e : folded()) {
-            int type;
-            if (DataTypes.isDcs(e.dataType) && e.dataType != DataTypes.DCS_READ) {
-                type = 1;
-            } else if (DataTypes.isGenericWrite(e.dataType)) {
-                type = 2;
-            } else {
-                skipped.add(e.name);
-                continue;
-            }
-            if (e.isMemoryWrite()) {
-                skipped.add(e.name + " (" + e.payloadBytes + " bytes)");
-                continue;
-            }
-            byte[] p = e.params == null ? new byte[0] : e.params;
-            int cmd = e.cmd < 0 ? 0 : e.cmd;
-            int delay = replayDelayMs(e.delayFs < 0 ? 0 : e.delayFs);
-            sb.append(String.format(Locale.ROOT, "    0x%02X, 0x%02X, 0x%02X, 0x%02X,", (e.vc << 6) | type, cmd, p.length & 0xFF, p.length >> 8 & 0xFF));
-            for (byte b : p) {
-                sb.append(String.format(Locale.ROOT, " 0x%02X,", b & 0xFF));
-            }
-            sb.append(String.format(Locale.ROOT, " 0x%02X, 0x%02X, /* %s", delay & 0xFF, delay >> 8 & 0xFF, e.name.replace("*/", "")));
-            if (e.repeat > 1) {
-                sb.append(", repeated ").append(e.repeat).append(" times in the capture");
-            }
-            sb.append(delay > 0 ? ", then wait " + delay + " ms" : "").append(" */\n");
-            records++;
-        }
-        sb.append("    0x00 /* end */\n};\n\n");
-        sb.append("#define ").append(sym.toUpperCase(Locale.ROOT)).append("_INIT_RECORDS ").append(records).append("\n");
-        if (!skipped.isEmpty()) {
-            sb.append("/* left out: ").append(String.join(", ", skipped).replace("*/", "")).append(" */\n");
-        }
-        sb.append("\n#endif\n");
         return sb.toString().getBytes(StandardCharsets.UTF_8);
     }
 

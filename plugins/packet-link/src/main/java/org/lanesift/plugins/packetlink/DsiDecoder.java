@@ -30,6 +30,7 @@ final class DsiDecoder implements PacketParser.Listener {
     private final Consumer<Annotation> notes;
     final CommandLog log;
     final FrameAssembler frames;
+    final LinkFacts facts;
     long packetCount;
     long eccCorrected;
     long eccUncorrectable;
@@ -42,8 +43,10 @@ final class DsiDecoder implements PacketParser.Listener {
     private String mode;
     private String track;
 
-    DsiDecoder(String id, CommandLog log, FrameAssembler frames, Consumer<WordStream> words, Consumer<Annotation> notes) {
+    DsiDecoder(String id, CommandLog log, FrameAssembler frames, LinkFacts facts, Consumer<WordStream> words,
+               Consumer<Annotation> notes) {
         this.id = id;
+        this.facts = facts;
         this.log = log;
         this.frames = frames;
         this.words = words;
@@ -68,6 +71,9 @@ final class DsiDecoder implements PacketParser.Listener {
         flags = f;
         mode = lp ? "lp" : "hs";
         track = lp ? "packets.lp" : "packets";
+        if (!lp) {
+            facts.hsBytes(s, e, n);
+        }
         PacketParser.parse(d, 0, n, this);
         if (n > 0) {
             long[] values = new long[n];
@@ -161,6 +167,7 @@ final class DsiDecoder implements PacketParser.Listener {
         } else if (dt == DataTypes.VSYNC_START || dt == DataTypes.VSYNC_END || dt == DataTypes.HSYNC_START || dt == DataTypes.HSYNC_END) {
             frames.sync(dt, t0, t1);
         } else if (DataTypes.isPixels(dt)) {
+            facts.pixelType(dt);
             frames.pixels(dt, data, pOff, pLen, t0, t1, sus || bad);
         }
     }
@@ -192,6 +199,7 @@ final class DsiDecoder implements PacketParser.Listener {
         e.dataType = dt;
         e.checksumBad = bad;
         e.eccCorrected = status != Ecc.OK;
+        e.longPacket = isLong;
         boolean firstIsCommand = DataTypes.isDcs(dt) || DataTypes.isGenericWrite(dt);
         byte[] src = isLong ? data : bytes;
         int so = isLong ? pOff : 0;
@@ -217,6 +225,15 @@ final class DsiDecoder implements PacketParser.Listener {
         boolean memWrite = dcs && DcsCommands.isMemoryWrite(e.cmd);
         e.payloadBytes = sn;
         e.params = memWrite ? null : Arrays.copyOfRange(src, so, so + sn);
+        if (memWrite) {
+            facts.memoryWrites = true;
+        } else {
+            // the data bytes as sent, for an exact replay: both short-packet bytes, or the whole payload
+            e.data = isLong ? Arrays.copyOfRange(data, pOff, pOff + pLen) : new byte[] {(byte) (header >> 8), (byte) (header >> 16)};
+        }
+        if (dcs && e.cmd == DcsCommands.PIXEL_FORMAT && sn >= 1 && DcsCommands.bitsPerPixel(src[so]) != 0) {
+            facts.pixelBits = DcsCommands.bitsPerPixel(src[so]);
+        }
         if (dt == DataTypes.DCS_READ) {
             e.name = "read " + e.name;
         }

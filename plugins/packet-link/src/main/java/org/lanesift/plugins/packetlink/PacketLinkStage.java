@@ -50,7 +50,7 @@ final class PacketLinkStage implements Stage {
         log = new CommandLog(cfg.maxLogEntries);
         frames = new FrameAssembler(id, cfg.maxFramePixels, this::frame, ctx::annotate);
         if (cfg.dsi) {
-            dsi = new DsiDecoder(id, log, frames, w -> ctx.emit(OUT_PACKETS, w), ctx::annotate);
+            dsi = new DsiDecoder(id, log, frames, new LinkFacts(cfg.lanes), w -> ctx.emit(OUT_PACKETS, w), ctx::annotate);
             framed = null;
         } else {
             dsi = null;
@@ -424,7 +424,7 @@ final class PacketLinkStage implements Stage {
             }
             ctx.emit(OUT_FILES, new Artifact(id, s, e, id + "-commands.json", "application/json", log.json(id)));
             ctx.emit(OUT_FILES, new Artifact(id, s, e, id + "-commands.csv", "text/csv", log.csv()));
-            ctx.emit(OUT_FILES, new Artifact(id, s, e, id + "-init.h", "text/x-c", log.cHeader(id)));
+            ctx.emit(OUT_FILES, new Artifact(id, s, e, id + "-init.h", "text/x-c", new InitHeader(id, log, dsi.facts).bytes()));
             ctx.emit(OUT_FILES, new Artifact(id, s, e, id + "-timing.json", "application/json", frames.timingJson(id)));
             ctx.annotate(Annotation.on("packets", "summary").span(s, e)
                     .label(dsi.packetCount + " packets, " + log.entries.size() + " commands, " + frames.timings.size() + " frames")

@@ -151,12 +151,20 @@ class DsiBurstTest {
         assertEquals(21, csv.split("\n").length);
         assertTrue(csv.contains(",set_pixel_format,1,77,"), csv);
         String c = file(h, "dut-init.h");
-        assertTrue(c.contains("0x01, 0x01, 0x00, 0x00, 0x05, 0x00, /* soft_reset, then wait 5 ms */"), c);
-        assertTrue(c.contains("0x01, 0x11, 0x00, 0x00, 0x02, 0x00, /* exit_sleep_mode, then wait 2 ms */"), c);
-        assertTrue(c.contains("0x01, 0x3A, 0x01, 0x00, 0x77, 0x00, 0x00, /* set_pixel_format */"), c);
-        assertTrue(c.contains("0x02, 0xE0, 0x08, 0x00, 0x01, 0x02, 0x03, 0x04, 0x05, 0x06, 0x07, 0x08, 0x00, 0x00,"), c);
-        assertTrue(c.contains("0x01, 0x29, 0x00, 0x00, 0x01, 0x00, /* set_display_on, then wait 1 ms */"), c);
-        assertTrue(c.contains("_INIT_RECORDS 10"), c);
+        // records: flags (LP 1, long 2, DCS 4), data id, count, data as sent, wait in us (4 bytes LE); layout in docs/init-sequence.md
+        // soft_reset in LP, then 4.9 ms idle plus the LP exit and entry: 4900 us and a bit, rounded up
+        assertTrue(c.contains("0x05, 0x05, 0x02, 0x00, 0x01, 0x00,"), c);
+        assertTrue(c.contains("/* soft_reset, lp short DCS, then wait 49"), c);
+        assertTrue(c.contains("0x04, 0x15, 0x02, 0x00, 0x3A, 0x77, 0x00, 0x00, 0x00, 0x00, /* set_pixel_format, hs short DCS */"), c);
+        assertTrue(c.contains("0x02, 0x29, 0x09, 0x00, 0xE0, 0x01, 0x02, 0x03, 0x04, 0x05, 0x06, 0x07, 0x08,"), c);
+        assertTrue(c.contains("/* set_display_on, hs short DCS, then wait 9"), c);
+        assertTrue(c.contains("_INIT_RECORDS 8\n"), c);
+        // the frame window of the first frame apart from the init part; memory writes summarised
+        assertTrue(c.contains("0x06, 0x39, 0x05, 0x00, 0x2A, 0x00, 0x00, 0x00, 0x0F,"), c);
+        assertTrue(c.contains("_FRAME_WINDOW_RECORDS 2\n"), c);
+        assertTrue(c.contains("_FRAME_WRITES 3 "), c);
+        assertTrue(c.contains("_FRAME_PIXEL_BYTES " + (W * H * 3) + " "), c);
+        assertTrue(c.contains("_LINK_LANES 2 ") && c.contains("_LINK_PIXEL_BITS 24 ") && c.contains("_LINK_VIDEO_MODE 0 "), c);
 
         // measured delay after soft_reset: 4.9 ms idle plus the low-power exit and entry (from the generator)
         double delay = Double.parseDouble(json.split("\"delayToNextMs\": ")[1].split("[,}]")[0]);
