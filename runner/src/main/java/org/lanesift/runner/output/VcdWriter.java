@@ -44,12 +44,14 @@ public final class VcdWriter implements Closeable {
     private final String version;
     private final Map<String, Var> vars = new LinkedHashMap<>();
     private final Map<String, Integer> rank = new java.util.HashMap<>();
+    /** Per word stream (scope NUL name): {highest lane seen, 1 if any word had a flag}. */
+    private final Map<String, int[]> streams = new java.util.HashMap<>();
     private boolean closed;
 
     /** One declared signal and its spool. */
     private final class Var {
         final String scope;
-        final String name;
+        String name;
         final int width;
         String code;
         final Path spool;
@@ -71,6 +73,12 @@ public final class VcdWriter implements Closeable {
 
         final int arrival;
         String key;
+        /** Key of the output this variable belongs to (declaration order). */
+        String rankKey;
+        /** For a word stream's lane or flags variable: the stream key, the lane and whether it holds flags. */
+        String streamKey;
+        int lane;
+        boolean flagsVar;
 
         Var(String scope, String name, int width, int index) throws IOException {
             this.scope = scope;
@@ -156,17 +164,21 @@ public final class VcdWriter implements Closeable {
     }
 
     private int rankOf(Var v) {
-        Integer r = rank.get(v.key);
+        Integer r = rank.get(v.rankKey);
         return r == null ? Integer.MAX_VALUE : r;
     }
 
     private Var var(String scope, String name, int width) {
-        String key = scope + "\u0000" + name;
+        return var(scope, name, width, scope + "\u0000" + name);
+    }
+
+    private Var var(String scope, String name, int width, String key) {
         Var v = vars.get(key);
         if (v == null) {
             try {
                 v = new Var(Texts.safe(scope), Texts.safe(name), width, vars.size());
                 v.key = key;
+                v.rankKey = scope + "\u0000" + name;
             } catch (IOException e) {
                 throw new OutputException("cannot create spool in " + spoolDir + ": " + e.getMessage(), e);
             }
@@ -269,30 +281,78 @@ public final class VcdWriter implements Closeable {
     }
 
     /**
-     * Adds words to a vector of the stream's width; the value holds from a word's start until
-     * the next word, and becomes x where a word ends before the next begins.
+     * Adds words: one vector of the stream's width per lane, so that bytes that travel side by
+     * side on several lanes (and start at the same instant) are all kept, and one 8-bit vector of
+     * the words' flags per lane. A value holds from a word's start until the next word of its lane,
+     * and becomes x where a word ends before the next begins. Names are settled at {@link #close()}:
+     * a stream that only ever had lane 0 keeps its name ({@code <name>}, {@code <name>_flags}),
+     * otherwise each lane is {@code <name>_lane<k>} and {@code <name>_lane<k>_flags}; the flags
+     * vectors are left out when no word of the stream had a flag.
      *
      * @param scope instance id
      * @param name  signal name
      * @param w     the words
      */
     public void words(String scope, String name, WordStream w) {
-        Var v = var(scope, name, w.widthBits());
+        String stream = scope + "\u0000" + name;
+        int[] info = streams.computeIfAbsent(stream, k -> new int[2]);
         try {
             long[] vals = w.values();
             long[] st = w.wordStartFs();
             long[] en = w.wordEndFs();
-            long mask = v.width == 64 ? -1L : (1L << v.width) - 1;
+            int[] lanes = w.lane();
+            byte[] flags = w.flags();
+            long mask = w.widthBits() == 64 ? -1L : (1L << w.widthBits()) - 1;
             for (int i = 0; i < w.count(); i++) {
-                if (v.lastWordEnd != Long.MIN_VALUE && st[i] > v.lastWordEnd) {
-                    v.change(v.lastWordEnd, 0, UNKNOWN);
-                }
-                v.change(st[i], vals[i] & mask, KNOWN);
-                v.lastWordEnd = en[i];
+                int lane = Math.max(0, lanes[i]);
+                info[0] = Math.max(info[0], lane);
+                Var v = laneVar(scope, name, stream, lane, false, w.widthBits());
+                Var f = laneVar(scope, name, stream, lane, true, 8);
+                info[1] |= flags[i] != 0 ? 1 : 0;
+                word(v, st[i], en[i], vals[i] & mask);
+                word(f, st[i], en[i], flags[i] & 0xFF);
             }
         } catch (IOException x) {
             throw new OutputException("cannot write spool for " + scope + "." + name + ": " + x.getMessage(), x);
         }
+    }
+
+    private Var laneVar(String scope, String name, String stream, int lane, boolean flags, int width) {
+        Var v = var(scope, name, width, stream + "\u0000" + lane + (flags ? "f" : ""));
+        if (v.streamKey == null) {
+            v.streamKey = stream;
+            v.lane = lane;
+            v.flagsVar = flags;
+        }
+        return v;
+    }
+
+    private static void word(Var v, long start, long end, long value) throws IOException {
+        if (v.lastWordEnd != Long.MIN_VALUE && start > v.lastWordEnd) {
+            v.change(v.lastWordEnd, 0, UNKNOWN);
+        }
+        v.change(start, value, KNOWN);
+        v.lastWordEnd = end;
+    }
+
+    /** Final names of word-stream variables; drops flags variables of streams without flags. */
+    private List<Var> settleWordNames(List<Var> list) throws IOException {
+        List<Var> keep = new ArrayList<>();
+        for (Var v : list) {
+            if (v.streamKey == null) {
+                keep.add(v);
+                continue;
+            }
+            int[] info = streams.get(v.streamKey);
+            if (v.flagsVar && info[1] == 0) {
+                v.out.close();
+                Files.deleteIfExists(v.spool);
+                continue;
+            }
+            v.name = v.name + (info[0] > 0 ? "_lane" + v.lane : "") + (v.flagsVar ? "_flags" : "");
+            keep.add(v);
+        }
+        return keep;
     }
 
     private static void writeEdges(Var v, Edges e) throws IOException {
@@ -404,7 +464,7 @@ public final class VcdWriter implements Closeable {
         if (vars.isEmpty()) {
             return;
         }
-        List<Var> list = new ArrayList<>(vars.values());
+        List<Var> list = settleWordNames(new ArrayList<>(vars.values()));
         list.sort((a, b) -> rankOf(a) != rankOf(b) ? Integer.compare(rankOf(a), rankOf(b)) : Integer.compare(a.arrival, b.arrival));
         // group by scope, scopes in order of first appearance (in that order)
         List<String> scopes = new ArrayList<>();

@@ -51,6 +51,29 @@ class VcdWriterTest {
         assertFalse(Files.exists(tmp.resolve("spool")));
     }
 
+    /**
+     * Two lanes carry bytes side by side: bytes k and k+1 start at the same instant. Each lane gets
+     * its own vector and its own flags vector, so no byte is lost (IEEE 1364-2005 18.2: one value
+     * per variable per time).
+     */
+    @Test
+    void wordsOnSeveralLanesKeepEveryWordAndItsFlags() throws Exception {
+        Path f = tmp.resolve("lanes.vcd");
+        VcdWriter w = new VcdWriter(f, tmp.resolve("spool"), "test");
+        WordStream ws = new WordStream("p", 0, 20, 4, 8, new long[] {0x11, 0x22, 0x33, 0x44}, new long[] {0, 0, 10, 10},
+                new long[] {10, 10, 20, 20}, new int[] {0, 1, 0, 1}, new byte[] {6, 0, 0, 32});
+        w.words("dsi", "packets", ws);
+        w.close();
+        String head = Files.readString(f);
+        assertTrue(head.contains("$scope module dsi $end\n$var wire 8 ! packets_lane0 [7:0] $end\n"
+                + "$var wire 8 \" packets_lane0_flags [7:0] $end\n$var wire 8 # packets_lane1 [7:0] $end\n"
+                + "$var wire 8 $ packets_lane1_flags [7:0] $end\n$upscope $end\n"), head);
+        assertEquals("#0\n$dumpvars\nbx !\nbx \"\nbx #\nbx $\n$end\n"
+                + "b10001 !\nb110 \"\nb100010 #\nb0 $\n"
+                + "#10\nb110011 !\nb0 \"\nb1000100 #\nb100000 $\n"
+                + "#20\nbx !\nbx \"\nbx #\nbx $\n", bodyAfterDefinitions(f));
+    }
+
     @Test
     void logicKeepsTheLevelAfterAnUnknownRun() throws Exception {
         Path f = tmp.resolve("l.vcd");

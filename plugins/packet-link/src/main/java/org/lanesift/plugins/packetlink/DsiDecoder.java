@@ -31,6 +31,7 @@ final class DsiDecoder implements PacketParser.Listener {
     final CommandLog log;
     final FrameAssembler frames;
     final LinkFacts facts;
+    final PacketExport export;
     long packetCount;
     long eccCorrected;
     long eccUncorrectable;
@@ -40,12 +41,14 @@ final class DsiDecoder implements PacketParser.Listener {
     private long[] startFs;
     private long[] endFs;
     private byte[] flags;
+    private int[] lanes;
     private String mode;
     private String track;
 
-    DsiDecoder(String id, CommandLog log, FrameAssembler frames, LinkFacts facts, Consumer<WordStream> words,
+    DsiDecoder(String id, CommandLog log, FrameAssembler frames, LinkFacts facts, PacketExport export, Consumer<WordStream> words,
                Consumer<Annotation> notes) {
         this.id = id;
+        this.export = export;
         this.facts = facts;
         this.log = log;
         this.frames = frames;
@@ -69,6 +72,7 @@ final class DsiDecoder implements PacketParser.Listener {
         startFs = s;
         endFs = e;
         flags = f;
+        lanes = lane;
         mode = lp ? "lp" : "hs";
         track = lp ? "packets.lp" : "packets";
         if (!lp) {
@@ -148,6 +152,25 @@ final class DsiDecoder implements PacketParser.Listener {
             pb.field("raw", Field.bytes(Arrays.copyOfRange(data, off, end)));
         }
         notes.accept(pb.build());
+        PacketExport.Row row = new PacketExport.Row();
+        row.kind = "packet";
+        row.startFs = t0;
+        row.endFs = t1;
+        row.mode = mode;
+        row.laneMask = PacketExport.lanes(lanes, off, end);
+        row.dataId = di;
+        row.longPacket = isLong;
+        row.wordCount = pLen;
+        row.data = isLong ? PacketExport.copy(data, pOff, pOff + pLen) : new byte[] {(byte) (header >> 8), (byte) (header >> 16)};
+        row.eccByte = data[off + 3] & 0xFF;
+        row.ecc = status == Ecc.OK ? "ok" : status == Ecc.CORRECTED_HEADER_BIT ? "corrected-header-bit" : "corrected-ecc-bit";
+        if (status != Ecc.OK) {
+            row.headerReceived = PacketExport.copy(data, off, off + 4);
+        }
+        row.checksumRx = rx;
+        row.checksumCalc = calc;
+        row.suspect = sus;
+        export.add(row);
         if (status == Ecc.CORRECTED_HEADER_BIT || status == Ecc.CORRECTED_ECC_BIT) {
             eccCorrected++;
             int bit = Ecc.bit(ecc);
@@ -266,6 +289,20 @@ final class DsiDecoder implements PacketParser.Listener {
         }
         long t0 = startFs[off];
         long t1 = endFs[off + remaining - 1];
+        PacketExport.Row row = new PacketExport.Row();
+        row.kind = "unparsed";
+        row.startFs = t0;
+        row.endFs = t1;
+        row.mode = mode;
+        row.laneMask = PacketExport.lanes(lanes, off, off + remaining);
+        row.data = PacketExport.copy(data, off, off + remaining);
+        row.suspect = suspect(off, off + remaining);
+        row.reason = switch (reason) {
+            case PacketParser.STOP_UNCORRECTABLE -> "header-uncorrectable";
+            case PacketParser.STOP_TRUNCATED -> "packet-truncated";
+            default -> "leftover";
+        };
+        export.add(row);
         switch (reason) {
             case PacketParser.STOP_UNCORRECTABLE -> {
                 eccUncorrectable++;

@@ -26,6 +26,7 @@ import org.lanesift.time.TimeValue;
  * <p><b>Outputs</b>: {@code packets} (WORDS: one 8-bit word per burst byte, lanes merged, with
  * lane and flags; in the framed profile one word of {@code wordBits}), {@code frames} (FRAME) and
  * {@code files} (ARTIFACT: {@code <id>-commands.json}, {@code <id>-commands.csv},
+ * {@code <id>-packets.jsonl}, {@code <id>-packets.csv} (every packet, docs/packet-export.md),
  * {@code <id>-init.h}, {@code <id>-timing.json}, {@code <id>-frame-NNNN.png}; framed profile:
  * {@code <id>-words.csv}).
  *
@@ -85,7 +86,7 @@ public final class PacketLinkPlugin implements PluginProvider {
             .inputs(PacketLinkPlugin::inputs)
             .output(PortSpec.of("packets", DataKind.WORDS, "burst bytes (dsi) or words (framed) with lane and flags"))
             .output(PortSpec.of("frames", DataKind.FRAME, "frames from video-mode streams and command-mode memory writes"))
-            .output(PortSpec.of("files", DataKind.ARTIFACT, "command log, init sequence, timing report, frame PNGs, word CSV"))
+            .output(PortSpec.of("files", DataKind.ARTIFACT, "command log, packet export, init sequence, timing report, frame PNGs, word CSV"))
             .build();
 
     /** Creates the provider (stateless). */

@@ -50,7 +50,7 @@ final class PacketLinkStage implements Stage {
         log = new CommandLog(cfg.maxLogEntries);
         frames = new FrameAssembler(id, cfg.maxFramePixels, this::frame, ctx::annotate);
         if (cfg.dsi) {
-            dsi = new DsiDecoder(id, log, frames, new LinkFacts(cfg.lanes), w -> ctx.emit(OUT_PACKETS, w), ctx::annotate);
+            dsi = new DsiDecoder(id, log, frames, new LinkFacts(cfg.lanes), new PacketExport(cfg.maxLogEntries), w -> ctx.emit(OUT_PACKETS, w), ctx::annotate);
             framed = null;
         } else {
             dsi = null;
@@ -424,6 +424,14 @@ final class PacketLinkStage implements Stage {
             }
             ctx.emit(OUT_FILES, new Artifact(id, s, e, id + "-commands.json", "application/json", log.json(id)));
             ctx.emit(OUT_FILES, new Artifact(id, s, e, id + "-commands.csv", "text/csv", log.csv()));
+            if (dsi.export.dropped > 0) {
+                ctx.annotate(Annotation.on("packets", "packet-export-full").span(s, e).severity(Severity.WARNING)
+                        .label("packet export limit reached (maxLogEntries " + cfg.maxLogEntries + " rows or "
+                                + (PacketExport.MAX_DATA_BYTES >> 20) + " MiB of data); " + dsi.export.dropped
+                                + " later packets only on the packets output").build());
+            }
+            ctx.emit(OUT_FILES, new Artifact(id, s, e, id + "-packets.jsonl", "application/jsonl", dsi.export.jsonl()));
+            ctx.emit(OUT_FILES, new Artifact(id, s, e, id + "-packets.csv", "text/csv", dsi.export.csv()));
             ctx.emit(OUT_FILES, new Artifact(id, s, e, id + "-init.h", "text/x-c", new InitHeader(id, log, dsi.facts).bytes()));
             ctx.emit(OUT_FILES, new Artifact(id, s, e, id + "-timing.json", "application/json", frames.timingJson(id)));
             ctx.annotate(Annotation.on("packets", "summary").span(s, e)
