@@ -22,8 +22,10 @@ import org.lanesift.plugin.StageContext;
  * <p>Inputs: {@code lane0..laneN-1} (BITS) for a single link, or {@code odd0..}/{@code even0..}
  * for a dual link (odd = the 1st, 3rd, ... pixel of each line); N is 3 for 18-bit and 4 for
  * 24-bit tables. Outputs: {@code frames} (FRAME) and {@code files} (ARTIFACT: PNGs and
- * {@code <id>-timing.json} / {@code <id>-timing.txt}). Options and file formats are described in
- * {@code docs/pixel-mapping.md} and {@code docs/timing-report.md}.
+ * {@code <id>-timing.json} / {@code <id>-timing.txt}; when the timing was measured also
+ * {@code <id>-timing.dts} (devicetree display-timings node), {@code <id>-timing.h} (C header) and
+ * {@code <id>-tx.v} (a Verilog transmitter). Options and file formats are described in
+ * {@code docs/pixel-mapping.md}, {@code docs/timing-report.md} and {@code docs/transmitter.md}.
  */
 public final class PixelLinkPlugin implements PluginProvider {
     /** The plugin id used in chain files. */

@@ -29,6 +29,8 @@ final class PixelLinkStage implements Stage {
     private final int[][] tables;
     private final FrameAssembler asm;
     private final Timing timing;
+    private final SlotMapping mapping;
+    private final boolean reverse;
     private final int[] px;
     private final long[] tt;
     private int fill;
@@ -50,6 +52,8 @@ final class PixelLinkStage implements Stage {
             lanes[i] = new LaneBuffer(laneNames.get(i), i == 0);
         }
         this.tables = mapping.lookupTables(reverse);
+        this.mapping = mapping;
+        this.reverse = reverse;
         this.timing = new Timing();
         timing.mapping = mapping.name();
         timing.dual = dual;
@@ -397,6 +401,10 @@ final class PixelLinkStage implements Stage {
         if (panel.measured()) {
             ctx.emit(1, new Artifact(id, end, end, id + "-timing.dts", "text/plain", panel.dts().getBytes(StandardCharsets.UTF_8)));
             ctx.emit(1, new Artifact(id, end, end, id + "-timing.h", "text/x-c", panel.cHeader().getBytes(StandardCharsets.UTF_8)));
+        }
+        TransmitterExport tx = new TransmitterExport(timing, mapping, reverse, id);
+        if (tx.possible(panel)) {
+            ctx.emit(1, new Artifact(id, end, end, id + "-tx.v", "text/x-verilog", tx.verilog(panel).getBytes(StandardCharsets.UTF_8)));
         }
     }
 
