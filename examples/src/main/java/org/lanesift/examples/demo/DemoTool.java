@@ -223,7 +223,10 @@ public final class DemoTool implements Tool {
                     number(at(ring, "dampingRatio"), 0), truthFn / 1e6, Impairments.pixelLinkDefaults().ringDamping()));
             report.append("Files: `pixel/` (frames `panel-frame-NNNN.png`, `panel-timing.json`/`.txt`, `d0-eye.png` (eye of D0, P-N), ")
                     .append("`d1-edges.json` (edges of D1, P-N), `sampler-margins.json`, `clk-p-ringing.json` (ringing on the CLK_P leg), ")
-                    .append("`clk-jitter.json` and `clk-bathtub.png` (clock edges), `report.md` of the decode pass).\n\n");
+                    .append("`clk-jitter.json` and `clk-bathtub.png` (clock edges), `report.md` of the decode pass).\n")
+                    .append("To build with: `pixel/panel-timing.dts` (devicetree display-timings node), `pixel/panel-timing.h` ")
+                    .append("(the same values as C macros) and `pixel/panel-tx.v` (a synthesisable Verilog 7:1 transmitter with this ")
+                    .append("timing, the decoded slot mapping and a test picture); docs/timing-report.md and docs/transmitter.md.\n\n");
         }
 
         private void comparePacket(PacketLinkScene.Truth t) throws IOException {
@@ -271,7 +274,10 @@ public final class DemoTool implements Tool {
             skewLines("packet link", dir.resolve("skew/packet-legs.json"), dir.resolve("skew/packet-lanes.json"),
                     DemoChains.PACKET_PAIRS, t.legSkewPs(), t.laneSkewPs(), packetNotes);
             report.append("Files: `packet/` (`dsi-commands.json`/`.csv`, the init sequence `dsi-init.h`, frames `dsi-frame-NNNN.png`, ")
-                    .append("`dsi-timing.json`, `report.md` of the decode pass).\n\n");
+                    .append("`dsi-timing.json`, every packet in `dsi-packets.jsonl`/`.csv`, `report.md` of the decode pass).\n")
+                    .append("To build with: `packet/dsi-init.h` holds the link configuration, the init commands with their mode, ")
+                    .append("data identifier and waits in whole microseconds (rounded up), and the first frame's window apart from ")
+                    .append("them; docs/init-sequence.md and docs/packet-export.md.\n\n");
         }
 
         /** Skew errors: the corrections should be minus the injected skews. */
