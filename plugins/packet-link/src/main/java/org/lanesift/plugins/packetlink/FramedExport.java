@@ -7,6 +7,7 @@ import java.util.function.Consumer;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Field;
 import org.lanesift.data.WordStream;
+import org.lanesift.json.JsonWriter;
 import org.lanesift.json.NumberStyle;
 
 /**
@@ -24,6 +25,10 @@ final class FramedExport {
     private final Consumer<WordStream> out;
     private final Consumer<Annotation> notes;
     private final StringBuilder csv = new StringBuilder(4096);
+    private final StringBuilder units = new StringBuilder(4096);
+    private long unitWords;
+    private long unitCount;
+    boolean unitsTruncated;
     long rows;
     long words;
     long groups;
@@ -66,6 +71,7 @@ final class FramedExport {
         }
         words += n;
         if (group >= 0) {
+            unit("group", group, v, s, e, lane, f, n);
             groups++;
             StringBuilder hex = new StringBuilder();
             for (int i = 0; i < n && i < 64; i++) {
@@ -80,6 +86,49 @@ final class FramedExport {
         }
         out.accept(new WordStream(id + ".words", s[0], Math.max(s[0], e[n - 1]), n, wordBits, Arrays.copyOf(v, n),
                 Arrays.copyOf(s, n), Arrays.copyOf(e, n), Arrays.copyOf(lane, n), Arrays.copyOf(f, n)));
+    }
+
+    /**
+     * Records one burst or group for {@code <id>-bursts.jsonl} (format in docs/framed-link.md):
+     * its words in wire order, each with its lane and flags, so a replay tool can send it again.
+     * Bounded by the same word limit as the CSV.
+     */
+    void unit(String kind, long index, long[] v, long[] s, long[] e, int[] lane, byte[] f, int n) {
+        if (n == 0 || unitsTruncated) {
+            return;
+        }
+        if (unitWords + n > maxRows) {
+            unitsTruncated = true;
+            return;
+        }
+        unitWords += n;
+        int hexDigits = (wordBits + 3) / 4;
+        JsonWriter j = JsonWriter.compact().numberStyle(TIME_S);
+        j.beginObject().field("index", unitCount++).field("kind", kind).field(kind.equals("group") ? "group" : "burst", index)
+                .field("startS", s[0] * 1e-15).field("endS", Math.max(s[0], e[n - 1]) * 1e-15).field("wordBits", wordBits)
+                .field("count", n).name("words").beginArray();
+        for (int i = 0; i < n; i++) {
+            j.value(String.format(Locale.ROOT, "%0" + hexDigits + "X", v[i]));
+        }
+        j.endArray().name("lanes").beginArray();
+        for (int i = 0; i < n; i++) {
+            j.value(lane[i]);
+        }
+        j.endArray().name("flags").beginArray();
+        for (int i = 0; i < n; i++) {
+            j.value(f[i]);
+        }
+        j.endArray().endObject();
+        units.append(j.finish()).append('\n');
+    }
+
+    byte[] unitsJsonl() {
+        if (!unitsTruncated) {
+            return units.toString().getBytes(StandardCharsets.UTF_8);
+        }
+        JsonWriter j = JsonWriter.compact();
+        j.beginObject().field("kind", "export-full").field("maxWords", maxRows).endObject();
+        return (units + j.finish() + "\n").getBytes(StandardCharsets.UTF_8);
     }
 
     byte[] csv() {

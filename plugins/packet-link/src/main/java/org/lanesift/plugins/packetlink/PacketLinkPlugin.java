@@ -28,7 +28,7 @@ import org.lanesift.time.TimeValue;
  * {@code files} (ARTIFACT: {@code <id>-commands.json}, {@code <id>-commands.csv},
  * {@code <id>-packets.jsonl}, {@code <id>-packets.csv} (every packet, docs/packet-export.md),
  * {@code <id>-init.h}, {@code <id>-timing.json}, {@code <id>-frame-NNNN.png}; framed profile:
- * {@code <id>-words.csv}).
+ * {@code <id>-words.csv} and {@code <id>-bursts.jsonl}).
  *
  * <p><b>Chain</b> (two data lanes, legs probed single-ended; the clock and data pairs go through
  * the {@code differential} plugin and the {@code dual-edge} sampler):

@@ -222,6 +222,7 @@ final class PacketLinkStage implements Stage {
             }
             dsi.burst(b, s, e, ln, f, merged, false);
         } else {
+            framed.unit("burst", burstCount - 1, v, s, e, ln, f, merged);
             framed.words(v, s, e, ln, f, merged, -1);
         }
     }
@@ -445,6 +446,7 @@ final class PacketLinkStage implements Stage {
                         .label("word export limit " + cfg.maxLogEntries + " reached; later words only on the packets output").build());
             }
             ctx.emit(OUT_FILES, new Artifact(id, s, e, id + "-words.csv", "text/csv", framed.csv()));
+            ctx.emit(OUT_FILES, new Artifact(id, s, e, id + "-bursts.jsonl", "application/jsonl", framed.unitsJsonl()));
         }
     }
 }
