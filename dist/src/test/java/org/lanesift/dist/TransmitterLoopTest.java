@@ -3,7 +3,6 @@ package org.lanesift.dist;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
-import static org.junit.jupiter.api.Assertions.fail;
 
 import java.awt.image.BufferedImage;
 import java.io.BufferedWriter;
@@ -12,10 +11,10 @@ import java.io.PrintStream;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.time.Duration;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Random;
-import java.util.concurrent.TimeUnit;
 import javax.imageio.ImageIO;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -217,15 +216,7 @@ class TransmitterLoopTest {
     }
 
     static void run(Path dir, List<String> cmd) throws Exception {
-        Path log = dir.resolve("log.txt");
-        Process p = new ProcessBuilder(cmd).directory(dir.toFile()).redirectErrorStream(true).redirectOutput(log.toFile()).start();
-        if (!p.waitFor(120, TimeUnit.SECONDS)) {
-            p.destroyForcibly();
-            fail(cmd + " did not finish in 120 s");
-        }
-        String out = Files.readString(log);
-        if (p.exitValue() != 0 || out.contains("warning")) {
-            fail(cmd + " exited with " + p.exitValue() + ": " + out);
-        }
+        String out = ExternalTool.run(dir, Duration.ofSeconds(120), cmd);
+        assertFalse(out.contains("warning"), cmd + ": " + out);
     }
 }

@@ -1,8 +1,13 @@
 package org.lanesift.testkit;
 
 import java.io.File;
+import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.time.Duration;
+import java.util.List;
+import java.util.concurrent.TimeUnit;
+import org.junit.jupiter.api.Assertions;
 import org.junit.jupiter.api.Assumptions;
 
 /**
@@ -41,6 +46,32 @@ public final class ExternalTool {
      */
     public static boolean underCi() {
         return "true".equalsIgnoreCase(System.getenv("CI"));
+    }
+
+    /**
+     * Runs a program in a folder and returns what it wrote (standard output and error together);
+     * fails the test, with that text, when it exits with a non-zero code or outlives the timeout
+     * (then it is stopped).
+     *
+     * @param dir     working folder; the output goes to a file {@code <program>-output.txt} there
+     * @param timeout longest run
+     * @param command program and arguments
+     * @return its output
+     * @throws IOException if the program cannot be started or its output read
+     * @throws InterruptedException if the test is interrupted while waiting
+     */
+    public static String run(Path dir, Duration timeout, List<String> command) throws IOException, InterruptedException {
+        Path log = dir.resolve(Path.of(command.get(0)).getFileName() + "-output.txt");
+        Process p = new ProcessBuilder(command).directory(dir.toFile()).redirectErrorStream(true).redirectOutput(log.toFile()).start();
+        if (!p.waitFor(timeout.toMillis(), TimeUnit.MILLISECONDS)) {
+            p.destroyForcibly();
+            Assertions.fail(command + " did not finish in " + timeout.toSeconds() + " s");
+        }
+        String out = Files.readString(log);
+        if (p.exitValue() != 0) {
+            Assertions.fail(command + " exited with " + p.exitValue() + ": " + out);
+        }
+        return out;
     }
 
     /**

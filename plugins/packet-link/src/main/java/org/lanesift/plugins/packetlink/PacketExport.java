@@ -21,7 +21,7 @@ import org.lanesift.json.NumberStyle;
  */
 final class PacketExport {
     /** Data bytes kept over all rows (the rest is counted, not kept). */
-    static final long MAX_DATA_BYTES = 64L << 20;
+    static final long MAX_DATA_BYTES = 8L << 20;
     private static final NumberStyle NUMBERS = NumberStyle.significant(15);
 
     /** One row. */

@@ -2,15 +2,14 @@ package org.lanesift.plugins.packetlink;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
-import static org.junit.jupiter.api.Assertions.fail;
 
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.time.Duration;
 import java.util.ArrayList;
 import java.util.HexFormat;
 import java.util.List;
 import java.util.Locale;
-import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.lanesift.json.JsonValue;
@@ -100,8 +99,9 @@ class InitReplayTest {
         String header = DsiBurstTest.file(h, "dut-init.h");
         Files.writeString(dir.resolve("dut-init.h"), header);
         Files.copy(Path.of("src", "test", "c", "replay_tx.c"), dir.resolve("replay_tx.c"));
-        run(dir, List.of(gcc.toString(), "-std=c99", "-Wall", "-Wextra", "-Werror", "-o", "replay_tx", "replay_tx.c"));
-        List<String> out = Files.readAllLines(dir.resolve(run(dir, List.of(dir.resolve("replay_tx").toString()))));
+        ExternalTool.run(dir, Duration.ofSeconds(60), List.of(gcc.toString(), "-std=c99", "-Wall", "-Wextra", "-Werror", "-o", "replay_tx",
+                "replay_tx.c"));
+        List<String> out = ExternalTool.run(dir, Duration.ofSeconds(60), List.of(dir.resolve("replay_tx").toString())).lines().toList();
         int sep = out.indexOf("--");
         assertTrue(sep > 0, out::toString);
         List<Replayed> init = out.subList(0, sep).stream().map(Replayed::parse).toList();
@@ -186,20 +186,5 @@ class InitReplayTest {
         assertEquals(13, InitHeader.replayWaitUs(12 * US + 1));
         assertEquals(13, InitHeader.replayWaitUs(12_400 * NS));
         assertEquals(InitHeader.MAX_WAIT_US, InitHeader.replayWaitUs(Long.MAX_VALUE));
-    }
-
-    /** Runs a program in dir; returns the name of the file holding its stdout. */
-    static String run(Path dir, List<String> cmd) throws Exception {
-        String name = "out-" + Path.of(cmd.get(0)).getFileName() + ".txt";
-        Process p = new ProcessBuilder(cmd).directory(dir.toFile()).redirectOutput(dir.resolve(name).toFile())
-                .redirectError(dir.resolve("err.txt").toFile()).start();
-        if (!p.waitFor(60, TimeUnit.SECONDS)) {
-            p.destroyForcibly();
-            fail(cmd + " did not finish in 60 s");
-        }
-        if (p.exitValue() != 0) {
-            fail(cmd + " exited with " + p.exitValue() + ": " + Files.readString(dir.resolve("err.txt")) + Files.readString(dir.resolve(name)));
-        }
-        return name;
     }
 }

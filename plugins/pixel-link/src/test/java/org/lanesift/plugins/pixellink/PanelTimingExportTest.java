@@ -3,14 +3,13 @@ package org.lanesift.plugins.pixellink;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
-import static org.junit.jupiter.api.Assertions.fail;
 
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.time.Duration;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
-import java.util.concurrent.TimeUnit;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import org.junit.jupiter.api.Test;
@@ -127,16 +126,6 @@ class PanelTimingExportTest {
     }
 
     static String run(Path dir, List<String> cmd) throws Exception {
-        Path log = dir.resolve("log.txt");
-        Process p = new ProcessBuilder(cmd).directory(dir.toFile()).redirectErrorStream(true).redirectOutput(log.toFile()).start();
-        if (!p.waitFor(60, TimeUnit.SECONDS)) {
-            p.destroyForcibly();
-            fail(cmd + " did not finish in 60 s");
-        }
-        String out = Files.readString(log);
-        if (p.exitValue() != 0) {
-            fail(cmd + " exited with " + p.exitValue() + ": " + out);
-        }
-        return out;
+        return ExternalTool.run(dir, Duration.ofSeconds(60), cmd);
     }
 }
