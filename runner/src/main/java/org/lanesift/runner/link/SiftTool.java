@@ -27,9 +27,9 @@ import org.lanesift.runner.capture.Inspector;
 /**
  * {@code lanesift sift}: the whole job on one capture in one command. It finds the pairs and the
  * clock (or takes a channel map), decides the link kind, derives the unit interval from the
- * measured clock, writes the three chain files (leg skew, lane skew, decode) with paths relative
- * to themselves, runs them, merges each estimation pass's tables for the next pass
- * ({@link SkewTables}) and writes one report ({@link SiftReport}) that leads with the result.
+ * measured clock, writes one chain file with paths relative to itself whose skew estimators feed
+ * the corrections through calibration wires (the engine runs them in calibration passes before the
+ * decode), runs it once and writes one report ({@link SiftReport}) that leads with the result.
  */
 public final class SiftTool implements Tool {
     /** Exit status of a run whose findings reach the {@code --fail-on} severity. */
@@ -40,8 +40,9 @@ public final class SiftTool implements Tool {
             .description("Finds the differential pairs and the clock pair (or takes --map / --map-file), estimates the skew",
                     "between the legs of every pair and between every data pair and the clock, derives the unit interval",
                     "from the measured clock (pixel link: clock period / 7; packet link: half the DDR clock period), chooses",
-                    "the slot mapping from the lane count and decodes. Writes OUT/report.md, OUT/report.json, the chain",
-                    "files it ran (OUT/chains, rerunnable with 'lanesift run') and every decoder output (OUT/decode).")
+                    "the slot mapping from the lane count and decodes, all in one chain run. Writes OUT/report.md,",
+                    "OUT/report.json, the chain file it ran (OUT/chains/sift.json, rerunnable with 'lanesift run'), the",
+                    "skew tables applied (OUT/skew) and every decoder output (OUT/decode).")
             .required(OptionSpec.text("capture", null, "the capture: CSV, VCD with analog (real) signals, or raw binary with a JSON sidecar"),
                     "FILE")
             .option(OptionSpec.choice("link", "auto", "link kind: pixel (7:1 LVDS), packet (D-PHY/DSI-like) or auto",
@@ -122,43 +123,38 @@ public final class SiftTool implements Tool {
         return pairs;
     }
 
-    /** What the passes left behind. */
+    /** The chain file sift writes and runs, under OUT/chains. */
+    static final String CHAIN = "sift.json";
+
+    /** What the run left behind. */
     private record SiftResult(int failedExit, List<String> notes) {
     }
 
     private static SiftResult runPasses(Path capture, Path out, String plugin, List<LinkChains.Pair> pairs, LinkFacts facts,
                                         ToolConsole console) throws IOException {
         Path chains = out.resolve("chains");
-        for (String d : new String[] {"chains", "skew", "work/1-legs", "work/2-lanes", "decode"}) {
+        for (String d : new String[] {"chains", "skew", "decode"}) {
             Files.createDirectories(out.resolve(d));
         }
-        String capRel = rel(chains, capture);
-        LinkChains.Capture cap = new LinkChains.Capture(plugin, capRel, pairs);
-        String legTable = "../skew/legs.json";
-        String laneTable = "../skew/lanes.json";
-        String what = facts.packet() ? "packet link" : "7:1 pixel link";
+        LinkChains.Capture cap = new LinkChains.Capture(plugin, rel(chains, capture), pairs);
         List<String> notes = new ArrayList<>();
-        ChainModels.write(chains.resolve("1-legs.json"), LinkChains.legs(what + ", pass 1: skew between the two legs of each pair", cap));
-        int code = run(chains.resolve("1-legs.json"), out.resolve("work/1-legs"), console);
-        if (code != 0) {
-            return new SiftResult(code, notes);
+        // one chain, one run: the engine runs the skew estimators in calibration passes over the capture and
+        // feeds their tables to the corrections before the decode reads the capture from its start
+        Path chain = chains.resolve(CHAIN);
+        ChainModels.write(chain, facts.packet()
+                ? LinkChains.packetOneRun("packet link: leg and lane skews estimated and corrected in this run;"
+                        + " DDR sampling, packets, commands, frames", cap)
+                : LinkChains.pixelOneRun("7:1 pixel link: leg and lane skews estimated and corrected in this run;"
+                        + " 7:1 sampling, frames, timing, eye, jitter", cap,
+                        String.format(Locale.ROOT, "%.3fps", facts.unitIntervalFs() / 1e3), facts.mapping()));
+        int code = run(chain, out.resolve("decode"), console);
+        if (code == 0) {
+            // the tables as applied, kept per probe set (docs/skew-table.md)
+            Files.copy(out.resolve("decode/legs-applied-skew.json"), out.resolve("skew/legs.json"),
+                    java.nio.file.StandardCopyOption.REPLACE_EXISTING);
+            Files.copy(out.resolve("decode/lanes-applied-skew.json"), out.resolve("skew/lanes.json"),
+                    java.nio.file.StandardCopyOption.REPLACE_EXISTING);
         }
-        SkewTables.merge(out.resolve("work/1-legs"), "legs-", out.resolve("skew/legs.json"), notes);
-        ChainModels.write(chains.resolve("2-lanes.json"), facts.packet()
-                ? LinkChains.packetLanes(what + ", pass 2: legs corrected; skew of each data lane against the clock", cap, legTable)
-                : LinkChains.pixelLanes(what + ", pass 2: legs corrected; skew of each lane on the slot grid", cap, legTable,
-                        String.format(Locale.ROOT, "%.3fps", facts.unitIntervalFs() / 1e3)));
-        code = run(chains.resolve("2-lanes.json"), out.resolve("work/2-lanes"), console);
-        if (code != 0) {
-            return new SiftResult(code, notes);
-        }
-        SkewTables.merge(out.resolve("work/2-lanes"), "lanes", out.resolve("skew/lanes.json"), notes);
-        ChainModels.write(chains.resolve("3-decode.json"), facts.packet()
-                ? LinkChains.packetDecode(what + ", pass 3: skews corrected; DDR sampling, packets, commands, frames", cap,
-                        legTable, laneTable)
-                : LinkChains.pixelDecode(what + ", pass 3: skews corrected; 7:1 sampling, frames, timing, eye, jitter", cap,
-                        legTable, laneTable, facts.mapping()));
-        code = run(chains.resolve("3-decode.json"), out.resolve("decode"), console);
         return new SiftResult(code, notes);
     }
 
