@@ -216,6 +216,41 @@ public final class LinkChains {
         return c.packetDecoders().model();
     }
 
+    /**
+     * A 7:1 pixel link from a logic capture (one channel per lane, no legs): lane skew estimated
+     * on the logic edges and corrected in the same run, then 7:1 sampling, frames, timing and the
+     * clock's jitter (the analog measurements need legs).
+     *
+     * @param description  the chain's description
+     * @param cap          the capture; every pair's N channel is empty
+     * @param unitInterval the slot time as an option value
+     * @param mapping      the pixel-link slot mapping
+     * @param logicBlocks  true when the reader gives LOGIC samples (a logic CSV), false for edge lists (VCD)
+     * @return the chain model
+     */
+    public static Map<String, Object> pixelLogicOneRun(String description, Capture cap, String unitInterval, String mapping,
+                                                       boolean logicBlocks) {
+        LinkChains c = new LinkChains(description, cap);
+        List<Pair> pairs = cap.pairs();
+        if (logicBlocks) {
+            c.node("edges", "logic-edges", "channels", pairs.size());
+            for (int k = 0; k < pairs.size(); k++) {
+                c.wire("cap." + pairs.get(k).p(), "edges.in" + k);
+            }
+        }
+        int n = pairs.size();
+        c.node(LANE_ESTIMATE, "skew-estimate", "mode", "lanes", "lanes", n, "unitInterval", unitInterval);
+        for (int k = 0; k < n; k++) {
+            c.wire(logicBlocks ? "edges.out" + k : "cap." + pairs.get(k).p(), LANE_ESTIMATE + ".lane" + k);
+        }
+        c.node("lanes", "deskew", "kind", "edges", "channels", n, "tables", 1, "minConfidence", SkewTables.MIN_CONFIDENCE);
+        c.wire(LANE_ESTIMATE + ".table", "lanes.table0");
+        for (int k = 0; k < n; k++) {
+            c.wire(logicBlocks ? "edges.out" + k : "cap." + pairs.get(k).p(), "lanes.in" + k);
+        }
+        return c.pixelSampling(mapping).model();
+    }
+
     private static List<String> diffPairs(Capture cap) {
         return List.of(cap.pairs().get(1).name(), cap.pairs().get(Math.min(2, cap.pairs().size() - 1)).name());
     }
@@ -257,6 +292,25 @@ public final class LinkChains {
                                                   String mapping) {
         return new LinkChains(description, cap).receivers(legTable, false, diffPairs(cap)).laneDeskew(laneTable)
                 .pixelDecoders(mapping).model();
+    }
+
+    /** 7:1 sampling, frames and timing, and the clock lane's jitter: what needs no analog signal. */
+    private LinkChains pixelSampling(String mapping) {
+        LinkChains c = this;
+        int lanes = cap.dataLanes();
+        c.node("sampler", "dual-edge", "mode", "multiplied", "slots", 7, "lanes", lanes);
+        c.wire("lanes.out0", "sampler.clock");
+        for (int k = 0; k < lanes; k++) {
+            c.wire("lanes.out" + (k + 1), "sampler.lane" + k);
+        }
+        c.node("panel", "pixel-link", "mapping", mapping, "pictures", "all");
+        for (int k = 0; k < lanes; k++) {
+            c.wire("sampler.bits" + k, "panel.lane" + k);
+        }
+        String jitter = c.freeId(idOf(cap.pairs().get(0).name()));
+        c.node(jitter, "jitter", "edge", "rising");
+        c.wire("lanes.out0", jitter + ".clock");
+        return c;
     }
 
     private LinkChains pixelDecoders(String mapping) {

@@ -64,6 +64,9 @@ final class SiftReport {
      */
     private void suspectSkews(Path... tables) throws IOException {
         for (Path t : tables) {
+            if (!Files.exists(t)) {
+                continue; // no legs table: a logic capture
+            }
             JsonValue ch = at(read(t), "channels");
             if (ch == null || !ch.isObject()) {
                 continue;
@@ -152,11 +155,11 @@ final class SiftReport {
     }
 
     private void skews(Path legs, Path lanes, List<LinkChains.Pair> pairs) throws IOException {
-        JsonValue lg = at(read(legs), "channels");
+        JsonValue lg = Files.exists(legs) ? at(read(legs), "channels") : null; // a logic capture has no legs
         JsonValue ln = at(read(lanes), "channels");
         List<Object> list = new ArrayList<>();
         md.append("### Skews\n\n| channel | skew | against | kind | confidence | source |\n| --- | --- | --- | --- | --- | --- |\n");
-        for (LinkChains.Pair p : pairs) {
+        for (LinkChains.Pair p : lg == null ? List.<LinkChains.Pair>of() : pairs) {
             double ps = num(at(lg, p.n(), "offsetPs")) - num(at(lg, p.p(), "offsetPs"));
             skewRow(list, p.n(), p.p(), "leg", -ps, num(at(lg, p.n(), "confidence")), text(at(lg, p.n(), "method")));
         }
@@ -275,7 +278,7 @@ final class SiftReport {
         }
         md.append("- pairs: ");
         for (LinkChains.Pair p : pairs) {
-            md.append(p.name()).append(" = ").append(p.p()).append(" / ").append(p.n()).append(p == pairs.get(0) ? " (clock)" : "")
+            md.append(p.name()).append(" = ").append(p.p()).append(p.n().isEmpty() ? "" : " / " + p.n()).append(p == pairs.get(0) ? " (clock)" : "")
                     .append(p == pairs.get(pairs.size() - 1) ? "" : ", ");
         }
         md.append(" (").append(((Map<?, ?>) link.get("pairs")).get("source")).append(")\n\n");

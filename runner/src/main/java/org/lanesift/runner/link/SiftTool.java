@@ -43,12 +43,13 @@ public final class SiftTool implements Tool {
                     "the slot mapping from the lane count and decodes, all in one chain run. Writes OUT/report.md,",
                     "OUT/report.json, the chain file it ran (OUT/chains/sift.json, rerunnable with 'lanesift run'), the",
                     "skew tables applied (OUT/skew) and every decoder output (OUT/decode).")
-            .required(OptionSpec.text("capture", null, "the capture: CSV, VCD with analog (real) signals, or raw binary with a JSON sidecar"),
+            .required(OptionSpec.text("capture", null, "the capture: CSV, VCD (analog legs, or 1-bit logic lanes of a pixel link),"
+                    + " or raw binary with a JSON sidecar"),
                     "FILE")
             .option(OptionSpec.choice("link", "auto", "link kind: pixel (7:1 LVDS), packet (D-PHY/DSI-like) or auto",
                     "auto", "pixel", "packet"), "KIND")
             .option(OptionSpec.text("map", "", "channel map: NAME=P,N entries separated by spaces or ';', the clock pair first,"
-                    + " then the data lanes in order, such as \"CLK=CH1,CH2 D0=CH3,CH4\""), "MAP")
+                    + " then the data lanes in order, such as \"CLK=CH1,CH2 D0=CH3,CH4\"; NAME=CH for a logic capture"), "MAP")
             .option(OptionSpec.text("map-file", "", "channel map file: one NAME=P,N per line, '#' comments; added after --map"),
                     "FILE")
             .option(OptionSpec.text("out", "lanesift-sift", "output folder"), "DIR")
@@ -82,10 +83,15 @@ public final class SiftTool implements Tool {
         }
         Path out = Path.of(args.text("out"));
         InspectReport inspect = Inspector.inspect(capture, Map.of());
-        List<LinkChains.Pair> pairs = pairs(args, inspect);
+        String logicKind = logicKind(inspect);
+        List<LinkChains.Pair> pairs = pairs(args, inspect, logicKind != null);
+        if (logicKind != null && args.text("link").equals("packet")) {
+            throw new OptionException("link", "--link packet: " + capture + " is a logic capture (no analog levels), and a packet"
+                    + " link's low-power states are seen only on the analog legs; sift decodes logic captures of 7:1 pixel links");
+        }
         LinkFacts facts = LinkFacts.of(inspect, pairs, args.text("link"));
         try {
-            SiftResult result = runPasses(capture, out, inspect.format(), pairs, facts, console);
+            SiftResult result = runPasses(capture, out, inspect.format(), pairs, facts, logicKind, console);
             if (result.failedExit != 0) {
                 return result.failedExit;
             }
@@ -106,7 +112,21 @@ public final class SiftTool implements Tool {
         }
     }
 
-    private static List<LinkChains.Pair> pairs(ToolArgs args, InspectReport inspect) {
+    /**
+     * The kind of a logic capture's channels ("LOGIC" for sampled bits, "EDGES" for a VCD's
+     * 1-bit signals), or null when the capture has analog channels (legs).
+     */
+    private static String logicKind(InspectReport inspect) {
+        boolean logic = !inspect.channels().isEmpty();
+        boolean samples = false;
+        for (InspectReport.Channel c : inspect.channels()) {
+            logic &= c.kind().equals("LOGIC") || c.kind().equals("EDGES");
+            samples |= c.kind().equals("LOGIC");
+        }
+        return !logic ? null : samples ? "LOGIC" : "EDGES";
+    }
+
+    private static List<LinkChains.Pair> pairs(ToolArgs args, InspectReport inspect, boolean logic) {
         Set<String> known = new LinkedHashSet<>();
         inspect.channels().forEach(c -> known.add(c.name()));
         List<LinkChains.Pair> pairs = new ArrayList<>(LinkPairs.parseOption(args.text("map"), known));
@@ -114,7 +134,14 @@ public final class SiftTool implements Tool {
             LinkPairs.parseFile(Path.of(args.text("map-file")), known, pairs);
         }
         if (pairs.isEmpty()) {
-            return LinkPairs.find(inspect);
+            return logic ? LinkPairs.findLogic(inspect) : LinkPairs.find(inspect);
+        }
+        for (LinkChains.Pair p : pairs) {
+            if (logic != p.n().isEmpty()) {
+                throw new OptionException("map", "map entry " + p.name() + ": " + (logic
+                        ? "this is a logic capture (one channel per lane): expected " + p.name() + "=CH"
+                        : "this capture has analog legs: expected " + p.name() + "=P,N"));
+            }
         }
         if (pairs.size() < 2) {
             throw new OptionException("map", "the channel map gives " + pairs.size() + " pair; expected the clock pair first and"
@@ -131,7 +158,7 @@ public final class SiftTool implements Tool {
     }
 
     private static SiftResult runPasses(Path capture, Path out, String plugin, List<LinkChains.Pair> pairs, LinkFacts facts,
-                                        ToolConsole console) throws IOException {
+                                        String logicKind, ToolConsole console) throws IOException {
         Path chains = out.resolve("chains");
         for (String d : new String[] {"chains", "skew", "decode"}) {
             Files.createDirectories(out.resolve(d));
@@ -141,17 +168,23 @@ public final class SiftTool implements Tool {
         // one chain, one run: the engine runs the skew estimators in calibration passes over the capture and
         // feeds their tables to the corrections before the decode reads the capture from its start
         Path chain = chains.resolve(CHAIN);
-        ChainModels.write(chain, facts.packet()
+        String ui = String.format(Locale.ROOT, "%.3fps", facts.unitIntervalFs() / 1e3);
+        ChainModels.write(chain, logicKind != null
+                ? LinkChains.pixelLogicOneRun("7:1 pixel link from a logic capture: lane skew estimated and corrected in this"
+                        + " run; 7:1 sampling, frames, timing, jitter", cap, ui, facts.mapping(), logicKind.equals("LOGIC"))
+                : facts.packet()
                 ? LinkChains.packetOneRun("packet link: leg and lane skews estimated and corrected in this run;"
                         + " DDR sampling, packets, commands, frames", cap)
                 : LinkChains.pixelOneRun("7:1 pixel link: leg and lane skews estimated and corrected in this run;"
                         + " 7:1 sampling, frames, timing, eye, jitter", cap,
-                        String.format(Locale.ROOT, "%.3fps", facts.unitIntervalFs() / 1e3), facts.mapping()));
+                        ui, facts.mapping()));
         int code = run(chain, out.resolve("decode"), console);
         if (code == 0) {
             // the tables as applied, kept per probe set (docs/skew-table.md)
-            Files.copy(out.resolve("decode/legs-applied-skew.json"), out.resolve("skew/legs.json"),
-                    java.nio.file.StandardCopyOption.REPLACE_EXISTING);
+            if (logicKind == null) { // a logic capture has no legs
+                Files.copy(out.resolve("decode/legs-applied-skew.json"), out.resolve("skew/legs.json"),
+                        java.nio.file.StandardCopyOption.REPLACE_EXISTING);
+            }
             Files.copy(out.resolve("decode/lanes-applied-skew.json"), out.resolve("skew/lanes.json"),
                     java.nio.file.StandardCopyOption.REPLACE_EXISTING);
         }
