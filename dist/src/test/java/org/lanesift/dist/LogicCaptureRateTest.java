@@ -30,21 +30,35 @@ class LogicCaptureRateTest {
     @TempDir
     Path tmp;
 
-    @Test
-    void aCleanSerialiserCaptureGivesNoFindingAndTheSameCaptureTooSlowIsRefused() throws Exception {
+    /**
+     * Simulates the pixel-link module's Verilog 7:1 serialiser test bench with Icarus Verilog.
+     *
+     * @param dir    the working folder
+     * @param pixels pixel clocks to simulate
+     * @return the 16 x 8 picture it sent (24-bit RRGGBB, row-major; frame f has blue XORed with f)
+     *         and {@code dir/link.vcd} written
+     */
+    static int[] serialiserVcd(Path dir, int pixels) throws Exception {
         Path iverilog = ExternalTool.require("iverilog");
         Path vvp = ExternalTool.require("vvp");
         Path src = Path.of("..", "plugins", "pixel-link", "src", "test", "verilog").toAbsolutePath().normalize();
         StringBuilder hex = new StringBuilder();
         Random r = new Random(20261203);
-        for (int i = 0; i < 16 * 8; i++) {
-            hex.append(String.format("%06x%n", r.nextInt(1 << 24)));
+        int[] img = new int[16 * 8];
+        for (int i = 0; i < img.length; i++) {
+            img[i] = r.nextInt(1 << 24);
+            hex.append(String.format("%06x%n", img[i]));
         }
-        Files.writeString(tmp.resolve("image.hex"), hex);
-        exec(List.of(iverilog.toString(), "-g2005", "-o", "sim.vvp", src.resolve("lvds71_tx.v").toString(),
+        Files.writeString(dir.resolve("image.hex"), hex);
+        exec(dir, List.of(iverilog.toString(), "-g2005", "-o", "sim.vvp", src.resolve("lvds71_tx.v").toString(),
                 src.resolve("tb_lvds71.v").toString()));
-        exec(List.of(vvp.toString(), "-n", "sim.vvp", "+image=image.hex", "+vcd=link.vcd", "+pixels=1500"));
+        exec(dir, List.of(vvp.toString(), "-n", "sim.vvp", "+image=image.hex", "+vcd=link.vcd", "+pixels=" + pixels));
+        return img;
+    }
 
+    @Test
+    void aCleanSerialiserCaptureGivesNoFindingAndTheSameCaptureTooSlowIsRefused() throws Exception {
+        serialiserVcd(tmp, 1500);
         Path clean = tmp.resolve("link.vcd");
         EndToEndTest.Cli ok = EndToEndTest.cli("run", chain("fast.json", clean).toString(), "--out", tmp.resolve("o1").toString(), "-q");
         assertEquals(0, ok.code(), ok.err());
@@ -126,9 +140,9 @@ class LogicCaptureRateTest {
         return "\"" + s.replace("\\", "\\\\").replace("\"", "\\\"") + "\"";
     }
 
-    private void exec(List<String> cmd) throws Exception {
-        Path log = tmp.resolve("log.txt");
-        Process p = new ProcessBuilder(cmd).directory(tmp.toFile()).redirectErrorStream(true).redirectOutput(log.toFile()).start();
+    private static void exec(Path dir, List<String> cmd) throws Exception {
+        Path log = dir.resolve("log.txt");
+        Process p = new ProcessBuilder(cmd).directory(dir.toFile()).redirectErrorStream(true).redirectOutput(log.toFile()).start();
         if (!p.waitFor(120, TimeUnit.SECONDS)) {
             p.destroyForcibly();
             fail(cmd + " did not finish in 120 s");

@@ -40,6 +40,9 @@ public final class Chain implements AutoCloseable {
     private boolean finished;
     private boolean closed;
     private final Map<Node, long[]> sourceProgress = new HashMap<>();
+    private CalibrationPasses calibration;
+    private ProgressListener wholeRunProgress;
+    private volatile Chain calibratingPass;
 
     private static final class Target {
         final Node node;
@@ -184,6 +187,37 @@ public final class Chain implements AutoCloseable {
     }
 
     /**
+     * Makes {@link #run()} run the calibration passes first (this chain is their final pass).
+     *
+     * @param passes        the passes of the plan this chain's plan was cut from
+     * @param wholeProgress the host's progress listener (this chain reports the final pass through it)
+     */
+    void calibrateFirst(CalibrationPasses passes, ProgressListener wholeProgress) {
+        this.calibration = passes;
+        this.wholeRunProgress = wholeProgress;
+    }
+
+    /** The calibration pass now running, so that {@link #cancel()} reaches it; null between passes. */
+    void calibrating(Chain pass) {
+        calibratingPass = pass;
+        if (pass != null && cancelled) {
+            pass.cancel();
+        }
+    }
+
+    /**
+     * Delivers a calibration result to an input before any data block.
+     *
+     * @param node  index of the receiving node in {@link #nodes()}
+     * @param input its calibration input
+     * @param block the result
+     */
+    void deliverCalibration(int node, int input, Block block) {
+        Node n = order.get(node);
+        deliver(new Target(n, input, "calibration of " + n.id + "." + n.inputs.get(input).name()), block);
+    }
+
+    /**
      * Starts a fluent chain description.
      *
      * @param registry where plugin ids are looked up
@@ -254,12 +288,19 @@ public final class Chain implements AutoCloseable {
 
     /**
      * Runs every source stage until all are exhausted or the chain is cancelled, then finishes.
-     * Sources take turns, one {@code produce()} call each.
+     * Sources take turns, one {@code produce()} call each. A chain with calibration wires first
+     * runs its calibration passes, each over the sources from their start (see
+     * {@code docs/chain-file.md}, "Calibration wires").
      *
      * @throws ChainException when building blocks fails or a stage throws
      */
     public void run() {
         ensureOpen();
+        if (calibration != null) {
+            CalibrationPasses c = calibration;
+            calibration = null;
+            c.run(this, annotations, wholeRunProgress, hostSink);
+        }
         List<Node> sources = new ArrayList<>();
         for (Node n : order) {
             if (n.step.provider() != null && n.inputs.isEmpty()) {
@@ -320,6 +361,10 @@ public final class Chain implements AutoCloseable {
     /** Asks the chain to stop; safe from any thread. Sources stop producing and no further block is delivered. */
     public void cancel() {
         cancelled = true;
+        Chain pass = calibratingPass;
+        if (pass != null) {
+            pass.cancel();
+        }
     }
 
     /**

@@ -171,12 +171,21 @@ public final class ChainBuilder {
 
     /**
      * Checks the whole graph (plugins exist, options valid, ports exist, kinds match, every
-     * required input wired, no input wired twice, no cycle), then opens every stage.
+     * required input wired, no input wired twice, no cycle), then opens every stage. With
+     * calibration wires the stages opened are those of the final pass; {@link Chain#run()} runs
+     * the calibration passes first.
      *
      * @return the ready chain
      * @throws ChainException naming the offending instance, port or JSON pointer
      */
     public Chain build() {
-        return ChainOpener.open(ChainPlan.of(this), annotations, progress, outputs);
+        ChainPlan plan = ChainPlan.of(this);
+        CalibrationPasses passes = CalibrationPasses.of(plan);
+        if (passes == null) {
+            return ChainOpener.open(plan, annotations, progress, outputs);
+        }
+        Chain c = ChainOpener.open(passes.finalPlan(), annotations, passes.progress(progress, passes.count()), outputs);
+        c.calibrateFirst(passes, progress);
+        return c;
     }
 }

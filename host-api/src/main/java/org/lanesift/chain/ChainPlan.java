@@ -109,6 +109,27 @@ final class ChainPlan {
     }
 
     /**
+     * A plan made of steps already validated and ordered (a part of another plan, as
+     * {@link CalibrationPasses} cuts it).
+     *
+     * @param steps steps in topological order, edges indexing into this list
+     * @return the plan
+     */
+    static ChainPlan ofSteps(List<Step> steps) {
+        return new ChainPlan(Collections.unmodifiableList(new ArrayList<>(steps)));
+    }
+
+    /**
+     * Whether a wire leaving {@code from} ends on a calibration input.
+     *
+     * @param e the wire
+     * @return true for a calibration wire
+     */
+    boolean isCalibration(Edge e) {
+        return steps.get(e.to()).inputs().get(e.input()).calibration();
+    }
+
+    /**
      * The instances in topological order.
      *
      * @return unmodifiable list

@@ -33,6 +33,9 @@ final class PixelLinkCapture {
     /** Injected delay of each data pair's P leg against the clock's P leg, ps. */
     static final double[] LANE_SKEW_PS = {170, -95, 60};
 
+    /** The delays this capture injects (LANE_SKEW_PS unless a test changes them), ps. */
+    final double[] laneSkewPs = LANE_SKEW_PS.clone();
+
     /** The frames' 18-bit colours (R6 << 12 | G6 << 6 | B6), one array of H_ACTIVE x V_ACTIVE per frame. */
     final List<int[]> frames = new ArrayList<>();
 
@@ -82,7 +85,7 @@ final class PixelLinkCapture {
                 hi[s] = bits[p][s] == 1 ? 1.41 : 1.09;
                 lo[s] = bits[p][s] == 1 ? 1.09 : 1.41;
             }
-            double pairDelayS = (p == 0 ? 0 : LANE_SKEW_PS[p - 1]) * 1e-12 + 1e-9;
+            double pairDelayS = (p == 0 ? 0 : laneSkewPs[p - 1]) * 1e-12 + 1e-9;
             volts[2 * p] = waves.leg(hi, slotS, pairDelayS, 30e-12, 0.06, 700e6, 0.006);
             volts[2 * p + 1] = waves.leg(lo, slotS, pairDelayS + LEG_SKEW_PS[p] * 1e-12, 30e-12, 0.06, 700e6, 0.006);
         }

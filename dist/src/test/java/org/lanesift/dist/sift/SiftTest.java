@@ -79,10 +79,10 @@ class SiftTest {
         }
 
         // the chain files it wrote hold relative paths and rerun to the same decoder outputs
-        String chain = Files.readString(out.resolve("chains/3-decode.json"));
+        String chain = Files.readString(out.resolve("chains/sift.json"));
         assertTrue(!chain.contains(dir.toString()), "no absolute path in the chain file:\n" + chain);
         Path again = dir.resolve("again");
-        Run rerun = lanesift("run", out.resolve("chains/3-decode.json").toString(), "--out", again.toString(), "--quiet");
+        Run rerun = lanesift("run", out.resolve("chains/sift.json").toString(), "--out", again.toString(), "--quiet");
         assertEquals(0, rerun.code(), rerun.err());
         List<String> compared = new ArrayList<>();
         try (var files = Files.list(out.resolve("decode"))) {
@@ -103,6 +103,30 @@ class SiftTest {
         String md = Files.readString(dir.resolve("e/report.md"));
         assertTrue(md.indexOf("## Result") < md.indexOf("### Skews") && md.indexOf("### Trust") < md.indexOf("## Details"), md);
         assertTrue(md.contains("--fail-on error") && !md.contains("NaN") && !md.matches("(?s).*\\dsamples.*"), md);
+    }
+
+    @Test
+    void aSuspectSkewMakesEveryFrameSuspect(@TempDir Path dir) throws IOException {
+        // lane TX2 sits 0.43 UI late: the slot-grid estimate folds skew into one UI, so one this close to half a UI
+        // may belong on the other side and is marked suspect (docs/skew-table.md); the frames may still decode,
+        // but the report must not call them trustworthy
+        Path cap = dir.resolve("near-half.csv");
+        PixelLinkCapture gen = new PixelLinkCapture();
+        gen.laneSkewPs[2] = 0.43 * 1e12 / PixelLinkCapture.PIXEL_CLOCK_HZ / 7;
+        gen.write(cap, NAMES, 5150);
+        Path out = dir.resolve("o");
+        Run r = lanesift("sift", "--capture", cap.toString(), "--out", out.toString(), "--quiet");
+        assertEquals(0, r.code(), r.err());
+        JsonValue report = json(out.resolve("report.json"));
+        long complete = (long) report.at("/result/frames/complete").asDouble();
+        long partial = (long) report.at("/result/frames/partial").asDouble();
+        assertTrue(complete + partial > 0, "frames were decoded");
+        assertEquals(complete + partial, (long) report.at("/result/frames/suspect").asDouble(), "every frame is suspect");
+        List<JsonValue> why = report.at("/result/suspectSkews").elements();
+        assertTrue(why.stream().anyMatch(w -> w.asString().startsWith("TX2: ") && w.asString().contains("half an interval")),
+                why::toString);
+        assertTrue(Files.readString(out.resolve("report.md")).contains("suspect skew correction (TX2: "),
+                "report.md says why");
     }
 
     @Test

@@ -6,9 +6,12 @@ import java.util.List;
 import java.util.Map;
 
 /**
- * Chain models (docs/chain-file.md) for decoding a differential link in three passes, as a
- * practitioner would: (1) estimate the skew between the two legs of every pair, (2) correct it
- * and estimate the skew of every data pair against the clock pair, (3) correct both and decode.
+ * Chain models (docs/chain-file.md) for decoding a differential link: (1) estimate the skew
+ * between the two legs of every pair, (2) correct it and estimate the skew of every data pair
+ * against the clock pair, (3) correct both and decode. Either as three chain files run one after
+ * another with skew table files between them (the demo), or as one chain file whose estimators
+ * feed the corrections through calibration wires, so one run does all three
+ * ({@link #pixelOneRun}, {@link #packetOneRun}; what {@code sift} writes).
  * The first pair is the clock; the others are the data lanes in lane order. Paths are written as
  * given (the {@code sift} command gives them relative to the chain file, the demo absolute).
  * The models are plain maps and lists, written with {@link ChainModels#write}.
@@ -96,7 +99,16 @@ public final class LinkChains {
      */
     private LinkChains receivers(String legTable, boolean packet, List<String> withDiff) {
         List<Pair> pairs = cap.pairs();
-        node("legs", "deskew", "kind", "analog", "channels", 2 * pairs.size(), "offsetsFile", legTable);
+        if (legTable == null) {
+            // estimated in the same run: one legs table per pair, filled by the calibration pass
+            node("legs", "deskew", "kind", "analog", "channels", 2 * pairs.size(), "tables", pairs.size(),
+                    "minConfidence", SkewTables.MIN_CONFIDENCE);
+            for (int k = 0; k < pairs.size(); k++) {
+                wire("legs-" + pairs.get(k).name() + ".table", "legs.table" + k);
+            }
+        } else {
+            node("legs", "deskew", "kind", "analog", "channels", 2 * pairs.size(), "offsetsFile", legTable);
+        }
         for (int k = 0; k < pairs.size(); k++) {
             Pair pr = pairs.get(k);
             wire("cap." + pr.p(), "legs.in" + (2 * k)).wire("cap." + pr.n(), "legs.in" + (2 * k + 1));
@@ -138,7 +150,13 @@ public final class LinkChains {
 
     private LinkChains laneDeskew(String laneTable) {
         List<Pair> pairs = cap.pairs();
-        node("lanes", "deskew", "kind", "edges", "channels", pairs.size(), "offsetsFile", laneTable);
+        if (laneTable == null) {
+            node("lanes", "deskew", "kind", "edges", "channels", pairs.size(), "tables", 1, "minConfidence",
+                    SkewTables.MIN_CONFIDENCE);
+            wire(LANE_ESTIMATE + ".table", "lanes.table0");
+        } else {
+            node("lanes", "deskew", "kind", "edges", "channels", pairs.size(), "offsetsFile", laneTable);
+        }
         for (int k = 0; k < pairs.size(); k++) {
             wire("rx-" + pairs.get(k).name() + ".edges", "lanes.in" + k);
         }
@@ -153,12 +171,88 @@ public final class LinkChains {
      * @return the chain model
      */
     public static Map<String, Object> legs(String description, Capture cap) {
-        LinkChains c = new LinkChains(description, cap);
+        return new LinkChains(description, cap).legEstimates().model();
+    }
+
+    private LinkChains legEstimates() {
         for (Pair p : cap.pairs()) {
-            c.node("legs-" + p.name(), "skew-estimate", "mode", "legs");
-            c.wire("cap." + p.p(), "legs-" + p.name() + ".p").wire("cap." + p.n(), "legs-" + p.name() + ".n");
+            node("legs-" + p.name(), "skew-estimate", "mode", "legs");
+            wire("cap." + p.p(), "legs-" + p.name() + ".p").wire("cap." + p.n(), "legs-" + p.name() + ".n");
         }
-        return c.model();
+        return this;
+    }
+
+    /** Instance id of the lane estimator in a one-run chain. */
+    static final String LANE_ESTIMATE = "lanes-estimate";
+
+    /**
+     * A 7:1 pixel link in one run: leg skews estimated and corrected, lane skews estimated on the
+     * leg-corrected lanes and corrected, then decoded as {@link #pixelDecode} does. The engine runs
+     * the estimators in calibration passes before the decode (docs/chain-file.md, "Calibration wires").
+     *
+     * @param description  the chain's description
+     * @param cap          the capture
+     * @param unitInterval the slot time as an option value, such as "7142.857ps"
+     * @param mapping      the pixel-link slot mapping
+     * @return the chain model
+     */
+    public static Map<String, Object> pixelOneRun(String description, Capture cap, String unitInterval, String mapping) {
+        LinkChains c = new LinkChains(description, cap).legEstimates()
+                .receivers(null, false, diffPairs(cap)).pixelLaneEstimate(LANE_ESTIMATE, unitInterval).laneDeskew(null);
+        return c.pixelDecoders(mapping).model();
+    }
+
+    /**
+     * A packet link in one run: leg and lane skews estimated and corrected in the same run, then
+     * decoded as {@link #packetDecode} does.
+     *
+     * @param description the chain's description
+     * @param cap         the capture
+     * @return the chain model
+     */
+    public static Map<String, Object> packetOneRun(String description, Capture cap) {
+        LinkChains c = new LinkChains(description, cap).legEstimates()
+                .receivers(null, true).packetLaneEstimate(LANE_ESTIMATE).laneDeskew(null);
+        return c.packetDecoders().model();
+    }
+
+    /**
+     * A 7:1 pixel link from a logic capture (one channel per lane, no legs): lane skew estimated
+     * on the logic edges and corrected in the same run, then 7:1 sampling, frames, timing and the
+     * clock's jitter (the analog measurements need legs).
+     *
+     * @param description  the chain's description
+     * @param cap          the capture; every pair's N channel is empty
+     * @param unitInterval the slot time as an option value
+     * @param mapping      the pixel-link slot mapping
+     * @param logicBlocks  true when the reader gives LOGIC samples (a logic CSV), false for edge lists (VCD)
+     * @return the chain model
+     */
+    public static Map<String, Object> pixelLogicOneRun(String description, Capture cap, String unitInterval, String mapping,
+                                                       boolean logicBlocks) {
+        LinkChains c = new LinkChains(description, cap);
+        List<Pair> pairs = cap.pairs();
+        if (logicBlocks) {
+            c.node("edges", "logic-edges", "channels", pairs.size());
+            for (int k = 0; k < pairs.size(); k++) {
+                c.wire("cap." + pairs.get(k).p(), "edges.in" + k);
+            }
+        }
+        int n = pairs.size();
+        c.node(LANE_ESTIMATE, "skew-estimate", "mode", "lanes", "lanes", n, "unitInterval", unitInterval);
+        for (int k = 0; k < n; k++) {
+            c.wire(logicBlocks ? "edges.out" + k : "cap." + pairs.get(k).p(), LANE_ESTIMATE + ".lane" + k);
+        }
+        c.node("lanes", "deskew", "kind", "edges", "channels", n, "tables", 1, "minConfidence", SkewTables.MIN_CONFIDENCE);
+        c.wire(LANE_ESTIMATE + ".table", "lanes.table0");
+        for (int k = 0; k < n; k++) {
+            c.wire(logicBlocks ? "edges.out" + k : "cap." + pairs.get(k).p(), "lanes.in" + k);
+        }
+        return c.pixelSampling(mapping).model();
+    }
+
+    private static List<String> diffPairs(Capture cap) {
+        return List.of(cap.pairs().get(1).name(), cap.pairs().get(Math.min(2, cap.pairs().size() - 1)).name());
     }
 
     /**
@@ -171,14 +265,17 @@ public final class LinkChains {
      * @return the chain model
      */
     public static Map<String, Object> pixelLanes(String description, Capture cap, String legTable, String unitInterval) {
-        LinkChains c = new LinkChains(description, cap).receivers(legTable, false);
+        return new LinkChains(description, cap).receivers(legTable, false).pixelLaneEstimate("lanes", unitInterval).model();
+    }
+
+    private LinkChains pixelLaneEstimate(String id, String unitInterval) {
         int n = cap.pairs().size();
         // on a 7:1 link every lane, the clock included, changes only on bit-slot boundaries: align them on the slot grid
-        c.node("lanes", "skew-estimate", "mode", "lanes", "lanes", n, "unitInterval", unitInterval);
+        node(id, "skew-estimate", "mode", "lanes", "lanes", n, "unitInterval", unitInterval);
         for (int k = 0; k < n; k++) {
-            c.wire("rx-" + cap.pairs().get(k).name() + ".edges", "lanes.lane" + k);
+            wire("rx-" + cap.pairs().get(k).name() + ".edges", id + ".lane" + k);
         }
-        return c.model();
+        return this;
     }
 
     /**
@@ -193,9 +290,31 @@ public final class LinkChains {
      */
     public static Map<String, Object> pixelDecode(String description, Capture cap, String legTable, String laneTable,
                                                   String mapping) {
-        LinkChains c = new LinkChains(description, cap)
-                .receivers(legTable, false, List.of(cap.pairs().get(1).name(), cap.pairs().get(Math.min(2, cap.pairs().size() - 1)).name()))
-                .laneDeskew(laneTable);
+        return new LinkChains(description, cap).receivers(legTable, false, diffPairs(cap)).laneDeskew(laneTable)
+                .pixelDecoders(mapping).model();
+    }
+
+    /** 7:1 sampling, frames and timing, and the clock lane's jitter: what needs no analog signal. */
+    private LinkChains pixelSampling(String mapping) {
+        LinkChains c = this;
+        int lanes = cap.dataLanes();
+        c.node("sampler", "dual-edge", "mode", "multiplied", "slots", 7, "lanes", lanes);
+        c.wire("lanes.out0", "sampler.clock");
+        for (int k = 0; k < lanes; k++) {
+            c.wire("lanes.out" + (k + 1), "sampler.lane" + k);
+        }
+        c.node("panel", "pixel-link", "mapping", mapping, "pictures", "all");
+        for (int k = 0; k < lanes; k++) {
+            c.wire("sampler.bits" + k, "panel.lane" + k);
+        }
+        String jitter = c.freeId(idOf(cap.pairs().get(0).name()));
+        c.node(jitter, "jitter", "edge", "rising");
+        c.wire("lanes.out0", jitter + ".clock");
+        return c;
+    }
+
+    private LinkChains pixelDecoders(String mapping) {
+        LinkChains c = this;
         int lanes = cap.dataLanes();
         c.node("sampler", "dual-edge", "mode", "multiplied", "slots", 7, "lanes", lanes);
         c.wire("lanes.out0", "sampler.clock");
@@ -226,7 +345,7 @@ public final class LinkChains {
         String jitter = c.freeId(idOf(clock.name()));
         c.node(jitter, "jitter", "edge", "rising");
         c.wire("lanes.out0", jitter + ".clock");
-        return c.model();
+        return c;
     }
 
     /**
@@ -238,15 +357,18 @@ public final class LinkChains {
      * @return the chain model
      */
     public static Map<String, Object> packetLanes(String description, Capture cap, String legTable) {
-        LinkChains c = new LinkChains(description, cap).receivers(legTable, true);
+        return new LinkChains(description, cap).receivers(legTable, true).packetLaneEstimate("lanes").model();
+    }
+
+    private LinkChains packetLaneEstimate(String id) {
         int lanes = cap.dataLanes();
         // the clock's edges sit in the middle of the data bits, and data change on both clock edges
-        c.node("lanes", "skew-estimate", "mode", "clock", "lanes", lanes, "alignment", "centre", "ddr", true);
-        c.wire("rx-" + cap.pairs().get(0).name() + ".edges", "lanes.clock");
+        node(id, "skew-estimate", "mode", "clock", "lanes", lanes, "alignment", "centre", "ddr", true);
+        wire("rx-" + cap.pairs().get(0).name() + ".edges", id + ".clock");
         for (int k = 0; k < lanes; k++) {
-            c.wire("rx-" + cap.pairs().get(k + 1).name() + ".edges", "lanes.lane" + k);
+            wire("rx-" + cap.pairs().get(k + 1).name() + ".edges", id + ".lane" + k);
         }
-        return c.model();
+        return this;
     }
 
     /**
@@ -259,7 +381,11 @@ public final class LinkChains {
      * @return the chain model
      */
     public static Map<String, Object> packetDecode(String description, Capture cap, String legTable, String laneTable) {
-        LinkChains c = new LinkChains(description, cap).receivers(legTable, true).laneDeskew(laneTable);
+        return new LinkChains(description, cap).receivers(legTable, true).laneDeskew(laneTable).packetDecoders().model();
+    }
+
+    private LinkChains packetDecoders() {
+        LinkChains c = this;
         int lanes = cap.dataLanes();
         c.node("sampler", "dual-edge", "mode", "ddr", "lanes", lanes, "alignment", "center");
         c.wire("lanes.out0", "sampler.clock");
@@ -274,6 +400,6 @@ public final class LinkChains {
         for (int k = 0; k < lanes; k++) {
             c.wire("sampler.bits" + k, "dsi.bits" + k);
         }
-        return c.model();
+        return c;
     }
 }

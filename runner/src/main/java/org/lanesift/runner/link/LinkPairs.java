@@ -78,15 +78,16 @@ public final class LinkPairs {
     private static LinkChains.Pair pair(String entry) {
         int eq = entry.indexOf('=');
         String[] legs = entry.substring(eq + 1).split(",");
-        return new LinkChains.Pair(entry.substring(0, eq).trim(), legs[0].trim(), legs[1].trim());
+        return new LinkChains.Pair(entry.substring(0, eq).trim(), legs[0].trim(), legs.length > 1 ? legs[1].trim() : "");
     }
 
     /** What is wrong with one entry, or null. */
     private static String problem(String entry, Set<String> known, List<LinkChains.Pair> before) {
         int eq = entry.indexOf('=');
         String[] legs = eq < 0 ? new String[0] : entry.substring(eq + 1).split(",", -1);
-        if (eq <= 0 || legs.length != 2 || legs[0].isBlank() || legs[1].isBlank()) {
-            return "expected NAME=P,N (a pair name, then the P and N channels), such as CLK=CH1,CH2";
+        if (eq <= 0 || legs.length < 1 || legs.length > 2 || legs[0].isBlank() || (legs.length == 2 && legs[1].isBlank())) {
+            return "expected NAME=P,N (a pair name, then the P and N channels), such as CLK=CH1,CH2, or NAME=CH for one"
+                    + " channel of a logic capture";
         }
         String name = entry.substring(0, eq).trim();
         if (!name.matches("[A-Za-z][A-Za-z0-9_]*")) {
@@ -108,6 +109,35 @@ public final class LinkPairs {
             }
         }
         return null;
+    }
+
+    /**
+     * The lanes of a logic capture (every channel one bit, no legs): the clock is the slowest
+     * regular clock inspect found (a 7:1 link's clock is its slowest periodic signal; a bit clock,
+     * if captured, is faster), the data lanes are the other channels that are not clocks, in name
+     * order. Each lane is a {@link LinkChains.Pair} with an empty N channel.
+     *
+     * @param r the inspect report of a logic capture
+     * @return the clock lane first, then the data lanes
+     * @throws InputFormatException when there is no clock or no data lane
+     */
+    public static List<LinkChains.Pair> findLogic(InspectReport r) {
+        InspectReport.Clock clock = r.clocks().stream().min(Comparator.comparingDouble(InspectReport.Clock::frequencyHz)).orElse(null);
+        if (clock == null) {
+            throw new InputFormatException(r.file() + ": found no channel that carries a regular clock; give the lanes with"
+                    + " --map CLK=CH D0=CH ... or --map-file");
+        }
+        Set<String> clocks = new HashSet<>();
+        r.clocks().forEach(c -> clocks.add(c.channel()));
+        List<LinkChains.Pair> out = new ArrayList<>();
+        out.add(new LinkChains.Pair(clock.channel(), clock.channel(), ""));
+        r.channels().stream().map(InspectReport.Channel::name).filter(n -> !clocks.contains(n)).sorted()
+                .forEach(n -> out.add(new LinkChains.Pair(n, n, "")));
+        if (out.size() < 2) {
+            throw new InputFormatException(r.file() + ": found the clock " + clock.channel() + " but no data lane; give the"
+                    + " lanes with --map CLK=CH D0=CH ... or --map-file");
+        }
+        return out;
     }
 
     /**

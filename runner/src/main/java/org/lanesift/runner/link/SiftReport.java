@@ -29,6 +29,8 @@ final class SiftReport {
     private final StringBuilder md = new StringBuilder();
     private final List<Map<String, Object>> findings = new ArrayList<>();
     private String headline = "";
+    /** Channels whose applied skew correction is suspect, with the reason ("TX1: ambiguous ..."). */
+    private final List<String> suspectSkews = new ArrayList<>();
 
     private SiftReport() {
     }
@@ -38,6 +40,7 @@ final class SiftReport {
         SiftReport r = new SiftReport();
         r.model.put("format", FORMAT);
         Path decode = out.resolve("decode");
+        r.suspectSkews(out.resolve("skew/legs.json"), out.resolve("skew/lanes.json"));
         r.result(decode, f, pairs);
         r.skews(out.resolve("skew/legs.json"), out.resolve("skew/lanes.json"), pairs);
         r.findings(decode.resolve("annotations.jsonl"));
@@ -55,6 +58,34 @@ final class SiftReport {
         return m;
     }
 
+    /**
+     * Every row of the applied tables that carries a suspect reason: whatever was decoded through
+     * it is suspect too, so the frame counts below say so even when the decoder saw nothing wrong.
+     */
+    private void suspectSkews(Path... tables) throws IOException {
+        for (Path t : tables) {
+            if (!Files.exists(t)) {
+                continue; // no legs table: a logic capture
+            }
+            JsonValue ch = at(read(t), "channels");
+            if (ch == null || !ch.isObject()) {
+                continue;
+            }
+            for (Map.Entry<String, JsonValue> e : ch.members().entrySet()) {
+                JsonValue why = e.getValue().get("suspect");
+                if (why != null && why.isString() && !why.asString().isEmpty()) {
+                    suspectSkews.add(e.getKey() + ": " + why.asString());
+                }
+            }
+        }
+    }
+
+    /** The markdown sentence saying why every frame counts as suspect, or empty. */
+    private String suspectSkewNote() {
+        return suspectSkews.isEmpty() ? "" : "Every frame counts as suspect: it was decoded through a suspect skew correction ("
+                + String.join("; ", suspectSkews) + ").\n\n";
+    }
+
     private void result(Path decode, LinkFacts f, List<LinkChains.Pair> pairs) throws IOException {
         Map<String, Object> res = new LinkedHashMap<>();
         String lanes = pairs.subList(1, pairs.size()).stream().map(LinkChains.Pair::name).toList().toString();
@@ -63,14 +94,16 @@ final class SiftReport {
             JsonValue t = read(decode.resolve("panel-timing.json"));
             long complete = (long) num(at(t, "frames", "complete"));
             long partial = (long) num(at(t, "frames", "partial"));
-            long suspect = (long) num(at(t, "frames", "suspect"));
+            long suspect = suspectSkews.isEmpty() ? (long) num(at(t, "frames", "suspect")) : complete + partial;
             res.put("link", "7:1 pixel link, clock " + pairs.get(0).name() + ", data " + lanes + ", mapping " + f.mapping());
             res.put("frames", Map.of("complete", complete, "partial", partial, "suspect", suspect));
+            res.put("suspectSkews", List.copyOf(suspectSkews));
             headline = String.format(Locale.ROOT, "7:1 pixel link (%s, %d data pairs): %d complete, %d partial, %d suspect frames%n",
                     f.mapping(), f.dataLanes(), complete, partial, suspect);
             md.append("Decoded a **7:1 pixel link**: clock pair ").append(pairs.get(0).name()).append(", data pairs ").append(lanes)
                     .append(", mapping `").append(f.mapping()).append("`.\n\n")
-                    .append(String.format(Locale.ROOT, "Frames: **%d complete**, %d partial, %d suspect.%n%n", complete, partial, suspect));
+                    .append(String.format(Locale.ROOT, "Frames: **%d complete**, %d partial, %d suspect.%n%n", complete, partial, suspect))
+                    .append(suspectSkewNote());
             Map<String, Object> timing = new LinkedHashMap<>();
             md.append("### Timing\n\n| timing | active | front porch | sync | back porch | total |\n| --- | --- | --- | --- | --- | --- |\n");
             for (String axis : new String[] {"horizontal", "vertical"}) {
@@ -98,30 +131,35 @@ final class SiftReport {
             long packets = countKind(decode.resolve("annotations.jsonl"), "packet");
             int nc = cmds != null && cmds.isArray() ? cmds.elements().size() : 0;
             int nf = frames != null && frames.isArray() ? frames.elements().size() : 0;
-            long suspect = frames != null && frames.isArray()
+            long suspect = !suspectSkews.isEmpty() ? nf : frames != null && frames.isArray()
                     ? frames.elements().stream().filter(e -> e.get("suspect") != null && e.get("suspect").isBoolean()
                     && e.get("suspect").asBoolean()).count() : 0;
             res.put("link", "packet link, clock " + pairs.get(0).name() + ", data lanes " + lanes);
             res.put("packets", packets);
             res.put("commands", nc);
             res.put("frames", Map.of("complete", nf - suspect, "suspect", suspect));
+            res.put("suspectSkews", List.copyOf(suspectSkews));
             headline = String.format(Locale.ROOT, "packet link (%d data lanes): %d packets, %d commands, %d frames (%d suspect)%n",
                     f.dataLanes(), packets, nc, nf, suspect);
             md.append("Decoded a **packet link**: clock pair ").append(pairs.get(0).name()).append(", data lanes ").append(lanes)
                     .append(".\n\n").append(String.format(Locale.ROOT,
                             "**%d packets**, **%d commands**, %d frames (%d suspect). Commands: `decode/dsi-commands.csv`, "
-                                    + "init sequence: `decode/dsi-init.h`.%n%n", packets, nc, nf, suspect));
+                                    + "init sequence: `decode/dsi-init.h`.%n%n", packets, nc, nf, suspect)).append(suspectSkewNote());
         }
-        res.put("source", "measured: decoded by chains/3-decode.json");
+        if (!suspectSkews.isEmpty()) {
+            headline += "every frame is suspect: decoded through a suspect skew correction ("
+                    + String.join(", ", suspectSkews.stream().map(x -> x.substring(0, x.indexOf(':'))).toList()) + ")\n";
+        }
+        res.put("source", "measured: decoded by chains/" + SiftTool.CHAIN);
         model.put("result", res);
     }
 
     private void skews(Path legs, Path lanes, List<LinkChains.Pair> pairs) throws IOException {
-        JsonValue lg = at(read(legs), "channels");
+        JsonValue lg = Files.exists(legs) ? at(read(legs), "channels") : null; // a logic capture has no legs
         JsonValue ln = at(read(lanes), "channels");
         List<Object> list = new ArrayList<>();
         md.append("### Skews\n\n| channel | skew | against | kind | confidence | source |\n| --- | --- | --- | --- | --- | --- |\n");
-        for (LinkChains.Pair p : pairs) {
+        for (LinkChains.Pair p : lg == null ? List.<LinkChains.Pair>of() : pairs) {
             double ps = num(at(lg, p.n(), "offsetPs")) - num(at(lg, p.p(), "offsetPs"));
             skewRow(list, p.n(), p.p(), "leg", -ps, num(at(lg, p.n(), "confidence")), text(at(lg, p.n(), "method")));
         }
@@ -158,7 +196,9 @@ final class SiftReport {
             "margin-low", "a sampled bit lies close to a data edge: little setup or hold margin on that lane",
             "level-out-of-range", "a differential level outside the standard's range",
             "level-near-limit", "a differential level close to the standard's limit",
-            "clock-dropout", "the clock stopped for longer than expected");
+            "clock-dropout", "the clock stopped for longer than expected",
+            "skew-suspect", "a skew estimate is ambiguous, weak or near half an interval: what was decoded through it is suspect",
+            "skew-not-applied", "a skew estimate was too weak to apply; that channel was decoded without correction");
 
     private void findings(Path annotations) throws IOException {
         Map<String, Map<String, Object>> groups = new LinkedHashMap<>();
@@ -238,7 +278,7 @@ final class SiftReport {
         }
         md.append("- pairs: ");
         for (LinkChains.Pair p : pairs) {
-            md.append(p.name()).append(" = ").append(p.p()).append(" / ").append(p.n()).append(p == pairs.get(0) ? " (clock)" : "")
+            md.append(p.name()).append(" = ").append(p.p()).append(p.n().isEmpty() ? "" : " / " + p.n()).append(p == pairs.get(0) ? " (clock)" : "")
                     .append(p == pairs.get(pairs.size() - 1) ? "" : ", ");
         }
         md.append(" (").append(((Map<?, ?>) link.get("pairs")).get("source")).append(")\n\n");
@@ -275,9 +315,9 @@ final class SiftReport {
         for (String n : notes) {
             md.append("- ").append(n).append('\n');
         }
-        md.append("- chains that ran: `chains/1-legs.json`, `chains/2-lanes.json`, `chains/3-decode.json` (paths relative to the"
-                + " chain files; rerun one with `lanesift run chains/3-decode.json --out DIR`); merged skew tables in `skew/`;"
-                + " estimation passes in `work/`; decoder outputs in `decode/`.\n");
+        md.append("- chain that ran: `chains/" + SiftTool.CHAIN + "` (one run: its skew estimators feed the corrections through"
+                + " calibration wires; paths relative to the chain file; rerun with `lanesift run chains/" + SiftTool.CHAIN
+                + " --out DIR`); skew tables as applied in `skew/`; decoder outputs in `decode/`.\n");
         md.append("- Safety: display flex cables and connectors are sensitive to electrostatic discharge; a scope's ground lead"
                 + " is earthed, so never clip it to a mains-referenced circuit. Follow local codes and licensed practice.\n");
     }

@@ -27,9 +27,9 @@ import org.lanesift.runner.capture.Inspector;
 /**
  * {@code lanesift sift}: the whole job on one capture in one command. It finds the pairs and the
  * clock (or takes a channel map), decides the link kind, derives the unit interval from the
- * measured clock, writes the three chain files (leg skew, lane skew, decode) with paths relative
- * to themselves, runs them, merges each estimation pass's tables for the next pass
- * ({@link SkewTables}) and writes one report ({@link SiftReport}) that leads with the result.
+ * measured clock, writes one chain file with paths relative to itself whose skew estimators feed
+ * the corrections through calibration wires (the engine runs them in calibration passes before the
+ * decode), runs it once and writes one report ({@link SiftReport}) that leads with the result.
  */
 public final class SiftTool implements Tool {
     /** Exit status of a run whose findings reach the {@code --fail-on} severity. */
@@ -40,14 +40,16 @@ public final class SiftTool implements Tool {
             .description("Finds the differential pairs and the clock pair (or takes --map / --map-file), estimates the skew",
                     "between the legs of every pair and between every data pair and the clock, derives the unit interval",
                     "from the measured clock (pixel link: clock period / 7; packet link: half the DDR clock period), chooses",
-                    "the slot mapping from the lane count and decodes. Writes OUT/report.md, OUT/report.json, the chain",
-                    "files it ran (OUT/chains, rerunnable with 'lanesift run') and every decoder output (OUT/decode).")
-            .required(OptionSpec.text("capture", null, "the capture: CSV, VCD with analog (real) signals, or raw binary with a JSON sidecar"),
+                    "the slot mapping from the lane count and decodes, all in one chain run. Writes OUT/report.md,",
+                    "OUT/report.json, the chain file it ran (OUT/chains/sift.json, rerunnable with 'lanesift run'), the",
+                    "skew tables applied (OUT/skew) and every decoder output (OUT/decode).")
+            .required(OptionSpec.text("capture", null, "the capture: CSV, VCD (analog legs, or 1-bit logic lanes of a pixel link),"
+                    + " or raw binary with a JSON sidecar"),
                     "FILE")
             .option(OptionSpec.choice("link", "auto", "link kind: pixel (7:1 LVDS), packet (D-PHY/DSI-like) or auto",
                     "auto", "pixel", "packet"), "KIND")
             .option(OptionSpec.text("map", "", "channel map: NAME=P,N entries separated by spaces or ';', the clock pair first,"
-                    + " then the data lanes in order, such as \"CLK=CH1,CH2 D0=CH3,CH4\""), "MAP")
+                    + " then the data lanes in order, such as \"CLK=CH1,CH2 D0=CH3,CH4\"; NAME=CH for a logic capture"), "MAP")
             .option(OptionSpec.text("map-file", "", "channel map file: one NAME=P,N per line, '#' comments; added after --map"),
                     "FILE")
             .option(OptionSpec.text("out", "lanesift-sift", "output folder"), "DIR")
@@ -81,10 +83,15 @@ public final class SiftTool implements Tool {
         }
         Path out = Path.of(args.text("out"));
         InspectReport inspect = Inspector.inspect(capture, Map.of());
-        List<LinkChains.Pair> pairs = pairs(args, inspect);
+        String logicKind = logicKind(inspect);
+        List<LinkChains.Pair> pairs = pairs(args, inspect, logicKind != null);
+        if (logicKind != null && args.text("link").equals("packet")) {
+            throw new OptionException("link", "--link packet: " + capture + " is a logic capture (no analog levels), and a packet"
+                    + " link's low-power states are seen only on the analog legs; sift decodes logic captures of 7:1 pixel links");
+        }
         LinkFacts facts = LinkFacts.of(inspect, pairs, args.text("link"));
         try {
-            SiftResult result = runPasses(capture, out, inspect.format(), pairs, facts, console);
+            SiftResult result = runPasses(capture, out, inspect.format(), pairs, facts, logicKind, console);
             if (result.failedExit != 0) {
                 return result.failedExit;
             }
@@ -105,7 +112,21 @@ public final class SiftTool implements Tool {
         }
     }
 
-    private static List<LinkChains.Pair> pairs(ToolArgs args, InspectReport inspect) {
+    /**
+     * The kind of a logic capture's channels ("LOGIC" for sampled bits, "EDGES" for a VCD's
+     * 1-bit signals), or null when the capture has analog channels (legs).
+     */
+    private static String logicKind(InspectReport inspect) {
+        boolean logic = !inspect.channels().isEmpty();
+        boolean samples = false;
+        for (InspectReport.Channel c : inspect.channels()) {
+            logic &= c.kind().equals("LOGIC") || c.kind().equals("EDGES");
+            samples |= c.kind().equals("LOGIC");
+        }
+        return !logic ? null : samples ? "LOGIC" : "EDGES";
+    }
+
+    private static List<LinkChains.Pair> pairs(ToolArgs args, InspectReport inspect, boolean logic) {
         Set<String> known = new LinkedHashSet<>();
         inspect.channels().forEach(c -> known.add(c.name()));
         List<LinkChains.Pair> pairs = new ArrayList<>(LinkPairs.parseOption(args.text("map"), known));
@@ -113,7 +134,14 @@ public final class SiftTool implements Tool {
             LinkPairs.parseFile(Path.of(args.text("map-file")), known, pairs);
         }
         if (pairs.isEmpty()) {
-            return LinkPairs.find(inspect);
+            return logic ? LinkPairs.findLogic(inspect) : LinkPairs.find(inspect);
+        }
+        for (LinkChains.Pair p : pairs) {
+            if (logic != p.n().isEmpty()) {
+                throw new OptionException("map", "map entry " + p.name() + ": " + (logic
+                        ? "this is a logic capture (one channel per lane): expected " + p.name() + "=CH"
+                        : "this capture has analog legs: expected " + p.name() + "=P,N"));
+            }
         }
         if (pairs.size() < 2) {
             throw new OptionException("map", "the channel map gives " + pairs.size() + " pair; expected the clock pair first and"
@@ -122,43 +150,44 @@ public final class SiftTool implements Tool {
         return pairs;
     }
 
-    /** What the passes left behind. */
+    /** The chain file sift writes and runs, under OUT/chains. */
+    static final String CHAIN = "sift.json";
+
+    /** What the run left behind. */
     private record SiftResult(int failedExit, List<String> notes) {
     }
 
     private static SiftResult runPasses(Path capture, Path out, String plugin, List<LinkChains.Pair> pairs, LinkFacts facts,
-                                        ToolConsole console) throws IOException {
+                                        String logicKind, ToolConsole console) throws IOException {
         Path chains = out.resolve("chains");
-        for (String d : new String[] {"chains", "skew", "work/1-legs", "work/2-lanes", "decode"}) {
+        for (String d : new String[] {"chains", "skew", "decode"}) {
             Files.createDirectories(out.resolve(d));
         }
-        String capRel = rel(chains, capture);
-        LinkChains.Capture cap = new LinkChains.Capture(plugin, capRel, pairs);
-        String legTable = "../skew/legs.json";
-        String laneTable = "../skew/lanes.json";
-        String what = facts.packet() ? "packet link" : "7:1 pixel link";
+        LinkChains.Capture cap = new LinkChains.Capture(plugin, rel(chains, capture), pairs);
         List<String> notes = new ArrayList<>();
-        ChainModels.write(chains.resolve("1-legs.json"), LinkChains.legs(what + ", pass 1: skew between the two legs of each pair", cap));
-        int code = run(chains.resolve("1-legs.json"), out.resolve("work/1-legs"), console);
-        if (code != 0) {
-            return new SiftResult(code, notes);
+        // one chain, one run: the engine runs the skew estimators in calibration passes over the capture and
+        // feeds their tables to the corrections before the decode reads the capture from its start
+        Path chain = chains.resolve(CHAIN);
+        String ui = String.format(Locale.ROOT, "%.3fps", facts.unitIntervalFs() / 1e3);
+        ChainModels.write(chain, logicKind != null
+                ? LinkChains.pixelLogicOneRun("7:1 pixel link from a logic capture: lane skew estimated and corrected in this"
+                        + " run; 7:1 sampling, frames, timing, jitter", cap, ui, facts.mapping(), logicKind.equals("LOGIC"))
+                : facts.packet()
+                ? LinkChains.packetOneRun("packet link: leg and lane skews estimated and corrected in this run;"
+                        + " DDR sampling, packets, commands, frames", cap)
+                : LinkChains.pixelOneRun("7:1 pixel link: leg and lane skews estimated and corrected in this run;"
+                        + " 7:1 sampling, frames, timing, eye, jitter", cap,
+                        ui, facts.mapping()));
+        int code = run(chain, out.resolve("decode"), console);
+        if (code == 0) {
+            // the tables as applied, kept per probe set (docs/skew-table.md)
+            if (logicKind == null) { // a logic capture has no legs
+                Files.copy(out.resolve("decode/legs-applied-skew.json"), out.resolve("skew/legs.json"),
+                        java.nio.file.StandardCopyOption.REPLACE_EXISTING);
+            }
+            Files.copy(out.resolve("decode/lanes-applied-skew.json"), out.resolve("skew/lanes.json"),
+                    java.nio.file.StandardCopyOption.REPLACE_EXISTING);
         }
-        SkewTables.merge(out.resolve("work/1-legs"), "legs-", out.resolve("skew/legs.json"), notes);
-        ChainModels.write(chains.resolve("2-lanes.json"), facts.packet()
-                ? LinkChains.packetLanes(what + ", pass 2: legs corrected; skew of each data lane against the clock", cap, legTable)
-                : LinkChains.pixelLanes(what + ", pass 2: legs corrected; skew of each lane on the slot grid", cap, legTable,
-                        String.format(Locale.ROOT, "%.3fps", facts.unitIntervalFs() / 1e3)));
-        code = run(chains.resolve("2-lanes.json"), out.resolve("work/2-lanes"), console);
-        if (code != 0) {
-            return new SiftResult(code, notes);
-        }
-        SkewTables.merge(out.resolve("work/2-lanes"), "lanes", out.resolve("skew/lanes.json"), notes);
-        ChainModels.write(chains.resolve("3-decode.json"), facts.packet()
-                ? LinkChains.packetDecode(what + ", pass 3: skews corrected; DDR sampling, packets, commands, frames", cap,
-                        legTable, laneTable)
-                : LinkChains.pixelDecode(what + ", pass 3: skews corrected; 7:1 sampling, frames, timing, eye, jitter", cap,
-                        legTable, laneTable, facts.mapping()));
-        code = run(chains.resolve("3-decode.json"), out.resolve("decode"), console);
         return new SiftResult(code, notes);
     }
 

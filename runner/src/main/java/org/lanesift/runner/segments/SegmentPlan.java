@@ -91,6 +91,14 @@ public final class SegmentPlan {
         if (source == null) {
             throw new SegmentException("the chain has no capture source");
         }
+        for (ChainSpec.Node n : spec.nodes()) {
+            for (org.lanesift.plugin.PortSpec in : desc.get(n.id()).inputs(opts.get(n.id()))) {
+                if (in.calibration()) {
+                    throw new SegmentException("instance '" + n.id() + "' has calibration input '" + in.name() + "': a calibration"
+                            + " covers the whole capture (docs/chain-file.md, calibration wires); run this chain without --jobs");
+                }
+            }
+        }
         if (!source.plugin().equals("raw")) {
             throw new SegmentException("decoding in segments needs a raw binary capture (plugin 'raw'), which can be read from"
                     + " any frame; instance '" + source.id() + "' is '" + source.plugin() + "'");

@@ -21,7 +21,11 @@ import org.lanesift.time.Femtos;
  * offset. A channel that arrives 80 ps early is corrected with +80 ps; one that arrives 80 ps late
  * with -80 ps. Offsets come from {@code offsets} (one number per channel, in {@code offsetUnit}:
  * ps, ns or samples) or from a skew table file ({@code offsetsFile}, see {@link SkewTable}), where
- * each input is looked up by its blocks' channel name, then by its port name {@code in<k>}.
+ * each input is looked up by its blocks' channel name, then by its port name {@code in<k>}, or
+ * from skew tables computed in the same run: with {@code tables=T} the calibration inputs
+ * {@code table0..} take {@code skew-estimate} outputs, which the engine fills in a calibration pass
+ * over the capture before the first data block (several per-pair tables merge; a channel with two
+ * different offsets in them is an error). Rows below {@code minConfidence} are not applied (0 ps, a warning).
  *
  * <ul>
  * <li><b>analog</b>: fractional-delay interpolation onto the <em>input's</em> sample grid (same
@@ -55,6 +59,11 @@ public final class DeskewPlugin implements PluginProvider {
             .option(OptionSpec.choice("offsetUnit", "ps", "unit of the numbers in offsets", "ps", "ns", "samples"))
             .option(OptionSpec.text("offsetsFile", "", "skew table JSON file (docs/skew-table.md) to take the offsets from,"
                     + " instead of offsets"))
+            .option(OptionSpec.integer("tables", 0L, 0, MAX_CHANNELS, "number of skew tables taken from the chain itself:"
+                    + " calibration inputs table0..table<T-1>, wired from skew-estimate outputs and filled by a calibration pass"
+                    + " before any data (instead of offsets or offsetsFile)"))
+            .option(OptionSpec.number("minConfidence", "", 0.0, 0.0, 1.0, "table rows below this confidence are not applied"
+                    + " (0 ps is used, with a skew-not-applied warning); 0 applies every row"))
             .option(OptionSpec.choice("interpolator", "sinc", "analog fractional delay: sinc (16-tap Kaiser windowed sinc)"
                     + " or cubic (4-tap, only for heavily oversampled signals)", "sinc", "cubic"))
             .inputs(DeskewPlugin::inputs)
@@ -80,6 +89,10 @@ public final class DeskewPlugin implements PluginProvider {
         for (int i = 0; i < o.getInt("channels"); i++) {
             l.add(PortSpec.of("in" + i, k, "channel " + i + " to correct"));
         }
+        for (int i = 0; i < o.getInt("tables"); i++) {
+            l.add(PortSpec.calibration("table" + i, DataKind.ARTIFACT, "skew table " + i + " (a skew-estimate output), filled by"
+                    + " a calibration pass before any data"));
+        }
         return l;
     }
 
@@ -98,6 +111,9 @@ public final class DeskewPlugin implements PluginProvider {
      * stage decodes in segments after a warm-up of the largest offset plus the kernel length.
      */
     static SegmentSupport segments(OptionValues o) {
+        if (o.getInt("tables") > 0) {
+            return SegmentSupport.no("option 'tables': the offsets come from a calibration pass over the whole capture");
+        }
         String file = o.getString("offsetsFile").trim();
         double maxFs = 0;
         long samples = kindOf(o) == DataKind.ANALOG ? 2L * DelayKernel.of(o.getString("interpolator")).half : 0;

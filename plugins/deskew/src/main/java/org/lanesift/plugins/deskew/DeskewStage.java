@@ -34,8 +34,13 @@ final class DeskewStage implements Stage {
     private final int n;
     private final String unit;
     private final DelayKernel kernel;
-    private final SkewTable table;
-    private final String tableName;
+    private SkewTable table;
+    private String tableName;
+    private final int tableInputs;
+    private final double minConfidence;
+    private final java.util.Map<String, SkewTable.Entry> calibrated = new java.util.LinkedHashMap<>();
+    private final java.util.Map<String, String> calibratedFrom = new java.util.HashMap<>();
+    private int tablesReceived;
     private final List<Double> given;
     private final Channel[] ch;
     private long firstFs = Long.MAX_VALUE;
@@ -66,11 +71,20 @@ final class DeskewStage implements Stage {
         this.kernel = DelayKernel.of(o.getString("interpolator"));
         this.given = o.getNumbers("offsets");
         String file = o.getString("offsetsFile").trim();
+        this.tableInputs = o.getInt("tables");
+        this.minConfidence = o.getDouble("minConfidence");
         String who = "plugin 'deskew' instance '" + ctx.instanceId() + "'";
         if (!file.isEmpty() && !given.isEmpty()) {
             throw new OptionException("offsetsFile", who + ": give either offsets or offsetsFile, not both");
         }
-        if (file.isEmpty()) {
+        if (tableInputs > 0) {
+            if (!file.isEmpty() || !given.isEmpty()) {
+                throw new OptionException("tables", who + ": with tables=" + tableInputs + " the offsets come from the wired skew"
+                        + " tables; give no offsets and no offsetsFile");
+            }
+            table = null;
+            tableName = "the calibration pass";
+        } else if (file.isEmpty()) {
             if (given.size() != n) {
                 throw new OptionException("offsets", who + ": option 'offsets' needs " + n + " number" + (n == 1 ? "" : "s")
                         + " (one per channel, channels=" + n + ") in " + unit + ", got " + given.size()
@@ -106,6 +120,17 @@ final class DeskewStage implements Stage {
 
     @Override
     public void accept(int input, Block block) {
+        if (input >= n) {
+            acceptTable(input - n, (Artifact) block);
+            return;
+        }
+        if (tableInputs > 0 && table == null) {
+            if (tablesReceived < tableInputs) {
+                throw new IllegalStateException("data reached deskew before its " + tableInputs + " calibration tables ("
+                        + tablesReceived + " arrived)");
+            }
+            table = new SkewTable("calibration", new ArrayList<>(calibrated.values()));
+        }
         Channel c = ch[input];
         if (!c.resolved) {
             resolve(c, block);
@@ -122,6 +147,32 @@ final class DeskewStage implements Stage {
             }
             default -> throw new IllegalStateException("unexpected kind " + kind);
         }
+    }
+
+    /** A skew table from a calibration input: its rows join the others; a channel in two tables is refused. */
+    private void acceptTable(int k, Artifact a) {
+        String name = a.fileName();
+        SkewTable t;
+        try {
+            t = SkewTable.parse(name, new String(a.content(), StandardCharsets.UTF_8));
+        } catch (IllegalArgumentException e) {
+            throw new org.lanesift.plugin.InputFormatException("plugin 'deskew' instance '" + ctx.instanceId() + "': input table"
+                    + k + " expects a skew table (a skew-estimate output): " + e.getMessage());
+        }
+        for (SkewTable.Entry e : t.entries()) {
+            String before = calibratedFrom.putIfAbsent(e.name(), name);
+            if (before != null) {
+                SkewTable.Entry first = calibrated.get(e.name());
+                if (Math.abs(first.offsetPs() - e.offsetPs()) < 1e-3) {
+                    continue; // the same row twice, such as the reference channel of two per-lane tables
+                }
+                throw new OptionException("tables", String.format(Locale.ROOT, "plugin 'deskew' instance '%s': channel '%s' has"
+                        + " %+.3f ps in skew table %s but %+.3f ps in %s; wire one estimate per channel", ctx.instanceId(),
+                        e.name(), first.offsetPs(), before, e.offsetPs(), name));
+            }
+            calibrated.put(e.name(), e);
+        }
+        tablesReceived++;
     }
 
     /** Shifts every time of an edge list by {@code d} femtoseconds. */
@@ -158,10 +209,17 @@ final class DeskewStage implements Stage {
                         + "' (input in" + c.index + "); its channels: "
                         + String.join(", ", table.entries().stream().map(SkewTable.Entry::name).toList()));
             }
-            c.offsetFs = e.offsetPs() * Femtos.PER_PS;
+            c.offsetFs = applied(e) * Femtos.PER_PS;
             c.confidence = e.confidence();
-            c.method = e.method();
+            c.method = applied(e) == e.offsetPs() ? e.method() : "manual";
             c.suspect = e.suspect();
+            if (e.confidence() < minConfidence) {
+                ctx.annotate(Annotation.on(c.name, "skew-not-applied").span(b.startFs(), b.startFs()).severity(Severity.WARNING)
+                        .label("skew estimate not applied")
+                        .text("detail", String.format(Locale.ROOT, "the estimate %+.3f ps for %s has confidence %.2f, below"
+                                + " minConfidence %.2f: not applied (0 ps used)", e.offsetPs(), c.name, e.confidence(), minConfidence))
+                        .number("offsetPs", e.offsetPs(), "ps").number("confidence", e.confidence(), "").build());
+            }
         } else {
             double v = given.get(c.index);
             c.offsetFs = switch (unit) {
@@ -209,6 +267,11 @@ final class DeskewStage implements Stage {
         }
     }
 
+    /** The offset applied for a table row, ps: the row's, or 0 when its confidence is below minConfidence. */
+    private double applied(SkewTable.Entry e) {
+        return e.confidence() < minConfidence ? 0 : e.offsetPs();
+    }
+
     /**
      * The largest kernel margins {front, end} over every offset this stage may apply, in samples of
      * the given period: every channel leaves out the same samples at the capture ends, so channels
@@ -218,7 +281,7 @@ final class DeskewStage implements Stage {
         List<Double> offsetsFs = new ArrayList<>();
         if (table != null) {
             for (SkewTable.Entry e : table.entries()) {
-                offsetsFs.add(e.offsetPs() * Femtos.PER_PS);
+                offsetsFs.add(applied(e) * Femtos.PER_PS);
             }
         } else {
             for (double v : given) {
@@ -254,7 +317,7 @@ final class DeskewStage implements Stage {
                 String key = used.add(c.name) ? c.name : "in" + c.index;
                 used.add(key);
                 rows.add(new SkewTable.Entry(key, c.offsetFs / Femtos.PER_PS, c.confidence, c.method, 0, c.suspect));
-            } else if (table == null && !unit.equals("samples")) {
+            } else if (table == null && tableInputs == 0 && !unit.equals("samples")) {
                 double fs = given.get(c.index) * (unit.equals("ns") ? Femtos.PER_NS : Femtos.PER_PS);
                 rows.add(new SkewTable.Entry("in" + c.index, fs / Femtos.PER_PS, 1, "manual", 0));
             }
