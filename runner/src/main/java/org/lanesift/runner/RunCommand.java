@@ -216,9 +216,16 @@ final class RunCommand implements Callable<Integer> {
                 failure = new CliError("--jobs " + jobs + ": " + t.getMessage(), t);
                 status = "failed: " + Failures.oneLine(t.getMessage());
             } catch (Throwable t) {
-                failure = t;
-                status = "failed: " + Failures.oneLine(String.valueOf(t instanceof StageFailure sf
+                String why = Failures.oneLine(String.valueOf(t instanceof StageFailure sf
                         ? Failures.describe(Failures.root(sf)) : t.getMessage()));
+                if (c.isCancelled()) {
+                    // Ctrl-C: what stopped the stages is the cancellation; the outputs keep what was complete
+                    status = "cancelled (interrupted); outputs hold what was processed until then (while stopping: "
+                            + org.lanesift.plugin.Echo.of(why, 200) + ")";
+                } else {
+                    failure = t;
+                    status = "failed: " + why;
+                }
             } finally {
                 bar.done();
                 try {

@@ -69,6 +69,7 @@ final class CsvLayout {
         CsvLayout l = new CsvLayout();
         l.file = file;
         byte[] head;
+        CaptureFormatException.requireRegular(file);
         try (InputStream in = Files.newInputStream(file)) {
             l.fileSize = Files.size(file);
             head = in.readNBytes(HEAD_BYTES);

@@ -103,6 +103,7 @@ final class CsvReader implements CaptureReader {
             throw new CaptureFormatException(file, l.dataLine, "the time column does not advance; expected increasing times");
         }
         this.periodFs = stepS * Femtos.PER_S;
+        CaptureFormatException.requireRegular(file);
         this.ch = FileChannel.open(file, StandardOpenOption.READ);
         ch.position(l.dataOffset);
         consumedBytes = l.dataOffset;

@@ -47,6 +47,7 @@ final class RawReader implements CaptureReader {
         this.nch = sc.names.length;
         this.frame = sc.frameBytes();
         long size;
+        CaptureFormatException.requireRegular(file);
         try {
             size = Files.size(file);
         } catch (NoSuchFileException e) {

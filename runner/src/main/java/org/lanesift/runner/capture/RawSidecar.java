@@ -45,6 +45,7 @@ final class RawSidecar {
         RawSidecar s = new RawSidecar();
         s.path = sidecar;
         JsonValue root;
+        CaptureFormatException.requireRegular(sidecar);
         try {
             root = JsonReader.read(sidecar, String.valueOf(sidecar.getFileName() == null ? sidecar : sidecar.getFileName()));
         } catch (JsonParseException e) {
