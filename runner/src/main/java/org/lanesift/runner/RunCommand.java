@@ -99,6 +99,10 @@ final class RunCommand implements Callable<Integer> {
                 throw new CliError("--input " + in + ": expected NAME=FILE, such as --input cap=capture.csv");
             }
             String name = in.substring(0, eq);
+            String bad = ChainFileReader.badPath(in.substring(eq + 1));
+            if (bad != null) {
+                throw new CliError("--input " + org.lanesift.plugin.Echo.of(in) + ": " + bad);
+            }
             Path file = Path.of(in.substring(eq + 1));
             Integer i = index.get(name);
             if (i == null) {
@@ -128,6 +132,10 @@ final class RunCommand implements Callable<Integer> {
                         + String.join(", ", index.keySet().stream().sorted().toList()));
             }
             if (org.lanesift.runner.chainfile.ChainFileReader.isPathOption(option) && !value.isEmpty()) {
+                String bad = ChainFileReader.badPath(value);
+                if (bad != null) {
+                    throw new CliError("--set " + org.lanesift.plugin.Echo.of(s) + ": " + bad);
+                }
                 value = Path.of(value).toAbsolutePath().normalize().toString();
             }
             nodes.set(i, with(nodes.get(i), option, value));

@@ -88,4 +88,23 @@ class NotAFileTest {
         oneLine(run("run", chainReading("csv", Path.of("/dev/zero")).toString(), "--out", tmp.resolve("o").toString(), "-q"),
                 "zero", "a pipe, device or socket");
     }
+
+    /** Issue 18 item 5: a NUL in a file option (chain file, --input, --set) is bad input, exit 2, naming where. */
+    @Test
+    void aNulInAFileOptionIsBadInput() throws Exception {
+        Path c = tmp.resolve("nul.json");
+        Files.writeString(c, "{\"nodes\": [{\"id\": \"cap\", \"plugin\": \"csv\", \"options\": {\"file\": \"a\\u0000b.csv\"}}]}");
+        Cli r = run("run", c.toString(), "--out", tmp.resolve("o").toString(), "-q");
+        assertEquals(2, r.code(), r::toString);
+        assertEquals(1, r.errLines().size(), r::toString);
+        assertTrue(r.errLines().get(0).contains("nul.json") && r.errLines().get(0).contains("/nodes/0/options/file")
+                && r.errLines().get(0).contains("NUL character at position 2"), r::toString);
+        Path ok = chainReading("csv", tmp.resolve("x.csv"));
+        Cli in = run("run", ok.toString(), "--out", tmp.resolve("o").toString(), "-q", "--input", "cap=a\0b.csv");
+        assertEquals(2, in.code(), in::toString);
+        assertTrue(in.errLines().get(0).startsWith("--input cap=a\\x00b.csv: the path has a NUL character"), in::toString);
+        Cli set = run("run", ok.toString(), "--out", tmp.resolve("o").toString(), "-q", "--set", "cap.file=a\0b.csv");
+        assertEquals(2, set.code(), set::toString);
+        assertTrue(set.errLines().get(0).startsWith("--set cap.file=a\\x00b.csv: the path has a NUL character"), set::toString);
+    }
 }
