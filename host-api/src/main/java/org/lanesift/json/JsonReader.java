@@ -7,6 +7,7 @@ import java.nio.charset.CodingErrorAction;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import org.lanesift.plugin.InputFiles;
 import java.util.ArrayList;
 import java.util.Collections;
 import java.util.LinkedHashMap;
@@ -62,8 +63,8 @@ public final class JsonReader {
     }
 
     /**
-     * Reads a UTF-8 file that holds exactly one JSON value, within the default limits. The size
-     * is checked before the file is loaded.
+     * Reads a UTF-8 file that holds exactly one JSON value, within the default limits. Only a
+     * regular file is read ({@link InputFiles}); the size limit counts the bytes read.
      *
      * @param file      the file
      * @param shownName what to call the file in messages (usually as the user named it)
@@ -74,12 +75,11 @@ public final class JsonReader {
      *                            {@link java.nio.file.NoSuchFileException})
      */
     public static JsonValue read(Path file, String shownName) throws IOException {
-        long size = Files.size(file);
-        if (size > DEFAULT_MAX_BYTES) {
-            throw new JsonParseException(shownName, 1, 1, "", "the file has " + size + " bytes; expected at most "
-                    + DEFAULT_MAX_BYTES + " bytes of JSON");
+        byte[] bytes = InputFiles.readAtMost(file, shownName, DEFAULT_MAX_BYTES);
+        if (bytes.length > DEFAULT_MAX_BYTES) {
+            throw new JsonParseException(shownName, 1, 1, "", "the file has more than " + DEFAULT_MAX_BYTES
+                    + " bytes; expected at most " + DEFAULT_MAX_BYTES + " bytes of JSON");
         }
-        byte[] bytes = Files.readAllBytes(file);
         String text;
         try {
             text = StandardCharsets.UTF_8.newDecoder().onMalformedInput(CodingErrorAction.REPORT)

@@ -28,7 +28,27 @@ public final class Femtos {
     /** The largest time the representation holds, in seconds (about 9,223 s). */
     public static final double MAX_SECONDS = Long.MAX_VALUE / (double) PER_S;
 
+    /**
+     * The highest sample rate a capture may have: one sample per femtosecond, the time base's step
+     * (a faster rate would put several samples on one instant).
+     */
+    public static final double MAX_RATE_HZ = 1e15;
+
     private Femtos() {
+    }
+
+    /**
+     * Whether {@code samples} samples of period {@code periodFs} from {@code startFs} end within the
+     * time base ({@link #MAX_SECONDS} either side of the origin).
+     *
+     * @param startFs  time of the first sample
+     * @param periodFs sample period in femtoseconds, positive
+     * @param samples  number of samples, at least 0
+     * @return true when the last sample's time is representable
+     */
+    public static boolean spanFits(long startFs, double periodFs, long samples) {
+        double end = startFs + (double) Math.max(0, samples - 1) * periodFs;
+        return Double.isFinite(end) && end < Long.MAX_VALUE && end > Long.MIN_VALUE;
     }
 
     /**

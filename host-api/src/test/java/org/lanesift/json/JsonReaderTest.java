@@ -90,7 +90,7 @@ class JsonReaderTest {
             ch.write(java.nio.ByteBuffer.wrap(new byte[] {' '}), JsonReader.DEFAULT_MAX_BYTES);
         }
         JsonParseException b = assertThrows(JsonParseException.class, () -> JsonReader.read(big, "big.json"));
-        assertEquals("big.json line 1 column 1 at the top level: the file has " + (JsonReader.DEFAULT_MAX_BYTES + 1L)
+        assertEquals("big.json line 1 column 1 at the top level: the file has more than " + JsonReader.DEFAULT_MAX_BYTES
                 + " bytes; expected at most " + JsonReader.DEFAULT_MAX_BYTES + " bytes of JSON", b.getMessage());
         assertThrows(java.nio.file.NoSuchFileException.class, () -> JsonReader.read(dir.resolve("none.json"), "none.json"));
     }
@@ -194,5 +194,30 @@ class JsonReaderTest {
         assertEquals("\"35\"", v.get("a").describe());
         assertEquals("an object", v.describe());
         assertEquals(null, v.get("b"));
+    }
+
+    /**
+     * Issue 18: the size limit counts bytes read, so a device that reports size 0 and never ends
+     * ({@code /dev/zero}) is refused, and a named pipe or a directory is refused before it is
+     * opened (opening a pipe waits for a writer).
+     */
+    @org.junit.jupiter.api.Test
+    void onlyRegularFilesAreReadAndTheLimitCountsBytesRead(@org.junit.jupiter.api.io.TempDir java.nio.file.Path dir)
+            throws Exception {
+        org.junit.jupiter.api.Assumptions.assumeTrue(java.nio.file.Files.exists(java.nio.file.Path.of("/dev/zero")), "a Unix system");
+        var zero = org.junit.jupiter.api.Assertions.assertThrows(org.lanesift.plugin.InputFormatException.class,
+                () -> JsonReader.read(java.nio.file.Path.of("/dev/zero"), "/dev/zero"));
+        assertEquals("/dev/zero: a pipe, device or socket, not a regular file; expected a file (pipes, devices and "
+                + "directories are not read as files)", zero.getMessage());
+        var d = org.junit.jupiter.api.Assertions.assertThrows(org.lanesift.plugin.InputFormatException.class,
+                () -> JsonReader.read(dir, "tables"));
+        assertEquals(true, d.getMessage().startsWith("tables: a directory, not a regular file"), d.getMessage());
+        java.nio.file.Path fifo = dir.resolve("pipe.json");
+        Process mk = new ProcessBuilder("mkfifo", fifo.toString()).start();
+        org.junit.jupiter.api.Assumptions.assumeTrue(mk.waitFor() == 0, "mkfifo is available");
+        var p = org.junit.jupiter.api.Assertions.assertTimeoutPreemptively(java.time.Duration.ofSeconds(20),
+                () -> org.junit.jupiter.api.Assertions.assertThrows(org.lanesift.plugin.InputFormatException.class,
+                        () -> JsonReader.read(fifo, "pipe.json")));
+        assertEquals(true, p.getMessage().startsWith("pipe.json: a pipe, device or socket, not a regular file"), p.getMessage());
     }
 }

@@ -5,6 +5,7 @@ import java.nio.file.AccessDeniedException;
 import java.nio.file.FileSystemException;
 import org.lanesift.chain.StageFailure;
 import org.lanesift.plugin.DeviceFailure;
+import org.lanesift.plugin.Echo;
 import org.lanesift.plugin.InputException;
 import org.lanesift.plugin.OutputException;
 import picocli.CommandLine;
@@ -22,6 +23,8 @@ final class Failures {
     static final int BAD_INPUT = 2;
     /** Exit code for internal errors and failed devices. */
     static final int INTERNAL = 1;
+    /** The longest error line, in characters of the message; control characters are escaped. */
+    static final int MAX_LINE_CHARS = 1000;
     /** The hint printed with an internal error. */
     static final String DEBUG_HINT = "(rerun with --debug for the stack trace)";
 
@@ -62,16 +65,17 @@ final class Failures {
                 line = m == null || m.isBlank() ? sf.getMessage() : prefixInstance(sf.instanceId(), m);
             } else {
                 code = INTERNAL;
-                line = "internal error in instance '" + sf.instanceId() + "': " + cause + " " + DEBUG_HINT;
+                line = "internal error in instance '" + sf.instanceId() + "', please report: " + cause + " " + DEBUG_HINT;
             }
         } else if (t instanceof InputException || t instanceof DeviceFailure) {
             code = t instanceof InputException ? BAD_INPUT : INTERNAL;
             line = t.getMessage();
         } else {
             code = INTERNAL;
-            line = "internal error: " + t + " " + DEBUG_HINT;
+            line = "internal error, please report: " + t + " " + DEBUG_HINT;
         }
-        err.println(oneLine(line == null ? t.toString() : line));
+        // whatever a message echoed from the input, the line stays one short printable line
+        err.println(Echo.of(oneLine(line == null ? t.toString() : line), MAX_LINE_CHARS));
         if (debug) {
             original.printStackTrace(err);
         }

@@ -31,6 +31,7 @@ import org.lanesift.plugin.PortSpec;
 import org.lanesift.runner.chainfile.ChainFile;
 import org.lanesift.runner.chainfile.ChainFileException;
 import org.lanesift.runner.chainfile.ChainFileReader;
+import org.lanesift.runner.output.OutputFolder;
 import org.lanesift.runner.output.ReportWriter;
 import org.lanesift.runner.output.RunOutputs;
 import org.lanesift.runner.output.RunSummary;
@@ -98,6 +99,10 @@ final class RunCommand implements Callable<Integer> {
                 throw new CliError("--input " + in + ": expected NAME=FILE, such as --input cap=capture.csv");
             }
             String name = in.substring(0, eq);
+            String bad = ChainFileReader.badPath(in.substring(eq + 1));
+            if (bad != null) {
+                throw new CliError("--input " + org.lanesift.plugin.Echo.of(in) + ": " + bad);
+            }
             Path file = Path.of(in.substring(eq + 1));
             Integer i = index.get(name);
             if (i == null) {
@@ -127,6 +132,10 @@ final class RunCommand implements Callable<Integer> {
                         + String.join(", ", index.keySet().stream().sorted().toList()));
             }
             if (org.lanesift.runner.chainfile.ChainFileReader.isPathOption(option) && !value.isEmpty()) {
+                String bad = ChainFileReader.badPath(value);
+                if (bad != null) {
+                    throw new CliError("--set " + org.lanesift.plugin.Echo.of(s) + ": " + bad);
+                }
                 value = Path.of(value).toAbsolutePath().normalize().toString();
             }
             nodes.set(i, with(nodes.get(i), option, value));
@@ -135,7 +144,7 @@ final class RunCommand implements Callable<Integer> {
         ChainSpec spec = new ChainSpec(nodes, cf.spec().wires());
         PluginRegistry registry = host.registry();
 
-        Holder holder = new Holder();
+        Holder holder = new Holder(inputsOf(chain, spec));
         ProgressBar bar = new ProgressBar(host.err, !host.quiet && System.console() != null);
         if (jobs < 1) {
             throw new CliError("--jobs " + jobs + ": expected at least 1");
@@ -184,7 +193,14 @@ final class RunCommand implements Callable<Integer> {
         List<RunSummary.Instance> instances = new ArrayList<>();
         try (Execution c = built) {
             RunOutputs outs = holder.outputs();
+            OutputFolder folder = holder.folder;
             declareOutputs(spec, registry, outs, instances);
+            try {
+                folder.refuseInputs(outs.plannedFiles());
+            } catch (OutputException e) {
+                removeQuietly(folder);
+                throw e;
+            }
             Instant started = Instant.now();
             long t0 = System.nanoTime();
             CountDownLatch done = new CountDownLatch(1);
@@ -208,19 +224,39 @@ final class RunCommand implements Callable<Integer> {
                 failure = new CliError("--jobs " + jobs + ": " + t.getMessage(), t);
                 status = "failed: " + Failures.oneLine(t.getMessage());
             } catch (Throwable t) {
-                failure = t;
-                status = "failed: " + Failures.oneLine(String.valueOf(t instanceof StageFailure sf
+                String why = Failures.oneLine(String.valueOf(t instanceof StageFailure sf
                         ? Failures.describe(Failures.root(sf)) : t.getMessage()));
+                if (c.isCancelled()) {
+                    // Ctrl-C: what stopped the stages is the cancellation; the outputs keep what was complete
+                    status = "cancelled (interrupted); outputs hold what was processed until then (while stopping: "
+                            + org.lanesift.plugin.Echo.of(why, 200) + ")";
+                } else {
+                    failure = t;
+                    status = "failed: " + why;
+                }
             } finally {
                 bar.done();
                 try {
                     outs.close();
+                    List<String> names = new ArrayList<>(outs.files().keySet());
+                    names.add(RunOutputs.REPORT);
+                    try {
+                        folder.refuseInputs(names);
+                    } catch (OutputException e) {
+                        // an output would replace an input: nothing is published
+                        removeQuietly(folder);
+                        throw e;
+                    }
                     ReportWriter.write(new RunSummary(shown, cf.description(), Version.get(), started,
-                            (System.nanoTime() - t0) / 1_000_000, status, inputFiles, sets, instances), outs);
+                            (System.nanoTime() - t0) / 1_000_000, status, inputFiles, sets, instances,
+                            folder.stale(names)), outs);
+                    folder.publish(outs.files().keySet());
                 } catch (IOException e) {
                     if (failure == null) {
                         failure = new OutputException("cannot finish the outputs in " + outDir + ": " + e.getMessage(), e);
                     }
+                } catch (OutputException e) {
+                    failure = e;
                 } finally {
                     done.countDown();
                     try {
@@ -306,24 +342,72 @@ final class RunCommand implements Callable<Integer> {
         }
     }
 
-    /** Creates the outputs when the first block or the run needs them. */
+    /** Creates the outputs, in a fresh work folder inside {@code --out}, when the first block or the run needs them. */
     private static final class Holder {
+        final List<Path> inputs;
         Path dir;
+        OutputFolder folder;
         RunOutputs outputs;
+
+        Holder(List<Path> inputs) {
+            this.inputs = inputs;
+        }
 
         RunOutputs outputs() {
             if (outputs == null) {
-                if (Files.exists(dir) && !Files.isDirectory(dir)) {
-                    throw new OutputException("--out " + dir + ": exists and is not a directory", null);
-                }
+                folder = OutputFolder.open(dir, inputs);
                 try {
-                    outputs = new RunOutputs(dir, Version.get());
+                    outputs = new RunOutputs(folder.work(), Version.get());
                 } catch (OutputException e) {
+                    removeQuietly(folder);
                     throw new OutputException("--out " + dir + ": cannot create the directory: " + Failures.describe(Failures.root(e)), e);
                 }
             }
             return outputs;
         }
+    }
+
+    private static void removeQuietly(OutputFolder folder) {
+        try {
+            folder.removeWork();
+        } catch (IOException ignored) {
+            // the work folder is listed as stale by the next run
+        }
+    }
+
+    /**
+     * Every file the run reads: the chain file, each option that names a file (with a raw capture's
+     * default sidecar) and the files directly inside a folder option.
+     */
+    static List<Path> inputsOf(Path chain, ChainSpec spec) {
+        List<Path> in = new ArrayList<>();
+        in.add(chain);
+        for (ChainSpec.Node n : spec.nodes()) {
+            for (Map.Entry<String, Object> o : n.options().entrySet()) {
+                if (!ChainFileReader.isPathOption(o.getKey()) || !(o.getValue() instanceof String s) || s.isEmpty()
+                        || s.indexOf('\0') >= 0) {
+                    continue;
+                }
+                Path p;
+                try {
+                    p = Path.of(s);
+                } catch (java.nio.file.InvalidPathException e) {
+                    continue;
+                }
+                in.add(p);
+                if (o.getKey().equals("file")) {
+                    in.add(Path.of(s + ".json"));
+                }
+                if (Files.isDirectory(p)) {
+                    try (java.util.stream.Stream<Path> l = Files.list(p)) {
+                        l.limit(100_000).forEach(in::add);
+                    } catch (IOException | java.io.UncheckedIOException ignored) {
+                        // an unreadable folder is reported by the stage that reads it
+                    }
+                }
+            }
+        }
+        return in;
     }
 
     private static ChainSpec.Node with(ChainSpec.Node n, String key, Object value) {
@@ -390,6 +474,6 @@ final class RunCommand implements Callable<Integer> {
             f.add(n + " " + (s == Severity.INFO ? "info" : name + (n == 1 ? "" : "s")));
         }
         host.out.println("ran " + shown + ": " + instances + (instances == 1 ? " instance" : " instances") + "; findings: " + String.join(", ", f));
-        host.out.println("wrote " + outs.dir() + "/: " + String.join(", ", outs.files().keySet()));
+        host.out.println("wrote " + outDir + "/: " + String.join(", ", outs.files().keySet()));
     }
 }

@@ -88,7 +88,7 @@ class MainTest {
     void whatAToolThrowsIsReportedByItsType() {
         Cli bug = Cli.run("fake-tool", "--fail", "npe");
         assertEquals(1, bug.code());
-        assertEquals(List.of("internal error: java.lang.NullPointerException: fake-tool: a bug (rerun with --debug for the stack trace)"),
+        assertEquals(List.of("internal error, please report: java.lang.NullPointerException: fake-tool: a bug (rerun with --debug for the stack trace)"),
                 bug.errLines());
         Cli input = Cli.run("fake-tool", "--fail", "input");
         assertEquals(2, input.code(), input::toString);
@@ -168,12 +168,12 @@ class MainTest {
         String[] lines = b.toString(java.nio.charset.StandardCharsets.UTF_8).split("\n");
         assertEquals(9, lines.length);
         assertEquals("cannot write output of src.analog in out: No space left on device", lines[5]);
-        assertTrue(lines[6].startsWith("internal error in instance 'src': java.io.UncheckedIOException"), lines[6]);
-        assertEquals("internal error in instance 'rx': java.lang.NullPointerException: oops (rerun with --debug for the stack trace)",
+        assertTrue(lines[6].startsWith("internal error in instance 'src', please report: java.io.UncheckedIOException"), lines[6]);
+        assertEquals("internal error in instance 'rx', please report: java.lang.NullPointerException: oops (rerun with --debug for the stack trace)",
                 lines[7]);
         assertEquals("instance 'rx': cap.csv line 3: expected a number", lines[8]);
         assertTrue(lines[0].startsWith("out of memory (maximum heap"), lines[0]);
-        assertTrue(lines[1].startsWith("internal error: java.lang.IllegalStateException: boom"), lines[1]);
+        assertTrue(lines[1].startsWith("internal error, please report: java.lang.IllegalStateException: boom"), lines[1]);
         assertEquals("a.csv line 7: expected 3 fields, found 2", lines[3]);
         assertTrue(lines[4].startsWith("out of memory"), lines[4]);
         assertFalse(b.toString().contains("\tat "));

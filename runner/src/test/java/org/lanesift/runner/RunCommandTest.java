@@ -240,7 +240,7 @@ class RunCommandTest {
         Cli r = runAllKinds(tmp.resolve("o"), "--set", "src.bug=true");
         assertEquals(1, r.code(), r::toString);
         assertEquals(1, r.errLines().size(), r::toString);
-        assertTrue(r.errLines().get(0).startsWith("internal error in instance 'src': java.lang.NullPointerException"), r::toString);
+        assertTrue(r.errLines().get(0).startsWith("internal error in instance 'src', please report: java.lang.NullPointerException"), r::toString);
         assertTrue(r.errLines().get(0).endsWith("(rerun with --debug for the stack trace)"), r::toString);
     }
 

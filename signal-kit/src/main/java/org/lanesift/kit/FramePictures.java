@@ -5,8 +5,13 @@ import java.awt.image.DataBufferInt;
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
 import java.io.UncheckedIOException;
+import java.util.Iterator;
 import java.util.Locale;
+import javax.imageio.IIOImage;
 import javax.imageio.ImageIO;
+import javax.imageio.ImageWriter;
+import javax.imageio.stream.ImageOutputStream;
+import javax.imageio.stream.MemoryCacheImageOutputStream;
 import org.lanesift.data.Artifact;
 import org.lanesift.data.Frame;
 
@@ -73,12 +78,20 @@ public final class FramePictures {
      */
     public static byte[] png(BufferedImage img) {
         ByteArrayOutputStream bos = new ByteArrayOutputStream();
-        try {
-            if (!ImageIO.write(img, "png", bos)) {
-                throw new IllegalStateException("no PNG writer in this Java runtime");
-            }
+        Iterator<ImageWriter> writers = ImageIO.getImageWritersByFormatName("png");
+        if (!writers.hasNext()) {
+            throw new IllegalStateException("no PNG writer in this Java runtime");
+        }
+        ImageWriter w = writers.next();
+        // in memory, never through ImageIO's disk cache: that cache registers a shutdown hook when it
+        // opens, which fails while the JVM shuts down (Ctrl-C), and the picture would be lost
+        try (ImageOutputStream ios = new MemoryCacheImageOutputStream(bos)) {
+            w.setOutput(ios);
+            w.write(null, new IIOImage(img, null, null), null);
         } catch (IOException e) {
             throw new UncheckedIOException("PNG encoding failed: " + e.getMessage(), e);
+        } finally {
+            w.dispose();
         }
         return bos.toByteArray();
     }

@@ -62,4 +62,18 @@ class FramePicturesTest {
     void anEmptyPictureIsRefused() {
         assertThrows(IllegalArgumentException.class, () -> FramePictures.png(0, 5, new int[0]));
     }
+
+    /**
+     * Ctrl-C runs the JVM's shutdown hooks; a picture encoded then must still be made (ImageIO's disk
+     * cache would register a hook of its own and fail with "Shutdown in progress").
+     */
+    @Test
+    void encodesWhileTheJvmShutsDown() throws Exception {
+        String javaBin = java.nio.file.Path.of(System.getProperty("java.home"), "bin", "java").toString();
+        Process p = new ProcessBuilder(javaBin, "-Djava.awt.headless=true", "-cp", System.getProperty("java.class.path"),
+                PictureAtShutdown.class.getName()).redirectErrorStream(true).start();
+        String out = new String(p.getInputStream().readAllBytes(), java.nio.charset.StandardCharsets.UTF_8).trim();
+        assertEquals(true, p.waitFor(60, java.util.concurrent.TimeUnit.SECONDS));
+        assertEquals(true, out.startsWith("png "), out);
+    }
 }

@@ -75,4 +75,18 @@ public class CaptureFormatException extends org.lanesift.plugin.InputFormatExcep
     public long line() {
         return line;
     }
+
+    /**
+     * Refuses a capture or sidecar path that is a directory, pipe, device or socket (host-api
+     * {@link org.lanesift.plugin.InputFiles}), before it is opened.
+     *
+     * @param file the path
+     * @throws CaptureFormatException naming the file
+     */
+    public static void requireRegular(Path file) {
+        String why = org.lanesift.plugin.InputFiles.whyNotRegular(file);
+        if (why != null) {
+            throw new CaptureFormatException(file, 0, why);
+        }
+    }
 }

@@ -42,6 +42,7 @@ public final class Captures {
             return "raw";
         }
         byte[] head;
+        CaptureFormatException.requireRegular(file);
         try (InputStream in = Files.newInputStream(file)) {
             head = in.readNBytes(4096);
         } catch (NoSuchFileException e) {

@@ -69,6 +69,7 @@ final class CsvLayout {
         CsvLayout l = new CsvLayout();
         l.file = file;
         byte[] head;
+        CaptureFormatException.requireRegular(file);
         try (InputStream in = Files.newInputStream(file)) {
             l.fileSize = Files.size(file);
             head = in.readNBytes(HEAD_BYTES);
@@ -216,6 +217,10 @@ final class CsvLayout {
         if (names != null) {
             for (int j = 0; j < n; j++) {
                 boolean timeUnit = timeScaleOf(un[j]) > 0;
+                if (TIME_NAME.matcher(nm[j]).matches() && !un[j].isEmpty() && !timeUnit) {
+                    throw new CaptureFormatException(file, h + 1, "column " + (j + 1) + " ('" + org.lanesift.plugin.Echo.of(nm[j])
+                            + "'): unknown time unit '" + org.lanesift.plugin.Echo.of(un[j]) + "'; expected " + TIME_UNITS);
+                }
                 if (TIME_NAME.matcher(nm[j]).matches() || (timeUnit && !nm[j].isEmpty())) {
                     l.timeKind = TimeKind.SECONDS;
                     l.timeColumn = j;
@@ -253,6 +258,11 @@ final class CsvLayout {
         List<String> raws = new ArrayList<>();
         for (int k = 0; k < c; k++) {
             int j = l.channelColumns[k];
+            if (!un[j].isEmpty() && !isVoltUnit(un[j])) {
+                throw new CaptureFormatException(file, h + 1, "column " + (j + 1) + " ('" + org.lanesift.plugin.Echo.of(nm[j])
+                        + "'): unknown unit '" + org.lanesift.plugin.Echo.of(un[j]) + "'; expected " + VOLT_UNITS
+                        + " (a column without a unit is taken as volts)");
+            }
             l.channelNames[k] = nm[j].isEmpty() ? "ch" + (j + 1) : nm[j];
             l.units[k] = un[j].isEmpty() || isVoltUnit(un[j]) ? "V" : un[j]; // volt units are scaled to volts
             l.fileUnits[k] = un[j].isEmpty() ? "no unit in the file" : un[j] + " in the file";
@@ -347,31 +357,58 @@ final class CsvLayout {
         return true;
     }
 
+    /** What a channel's unit may be, for messages. */
+    static final String VOLT_UNITS = "V, mV, uV (or with the micro sign) or kV";
+    /** What the time column's unit may be, for messages. */
+    static final String TIME_UNITS = "s, ms, us (or with the micro sign), ns, ps or min";
+
     static boolean isVoltUnit(String u) {
-        String s = u.toLowerCase(Locale.ROOT);
-        return s.equals("v") || s.equals("mv") || s.equals("uv") || s.equals("\u00b5v") || s.equals("kv")
-                || s.equals("volt") || s.equals("volts");
+        return !Double.isNaN(voltScaleOrNaN(u));
     }
 
+    /**
+     * Volts per unit of a channel column: V with an SI prefix (micro as u, U+00B5 or U+03BC; the
+     * one prefix table, host-api {@link org.lanesift.unit.Quantity}), a lower-case v accepted.
+     *
+     * @return the scale, 1 for no unit or an unknown one (refused by {@link #sniff} before it is used)
+     */
     static double voltScale(String u) {
+        double k = voltScaleOrNaN(u);
+        return Double.isNaN(k) ? 1 : k;
+    }
+
+    private static double voltScaleOrNaN(String u) {
         String s = u.trim();
         switch (s) {
-            case "mV": case "mv": return 1e-3;
-            case "uV": case "uv": case "\u00b5V": case "\u00b5v": return 1e-6;
-            case "kV": case "kv": return 1e3;
-            default: return 1;
+            case "volt": case "volts": case "Volt": case "Volts": return 1;
+            default: break;
         }
+        if (s.endsWith("v")) {
+            s = s.substring(0, s.length() - 1) + "V";
+        }
+        if (s.length() == 2 && s.charAt(0) == 'M') {
+            return Double.NaN; // "MV" is written by no instrument for megavolts; more likely a typo of mV
+        }
+        return s.endsWith("V") ? org.lanesift.unit.Quantity.scaleOf(s, "V") : Double.NaN;
     }
 
+    /**
+     * Seconds per unit of a time column: s with an SI prefix (micro as u, U+00B5 or U+03BC), or min.
+     *
+     * @return the scale, or -1 for an unknown unit
+     */
     static double timeScaleOf(String u) {
-        switch (u.trim()) {
-            case "s": case "S": case "sec": case "Sec": case "seconds": case "Seconds": return 1;
-            case "ms": return 1e-3;
-            case "us": case "\u00b5s": return 1e-6;
-            case "ns": return 1e-9;
-            case "ps": return 1e-12;
-            default: return -1;
+        String s = u.trim();
+        switch (s) {
+            case "S": case "sec": case "Sec": case "seconds": case "Seconds": return 1;
+            case "min": return 60;
+            default: break;
         }
+        if (s.length() > 2 || s.isEmpty() || (s.length() == 2 && "munpf\u00b5\u03bc".indexOf(s.charAt(0)) < 0)) {
+            return -1; // only s and its small prefixes: "Ms" or "ks" is no time axis anyone writes
+        }
+        double k = org.lanesift.unit.Quantity.scaleOf(s, "s");
+        return Double.isNaN(k) ? -1 : k;
     }
 
     private static byte[] sepChoices(String opt) {
@@ -471,7 +508,7 @@ final class CsvLayout {
         int end = trimEnd(b, ln[0], ln[1]);
         for (int k = ln[0]; k <= end; k++) {
             if (k == end || b[k] == sep) {
-                out.add(new String(b, from, k - from, StandardCharsets.UTF_8));
+                out.add(text(b, from, k - from));
                 from = k + 1;
                 if (out.size() > MAX_COLUMNS) {
                     break; // callers report the excess
@@ -479,5 +516,19 @@ final class CsvLayout {
             }
         }
         return out;
+    }
+
+    /**
+     * A header field as text: UTF-8, or Latin-1 when the bytes are not UTF-8 (so the micro sign
+     * some tools write as the single byte 0xB5 reads as U+00B5, not as a replacement character).
+     */
+    static String text(byte[] b, int from, int len) {
+        try {
+            return StandardCharsets.UTF_8.newDecoder().onMalformedInput(java.nio.charset.CodingErrorAction.REPORT)
+                    .onUnmappableCharacter(java.nio.charset.CodingErrorAction.REPORT)
+                    .decode(java.nio.ByteBuffer.wrap(b, from, len)).toString();
+        } catch (java.nio.charset.CharacterCodingException e) {
+            return new String(b, from, len, StandardCharsets.ISO_8859_1);
+        }
     }
 }

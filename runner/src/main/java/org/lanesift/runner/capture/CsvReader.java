@@ -82,14 +82,14 @@ final class CsvReader implements CaptureReader {
                 }
                 t0S = l.headFirstTime;
                 index0 = 0;
-                startFs = Femtos.fromSeconds(t0S);
+                startFs = startFs(t0S);
             }
             case INDEX -> {
                 requireRate(rateHz, "a sample-index column");
                 stepS = 1 / rateHz;
                 index0 = Double.isNaN(l.headFirstIndex) ? 0 : l.headFirstIndex;
                 t0S = index0 * stepS;
-                startFs = Femtos.fromSeconds(t0S);
+                startFs = startFs(t0S);
             }
             default -> {
                 requireRate(rateHz, "no time column");
@@ -102,11 +102,26 @@ final class CsvReader implements CaptureReader {
         if (!(stepS > 0) || !Double.isFinite(stepS)) {
             throw new CaptureFormatException(file, l.dataLine, "the time column does not advance; expected increasing times");
         }
+        if (stepS * Femtos.PER_S < 1) {
+            throw new CaptureFormatException(file, l.dataLine, "a time step of " + fmt(stepS) + " s is below 1 fs, the time"
+                    + " base's step; expected at most 1e15 samples per second");
+        }
         this.periodFs = stepS * Femtos.PER_S;
+        CaptureFormatException.requireRegular(file);
         this.ch = FileChannel.open(file, StandardOpenOption.READ);
         ch.position(l.dataOffset);
         consumedBytes = l.dataOffset;
         line = l.dataLine - 1;
+    }
+
+    /** The first row's time in femtoseconds, refused when the time base cannot hold it. */
+    private long startFs(double t0S) {
+        if (!Double.isFinite(t0S) || Math.abs(t0S) > Femtos.MAX_SECONDS) {
+            throw new CaptureFormatException(file, l.dataLine, "time " + fmt(t0S) + " s is beyond +/-"
+                    + String.format(java.util.Locale.ROOT, "%.0f", Femtos.MAX_SECONDS) + " s; expected times within the"
+                    + " time base (femtoseconds in 64 bits, about 2.5 h either side of the origin)");
+        }
+        return Femtos.fromSeconds(t0S);
     }
 
     private void requireRate(double rateHz, String why) {
@@ -217,6 +232,11 @@ final class CsvReader implements CaptureReader {
             return false;
         }
         long first = rows;
+        if (!Femtos.spanFits(startFs, periodFs, first + n)) {
+            throw new CaptureFormatException(file, line, "row " + (first + n) + " at " + fmt(Femtos.toSeconds(startFs) + (first + n - 1)
+                    * periodFs / Femtos.PER_S) + " s is beyond +/-" + String.format(java.util.Locale.ROOT, "%.0f", Femtos.MAX_SECONDS)
+                    + " s; expected a capture within the time base (femtoseconds in 64 bits)");
+        }
         long blockStart = startFs + Math.round(first * periodFs);
         for (int k = 0; k < nch; k++) {
             out.emit(k, new AnalogBlock(l.ports[k], first, blockStart, periodFs, v[k], n, inv == null ? null : inv[k]));
@@ -281,6 +301,9 @@ final class CsvReader implements CaptureReader {
                 }
                 if (a >= 0) {
                     float f = (float) (d * scales[a]);
+                    if (!Float.isFinite(f)) {
+                        f = Float.NaN; // inf, 1e309, or beyond float range: not a measured value (docs/capture-csv.md)
+                    }
                     v[a][row] = f;
                     if (f != f) {
                         result = 2;
@@ -355,6 +378,11 @@ final class CsvReader implements CaptureReader {
                     + fmt(ts) + " s after " + fmt(prevT) + " s on the row before; expected increasing, uniformly spaced times");
         }
         prevT = ts;
+        if (Math.abs(ts) > Femtos.MAX_SECONDS) {
+            throw new CaptureFormatException(file, line, "time " + fmt(ts) + " s is beyond +/-"
+                    + String.format(java.util.Locale.ROOT, "%.0f", Femtos.MAX_SECONDS) + " s; expected times within the"
+                    + " time base (femtoseconds in 64 bits, about 2.5 h either side of the origin)");
+        }
         double expected = t0S + r * stepS;
         if (np.lastExp10 != cachedExp) {
             cachedExp = np.lastExp10;

@@ -47,6 +47,7 @@ final class RawReader implements CaptureReader {
         this.nch = sc.names.length;
         this.frame = sc.frameBytes();
         long size;
+        CaptureFormatException.requireRegular(file);
         try {
             size = Files.size(file);
         } catch (NoSuchFileException e) {
@@ -64,7 +65,13 @@ final class RawReader implements CaptureReader {
                     + all + " frames)");
         }
         this.first = firstFrame;
-        this.frames = frameCount == 0 ? all : Math.min(all, firstFrame + frameCount);
+        // frameCount may be as large as Long.MAX_VALUE: "to the end", never an overflow to nothing
+        this.frames = frameCount == 0 || frameCount >= all - firstFrame ? all : firstFrame + frameCount;
+        if (!Femtos.spanFits(Femtos.fromSeconds(sc.startTimeS), Femtos.periodFs(sc.rateHz), all)) {
+            throw new CaptureFormatException(sc.path, 0, "/rateHz: " + all + " frames at " + sc.rateHz + " samples per second last "
+                    + String.format(java.util.Locale.ROOT, "%.4g", all / sc.rateHz) + " s; expected a capture that ends within "
+                    + String.format(java.util.Locale.ROOT, "%.0f", Femtos.MAX_SECONDS) + " s of its origin (times are femtoseconds in 64 bits)");
+        }
         this.pos = firstFrame;
         this.framesPerBlock = Math.max(1, Math.min(blockSamples, CsvReader.MAX_SPAN_VALUES / nch));
         this.periodFs = Femtos.periodFs(sc.rateHz);
@@ -164,8 +171,9 @@ final class RawReader implements CaptureReader {
                             bad = !Float.isFinite(f);
                         }
                     }
-                    v[k][row] = (float) (code * sc.gain[k] + sc.offset[k]);
-                    if (bad) {
+                    float volts = (float) (code * sc.gain[k] + sc.offset[k]);
+                    v[k][row] = volts;
+                    if (bad || !Float.isFinite(volts)) {
                         if (inv[k] == null) {
                             inv[k] = new long[(n + 63) >>> 6];
                         }

@@ -4,6 +4,7 @@ import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
+import org.lanesift.time.Femtos;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Set;
@@ -45,6 +46,7 @@ final class RawSidecar {
         RawSidecar s = new RawSidecar();
         s.path = sidecar;
         JsonValue root;
+        CaptureFormatException.requireRegular(sidecar);
         try {
             root = JsonReader.read(sidecar, String.valueOf(sidecar.getFileName() == null ? sidecar : sidecar.getFileName()));
         } catch (JsonParseException e) {
@@ -70,6 +72,10 @@ final class RawSidecar {
         s.rateHz = rate.asDouble();
         if (!(s.rateHz > 0) || !Double.isFinite(s.rateHz)) {
             throw s.bad("/rateHz", "expected a positive number of samples per second, found " + rate);
+        }
+        if (s.rateHz > Femtos.MAX_RATE_HZ) {
+            throw s.bad("/rateHz", "found " + rate + ", a sample period below 1 fs (the time base's step); expected at most 1e15"
+                    + " samples per second");
         }
         JsonValue fmt = root.get("format");
         if (fmt == null || !fmt.isString()) {
@@ -129,6 +135,15 @@ final class RawSidecar {
             s.offset[i] = number(s, c, p, "offset", 0);
             if (s.gain[i] == 0) {
                 throw s.bad(p + "/gain", "expected a non-zero number of volts per code");
+            }
+            // every code of the format must give a finite voltage in the float samples
+            double maxCode = s.format == Format.FLOAT32LE ? 1 : 32768;
+            if (Math.abs(s.gain[i]) < 1e-30 || Math.abs(s.gain[i]) * maxCode > 1e30) {
+                throw s.bad(p + "/gain", "found " + s.gain[i] + "; expected volts per code between 1e-30 and " + (1e30 / maxCode)
+                        + " in magnitude");
+            }
+            if (Math.abs(s.offset[i]) > 1e30) {
+                throw s.bad(p + "/offset", "found " + s.offset[i] + "; expected volts within +/-1e30");
             }
         }
         s.names = Names.ports(raw).toArray(String[]::new);

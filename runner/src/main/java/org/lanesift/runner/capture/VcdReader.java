@@ -56,6 +56,7 @@ final class VcdReader implements CaptureReader {
         this.file = file;
         this.blockChanges = blockChanges;
         this.realPeriodFs = Femtos.periodFs(realRateHz);
+        CaptureFormatException.requireRegular(file);
         try {
             this.fileSize = Files.size(file);
             this.in = new BufferedInputStream(Files.newInputStream(file), 1 << 16);

@@ -111,6 +111,10 @@ public final class ChainFileReader {
                     String op = p + "/options/" + escape(e.getKey());
                     Object v = optionValue(e.getValue(), op, file);
                     if (isPathOption(e.getKey()) && v instanceof String s) {
+                        String why = badPath(s);
+                        if (why != null) {
+                            throw err(file, op, why);
+                        }
                         v = resolve(dir, s);
                     }
                     options.put(e.getKey(), v);
@@ -155,6 +159,26 @@ public final class ChainFileReader {
     }
 
     /** Resolves a relative path against the chain file's directory. */
+    /**
+     * Why a text cannot be a file path on this system (a NUL or another character the file system
+     * refuses), or null when it can.
+     *
+     * @param path the text
+     * @return the reason, for a message
+     */
+    public static String badPath(String path) {
+        int nul = path.indexOf('\0');
+        if (nul >= 0) {
+            return "the path has a NUL character at position " + (nul + 1) + "; expected a file name without control characters";
+        }
+        try {
+            Path.of(path);
+            return null;
+        } catch (java.nio.file.InvalidPathException e) {
+            return "'" + org.lanesift.plugin.Echo.of(path) + "' is not a valid path here (" + org.lanesift.plugin.Echo.of(e.getReason()) + ")";
+        }
+    }
+
     static String resolve(Path dir, String file) {
         if (file.isEmpty() || dir == null) {
             return file;

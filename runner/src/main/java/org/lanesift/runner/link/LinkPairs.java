@@ -57,7 +57,11 @@ public final class LinkPairs {
     public static void parseFile(Path file, Set<String> known, List<LinkChains.Pair> into) {
         List<String> lines;
         try {
-            lines = Files.readAllLines(file, StandardCharsets.UTF_8);
+            byte[] b = org.lanesift.plugin.InputFiles.readAtMost(file, file.toString(), 1 << 20);
+            if (b.length > 1 << 20) {
+                throw new InputFormatException(file + ": more than 1 MiB; expected a channel map of NAME=P,N lines");
+            }
+            lines = new String(b, StandardCharsets.UTF_8).lines().toList();
         } catch (IOException e) {
             throw new InputFormatException(file + ": cannot read the channel map (expected a text file of NAME=P,N lines): "
                     + e.getMessage(), e);

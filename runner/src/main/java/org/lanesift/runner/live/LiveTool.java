@@ -79,7 +79,9 @@ public final class LiveTool implements Tool {
         Path dir = Path.of(args.text("out")).toAbsolutePath();
         ChainRun run = ChainRun.of(Path.of(chain)).out(dir.resolve("decoded")).quiet(true).debug(console.debug());
         for (String id : spoolNodes) {
-            run.set(id, "dir", dir.toString()).set(id, "follow", "true");
+            run.set(id, "dir", dir.toString()).set(id, "follow", "true")
+                    // the capture runs in this process and closes the spool when it ends; a device pause is no dead capture
+                    .set(id, "followIdleSeconds", "86400");
         }
         AtomicInteger captureCode = new AtomicInteger(-1);
         AtomicReference<RuntimeException> captureFailure = new AtomicReference<>();

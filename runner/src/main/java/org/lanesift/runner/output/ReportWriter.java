@@ -131,6 +131,14 @@ public final class ReportWriter {
             }
             sb.append('\n');
         }
+        if (!run.stale().isEmpty()) {
+            sb.append("\n## Stale files\n\n");
+            sb.append("Left in the output folder by an earlier run and not written by this one (kept, not removed; "
+                    + "see docs/outputs.md):\n\n");
+            for (String n : run.stale()) {
+                sb.append("- `").append(oneLine(n)).append("`\n");
+            }
+        }
         return sb.toString();
     }
 

@@ -179,6 +179,25 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
         }
     }
 
+    /**
+     * The files the declared outputs will be written to, with the annotations and the report: what a
+     * run can check against its inputs before it starts (artifacts are named only when they arrive).
+     *
+     * @return names relative to the output folder
+     */
+    public List<String> plannedFiles() {
+        List<String> names = new ArrayList<>(List.of(VCD, ANNOTATIONS, REPORT));
+        for (OutputStats s : stats.values()) {
+            String base = Texts.safe(s.instance) + "-" + Texts.safe(s.output);
+            if (s.kind == DataKind.ANALOG) {
+                names.add(base + ".csv");
+            } else if (s.kind == DataKind.BITS) {
+                names.add(base + "-bits.csv");
+            }
+        }
+        return names;
+    }
+
     @Override
     public void accept(String instance, String output, Block block) {
         String key = instance + "." + output;

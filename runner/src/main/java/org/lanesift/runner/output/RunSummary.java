@@ -17,9 +17,11 @@ import java.util.Map;
  * @param inputs      {@code --input} values, instance to file
  * @param sets        {@code --set} values as typed
  * @param instances   the instances in chain order
+ * @param stale       files in the output folder from an earlier run that this run did not write (left in place)
  */
 public record RunSummary(String chainFile, String description, String version, Instant started, long millis, String status,
-                         Map<String, String> inputs, List<String> sets, List<Instance> instances) {
+                         Map<String, String> inputs, List<String> sets, List<Instance> instances,
+                         List<String> stale) {
 
     /**
      * One instance.

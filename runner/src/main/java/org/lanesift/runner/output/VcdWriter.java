@@ -47,6 +47,12 @@ public final class VcdWriter implements Closeable {
     /** Per word stream (scope NUL name): {highest lane seen, 1 if any word had a flag}. */
     private final Map<String, int[]> streams = new java.util.HashMap<>();
     private boolean closed;
+    /** Spool files open at once while merging, whatever the number of signals. */
+    static final int MAX_OPEN_SPOOLS = 128;
+    /** Bytes of changes a signal holds in memory before appending them to its spool. */
+    static final int SPILL_BYTES = 16 << 10;
+    private final int maxOpen;
+    private int mergeFiles;
 
     /** One declared signal and its spool. */
     private final class Var {
@@ -55,7 +61,9 @@ public final class VcdWriter implements Closeable {
         final int width;
         String code;
         final Path spool;
-        final DataOutputStream out;
+        /** Changes not yet appended to the spool; the spool file is open only while they are appended. */
+        final java.io.ByteArrayOutputStream pending = new java.io.ByteArrayOutputStream(256);
+        final DataOutputStream out = new DataOutputStream(pending);
         boolean logicStarted;
         boolean logicLevel;
         boolean logicInvalid;
@@ -88,7 +96,18 @@ public final class VcdWriter implements Closeable {
             this.arrival = index;
             Files.createDirectories(spoolDir);
             this.spool = spoolDir.resolve("v" + index + ".bin");
-            this.out = new DataOutputStream(new BufferedOutputStream(Files.newOutputStream(spool), 1 << 15));
+            Files.newOutputStream(spool).close();
+        }
+
+        /** Appends what is held in memory to the spool file, opening it only for that. */
+        void spill() throws IOException {
+            if (pending.size() == 0) {
+                return;
+            }
+            try (java.io.OutputStream o = Files.newOutputStream(spool, java.nio.file.StandardOpenOption.APPEND)) {
+                pending.writeTo(o);
+            }
+            pending.reset();
         }
 
         void change(long t, long value, byte state) throws IOException {
@@ -124,6 +143,9 @@ public final class VcdWriter implements Closeable {
             out.writeLong(pendingValue);
             out.writeByte(pendingState);
             changes++;
+            if (pending.size() >= SPILL_BYTES) {
+                spill();
+            }
         }
     }
 
@@ -135,9 +157,15 @@ public final class VcdWriter implements Closeable {
      * @param version  text for {@code $version}
      */
     public VcdWriter(Path file, Path spoolDir, String version) {
+        this(file, spoolDir, version, MAX_OPEN_SPOOLS);
+    }
+
+    /** A writer that merges at most {@code maxOpen} spools at once (tests use a small number). */
+    VcdWriter(Path file, Path spoolDir, String version, int maxOpen) {
         this.file = file;
         this.spoolDir = spoolDir;
         this.version = version;
+        this.maxOpen = Math.max(2, maxOpen);
     }
 
     /** VCD identifier codes: printable ASCII 33..126, base 94 (IEEE 1364-2005 18.2.1). */
@@ -426,21 +454,31 @@ public final class VcdWriter implements Closeable {
         return v == null ? 0 : v.changes + (v.havePending ? 1 : 0);
     }
 
+    /** A spool to merge: one signal's changes (time, value, state), or merged ones that carry their signal. */
+    private record Source(Path file, int fixedVar) {
+    }
+
     private static final class Cursor {
-        final int var;
+        /** The signal of every record, or -1 when each record carries its own. */
+        final int fixedVar;
         final DataInputStream in;
+        int var;
         long time;
         long value;
         byte state;
 
-        Cursor(int var, DataInputStream in) {
-            this.var = var;
-            this.in = in;
+        Cursor(Source s) throws IOException {
+            this.fixedVar = s.fixedVar();
+            this.var = fixedVar;
+            this.in = new DataInputStream(new BufferedInputStream(Files.newInputStream(s.file()), 1 << 15));
         }
 
         boolean next() throws IOException {
             try {
                 time = in.readLong();
+                if (fixedVar < 0) {
+                    var = in.readInt();
+                }
                 value = in.readLong();
                 state = in.readByte();
                 return true;
@@ -448,6 +486,54 @@ public final class VcdWriter implements Closeable {
                 return false;
             }
         }
+    }
+
+    private static PriorityQueue<Cursor> queue() {
+        return new PriorityQueue<>((a, b) -> a.time != b.time ? Long.compare(a.time, b.time) : Integer.compare(a.var, b.var));
+    }
+
+    /**
+     * Merges groups of at most {@link #maxOpen} sources into one spool each until no more than
+     * that many are left, so the final merge never holds more files open than that.
+     */
+    private List<Source> premerge(List<Source> sources, List<Path> temporary) throws IOException {
+        List<Source> level = sources;
+        while (level.size() > maxOpen) {
+            List<Source> next = new ArrayList<>();
+            for (int g = 0; g < level.size(); g += maxOpen) {
+                List<Source> group = level.subList(g, Math.min(level.size(), g + maxOpen));
+                Path merged = spoolDir.resolve("m" + (mergeFiles++) + ".bin");
+                temporary.add(merged);
+                List<Cursor> open = new ArrayList<>();
+                try (DataOutputStream o = new DataOutputStream(new BufferedOutputStream(Files.newOutputStream(merged), 1 << 15))) {
+                    PriorityQueue<Cursor> q = queue();
+                    for (Source src : group) {
+                        Cursor c = new Cursor(src);
+                        open.add(c);
+                        if (c.next()) {
+                            q.add(c);
+                        }
+                    }
+                    while (!q.isEmpty()) {
+                        Cursor c = q.poll();
+                        o.writeLong(c.time);
+                        o.writeInt(c.var);
+                        o.writeLong(c.value);
+                        o.writeByte(c.state);
+                        if (c.next()) {
+                            q.add(c);
+                        }
+                    }
+                } finally {
+                    for (Cursor c : open) {
+                        c.in.close();
+                    }
+                }
+                next.add(new Source(merged, -1));
+            }
+            level = next;
+        }
+        return level;
     }
 
     /**
@@ -483,16 +569,20 @@ public final class VcdWriter implements Closeable {
                 v.change(v.lastWordEnd, 0, UNKNOWN); // no word after the last one
             }
             v.flushPending();
-            v.out.close();
+            v.spill();
             origin = Math.min(origin, v.firstTime);
         }
         List<Cursor> cursors = new ArrayList<>();
+        List<Path> temporary = new ArrayList<>();
         try (Writer w = new BufferedWriter(Files.newBufferedWriter(file, StandardCharsets.US_ASCII), 1 << 16)) {
             header(w, list, origin);
-            PriorityQueue<Cursor> q = new PriorityQueue<>((a, b) -> a.time != b.time ? Long.compare(a.time, b.time)
-                    : Integer.compare(a.var, b.var));
+            List<Source> sources = new ArrayList<>();
             for (int i = 0; i < list.size(); i++) {
-                Cursor c = new Cursor(i, new DataInputStream(new BufferedInputStream(Files.newInputStream(list.get(i).spool), 1 << 15)));
+                sources.add(new Source(list.get(i).spool, i));
+            }
+            PriorityQueue<Cursor> q = queue();
+            for (Source src : premerge(sources, temporary)) {
+                Cursor c = new Cursor(src);
                 cursors.add(c);
                 if (c.next()) {
                     q.add(c);
@@ -538,6 +628,9 @@ public final class VcdWriter implements Closeable {
             }
             for (Var v : list) {
                 Files.deleteIfExists(v.spool);
+            }
+            for (Path t : temporary) {
+                Files.deleteIfExists(t);
             }
             try {
                 Files.deleteIfExists(spoolDir);

@@ -136,4 +136,53 @@ class VcdWriterTest {
         b.close();
         assertEquals(bodyAfterDefinitions(one), bodyAfterDefinitions(many));
     }
+
+    /** Open file descriptors of this process (Linux), or -1 elsewhere. */
+    private static long openFiles() throws Exception {
+        Path fd = Path.of("/proc/self/fd");
+        if (!Files.isDirectory(fd)) {
+            return -1;
+        }
+        try (var l = Files.list(fd)) {
+            return l.count();
+        }
+    }
+
+    private static void manySignals(VcdWriter w, int signals) {
+        for (int k = 0; k < signals; k++) {
+            // signal k: low, rises at 10 + k, falls at 5000 + 3 k
+            w.edges("cap", "s" + k, new Edges("s" + k, 0, 10_000, false, new long[] {10 + k, 5000 + 3L * k}, 2, new long[0], 0));
+        }
+    }
+
+    /**
+     * Issue 18: 1,500 signals no longer keep 1,500 spool files open ("Too many open files"): a
+     * signal's file is open only while its changes are appended, and the merge opens at most a
+     * fixed number at once (merging in rounds), with the same VCD as a merge of everything at once.
+     */
+    @Test
+    void fileHandlesStayBoundedWhateverTheNumberOfSignals() throws Exception {
+        long before = openFiles();
+        Path f = tmp.resolve("many.vcd");
+        VcdWriter w = new VcdWriter(f, tmp.resolve("spool"), "test");
+        manySignals(w, 1500);
+        long during = openFiles();
+        if (before >= 0) {
+            assertTrue(during - before < 20, "files open while writing 1500 signals: " + (during - before));
+        }
+        w.close();
+        Path g = tmp.resolve("rounds.vcd");
+        VcdWriter small = new VcdWriter(g, tmp.resolve("spool2"), "test", 7);
+        manySignals(small, 1500);
+        small.close();
+        Path h = tmp.resolve("once.vcd");
+        VcdWriter once = new VcdWriter(h, tmp.resolve("spool3"), "test", 100_000);
+        manySignals(once, 1500);
+        once.close();
+        String body = bodyAfterDefinitions(h);
+        assertEquals(body, bodyAfterDefinitions(f));
+        assertEquals(body, bodyAfterDefinitions(g));
+        assertTrue(body.contains("#5000\n"), "the first fall");
+        assertFalse(Files.exists(tmp.resolve("spool2")), "merge rounds leave no file behind");
+    }
 }

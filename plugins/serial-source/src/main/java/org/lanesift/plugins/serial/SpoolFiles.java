@@ -44,11 +44,12 @@ final class SpoolFiles {
     }
 
     static Properties read(Path file) throws IOException {
-        if (Files.size(file) > 65536) {
+        byte[] b = org.lanesift.plugin.InputFiles.readAtMost(file, file.toString(), 65536);
+        if (b.length > 65536) {
             throw new DeviceException(file + ": larger than 64 KiB, not a spool property file");
         }
         Properties p = new Properties();
-        try (Reader r = Files.newBufferedReader(file, StandardCharsets.UTF_8)) {
+        try (Reader r = new java.io.StringReader(new String(b, StandardCharsets.UTF_8))) {
             p.load(r);
         }
         return p;

@@ -26,11 +26,34 @@ final class SpoolReader implements AutoCloseable {
     private long consumed;
     private boolean unclosed;
 
+    private final long idleLimitNanos;
+    private long lastProgressNanos = System.nanoTime();
+
     SpoolReader(Path dir, boolean follow, long pollMs, BooleanSupplier cancelled) {
+        this(dir, follow, pollMs, cancelled, Long.MAX_VALUE);
+    }
+
+    /**
+     * A reader; following, it gives up when the spool has not grown for {@code idleLimitNanos} and
+     * the capture never closed it (a capture that died).
+     */
+    SpoolReader(Path dir, boolean follow, long pollMs, BooleanSupplier cancelled, long idleLimitNanos) {
         this.dir = dir;
         this.follow = follow;
         this.pollMs = pollMs;
         this.cancelled = cancelled;
+        this.idleLimitNanos = idleLimitNanos;
+    }
+
+    /** One poll wait with nothing new; past the idle limit, the follower gives up. */
+    private Event idle() throws InterruptedException {
+        if (System.nanoTime() - lastProgressNanos > idleLimitNanos) {
+            throw new DeviceException("spool " + dir + ": nothing new for " + String.format(java.util.Locale.ROOT, "%.3g", idleLimitNanos / 1e9)
+                    + " s and the capture never closed the spool (no " + SpoolFiles.CLOSED + "); stopped following it "
+                    + "(option followIdleSeconds; docs/spool.md)");
+        }
+        Thread.sleep(pollMs);
+        return Event.IDLE;
     }
 
     int segment() {
@@ -69,6 +92,7 @@ final class SpoolReader implements AutoCloseable {
                     in = Files.newInputStream(seg);
                     segment = next;
                     segmentOffset = 0;
+                    lastProgressNanos = System.nanoTime();
                     return Event.SEGMENT_START;
                 }
                 if (Files.exists(dir.resolve(SpoolFiles.CLOSED)) || !follow || cancelled.getAsBoolean()) {
@@ -77,11 +101,11 @@ final class SpoolReader implements AutoCloseable {
                     }
                     return Event.END;
                 }
-                Thread.sleep(pollMs);
-                return Event.IDLE;
+                return idle();
             }
             int n = in.read(buf);
             if (n > 0) {
+                lastProgressNanos = System.nanoTime();
                 last = n;
                 segmentOffset += n;
                 consumed += n;
@@ -103,8 +127,7 @@ final class SpoolReader implements AutoCloseable {
                 in = null;
                 continue;
             }
-            Thread.sleep(pollMs);
-            return Event.IDLE;
+            return idle();
         }
     }
 

@@ -27,6 +27,8 @@ public final class SpoolSourceProvider implements PluginProvider {
             .option(OptionSpec.text("dir", "", "spool directory (give dir or file)"))
             .option(OptionSpec.text("file", "", "the spool's spool.properties file, or its directory (give dir or file)"))
             .option(OptionSpec.bool("follow", false, "wait for more data until the capture closes the spool"))
+            .option(OptionSpec.number("followIdleSeconds", "s", 60.0, 0.1, 86400.0, "following: give up when the spool has not"
+                    + " grown for this long and the capture never closed it (a capture that died)"))
             .option(OptionSpec.integer("channels", 8L, 1, 8, "logic channels to emit, ch0..ch(N-1)"))
             .option(OptionSpec.time("start", org.lanesift.time.TimeValue.Unit.S, "0s", "replay from this time of the capture,"
                     + " such as 90s or 4000000samples; what lies before it is passed over through the segment indexes, unread"))

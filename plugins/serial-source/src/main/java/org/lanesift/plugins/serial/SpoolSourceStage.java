@@ -17,6 +17,8 @@ final class SpoolSourceStage implements org.lanesift.plugin.Stage {
     private final StageContext ctx;
     private final Path dir;
     private final boolean follow;
+    /** Following: how long the spool may stay unchanged before the source gives up. */
+    private final long idleLimitNanos;
     private final int channels;
     private final int blockSamples;
     private final byte[] chunk = new byte[1 << 16];
@@ -33,6 +35,7 @@ final class SpoolSourceStage implements org.lanesift.plugin.Stage {
         this.ctx = ctx;
         this.dir = dir;
         this.follow = ctx.options().getBoolean("follow");
+        this.idleLimitNanos = (long) (ctx.options().getDouble("followIdleSeconds") * 1e9);
         this.channels = ctx.options().getInt("channels");
         this.blockSamples = ctx.options().getInt("blockSamples");
         if (!follow && !Files.isRegularFile(dir.resolve(SpoolFiles.HEADER))) {
@@ -41,12 +44,18 @@ final class SpoolSourceStage implements org.lanesift.plugin.Stage {
     }
 
     private boolean start() throws IOException, InterruptedException {
+        long waitStart = System.nanoTime();
         // following a capture: wait for the header, and for the final one (after the identification
         // exchange) rather than the provisional rate written before it
         while (!Files.isRegularFile(dir.resolve(SpoolFiles.HEADER))
                 || (follow && SpoolHeader.isProvisional(dir) && !Files.exists(dir.resolve(SpoolFiles.CLOSED)))) {
             if (ctx.isCancelled()) {
                 return false;
+            }
+            if (System.nanoTime() - waitStart > idleLimitNanos) {
+                throw new DeviceException("spool " + dir + ": no final " + SpoolFiles.HEADER + " after "
+                        + String.format(java.util.Locale.ROOT, "%.3g", idleLimitNanos / 1e9) + " s; stopped waiting for the capture to start "
+                        + "(option followIdleSeconds; docs/spool.md)");
             }
             Thread.sleep(POLL_MS);
         }
@@ -72,7 +81,7 @@ final class SpoolSourceStage implements org.lanesift.plugin.Stage {
             }
         });
         decoder.dropBefore(startSample);
-        reader = new SpoolReader(dir, follow, POLL_MS, ctx::isCancelled);
+        reader = new SpoolReader(dir, follow, POLL_MS, ctx::isCancelled, idleLimitNanos);
         return true;
     }
 

@@ -61,10 +61,11 @@ final class EyeMask {
     static EyeMask read(Path file) {
         List<String> lines;
         try {
-            if (Files.size(file) > 4 << 20) {
+            byte[] b = org.lanesift.plugin.InputFiles.readAtMost(file, "eye mask file " + file, 4 << 20);
+            if (b.length > 4 << 20) {
                 throw new MaskException("eye mask file " + file + ": larger than 4 MiB, not a mask");
             }
-            lines = Files.readAllLines(file, StandardCharsets.UTF_8);
+            lines = new String(b, StandardCharsets.UTF_8).lines().toList();
         } catch (java.nio.file.NoSuchFileException e) {
             throw new MaskException("eye mask file " + file + ": no such file (looked in folder "
                     + file.toAbsolutePath().normalize().getParent() + ")");
@@ -91,7 +92,7 @@ final class EyeMask {
             String[] tok = s.split("\\s+");
             if (!header) {
                 if (tok.length != 2 || !tok[0].equals(MAGIC) || !tok[1].equals("1")) {
-                    throw new MaskException(at + "expected the header '" + MAGIC + " 1', got '" + s + "'");
+                    throw new MaskException(at + "expected the header '" + MAGIC + " 1', got '" + token(s) + "'");
                 }
                 header = true;
                 continue;
@@ -124,10 +125,10 @@ final class EyeMask {
                 name = null;
             } else {
                 if (name == null) {
-                    throw new MaskException(at + "expected 'polygon NAME', got '" + s + "'");
+                    throw new MaskException(at + "expected 'polygon NAME', got '" + token(s) + "'");
                 }
                 if (tok.length != 2) {
-                    throw new MaskException(at + "expected a vertex 'X_UI Y_MV' (two numbers), got '" + s + "'");
+                    throw new MaskException(at + "expected a vertex 'X_UI Y_MV' (two numbers), got '" + org.lanesift.plugin.Echo.of(s, 40) + "'");
                 }
                 double x;
                 double y;
@@ -135,10 +136,10 @@ final class EyeMask {
                     x = Double.parseDouble(tok[0]);
                     y = Double.parseDouble(tok[1]);
                 } catch (NumberFormatException e) {
-                    throw new MaskException(at + "expected a vertex 'X_UI Y_MV' (two numbers), got '" + s + "'");
+                    throw new MaskException(at + "expected a vertex 'X_UI Y_MV' (two numbers), got '" + org.lanesift.plugin.Echo.of(s, 40) + "'");
                 }
                 if (!Double.isFinite(x) || !Double.isFinite(y) || x < -1 || x > 2) {
-                    throw new MaskException(at + "vertex x must be finite in -1..2 UI and y finite in mV, got '" + s + "'");
+                    throw new MaskException(at + "vertex x must be finite in -1..2 UI and y finite in mV, got '" + org.lanesift.plugin.Echo.of(s, 40) + "'");
                 }
                 if (verts.size() >= MAX_VERTICES) {
                     throw new MaskException(at + "polygon '" + name + "' has more than " + MAX_VERTICES + " vertices");
@@ -171,5 +172,15 @@ final class EyeMask {
             }
         }
         return -1;
+    }
+
+    /** The first word of a line, escaped and cut short: a message never echoes more of a file than that. */
+    private static String token(String s) {
+        String t = s.strip();
+        int sp = 0;
+        while (sp < t.length() && !Character.isWhitespace(t.charAt(sp))) {
+            sp++;
+        }
+        return org.lanesift.plugin.Echo.of(t.substring(0, sp), 24);
     }
 }

@@ -243,6 +243,43 @@ class EyeDiagramPluginTest {
         }
     }
 
+    /** All messages of an exception and its causes. */
+    private static List<String> messages(Throwable e) {
+        List<String> msgs = new ArrayList<>();
+        for (Throwable c = e; c != null; c = c.getCause()) {
+            msgs.add(String.valueOf(c.getMessage()));
+        }
+        return msgs;
+    }
+
+    private static Throwable maskFailure(String maskFile) {
+        Map<String, Object> o = new HashMap<>(Map.of("bitRateHz", 1e9, "maskFile", maskFile));
+        return org.junit.jupiter.api.Assertions.assertTimeoutPreemptively(java.time.Duration.ofSeconds(30),
+                () -> assertThrows(Exception.class, () -> StageHarness.of(new EyeDiagramPlugin(), o).push("signal",
+                        Synth.analog("s", 1e9, 10, x -> 0)).finish()));
+    }
+
+    /**
+     * Issue 18: a mask file that is no mask shows at most its first word, escaped: never the rest of
+     * the line (for /proc/self/environ that would be the process environment); a device is refused
+     * after a bounded read, a pipe or folder before it is opened.
+     */
+    @Test
+    void aFileThatIsNoMaskIsNotEchoedAndDevicesArePassedOver(@TempDir Path dir) throws Exception {
+        Path secret = dir.resolve("secret.txt");
+        Files.writeString(secret, "TOKEN=abc123\u001b[2J and the rest of the line\n");
+        List<String> msgs = messages(maskFailure(secret.toString()));
+        assertTrue(msgs.stream().anyMatch(m -> m.contains("secret.txt line 1: expected the header 'lanesift-eye-mask 1', got 'TOKEN=abc123\\x1B[2J'")),
+                msgs.toString());
+        assertTrue(msgs.stream().noneMatch(m -> m.contains("rest of the line") || m.contains("\u001b")), msgs.toString());
+        if (Files.exists(Path.of("/dev/zero"))) {
+            List<String> zero = messages(maskFailure("/dev/zero"));
+            assertTrue(zero.stream().anyMatch(m -> m.contains("/dev/zero: a pipe, device or socket, not a regular file")), zero.toString());
+        }
+        List<String> folder = messages(maskFailure(dir.toString()));
+        assertTrue(folder.stream().anyMatch(m -> m.contains("a directory, not a regular file")), folder.toString());
+    }
+
     @Test
     void badMaskFileNamesTheLine(@TempDir Path dir) throws Exception {
         Path bad = dir.resolve("bad.mask");
