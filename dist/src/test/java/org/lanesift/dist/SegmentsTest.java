@@ -59,6 +59,25 @@ class SegmentsTest {
         }
     }
 
+    @Test
+    void aChainWithCalibrationInputsIsRefusedForSegmentsByName() throws Exception {
+        LongCapture.write(dir.resolve("long.bin"), LongCapture.FRAME_BYTES);
+        // a calibration (here a leg skew estimate feeding the correction) covers the whole capture: no segments
+        Path chain = dir.resolve("calibrated.json");
+        Files.writeString(chain, "{\"nodes\": [{\"id\": \"cap\", \"plugin\": \"raw\", \"options\": {\"file\": \"long.bin\"}},"
+                + " {\"id\": \"est\", \"plugin\": \"skew-estimate\", \"options\": {\"mode\": \"legs\"}},"
+                + " {\"id\": \"fix\", \"plugin\": \"deskew\", \"options\": {\"channels\": 2, \"tables\": 1}}],"
+                + " \"wires\": [{\"from\": \"cap.CLK_P\", \"to\": \"est.p\"}, {\"from\": \"cap.CLK_N\", \"to\": \"est.n\"},"
+                + " {\"from\": \"cap.CLK_P\", \"to\": \"fix.in0\"}, {\"from\": \"cap.CLK_N\", \"to\": \"fix.in1\"},"
+                + " {\"from\": \"est.table\", \"to\": \"fix.table0\"}]}");
+        ByteArrayOutputStream e = new ByteArrayOutputStream();
+        int code = Main.run(new String[] {"--quiet", "run", chain.toString(), "--out", dir.resolve("x").toString(), "--jobs", "2"},
+                new PrintStream(new ByteArrayOutputStream(), true, StandardCharsets.UTF_8), new PrintStream(e, true, StandardCharsets.UTF_8));
+        String err = e.toString(StandardCharsets.UTF_8);
+        assertEquals(2, code, err);
+        assertTrue(err.contains("instance 'fix' has calibration input 'table0'") && err.contains("without --jobs"), err);
+    }
+
     private static TreeSet<String> names(Path d) throws Exception {
         try (Stream<Path> s = Files.list(d)) {
             return s.map(p -> p.getFileName().toString()).filter(n -> !n.startsWith(".")).collect(

@@ -152,7 +152,7 @@ class SiftTest {
         assertTrue(bad.err().contains(map + ":2: no channel 'CH9'"), bad.err());
         Run badOpt = lanesift("sift", "--capture", cap.toString(), "--map", "PCLK=CH5", "--out", out.toString());
         assertEquals(2, badOpt.code(), badOpt.err());
-        assertTrue(badOpt.err().contains("--map PCLK=CH5: expected NAME=P,N"), badOpt.err());
+        assertTrue(badOpt.err().contains("map entry PCLK: this capture has analog legs: expected PCLK=P,N"), badOpt.err());
     }
 
     @Test

@@ -294,19 +294,24 @@ public final class LinkChains {
                 .pixelDecoders(mapping).model();
     }
 
+    /** 7:1 sampling of the corrected lanes ({@code lanes.out0} the clock), frames and timing. */
+    private LinkChains sevenToOne(String mapping) {
+        int lanes = cap.dataLanes();
+        node("sampler", "dual-edge", "mode", "multiplied", "slots", 7, "lanes", lanes);
+        wire("lanes.out0", "sampler.clock");
+        for (int k = 0; k < lanes; k++) {
+            wire("lanes.out" + (k + 1), "sampler.lane" + k);
+        }
+        node("panel", "pixel-link", "mapping", mapping, "pictures", "all");
+        for (int k = 0; k < lanes; k++) {
+            wire("sampler.bits" + k, "panel.lane" + k);
+        }
+        return this;
+    }
+
     /** 7:1 sampling, frames and timing, and the clock lane's jitter: what needs no analog signal. */
     private LinkChains pixelSampling(String mapping) {
-        LinkChains c = this;
-        int lanes = cap.dataLanes();
-        c.node("sampler", "dual-edge", "mode", "multiplied", "slots", 7, "lanes", lanes);
-        c.wire("lanes.out0", "sampler.clock");
-        for (int k = 0; k < lanes; k++) {
-            c.wire("lanes.out" + (k + 1), "sampler.lane" + k);
-        }
-        c.node("panel", "pixel-link", "mapping", mapping, "pictures", "all");
-        for (int k = 0; k < lanes; k++) {
-            c.wire("sampler.bits" + k, "panel.lane" + k);
-        }
+        LinkChains c = sevenToOne(mapping);
         String jitter = c.freeId(idOf(cap.pairs().get(0).name()));
         c.node(jitter, "jitter", "edge", "rising");
         c.wire("lanes.out0", jitter + ".clock");
@@ -314,17 +319,7 @@ public final class LinkChains {
     }
 
     private LinkChains pixelDecoders(String mapping) {
-        LinkChains c = this;
-        int lanes = cap.dataLanes();
-        c.node("sampler", "dual-edge", "mode", "multiplied", "slots", 7, "lanes", lanes);
-        c.wire("lanes.out0", "sampler.clock");
-        for (int k = 0; k < lanes; k++) {
-            c.wire("lanes.out" + (k + 1), "sampler.lane" + k);
-        }
-        c.node("panel", "pixel-link", "mapping", mapping, "pictures", "all");
-        for (int k = 0; k < lanes; k++) {
-            c.wire("sampler.bits" + k, "panel.lane" + k);
-        }
+        LinkChains c = sevenToOne(mapping);
         // signal integrity, each instance named after the signal it measures, so its files read
         // "<signal>-<what>": the eye and the edge metrics look at the differential signal P-N of a
         // data pair (what the LVDS limits are defined on), the ringing at one leg of the clock,

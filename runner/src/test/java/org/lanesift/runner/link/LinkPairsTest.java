@@ -24,8 +24,11 @@ class LinkPairsTest {
         List<LinkChains.Pair> p = LinkPairs.parseOption(" CLK=CH3,CH4;D0=CH1,CH2  D1=CH6,CH5 ", KNOWN);
         assertEquals(List.of(new LinkChains.Pair("CLK", "CH3", "CH4"), new LinkChains.Pair("D0", "CH1", "CH2"),
                 new LinkChains.Pair("D1", "CH6", "CH5")), p);
-        assertEquals("--map CLK=CH3: expected NAME=P,N (a pair name, then the P and N channels), such as CLK=CH1,CH2",
-                assertThrows(OptionException.class, () -> LinkPairs.parseOption("CLK=CH3", KNOWN)).getMessage());
+        assertEquals("--map CLK=CH3,CH4,CH5: expected NAME=P,N (a pair name, then the P and N channels), such as CLK=CH1,CH2,"
+                + " or NAME=CH for one channel of a logic capture",
+                assertThrows(OptionException.class, () -> LinkPairs.parseOption("CLK=CH3,CH4,CH5", KNOWN)).getMessage());
+        // one channel: a lane of a logic capture (sift refuses it for a capture with analog legs)
+        assertEquals(List.of(new LinkChains.Pair("CLK", "CH3", "")), LinkPairs.parseOption("CLK=CH3", KNOWN));
         assertEquals("--map D0=CH3,CH5: channel 'CH3' is already in pair CLK",
                 assertThrows(OptionException.class, () -> LinkPairs.parseOption("CLK=CH3,CH4 D0=CH3,CH5", KNOWN)).getMessage());
         assertEquals("--map 0D=CH1,CH2: pair name '0D': expected a letter, then letters, digits or '_'",
