@@ -58,7 +58,7 @@ public final class RowPlan {
         for (int i = 0; i < channelRows; i++) {
             Row owner = rows.get(i);
             out.add(owner);
-            List<NoteTrack> mine = hung.getOrDefault(i, List.of());
+            List<NoteTrack> mine = new ArrayList<>(hung.getOrDefault(i, List.of()));
             mine.sort(java.util.Comparator.comparing(NoteTrack::name));
             for (NoteTrack t : mine) {
                 out.add(new Row(t.name(), null, null, t, lanesFor(t), owner.name()));
