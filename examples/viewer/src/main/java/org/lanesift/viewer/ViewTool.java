@@ -156,11 +156,7 @@ public final class ViewTool implements Tool {
             if (folder != null) {
                 s.openFolder(folder);
             } else if (chain != null) {
-                if (capture != null) {
-                    s.openCapture(capture);
-                }
-                s.openChain(chain);
-                s.run();
+                s.openAndRun(capture, chain);
             } else if (capture != null) {
                 s.openCapture(capture);
             }

@@ -102,10 +102,25 @@ public final class ViewerScreen extends JPanel {
     public void openCapture(Path file) {
         capture = file;
         status.setText("capture " + file.getFileName() + (haveChain ? "; press Run chain" : ""));
-        if (!haveChain) {
+        if (haveChain) {
+            report(() -> chainPane.setChain(Sources.withCapture(chainPane.chain(), file)));
+        } else {
             report(() -> chainPane.setChain(Sources.captureOnly(file)));
             run();
         }
+    }
+
+    /**
+     * Chooses a capture and a chain together and runs the chain on it (the command line's way in).
+     *
+     * @param file  the capture, or null to run the chain on its own source file
+     * @param chain the chain file
+     * @throws InputException when the chain cannot be read or has no single source node
+     */
+    public void openAndRun(Path file, Path chain) {
+        capture = file;
+        openChain(chain);
+        run();
     }
 
     /**
