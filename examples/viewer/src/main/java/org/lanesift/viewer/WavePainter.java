@@ -158,7 +158,10 @@ public final class WavePainter {
         g.setColor(Palette.TRACE);
         double samplesPerPx = view.fsPerPx() / t.periodFs();
         int w = view.widthPx();
+        grow(w + 4);
         if (samplesPerPx >= 1.0) {
+            // the envelope as one polygon: maxima left to right, minima right to left
+            int n = 0;
             for (int x = 0; x < w; x++) {
                 long i0 = (long) Math.ceil((view.timeOf(x) - t.startFs()) / t.periodFs());
                 long i1 = (long) Math.ceil((view.timeOf(x + 1) - t.startFs()) / t.periodFs());
@@ -168,27 +171,54 @@ public final class WavePainter {
                     continue;
                 }
                 t.pyramid().range((int) i0, (int) i1, range);
-                int ya = (int) Math.round(2 + (top - range[1]) * scale);
-                int yb = (int) Math.round(2 + (top - range[0]) * scale);
-                g.drawLine(x, ya, x, yb);
+                xs[n] = x;
+                ysHi[n] = (int) Math.round(2 + (top - range[1]) * scale);
+                ysLo[n] = (int) Math.round(2 + (top - range[0]) * scale);
+                n++;
             }
+            if (n == 0) {
+                return;
+            }
+            g.drawPolyline(xs, ysHi, n);
+            g.drawPolyline(xs, ysLo, n);
+            for (int k = 0; k < n; k++) {
+                polyX[k] = xs[k];
+                polyY[k] = ysHi[k];
+                polyX[2 * n - 1 - k] = xs[k];
+                polyY[2 * n - 1 - k] = ysLo[k] + 1;
+            }
+            g.fillPolygon(polyX, polyY, 2 * n);
         } else {
-            g.setRenderingHint(RenderingHints.KEY_ANTIALIASING, RenderingHints.VALUE_ANTIALIAS_ON);
             int first = Math.max(0, t.indexAt(view.leftFs()) - 1);
             int last = Math.min(t.length() - 1, t.indexAt(view.rightFs()) + 1);
-            double px = view.xOf(t.startFs() + first * t.periodFs());
-            double py = 2 + (top - t.volts()[first]) * scale;
+            int n = 0;
             boolean dots = samplesPerPx < 0.2;
-            for (int i = first + 1; i <= last; i++) {
-                double x = view.xOf(t.startFs() + i * t.periodFs());
-                double y = 2 + (top - t.volts()[i]) * scale;
-                g.drawLine((int) Math.round(px), (int) Math.round(py), (int) Math.round(x), (int) Math.round(y));
+            for (int i = first; i <= last; i++) {
+                xs[n] = (int) Math.round(view.xOf(t.startFs() + i * t.periodFs()));
+                ysHi[n] = (int) Math.round(2 + (top - t.volts()[i]) * scale);
                 if (dots) {
-                    g.fillRect((int) Math.round(x) - 1, (int) Math.round(y) - 1, 3, 3);
+                    g.fillRect(xs[n] - 1, ysHi[n] - 1, 3, 3);
                 }
-                px = x;
-                py = y;
+                n++;
             }
+            g.drawPolyline(xs, ysHi, n);
+        }
+    }
+
+    /** Scratch coordinate arrays, grown to the widest view seen; no allocation per repaint. */
+    private int[] xs = new int[0];
+    private int[] ysHi = new int[0];
+    private int[] ysLo = new int[0];
+    private int[] polyX = new int[0];
+    private int[] polyY = new int[0];
+
+    private void grow(int n) {
+        if (xs.length < n) {
+            xs = new int[n];
+            ysHi = new int[n];
+            ysLo = new int[n];
+            polyX = new int[2 * n];
+            polyY = new int[2 * n];
         }
     }
 
