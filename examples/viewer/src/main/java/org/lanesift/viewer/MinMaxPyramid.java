@@ -18,14 +18,13 @@ public final class MinMaxPyramid {
 
     private final float[] samples;
     private final int length;
-    private final float[][] mins;
-    private final float[][] maxs;
+    /** Per level, min and max interleaved ({@code [2j]} min, {@code [2j + 1]} max of element j), so one cache line holds both. */
+    private final float[][] levels;
 
-    private MinMaxPyramid(float[] samples, int length, float[][] mins, float[][] maxs) {
+    private MinMaxPyramid(float[] samples, int length, float[][] levels) {
         this.samples = samples;
         this.length = length;
-        this.mins = mins;
-        this.maxs = maxs;
+        this.levels = levels;
     }
 
     /**
@@ -44,11 +43,9 @@ public final class MinMaxPyramid {
         for (int n = buckets; n > 0; n = n == 1 ? 0 : (n + 1) / 2) {
             levels++;
         }
-        float[][] mins = new float[levels][];
-        float[][] maxs = new float[levels][];
+        float[][] mm = new float[levels][];
         if (levels > 0) {
-            float[] mn = new float[buckets];
-            float[] mx = new float[buckets];
+            float[] l0 = new float[2 * buckets];
             for (int b = 0; b < buckets; b++) {
                 int s = b * BUCKET;
                 float lo = samples[s];
@@ -58,28 +55,25 @@ public final class MinMaxPyramid {
                     lo = Math.min(lo, v);
                     hi = Math.max(hi, v);
                 }
-                mn[b] = lo;
-                mx[b] = hi;
+                l0[2 * b] = lo;
+                l0[2 * b + 1] = hi;
             }
-            mins[0] = mn;
-            maxs[0] = mx;
+            mm[0] = l0;
             for (int k = 1; k < levels; k++) {
-                float[] pm = mins[k - 1];
-                float[] px = maxs[k - 1];
-                int n = (pm.length + 1) / 2;
-                float[] m = new float[n];
-                float[] x = new float[n];
+                float[] p = mm[k - 1];
+                int pn = p.length / 2;
+                int n = (pn + 1) / 2;
+                float[] x = new float[2 * n];
                 for (int j = 0; j < n; j++) {
                     int a = 2 * j;
-                    int b = Math.min(a + 1, pm.length - 1);
-                    m[j] = Math.min(pm[a], pm[b]);
-                    x[j] = Math.max(px[a], px[b]);
+                    int b = Math.min(a + 1, pn - 1);
+                    x[2 * j] = Math.min(p[2 * a], p[2 * b]);
+                    x[2 * j + 1] = Math.max(p[2 * a + 1], p[2 * b + 1]);
                 }
-                mins[k] = m;
-                maxs[k] = x;
+                mm[k] = x;
             }
         }
-        return new MinMaxPyramid(samples, length, mins, maxs);
+        return new MinMaxPyramid(samples, length, mm);
     }
 
     /**
@@ -122,17 +116,16 @@ public final class MinMaxPyramid {
             }
             int k = 0;
             while (a < b) {
-                float[] m = mins[k];
-                float[] x = maxs[k];
+                float[] m = levels[k];
                 if ((a & 1) != 0) {
-                    lo = Math.min(lo, m[a]);
-                    hi = Math.max(hi, x[a]);
+                    lo = Math.min(lo, m[2 * a]);
+                    hi = Math.max(hi, m[2 * a + 1]);
                     a++;
                 }
                 if ((b & 1) != 0) {
                     b--;
-                    lo = Math.min(lo, m[b]);
-                    hi = Math.max(hi, x[b]);
+                    lo = Math.min(lo, m[2 * b]);
+                    hi = Math.max(hi, m[2 * b + 1]);
                 }
                 a >>= 1;
                 b >>= 1;
@@ -141,5 +134,88 @@ public final class MinMaxPyramid {
         }
         out[0] = lo;
         out[1] = hi;
+    }
+
+    /**
+     * The coarsest level whose elements span at most half of {@code samplesPerColumn}, for
+     * {@link #column}; -1 when a column is narrower than two buckets (then use {@link #range}).
+     *
+     * @param samplesPerColumn samples one pixel column covers
+     * @return a level, or -1
+     */
+    public int levelFor(double samplesPerColumn) {
+        int level = -1;
+        while (level + 1 < levels.length && (double) (BUCKET << (level + 1)) * 2 <= samplesPerColumn) {
+            level++;
+        }
+        return level;
+    }
+
+    /**
+     * First sample a column's envelope covers at a level: {@code from} rounded down to the level's element.
+     *
+     * @param from  first sample of the column
+     * @param level from {@link #levelFor}
+     * @return the sample index
+     */
+    public int alignedFrom(int from, int level) {
+        int size = BUCKET << level;
+        return Math.min(from, covered()) / size * size;
+    }
+
+    /**
+     * Sample just after a column's envelope at a level: {@code to} rounded up to the level's
+     * element, but not beyond the last full bucket unless {@code to} is.
+     *
+     * @param to    sample after the column
+     * @param level from {@link #levelFor}
+     * @return the sample index
+     */
+    public int alignedTo(int to, int level) {
+        int size = BUCKET << level;
+        int c = covered();
+        if (to >= c) {
+            return to;
+        }
+        return (int) Math.min(c, ((long) to + size - 1) / size * size);
+    }
+
+    /**
+     * Min and max of the samples {@code [alignedFrom(from), alignedTo(to))}: whole elements of one
+     * level read in order (so neighbouring columns read neighbouring memory), plus the tail
+     * samples past the last full bucket. A column's envelope at coarse zoom thus reaches less than
+     * one element (at most half a column) beyond its own samples; it is exact for that range.
+     *
+     * @param from  first sample of the column, {@code 0 <= from < to <= length}
+     * @param to    sample after the column
+     * @param level from {@link #levelFor}, at least 0
+     * @param out   receives {@code out[0] = min}, {@code out[1] = max}, volts
+     */
+    public void column(int from, int to, int level, float[] out) {
+        if (from < 0 || to > length || from >= to || level < 0 || level >= levels.length) {
+            throw new IllegalArgumentException("column [" + from + ", " + to + ") at level " + level + " outside the pyramid");
+        }
+        int size = BUCKET << level;
+        int c = covered();
+        float lo = Float.POSITIVE_INFINITY;
+        float hi = Float.NEGATIVE_INFINITY;
+        float[] m = levels[level];
+        int e0 = alignedFrom(from, level) / size;
+        int e1 = (alignedTo(Math.min(to, c), level) + size - 1) / size;
+        for (int e = e0; e < e1; e++) {
+            lo = Math.min(lo, m[2 * e]);
+            hi = Math.max(hi, m[2 * e + 1]);
+        }
+        for (int i = Math.max(from, c); i < to; i++) {
+            lo = Math.min(lo, samples[i]);
+            hi = Math.max(hi, samples[i]);
+        }
+        out[0] = lo;
+        out[1] = hi;
+    }
+
+    /** Samples inside full level-0 buckets. */
+    private int covered() {
+        return length / BUCKET * BUCKET;
     }
 }

@@ -160,7 +160,9 @@ public final class WavePainter {
         int w = view.widthPx();
         grow(w + 4);
         if (samplesPerPx >= 1.0) {
-            // the envelope as one polygon: maxima left to right, minima right to left
+            // the envelope as one polygon: maxima left to right, minima right to left; at coarse
+            // zoom each column reads whole elements of one pyramid level, in memory order
+            int level = t.pyramid().levelFor(samplesPerPx);
             int n = 0;
             for (int x = 0; x < w; x++) {
                 long i0 = (long) Math.ceil((view.timeOf(x) - t.startFs()) / t.periodFs());
@@ -170,7 +172,11 @@ public final class WavePainter {
                 if (i1 <= i0) {
                     continue;
                 }
-                t.pyramid().range((int) i0, (int) i1, range);
+                if (level >= 0) {
+                    t.pyramid().column((int) i0, (int) i1, level, range);
+                } else {
+                    t.pyramid().range((int) i0, (int) i1, range);
+                }
                 xs[n] = x;
                 ysHi[n] = (int) Math.round(2 + (top - range[1]) * scale);
                 ysLo[n] = (int) Math.round(2 + (top - range[0]) * scale);

@@ -2,6 +2,7 @@ package org.lanesift.viewer;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.Random;
 import org.junit.jupiter.api.Test;
@@ -70,6 +71,42 @@ class MinMaxPyramidTest {
                 assertEquals(want[1], got[1], "column " + x + " at " + samplesPerPx + " samples/px");
             }
         }
+    }
+
+    @Test
+    void coarseColumnsReadWholeLevelElementsAndAreExactForTheRangeTheyCover() {
+        Random rnd = new Random(11);
+        float[] got = new float[2];
+        for (int n : new int[] {1_000_003, 65_536, 4_099}) {
+            float[] v = new float[n];
+            for (int i = 0; i < n; i++) {
+                v[i] = (float) rnd.nextGaussian();
+            }
+            MinMaxPyramid p = MinMaxPyramid.build(v, n);
+            for (double samplesPerPx : new double[] {32, 33.3, 100, 1000.7, 4096, n / 1000.0, n / 300.0}) {
+                int level = p.levelFor(samplesPerPx);
+                if (level < 0) {
+                    continue;
+                }
+                int size = MinMaxPyramid.BUCKET << level;
+                assertTrue(2.0 * size <= samplesPerPx, "an element spans at most half a column");
+                for (int x = 0; ; x++) {
+                    int i0 = Math.max(0, (int) Math.ceil(x * samplesPerPx) - 1);
+                    int i1 = Math.min(n, (int) Math.ceil((x + 1) * samplesPerPx));
+                    if (i0 >= n) {
+                        break;
+                    }
+                    p.column(i0, i1, level, got);
+                    int a = p.alignedFrom(i0, level);
+                    int b = p.alignedTo(i1, level);
+                    assertTrue(a <= i0 && i0 - a < size && b >= i1 && b - i1 < size, "[" + a + ", " + b + ") covers [" + i0 + ", " + i1 + ") by less than an element");
+                    float[] want = bruteForce(v, a, b);
+                    assertEquals(want[0], got[0], "min of column " + x + " at " + samplesPerPx + " samples/px over " + n);
+                    assertEquals(want[1], got[1], "max of column " + x + " at " + samplesPerPx + " samples/px over " + n);
+                }
+            }
+        }
+        assertEquals(-1, MinMaxPyramid.build(new float[1000], 1000).levelFor(31), "below two buckets a column uses range()");
     }
 
     @Test
