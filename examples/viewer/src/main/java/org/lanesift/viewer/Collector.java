@@ -31,6 +31,8 @@ public final class Collector implements AnnotationSink {
     private final List<Frame> frames = new ArrayList<>();
     private final List<ViewModel.Picture> pictures = new ArrayList<>();
     private final List<Annotation> notes = new ArrayList<>();
+    /** Annotations not yet handed to the UI; the one field shared between threads. */
+    private final List<Annotation> fresh = new ArrayList<>();
 
     /** Creates an empty collector. */
     public Collector() {
@@ -39,6 +41,23 @@ public final class Collector implements AnnotationSink {
     @Override
     public void accept(String source, Annotation a) {
         notes.add(a);
+        synchronized (fresh) {
+            fresh.add(a);
+        }
+    }
+
+    /**
+     * The annotations that arrived since the last call, for handing to the UI thread in a batch
+     * while the chain still runs. Safe from any thread.
+     *
+     * @return the batch, possibly empty
+     */
+    public List<Annotation> drainFresh() {
+        synchronized (fresh) {
+            List<Annotation> out = List.copyOf(fresh);
+            fresh.clear();
+            return out;
+        }
     }
 
     /**

@@ -88,6 +88,23 @@ public final class FindingsList extends JPanel {
         return shown.size();
     }
 
+    /**
+     * Adds annotations that arrived while the chain runs (in arrival order; the list is put in
+     * time order when the run ends).
+     *
+     * @param batch new annotations
+     */
+    public void append(List<Annotation> batch) {
+        List<Annotation> grown = new java.util.ArrayList<>(all);
+        grown.addAll(batch);
+        all = grown;
+        for (Annotation a : batch) {
+            if (!onlyProblems.isSelected() || a.severity() != Severity.INFO) {
+                shown.addElement(a);
+            }
+        }
+    }
+
     private void refill() {
         shown.clear();
         for (Annotation a : all) {

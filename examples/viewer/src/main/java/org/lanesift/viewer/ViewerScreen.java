@@ -26,8 +26,9 @@ import org.lanesift.plugin.PluginRegistry;
  * at the right the frame pane over a tabbed pane of analysis pictures and the chain editor.
  *
  * <p>Threading: every method is for the UI thread. {@link #run()} starts one worker thread that
- * builds and runs the chain; progress reaches the bar through {@code invokeLater}, at most every
- * 50 ms; the finished model replaces the shown one in one step on the UI thread; cancel calls the
+ * builds and runs the chain; progress reaches the bar, and the annotations made since the last
+ * report reach the findings list as one batch, through {@code invokeLater}, at most every 50 ms;
+ * the finished model replaces the shown one in one step on the UI thread; cancel calls the
  * chain's one thread-safe method.
  */
 public final class ViewerScreen extends JPanel {
@@ -162,18 +163,25 @@ public final class ViewerScreen extends JPanel {
         bar.setValue(0);
         status.setText("running\u2026");
         long[] lastNs = {0};
+        findings.setFindings(java.util.List.of());
         Thread worker = new Thread(() -> {
             ViewModel m = null;
             String problem = null;
+            Collector into = new Collector();
             try {
-                m = j.run((done, total) -> {
+                j.gather(into, (done, total) -> {
                     long now = System.nanoTime();
                     if (now - lastNs[0] > 50_000_000L || done == total) {
                         lastNs[0] = now;
                         int v = total > 0 ? (int) (1000.0 * done / total) : 0;
-                        SwingUtilities.invokeLater(() -> bar.setValue(v));
+                        var batch = into.drainFresh();
+                        SwingUtilities.invokeLater(() -> {
+                            bar.setValue(v);
+                            findings.append(batch);
+                        });
                     }
                 });
+                m = into.build();
             } catch (InputException e) {
                 problem = e.getMessage();
             } catch (RuntimeException e) {
