@@ -6,8 +6,10 @@ package org.lanesift.viewer;
  * holds the min and max of each bucket of {@link #BUCKET} samples, each further level the min and
  * max of two neighbours of the level below (the last one alone when the count is odd). A query
  * scans at most {@code 2 * BUCKET} samples at its ends and walks up the levels for the whole
- * buckets in between. Extra memory: about {@code n / 16} floats per level sum, that is n/8 floats
- * (a quarter of the samples' own 4 bytes) for min and max together.
+ * buckets in between. At coarse zoom the painter uses {@link #column} instead: whole elements of
+ * the one level that fits a pixel column, read in memory order, so neighbouring columns touch
+ * neighbouring memory. Min and max of an element sit side by side. Extra memory: n/8 floats for
+ * min and max together over all levels (an eighth of the samples' own size).
  *
  * <p>The values are volts; NaN samples are not expected (the capture readers mark bad samples
  * invalid rather than NaN) and would make the answer NaN.
@@ -52,8 +54,9 @@ public final class MinMaxPyramid {
                 float hi = lo;
                 for (int i = s + 1; i < s + BUCKET; i++) {
                     float v = samples[i];
-                    lo = Math.min(lo, v);
-                    hi = Math.max(hi, v);
+                    // plain comparisons: no NaN or signed-zero rules to honour in the hot loop
+                    lo = v < lo ? v : lo;
+                    hi = v > hi ? v : hi;
                 }
                 l0[2 * b] = lo;
                 l0[2 * b + 1] = hi;

@@ -17,7 +17,6 @@ import javax.swing.SwingUtilities;
 import javax.swing.WindowConstants;
 import org.lanesift.chain.ChainSpec;
 import org.lanesift.plugin.DeviceFailure;
-import org.lanesift.plugin.InputException;
 import org.lanesift.plugin.OptionException;
 import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.OutputException;
@@ -77,7 +76,7 @@ public final class ViewTool implements Tool {
         Path snapshot = path(args, "snapshot");
         if (snapshot != null) {
             makeParent(snapshot);
-            ViewModel m = folder != null ? OutputFolder.load(registry, folder) : runNow(registry, capture, chain, console);
+            ViewModel m = folder != null ? OutputFolder.load(registry, folder) : runNow(registry, capture, chain);
             BufferedImage img = onUiThread(() -> {
                 ViewerScreen s = new ViewerScreen(registry);
                 s.show(m);
@@ -103,7 +102,7 @@ public final class ViewTool implements Tool {
         return window(registry, capture, chain, folder, args, path(args, "shot-when-done"), w, h);
     }
 
-    private static ViewModel runNow(PluginRegistry registry, Path capture, Path chain, ToolConsole console) {
+    private static ViewModel runNow(PluginRegistry registry, Path capture, Path chain) {
         ChainSpec spec = spec(capture, chain);
         return new RunJob(registry, spec).run((d, t) -> { });
     }
@@ -244,9 +243,5 @@ public final class ViewTool implements Tool {
             throw new IllegalStateException("interrupted while painting", e);
         }
         return out.get();
-    }
-
-    static boolean isInput(RuntimeException e) {
-        return e instanceof InputException;
     }
 }
