@@ -23,7 +23,19 @@ public final class Readout {
      * @return one line
      */
     public static String timeLine(double cursorFs, double markFs) {
-        String s = "t " + Femtos.format(cursorFs);
+        return timeLine(cursorFs, markFs, Double.NaN);
+    }
+
+    /**
+     * The cursor's time line, the time written to the given resolution.
+     *
+     * @param cursorFs     the cursor, femtoseconds
+     * @param markFs       the reference mark, femtoseconds, or NaN when none is set
+     * @param resolutionFs the smallest step worth showing (one pixel column), or NaN for four significant digits
+     * @return one line
+     */
+    public static String timeLine(double cursorFs, double markFs, double resolutionFs) {
+        String s = "t " + (Double.isNaN(resolutionFs) ? Femtos.format(cursorFs) : time(cursorFs, resolutionFs));
         if (!Double.isNaN(markFs)) {
             double d = cursorFs - markFs;
             s += "   dt " + Femtos.format(d);
@@ -32,6 +44,27 @@ public final class Readout {
             }
         }
         return s;
+    }
+
+    /**
+     * An absolute time in the engineering unit of its size, with as many decimals as a step needs,
+     * so that ticks a step apart read differently however far the capture's origin is.
+     *
+     * @param tFs    the time, femtoseconds
+     * @param stepFs the step to resolve, femtoseconds (positive)
+     * @return for example {@code "290.2004 us"}
+     */
+    public static String time(double tFs, double stepFs) {
+        double a = Math.abs(tFs);
+        String[] names = {"fs", "ps", "ns", "us", "ms", "s"};
+        double unit = 1;
+        int k = 0;
+        while (k < names.length - 1 && a >= unit * 1000) {
+            unit *= 1000;
+            k++;
+        }
+        int decimals = (int) Math.max(0, Math.min(12, Math.ceil(Math.log10(unit / stepFs) - 1e-9)));
+        return String.format(Locale.ROOT, "%." + decimals + "f %s", tFs / unit, names[k]);
     }
 
     /**

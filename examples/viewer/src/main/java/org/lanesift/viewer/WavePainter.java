@@ -8,7 +8,6 @@ import java.awt.Graphics2D;
 import java.awt.Rectangle;
 import java.awt.RenderingHints;
 import java.util.List;
-import org.lanesift.time.Femtos;
 
 /**
  * Draws the waveform area - time ruler, caption column, channel, logic and note rows, cursor and
@@ -288,14 +287,14 @@ public final class WavePainter {
         g.fillRect(0, 0, CAPTION_PX + w, RULER_PX);
         g.setColor(Palette.CAPTION_TEXT);
         FontMetrics fm = g.getFontMetrics();
-        String head = Double.isNaN(cursorFs) ? "" : Readout.timeLine(cursorFs, markFs);
-        g.drawString(NoteLayout.fit("t0 " + Femtos.format(view.leftFs()), CAPTION_PX - 8, fm::stringWidth), 6, 12);
         double step = tickStep(view.spanFs() / Math.max(1, w / 110));
+        String head = Double.isNaN(cursorFs) ? "" : Readout.timeLine(cursorFs, markFs, view.fsPerPx());
+        g.drawString(NoteLayout.fit("t0 " + Readout.time(view.leftFs(), step), CAPTION_PX - 8, fm::stringWidth), 6, 12);
         double first = Math.ceil(view.leftFs() / step) * step;
         for (double t = first; t < view.rightFs(); t += step) {
             int x = CAPTION_PX + (int) Math.round(view.xOf(t));
             g.drawLine(x, RULER_PX - 7, x, RULER_PX);
-            g.drawString(Femtos.format(t), x + 3, RULER_PX - 6);
+            g.drawString(Readout.time(t, step), x + 3, RULER_PX - 6);
         }
         if (!head.isEmpty()) {
             int tw = fm.stringWidth(head);

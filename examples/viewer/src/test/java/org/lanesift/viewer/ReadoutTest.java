@@ -48,4 +48,15 @@ class ReadoutTest {
         assertEquals("t 1.020 us   dt 20.00 ns   1/dt 50.00 MHz", Readout.timeLine(1_020_000_000, 1_000_000_000));
         assertEquals("t 1.020 us", Readout.timeLine(1_020_000_000, Double.NaN));
     }
+
+    @Test
+    void ticksFarFromTheOriginStillReadApart() {
+        // 290.2 us + 0.2 ns steps: one more decimal than the step's size in the time's unit needs
+        assertEquals("290.2000 us", Readout.time(290_200_000_000.0, 200_000));
+        assertEquals("290.2002 us", Readout.time(290_200_200_000.0, 200_000));
+        assertEquals("290.200 us", Readout.time(290_200_000_000.0, 1_000_000));
+        assertEquals("0 fs", Readout.time(0, 1_000_000));
+        assertEquals("5 ns", Readout.time(5_000_000, 1_000_000));
+        assertEquals("-1.5 ns", Readout.time(-1_500_000, 100_000));
+    }
 }
