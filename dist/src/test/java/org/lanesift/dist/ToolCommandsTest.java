@@ -29,7 +29,7 @@ class ToolCommandsTest {
 
     @ParameterizedTest
     @ValueSource(strings = {"run", "plugins", "inspect", "probe", "probe divider", "probe rise", "probe lead", "cable-delay",
-        "capture", "simulate-device", "live", "demo", "bench"})
+        "capture", "simulate-device", "live", "demo", "bench", "view"})
     void everyCommandAnswersHelpWithExitZero(String command) {
         String[] words = command.split(" ");
         String[] args = java.util.Arrays.copyOf(words, words.length + 1);
