@@ -39,6 +39,8 @@ final class PacketLinkStage implements Stage {
     private long lastFs = Long.MIN_VALUE;
     private final List<ArrayDeque<long[]>> pendingGroups = new ArrayList<>();
     private final List<ArrayDeque<Object[]>> laneGroups = new ArrayList<>();
+    /** Low-power data waiting for earlier high-speed bursts: {lane, bytes, start times, end times}. */
+    private final ArrayDeque<Object[]> pendingLp = new ArrayDeque<>();
     private long groupIndex;
     private boolean syncAnnounced;
 
@@ -102,6 +104,9 @@ final class PacketLinkStage implements Stage {
                 any |= !l.done.isEmpty();
             }
             if (!any || (!all && !finishing)) {
+                if (cfg.dsi) {
+                    releaseLp(finishing && !any ? Long.MAX_VALUE : unmergedBurstBoundFs());
+                }
                 return;
             }
             Lane.Burst first = null;
@@ -125,6 +130,9 @@ final class PacketLinkStage implements Stage {
                 ctx.annotate(Annotation.on("packets", "lane-burst-missing").span(first.startFs, first.endFs).severity(Severity.ERROR)
                         .label("high-speed burst without a matching burst on " + String.join(", ", missing) + "; not decoded").build());
                 continue;
+            }
+            if (cfg.dsi) {
+                releaseLp(first.startFs);
             }
             burst(group);
         }
@@ -238,12 +246,48 @@ final class PacketLinkStage implements Stage {
         return o;
     }
 
+    /**
+     * Low-power data from one lane. A lane can settle it before a high-speed burst that started
+     * earlier has ended on every lane, so it waits in time order with the bursts: packets, the
+     * command log and the packets output then follow the capture's time order.
+     */
     private void lpdt(int lane, byte[] data, long[] s, long[] e, int n) {
-        int[] ln = new int[n];
-        java.util.Arrays.fill(ln, lane);
-        byte[] f = new byte[n];
-        f[0] = WordStream.FLAG_GAP_BEFORE;
-        dsi.burst(data, s, e, ln, f, n, true);
+        if (n == 0) {
+            return;
+        }
+        pendingLp.add(new Object[] {lane, java.util.Arrays.copyOf(data, n), java.util.Arrays.copyOf(s, n), java.util.Arrays.copyOf(e, n)});
+    }
+
+    /** Decodes waiting low-power data that starts before {@code beforeFs}. */
+    private void releaseLp(long beforeFs) {
+        Object[] p;
+        while ((p = pendingLp.peek()) != null && ((long[]) p[2])[0] < beforeFs) {
+            pendingLp.poll();
+            byte[] data = (byte[]) p[1];
+            int n = data.length;
+            int[] ln = new int[n];
+            java.util.Arrays.fill(ln, (Integer) p[0]);
+            byte[] f = new byte[n];
+            f[0] = WordStream.FLAG_GAP_BEFORE;
+            dsi.burst(data, (long[]) p[2], (long[]) p[3], ln, f, n, true);
+        }
+    }
+
+    /** The earliest time a burst not yet merged could start: waiting low-power data before it is safe to decode. */
+    private long unmergedBurstBoundFs() {
+        long bound = Long.MAX_VALUE;
+        for (Lane l : lanes) {
+            Lane.Burst b = l.done.peek();
+            if (b != null) {
+                bound = Math.min(bound, b.startFs);
+            }
+            LaneStateTracker.Interval iv = l.tracker.intervals.peek();
+            if (iv != null) {
+                bound = Math.min(bound, iv.startFs);
+            }
+            bound = Math.min(bound, l.tracker.knownUntilFs());
+        }
+        return bound;
     }
 
     // ------------------------------------------------------------------ framed, continuous or grouped
