@@ -261,7 +261,7 @@ public final class LinkChains {
     public static Map<String, Object> packetDecode(String description, Capture cap, String legTable, String laneTable) {
         LinkChains c = new LinkChains(description, cap).receivers(legTable, true).laneDeskew(laneTable);
         int lanes = cap.dataLanes();
-        c.node("sampler", "dual-edge", "mode", "ddr", "lanes", lanes, "alignment", "center");
+        c.node("sampler", "dual-edge", "mode", "ddr", "lanes", lanes, "alignment", "center", "marginFindings", "decoder");
         c.wire("lanes.out0", "sampler.clock");
         for (int k = 0; k < lanes; k++) {
             c.wire("lanes.out" + (k + 1), "sampler.lane" + k);

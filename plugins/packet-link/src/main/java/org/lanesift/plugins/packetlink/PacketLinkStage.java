@@ -64,7 +64,7 @@ final class PacketLinkStage implements Stage {
                     cfg.minStateFs, ctx::annotate, cfg.dsi ? this::lpdt : null);
             lanes[k] = new Lane(k, tr, l -> new LaneDeserializer(l, cfg.dsi ? 0xB8 : cfg.syncWire, cfg.dsi ? 8 : cfg.syncBits,
                     cfg.dsi ? 8 : cfg.wordBits, !cfg.dsi && cfg.msbFirst, cfg.dsi ? 0 : cfg.groupWords, cfg.maxBits(),
-                    d -> laneGroup(lane, d)));
+                    d -> laneGroup(lane, d)), new MarginRuns(k, ctx::annotate));
         }
     }
 
@@ -401,6 +401,7 @@ final class PacketLinkStage implements Stage {
         } else {
             for (Lane l : lanes) {
                 l.drainContinuous();
+                l.finishContinuous();
             }
             drainContinuous(true);
             for (Lane l : lanes) {
