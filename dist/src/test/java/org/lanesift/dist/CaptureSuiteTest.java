@@ -164,6 +164,10 @@ class CaptureSuiteTest {
         }
         assertTrue(f.get(0).label().startsWith("vod-") && f.get(1).label().startsWith("vod-")
                 && !f.get(0).label().substring(0, 8).equals(f.get(1).label().substring(0, 8)), "one per state: " + f);
+        // report.md says where the limits come from: the standard, with its reference-facts anchor
+        String md = Files.readString(tmp.resolve("o-weak").resolve("report.md"));
+        assertTrue(md.contains("- standard: limits the findings were checked against")
+                && md.contains("ANSI/TIA/EIA-644-A (values from memory, docs/reference-facts.md#lvds-electrical-levels)"), md);
     }
 
     @Test
