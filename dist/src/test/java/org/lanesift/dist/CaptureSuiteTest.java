@@ -26,6 +26,9 @@ import org.lanesift.testkit.ExternalTool;
  * <li>a 7:1 serialiser written in Verilog (the pixel-link module's test bench) simulated with
  * Icarus Verilog (Debian package {@code iverilog}), read as a VCD logic capture: dual-edge
  * (multiplied), pixel-link and jitter;</li>
+ * <li>a DDR link written in Verilog (src/test/verilog/ddr_tx.v: two lanes, sync byte B8, bytes
+ * LSB first, clock edges centred on the bits) simulated with Icarus Verilog: dual-edge (ddr),
+ * packet-link (framed profile) and jitter;</li>
  * <li>an LVDS-like current-mode driver (3.5 mA into 100 ohm, common mode 1.2 V;
  * docs/reference-facts.md#lvds-electrical-levels, ANSI/TIA/EIA-644-A) simulated with ngspice
  * (Debian package {@code ngspice}, netlist src/test/spice/lvds-driver.cir) sending a 7:1 clock
@@ -40,9 +43,13 @@ class CaptureSuiteTest {
     /** The Verilog test bench's bit period: 1 ns, timescale 1 ps (7 ns pixel clock). */
     static final long UI_PS = 1000;
 
+    /** The Verilog DDR link's unit interval: 2 ns (timescale 1 ps). */
+    static final long DDR_UI_PS = 2000;
+
     @TempDir
     static Path tmp;
     static Path cleanVcd;
+    static Path ddrVcd;
 
     /** A non-information finding: kind, severity, start (fs) and label. */
     record Finding(String kind, String severity, long startFs, String label) {
@@ -63,6 +70,10 @@ class CaptureSuiteTest {
                 src.resolve("tb_lvds71.v").toString()));
         exec(List.of(vvp.toString(), "-n", "sim.vvp", "+image=image.hex", "+vcd=link.vcd", "+pixels=1500"));
         cleanVcd = tmp.resolve("link.vcd");
+        Path ddr = Path.of("src", "test", "verilog").toAbsolutePath();
+        exec(List.of(iverilog.toString(), "-g2005", "-o", "ddr.vvp", ddr.resolve("ddr_tx.v").toString(), ddr.resolve("tb_ddr.v").toString()));
+        exec(List.of(vvp.toString(), "-n", "ddr.vvp", "+vcd=ddr.vcd", "+bits=2000"));
+        ddrVcd = tmp.resolve("ddr.vcd");
     }
 
     // ------------------------------------------------------------------ 7:1 serialiser (Icarus Verilog)
@@ -141,6 +152,53 @@ class CaptureSuiteTest {
         assertTrue(r.errLines().get(0).contains("at least 2 samples per unit interval"), r.err());
     }
 
+    // ------------------------------------------------------------------ DDR link (Icarus Verilog)
+
+    @Test
+    void ddrCleanCaptureHasNoFindingAndGivesTheBytesSent() throws Exception {
+        List<Finding> f = runDdr("ddr", ddrVcd);
+        row("verilog DDR", "clean", f, null);
+        assertEquals(List.of(), f);
+        // src/test/verilog/ddr_tx.v sends byte n = (37 n + 11) mod 256, byte n on lane n mod 2
+        List<String> words = Files.readAllLines(tmp.resolve("o-ddr").resolve("link-words.csv"));
+        assertTrue(words.size() > 200, "words " + words.size());
+        for (int n = 0; n < 200; n++) {
+            String[] c = words.get(n + 1).split(",");
+            assertEquals(String.format("%02X", (37 * n + 11) & 0xFF), c[5], "word " + n);
+            assertEquals(Integer.toString(n % 2), c[2], "lane of word " + n);
+        }
+    }
+
+    @Test
+    void ddrClockGlitchIsFoundOnceWhereItIs() throws Exception {
+        long at = 1_001_000; // ps, inside a clock phase
+        Path vcd = write("ddr-glitch.vcd", new VcdFaults(Files.readAllLines(ddrVcd)).glitch("clk_out", at, 300).text());
+        List<Finding> f = runDdr("ddr-glitch", vcd);
+        row("verilog DDR", "clock glitch 300 ps at 1.001 us", f, "clock-glitch");
+        assertEquals(at * 1000, once(f, "clock-glitch").startFs());
+        assertEquals(List.of(), consequences(f, "clock-glitch"));
+    }
+
+    @Test
+    void ddrLaneSkewedBeyondHalfAUnitIntervalIsFoundOnce() throws Exception {
+        Path vcd = write("ddr-skew06.vcd", new VcdFaults(Files.readAllLines(ddrVcd)).delay("d1", 6 * DDR_UI_PS / 10).text());
+        List<Finding> f = runDdr("ddr-skew06", vcd);
+        row("verilog DDR", "lane d1 late by 0.6 UI", f, "lane-skew-ambiguous");
+        assertTrue(once(f, "lane-skew-ambiguous").label().startsWith("d1:"), f.toString());
+        assertEquals(List.of(), consequences(f, "lane-skew-ambiguous"));
+    }
+
+    /** A lane a whole unit interval late: clean margins, but it finds its sync pattern one clock edge after the other lane. */
+    @Test
+    void ddrLaneAWholeUnitIntervalOffIsFoundOnce() throws Exception {
+        Path vcd = write("ddr-skew10.vcd", new VcdFaults(Files.readAllLines(ddrVcd)).delay("d1", DDR_UI_PS).text());
+        List<Finding> f = runDdr("ddr-skew10", vcd);
+        row("verilog DDR", "lane d1 late by 1 UI", f, "lane-sync-offset");
+        Finding s = once(f, "lane-sync-offset");
+        assertTrue(s.label().startsWith("lane 1 found its sync pattern 1 UI after lane 0"), s.label());
+        assertEquals(List.of(), consequences(f, "lane-sync-offset"));
+    }
+
     // ------------------------------------------------------------------ current-mode driver (ngspice)
 
     @Test
@@ -183,6 +241,21 @@ class CaptureSuiteTest {
     private static List<Finding> runPixel(String name, Path vcd) throws Exception {
         Path out = tmp.resolve("o-" + name);
         EndToEndTest.Cli r = EndToEndTest.cli("run", pixelChain(name, vcd).toString(), "--out", out.toString(), "-q");
+        assertEquals(0, r.code(), r.err());
+        return findings(out);
+    }
+
+    private static List<Finding> runDdr(String name, Path vcd) throws Exception {
+        String json = "{\"nodes\":[{\"id\":\"cap\",\"plugin\":\"vcd\",\"options\":{\"file\":" + quote(vcd.toString()) + "}},"
+                + "{\"id\":\"sampler\",\"plugin\":\"dual-edge\",\"options\":{\"mode\":\"ddr\",\"lanes\":2,\"alignment\":\"center\"}},"
+                + "{\"id\":\"clk\",\"plugin\":\"jitter\",\"options\":{}},"
+                + "{\"id\":\"link\",\"plugin\":\"packet-link\",\"options\":{\"lanes\":2,\"profile\":\"framed\",\"lpStates\":false,"
+                + "\"syncPattern\":\"B8\",\"syncBits\":8,\"wordBits\":8,\"bitOrder\":\"lsb\",\"laneDistribution\":\"word\"}}],"
+                + "\"wires\":[{\"from\":\"cap.clk_out\",\"to\":\"sampler.clock\"},{\"from\":\"cap.clk_out\",\"to\":\"clk.clock\"},"
+                + "{\"from\":\"cap.d0\",\"to\":\"sampler.lane0\"},{\"from\":\"cap.d1\",\"to\":\"sampler.lane1\"},"
+                + "{\"from\":\"sampler.bits0\",\"to\":\"link.bits0\"},{\"from\":\"sampler.bits1\",\"to\":\"link.bits1\"}]}";
+        Path out = tmp.resolve("o-" + name);
+        EndToEndTest.Cli r = EndToEndTest.cli("run", write(name + ".json", json).toString(), "--out", out.toString(), "-q");
         assertEquals(0, r.code(), r.err());
         return findings(out);
     }

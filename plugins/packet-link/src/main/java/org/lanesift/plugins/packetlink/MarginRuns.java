@@ -8,13 +8,14 @@ import org.lanesift.data.BitSets;
 import org.lanesift.data.BitStream;
 
 /**
- * The timing-margin check of one data lane, made only on the bits the decoder uses (those inside a
- * high-speed burst, or every bit of a framed link without line states): each run of bits the
- * sampler flagged (a setup or hold margin below its threshold, or a bit taken in an unknown span)
- * becomes one {@code margin-low} warning naming the lane. A run never spans two bursts. Between
- * bursts a data lane sits in low-power states while the clock may keep running, so the sampler's
- * flags there carry no meaning and are never looked at. The chain's sampler then leaves its own
- * margin findings to this check (dual-edge option {@code marginFindings = decoder}).
+ * The timing-margin check of one data lane with line states, made only on the bits the decoder
+ * uses (those inside a high-speed burst): each run of bits the sampler flagged (a setup or hold
+ * margin below its threshold, or a bit taken in an unknown span) becomes one {@code margin-low}
+ * warning naming the lane. A run never spans two bursts. Between bursts a data lane sits in
+ * low-power states while the clock may keep running, so the sampler's flags there carry no
+ * meaning and are never looked at. The chain's sampler leaves its own margin findings to this
+ * check (dual-edge option {@code marginFindings = decoder}). A link without line states has no
+ * such check here: every bit is data, and the sampler's own check covers it.
  */
 final class MarginRuns {
     private final Consumer<Annotation> out;

@@ -41,12 +41,14 @@ final class PacketLinkStage implements Stage {
     private final List<ArrayDeque<Object[]>> laneGroups = new ArrayList<>();
     private long groupIndex;
     private boolean syncAnnounced;
+    private final SyncAlignment syncAlignment;
 
     PacketLinkStage(StageContext ctx, LinkConfig cfg) {
         this.ctx = ctx;
         this.cfg = cfg;
         this.id = ctx.instanceId();
         lanes = new Lane[cfg.lanes];
+        syncAlignment = new SyncAlignment(cfg.lanes, ctx::annotate);
         log = new CommandLog(cfg.maxLogEntries);
         frames = new FrameAssembler(id, cfg.maxFramePixels, this::frame, ctx::annotate);
         if (cfg.dsi) {
@@ -169,6 +171,11 @@ final class PacketLinkStage implements Stage {
             }
             trails.append(d.nbits - Math.min(d.nbits, laneWords[k] * w));
         }
+        LaneDeserializer[] synced = new LaneDeserializer[n];
+        for (int k = 0; k < n; k++) {
+            synced[k] = g[k].words;
+        }
+        syncAlignment.check(synced);
         int merged;
         int total = 0;
         for (int k = 0; k < n; k++) {
@@ -322,6 +329,11 @@ final class PacketLinkStage implements Stage {
             if (all && cfg.syncBits > 0) {
                 syncAnnounced = true;
                 ctx.annotate(Annotation.on("words", "framed-sync").span(t, t).label("sync pattern found on every lane").build());
+                LaneDeserializer[] synced = new LaneDeserializer[lanes.length];
+                for (int k = 0; k < lanes.length; k++) {
+                    synced[k] = lanes[k].continuous();
+                }
+                syncAlignment.check(synced);
             }
         }
         if (cfg.groupWords > 0) {
@@ -401,7 +413,6 @@ final class PacketLinkStage implements Stage {
         } else {
             for (Lane l : lanes) {
                 l.drainContinuous();
-                l.finishContinuous();
             }
             drainContinuous(true);
             for (Lane l : lanes) {
