@@ -442,7 +442,8 @@ final class RunCommand implements Callable<Integer> {
             for (OptionSpec o : d.options()) {
                 opts.put(o.name(), String.valueOf(ov.asMap().get(o.name())) + (o.unit().isEmpty() || o.type() == OptionSpec.Type.TIME ? "" : " " + o.unit()));
             }
-            instances.add(new RunSummary.Instance(n.id(), d.id(), d.displayName() == null ? d.id() : d.displayName(), d.version(), opts));
+            instances.add(new RunSummary.Instance(n.id(), d.id(), d.displayName() == null ? d.id() : d.displayName(), d.version(), opts,
+                    Set.copyOf(n.options().keySet())));
         }
         for (ChainSpec.Wire w : spec.wires()) {
             String from = w.from();

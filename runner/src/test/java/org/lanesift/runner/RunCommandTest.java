@@ -123,6 +123,15 @@ class RunCommandTest {
         assertTrue(report.contains("### Warning (1)"), report);
         assertTrue(report.indexOf("### Error") < report.indexOf("### Warning"), "errors first");
         assertTrue(report.contains("thresholdVolts=0.55 V"), report);
+        // where each value comes from: options given in the chain file apart from the defaults assumed
+        String thRow = report.lines().filter(l -> l.startsWith("| th |")).findFirst().orElseThrow();
+        assertTrue(thRow.endsWith("| thresholdVolts=0.55 V |  |"), thRow);
+        String src = report.lines().filter(l -> l.startsWith("| src |")).findFirst().orElseThrow();
+        String[] cells = src.split(" \\| ");
+        assertTrue(cells[3].contains("samples=200") && cells[3].contains("blockSamples=64"), src);
+        assertFalse(cells[4].contains("samples=200") || cells[4].contains("blockSamples"), src);
+        assertTrue(report.contains("## Where the values come from"), report);
+        assertTrue(report.contains("- standard: no finding was checked against a published limit"), report);
         assertTrue(report.contains("`signals.vcd` ("), report);
         assertFalse(Files.exists(out.resolve(".lanesift-spool")), "spool removed");
     }

@@ -33,6 +33,8 @@ final class PacketLinkCapture {
     }
 
     final List<Command> commands = new ArrayList<>();
+    /** A fault for the fault suite: the command of this index (a long write) is sent with one payload bit flipped after its checksum was computed; -1 for none. */
+    int corruptCommand = -1;
 
     /** ECC bit i is the XOR of these header bits (docs/reference-facts.md#dsi-packets-ecc-and-checksum). */
     private static final int[][] ECC_BITS = {
@@ -117,8 +119,12 @@ final class PacketLinkCapture {
         for (Levels l : lanes) {
             l.state(1.2, 1.2, 60);
         }
-        for (Command c : commands) {
+        for (int ci = 0; ci < commands.size(); ci++) {
+            Command c = commands.get(ci);
             int[] bytes = packet(c);
+            if (ci == corruptCommand) {
+                bytes[6] ^= 0x10; // a payload byte (header 4, command byte 1): the checksum no longer matches
+            }
             int start = lanes[0].size();
             for (int lane = 0; lane < 2; lane++) {
                 Levels l = lanes[lane];

@@ -382,7 +382,7 @@ public final class LinkChains {
     private LinkChains packetDecoders() {
         LinkChains c = this;
         int lanes = cap.dataLanes();
-        c.node("sampler", "dual-edge", "mode", "ddr", "lanes", lanes, "alignment", "center");
+        c.node("sampler", "dual-edge", "mode", "ddr", "lanes", lanes, "alignment", "center", "marginFindings", "decoder");
         c.wire("lanes.out0", "sampler.clock");
         for (int k = 0; k < lanes; k++) {
             c.wire("lanes.out" + (k + 1), "sampler.lane" + k);

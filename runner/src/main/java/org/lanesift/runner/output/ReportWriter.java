@@ -64,17 +64,20 @@ public final class ReportWriter {
             sb.append(String.join(", ", run.sets().stream().map(s -> "`" + s + "`").toList())).append('\n');
         }
 
-        sb.append("\n## Instances\n\n| instance | plugin | version | options |\n| --- | --- | --- | --- |\n");
+        sb.append("\n## Instances\n\n| instance | plugin | version | options given | defaults assumed |\n| --- | --- | --- | --- | --- |\n");
         for (RunSummary.Instance i : run.instances()) {
-            StringBuilder o = new StringBuilder();
+            StringBuilder given = new StringBuilder();
+            StringBuilder assumed = new StringBuilder();
             for (Map.Entry<String, String> e : i.options().entrySet()) {
+                StringBuilder o = i.given().contains(e.getKey()) ? given : assumed;
                 if (o.length() > 0) {
                     o.append(", ");
                 }
                 o.append(e.getKey()).append('=').append(e.getValue());
             }
             sb.append("| ").append(cell(i.id())).append(" | ").append(cell(i.plugin())).append(" (").append(cell(i.name()))
-                    .append(") | ").append(cell(i.version())).append(" | ").append(cell(o.toString())).append(" |\n");
+                    .append(") | ").append(cell(i.version())).append(" | ").append(cell(given.toString())).append(" | ")
+                    .append(cell(assumed.toString())).append(" |\n");
         }
 
         sb.append("\n## Outputs\n\n");
@@ -119,6 +122,8 @@ public final class ReportWriter {
             sb.append("All annotations: `").append(RunOutputs.ANNOTATIONS).append("`.\n");
         }
 
+        sources(sb, outs);
+
         sb.append("\n## Files written\n\n");
         for (Map.Entry<String, Path> e : outs.files().entrySet()) {
             sb.append("- `").append(e.getKey()).append('`');
@@ -159,6 +164,28 @@ public final class ReportWriter {
 
     private static String oneLine(String s) {
         return s.replace('\r', ' ').replace('\n', ' ');
+    }
+
+    /**
+     * Where the values of the run come from: measured from the capture, given by the user, assumed
+     * by default, or limits from a standard (cited with its docs/reference-facts.md anchor).
+     */
+    private static void sources(StringBuilder sb, RunOutputs outs) {
+        sb.append("\n## Where the values come from\n\n");
+        sb.append("- measured: every number in the findings and in the output files is measured from the capture,"
+                + " unless the file or finding says otherwise\n");
+        sb.append("- given: the options under \"options given\" (chain file or `--set`)\n");
+        sb.append("- assumed: the options under \"defaults assumed\" are the plugins' defaults; check that they fit the setup\n");
+        Map<String, Long> cited = outs.citedSources();
+        if (cited.isEmpty()) {
+            sb.append("- standard: no finding was checked against a published limit\n");
+        } else {
+            sb.append("- standard: limits the findings were checked against (field `source` of each finding):\n");
+            for (Map.Entry<String, Long> e : cited.entrySet()) {
+                sb.append("  - ").append(oneLine(e.getKey())).append(": ").append(e.getValue())
+                        .append(e.getValue() == 1 ? " finding" : " findings").append('\n');
+            }
+        }
     }
 
     private static String cell(String s) {

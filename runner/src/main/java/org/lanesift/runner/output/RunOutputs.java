@@ -58,6 +58,8 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
     private final Map<String, BitsCsvWriter> bits = new LinkedHashMap<>();
     private final Map<String, Path> files = new LinkedHashMap<>();
     private final Map<Severity, Long> severityCounts = new EnumMap<>(Severity.class);
+    /** The references findings cite for their limits (their field {@code source}), with how many cite each. */
+    private final Map<String, Long> citedSources = new java.util.TreeMap<>();
     private final Map<String, Long> kindCounts = new TreeMap<>();
     /** Kind of the finding a skew correction or estimate that is not to be trusted carries (deskew, skew-estimate). */
     public static final String SUSPECT_SKEW_KIND = "skew-suspect";
@@ -289,6 +291,10 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
             throw new OutputException("cannot write " + dir.resolve(ANNOTATIONS) + ": " + e.getMessage(), e);
         }
         severityCounts.merge(a.severity(), 1L, Long::sum);
+        org.lanesift.annotation.Field cited = a.fields().get("source");
+        if (cited != null && cited.type() == org.lanesift.annotation.Field.Type.TEXT) {
+            citedSources.merge(String.valueOf(cited.value()), 1L, Long::sum);
+        }
         if (a.kind().equals(SUSPECT_SKEW_KIND) && suspectSkews.size() < EXAMPLES_PER_SEVERITY) {
             org.lanesift.annotation.Field why = a.fields().get("reason");
             suspectSkews.add(a.track() + " (" + (why == null ? a.label() : why.value()) + ")");
@@ -364,6 +370,17 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
      */
     public Map<Severity, Long> severityCounts() {
         return severityCounts;
+    }
+
+    /**
+     * The references the findings cite for the limits they were checked against (the text field
+     * {@code source} of an annotation, such as a level check's standard and its
+     * docs/reference-facts.md anchor), each with the number of findings citing it.
+     *
+     * @return counts, sorted by reference
+     */
+    public Map<String, Long> citedSources() {
+        return java.util.Collections.unmodifiableMap(citedSources);
     }
 
     /**

@@ -31,7 +31,10 @@ public record RunSummary(String chainFile, String description, String version, I
      * @param name    plugin display name
      * @param version plugin version
      * @param options effective options (defaults filled in), as text
+     * @param given   the names of the options the chain file (or {@code --set}) gave; the others
+     *                are the plugin's defaults, assumed
      */
-    public record Instance(String id, String plugin, String name, String version, Map<String, String> options) {
+    public record Instance(String id, String plugin, String name, String version, Map<String, String> options,
+                           java.util.Set<String> given) {
     }
 }

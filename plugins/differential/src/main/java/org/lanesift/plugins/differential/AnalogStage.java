@@ -230,10 +230,17 @@ final class AnalogStage implements Stage, LegAligner.Sink {
             if (sev == null) {
                 continue;
             }
-            ctx.annotate(Annotation.on(levelsTrack, "level-check").span(t0, t1).severity(sev)
-                    .label(String.format(Locale.ROOT, "%s %.1f mV, limit %s", ch.quantity(), v * 1e3, ch.limits()))
+            // the capture-wide value of a quantity the windows already named is information: one fault, one finding
+            boolean named = sev != Severity.INFO && findings.named(ch.quantity(), sev);
+            Annotation.Builder b = Annotation.on(levelsTrack, "level-check").span(t0, t1).severity(named ? Severity.INFO : sev)
+                    .label(String.format(Locale.ROOT, "%s %.1f mV, limit %s%s", ch.quantity(), v * 1e3, ch.limits(),
+                            named ? " (named above for its windows)" : ""))
                     .field("quantity", Field.enumValue(ch.quantity())).number("valueVolts", v, "V")
-                    .number("minVolts", ch.min(), "V").number("maxVolts", ch.max(), "V").text("source", ch.source()).build());
+                    .number("minVolts", ch.min(), "V").number("maxVolts", ch.max(), "V").text("source", ch.source());
+            if (named) {
+                b.field("verdict", Field.enumValue(sev.name().toLowerCase(Locale.ROOT)));
+            }
+            ctx.annotate(b.build());
         }
         ctx.annotate(Annotation.on(levelsTrack, "level-summary").span(t0, t1).severity(Severity.INFO)
                 .label(String.format(Locale.ROOT, "levels %.3f / %.3f V, %d transitions", capture.mean(0), capture.mean(1),

@@ -11,7 +11,9 @@ import org.lanesift.plugin.StageContext;
 /**
  * Judges each finished window's levels against the level profile and merges consecutive windows
  * with the same finding for one quantity into one {@code level-out-of-range} or
- * {@code level-near-limit} annotation spanning them, with the worst value seen.
+ * {@code level-near-limit} annotation spanning them, with the worst value seen. It remembers the
+ * gravest finding it made per quantity, so the capture-wide check at the end does not name the
+ * same fault a second time.
  */
 final class WindowFindings {
     /** An open run of consecutive windows with the same finding for one quantity. */
@@ -37,6 +39,8 @@ final class WindowFindings {
     private final Settings s;
     private final String levelsTrack;
     private final Map<String, Run> runs = new LinkedHashMap<>();
+    /** The gravest severity annotated so far, per quantity. */
+    private final Map<String, Severity> named = new LinkedHashMap<>();
 
     WindowFindings(StageContext ctx, Settings s, String levelsTrack) {
         this.ctx = ctx;
@@ -86,6 +90,18 @@ final class WindowFindings {
         runs.clear();
     }
 
+    /**
+     * Whether a window finding of at least this severity was annotated for a quantity.
+     *
+     * @param quantity the check's quantity
+     * @param sev      the severity
+     * @return true when a run of windows already named it
+     */
+    boolean named(String quantity, Severity sev) {
+        Severity n = named.get(quantity);
+        return n != null && n.compareTo(sev) >= 0;
+    }
+
     /** How far a value sits from the middle of a check's band, in volts past its nearest limit (larger is worse). */
     private static double distance(LevelProfile.Check ch, double v) {
         double d = Double.NEGATIVE_INFINITY;
@@ -103,6 +119,7 @@ final class WindowFindings {
             return;
         }
         boolean err = r.severity == Severity.ERROR;
+        named.merge(r.check.quantity(), r.severity, (a, b) -> a.compareTo(b) >= 0 ? a : b);
         ctx.annotate(Annotation.on(levelsTrack, err ? "level-out-of-range" : "level-near-limit").span(r.startFs, r.endFs)
                 .severity(r.severity)
                 .label(String.format(Locale.ROOT, "%s %.1f mV %s %s", r.check.quantity(), r.worst * 1e3,

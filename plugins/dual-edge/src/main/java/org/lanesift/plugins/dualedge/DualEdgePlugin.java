@@ -72,7 +72,10 @@ import org.lanesift.time.TimeValue;
  * edges of an unknown span count as transitions. A bit is flagged when a margin is below
  * {@code marginThreshold} UI (default 0.15), when it was sampled in an unknown span or outside the
  * lane's capture, or when its clock edge lies next to an unknown span of the clock. Runs of flagged
- * bits are annotated ({@code margin-low}); the report holds per lane the minimum, percentiles and a
+ * bits are annotated ({@code margin-low}), naming the lane; with {@code marginFindings = decoder} they are
+ * only flagged in the bit stream, and the decoder reports those inside the spans where the lane carries
+ * data (a packet link's data lanes sit in low-power states between bursts, where a transition lands at
+ * any phase of a clock that keeps running: no margin applies there). The report holds per lane the minimum, percentiles and a
  * histogram of both margins.
  *
  * <p><b>Guards</b> (docs/sampling-rate.md). Edges that lie on a sample grid coarser than half a UI
@@ -111,6 +114,9 @@ public final class DualEdgePlugin implements PluginProvider {
                     + " period are glitches and ignored (0 disables)"))
             .option(OptionSpec.number("dropoutPeriods", "", 1.5, 1.1, 1.0e6, "a clock gap longer than this many periods"
                     + " ends the clock (no bits are made across it)"))
+            .option(OptionSpec.choice("marginFindings", "sampler", "sampler: runs of flagged bits are annotated here"
+                    + " (margin-low); decoder: the bits are flagged, and the decoder that knows where a lane carries data"
+                    + " (packet-link: inside high-speed bursts) reports them", "sampler", "decoder"))
             .option(OptionSpec.time("samplePeriod", TimeValue.Unit.PS, "0ps", "capture sample period, needed only when"
                     + " 'phase' is given in samples"))
             .inputs(o -> {

@@ -59,7 +59,7 @@ final class DualEdgeStage implements Stage {
         lanes = new LaneSampler[cfg.lanes()];
         for (int i = 0; i < cfg.lanes(); i++) {
             laneQ[i] = new EdgeQueue("lane" + i);
-            lanes[i] = new LaneSampler(i, laneQ[i], cfg.marginThreshold());
+            lanes[i] = new LaneSampler(i, laneQ[i], cfg.marginThreshold(), cfg.marginFindings());
         }
         gridJudged = new boolean[cfg.lanes() + 1];
         skewAmbiguous = new boolean[cfg.lanes()];

@@ -37,9 +37,12 @@ final class LaneSampler {
     boolean quiet;
 
     private final double threshold;
+    /** Runs of flagged bits are annotated here (false: the decoder reports them where the lane carries data). */
+    private final boolean annotate;
 
-    LaneSampler(int lane, EdgeQueue q, double threshold) {
+    LaneSampler(int lane, EdgeQueue q, double threshold, boolean annotate) {
         this.lane = lane;
+        this.annotate = annotate;
         this.q = q;
         this.threshold = threshold;
         this.track = "lane" + lane;
@@ -269,7 +272,7 @@ final class LaneSampler {
         }
         inRun = false;
         stats.lowRuns++;
-        if (quiet) {
+        if (quiet || !annotate) {
             return;
         }
         String lane = q.channel != null ? q.channel : track;

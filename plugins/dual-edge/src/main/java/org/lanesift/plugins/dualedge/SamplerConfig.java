@@ -22,10 +22,13 @@ import org.lanesift.time.TimeValue;
  * @param marginThreshold fraction of a UI below which a margin is flagged
  * @param glitchFraction  clock pulses shorter than this fraction of the period are glitches
  * @param dropoutPeriods  a clock gap longer than this many periods is a dropout
+ * @param marginFindings  runs of flagged bits are annotated here ({@code margin-low}); false leaves that to the
+ *                        decoder that knows where the lane carries data (the bits are flagged either way)
  */
 record SamplerConfig(int lanes, Mode mode, int slots, String pattern, int slot0AfterRef, int highSlots,
                      boolean edgeAligned, boolean phaseIsUi, double phaseUi, double phaseFs, boolean autoPhase,
-                     int searchBits, double marginThreshold, double glitchFraction, double dropoutPeriods) {
+                     int searchBits, double marginThreshold, double glitchFraction, double dropoutPeriods,
+                     boolean marginFindings) {
 
     /** The sampling modes. */
     enum Mode {
@@ -132,7 +135,7 @@ record SamplerConfig(int lanes, Mode mode, int slots, String pattern, int slot0A
         }
         return new SamplerConfig(lanes, mode, slots, pattern, slot0, high, edgeAligned, phaseIsUi, phaseUi, phaseFs, auto,
                 o.getInt("searchBits"), o.getDouble("marginThreshold"), o.getDouble("glitchFraction"),
-                o.getDouble("dropoutPeriods"));
+                o.getDouble("dropoutPeriods"), o.getString("marginFindings").equals("sampler"));
     }
 
     /**

@@ -211,6 +211,14 @@ class DdrSamplingTest {
         }
         assertFalse(r.of("margin-low").isEmpty());
         assertTrue(r.reportNumber("lane", "0", "flagged") > 100);
+
+        // marginFindings = decoder: the same bits are flagged, but the runs are left to the decoder
+        Run quiet = Run.whole(Map.of("lanes", 2, "marginFindings", "decoder"), sim.clock(), sim.lane(0), sim.lane(1));
+        assertTrue(quiet.of("margin-low").isEmpty(), quiet.of("margin-low").toString());
+        for (int l = 0; l < 2; l++) {
+            assertEquals(r.lanes.get(l).flagged, quiet.lanes.get(l).flagged, "lane " + l + ": flags differ");
+        }
+        assertEquals(r.reportNumber("lane", "0", "flagged"), quiet.reportNumber("lane", "0", "flagged"));
     }
 
     /**

@@ -31,6 +31,7 @@ final class Lane {
     final int index;
     final LaneStateTracker tracker;
     private final DeserializerFactory factory;
+    private final MarginRuns margins;
     private final ArrayDeque<AnalogBlock> legP = new ArrayDeque<>();
     private final ArrayDeque<AnalogBlock> legN = new ArrayDeque<>();
     private int posP;
@@ -42,10 +43,11 @@ final class Lane {
     private LaneStateTracker.Interval currentInterval;
     final ArrayDeque<Burst> done = new ArrayDeque<>();
 
-    Lane(int index, LaneStateTracker tracker, DeserializerFactory factory) {
+    Lane(int index, LaneStateTracker tracker, DeserializerFactory factory, MarginRuns margins) {
         this.index = index;
         this.tracker = tracker;
         this.factory = factory;
+        this.margins = margins;
     }
 
     void acceptLeg(boolean positive, AnalogBlock b) {
@@ -120,6 +122,7 @@ final class Lane {
                 }
                 int j = firstAtOrAfter(t, i, count, Math.min(iv.endFs, known));
                 current.feed(b, i, j);
+                margins.feed(b, i, j);
                 i = j;
             }
             bitsDoneFs = Math.max(bitsDoneFs, b.endFs());
@@ -139,6 +142,7 @@ final class Lane {
     private void closeInterval() {
         LaneStateTracker.Interval iv = tracker.intervals.poll();
         LaneDeserializer d = currentInterval == iv ? current : factory.create(index);
+        margins.close();
         done.add(new Burst(iv.startFs, iv.endFs, d));
         currentInterval = null;
         current = null;
@@ -173,6 +177,7 @@ final class Lane {
                 }
                 int j = firstAtOrAfter(t, i, b.count(), iv.endFs);
                 current.feed(b, i, j);
+                margins.feed(b, i, j);
                 i = j;
             }
         }
@@ -206,7 +211,7 @@ final class Lane {
         }
         while (!bits.isEmpty()) {
             BitStream b = bits.poll();
-            current.feed(b, 0, b.count());
+            current.feed(b, 0, b.count()); // no margin check here: every bit is data, the sampler's own check covers them
         }
     }
 

@@ -20,7 +20,10 @@ import org.lanesift.time.TimeValue;
  * <p><b>Inputs</b>, per lane {@code k} (0 to {@code lanes - 1}): {@code lane{k}p} and
  * {@code lane{k}n} (ANALOG, volts) are the two single-ended legs, used for the line states;
  * {@code bits{k}} (BITS) are the lane's high-speed bits sampled on both clock edges. Only bits
- * whose sample time falls inside a high-speed interval of their lane are used. With
+ * whose sample time falls inside a high-speed interval of their lane are used, and only those are
+ * checked for timing margins: each run of bits the sampler flagged there is one {@code margin-low}
+ * warning naming the lane (the sampler leaves that check to this plugin with its option
+ * {@code marginFindings = decoder}; between bursts the lanes sit in low-power states). With
  * {@code profile=framed, lpStates=false} the analog inputs are absent and every bit is used.
  *
  * <p><b>Outputs</b>: {@code packets} (WORDS: one 8-bit word per burst byte, lanes merged, with
@@ -39,7 +42,7 @@ import org.lanesift.time.TimeValue;
  *   {"id": "rx-HSCLK", "plugin": "differential", "options": {"mode": "pair", "name": "HSCLK", "levelProfile": "dphy-hs"}},
  *   {"id": "rx-L0", "plugin": "differential", "options": {"mode": "pair", "name": "L0", "thresholdVolts": 0.0, "levelProfile": "none"}},
  *   {"id": "rx-L1", "plugin": "differential", "options": {"mode": "pair", "name": "L1", "thresholdVolts": 0.0, "levelProfile": "none"}},
- *   {"id": "sampler", "plugin": "dual-edge", "options": {"mode": "ddr", "lanes": 2}},
+ *   {"id": "sampler", "plugin": "dual-edge", "options": {"mode": "ddr", "lanes": 2, "marginFindings": "decoder"}},
  *   {"id": "dsi", "plugin": "packet-link", "options": {"lanes": 2}}],
  *  "wires": [
  *   {"from": "cap.HSCLK_P", "to": "rx-HSCLK.p"}, {"from": "cap.HSCLK_N", "to": "rx-HSCLK.n"},

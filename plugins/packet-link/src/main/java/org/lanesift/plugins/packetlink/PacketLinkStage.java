@@ -43,12 +43,14 @@ final class PacketLinkStage implements Stage {
     private final ArrayDeque<Object[]> pendingLp = new ArrayDeque<>();
     private long groupIndex;
     private boolean syncAnnounced;
+    private final SyncAlignment syncAlignment;
 
     PacketLinkStage(StageContext ctx, LinkConfig cfg) {
         this.ctx = ctx;
         this.cfg = cfg;
         this.id = ctx.instanceId();
         lanes = new Lane[cfg.lanes];
+        syncAlignment = new SyncAlignment(cfg.lanes, ctx::annotate);
         log = new CommandLog(cfg.maxLogEntries);
         frames = new FrameAssembler(id, cfg.maxFramePixels, this::frame, ctx::annotate);
         if (cfg.dsi) {
@@ -66,7 +68,7 @@ final class PacketLinkStage implements Stage {
                     cfg.minStateFs, ctx::annotate, cfg.dsi ? this::lpdt : null);
             lanes[k] = new Lane(k, tr, l -> new LaneDeserializer(l, cfg.dsi ? 0xB8 : cfg.syncWire, cfg.dsi ? 8 : cfg.syncBits,
                     cfg.dsi ? 8 : cfg.wordBits, !cfg.dsi && cfg.msbFirst, cfg.dsi ? 0 : cfg.groupWords, cfg.maxBits(),
-                    d -> laneGroup(lane, d)));
+                    d -> laneGroup(lane, d)), new MarginRuns(k, ctx::annotate));
         }
     }
 
@@ -177,6 +179,11 @@ final class PacketLinkStage implements Stage {
             }
             trails.append(d.nbits - Math.min(d.nbits, laneWords[k] * w));
         }
+        LaneDeserializer[] synced = new LaneDeserializer[n];
+        for (int k = 0; k < n; k++) {
+            synced[k] = g[k].words;
+        }
+        syncAlignment.check(synced);
         int merged;
         int total = 0;
         for (int k = 0; k < n; k++) {
@@ -367,6 +374,11 @@ final class PacketLinkStage implements Stage {
             if (all && cfg.syncBits > 0) {
                 syncAnnounced = true;
                 ctx.annotate(Annotation.on("words", "framed-sync").span(t, t).label("sync pattern found on every lane").build());
+                LaneDeserializer[] synced = new LaneDeserializer[lanes.length];
+                for (int k = 0; k < lanes.length; k++) {
+                    synced[k] = lanes[k].continuous();
+                }
+                syncAlignment.check(synced);
             }
         }
         if (cfg.groupWords > 0) {

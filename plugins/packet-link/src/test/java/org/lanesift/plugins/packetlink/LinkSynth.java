@@ -33,6 +33,10 @@ final class LinkSynth {
     private final List<List<Seg>> segs = new ArrayList<>();
     private final List<List<long[]>> bitTimes = new ArrayList<>();
     private final List<List<boolean[]>> bitVals = new ArrayList<>();
+    /** Spans {@code [from, to)} per lane in which the bits come flagged, as a sampler flags low margins. */
+    private final List<List<long[]>> flagSpans = new ArrayList<>();
+    /** The bits delivered just before and after a burst come flagged (a transition into LP-01 lands at any clock phase). */
+    boolean flagAroundBursts;
     private final Random rnd = new Random(42);
     long nowFs;
     double noiseVolts = 0.005;
@@ -45,6 +49,7 @@ final class LinkSynth {
             segs.add(new ArrayList<>());
             bitTimes.add(new ArrayList<>());
             bitVals.add(new ArrayList<>());
+            flagSpans.add(new ArrayList<>());
         }
         nowFs = 0;
     }
@@ -95,6 +100,10 @@ final class LinkSynth {
             addBits(k, randomBits(40), hsStart - 40 * UI_FS);
             addBits(k, b, hsStart);
             addBits(k, randomBits(40), hsEnd);
+            if (flagAroundBursts) {
+                flagBits(k, hsStart - 40 * UI_FS, hsStart);
+                flagBits(k, hsEnd, hsEnd + 40 * UI_FS);
+            }
             seg(k, LaneState.LP11, hsEnd, hsEnd + LPX_FS);
         }
         nowFs = hsEnd + LPX_FS;
@@ -147,6 +156,23 @@ final class LinkSynth {
         }
         nowFs = t;
         return this;
+    }
+
+    /** Bits of {@code lane} sampled in {@code [fromFs, toFs)} come flagged. */
+    LinkSynth flagBits(int lane, long fromFs, long toFs) {
+        flagSpans.get(lane).add(new long[] {fromFs, toFs});
+        return this;
+    }
+
+    /** Start of the last burst's high-speed bits (after HS-zero: the sync byte starts 24 UI later). */
+    long lastHsStartFs() {
+        List<Seg> l = segs.get(0);
+        for (int i = l.size() - 1; i >= 0; i--) {
+            if (l.get(i).state == LaneState.HS) {
+                return l.get(i).bitsStartFs;
+            }
+        }
+        throw new IllegalStateException("no burst yet");
     }
 
     private static long alignUp(long t) {
@@ -240,25 +266,42 @@ final class LinkSynth {
             System.arraycopy(vs.get(c), 0, vals, o, vs.get(c).length);
             o += ts.get(c).length;
         }
-        return stream("bits" + lane, times, vals, 0, n, 0, nowFs);
+        boolean[] flags = new boolean[n];
+        for (int i = 0; i < n; i++) {
+            for (long[] span : flagSpans.get(lane)) {
+                flags[i] |= times[i] >= span[0] && times[i] < span[1];
+            }
+        }
+        return stream("bits" + lane, times, vals, flags, 0, n, 0, nowFs);
     }
 
     static BitStream stream(String ch, long[] times, boolean[] vals, int from, int to, long startFs, long endFs) {
+        return stream(ch, times, vals, null, from, to, startFs, endFs);
+    }
+
+    static BitStream stream(String ch, long[] times, boolean[] vals, boolean[] flags, int from, int to, long startFs, long endFs) {
         int n = to - from;
         long[] v = new long[BitSets.words(n)];
         long[] fall = new long[BitSets.words(n)];
         long[] edge = new long[n];
         long[] setup = new long[n];
         long[] hold = new long[n];
+        long[] flagged = new long[BitSets.words(n)];
         for (int i = 0; i < n; i++) {
             BitSets.set(v, i, vals[from + i]);
+            if (flags != null && flags[from + i]) {
+                BitSets.set(flagged, i, true);
+                hold[i] = UI_FS / 20; // a low hold margin, as the sampler would report it
+            }
             edge[i] = times[from + i] / UI_FS;
             BitSets.set(fall, i, (edge[i] & 1) == 1);
             setup[i] = UI_FS / 2;
-            hold[i] = UI_FS / 2;
+            if (!BitSets.get(flagged, i)) {
+                hold[i] = UI_FS / 2;
+            }
         }
         return new BitStream(ch, startFs, endFs, n, v, Arrays.copyOfRange(times, from, to), edge, fall, null, setup, hold,
-                new long[BitSets.words(n)], UI_FS);
+                flagged, UI_FS);
     }
 
     /** Cuts a stream at a time: bits before and bits at or after. */
@@ -266,10 +309,13 @@ final class LinkSynth {
         long[] t = s.timesFs();
         int k = Lane.firstAtOrAfter(t, 0, s.count(), atFs);
         boolean[] vals = new boolean[s.count()];
+        boolean[] flags = new boolean[s.count()];
         for (int i = 0; i < s.count(); i++) {
             vals[i] = s.bit(i);
+            flags[i] = s.isFlagged(i);
         }
-        return new BitStream[] {stream(s.channel(), t, vals, 0, k, s.startFs(), atFs), stream(s.channel(), t, vals, k, s.count(), atFs, Math.max(atFs, s.endFs()))};
+        return new BitStream[] {stream(s.channel(), t, vals, flags, 0, k, s.startFs(), atFs),
+            stream(s.channel(), t, vals, flags, k, s.count(), atFs, Math.max(atFs, s.endFs()))};
     }
 
     /**

@@ -251,7 +251,8 @@ final class FrameAssembler {
             picture.width(len);
         }
         int rows = picture.rows();
-        if (len != width) {
+        if (len != width && valid) {
+            // (a line begun before a lock loss is cut by it: the loss is named, and its frame broken, already)
             frame.markSuspect();
             findings.lineLength(lineStartT, t, len, width, rows, frame.index());
         }

@@ -1,0 +1,380 @@
+package org.lanesift.dist;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+import static org.junit.jupiter.api.Assertions.fail;
+
+import java.io.BufferedWriter;
+import java.io.File;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Random;
+import java.util.concurrent.TimeUnit;
+import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.lanesift.json.JsonReader;
+import org.lanesift.json.JsonValue;
+import org.lanesift.testkit.ExternalTool;
+
+/**
+ * The clean-capture and fault suite, from sources outside the project, through the command line
+ * ({@code lanesift run}) and every plugin of the chain:
+ * <ul>
+ * <li>a 7:1 serialiser written in Verilog (the pixel-link module's test bench) simulated with
+ * Icarus Verilog (Debian package {@code iverilog}), read as a VCD logic capture: dual-edge
+ * (multiplied), pixel-link and jitter;</li>
+ * <li>a DDR link written in Verilog (src/test/verilog/ddr_tx.v: two lanes, sync byte B8, bytes
+ * LSB first, clock edges centred on the bits) simulated with Icarus Verilog: dual-edge (ddr),
+ * packet-link (framed profile) and jitter;</li>
+ * <li>an LVDS-like current-mode driver (3.5 mA into 100 ohm, common mode 1.2 V;
+ * docs/reference-facts.md#lvds-electrical-levels, ANSI/TIA/EIA-644-A) simulated with ngspice
+ * (Debian package {@code ngspice}, netlist src/test/spice/lvds-driver.cir) sending a 7:1 clock
+ * lane: differential (level checks, leg-swap check) and jitter.</li>
+ * </ul>
+ * A clean capture gives no warning and no error; each injected fault gives its finding exactly
+ * once, at the time it was injected. Other findings the fault causes downstream (frames or lines
+ * it breaks) are listed by {@link #consequences} and checked to be only those. Each case prints
+ * one line of the suite table ({@code suite | case | finding | count | time}).
+ */
+class CaptureSuiteTest {
+    /** The Verilog test bench's bit period: 1 ns, timescale 1 ps (7 ns pixel clock). */
+    static final long UI_PS = 1000;
+
+    /** The Verilog DDR link's unit interval: 2 ns (timescale 1 ps). */
+    static final long DDR_UI_PS = 2000;
+
+    @TempDir
+    static Path tmp;
+    static Path cleanVcd;
+    static Path ddrVcd;
+
+    /** A non-information finding: kind, severity, start (fs) and label. */
+    record Finding(String kind, String severity, long startFs, String label) {
+    }
+
+    @BeforeAll
+    static void simulateSerialiser() throws Exception {
+        Path iverilog = ExternalTool.require("iverilog");
+        Path vvp = ExternalTool.require("vvp");
+        Path src = Path.of("..", "plugins", "pixel-link", "src", "test", "verilog").toAbsolutePath().normalize();
+        StringBuilder hex = new StringBuilder();
+        Random r = new Random(20261203);
+        for (int i = 0; i < 16 * 8; i++) {
+            hex.append(String.format("%06x%n", r.nextInt(1 << 24)));
+        }
+        Files.writeString(tmp.resolve("image.hex"), hex);
+        exec(List.of(iverilog.toString(), "-g2005", "-o", "sim.vvp", src.resolve("lvds71_tx.v").toString(),
+                src.resolve("tb_lvds71.v").toString()));
+        exec(List.of(vvp.toString(), "-n", "sim.vvp", "+image=image.hex", "+vcd=link.vcd", "+pixels=1500"));
+        cleanVcd = tmp.resolve("link.vcd");
+        Path ddr = Path.of("src", "test", "verilog").toAbsolutePath();
+        exec(List.of(iverilog.toString(), "-g2005", "-o", "ddr.vvp", ddr.resolve("ddr_tx.v").toString(), ddr.resolve("tb_ddr.v").toString()));
+        exec(List.of(vvp.toString(), "-n", "ddr.vvp", "+vcd=ddr.vcd", "+bits=2000"));
+        ddrVcd = tmp.resolve("ddr.vcd");
+    }
+
+    // ------------------------------------------------------------------ 7:1 serialiser (Icarus Verilog)
+
+    @Test
+    void serialiserCleanCaptureHasNoFinding() throws Exception {
+        List<Finding> f = runPixel("clean", cleanVcd);
+        row("verilog 7:1", "clean", f, null);
+        assertEquals(List.of(), f);
+    }
+
+    @Test
+    void clockGlitchIsFoundOnceWhereItIs() throws Exception {
+        long at = 5_003_100; // ps, inside a clock-high phase
+        Path vcd = write("glitch.vcd", new VcdFaults(Files.readAllLines(cleanVcd)).glitch("clk_out", at, 150).text());
+        List<Finding> f = runPixel("glitch", vcd);
+        row("verilog 7:1", "clock glitch 150 ps at 5.0031 us", f, "clock-glitch");
+        Finding g = once(f, "clock-glitch");
+        assertEquals(at * 1000, g.startFs());
+        assertEquals(List.of(), consequences(f, "clock-glitch"));
+    }
+
+    @Test
+    void clockDropoutIsFoundOnceWhereItIs() throws Exception {
+        long from = 5_000_000;
+        long to = 5_040_000; // about 5.7 pixel clocks without an edge
+        Path vcd = write("dropout.vcd", new VcdFaults(Files.readAllLines(cleanVcd)).hold("clk_out", from, to).text());
+        List<Finding> f = runPixel("dropout", vcd);
+        row("verilog 7:1", "clock held 40 ns from 5.000 us", f, "clock-dropout");
+        Finding d = once(f, "clock-dropout");
+        // the dropout starts at the last clock edge before the gap, less than one pixel clock (7 ns) earlier
+        assertTrue(d.startFs() <= from * 1000 && d.startFs() > (from - 7 * UI_PS) * 1000, d.toString());
+        // downstream: the decoder loses lock and the frame it was building is broken; the line the gap
+        // cut is not named again as a line of the wrong length
+        for (Finding c : consequences(f, "clock-dropout")) {
+            assertTrue(List.of("lost-lock", "frame", "partial-frame").contains(c.kind()), c.toString());
+        }
+    }
+
+    @Test
+    void laneSkewedBeyondHalfAUnitIntervalIsFoundOnce() throws Exception {
+        Path vcd = write("skew06.vcd", new VcdFaults(Files.readAllLines(cleanVcd)).delay("d1", 6 * UI_PS / 10).text());
+        List<Finding> f = runPixel("skew06", vcd);
+        row("verilog 7:1", "lane d1 late by 0.6 UI", f, "lane-skew-ambiguous");
+        Finding s = once(f, "lane-skew-ambiguous");
+        assertTrue(s.label().startsWith("d1:"), s.label());
+        // downstream: every frame is marked suspect because all of d1's bits are flagged
+        for (Finding c : consequences(f, "lane-skew-ambiguous")) {
+            assertTrue(List.of("frame", "suspect-bits").contains(c.kind()), c.toString());
+        }
+    }
+
+    /**
+     * A lane a whole unit interval off keeps its transitions on the slot boundaries, so margins
+     * cannot see it. On the lane carrying DE, HS and VS (lane 2, VESA and JEIDA alike,
+     * docs/reference-facts.md#pixel-link-clock-and-slot-mappings) the framing breaks: lines of
+     * the wrong length. On a lane of pixel bits only, nothing in the capture tells (recorded, not asserted away).
+     */
+    @Test
+    void controlLaneAWholeUnitIntervalOffBreaksTheFraming() throws Exception {
+        Path vcd = write("skew10.vcd", new VcdFaults(Files.readAllLines(cleanVcd)).delay("d2", UI_PS).text());
+        List<Finding> f = runPixel("skew10", vcd);
+        row("verilog 7:1", "lane d2 (DE/HS/VS) late by 1 UI", f, "line-length");
+        assertTrue(f.stream().anyMatch(x -> x.kind().equals("line-length")), f.toString());
+        Path vcd0 = write("skew10d0.vcd", new VcdFaults(Files.readAllLines(cleanVcd)).delay("d0", UI_PS).text());
+        row("verilog 7:1", "lane d0 (pixel bits) late by 1 UI", runPixel("skew10d0", vcd0), "(none: not detectable)");
+    }
+
+    @Test
+    void captureBelowTheDecodableRateIsRefused() throws Exception {
+        Path slow = write("slow.vcd", LogicCaptureRateTest.retime(Files.readAllLines(cleanVcd), 10_000));
+        EndToEndTest.Cli r = EndToEndTest.cli("run", pixelChain("slow", slow).toString(), "--out", tmp.resolve("o-slow").toString(), "-q");
+        System.out.println("SUITE | verilog 7:1 | re-timed to 100 MS/s (UI 1 ns) | exit " + r.code() + ": "
+                + (r.errLines().isEmpty() ? "" : r.errLines().get(0)) + " | 1 | -");
+        assertEquals(2, r.code(), r.err());
+        assertEquals(1, r.errLines().size(), r.err());
+        assertTrue(r.errLines().get(0).contains("at least 2 samples per unit interval"), r.err());
+    }
+
+    // ------------------------------------------------------------------ DDR link (Icarus Verilog)
+
+    @Test
+    void ddrCleanCaptureHasNoFindingAndGivesTheBytesSent() throws Exception {
+        List<Finding> f = runDdr("ddr", ddrVcd);
+        row("verilog DDR", "clean", f, null);
+        assertEquals(List.of(), f);
+        // src/test/verilog/ddr_tx.v sends byte n = (37 n + 11) mod 256, byte n on lane n mod 2
+        List<String> words = Files.readAllLines(tmp.resolve("o-ddr").resolve("link-words.csv"));
+        assertTrue(words.size() > 200, "words " + words.size());
+        for (int n = 0; n < 200; n++) {
+            String[] c = words.get(n + 1).split(",");
+            assertEquals(String.format("%02X", (37 * n + 11) & 0xFF), c[5], "word " + n);
+            assertEquals(Integer.toString(n % 2), c[2], "lane of word " + n);
+        }
+    }
+
+    @Test
+    void ddrClockGlitchIsFoundOnceWhereItIs() throws Exception {
+        long at = 1_001_000; // ps, inside a clock phase
+        Path vcd = write("ddr-glitch.vcd", new VcdFaults(Files.readAllLines(ddrVcd)).glitch("clk_out", at, 300).text());
+        List<Finding> f = runDdr("ddr-glitch", vcd);
+        row("verilog DDR", "clock glitch 300 ps at 1.001 us", f, "clock-glitch");
+        assertEquals(at * 1000, once(f, "clock-glitch").startFs());
+        assertEquals(List.of(), consequences(f, "clock-glitch"));
+    }
+
+    @Test
+    void ddrLaneSkewedBeyondHalfAUnitIntervalIsFoundOnce() throws Exception {
+        Path vcd = write("ddr-skew06.vcd", new VcdFaults(Files.readAllLines(ddrVcd)).delay("d1", 6 * DDR_UI_PS / 10).text());
+        List<Finding> f = runDdr("ddr-skew06", vcd);
+        row("verilog DDR", "lane d1 late by 0.6 UI", f, "lane-skew-ambiguous");
+        assertTrue(once(f, "lane-skew-ambiguous").label().startsWith("d1:"), f.toString());
+        assertEquals(List.of(), consequences(f, "lane-skew-ambiguous"));
+    }
+
+    /** A lane a whole unit interval late: clean margins, but it finds its sync pattern one clock edge after the other lane. */
+    @Test
+    void ddrLaneAWholeUnitIntervalOffIsFoundOnce() throws Exception {
+        Path vcd = write("ddr-skew10.vcd", new VcdFaults(Files.readAllLines(ddrVcd)).delay("d1", DDR_UI_PS).text());
+        List<Finding> f = runDdr("ddr-skew10", vcd);
+        row("verilog DDR", "lane d1 late by 1 UI", f, "lane-sync-offset");
+        Finding s = once(f, "lane-sync-offset");
+        assertTrue(s.label().startsWith("lane 1 found its sync pattern 1 UI after lane 0"), s.label());
+        assertEquals(List.of(), consequences(f, "lane-sync-offset"));
+    }
+
+    // ------------------------------------------------------------------ current-mode driver (ngspice)
+
+    @Test
+    void driverCleanCaptureHasNoFinding() throws Exception {
+        List<Finding> f = runDriver("driver", 3.5e-3, false);
+        row("ngspice driver", "clean, 3.5 mA", f, null);
+        assertEquals(List.of(), f);
+    }
+
+    @Test
+    void driverSwingBelowTheStandardIsOneErrorPerState() throws Exception {
+        // 1.5 mA into 100 ohm: |VOD| about 150 mV, below the 247 mV of ANSI/TIA/EIA-644-A
+        // (docs/reference-facts.md#lvds-electrical-levels, from memory)
+        List<Finding> f = runDriver("weak", 1.5e-3, false);
+        row("ngspice driver", "1.5 mA (|VOD| ~150 mV)", f, "level-out-of-range");
+        assertEquals(2, f.size(), f.toString());
+        for (Finding x : f) {
+            assertEquals("level-out-of-range", x.kind(), x.toString());
+            assertEquals("error", x.severity());
+            assertEquals(0, x.startFs(), "the whole capture is out of range");
+        }
+        assertTrue(f.get(0).label().startsWith("vod-") && f.get(1).label().startsWith("vod-")
+                && !f.get(0).label().substring(0, 8).equals(f.get(1).label().substring(0, 8)), "one per state: " + f);
+        // report.md says where the limits come from: the standard, with its reference-facts anchor
+        String md = Files.readString(tmp.resolve("o-weak").resolve("report.md"));
+        assertTrue(md.contains("- standard: limits the findings were checked against")
+                && md.contains("ANSI/TIA/EIA-644-A (values from memory, docs/reference-facts.md#lvds-electrical-levels)"), md);
+    }
+
+    @Test
+    void swappedLegsAreFoundOnce() throws Exception {
+        List<Finding> f = runDriver("swapped", 3.5e-3, true);
+        row("ngspice driver", "P and N swapped", f, "legs-swapped");
+        once(f, "legs-swapped");
+        assertEquals(1, f.size(), f.toString());
+    }
+
+    // ------------------------------------------------------------------ helpers
+
+    private static List<Finding> runPixel(String name, Path vcd) throws Exception {
+        Path out = tmp.resolve("o-" + name);
+        EndToEndTest.Cli r = EndToEndTest.cli("run", pixelChain(name, vcd).toString(), "--out", out.toString(), "-q");
+        assertEquals(0, r.code(), r.err());
+        return findings(out);
+    }
+
+    private static List<Finding> runDdr(String name, Path vcd) throws Exception {
+        String json = "{\"nodes\":[{\"id\":\"cap\",\"plugin\":\"vcd\",\"options\":{\"file\":" + quote(vcd.toString()) + "}},"
+                + "{\"id\":\"sampler\",\"plugin\":\"dual-edge\",\"options\":{\"mode\":\"ddr\",\"lanes\":2,\"alignment\":\"center\"}},"
+                + "{\"id\":\"clk\",\"plugin\":\"jitter\",\"options\":{}},"
+                + "{\"id\":\"link\",\"plugin\":\"packet-link\",\"options\":{\"lanes\":2,\"profile\":\"framed\",\"lpStates\":false,"
+                + "\"syncPattern\":\"B8\",\"syncBits\":8,\"wordBits\":8,\"bitOrder\":\"lsb\",\"laneDistribution\":\"word\"}}],"
+                + "\"wires\":[{\"from\":\"cap.clk_out\",\"to\":\"sampler.clock\"},{\"from\":\"cap.clk_out\",\"to\":\"clk.clock\"},"
+                + "{\"from\":\"cap.d0\",\"to\":\"sampler.lane0\"},{\"from\":\"cap.d1\",\"to\":\"sampler.lane1\"},"
+                + "{\"from\":\"sampler.bits0\",\"to\":\"link.bits0\"},{\"from\":\"sampler.bits1\",\"to\":\"link.bits1\"}]}";
+        Path out = tmp.resolve("o-" + name);
+        EndToEndTest.Cli r = EndToEndTest.cli("run", write(name + ".json", json).toString(), "--out", out.toString(), "-q");
+        assertEquals(0, r.code(), r.err());
+        return findings(out);
+    }
+
+    private static Path pixelChain(String name, Path vcd) throws Exception {
+        StringBuilder wires = new StringBuilder("{\"from\":\"cap.clk_out\",\"to\":\"sampler.clock\"},{\"from\":\"cap.clk_out\",\"to\":\"clk.clock\"}");
+        for (int l = 0; l < 4; l++) {
+            wires.append(",{\"from\":\"cap.d").append(l).append("\",\"to\":\"sampler.lane").append(l).append("\"}");
+            wires.append(",{\"from\":\"sampler.bits").append(l).append("\",\"to\":\"panel.lane").append(l).append("\"}");
+        }
+        String json = "{\"nodes\":[{\"id\":\"cap\",\"plugin\":\"vcd\",\"options\":{\"file\":" + quote(vcd.toString()) + "}},"
+                + "{\"id\":\"sampler\",\"plugin\":\"dual-edge\",\"options\":{\"mode\":\"multiplied\",\"slots\":7,\"lanes\":4}},"
+                + "{\"id\":\"clk\",\"plugin\":\"jitter\",\"options\":{}},"
+                + "{\"id\":\"panel\",\"plugin\":\"pixel-link\",\"options\":{\"mapping\":\"vesa-24\",\"pictures\":\"none\"}}],"
+                + "\"wires\":[" + wires + "]}";
+        return write(name + ".json", json);
+    }
+
+    /** Simulates the driver at a drive current, writes its legs as a CSV capture and runs the chain. */
+    private static List<Finding> runDriver(String name, double driveAmps, boolean swapLegs) throws Exception {
+        Path exe = ExternalTool.require("ngspice");
+        String netlist = Files.readString(Path.of("src", "test", "spice", "lvds-driver.cir"))
+                .replace(".param IDRV=3.5m", ".param IDRV=" + driveAmps).replace("lvds-driver.out", name + ".out");
+        Path cir = write(name + ".cir", netlist);
+        Process p = new ProcessBuilder(exe.toString(), cir.getFileName().toString()).directory(tmp.toFile())
+                .redirectInput(new File("/dev/null")).redirectErrorStream(true).redirectOutput(tmp.resolve(name + ".log").toFile()).start();
+        if (!p.waitFor(120, TimeUnit.SECONDS)) {
+            p.destroyForcibly();
+            fail("ngspice did not finish in 120 s");
+        }
+        Path wave = tmp.resolve(name + ".out");
+        assertTrue(p.exitValue() == 0 && Files.exists(wave), () -> "ngspice failed: " + readQuietly(tmp.resolve(name + ".log")));
+        Path csv = tmp.resolve(name + ".csv");
+        try (BufferedWriter w = Files.newBufferedWriter(csv)) {
+            w.write("Time (s),CLK_P (V),CLK_N (V)\n");
+            for (String line : Files.readAllLines(wave)) {
+                String[] c = line.trim().split("\\s+");
+                if (c.length < 4) {
+                    continue;
+                }
+                // wrdata: time v(p) time v(n)
+                w.write(c[0] + "," + (swapLegs ? c[3] : c[1]) + "," + (swapLegs ? c[1] : c[3]) + "\n");
+            }
+        }
+        String json = "{\"nodes\":[{\"id\":\"cap\",\"plugin\":\"csv\",\"options\":{\"file\":" + quote(csv.toString()) + "}},"
+                + "{\"id\":\"rx\",\"plugin\":\"differential\",\"options\":{\"mode\":\"pair\",\"name\":\"CLK\",\"levelProfile\":\"lvds\","
+                + "\"detectSwap\":true,\"swapPattern\":\"clock-1100011\"}},"
+                + "{\"id\":\"clk\",\"plugin\":\"jitter\",\"options\":{}}],"
+                + "\"wires\":[{\"from\":\"cap.CLK_P\",\"to\":\"rx.p\"},{\"from\":\"cap.CLK_N\",\"to\":\"rx.n\"},"
+                + "{\"from\":\"rx.edges\",\"to\":\"clk.clock\"}]}";
+        Path out = tmp.resolve("o-" + name);
+        EndToEndTest.Cli r = EndToEndTest.cli("run", write(name + ".json", json).toString(), "--out", out.toString(), "-q");
+        assertEquals(0, r.code(), r.err());
+        return findings(out);
+    }
+
+    /** The warnings and errors of a run, in file order. */
+    static List<Finding> findings(Path out) throws Exception {
+        List<Finding> f = new ArrayList<>();
+        for (String line : Files.readAllLines(out.resolve("annotations.jsonl"))) {
+            JsonValue a = JsonReader.parse("annotations.jsonl", line);
+            String sev = a.get("severity").asString();
+            if (!sev.equals("info")) {
+                f.add(new Finding(a.get("kind").asString(), sev, (long) a.get("start_fs").asDouble(), a.get("label").asString()));
+            }
+        }
+        return f;
+    }
+
+    /** The one finding of a kind; fails when there is none or more than one. */
+    static Finding once(List<Finding> f, String kind) {
+        List<Finding> k = f.stream().filter(x -> x.kind().equals(kind)).toList();
+        assertEquals(1, k.size(), kind + " expected once: " + f);
+        return k.get(0);
+    }
+
+    /** The findings other than the expected kind. */
+    static List<Finding> consequences(List<Finding> f, String kind) {
+        return f.stream().filter(x -> !x.kind().equals(kind)).toList();
+    }
+
+    /** Prints one row of the suite table. */
+    private static void row(String suite, String fault, List<Finding> f, String expected) {
+        List<Finding> hit = expected == null ? List.of() : f.stream().filter(x -> x.kind().equals(expected)).toList();
+        StringBuilder others = new StringBuilder();
+        consequences(f, expected == null ? "" : expected).stream().map(Finding::kind).distinct()
+                .forEach(k -> others.append(others.length() == 0 ? "" : ", ").append(k).append(" x")
+                        .append(f.stream().filter(x -> x.kind().equals(k)).count()));
+        System.out.println("SUITE | " + suite + " | " + fault + " | " + (expected == null ? "none" : expected) + " | " + hit.size()
+                + " | " + (hit.isEmpty() ? "-" : String.format("%.4f us", hit.get(0).startFs() * 1e-9))
+                + " | others: " + (others.length() == 0 ? "none" : others));
+    }
+
+    private static Path write(String name, String text) throws Exception {
+        Path p = tmp.resolve(name);
+        Files.writeString(p, text);
+        return p;
+    }
+
+    private static String quote(String s) {
+        return "\"" + s.replace("\\", "\\\\").replace("\"", "\\\"") + "\"";
+    }
+
+    private static void exec(List<String> cmd) throws Exception {
+        Path log = tmp.resolve("log.txt");
+        Process p = new ProcessBuilder(cmd).directory(tmp.toFile()).redirectErrorStream(true).redirectOutput(log.toFile()).start();
+        if (!p.waitFor(120, TimeUnit.SECONDS)) {
+            p.destroyForcibly();
+            fail(cmd + " did not finish in 120 s");
+        }
+        assertEquals(0, p.exitValue(), () -> cmd + ": " + readQuietly(log));
+    }
+
+    private static String readQuietly(Path p) {
+        try {
+            return Files.readString(p);
+        } catch (java.io.IOException e) {
+            return e.toString();
+        }
+    }
+}
