@@ -11,7 +11,8 @@ import java.util.Locale;
  * Chooses the source plugin for a capture file: by extension first ({@code .csv .tsv .txt} csv,
  * {@code .vcd} vcd, {@code .bin .raw .dat} raw), then by content (a file starting with a VCD
  * {@code $} keyword is vcd; a file with a {@code FILE.json} sidecar beside it is raw; text of
- * numbers and separators is csv).
+ * numbers and separators is csv). A raw file whose sidecar declares a packed logic format
+ * ({@code logic8}, {@code logic16le}, {@code logic16be}) is packed-logic.
  */
 public final class Captures {
     private Captures() {
@@ -21,7 +22,7 @@ public final class Captures {
      * The plugin id that reads a file.
      *
      * @param file the capture
-     * @return "csv", "vcd" or "raw"
+     * @return "csv", "vcd", "raw" or "packed-logic"
      * @throws CaptureFormatException when the file is missing or its kind cannot be told, naming the known extensions
      */
     public static String pluginFor(Path file) {
@@ -35,11 +36,8 @@ public final class Captures {
         if (name.endsWith(".vcd")) {
             return "vcd";
         }
-        if (name.endsWith(".bin") || name.endsWith(".raw") || name.endsWith(".dat")) {
-            return "raw";
-        }
-        if (Files.exists(Path.of(file + ".json"))) {
-            return "raw";
+        if (name.endsWith(".bin") || name.endsWith(".raw") || name.endsWith(".dat") || Files.exists(Path.of(file + ".json"))) {
+            return PackedLogicSidecar.declaresPacked(Path.of(file + ".json")) ? "packed-logic" : "raw";
         }
         byte[] head;
         try (InputStream in = Files.newInputStream(file)) {
