@@ -15,7 +15,8 @@ import org.lanesift.kit.FramePictures;
  * End to end from the command line: an 8-channel logic analyser's packed export (one byte per
  * sample, docs/capture-raw.md "Packed logic captures") of a 7:1 pixel link, with the clock and the
  * three lanes on bits 5, 0, 3, 6 and unrelated activity on the other four, decodes pixel-exact
- * through packed-logic, logic-edges, dual-edge and pixel-link; a file one byte short of a 16-bit
+ * through the worked example's chain of docs/capture-raw.md (packed-logic, logic-edges, dual-edge,
+ * pixel-link); a file one byte short of a 16-bit
  * word, and a sidecar naming more channels than the word holds, are refused with exit 2 and one line.
  */
 class PackedLogicDecodeTest {
@@ -38,20 +39,10 @@ class PackedLogicDecodeTest {
                 + "{\"name\": \"PCLK\", \"bit\": 5}, {\"name\": \"RX0\", \"bit\": 0}, {\"name\": \"RX1\", \"bit\": 3},"
                 + " {\"name\": \"RX2\", \"bit\": 6}]}");
         Path chain = dir.resolve("chain.json");
-        Files.writeString(chain, """
-                {"nodes": [
-                  {"id": "cap", "plugin": "packed-logic", "options": {"file": "analyser.bin"}},
-                  {"id": "edges", "plugin": "logic-edges", "options": {"channels": 4}},
-                  {"id": "sampler", "plugin": "dual-edge", "options": {"mode": "multiplied", "slots": 7, "lanes": 3}},
-                  {"id": "panel", "plugin": "pixel-link", "options": {"mapping": "bits-18", "pictures": "all"}}],
-                 "wires": [
-                  {"from": "cap.PCLK", "to": "edges.in0"}, {"from": "cap.RX0", "to": "edges.in1"},
-                  {"from": "cap.RX1", "to": "edges.in2"}, {"from": "cap.RX2", "to": "edges.in3"},
-                  {"from": "edges.out0", "to": "sampler.clock"}, {"from": "edges.out1", "to": "sampler.lane0"},
-                  {"from": "edges.out2", "to": "sampler.lane1"}, {"from": "edges.out3", "to": "sampler.lane2"},
-                  {"from": "sampler.bits0", "to": "panel.lane0"}, {"from": "sampler.bits1", "to": "panel.lane1"},
-                  {"from": "sampler.bits2", "to": "panel.lane2"}]}
-                """);
+        // the chain of the worked example in docs/capture-raw.md, taken from the document itself
+        String doc = Files.readString(Path.of("..", "docs", "capture-raw.md"));
+        int at = doc.indexOf("```json", doc.indexOf("### Worked example: an 8-channel analyser")) + "```json".length();
+        Files.writeString(chain, doc.substring(at, doc.indexOf("```", at)));
         Path out = dir.resolve("out");
         SiftTest.Run r = SiftTest.lanesift("run", chain.toString(), "--out", out.toString(), "--quiet");
         assertEquals(0, r.code(), r.err());
