@@ -70,4 +70,36 @@ public final class Captures {
         throw new CaptureFormatException(file, 0, "cannot tell the capture format; known extensions: .csv .tsv .txt (csv),"
                 + " .vcd (vcd), .bin .raw .dat (raw binary with a FILE.json sidecar)");
     }
+
+    /**
+     * The descriptor of a capture reader plugin.
+     *
+     * @param plugin "csv", "vcd", "raw" or "packed-logic"
+     * @return its descriptor
+     */
+    static org.lanesift.plugin.PluginDescriptor descriptor(String plugin) {
+        return switch (plugin) {
+            case "csv" -> CsvSource.DESCRIPTOR;
+            case "vcd" -> VcdSource.DESCRIPTOR;
+            case "packed-logic" -> PackedLogicSource.DESCRIPTOR;
+            default -> RawSource.DESCRIPTOR;
+        };
+    }
+
+    /**
+     * Opens the reader of a capture reader plugin with validated options.
+     *
+     * @param plugin as from {@link #pluginFor}
+     * @param ov     options validated against {@link #descriptor}
+     * @return the reader, positioned at the start
+     * @throws IOException if the file cannot be read
+     */
+    static CaptureReader open(String plugin, org.lanesift.plugin.OptionValues ov) throws IOException {
+        return switch (plugin) {
+            case "csv" -> CsvSource.reader(ov);
+            case "vcd" -> VcdSource.reader(ov, false);
+            case "packed-logic" -> PackedLogicSource.reader(ov, false);
+            default -> RawSource.reader(ov, false);
+        };
+    }
 }

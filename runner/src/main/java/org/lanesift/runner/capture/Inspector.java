@@ -67,12 +67,7 @@ public final class Inspector {
      */
     public static InspectReport inspect(Path file, Map<String, String> options) {
         String plugin = Captures.pluginFor(file);
-        PluginDescriptor d = switch (plugin) {
-            case "csv" -> CsvSource.DESCRIPTOR;
-            case "vcd" -> VcdSource.DESCRIPTOR;
-            case "packed-logic" -> PackedLogicSource.DESCRIPTOR;
-            default -> RawSource.DESCRIPTOR;
-        };
+        PluginDescriptor d = Captures.descriptor(plugin);
         Map<String, Object> raw = new LinkedHashMap<>();
         if (options != null) {
             raw.putAll(options);
@@ -87,12 +82,7 @@ public final class Inspector {
     }
 
     private static CaptureReader open(String plugin, OptionValues ov) throws IOException {
-        return switch (plugin) {
-            case "csv" -> CsvSource.reader(ov);
-            case "vcd" -> VcdSource.reader(ov, false);
-            case "packed-logic" -> PackedLogicSource.reader(ov, false);
-            default -> RawSource.reader(ov, false);
-        };
+        return Captures.open(plugin, ov);
     }
 
     /** Per-channel accumulators. */
