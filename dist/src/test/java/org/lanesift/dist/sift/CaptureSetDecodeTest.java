@@ -58,20 +58,8 @@ class CaptureSetDecodeTest {
 
     static Path chain(Path dir, Path set) throws IOException {
         Path c = dir.resolve("chain.json");
-        Files.writeString(c, """
-                {"nodes": [
-                  {"id": "cap", "plugin": "capture-set", "options": {"file": "%s"}},
-                  {"id": "edges", "plugin": "logic-edges", "options": {"channels": 4}},
-                  {"id": "sampler", "plugin": "dual-edge", "options": {"mode": "multiplied", "slots": 7, "lanes": 3}},
-                  {"id": "panel", "plugin": "pixel-link", "options": {"mapping": "bits-18", "pictures": "all"}}],
-                 "wires": [
-                  {"from": "cap.PCLK", "to": "edges.in0"}, {"from": "cap.RX0", "to": "edges.in1"},
-                  {"from": "cap.RX1", "to": "edges.in2"}, {"from": "cap.RX2", "to": "edges.in3"},
-                  {"from": "edges.out0", "to": "sampler.clock"}, {"from": "edges.out1", "to": "sampler.lane0"},
-                  {"from": "edges.out2", "to": "sampler.lane1"}, {"from": "edges.out3", "to": "sampler.lane2"},
-                  {"from": "sampler.bits0", "to": "panel.lane0"}, {"from": "sampler.bits1", "to": "panel.lane1"},
-                  {"from": "sampler.bits2", "to": "panel.lane2"}]}
-                """.formatted(set.getFileName()));
+        // recipe 3 of docs/fewer-channels.md, taken from the page, with this test's set file
+        Files.writeString(c, FewerChannelsTest.chainOf("## 3. Two channels").replace("bench.set.json", set.getFileName().toString()));
         return c;
     }
 
