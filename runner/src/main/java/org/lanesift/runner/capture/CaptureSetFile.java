@@ -1,14 +1,10 @@
 package org.lanesift.runner.capture;
 
-import java.io.IOException;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.HashSet;
 import java.util.List;
 import java.util.Set;
-import org.lanesift.json.JsonParseException;
-import org.lanesift.json.JsonReader;
 import org.lanesift.json.JsonValue;
 
 /**
@@ -45,16 +41,7 @@ final class CaptureSetFile {
     }
 
     static CaptureSetFile read(Path file) {
-        JsonValue root;
-        try {
-            root = JsonReader.read(file, String.valueOf(file.getFileName()));
-        } catch (JsonParseException e) {
-            throw new CaptureFormatException(file, e);
-        } catch (NoSuchFileException e) {
-            throw new CaptureFormatException(file, 0, "file not found");
-        } catch (IOException e) {
-            throw new CaptureFormatException(file, 0, "cannot read: " + e.getMessage(), e);
-        }
+        JsonValue root = CaptureJson.read(file, "file not found");
         if (!root.isObject()) {
             throw bad(file, "", "expected a JSON object");
         }

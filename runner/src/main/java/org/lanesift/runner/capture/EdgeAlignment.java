@@ -32,11 +32,21 @@ final class EdgeAlignment {
      * @param residualRmsFs   rms of the matched differences about the offset
      * @param pairs           transitions matched
      * @param voters          reference transitions that voted
+     * @param binFs           the bin width: a sample period, or an eighth of the median interval of edge lists
      */
-    record Result(double offsetFs, double matched, double runnerUp, double runnerUpFs, double residualRmsFs, int pairs, int voters) {
-        /** Standard error of the offset: rms / sqrt(pairs). */
+    record Result(double offsetFs, double matched, double runnerUp, double runnerUpFs, double residualRmsFs, int pairs, int voters,
+                  double binFs) {
+        /**
+         * Standard error of the offset: rms / sqrt(pairs). When every matched difference is the same
+         * (the unit interval a whole number of sample periods, so the sample grid meets every edge at
+         * the same phase and nothing averages out), the offset is known only to a bin, and the error
+         * given is that of a uniform quantisation of one bin, bin / sqrt(12).
+         */
         double standardErrorFs() {
-            return pairs > 0 ? residualRmsFs / Math.sqrt(pairs) : Double.NaN;
+            if (pairs == 0) {
+                return Double.NaN;
+            }
+            return residualRmsFs > 1e-6 * binFs ? residualRmsFs / Math.sqrt(pairs) : binFs / Math.sqrt(12);
         }
     }
 
@@ -122,7 +132,7 @@ final class EdgeAlignment {
         double rms = pairs > 1 ? Math.sqrt(Math.max(0, sum2 / pairs - mean * mean)) : Double.NaN;
         double runnerUp = second < 0 || near[best] == 0 ? 0 : (double) near[second] / near[best];
         return new Result(coarseFs + mean, Math.min(1, (double) near[best] / voters), runnerUp,
-                second < 0 ? Double.NaN : (second + 0.5) * binFs - searchFs, rms, pairs, voters);
+                second < 0 ? Double.NaN : (second + 0.5) * binFs - searchFs, rms, pairs, voters, binFs);
     }
 
     private static double finiteOr(double v, double or) {

@@ -1,7 +1,6 @@
 package org.lanesift.runner.capture;
 
 import java.io.IOException;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -83,17 +82,8 @@ final class PackedLogicSidecar {
     }
 
     static PackedLogicSidecar read(Path sidecar) {
-        JsonValue root;
-        try {
-            root = JsonReader.read(sidecar, String.valueOf(sidecar.getFileName() == null ? sidecar : sidecar.getFileName()));
-        } catch (JsonParseException e) {
-            throw new CaptureFormatException(sidecar, e);
-        } catch (NoSuchFileException e) {
-            throw new CaptureFormatException(sidecar, 0, "sidecar not found; a packed logic capture needs a JSON sidecar with"
-                    + " rateHz, format (logic8, logic16le or logic16be) and channels [{name, bit}]");
-        } catch (IOException e) {
-            throw new CaptureFormatException(sidecar, 0, "cannot read: " + e.getMessage(), e);
-        }
+        JsonValue root = CaptureJson.read(sidecar, "sidecar not found; a packed logic capture needs a JSON sidecar with"
+                + " rateHz, format (logic8, logic16le or logic16be) and channels [{name, bit}]");
         if (!root.isObject()) {
             throw bad(sidecar, "", "expected a JSON object");
         }
