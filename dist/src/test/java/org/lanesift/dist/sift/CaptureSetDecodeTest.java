@@ -104,6 +104,17 @@ class CaptureSetDecodeTest {
             // to a fifth of the 1 ns sample period
             assertEquals(want * 1e15, offsetFs.get(a.name()), 200e3, a.name());
         }
+
+        // plan checks the set as one capture: four channels at 1 GS/s, the clock, two frames' length
+        SiftTest.Run plan = SiftTest.lanesift("plan", "--clock", "25MHz", "--lanes", "3", "--frames", "2", "--frame-rate",
+                String.valueOf(1 / LogicLink.FRAME_S), "--capture", set.toString(), "--json");
+        assertEquals(0, plan.code(), plan.out() + plan.err());
+        List<String> verdicts = new ArrayList<>();
+        for (JsonValue c : JsonReader.parse("plan", plan.out()).get("checks").elements()) {
+            verdicts.add(c.get("rule").asString() + ": " + c.get("verdict").asString());
+        }
+        assertEquals(List.of("sample rate to decode: meets", "sample rate to measure edges and eyes: not_judged", "record length: meets",
+                "channels: meets", "clock: meets"), verdicts);
     }
 
     @Test

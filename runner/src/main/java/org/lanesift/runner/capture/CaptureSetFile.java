@@ -40,6 +40,11 @@ final class CaptureSetFile {
         this.searchS = searchS;
     }
 
+    /** Whether a JSON file declares this format; false for anything else, readable or not. */
+    static boolean declaresSet(Path file) {
+        return FORMAT.equals(CaptureJson.formatOf(file));
+    }
+
     static CaptureSetFile read(Path file) {
         JsonValue root = CaptureJson.read(file, "file not found");
         if (!root.isObject()) {

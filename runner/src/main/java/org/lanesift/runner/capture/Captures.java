@@ -12,7 +12,8 @@ import java.util.Locale;
  * {@code .vcd} vcd, {@code .bin .raw .dat} raw), then by content (a file starting with a VCD
  * {@code $} keyword is vcd; a file with a {@code FILE.json} sidecar beside it is raw; text of
  * numbers and separators is csv). A raw file whose sidecar declares a packed logic format
- * ({@code logic8}, {@code logic16le}, {@code logic16be}) is packed-logic.
+ * ({@code logic8}, {@code logic16le}, {@code logic16be}) is packed-logic; a {@code .json} file of
+ * format {@code lanesift-capture-set/1} is a capture set.
  */
 public final class Captures {
     private Captures() {
@@ -22,7 +23,7 @@ public final class Captures {
      * The plugin id that reads a file.
      *
      * @param file the capture
-     * @return "csv", "vcd", "raw" or "packed-logic"
+     * @return "csv", "vcd", "raw", "packed-logic" or "capture-set"
      * @throws CaptureFormatException when the file is missing or its kind cannot be told, naming the known extensions
      */
     public static String pluginFor(Path file) {
@@ -35,6 +36,9 @@ public final class Captures {
         }
         if (name.endsWith(".vcd")) {
             return "vcd";
+        }
+        if (name.endsWith(".json") && CaptureSetFile.declaresSet(file)) {
+            return "capture-set";
         }
         if (name.endsWith(".bin") || name.endsWith(".raw") || name.endsWith(".dat") || Files.exists(Path.of(file + ".json"))) {
             return PackedLogicSidecar.declaresPacked(Path.of(file + ".json")) ? "packed-logic" : "raw";
@@ -74,7 +78,7 @@ public final class Captures {
     /**
      * The descriptor of a capture reader plugin.
      *
-     * @param plugin "csv", "vcd", "raw" or "packed-logic"
+     * @param plugin "csv", "vcd", "raw", "packed-logic" or "capture-set"
      * @return its descriptor
      */
     static org.lanesift.plugin.PluginDescriptor descriptor(String plugin) {
@@ -82,6 +86,7 @@ public final class Captures {
             case "csv" -> CsvSource.DESCRIPTOR;
             case "vcd" -> VcdSource.DESCRIPTOR;
             case "packed-logic" -> PackedLogicSource.DESCRIPTOR;
+            case "capture-set" -> CaptureSetSource.DESCRIPTOR;
             default -> RawSource.DESCRIPTOR;
         };
     }
@@ -99,6 +104,7 @@ public final class Captures {
             case "csv" -> CsvSource.reader(ov);
             case "vcd" -> VcdSource.reader(ov, false);
             case "packed-logic" -> PackedLogicSource.reader(ov, false);
+            case "capture-set" -> new CaptureSetReader(CaptureSetFile.read(Path.of(ov.getString("file"))), false);
             default -> RawSource.reader(ov, false);
         };
     }

@@ -1,13 +1,10 @@
 package org.lanesift.runner.capture;
 
-import java.io.IOException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
-import org.lanesift.json.JsonParseException;
-import org.lanesift.json.JsonReader;
 import org.lanesift.json.JsonValue;
 
 /**
@@ -72,13 +69,8 @@ final class PackedLogicSidecar {
      * a sidecar that cannot be read, which the reader of that format then reports).
      */
     static boolean declaresPacked(Path sidecar) {
-        try {
-            JsonValue root = JsonReader.read(sidecar, String.valueOf(sidecar.getFileName()));
-            JsonValue f = root.isObject() ? root.get("format") : null;
-            return f != null && f.isString() && Word.of(f.asString()) != null;
-        } catch (IOException | JsonParseException e) {
-            return false;
-        }
+        String f = CaptureJson.formatOf(sidecar);
+        return f != null && Word.of(f) != null;
     }
 
     static PackedLogicSidecar read(Path sidecar) {
