@@ -58,10 +58,7 @@ public final class CaptureSetSource implements PluginProvider {
     }
 
     private static List<PortSpec> ports(OptionValues o) {
-        try (CaptureSetReader r = new CaptureSetReader(CaptureSetFile.read(Path.of(o.getString("file"))), true)) {
-            return r.ports();
-        } catch (IOException e) {
-            throw new CaptureFormatException(Path.of(o.getString("file")), 0, "cannot read: " + e.getMessage(), e);
-        }
+        Path file = Path.of(o.getString("file"));
+        return ReaderStage.portsOf(file, () -> new CaptureSetReader(CaptureSetFile.read(file), true));
     }
 }

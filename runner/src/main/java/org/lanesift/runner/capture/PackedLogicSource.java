@@ -50,10 +50,6 @@ public final class PackedLogicSource implements PluginProvider {
     }
 
     private static List<PortSpec> ports(OptionValues o) {
-        try (PackedLogicReader r = reader(o, true)) {
-            return r.ports();
-        } catch (IOException e) {
-            throw new CaptureFormatException(Path.of(o.getString("file")), 0, "cannot read: " + e.getMessage(), e);
-        }
+        return ReaderStage.portsOf(Path.of(o.getString("file")), () -> reader(o, true));
     }
 }
