@@ -39,16 +39,17 @@ public final class PlanTool implements Tool {
             .option(OptionSpec.integer("lanes", 3L, 1, 16, "data lanes"), "N")
             .option(OptionSpec.integer("frames", 1L, 1, 1000, "complete frames wanted"), "N")
             .option(OptionSpec.number("frame-rate", "Hz", 60.0, 0.01, 1e6, "frames per second of the picture"), "HZ")
-            .option(OptionSpec.number("rise-time", "s", 0.0, 0.0, 1e-3, "rise time (20-80 %) to plan for; 0 = the"
-                    + " fastest the link's standard allows"), "SECONDS")
+            .option(OptionSpec.number("rise-time", "s", 0.0, 0.0, 1e-3, "rise time (20 to 80 percent) to plan for;"
+                    + " 0 = the fastest the link's standard allows"), "SECONDS")
             .option(OptionSpec.text("capture", "", "a capture to check against the plan"), "FILE")
             .flag("json", "print the plan (and the checks) as JSON")
-            .footer("Exit codes: 0 planned (and the capture meets every rule it needs); 3 the capture fails a rule;",
-                    "2 bad input; 1 internal error.",
+            .footer("Exit codes: 0 planned (and the capture meets every rule it needs);",
+                    "3 the capture fails a rule; 2 bad input; 1 internal error.",
                     "",
-                    "Safety: a scope's ground lead is earthed: never clip it to a mains-referenced circuit; a",
-                    "50-ohm input has a voltage and power limit (check the instrument's rating); display flex cables",
-                    "need ESD precautions. Follow local codes and licensed practice (README, Safety).")
+                    "Safety: a scope's ground lead is earthed: never clip it to a",
+                    "mains-referenced circuit; a 50-ohm input has a voltage and power",
+                    "limit (check the instrument's rating); display flex cables need ESD",
+                    "precautions. Follow local codes and licensed practice (README, Safety).")
             .build();
 
     /** Creates the tool (ServiceLoader). */
