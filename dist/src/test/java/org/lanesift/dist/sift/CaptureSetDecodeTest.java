@@ -22,7 +22,8 @@ import org.lanesift.kit.FramePictures;
  * instrument would, in three acquisitions (the clock and the lane with the sync bits; that lane and
  * lane 0; that lane and lane 1), each triggered at another frame with its own trigger offset,
  * sample phase, probe skews and timing noise. The capture set (docs/capture-set.md) aligns them on
- * the shared lane to a fraction of a sample and decodes pixel-exact. Content that does not repeat,
+ * the shared lane to a fraction of a sample and decodes pixel-exact, from logic acquisitions and from a
+ * scope's analog P legs alike. Content that does not repeat,
  * a shared channel that repeats every clock, acquisitions at another rate and an acquisition
  * without the shared channel are refused with exit 2 and one line naming the acquisition.
  */
@@ -115,6 +116,41 @@ class CaptureSetDecodeTest {
         }
         assertEquals(List.of("sample rate to decode: meets", "sample rate to measure edges and eyes: not_judged", "record length: meets",
                 "channels: meets", "clock: meets"), verdicts);
+    }
+
+    /** The same three acquisitions taken by a two-channel scope on the P legs: analog, 2.5 GS/s, float32. */
+    @Test
+    void threeTwoChannelScopeAcquisitionsOfPLegsDecodePixelExact(@TempDir Path dir) throws IOException {
+        LogicLink link = new LogicLink(4409);
+        double rate = 2.5e9;
+        int n = (int) (3.4 * LogicLink.FRAME_S * rate);
+        List<Acq> acqs = acquisitions();
+        for (int i = 0; i < acqs.size(); i++) {
+            Acq a = acqs.get(i);
+            Random rnd = new Random(200 + i);
+            java.nio.ByteBuffer bb = java.nio.ByteBuffer.allocate(8 * n).order(java.nio.ByteOrder.LITTLE_ENDIAN);
+            float[] c0 = link.leg(a.lanes()[0], a.startS(), rate, n, a.delayS()[0], 0.5e-9, 0.005, rnd);
+            float[] c1 = link.leg(a.lanes()[1], a.startS(), rate, n, a.delayS()[1], 0.5e-9, 0.005, rnd);
+            for (int k = 0; k < n; k++) {
+                bb.putFloat(c0[k]).putFloat(c1[k]);
+            }
+            Files.write(dir.resolve(a.name() + ".bin"), bb.array());
+            Files.writeString(dir.resolve(a.name() + ".bin.json"), "{\"rateHz\": 2.5e9, \"format\": \"float32le\", \"channels\": ["
+                    + "{\"name\": \"" + a.names()[0] + "\"}, {\"name\": \"" + a.names()[1] + "\"}]}");
+        }
+        Path set = setFile(dir, "RX2", "a1", "a2", "a3");
+        // recipe 3 of docs/fewer-channels.md with analog acquisitions: one differential in mode single per channel
+        String chain = FewerChannelsTest.chainOf("## 1. Four channels")
+                .replace("{\"id\": \"cap\", \"plugin\": \"csv\", \"options\": {\"file\": \"p-legs.csv\"}}",
+                        "{\"id\": \"cap\", \"plugin\": \"capture-set\", \"options\": {\"file\": \"" + set.getFileName() + "\"}}")
+                .replace("_P\"", "\"");
+        Files.writeString(dir.resolve("chain.json"), chain);
+        Path out = dir.resolve("out");
+        SiftTest.Run r = SiftTest.lanesift("run", dir.resolve("chain.json").toString(), "--out", out.toString(), "--quiet");
+        assertEquals(0, r.code(), r.err() + chain);
+        for (int fr = 1; fr <= 2; fr++) {
+            SiftTest.assertFrameExact(out.resolve(FramePictures.fileName("panel", fr, false)), link.gen.frames.get(0));
+        }
     }
 
     @Test

@@ -56,4 +56,23 @@ final class LogicLink {
         }
         return b;
     }
+
+    /**
+     * One lane as a scope channel on its P leg sees it: 1.25 V +/- 175 mV (inside the LVDS offset and
+     * swing ranges, docs/reference-facts.md#lvds-electrical-levels), each transition a linear ramp of
+     * {@code riseS}, Gaussian voltage noise.
+     */
+    float[] leg(int lane, double startS, double rateHz, int n, double delayS, double riseS, double noiseVolts, Random rnd) {
+        float[] out = new float[n];
+        for (int i = 0; i < n; i++) {
+            double t = startS + i / rateHz - delayS;
+            long slot = (long) Math.floor(t / UI_S);
+            double into = t - slot * UI_S;
+            int now = bits[lane][(int) Math.floorMod(slot, (long) FRAME_SLOTS)];
+            int before = bits[lane][(int) Math.floorMod(slot - 1, (long) FRAME_SLOTS)];
+            double level = into < riseS ? before + (now - before) * into / riseS : now;
+            out[i] = (float) (1.25 + 0.35 * (level - 0.5) + noiseVolts * rnd.nextGaussian());
+        }
+        return out;
+    }
 }
