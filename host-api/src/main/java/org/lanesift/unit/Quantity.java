@@ -192,4 +192,35 @@ public final class Quantity {
         }
         return i;
     }
+
+    /**
+     * Writes a value with the SI prefix (femto to tera) that puts its magnitude in [1, 1000), to
+     * four significant digits: {@code format(5.714e-9, "s")} is {@code "5.714 ns"},
+     * {@code format(3.5e8, "Hz")} is {@code "350.0 MHz"}. Zero, values outside the prefixes' range
+     * and non-finite values are written without a prefix.
+     *
+     * @param value the value in {@code unit}
+     * @param unit  the unit symbol without prefix, such as {@code "s"} or {@code "Hz"}
+     * @return the text
+     */
+    public static String format(double value, String unit) {
+        double a = Math.abs(value);
+        int exp = 0;
+        if (a > 0 && Double.isFinite(a)) {
+            exp = (int) Math.floor(Math.log10(a) / 3) * 3;
+            // rounding to four digits may carry into the next prefix (999.96 -> 1000)
+            if (Math.abs(Double.parseDouble(String.format(java.util.Locale.ROOT, "%.4g", value / Math.pow(10, exp)))) >= 1000) {
+                exp += 3;
+            }
+            exp = Math.max(-15, Math.min(12, exp));
+        }
+        String prefix = "";
+        for (int k = 0; k < PREFIXES.length; k++) {
+            if (EXPONENTS[k] == exp && exp != -2) {
+                prefix = PREFIXES[k];
+                break;
+            }
+        }
+        return String.format(java.util.Locale.ROOT, "%.4g", value / Math.pow(10, exp)) + " " + prefix + unit;
+    }
 }

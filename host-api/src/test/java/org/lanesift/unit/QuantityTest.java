@@ -13,6 +13,21 @@ import org.lanesift.time.TimeValue;
 /** Values with units and SI prefixes. Source: SI Brochure, 9th edition (BIPM 2019), table 7 (prefixes), from memory. */
 class QuantityTest {
     @Test
+    void formatChoosesThePrefixThatPutsTheValueBetweenOneAndAThousand() {
+        assertEquals("5.714 ns", Quantity.format(40e-9 / 7, "s"));
+        assertEquals("350.0 MHz", Quantity.format(3.5e8, "Hz"));
+        assertEquals("1.000 GS/s", Quantity.format(999.99e6, "S/s"));
+        assertEquals("-120.0 ps", Quantity.format(-120e-12, "s"));
+        assertEquals("0.000 V", Quantity.format(0, "V"));
+        assertEquals("12.00 us", Quantity.format(12e-6, "s"));
+        // what it writes, the parser reads back (to the four digits written)
+        for (double v : new double[] {3.3e-15, 2.5e9, 7.1e-10, 47.0, 0.12}) {
+            String t = Quantity.format(v, "s").replace(" ", "");
+            assertEquals(v, Quantity.parse(t, "s"), Math.abs(v) * 1e-3, t);
+        }
+    }
+
+    @Test
     void prefixesAndUnitsScaleToTheDeclaredUnit() {
         assertEquals(0.1, Quantity.parse("10cm", "m"));
         assertEquals(0.1, Quantity.parse("100mm", "m"));

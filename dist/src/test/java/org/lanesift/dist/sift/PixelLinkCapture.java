@@ -40,13 +40,25 @@ final class PixelLinkCapture {
     final List<int[]> frames = new ArrayList<>();
 
     void write(Path file, String[] legNames, long seed) throws IOException {
+        int[][] bits = slotBits(seed, false);
+        int slots = bits[0].length;
+        double slotS = 1 / PIXEL_CLOCK_HZ / 7;
+        int samples = (int) (slots * slotS * RATE_HZ) - 8;
+        writeLegs(file, legNames, seed, bits, slots, slotS, samples);
+    }
+
+    /**
+     * The link's bits, one per slot: clock, then lanes 0 to 2; fills {@link #frames} with four
+     * frames of random colours, or with one random picture four times when {@code repeatPicture}.
+     */
+    int[][] slotBits(long seed, boolean repeatPicture) {
         Random colours = new Random(seed);
         for (int f = 0; f < 4; f++) {
             int[] px = new int[H_ACTIVE * V_ACTIVE];
             for (int i = 0; i < px.length; i++) {
                 px[i] = colours.nextInt(1 << 18);
             }
-            frames.add(px);
+            frames.add(repeatPicture && f > 0 ? frames.get(0) : px);
         }
         int slots = CLOCKS * 7;
         int[][] bits = new int[4][slots];
@@ -73,8 +85,10 @@ final class PixelLinkCapture {
                 bits[3][c * 7 + s] = l2[s];
             }
         }
-        double slotS = 1 / PIXEL_CLOCK_HZ / 7;
-        int samples = (int) (slots * slotS * RATE_HZ) - 8;
+        return bits;
+    }
+
+    private void writeLegs(Path file, String[] legNames, long seed, int[][] bits, int slots, double slotS, int samples) throws IOException {
         LegWaves waves = new LegWaves(RATE_HZ, samples, 90e-12, seed + 1);
         float[][] volts = new float[8][];
         for (int p = 0; p < 4; p++) {

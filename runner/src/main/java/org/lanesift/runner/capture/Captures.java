@@ -11,7 +11,9 @@ import java.util.Locale;
  * Chooses the source plugin for a capture file: by extension first ({@code .csv .tsv .txt} csv,
  * {@code .vcd} vcd, {@code .bin .raw .dat} raw), then by content (a file starting with a VCD
  * {@code $} keyword is vcd; a file with a {@code FILE.json} sidecar beside it is raw; text of
- * numbers and separators is csv).
+ * numbers and separators is csv). A raw file whose sidecar declares a packed logic format
+ * ({@code logic8}, {@code logic16le}, {@code logic16be}) is packed-logic; a {@code .json} file of
+ * format {@code lanesift-capture-set/1} is a capture set.
  */
 public final class Captures {
     private Captures() {
@@ -21,7 +23,7 @@ public final class Captures {
      * The plugin id that reads a file.
      *
      * @param file the capture
-     * @return "csv", "vcd" or "raw"
+     * @return "csv", "vcd", "raw", "packed-logic" or "capture-set"
      * @throws CaptureFormatException when the file is missing or its kind cannot be told, naming the known extensions
      */
     public static String pluginFor(Path file) {
@@ -35,11 +37,11 @@ public final class Captures {
         if (name.endsWith(".vcd")) {
             return "vcd";
         }
-        if (name.endsWith(".bin") || name.endsWith(".raw") || name.endsWith(".dat")) {
-            return "raw";
+        if (name.endsWith(".json") && CaptureSetFile.declaresSet(file)) {
+            return "capture-set";
         }
-        if (Files.exists(Path.of(file + ".json"))) {
-            return "raw";
+        if (name.endsWith(".bin") || name.endsWith(".raw") || name.endsWith(".dat") || Files.exists(Path.of(file + ".json"))) {
+            return PackedLogicSidecar.declaresPacked(Path.of(file + ".json")) ? "packed-logic" : "raw";
         }
         byte[] head;
         CaptureFormatException.requireRegular(file);
@@ -72,5 +74,39 @@ public final class Captures {
         }
         throw new CaptureFormatException(file, 0, "cannot tell the capture format; known extensions: .csv .tsv .txt (csv),"
                 + " .vcd (vcd), .bin .raw .dat (raw binary with a FILE.json sidecar)");
+    }
+
+    /**
+     * The descriptor of a capture reader plugin.
+     *
+     * @param plugin "csv", "vcd", "raw", "packed-logic" or "capture-set"
+     * @return its descriptor
+     */
+    static org.lanesift.plugin.PluginDescriptor descriptor(String plugin) {
+        return switch (plugin) {
+            case "csv" -> CsvSource.DESCRIPTOR;
+            case "vcd" -> VcdSource.DESCRIPTOR;
+            case "packed-logic" -> PackedLogicSource.DESCRIPTOR;
+            case "capture-set" -> CaptureSetSource.DESCRIPTOR;
+            default -> RawSource.DESCRIPTOR;
+        };
+    }
+
+    /**
+     * Opens the reader of a capture reader plugin with validated options.
+     *
+     * @param plugin as from {@link #pluginFor}
+     * @param ov     options validated against {@link #descriptor}
+     * @return the reader, positioned at the start
+     * @throws IOException if the file cannot be read
+     */
+    static CaptureReader open(String plugin, org.lanesift.plugin.OptionValues ov) throws IOException {
+        return switch (plugin) {
+            case "csv" -> CsvSource.reader(ov);
+            case "vcd" -> VcdSource.reader(ov, false);
+            case "packed-logic" -> PackedLogicSource.reader(ov, false);
+            case "capture-set" -> new CaptureSetReader(CaptureSetFile.read(Path.of(ov.getString("file"))), false);
+            default -> RawSource.reader(ov, false);
+        };
     }
 }

@@ -12,7 +12,7 @@ import org.lanesift.time.Femtos;
  * ({@code "schema": "lanesift-inspect/1"}).
  *
  * @param file     the file as given
- * @param format   reader plugin id: csv, vcd or raw
+ * @param format   reader plugin id: csv, vcd, raw or packed-logic
  * @param channels one entry per channel, in port order
  * @param pairs    guessed differential pairs, strongest anti-correlation first
  * @param clocks   channels whose rising edges come at a regular period
@@ -33,17 +33,17 @@ public record InspectReport(String file, String format, List<Channel> channels, 
      * One channel's summary; a null component does not apply to the channel's kind.
      *
      * @param name           port name
-     * @param kind           ANALOG, EDGES or WORDS
+     * @param kind           ANALOG, LOGIC, EDGES or WORDS
      * @param unit           unit of the analog values ("V" for volts), null otherwise
-     * @param samples        analog samples
+     * @param samples        analog or logic samples
      * @param invalidSamples analog samples marked invalid (missing, clipped)
      * @param words          words (vector value changes)
      * @param suspectWords   words with x or z bits
      * @param widthBits      vector width
-     * @param edges          transitions: counted for EDGES, found at the automatic threshold for ANALOG
+     * @param edges          transitions: counted for EDGES and LOGIC, found at the automatic threshold for ANALOG
      * @param unknownS       seconds during which an EDGES channel was unknown (x, z, dump off)
      * @param durationS      seconds covered
-     * @param sampleRateHz   analog sample rate
+     * @param sampleRateHz   analog or logic sample rate
      * @param min            smallest valid analog value
      * @param max            largest valid analog value
      * @param lowLevel       lower level (the shared two-level finder)

@@ -13,6 +13,8 @@ import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.Block;
 import org.lanesift.data.DataKind;
 import org.lanesift.data.Edges;
+import org.lanesift.data.LogicBlock;
+import org.lanesift.data.LogicEdges;
 import org.lanesift.data.WordStream;
 import org.lanesift.plugin.OptionValues;
 import org.lanesift.plugin.PluginDescriptor;
@@ -65,11 +67,7 @@ public final class Inspector {
      */
     public static InspectReport inspect(Path file, Map<String, String> options) {
         String plugin = Captures.pluginFor(file);
-        PluginDescriptor d = switch (plugin) {
-            case "csv" -> CsvSource.DESCRIPTOR;
-            case "vcd" -> VcdSource.DESCRIPTOR;
-            default -> RawSource.DESCRIPTOR;
-        };
+        PluginDescriptor d = Captures.descriptor(plugin);
         Map<String, Object> raw = new LinkedHashMap<>();
         if (options != null) {
             raw.putAll(options);
@@ -84,11 +82,7 @@ public final class Inspector {
     }
 
     private static CaptureReader open(String plugin, OptionValues ov) throws IOException {
-        return switch (plugin) {
-            case "csv" -> CsvSource.reader(ov);
-            case "vcd" -> VcdSource.reader(ov, false);
-            default -> RawSource.reader(ov, false);
-        };
+        return Captures.open(plugin, ov);
     }
 
     /** Per-channel accumulators. */
@@ -130,6 +124,16 @@ public final class Inspector {
         long words = -1;
         long suspectWords;
         int widthBits;
+
+        /** The converter of a LOGIC channel's samples to edges, made on its first block. */
+        private LogicEdges logicEdges;
+
+        LogicEdges logicEdges() {
+            if (logicEdges == null) {
+                logicEdges = new LogicEdges();
+            }
+            return logicEdges;
+        }
 
         Acc(String name, DataKind kind, String unit) {
             this.name = name;
@@ -192,6 +196,10 @@ public final class Inspector {
                     }
                 } else if (b instanceof Edges e) {
                     edgePass(a, e);
+                } else if (b instanceof LogicBlock lb) {
+                    a.periodFs = lb.periodFs();
+                    a.samples += lb.length();
+                    edgePass(a, a.logicEdges().toEdges(lb));
                 } else if (b instanceof WordStream w) {
                     a.words = Math.max(0, a.words) + w.count();
                     a.widthBits = w.widthBits();
@@ -482,15 +490,16 @@ public final class Inspector {
                 cv = a.ivCount >= 2 ? Math.sqrt(a.ivM2 / (a.ivCount - 1)) / a.ivMean : null;
             }
             boolean analogKind = a.kind == DataKind.ANALOG;
+            boolean logicKind = a.kind == DataKind.LOGIC;
             boolean valid = analogKind && a.samples > a.invalid;
             Double th = valid ? (a.low + a.high) / 2 : null;
             InspectReport.Channel c = new InspectReport.Channel(a.name, a.kind.name(), analogKind ? a.unit : null,
-                    analogKind ? a.samples : null, analogKind ? a.invalid : null,
+                    analogKind || logicKind ? a.samples : null, analogKind ? a.invalid : null,
                     a.kind == DataKind.WORDS ? Long.valueOf(Math.max(0, a.words)) : null,
                     a.kind == DataKind.WORDS ? a.suspectWords : null, a.kind == DataKind.WORDS ? a.widthBits : null,
                     a.edges >= 0 ? Long.valueOf(a.edges) : a.kind == DataKind.EDGES ? Long.valueOf(0) : null,
                     a.kind == DataKind.EDGES ? a.unknownFs / 1e15 : null,
-                    dur, analogKind && !Double.isNaN(a.periodFs) ? 1e15 / a.periodFs : null,
+                    dur, (analogKind || logicKind) && !Double.isNaN(a.periodFs) ? 1e15 / a.periodFs : null,
                     valid ? a.min : null, valid ? a.max : null, valid ? a.low : null, valid ? a.high : null,
                     th, valid ? HYSTERESIS * (a.high - a.low) : null, freq, cv);
             chans.add(c);

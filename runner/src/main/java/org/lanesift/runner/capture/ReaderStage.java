@@ -1,6 +1,9 @@
 package org.lanesift.runner.capture;
 
 import java.io.IOException;
+import java.nio.file.Path;
+import java.util.List;
+import org.lanesift.plugin.PortSpec;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
 
@@ -31,6 +34,27 @@ final class ReaderStage implements Stage {
             reader.close();
         } catch (IOException ignored) {
             // nothing useful to do on close
+        }
+    }
+
+    /** Opens a reader of a capture's header (or the whole capture where the header does not say enough). */
+    @FunctionalInterface
+    interface Opener {
+        CaptureReader open() throws IOException;
+    }
+
+    /**
+     * The ports of a capture, for a source descriptor's outputs: the reader is opened, asked and closed.
+     *
+     * @param file   the capture, named in the error when it cannot be read
+     * @param opener opens the reader
+     * @return its ports
+     */
+    static List<PortSpec> portsOf(Path file, Opener opener) {
+        try (CaptureReader r = opener.open()) {
+            return r.ports();
+        } catch (IOException e) {
+            throw new CaptureFormatException(file, 0, "cannot read: " + e.getMessage(), e);
         }
     }
 }

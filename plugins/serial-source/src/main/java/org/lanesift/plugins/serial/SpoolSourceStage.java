@@ -9,6 +9,7 @@ import java.util.Properties;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.LogicBlock;
+import org.lanesift.kit.PackedLogic;
 import org.lanesift.plugin.StageContext;
 
 /** The running {@code spool} source. */
@@ -87,7 +88,7 @@ final class SpoolSourceStage implements org.lanesift.plugin.Stage {
 
     private void emit(long firstIndex, byte[] b, int n) {
         long[][] out = new long[channels][(n + 63) >>> 6];
-        Logic8.split(b, n, channels, out);
+        PackedLogic.split(b, n, out);
         long startFs = Math.round(firstIndex * periodFs);
         for (int c = 0; c < channels; c++) {
             if (ctx.isConnected(c)) {
