@@ -9,6 +9,7 @@ import java.util.Map;
 import org.lanesift.kit.DitheredStride;
 import org.lanesift.kit.TwoLevelFinder;
 import org.lanesift.kit.TwoLevels;
+import org.lanesift.capture.Captures;
 import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.Block;
 import org.lanesift.data.DataKind;

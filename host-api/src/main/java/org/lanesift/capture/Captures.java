@@ -1,4 +1,4 @@
-package org.lanesift.runner.capture;
+package org.lanesift.capture;
 
 import java.io.IOException;
 import java.io.InputStream;
@@ -6,6 +6,8 @@ import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.Locale;
+import org.lanesift.plugin.InputFiles;
+import org.lanesift.plugin.InputFormatException;
 
 /**
  * Chooses the source plugin for a capture file: by extension first ({@code .csv .tsv .txt} csv,
@@ -22,12 +24,12 @@ public final class Captures {
      *
      * @param file the capture
      * @return "csv", "vcd" or "raw"
-     * @throws CaptureFormatException when the file is missing or its kind cannot be told, naming the known extensions
+     * @throws InputFormatException when the file is missing or its kind cannot be told, naming the known extensions
      */
     public static String pluginFor(Path file) {
         String name = String.valueOf(file.getFileName()).toLowerCase(Locale.ROOT);
         if (!Files.exists(file)) {
-            throw new CaptureFormatException(file, 0, "file not found");
+            throw fault(file, "file not found");
         }
         if (name.endsWith(".csv") || name.endsWith(".tsv") || name.endsWith(".txt")) {
             return "csv";
@@ -42,13 +44,16 @@ public final class Captures {
             return "raw";
         }
         byte[] head;
-        CaptureFormatException.requireRegular(file);
+        String notRegular = InputFiles.whyNotRegular(file);
+        if (notRegular != null) {
+            throw fault(file, notRegular);
+        }
         try (InputStream in = Files.newInputStream(file)) {
             head = in.readNBytes(4096);
         } catch (NoSuchFileException e) {
-            throw new CaptureFormatException(file, 0, "file not found");
+            throw fault(file, "file not found");
         } catch (IOException e) {
-            throw new CaptureFormatException(file, 0, "cannot read: " + e.getMessage(), e);
+            throw new InputFormatException(name(file) + ": cannot read: " + e.getMessage(), e);
         }
         int i = 0;
         while (i < head.length && (head[i] == ' ' || head[i] == '\t' || head[i] == '\r' || head[i] == '\n')) {
@@ -70,7 +75,16 @@ public final class Captures {
         if (text && sep) {
             return "csv";
         }
-        throw new CaptureFormatException(file, 0, "cannot tell the capture format; known extensions: .csv .tsv .txt (csv),"
+        throw fault(file, "cannot tell the capture format; known extensions: .csv .tsv .txt (csv),"
                 + " .vcd (vcd), .bin .raw .dat (raw binary with a FILE.json sidecar)");
+    }
+
+    /** The same message a capture reader gives: the file name, then what is wrong. */
+    private static InputFormatException fault(Path file, String detail) {
+        return new InputFormatException(name(file) + ": " + detail);
+    }
+
+    private static String name(Path file) {
+        return String.valueOf(file.getFileName() == null ? file : file.getFileName());
     }
 }
