@@ -107,6 +107,12 @@ class ViewToolTest {
         assertEquals(2, r.code());
         assertTrue(r.err().contains("chain.json") && r.err().contains("/nodes"), r.err());
 
+        // the chain file goes through the same reader as 'lanesift run': a misspelt key is refused, not ignored
+        Path typo = Files.writeString(dir.resolve("typo.json"), "{\"nodes\": [{\"id\": \"cap\", \"plugin\": \"csv\"}], \"wire\": []}");
+        r = ToolHarness.of(new ViewTool()).option("chain", typo.toString()).option("snapshot", dir.resolve("t.png").toString()).run();
+        assertEquals(2, r.code());
+        assertTrue(r.err().contains("typo.json /wire: unknown key 'wire'; expected one of: description, nodes, wires"), r.err());
+
         Path notes = Files.createDirectories(dir.resolve("bad-run"));
         Files.writeString(notes.resolve("annotations.jsonl"), "{\"start_fs\":1,\"end_fs\":2}\n{oops\n");
         r = ToolHarness.of(new ViewTool()).option("folder", notes.toString()).option("snapshot", dir.resolve("z.png").toString()).run();
