@@ -3,7 +3,7 @@ package org.lanesift.runner;
 import java.nio.file.Path;
 import java.util.LinkedHashMap;
 import java.util.Map;
-import org.lanesift.runner.capture.Captures;
+import org.lanesift.capture.Captures;
 import org.lanesift.runner.capture.InspectReport;
 import org.lanesift.runner.capture.Inspector;
 

@@ -28,9 +28,9 @@ import org.lanesift.plugin.PluginDescriptor;
 import org.lanesift.plugin.PluginProvider;
 import org.lanesift.plugin.PluginRegistry;
 import org.lanesift.plugin.PortSpec;
-import org.lanesift.runner.chainfile.ChainFile;
-import org.lanesift.runner.chainfile.ChainFileException;
-import org.lanesift.runner.chainfile.ChainFileReader;
+import org.lanesift.chain.ChainFile;
+import org.lanesift.chain.ChainFileException;
+import org.lanesift.chain.ChainFileReader;
 import org.lanesift.runner.output.OutputFolder;
 import org.lanesift.runner.output.ReportWriter;
 import org.lanesift.runner.output.RunOutputs;
@@ -131,7 +131,7 @@ final class RunCommand implements Callable<Integer> {
                 throw new CliError("--set " + s + ": " + shown + " has no instance '" + name + "'; instances: "
                         + String.join(", ", index.keySet().stream().sorted().toList()));
             }
-            if (org.lanesift.runner.chainfile.ChainFileReader.isPathOption(option) && !value.isEmpty()) {
+            if (ChainFileReader.isPathOption(option) && !value.isEmpty()) {
                 String bad = ChainFileReader.badPath(value);
                 if (bad != null) {
                     throw new CliError("--set " + org.lanesift.plugin.Echo.of(s) + ": " + bad);

@@ -4,38 +4,19 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
-import java.util.Locale;
 import java.util.Map;
+import org.lanesift.capture.Captures;
 import org.lanesift.chain.ChainSpec;
 import org.lanesift.plugin.InputFormatException;
 
 /**
  * Ties a chain to the capture the user opened: a capture alone becomes a one-node chain with the
- * reader plugin its extension names; a chosen chain gets the capture as the {@code file} option of
- * its one source node (a node with a {@code file} option and no incoming wire).
+ * reader plugin that {@link Captures#pluginFor} chooses (by extension, then content); a chosen
+ * chain gets the capture as the {@code file} option of its one source node (a node with a
+ * {@code file} option and no incoming wire).
  */
 public final class Sources {
     private Sources() {
-    }
-
-    /**
-     * The reader plugin id for a capture file, by extension (docs/capture-*.md).
-     *
-     * @param capture the file
-     * @return {@code csv}, {@code vcd} or {@code raw}
-     * @throws InputFormatException for any other extension, naming the known ones
-     */
-    public static String readerFor(Path capture) {
-        String n = String.valueOf(capture.getFileName()).toLowerCase(Locale.ROOT);
-        int dot = n.lastIndexOf('.');
-        String ext = dot < 0 ? "" : n.substring(dot + 1);
-        return switch (ext) {
-            case "csv", "tsv", "txt" -> "csv";
-            case "vcd" -> "vcd";
-            case "bin", "raw", "dat" -> "raw";
-            default -> throw new InputFormatException(capture + ": cannot tell the capture format from the extension '"
-                    + ext + "'; expected .csv .tsv .txt, .vcd, or .bin .raw .dat (with a FILE.json sidecar)");
-        };
     }
 
     /**
@@ -43,9 +24,10 @@ public final class Sources {
      *
      * @param capture the file
      * @return a one-node chain with instance id {@code cap}
+     * @throws InputFormatException when the file is missing or its kind cannot be told
      */
     public static ChainSpec captureOnly(Path capture) {
-        return new ChainSpec(List.of(new ChainSpec.Node("cap", readerFor(capture),
+        return new ChainSpec(List.of(new ChainSpec.Node("cap", Captures.pluginFor(capture),
                 Map.of("file", capture.toAbsolutePath().toString()))), List.of());
     }
 
@@ -73,7 +55,7 @@ public final class Sources {
         List<ChainSpec.Node> nodes = new ArrayList<>();
         for (ChainSpec.Node n : spec.nodes()) {
             if (n.id().equals(id)) {
-                String reader = readerFor(capture);
+                String reader = Captures.pluginFor(capture);
                 // another reader's options (such as a CSV separator) mean nothing to this one
                 Map<String, Object> o = reader.equals(n.plugin()) ? new LinkedHashMap<>(n.options()) : new LinkedHashMap<>();
                 o.put("file", capture.toAbsolutePath().toString());

@@ -15,6 +15,7 @@ import javax.imageio.ImageIO;
 import javax.swing.JFrame;
 import javax.swing.SwingUtilities;
 import javax.swing.WindowConstants;
+import org.lanesift.chain.ChainFileReader;
 import org.lanesift.chain.ChainSpec;
 import org.lanesift.plugin.DeviceFailure;
 import org.lanesift.plugin.OptionException;
@@ -114,7 +115,7 @@ public final class ViewTool implements Tool {
         if (chain == null) {
             return Sources.captureOnly(capture);
         }
-        ChainSpec s = ChainText.read(chain);
+        ChainSpec s = new ChainFileReader().read(chain, chain.toString()).spec();
         return capture == null ? s : Sources.withCapture(s, capture);
     }
 

@@ -15,6 +15,7 @@ import javax.swing.JScrollPane;
 import javax.swing.JSplitPane;
 import javax.swing.JTabbedPane;
 import javax.swing.SwingUtilities;
+import org.lanesift.chain.ChainFileReader;
 import org.lanesift.chain.ChainSpec;
 import org.lanesift.plugin.InputException;
 import org.lanesift.plugin.PluginRegistry;
@@ -131,7 +132,7 @@ public final class ViewerScreen extends JPanel {
      * @throws InputException when it cannot be read
      */
     public void openChain(Path file) {
-        ChainSpec spec = ChainText.read(file);
+        ChainSpec spec = new ChainFileReader().read(file, file.toString()).spec();
         if (capture != null) {
             spec = Sources.withCapture(spec, capture);
         }

@@ -95,16 +95,23 @@ class ViewToolTest {
 
     @Test
     void badInputIsExitTwoWithTheFileNamed() throws IOException {
-        Path odd = Files.writeString(dir.resolve("capture.xyz"), "1,2\n");
+        // neither the extension nor the content (binary, no sidecar) tells the capture kind
+        Path odd = Files.write(dir.resolve("capture.xyz"), new byte[] {0, 1, 2, 3});
         ToolHarness.Result r = ToolHarness.of(new ViewTool()).option("capture", odd.toString())
                 .option("snapshot", dir.resolve("x.png").toString()).run();
         assertEquals(2, r.code());
-        assertTrue(r.err().contains("capture.xyz") && r.err().contains("expected .csv"), r.err());
+        assertTrue(r.err().contains("capture.xyz") && r.err().contains("known extensions: .csv"), r.err());
 
         Path chain = Files.writeString(dir.resolve("chain.json"), "{\"nodes\": 3}");
         r = ToolHarness.of(new ViewTool()).option("chain", chain.toString()).option("snapshot", dir.resolve("y.png").toString()).run();
         assertEquals(2, r.code());
         assertTrue(r.err().contains("chain.json") && r.err().contains("/nodes"), r.err());
+
+        // the chain file goes through the same reader as 'lanesift run': a misspelt key is refused, not ignored
+        Path typo = Files.writeString(dir.resolve("typo.json"), "{\"nodes\": [{\"id\": \"cap\", \"plugin\": \"csv\"}], \"wire\": []}");
+        r = ToolHarness.of(new ViewTool()).option("chain", typo.toString()).option("snapshot", dir.resolve("t.png").toString()).run();
+        assertEquals(2, r.code());
+        assertTrue(r.err().contains("typo.json /wire: unknown key 'wire'; expected one of: description, nodes, wires"), r.err());
 
         Path notes = Files.createDirectories(dir.resolve("bad-run"));
         Files.writeString(notes.resolve("annotations.jsonl"), "{\"start_fs\":1,\"end_fs\":2}\n{oops\n");

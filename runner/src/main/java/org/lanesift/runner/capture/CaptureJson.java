@@ -27,20 +27,4 @@ final class CaptureJson {
             throw new CaptureFormatException(file, 0, "cannot read: " + e.getMessage(), e);
         }
     }
-
-    /**
-     * The {@code format} member of a JSON file, for telling capture files apart.
-     *
-     * @param file a file
-     * @return the member's text, or null when the file is missing, is not a JSON object or has no text format
-     */
-    static String formatOf(Path file) {
-        try {
-            JsonValue root = JsonReader.read(file, String.valueOf(file.getFileName()));
-            JsonValue f = root.isObject() ? root.get("format") : null;
-            return f != null && f.isString() ? f.asString() : null;
-        } catch (IOException | JsonParseException e) {
-            return null;
-        }
-    }
 }

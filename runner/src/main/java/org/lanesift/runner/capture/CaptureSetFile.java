@@ -5,6 +5,7 @@ import java.util.ArrayList;
 import java.util.HashSet;
 import java.util.List;
 import java.util.Set;
+import org.lanesift.capture.Captures;
 import org.lanesift.json.JsonValue;
 
 /**
@@ -13,7 +14,7 @@ import org.lanesift.json.JsonValue;
  * the acquisitions are relative to the set file.
  */
 final class CaptureSetFile {
-    static final String FORMAT = "lanesift-capture-set/1";
+    static final String FORMAT = Captures.SET_FORMAT;
     static final int MAX_ACQUISITIONS = 64;
     private static final Set<String> TOP = Set.of("format", "shared", "acquisitions", "searchS");
     private static final Set<String> ACQ = Set.of("name", "file");
@@ -42,7 +43,7 @@ final class CaptureSetFile {
 
     /** Whether a JSON file declares this format; false for anything else, readable or not. */
     static boolean declaresSet(Path file) {
-        return FORMAT.equals(CaptureJson.formatOf(file));
+        return FORMAT.equals(Captures.declaredFormat(file));
     }
 
     static CaptureSetFile read(Path file) {

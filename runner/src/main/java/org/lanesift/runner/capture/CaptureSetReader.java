@@ -6,6 +6,7 @@ import java.util.HashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import org.lanesift.capture.Captures;
 import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.Block;
 import org.lanesift.data.Edges;
@@ -107,7 +108,7 @@ final class CaptureSetReader implements CaptureReader {
         String plugin = Captures.pluginFor(acq.file());
         Map<String, Object> raw = new HashMap<>();
         raw.put("file", acq.file().toString());
-        return Captures.open(plugin, OptionValues.validate(Captures.descriptor(plugin), raw));
+        return CaptureReaders.open(plugin, OptionValues.validate(CaptureReaders.descriptor(plugin), raw));
     }
 
     /** Reads every acquisition's shared channel and places each on the reference. */

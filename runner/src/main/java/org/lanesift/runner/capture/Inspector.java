@@ -9,6 +9,7 @@ import java.util.Map;
 import org.lanesift.kit.DitheredStride;
 import org.lanesift.kit.TwoLevelFinder;
 import org.lanesift.kit.TwoLevels;
+import org.lanesift.capture.Captures;
 import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.Block;
 import org.lanesift.data.DataKind;
@@ -67,7 +68,7 @@ public final class Inspector {
      */
     public static InspectReport inspect(Path file, Map<String, String> options) {
         String plugin = Captures.pluginFor(file);
-        PluginDescriptor d = Captures.descriptor(plugin);
+        PluginDescriptor d = CaptureReaders.descriptor(plugin);
         Map<String, Object> raw = new LinkedHashMap<>();
         if (options != null) {
             raw.putAll(options);
@@ -82,7 +83,7 @@ public final class Inspector {
     }
 
     private static CaptureReader open(String plugin, OptionValues ov) throws IOException {
-        return Captures.open(plugin, ov);
+        return CaptureReaders.open(plugin, ov);
     }
 
     /** Per-channel accumulators. */

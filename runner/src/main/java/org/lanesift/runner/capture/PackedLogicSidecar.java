@@ -5,6 +5,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
+import org.lanesift.capture.Captures;
 import org.lanesift.json.JsonValue;
 
 /**
@@ -69,7 +70,7 @@ final class PackedLogicSidecar {
      * a sidecar that cannot be read, which the reader of that format then reports).
      */
     static boolean declaresPacked(Path sidecar) {
-        String f = CaptureJson.formatOf(sidecar);
+        String f = Captures.declaredFormat(sidecar);
         return f != null && Word.of(f) != null;
     }
 

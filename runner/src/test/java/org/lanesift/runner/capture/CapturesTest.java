@@ -10,6 +10,8 @@ import java.util.Set;
 import java.util.TreeSet;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.lanesift.capture.Captures;
+import org.lanesift.plugin.InputFormatException;
 import org.lanesift.plugin.PluginProvider;
 import org.lanesift.plugin.PluginRegistry;
 
@@ -37,9 +39,9 @@ class CapturesTest {
         assertEquals("raw", Captures.pluginFor(r));
         Path x = dir.resolve("mystery.xyz");
         Files.write(x, new byte[] {0, 1, 2, 3});
-        CaptureFormatException e = assertThrows(CaptureFormatException.class, () -> Captures.pluginFor(x));
+        InputFormatException e = assertThrows(InputFormatException.class, () -> Captures.pluginFor(x));
         assertTrue(e.getMessage().startsWith("mystery.xyz: cannot tell the capture format; known extensions: .csv"), e.getMessage());
-        CaptureFormatException m = assertThrows(CaptureFormatException.class, () -> Captures.pluginFor(dir.resolve("gone.csv")));
+        InputFormatException m = assertThrows(InputFormatException.class, () -> Captures.pluginFor(dir.resolve("gone.csv")));
         assertEquals("gone.csv: file not found", m.getMessage());
     }
 

@@ -12,6 +12,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
+import org.lanesift.capture.Captures;
 
 /**
  * Issue 18 item 3: rates, time steps, gains, frame windows and sample values are checked against

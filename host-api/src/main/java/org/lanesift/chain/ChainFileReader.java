@@ -1,4 +1,4 @@
-package org.lanesift.runner.chainfile;
+package org.lanesift.chain;
 
 import java.io.IOException;
 import java.nio.file.Files;
@@ -10,7 +10,6 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
-import org.lanesift.chain.ChainSpec;
 import org.lanesift.json.JsonParseException;
 import org.lanesift.json.JsonReader;
 import org.lanesift.json.JsonValue;

@@ -1,7 +1,6 @@
-package org.lanesift.runner.chainfile;
+package org.lanesift.chain;
 
 import java.nio.file.Path;
-import org.lanesift.chain.ChainSpec;
 
 /**
  * A chain file as read from disk: the model and where it came from (so that relative file

@@ -1,6 +1,4 @@
-package org.lanesift.runner.chainfile;
-
-import org.lanesift.chain.ChainException;
+package org.lanesift.chain;
 
 /**
  * A chain file that cannot be read: a JSON syntax error (with line, column and pointer), a field of the
@@ -9,7 +7,9 @@ import org.lanesift.chain.ChainException;
  */
 public final class ChainFileException extends ChainException {
     private static final long serialVersionUID = 1L;
+    /** The chain file as the user named it. */
     private final String file;
+    /** 1-based line of a syntax error, or 0. */
     private final long line;
 
     /**

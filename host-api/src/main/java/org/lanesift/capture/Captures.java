@@ -1,4 +1,4 @@
-package org.lanesift.runner.capture;
+package org.lanesift.capture;
 
 import java.io.IOException;
 import java.io.InputStream;
@@ -6,6 +6,13 @@ import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.Locale;
+import java.util.Set;
+import org.lanesift.json.JsonParseException;
+import org.lanesift.json.JsonReader;
+import org.lanesift.json.JsonValue;
+import org.lanesift.plugin.InputException;
+import org.lanesift.plugin.InputFiles;
+import org.lanesift.plugin.InputFormatException;
 
 /**
  * Chooses the source plugin for a capture file: by extension first ({@code .csv .tsv .txt} csv,
@@ -16,6 +23,11 @@ import java.util.Locale;
  * format {@code lanesift-capture-set/1} is a capture set.
  */
 public final class Captures {
+    /** The {@code format} of a capture-set file. */
+    public static final String SET_FORMAT = "lanesift-capture-set/1";
+    /** The {@code format} values of a raw sidecar that make the file packed logic. */
+    public static final Set<String> PACKED_FORMATS = Set.of("logic8", "logic16le", "logic16be");
+
     private Captures() {
     }
 
@@ -24,12 +36,12 @@ public final class Captures {
      *
      * @param file the capture
      * @return "csv", "vcd", "raw", "packed-logic" or "capture-set"
-     * @throws CaptureFormatException when the file is missing or its kind cannot be told, naming the known extensions
+     * @throws InputFormatException when the file is missing or its kind cannot be told, naming the known extensions
      */
     public static String pluginFor(Path file) {
         String name = String.valueOf(file.getFileName()).toLowerCase(Locale.ROOT);
         if (!Files.exists(file)) {
-            throw new CaptureFormatException(file, 0, "file not found");
+            throw fault(file, "file not found");
         }
         if (name.endsWith(".csv") || name.endsWith(".tsv") || name.endsWith(".txt")) {
             return "csv";
@@ -37,20 +49,24 @@ public final class Captures {
         if (name.endsWith(".vcd")) {
             return "vcd";
         }
-        if (name.endsWith(".json") && CaptureSetFile.declaresSet(file)) {
+        if (name.endsWith(".json") && SET_FORMAT.equals(declaredFormat(file))) {
             return "capture-set";
         }
         if (name.endsWith(".bin") || name.endsWith(".raw") || name.endsWith(".dat") || Files.exists(Path.of(file + ".json"))) {
-            return PackedLogicSidecar.declaresPacked(Path.of(file + ".json")) ? "packed-logic" : "raw";
+            String format = declaredFormat(Path.of(file + ".json"));
+            return format != null && PACKED_FORMATS.contains(format) ? "packed-logic" : "raw";
         }
         byte[] head;
-        CaptureFormatException.requireRegular(file);
+        String notRegular = InputFiles.whyNotRegular(file);
+        if (notRegular != null) {
+            throw fault(file, notRegular);
+        }
         try (InputStream in = Files.newInputStream(file)) {
             head = in.readNBytes(4096);
         } catch (NoSuchFileException e) {
-            throw new CaptureFormatException(file, 0, "file not found");
+            throw fault(file, "file not found");
         } catch (IOException e) {
-            throw new CaptureFormatException(file, 0, "cannot read: " + e.getMessage(), e);
+            throw new InputFormatException(name(file) + ": cannot read: " + e.getMessage(), e);
         }
         int i = 0;
         while (i < head.length && (head[i] == ' ' || head[i] == '\t' || head[i] == '\r' || head[i] == '\n')) {
@@ -72,41 +88,33 @@ public final class Captures {
         if (text && sep) {
             return "csv";
         }
-        throw new CaptureFormatException(file, 0, "cannot tell the capture format; known extensions: .csv .tsv .txt (csv),"
+        throw fault(file, "cannot tell the capture format; known extensions: .csv .tsv .txt (csv),"
                 + " .vcd (vcd), .bin .raw .dat (raw binary with a FILE.json sidecar)");
     }
 
     /**
-     * The descriptor of a capture reader plugin.
+     * The {@code format} member of a JSON file (a raw sidecar, a capture set), for telling capture
+     * files apart.
      *
-     * @param plugin "csv", "vcd", "raw", "packed-logic" or "capture-set"
-     * @return its descriptor
+     * @param file a file
+     * @return the member's text, or null when the file is missing, unreadable, not a JSON object or has no text format
      */
-    static org.lanesift.plugin.PluginDescriptor descriptor(String plugin) {
-        return switch (plugin) {
-            case "csv" -> CsvSource.DESCRIPTOR;
-            case "vcd" -> VcdSource.DESCRIPTOR;
-            case "packed-logic" -> PackedLogicSource.DESCRIPTOR;
-            case "capture-set" -> CaptureSetSource.DESCRIPTOR;
-            default -> RawSource.DESCRIPTOR;
-        };
+    public static String declaredFormat(Path file) {
+        try {
+            JsonValue root = JsonReader.read(file, name(file));
+            JsonValue f = root.isObject() ? root.get("format") : null;
+            return f != null && f.isString() ? f.asString() : null;
+        } catch (IOException | JsonParseException | InputException e) {
+            return null;
+        }
     }
 
-    /**
-     * Opens the reader of a capture reader plugin with validated options.
-     *
-     * @param plugin as from {@link #pluginFor}
-     * @param ov     options validated against {@link #descriptor}
-     * @return the reader, positioned at the start
-     * @throws IOException if the file cannot be read
-     */
-    static CaptureReader open(String plugin, org.lanesift.plugin.OptionValues ov) throws IOException {
-        return switch (plugin) {
-            case "csv" -> CsvSource.reader(ov);
-            case "vcd" -> VcdSource.reader(ov, false);
-            case "packed-logic" -> PackedLogicSource.reader(ov, false);
-            case "capture-set" -> new CaptureSetReader(CaptureSetFile.read(Path.of(ov.getString("file"))), false);
-            default -> RawSource.reader(ov, false);
-        };
+    /** The same message a capture reader gives: the file name, then what is wrong. */
+    private static InputFormatException fault(Path file, String detail) {
+        return new InputFormatException(name(file) + ": " + detail);
+    }
+
+    private static String name(Path file) {
+        return String.valueOf(file.getFileName() == null ? file : file.getFileName());
     }
 }

@@ -1,4 +1,4 @@
-package org.lanesift.runner.chainfile;
+package org.lanesift.chain;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
@@ -9,7 +9,6 @@ import java.nio.file.Path;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import org.lanesift.chain.ChainSpec;
 
 /** The chain file's shape, and where its errors point. */
 class ChainFileReaderTest {
