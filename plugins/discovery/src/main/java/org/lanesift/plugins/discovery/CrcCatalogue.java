@@ -30,6 +30,9 @@ final class CrcCatalogue {
             new CrcModel("CRC-32/BZIP2", 32, 0x04C11DB7L, 0xFFFFFFFFL, false, false, 0xFFFFFFFFL, 0xFC891918L),
             new CrcModel("CRC-32/MPEG-2", 32, 0x04C11DB7L, 0xFFFFFFFFL, false, false, 0x00000000L, 0x0376E6E7L));
 
+    /** Bursts after which a model that matched fewer than half is dropped. */
+    static final int EARLY_OUT = 8;
+
     private CrcCatalogue() {
     }
 
@@ -48,16 +51,19 @@ final class CrcCatalogue {
 
     /**
      * Tries every model on the payload of each burst: the last {@code width} bits against the CRC of
-     * the bits before them. Returns the best model (most matches), or null when none matches at least
-     * {@code minShare} of the bursts.
+     * the bits before them. Returns every model that matches at least {@code minShare} of the
+     * bursts tried, most matches first.
      */
-    static Match search(List<MergedBurst> bursts, int maxBursts, double minShare) {
-        Match best = null;
+    static List<Match> search(List<MergedBurst> bursts, int maxBursts, double minShare) {
+        // the shortest bursts first: a checksum covers every burst, and short ones cost least
+        List<MergedBurst> order = new java.util.ArrayList<>(bursts);
+        order.sort(java.util.Comparator.comparingInt(MergedBurst::length));
+        List<Match> found = new java.util.ArrayList<>();
         for (CrcModel m : MODELS) {
             int ok = 0;
             int tested = 0;
-            for (int i = 0; i < bursts.size() && tested < maxBursts; i++) {
-                MergedBurst b = bursts.get(i);
+            for (int i = 0; i < order.size() && tested < maxBursts; i++) {
+                MergedBurst b = order.get(i);
                 if (b.length() < m.width() + 8) {
                     continue;
                 }
@@ -66,13 +72,46 @@ final class CrcCatalogue {
                 if (m.of(b.bits(), 0, data) == m.sent(b.bits(), data)) {
                     ok++;
                 }
+                if (tested == EARLY_OUT && ok < EARLY_OUT / 2) {
+                    break; // a model that holds on every burst does not miss half of the first ones
+                }
             }
             Match x = new Match(m, ok, tested);
-            if (tested > 0 && x.share() >= minShare && (best == null || x.share() > best.share()
-                    || (x.share() == best.share() && m.width() > best.model().width()))) {
-                best = x;
+            if (tested > 0 && x.share() >= minShare) {
+                found.add(x);
+            }
+        }
+        found.sort((x, y) -> x.share() != y.share() ? Double.compare(y.share(), x.share()) : Integer.compare(y.model().width(), x.model().width()));
+        return found;
+    }
+
+    /**
+     * The best match for a bit order. On a bit-serial link a reflected model whose result is sent
+     * LSB first gives the same bits as its direct twin sent MSB first (same polynomial, init and
+     * final XOR), so both match; the one whose input order agrees with the words' bit order (LSB
+     * first: reflected) is named, and the twin is listed in the report.
+     */
+    static Match pick(List<Match> found, boolean msbFirst) {
+        Match best = null;
+        for (Match m : found) {
+            if (best == null || m.share() > best.share()
+                    || (m.share() == best.share() && m.model().width() == best.model().width() && m.model().refin() == !msbFirst
+                    && best.model().refin() == msbFirst)) {
+                best = m;
             }
         }
         return best;
+    }
+
+    /** Models that give the same wire bits as {@code m}: same width, polynomial, init and final XOR, reflection swapped. */
+    static List<CrcModel> twins(CrcModel m) {
+        List<CrcModel> out = new java.util.ArrayList<>();
+        for (CrcModel x : MODELS) {
+            if (x != m && x.width() == m.width() && x.poly() == m.poly() && x.init() == m.init() && x.xorout() == m.xorout()
+                    && x.refin() == x.refout() && m.refin() == m.refout()) {
+                out.add(x);
+            }
+        }
+        return out;
     }
 }

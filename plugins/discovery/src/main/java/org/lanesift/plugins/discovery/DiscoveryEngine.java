@@ -50,13 +50,14 @@ public final class DiscoveryEngine {
                 WordLengthFinder.Candidate w = wl.get(i);
                 double prior = w.eligible() ? 0.02 * (WORD_CANDIDATES - i) : 0;
                 List<MergedBurst> merged = LaneMerger.merge(link, w.syncBits(), w.wordBits(), d, MAX_BURSTS);
-                CrcCatalogue.Match crc = CrcCatalogue.search(merged, CRC_BURSTS, CRC_SHARE);
+                List<CrcCatalogue.Match> crcs = CrcCatalogue.search(merged, CRC_BURSTS, CRC_SHARE);
                 double slope = entropySlope(merged, w.wordBits());
                 for (boolean msb : new boolean[] {false, true}) {
+                    CrcCatalogue.Match crc = CrcCatalogue.pick(crcs, msb);
                     BurstFields f = BurstFields.find(merged, w.wordBits(), msb);
                     String label = w.wordBits() + "-bit words, " + (msb ? "msb" : "lsb") + " first" + (lanes > 1 ? ", lanes " + d.label : "");
-                    List<PictureCandidate> pics = PictureFinder.candidates(dataBits(merged, w.wordBits(), msb, f, crc),
-                            dataBitCount, label);
+                    Bits data = dataBits(merged, w.wordBits(), msb, f, crc);
+                    List<PictureCandidate> pics = PictureFinder.candidates(data.bits(), data.count(), label);
                     double pic = 0;
                     for (PictureCandidate p : pics) {
                         pic = Math.max(pic, p.smoothness());
@@ -86,22 +87,46 @@ public final class DiscoveryEngine {
                 distinct(pictures), bitAutocorrelation(link, s), entropy(merged, best.wordBits()));
     }
 
-    private int dataBitCount;
+    /** Packed bits and their count. */
+    record Bits(long[] bits, int count) {
+    }
 
-    /** The data bursts' words after the leading word (and length field), before the checksum, values MSB first. */
-    private long[] dataBits(List<MergedBurst> merged, int w, boolean msb, BurstFields f, CrcCatalogue.Match crc) {
+    /**
+     * The data bursts' words after the leading word (and length field), before the checksum,
+     * values MSB first. A data burst's word count comes from its length field when there is one;
+     * otherwise a count within two words of the most common one is taken as that one (a bit error
+     * next to a burst's end, in the idle run, moves the end seen), so one damaged burst does not
+     * shift the rest of the picture.
+     */
+    static Bits dataBits(List<MergedBurst> merged, int w, boolean msb, BurstFields f, CrcCatalogue.Match crc) {
         int cap = PictureFinder.MAX_PIXELS * 24;
         long[] out = new long[(cap + 63) / 64 + 1];
         int n = 0;
         int header = 1 + Math.max(0, f.lengthWord);
-        int crcBits = crc == null ? 0 : crc.model().width();
+        int crcWords = crc == null ? 0 : (crc.model().width() + w - 1) / w;
+        java.util.Map<Integer, Integer> counts = new java.util.HashMap<>();
+        for (MergedBurst b : merged) {
+            if (f.dataOpcode >= 0 && b.words(w) > 0 && b.word(0, w, msb) == f.dataOpcode) {
+                counts.merge(b.words(w), 1, Integer::sum);
+            }
+        }
+        int modal = counts.entrySet().stream().max(java.util.Map.Entry.comparingByValue()).map(java.util.Map.Entry::getKey).orElse(0);
         for (MergedBurst b : merged) {
             if (f.dataOpcode < 0 || b.words(w) == 0 || b.word(0, w, msb) != f.dataOpcode) {
                 continue;
             }
-            int end = (b.length() - crcBits) / w;
+            int words = b.words(w);
+            if (f.lengthWord >= 0 && words > f.lengthWord) {
+                long fromField = b.word(f.lengthWord, w, msb) + f.lengthOffset;
+                if (fromField > 0 && Math.abs(fromField - words) <= 2) {
+                    words = (int) fromField;
+                }
+            } else if (Math.abs(words - modal) <= 2) {
+                words = modal;
+            }
+            int end = words - crcWords;
             for (int q = header; q < end && n + w <= cap; q++) {
-                long v = b.word(q, w, msb);
+                long v = q < b.words(w) ? b.word(q, w, msb) : 0;
                 for (int j = w - 1; j >= 0; j--) {
                     if ((v >>> j & 1L) != 0) {
                         out[n >>> 6] |= 1L << n;
@@ -110,8 +135,7 @@ public final class DiscoveryEngine {
                 }
             }
         }
-        dataBitCount = n;
-        return out;
+        return new Bits(out, n);
     }
 
     /** Entropy at the last wire position of a word minus that at the first (positive: the first bit varies less, as an MSB does). */

@@ -1,6 +1,7 @@
 package org.lanesift.plugins.discovery;
 
 import org.lanesift.data.BitSets;
+import org.lanesift.kit.PackedBits;
 
 /**
  * One burst's payload after the sync, lanes merged, in wire order: bit {@code i} is the
@@ -25,13 +26,10 @@ record MergedBurst(long[] bits, int length, int index) {
      * most significant bit of the value.
      */
     long word(int q, int wordBits, boolean msbFirst) {
-        long v = 0;
-        int base = q * wordBits;
-        for (int j = 0; j < wordBits; j++) {
-            if (bit(base + j)) {
-                v |= msbFirst ? 1L << (wordBits - 1 - j) : 1L << j;
-            }
+        long x = PackedBits.get64(bits, q * wordBits);
+        if (wordBits < 64) {
+            x &= (1L << wordBits) - 1;
         }
-        return v;
+        return msbFirst ? Long.reverse(x) >>> (64 - wordBits) : x;
     }
 }

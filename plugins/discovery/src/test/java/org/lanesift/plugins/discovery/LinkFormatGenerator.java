@@ -34,7 +34,24 @@ final class LinkFormatGenerator {
         long dataOpcode;
         int bitErrors;
         boolean midBurstStart;
+        boolean noErrors;
         LinkEdgesInput input;
+        /** Per burst, the merged wire bits after the sync (one stream; independent lanes: lane 0's). */
+        final List<boolean[]> sentWire = new ArrayList<>();
+
+        /** The words of burst {@code b} as sent, values in the link's bit order. */
+        long[] sentWords(int b) {
+            boolean[] bits = sentWire.get(b);
+            long[] out = new long[bits.length / wordBits];
+            for (int q = 0; q < out.length; q++) {
+                for (int j = 0; j < wordBits; j++) {
+                    if (bits[q * wordBits + j]) {
+                        out[q] |= msbFirst ? 1L << (wordBits - 1 - j) : 1L << j;
+                    }
+                }
+            }
+            return out;
+        }
 
         /** The sync as discovery can see it: with idle runs, leading idle-level bits look like idle. */
         String visibleSync() {
@@ -74,6 +91,33 @@ final class LinkFormatGenerator {
         }
     }
 
+    /** A format given by hand (seeded content), encoded. */
+    Link fixed(int wordBits, boolean msbFirst, String clocking, int lanes, LaneDistribution dist, String syncWire, boolean clockStops,
+               CrcModel crc, boolean lengthField, PixelFormat pixel, int width, int height) {
+        Link l = new Link();
+        l.wordBits = wordBits;
+        l.msbFirst = msbFirst;
+        l.clocking = clocking;
+        l.slots = clocking.startsWith("single") ? 1 : clocking.equals("double-edge") ? 2 : 4;
+        l.lanes = lanes;
+        l.dist = dist;
+        l.sync = new boolean[syncWire.length()];
+        for (int i = 0; i < syncWire.length(); i++) {
+            l.sync[i] = syncWire.charAt(i) == '1';
+        }
+        l.clockStops = clockStops;
+        l.crc = crc;
+        l.lengthField = lengthField;
+        l.pixel = pixel;
+        l.width = width;
+        l.height = height;
+        l.noErrors = true;
+        if (!encode(l)) {
+            throw new IllegalArgumentException("no chunk size fits " + l);
+        }
+        return l;
+    }
+
     private Link draw() {
         Link l = new Link();
         l.lanes = 1 + r.nextInt(4);
@@ -108,8 +152,8 @@ final class LinkFormatGenerator {
         l.crc = !fit.isEmpty() && r.nextBoolean() ? fit.get(r.nextInt(fit.size())) : null;
         l.lengthField = l.wordBits >= 10 && r.nextBoolean();
         l.pixel = PixelFormat.values()[r.nextInt(PixelFormat.values().length)];
-        l.width = 40 + r.nextInt(81);
-        l.height = Math.max(24, 3600 / l.width);
+        l.width = 32 + r.nextInt(49);
+        l.height = Math.max(18, 1500 / l.width);
         l.midBurstStart = r.nextInt(4) == 0;
         return l;
     }
@@ -205,6 +249,7 @@ final class LinkFormatGenerator {
                 commandsLeft--;
             }
             bursts.add(per);
+            l.sentWire.add(per.get(0));
         }
         edges(l, bursts);
         return true;
@@ -350,7 +395,7 @@ final class LinkFormatGenerator {
             laneSlots.add(v);
         }
         // bit errors: a few flips inside bursts
-        int flips = r.nextInt(4);
+        int flips = l.noErrors ? 0 : r.nextInt(4);
         for (int e = 0; e < flips; e++) {
             int k = r.nextInt(n);
             int i = r.nextInt(total);
