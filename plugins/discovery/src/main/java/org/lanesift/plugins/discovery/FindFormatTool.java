@@ -71,10 +71,10 @@ public final class FindFormatTool implements Tool {
         List<Artifact> files = new ArrayList<>();
         ChainBuilder b = Chain.builder(PluginRegistry.discover(FindFormatTool.class.getClassLoader()))
                 .add("cap", "vcd", Map.of("file", capture))
-                .add("found", LinkDiscoveryPlugin.ID, opts)
-                .wire("cap." + args.text("clock").trim(), "found.clock");
+                .add("discovery", LinkDiscoveryPlugin.ID, opts)
+                .wire("cap." + args.text("clock").trim(), "discovery.clock");
         for (int k = 0; k < lanes.length; k++) {
-            b.wire("cap." + lanes[k].trim(), "found.lane" + k);
+            b.wire("cap." + lanes[k].trim(), "discovery.lane" + k);
         }
         b.outputs((id, port, block) -> {
             if (block instanceof Artifact a) {
