@@ -12,6 +12,10 @@ import org.lanesift.plugin.InputFormatException;
  */
 final class ClockFinder {
     static final int BINS = 96;
+    /** A clock period counts as steady within this fraction of the median period. */
+    static final double STEADY_TOLERANCE = 0.1;
+    /** Share of steady periods (pauses aside) below which the signal is refused as a clock. */
+    static final double MIN_STEADY_SHARE = 0.9;
 
     private ClockFinder() {
     }
@@ -34,10 +38,20 @@ final class ClockFinder {
             throw new InputFormatException("clock: rising edges do not advance (median period " + period + " fs)");
         }
         int stops = 0;
+        int steady = 0;
         for (int i = 1; i < nRising; i++) {
-            if (risingFs[i] - risingFs[i - 1] > 1.5 * period) {
+            long d = risingFs[i] - risingFs[i - 1];
+            if (d > 1.5 * period) {
                 stops++;
+            } else if (Math.abs(d - period) <= STEADY_TOLERANCE * period) {
+                steady++;
             }
+        }
+        double steadyShare = steady / (double) Math.max(1, nRising - 1 - stops);
+        if (steadyShare < MIN_STEADY_SHARE) {
+            throw new InputFormatException("clock: only " + Math.round(100 * steadyShare) + " % of the periods between rising edges are within "
+                    + Math.round(100 * STEADY_TOLERANCE) + " % of the median (" + Math.round(period / 1000) + " ps); at least "
+                    + Math.round(100 * MIN_STEADY_SHARE) + " % expected of a clock (is the signal given as the clock the link's clock?)");
         }
         double duty = duty(risingFs, nRising, fallingFs, nFalling, period);
         long[] hist = new long[BINS];
