@@ -204,6 +204,107 @@ final class Lane {
         return lo;
     }
 
+    // ------------------------------------------------------------------ bursts from pauses and idle runs
+
+    private long gapLastFs = Long.MIN_VALUE;
+    private long gapBurstStartFs;
+    private long burstBits;
+    private long runStartFs;
+    private boolean runLevel;
+    private int runLength;
+    /** Level of the idle run that ended the last burst; bits at this level are dropped until another comes. */
+    private boolean idle;
+    private boolean idleLevel;
+
+    /**
+     * Framed links without line states whose bursts are marked by the bits themselves: a pause
+     * between two sampled bits longer than {@code gapFs} (the clock stopped) or a run of at least
+     * {@code idleBits} equal bits (the line idling) ends the burst; each burst gets a fresh
+     * deserializer, so the sync is sought again at every burst and bursts may differ in length.
+     *
+     * @param gapFs    longest pause inside a burst, femtoseconds (0: pauses do not cut)
+     * @param idleBits shortest idle run (0: runs do not cut)
+     */
+    void drainGapped(long gapFs, int idleBits) {
+        while (!bits.isEmpty()) {
+            BitStream b = bits.poll();
+            long[] t = b.timesFs();
+            long[] v = b.values();
+            int from = 0;
+            int n = b.count();
+            double ui = b.unitIntervalFs();
+            for (int i = 0; i < n; i++) {
+                long ti = t[i];
+                boolean bit = ((v[i >>> 6] >>> i) & 1L) != 0;
+                if (gapFs > 0 && gapLastFs != Long.MIN_VALUE && ti - gapLastFs > gapFs) {
+                    if (current != null) {
+                        current.feed(b, from, i);
+                        closeGapped(gapLastFs + Math.round(ui > 0 ? ui : 0), 0);
+                    }
+                    idle = false;
+                    runLength = 0;
+                    from = i;
+                }
+                gapLastFs = ti;
+                if (runLength > 0 && bit == runLevel) {
+                    runLength++;
+                } else {
+                    runLevel = bit;
+                    runLength = 1;
+                    runStartFs = ti;
+                }
+                boolean afterIdle = false;
+                if (idle) {
+                    if (bit == idleLevel) {
+                        from = i + 1;
+                        continue;
+                    }
+                    idle = false;
+                    afterIdle = true;
+                }
+                if (current == null) {
+                    current = factory.create(index);
+                    if (afterIdle) {
+                        current.preload(idleLevel);
+                    }
+                    gapBurstStartFs = ti;
+                    burstBits = 0;
+                    from = i;
+                }
+                burstBits++;
+                if (idleBits > 0 && runLength >= idleBits) {
+                    current.feed(b, from, i + 1);
+                    if (burstBits > runLength) {
+                        closeGapped(runStartFs, runLength);
+                    } else {
+                        current = null; // only idle bits so far: the line was idle from the start
+                    }
+                    idle = true;
+                    idleLevel = bit;
+                    from = i + 1;
+                }
+            }
+            if (current != null && from < n) {
+                current.feed(b, from, n);
+            }
+        }
+    }
+
+    private void closeGapped(long endFs, int idleRun) {
+        if (idleRun > 0) {
+            current.dropLastBits(idleRun);
+        }
+        done.add(new Burst(gapBurstStartFs, Math.max(gapBurstStartFs, endFs), current));
+        current = null;
+    }
+
+    /** End of input in the gapped mode: the open burst ends at the last bit. */
+    void finishGapped() {
+        if (current != null) {
+            closeGapped(gapLastFs + 1, 0);
+        }
+    }
+
     /** Framed links without line states: every bit goes to one endless deserializer. */
     void drainContinuous() {
         if (current == null) {

@@ -67,6 +67,35 @@ final class LaneDeserializer {
         unsyncedBits = 0;
     }
 
+    /**
+     * Fills the sync search register with {@code syncBits} bits of the idle level, so a sync
+     * pattern that begins with idle-level bits is found when the burst starts at its first
+     * non-idle bit.
+     *
+     * @param level the idle level
+     */
+    void preload(boolean level) {
+        if (!synced) {
+            shift = level ? (syncBits == 64 ? -1L : (1L << syncBits) - 1) : 0L;
+            shiftCount = syncBits;
+        }
+    }
+
+    /**
+     * Forgets the last {@code n} appended bits (the idle run that ended a burst).
+     *
+     * @param n bit count
+     */
+    void dropLastBits(int n) {
+        int keep = Math.max(0, nbits - n);
+        for (int i = keep; i < nbits; i++) {
+            bits[i >>> 6] &= ~(1L << i);
+            flagged[i >>> 6] &= ~(1L << i);
+        }
+        nbits = keep;
+        wordStarts = Math.min(wordStarts, (keep + wordBits - 1) / wordBits);
+    }
+
     private void clearWords() {
         Arrays.fill(bits, 0, Math.min(bits.length, (nbits >>> 6) + 2), 0L);
         if (anyFlagged) {

@@ -23,6 +23,10 @@ final class LinkConfig {
     final boolean independent;
     final int groupWords;
     final boolean dropTrail;
+    /** Framed, no line states: a pause between sampled bits longer than this ends a burst (0: off). */
+    final long burstGapFs;
+    /** Framed, no line states: a run of at least this many equal bits ends a burst (0: off). */
+    final int idleBits;
     final int pngFrames;
     final long maxBurstBytes;
     final int maxLogEntries;
@@ -49,7 +53,7 @@ final class LinkConfig {
         }
         minStateFs = Math.round(st);
         if (dsi) {
-            for (String f : new String[] {"lpStates", "syncPattern", "syncBits", "wordBits", "bitOrder", "laneDistribution", "groupWords", "dropTrail"}) {
+            for (String f : new String[] {"lpStates", "syncPattern", "syncBits", "wordBits", "bitOrder", "laneDistribution", "groupWords", "dropTrail", "burstGap", "idleBits"}) {
                 OptionSpec spec = d.option(f);
                 if (!o.asMap().get(f).equals(spec.defaultValue())) {
                     throw new OptionException(f, where + "option '" + f + "' belongs to profile 'framed'; profile 'dsi' fixes it "
@@ -64,6 +68,20 @@ final class LinkConfig {
         independent = o.getString("laneDistribution").equals("independent");
         groupWords = o.getInt("groupWords");
         dropTrail = dsi || o.getBoolean("dropTrail");
+        double gap = o.getTime("burstGap").toFs(Double.NaN, Double.NaN);
+        if (!(gap >= 0) || gap > 1e15) {
+            throw new OptionException("burstGap", where + "option 'burstGap' must be 0 to 1 s, got " + o.getTime("burstGap"));
+        }
+        burstGapFs = Math.round(gap);
+        idleBits = o.getInt("idleBits");
+        if ((burstGapFs > 0 || idleBits > 0) && lpStates) {
+            throw new OptionException(burstGapFs > 0 ? "burstGap" : "idleBits", where + "options 'burstGap' and 'idleBits' cut bursts "
+                    + "of links without line states; set 'lpStates' to false (with line states the legs mark the bursts)");
+        }
+        if ((burstGapFs > 0 || idleBits > 0) && groupWords > 0) {
+            throw new OptionException("groupWords", where + "option 'groupWords' cannot be combined with 'burstGap' or 'idleBits' "
+                    + "(bursts of any length are cut at their boundaries; use one or the other)");
+        }
         String hex = o.getString("syncPattern").trim();
         if (hex.startsWith("0x") || hex.startsWith("0X")) {
             hex = hex.substring(2);
@@ -95,6 +113,11 @@ final class LinkConfig {
 
     static LinkConfig of(PluginDescriptor d, OptionValues o) {
         return new LinkConfig(d, o);
+    }
+
+    /** Whether bursts are found from pauses or idle runs in the bits (framed profile, no line states). */
+    boolean gapBursts() {
+        return !lpStates && (burstGapFs > 0 || idleBits > 0);
     }
 
     int inputsPerLane() {

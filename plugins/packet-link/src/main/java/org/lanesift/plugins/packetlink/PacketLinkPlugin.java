@@ -81,6 +81,10 @@ public final class PacketLinkPlugin implements PluginProvider {
             .option(OptionSpec.choice("laneDistribution", "word", "framed profile: word k on lane k mod N (word), or each lane its own stream (independent)",
                     "word", "independent"))
             .option(OptionSpec.integer("groupWords", 0L, 0, 1 << 20, "framed profile: words per group; the sync is sought again after each (0: no groups)"))
+            .option(OptionSpec.time("burstGap", TimeValue.Unit.NS, "0ns",
+                    "framed profile without line states: a pause longer than this between two sampled bits (the clock stopped) ends a burst; 0: off"))
+            .option(OptionSpec.integer("idleBits", 0L, 0, 1 << 20,
+                    "framed profile without line states: a run of at least this many equal bits (the idle level) ends a burst; 0: off"))
             .option(OptionSpec.bool("dropTrail", true, "framed profile: drop the final run of equal bits of each burst (the trail)"))
             .option(OptionSpec.integer("pngFrames", 8L, 0, 100000, "frames written as PNG (the first N)"))
             .option(OptionSpec.integer("maxBurstBytes", 8L << 20, 64, 1L << 28, "largest burst kept per lane, bytes"))

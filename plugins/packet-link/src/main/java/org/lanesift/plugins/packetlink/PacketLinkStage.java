@@ -89,6 +89,9 @@ final class PacketLinkStage implements Stage {
                 l.drainBits();
             }
             mergeBursts(false);
+        } else if (cfg.gapBursts()) {
+            lane.drainGapped(cfg.burstGapFs, cfg.idleBits);
+            mergeBursts(false);
         } else {
             lane.drainContinuous();
             drainContinuous(false);
@@ -453,6 +456,11 @@ final class PacketLinkStage implements Stage {
         if (cfg.lpStates) {
             for (Lane l : lanes) {
                 l.finish();
+            }
+            mergeBursts(true);
+        } else if (cfg.gapBursts()) {
+            for (Lane l : lanes) {
+                l.finishGapped();
             }
             mergeBursts(true);
         } else {

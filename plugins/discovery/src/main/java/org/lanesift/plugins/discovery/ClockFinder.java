@@ -1,0 +1,195 @@
+package org.lanesift.plugins.discovery;
+
+import java.util.Arrays;
+import org.lanesift.plugin.InputFormatException;
+
+/**
+ * Finds the clocking of a link from edge lists: the phase of every data transition inside its
+ * clock period goes into a circular histogram; each cluster of transitions is the boundary
+ * between two bit slots, so the number of clusters is the number of bits per clock period and the
+ * middle of each gap between clusters is a sample point (the widest eye). Common practice: data
+ * launched on one clock edge changes there and is sampled half a unit interval later.
+ */
+final class ClockFinder {
+    static final int BINS = 96;
+    /** A clock period counts as steady within this fraction of the median period. */
+    static final double STEADY_TOLERANCE = 0.1;
+    /** Share of steady periods (pauses aside) below which the signal is refused as a clock. */
+    static final double MIN_STEADY_SHARE = 0.9;
+
+    private ClockFinder() {
+    }
+
+    /**
+     * @param risingFs    rising clock edges, ascending
+     * @param nRising     how many
+     * @param fallingFs   falling clock edges, ascending
+     * @param nFalling    how many
+     * @param laneEdgesFs transitions of each data lane, ascending
+     * @param laneCounts  transitions per lane
+     * @return the clocking
+     */
+    static Clocking find(long[] risingFs, int nRising, long[] fallingFs, int nFalling, long[][] laneEdgesFs, int[] laneCounts) {
+        if (nRising < 16) {
+            throw new InputFormatException("clock: " + nRising + " rising edges; at least 16 expected to tell the clocking");
+        }
+        double period = medianDiff(risingFs, nRising);
+        if (!(period > 0)) {
+            throw new InputFormatException("clock: rising edges do not advance (median period " + period + " fs)");
+        }
+        int stops = 0;
+        int steady = 0;
+        for (int i = 1; i < nRising; i++) {
+            long d = risingFs[i] - risingFs[i - 1];
+            if (d > 1.5 * period) {
+                stops++;
+            } else if (Math.abs(d - period) <= STEADY_TOLERANCE * period) {
+                steady++;
+            }
+        }
+        double steadyShare = steady / (double) Math.max(1, nRising - 1 - stops);
+        if (steadyShare < MIN_STEADY_SHARE) {
+            throw new InputFormatException("clock: only " + Math.round(100 * steadyShare) + " % of the periods between rising edges are within "
+                    + Math.round(100 * STEADY_TOLERANCE) + " % of the median (" + Math.round(period / 1000) + " ps); at least "
+                    + Math.round(100 * MIN_STEADY_SHARE) + " % expected of a clock (is the signal given as the clock the link's clock?)");
+        }
+        double duty = duty(risingFs, nRising, fallingFs, nFalling, period);
+        long[] hist = new long[BINS];
+        long total = 0;
+        for (int k = 0; k < laneEdgesFs.length; k++) {
+            long[] t = laneEdgesFs[k];
+            int r = 0;
+            for (int i = 0; i < laneCounts[k]; i++) {
+                while (r + 1 < nRising && risingFs[r + 1] <= t[i]) {
+                    r++;
+                }
+                if (t[i] < risingFs[r]) {
+                    continue;
+                }
+                double p = r + 1 < nRising ? risingFs[r + 1] - risingFs[r] : period;
+                if (p > 1.5 * period) {
+                    p = period;
+                }
+                double ph = (t[i] - risingFs[r]) / p;
+                if (ph >= 1.0) {
+                    continue; // outside a running clock period (the clock stopped)
+                }
+                hist[(int) (ph * BINS) % BINS]++;
+                total++;
+            }
+        }
+        if (total < 32) {
+            throw new InputFormatException("data lanes: " + total + " transitions inside running clock periods; at least 32 expected "
+                    + "(are the lanes and the clock from the same link?)");
+        }
+        return clusters(hist, total, period, duty, stops);
+    }
+
+    private static Clocking clusters(long[] hist, long total, double period, double duty, int stops) {
+        long[] smooth = new long[BINS];
+        long max = 0;
+        for (int b = 0; b < BINS; b++) {
+            smooth[b] = hist[(b + BINS - 1) % BINS] + hist[b] + hist[(b + 1) % BINS];
+            max = Math.max(max, smooth[b]);
+        }
+        long thr = Math.max(1, max / 8);
+        int firstLow = -1;
+        for (int b = 0; b < BINS; b++) {
+            if (smooth[b] < thr) {
+                firstLow = b;
+                break;
+            }
+        }
+        if (firstLow < 0) {
+            throw new InputFormatException("data lanes: transitions spread over the whole clock period; no eye opening found "
+                    + "(is the clock the link's bit clock?)");
+        }
+        double[] centres = new double[BINS];
+        double[] widths = new double[BINS];
+        int n = 0;
+        long inside = 0;
+        int b = firstLow;
+        for (int step = 0; step < BINS; step++, b = (b + 1) % BINS) {
+            if (smooth[b] >= thr) {
+                double sw = 0;
+                double s = 0;
+                int len = 0;
+                int c = b;
+                while (smooth[c] >= thr && len < BINS) {
+                    int unwrapped = c < b ? c + BINS : c;
+                    sw += hist[c] * (unwrapped + 0.5);
+                    s += hist[c];
+                    inside += hist[c];
+                    len++;
+                    c = (c + 1) % BINS;
+                }
+                centres[n] = (s > 0 ? sw / s : b + len / 2.0) / BINS % 1.0;
+                widths[n] = len / (double) BINS;
+                n++;
+                step += len - 1;
+                b = (c + BINS - 1) % BINS;
+            }
+        }
+        double[] ctr = Arrays.copyOf(centres, n);
+        double[] wid = Arrays.copyOf(widths, n);
+        Integer[] order = new Integer[n];
+        for (int i = 0; i < n; i++) {
+            order[i] = i;
+        }
+        Arrays.sort(order, (x, y) -> Double.compare(ctr[x], ctr[y]));
+        double[] c = new double[n];
+        double[] w = new double[n];
+        for (int i = 0; i < n; i++) {
+            c[i] = ctr[order[i]];
+            w[i] = wid[order[i]];
+        }
+        double[] samples = new double[n];
+        double eye = Double.MAX_VALUE;
+        for (int i = 0; i < n; i++) {
+            double next = i + 1 < n ? c[i + 1] : c[0] + 1.0;
+            samples[i] = ((c[i] + next) / 2) % 1.0;
+            double gap = (next - w[(i + 1) % n] / 2) - (c[i] + w[i] / 2);
+            eye = Math.min(eye, gap * n);
+        }
+        for (int i = 0; i < n; i++) {
+            // a sample point just before the rising edge belongs to the period it starts, not the one before
+            if (samples[i] > 1.0 - 0.25 / n) {
+                samples[i] -= 1.0;
+            }
+        }
+        Arrays.sort(samples);
+        return new Clocking(n, samples, c, Math.max(0, eye), period, duty, stops, inside / (double) total, total);
+    }
+
+    private static double duty(long[] rise, int nr, long[] fall, int nf, double period) {
+        if (nf == 0) {
+            return 0.5;
+        }
+        double[] d = new double[Math.min(nr, 4096)];
+        int m = 0;
+        int f = 0;
+        for (int i = 0; i < nr && m < d.length; i++) {
+            while (f < nf && fall[f] <= rise[i]) {
+                f++;
+            }
+            if (f < nf && fall[f] - rise[i] < period) {
+                d[m++] = (fall[f] - rise[i]) / period;
+            }
+        }
+        if (m == 0) {
+            return 0.5;
+        }
+        Arrays.sort(d, 0, m);
+        return d[m / 2];
+    }
+
+    static double medianDiff(long[] t, int n) {
+        int m = Math.min(n - 1, 8192);
+        double[] d = new double[m];
+        for (int i = 0; i < m; i++) {
+            d[i] = t[i + 1] - t[i];
+        }
+        Arrays.sort(d);
+        return d[m / 2];
+    }
+}

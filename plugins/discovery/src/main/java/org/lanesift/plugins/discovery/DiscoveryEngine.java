@@ -1,0 +1,219 @@
+package org.lanesift.plugins.discovery;
+
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.List;
+
+/**
+ * Finds the format of an undocumented link from its edges: clocking ({@link ClockFinder}),
+ * bits and bursts ({@link LaneSampler}), the bursts' common prefix ({@link SyncFinder}), word and
+ * sync length from the burst lengths ({@link WordLengthFinder}), then for every lane distribution,
+ * likely word length and bit order: checksum ({@link CrcCatalogue}), leading word and length field
+ * ({@link BurstFields}) and candidate pictures ({@link PictureFinder}). The framing that explains
+ * most (the smoothest picture, a checksum and a length field that hold on every burst) wins.
+ */
+public final class DiscoveryEngine {
+    /** Bits per lane examined at most (memory is bounded by this, not by the capture). */
+    public static final int DEFAULT_MAX_BITS = 1 << 24;
+    static final int MAX_BURSTS = 4096;
+    static final int CRC_BURSTS = 256;
+    static final double CRC_SHARE = 0.8;
+    static final int WORD_CANDIDATES = 3;
+
+    private final int maxBits;
+
+    /**
+     * @param maxBits bits per lane examined at most
+     */
+    public DiscoveryEngine(int maxBits) {
+        this.maxBits = maxBits;
+    }
+
+    Hypotheses discover(LinkEdgesInput in) {
+        Clocking c = ClockFinder.find(in.risingFs(), in.nRising(), in.fallingFs(), in.nFalling(), in.laneEdgesFs(), in.laneCounts());
+        double clockConf = c.clusteredShare() * Math.min(1.0, c.eyeUi() / 0.5);
+        SampledLink link = LaneSampler.sample(c, in.risingFs(), in.nRising(), in.laneInitial(), in.laneEdgesFs(), in.laneCounts(), maxBits);
+        int lanes = link.lanes().length;
+        int[][] pre = SyncFinder.prefixes(link);
+        int prefix = Integer.MAX_VALUE;
+        for (int[] p : pre) {
+            prefix = Math.min(prefix, p[0]);
+        }
+        List<LaneDistribution> dists = lanes == 1 ? List.of(LaneDistribution.SINGLE)
+                : List.of(LaneDistribution.WORD, LaneDistribution.BIT, LaneDistribution.INDEPENDENT);
+        List<Hypotheses.Framing> framings = new ArrayList<>();
+        List<PictureCandidate> pictures = new ArrayList<>();
+        List<WordLengthFinder.Candidate> laneLevel = WordLengthFinder.rank(link, prefix, 1);
+        for (LaneDistribution d : dists) {
+            List<WordLengthFinder.Candidate> wl = d == LaneDistribution.BIT ? WordLengthFinder.rank(link, prefix, lanes) : laneLevel;
+            for (int i = 0; i < Math.min(WORD_CANDIDATES, wl.size()); i++) {
+                WordLengthFinder.Candidate w = wl.get(i);
+                double prior = w.eligible() ? 0.02 * (WORD_CANDIDATES - i) : 0;
+                List<MergedBurst> merged = LaneMerger.merge(link, w.syncBits(), w.wordBits(), d, MAX_BURSTS);
+                List<CrcCatalogue.Match> crcs = CrcCatalogue.search(merged, CRC_BURSTS, CRC_SHARE);
+                double slope = entropySlope(merged, w.wordBits());
+                for (boolean msb : new boolean[] {false, true}) {
+                    CrcCatalogue.Match crc = CrcCatalogue.pick(crcs, msb);
+                    BurstFields f = BurstFields.find(merged, w.wordBits(), msb);
+                    String label = w.wordBits() + "-bit words, " + (msb ? "msb" : "lsb") + " first" + (lanes > 1 ? ", lanes " + d.label : "");
+                    Bits data = dataBits(merged, w.wordBits(), msb, f, crc);
+                    List<PictureCandidate> pics = PictureFinder.candidates(data.bits(), data.count(), label);
+                    double pic = 0;
+                    for (PictureCandidate p : pics) {
+                        pic = Math.max(pic, p.smoothness());
+                    }
+                    pictures.addAll(pics);
+                    double score = pic + 0.3 * (crc == null ? 0 : crc.share()) + 0.2 * f.lengthShare + 0.1 * f.opcodeShare + prior
+                            + 0.05 * (msb ? slope : -slope);
+                    framings.add(new Hypotheses.Framing(d, w.wordBits(), w.syncBits(), msb, w.wholeShare(), crc, f, pic, score));
+                }
+            }
+        }
+        framings.sort(Comparator.comparingDouble(Hypotheses.Framing::score).reversed());
+        pictures.sort(Comparator.comparingDouble(PictureCandidate::smoothness).reversed());
+        Hypotheses.Framing best = framings.get(0);
+        int s = best.syncBits();
+        StringBuilder wire = new StringBuilder();
+        for (int p = 0; p < s; p++) {
+            wire.append(pre[0][p + 1]);
+        }
+        double syncShare = s == 0 ? 0 : syncShare(link, pre, s);
+        List<WordLengthFinder.Candidate> ranked = best.distribution() == LaneDistribution.BIT ? WordLengthFinder.rank(link, prefix, lanes)
+                : laneLevel;
+        List<WordLengthFinder.Candidate> wordOrder = new ArrayList<>(ranked);
+        wordOrder.sort(Comparator.comparingInt((WordLengthFinder.Candidate x) -> x.wordBits() == best.wordBits() ? 0 : 1));
+        List<MergedBurst> merged = LaneMerger.merge(link, best.syncBits(), best.wordBits(), best.distribution(), MAX_BURSTS);
+        return new Hypotheses(c, clockConf, link, s, wire.toString(), syncShare, prefix, wordOrder, framings, best,
+                distinct(pictures), bitAutocorrelation(link, s), entropy(merged, best.wordBits()));
+    }
+
+    /** Packed bits and their count. */
+    record Bits(long[] bits, int count) {
+    }
+
+    /**
+     * The data bursts' words after the leading word (and length field), before the checksum,
+     * values MSB first. A data burst's word count comes from its length field when there is one;
+     * otherwise a count within two words of the most common one is taken as that one (a bit error
+     * next to a burst's end, in the idle run, moves the end seen), so one damaged burst does not
+     * shift the rest of the picture.
+     */
+    static Bits dataBits(List<MergedBurst> merged, int w, boolean msb, BurstFields f, CrcCatalogue.Match crc) {
+        int cap = PictureFinder.MAX_PIXELS * 24;
+        long[] out = new long[(cap + 63) / 64 + 1];
+        int n = 0;
+        int header = 1 + Math.max(0, f.lengthWord);
+        int crcWords = crc == null ? 0 : (crc.model().width() + w - 1) / w;
+        java.util.Map<Integer, Integer> counts = new java.util.HashMap<>();
+        for (MergedBurst b : merged) {
+            if (f.dataOpcode >= 0 && b.words(w) > 0 && b.word(0, w, msb) == f.dataOpcode) {
+                counts.merge(b.words(w), 1, Integer::sum);
+            }
+        }
+        int modal = counts.entrySet().stream().max(java.util.Map.Entry.comparingByValue()).map(java.util.Map.Entry::getKey).orElse(0);
+        for (MergedBurst b : merged) {
+            if (f.dataOpcode < 0 || b.words(w) == 0 || b.word(0, w, msb) != f.dataOpcode) {
+                continue;
+            }
+            int words = b.words(w);
+            if (f.lengthWord >= 0 && words > f.lengthWord) {
+                long fromField = b.word(f.lengthWord, w, msb) + f.lengthOffset;
+                if (fromField > 0 && Math.abs(fromField - words) <= 2) {
+                    words = (int) fromField;
+                }
+            } else if (Math.abs(words - modal) <= 2) {
+                words = modal;
+            }
+            int end = words - crcWords;
+            for (int q = header; q < end && n + w <= cap; q++) {
+                long v = q < b.words(w) ? b.word(q, w, msb) : 0;
+                for (int j = w - 1; j >= 0; j--) {
+                    if ((v >>> j & 1L) != 0) {
+                        out[n >>> 6] |= 1L << n;
+                    }
+                    n++;
+                }
+            }
+        }
+        return new Bits(out, n);
+    }
+
+    /** Entropy at the last wire position of a word minus that at the first (positive: the first bit varies less, as an MSB does). */
+    private static double entropySlope(List<MergedBurst> merged, int w) {
+        double[] h = entropy(merged, w);
+        return h.length == 0 ? 0 : h[h.length - 1] - h[0];
+    }
+
+    /** Binary entropy of each wire position within a word, over every whole word of every burst (at most 1 M words). */
+    static double[] entropy(List<MergedBurst> merged, int w) {
+        long[] ones = new long[w];
+        long words = 0;
+        for (MergedBurst b : merged) {
+            int n = b.words(w);
+            for (int q = 0; q < n && words < (1 << 20); q++, words++) {
+                for (int j = 0; j < w; j++) {
+                    if (b.bit(q * w + j)) {
+                        ones[j]++;
+                    }
+                }
+            }
+        }
+        double[] h = new double[w];
+        for (int j = 0; j < w && words > 0; j++) {
+            double p = ones[j] / (double) words;
+            h[j] = p <= 0 || p >= 1 ? 0 : -(p * Math.log(p) + (1 - p) * Math.log(1 - p)) / Math.log(2);
+        }
+        return h;
+    }
+
+    /** The three strongest lags 4..64 of the autocorrelation of lane 0's payload bits (as +1/-1), each {lag, value}. */
+    static double[][] bitAutocorrelation(SampledLink link, int syncBits) {
+        int cap = 1 << 16;
+        double[] x = new double[cap];
+        int n = 0;
+        for (int b = 0; b < link.bursts() && n < cap; b++) {
+            for (int i = link.start()[b] + syncBits; i < link.end()[b] && n < cap; i++) {
+                x[n++] = link.bit(0, i) ? 1 : -1;
+            }
+        }
+        if (n < 256) {
+            return new double[0][];
+        }
+        double[] r = Autocorrelation.of(x, n, 64);
+        double[][] top = new double[3][];
+        for (int t = 0; t < 3; t++) {
+            int bestLag = -1;
+            for (int lag = 4; lag <= 64; lag++) {
+                boolean taken = false;
+                for (int u = 0; u < t; u++) {
+                    taken |= top[u][0] == lag;
+                }
+                if (!taken && (bestLag < 0 || r[lag] > r[bestLag])) {
+                    bestLag = lag;
+                }
+            }
+            top[t] = new double[] {bestLag, r[bestLag]};
+        }
+        return top;
+    }
+
+    private static double syncShare(SampledLink link, int[][] pre, int s) {
+        double share = 1;
+        for (int k = 0; k < pre.length; k++) {
+            share = Math.min(share, SyncFinder.match(link, k, pre[k], s, 2));
+        }
+        return share;
+    }
+
+    /** Best first, one per (format, line length, framing), at most 12. */
+    private static List<PictureCandidate> distinct(List<PictureCandidate> sorted) {
+        List<PictureCandidate> out = new ArrayList<>();
+        java.util.Set<String> seen = new java.util.HashSet<>();
+        for (PictureCandidate p : sorted) {
+            if (out.size() < 12 && seen.add(p.format() + "/" + p.lineLength() + "/" + p.hypothesis())) {
+                out.add(p);
+            }
+        }
+        return out;
+    }
+}
