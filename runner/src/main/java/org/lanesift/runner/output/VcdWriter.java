@@ -78,6 +78,11 @@ public final class VcdWriter implements Closeable {
         long firstTime = Long.MAX_VALUE;
         long changes;
         long lastWordEnd = Long.MIN_VALUE;
+        /** Logic: where the next block is expected to start, and where the gap before it would start. */
+        long logicNextFs = Long.MIN_VALUE;
+        long logicGapFs;
+        /** Edges: end of the last block. */
+        long edgesEndFs = Long.MIN_VALUE;
 
         final int arrival;
         String key;
@@ -274,6 +279,11 @@ public final class VcdWriter implements Closeable {
         final long origin = b.startFs();
         long carryX;
         long carryI;
+        if (v.logicStarted && origin - v.logicNextFs > p / 2) {
+            // a gap between blocks (lost data, a live source's drop): unknown, never the last level held on
+            v.change(v.logicGapFs, 0, UNKNOWN);
+            v.logicStarted = false;
+        }
         if (!v.logicStarted) {
             boolean i0 = inv != null && (inv[0] & 1L) != 0;
             v.change(origin, (bits[0] & 1L), i0 ? UNKNOWN : KNOWN);
@@ -306,6 +316,8 @@ public final class VcdWriter implements Closeable {
         }
         v.logicLevel = b.get(n - 1);
         v.logicInvalid = inv != null && BitSets.get(inv, n - 1);
+        v.logicNextFs = origin + Math.round(n * p);
+        v.logicGapFs = origin + Math.round((n - 0.5) * p);
     }
 
     /**
@@ -392,6 +404,11 @@ public final class VcdWriter implements Closeable {
             sp = sortSpans(sp, ns);
         }
         boolean level = e.initialLevel();
+        if (v.edgesEndFs != Long.MIN_VALUE && e.startFs() > v.edgesEndFs) {
+            // a gap between blocks: unknown until the next block starts, no level carried across it
+            v.change(v.edgesEndFs, 0, UNKNOWN);
+        }
+        v.edgesEndFs = Math.max(v.edgesEndFs, e.endFs());
         v.change(e.startFs(), level ? 1 : 0, KNOWN);
         int k = 0;
         for (int s = 0; s <= ns; s++) {

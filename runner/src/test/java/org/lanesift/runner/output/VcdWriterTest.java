@@ -185,4 +185,27 @@ class VcdWriterTest {
         assertTrue(body.contains("#5000\n"), "the first fall");
         assertFalse(Files.exists(tmp.resolve("spool2")), "merge rounds leave no file behind");
     }
+
+    /**
+     * Issue 18 item 6: a gap between blocks (a live source's lost frame, a disconnect) is unknown in
+     * the VCD, for logic and for edges; the last level is never held across it.
+     */
+    @Test
+    void gapsBetweenBlocksAreUnknown() throws Exception {
+        Path f = tmp.resolve("gap.vcd");
+        VcdWriter w = new VcdWriter(f, tmp.resolve("spool"), "test");
+        // logic at 10 fs a sample: samples 0..3 (1 1 1 1) from 0, then samples 10..13 (1 1 0 0) from 100
+        w.logic("a", "s", new LogicBlock("s", 0, 0, 10, new long[] {0b1111L}, 4, null));
+        w.logic("a", "s", new LogicBlock("s", 10, 100, 10, new long[] {0b0011L}, 4, null));
+        // edges: high from 0 to 40, then a block from 100 to 140 starting high, falling at 120
+        w.edges("a", "e", new Edges("e", 0, 40, true, new long[0], 0, new long[0], 0));
+        w.edges("a", "e", new Edges("e", 100, 140, true, new long[] {120}, 1, new long[0], 0));
+        w.close();
+        assertEquals("#0\n$dumpvars\nx!\nx\"\n$end\n1!\n1\"\n"
+                + "#35\nx!\n"
+                + "#40\nx\"\n"
+                + "#100\n1!\n1\"\n"
+                + "#115\n0!\n"
+                + "#120\n0\"\n", bodyAfterDefinitions(f));
+    }
 }

@@ -25,6 +25,8 @@ final class SampleBuf {
     int n;
     /** Samples before this index have their sample time set. */
     int applied;
+    /** Time of the last sample given its time, kept when the buffer's front is dropped. */
+    private long lastApplied = Long.MIN_VALUE;
     private final double threshold;
     private double lastUi = Double.NaN;
     private long lastReach;
@@ -195,7 +197,23 @@ final class SampleBuf {
                 s[i] = nominal[i] + p;
             }
         }
+        // Sample times never go backwards. They could: in multiplied mode the slots after the next
+        // reference edge are placed with the period before it, so when the clock period shortens
+        // abruptly (legal in a capture: a glitchy or restarting clock) they land after the next
+        // period's first slots; and a phase in UI moves samples by different amounts where the UI
+        // changes. Such a sample is held at the time of the one before and marked suspect, so its
+        // bit is flagged rather than sampled out of order (and no annotation ends before it starts).
+        for (int i = applied; i < n; i++) {
+            long before = i > 0 ? s[i - 1] : lastApplied;
+            if (s[i] < before) {
+                s[i] = before;
+                flags[i] |= SUSPECT;
+            }
+        }
         applied = n;
+        if (n > 0) {
+            lastApplied = s[n - 1];
+        }
     }
 
     /** Drops the first {@code k} samples. */

@@ -1,0 +1,33 @@
+package org.lanesift.runner.chainfile;
+
+import com.code_intelligence.jazzer.junit.FuzzTest;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import org.lanesift.chain.ChainFileReader;
+import org.lanesift.plugin.InputException;
+
+/**
+ * Jazzer fuzz test of the chain-file reader (issue 18): arbitrary bytes give a chain or a declared
+ * input error with one short line, never another exception.
+ */
+class ChainFileFuzzTest {
+    @FuzzTest(maxDuration = "5s")
+    void chainFile(byte[] data) throws Exception {
+        Path dir = Files.createTempDirectory("lanesift-fuzz");
+        Path f = dir.resolve("chain.json");
+        try {
+            Files.write(f, data);
+            try {
+                new ChainFileReader().read(f, "chain.json");
+            } catch (InputException e) {
+                String m = e.getMessage();
+                if (m == null || m.isBlank() || m.indexOf('\n') >= 0 || m.length() > 2000) {
+                    throw new AssertionError("bad input must give one short line, got: " + m, e);
+                }
+            }
+        } finally {
+            Files.deleteIfExists(f);
+            Files.deleteIfExists(dir);
+        }
+    }
+}
