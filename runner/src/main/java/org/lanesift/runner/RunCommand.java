@@ -38,6 +38,7 @@ import org.lanesift.runner.output.RunSummary;
 import org.lanesift.runner.segments.SegmentException;
 import org.lanesift.runner.segments.SegmentPlan;
 import org.lanesift.runner.segments.SegmentedRun;
+import org.lanesift.unit.Quantity;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
@@ -430,6 +431,35 @@ final class RunCommand implements Callable<Integer> {
         return file + ": " + e.getMessage();
     }
 
+    /**
+     * An option's value for the report: as the user wrote it when given (with the option's unit
+     * after a bare number), otherwise the default in engineering units; an absent number (NaN) is
+     * "unset" (learned from the capture or derived, as the plugin documents), and a time with its
+     * unit is written with a space ({@code 1000000 samples}, {@code 0 UI}).
+     */
+    static String optionText(OptionSpec o, Object given, Object value) {
+        if (given != null) {
+            String text = given instanceof Double d && d == Math.rint(d) && Math.abs(d) < 1e15 ? String.valueOf(d.longValue())
+                    : String.valueOf(given);
+            return given instanceof Number && !o.unit().isEmpty() && o.type() != OptionSpec.Type.TIME ? text + " " + o.unit() : text;
+        }
+        if (value instanceof Double d) {
+            if (d.isNaN()) {
+                return "unset";
+            }
+            if (!o.unit().isEmpty() && d != 0 && !o.unit().equals("%")) {
+                return Quantity.format(d, o.unit());
+            }
+            String text = d == Math.rint(d) && Math.abs(d) < 1e15 ? String.valueOf(d.longValue()) : String.valueOf(d);
+            return o.unit().isEmpty() ? text : text + " " + o.unit();
+        }
+        String text = String.valueOf(value);
+        if (o.type() == OptionSpec.Type.TIME) {
+            return text.replaceFirst("^([-+]?[0-9.eE+-]*[0-9])([A-Za-z\u00b5\u03bc]+)$", "$1 $2");
+        }
+        return text;
+    }
+
     private static void declareOutputs(ChainSpec spec, PluginRegistry registry, RunOutputs outs, List<RunSummary.Instance> instances) {
         Set<String> wired = new HashSet<>();
         Map<String, List<PortSpec>> outsByNode = new HashMap<>();
@@ -440,7 +470,7 @@ final class RunCommand implements Callable<Integer> {
             outsByNode.put(n.id(), d.outputs(ov));
             Map<String, String> opts = new LinkedHashMap<>();
             for (OptionSpec o : d.options()) {
-                opts.put(o.name(), String.valueOf(ov.asMap().get(o.name())) + (o.unit().isEmpty() || o.type() == OptionSpec.Type.TIME ? "" : " " + o.unit()));
+                opts.put(o.name(), optionText(o, n.options().get(o.name()), ov.asMap().get(o.name())));
             }
             instances.add(new RunSummary.Instance(n.id(), d.id(), d.displayName() == null ? d.id() : d.displayName(), d.version(), opts,
                     Set.copyOf(n.options().keySet())));

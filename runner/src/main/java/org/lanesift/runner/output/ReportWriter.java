@@ -9,6 +9,7 @@ import java.util.Locale;
 import java.util.Map;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.DataKind;
+import org.lanesift.unit.Quantity;
 
 /**
  * Writes {@code report.md}: what ran on which inputs with which options, how it ended, the
@@ -85,9 +86,9 @@ public final class ReportWriter {
         if (stats.isEmpty()) {
             sb.append("No unwired outputs.\n");
         } else {
-            sb.append("| output | kind | blocks | count | span (s) | files |\n| --- | --- | --- | --- | --- | --- |\n");
+            sb.append("| output | kind | blocks | count | span | files |\n| --- | --- | --- | --- | --- | --- |\n");
             for (RunOutputs.OutputStats s : stats) {
-                String span = s.blocks() == 0 ? "" : Texts.seconds(s.firstFs()) + " to " + Texts.seconds(s.lastFs());
+                String span = s.blocks() == 0 ? "" : Quantity.format(s.firstFs() * 1e-15, "s") + " to " + Quantity.format(s.lastFs() * 1e-15, "s");
                 sb.append("| ").append(cell(s.name())).append(" | ").append(s.kind() == null ? "" : s.kind())
                         .append(" | ").append(s.blocks()).append(" | ").append(s.items()).append(' ').append(unit(s.kind()))
                         .append(" | ").append(span).append(" | ").append(cell(String.join(", ", s.files()))).append(" |\n");

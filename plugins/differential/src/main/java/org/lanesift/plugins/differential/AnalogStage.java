@@ -94,8 +94,8 @@ final class AnalogStage implements Stage, LegAligner.Sink {
         cmp.setInvert(s.invert);
         window = new LevelAcc(0);
         if (!learning) {
-            cmp.setThreshold(s.thresholdVolts, s.hysteresisVolts, 0);
-            initial = new WarmupLearner.Result(s.thresholdVolts, s.hysteresisVolts, "given");
+            cmp.setThreshold(s.givenThresholdVolts(), s.hysteresisVolts, 0);
+            initial = new WarmupLearner.Result(s.givenThresholdVolts(), s.hysteresisVolts, "given");
         }
     }
 

@@ -114,8 +114,13 @@ final class Comparator {
      * @param thresholdVolts  threshold
      * @param hysteresisVolts total width of the hysteresis band
      * @param fromIndex       first sample it applies to
+     * @throws IllegalStateException if the threshold or hysteresis is not a finite number (a bug)
      */
     void setThreshold(double thresholdVolts, double hysteresisVolts, long fromIndex) {
+        if (!Double.isFinite(thresholdVolts) || !(hysteresisVolts >= 0) || !Double.isFinite(hysteresisVolts)) {
+            // a NaN band trips on every sample without advancing: a bug upstream, never bad input
+            throw new IllegalStateException("comparator threshold " + thresholdVolts + " V, hysteresis " + hysteresisVolts + " V");
+        }
         thr = (float) thresholdVolts;
         float half = (float) (hysteresisVolts / 2);
         upper = thr + half;

@@ -128,6 +128,14 @@ final class Settings {
         };
     }
 
+    /**
+     * The threshold given by the options, when it is not learned: {@code referenceVolts} in mode
+     * {@code single} with {@code reference=fixed}, {@code thresholdVolts} otherwise.
+     */
+    double givenThresholdVolts() {
+        return mode == Mode.SINGLE ? referenceVolts : thresholdVolts;
+    }
+
     boolean autoThreshold() {
         return mode == Mode.SINGLE ? reference != Reference.FIXED : Double.isNaN(thresholdVolts);
     }

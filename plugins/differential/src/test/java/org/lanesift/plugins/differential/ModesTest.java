@@ -74,6 +74,22 @@ class ModesTest {
     }
 
     @Test
+    void fixedReferenceWithGivenHysteresisNeedsNoWarmup() {
+        // nothing to learn (reference and hysteresis given): the threshold is referenceVolts. Before the
+        // fix the comparator took thresholdVolts (absent, NaN) and tripped on every sample without end.
+        float[] leg = sine(6000, 31.7, 0.175, 1.2);
+        AnalogBlock in = TestSignals.block("in", P, leg);
+        long[] t = edges(Map.of("mode", "single", "reference", "fixed", "referenceVolts", 1.2, "hysteresisVolts", 0.02),
+                "in", in);
+        assertTrue(t.length > 300 && t.length < 400, "edges: " + t.length);
+        for (int k = 0; k < t.length; k++) {
+            // mathematics: crossings of the band edges 1.2 +/- 0.01 V, within asin(0.01 / 0.175) of the mid-level crossing
+            double exact = ((k + 1) * 31.7 / 2 - 0.3) * P;
+            assertEquals(exact, t[k], 0.4 * P, "edge " + k);
+        }
+    }
+
+    @Test
     void invertFlipsLevelsButNotTimes() {
         float[] d = sine(3000, 29.1, 0.3, 0);
         AnalogBlock diff = TestSignals.block("d", P, d);
