@@ -2,16 +2,14 @@ package org.lanesift.dist;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
-import static org.junit.jupiter.api.Assertions.fail;
 
 import java.io.BufferedWriter;
-import java.io.File;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Random;
-import java.util.concurrent.TimeUnit;
+import java.time.Duration;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -281,14 +279,9 @@ class CaptureSuiteTest {
         String netlist = Files.readString(Path.of("src", "test", "spice", "lvds-driver.cir"))
                 .replace(".param IDRV=3.5m", ".param IDRV=" + driveAmps).replace("lvds-driver.out", name + ".out");
         Path cir = write(name + ".cir", netlist);
-        Process p = new ProcessBuilder(exe.toString(), cir.getFileName().toString()).directory(tmp.toFile())
-                .redirectInput(new File("/dev/null")).redirectErrorStream(true).redirectOutput(tmp.resolve(name + ".log").toFile()).start();
-        if (!p.waitFor(120, TimeUnit.SECONDS)) {
-            p.destroyForcibly();
-            fail("ngspice did not finish in 120 s");
-        }
+        String log = ExternalTool.run(tmp, Duration.ofSeconds(120), List.of(exe.toString(), cir.getFileName().toString()));
         Path wave = tmp.resolve(name + ".out");
-        assertTrue(p.exitValue() == 0 && Files.exists(wave), () -> "ngspice failed: " + readQuietly(tmp.resolve(name + ".log")));
+        assertTrue(Files.exists(wave), () -> "ngspice wrote no " + wave.getFileName() + ": " + log);
         Path csv = tmp.resolve(name + ".csv");
         try (BufferedWriter w = Files.newBufferedWriter(csv)) {
             w.write("Time (s),CLK_P (V),CLK_N (V)\n");
@@ -361,20 +354,6 @@ class CaptureSuiteTest {
     }
 
     private static void exec(List<String> cmd) throws Exception {
-        Path log = tmp.resolve("log.txt");
-        Process p = new ProcessBuilder(cmd).directory(tmp.toFile()).redirectErrorStream(true).redirectOutput(log.toFile()).start();
-        if (!p.waitFor(120, TimeUnit.SECONDS)) {
-            p.destroyForcibly();
-            fail(cmd + " did not finish in 120 s");
-        }
-        assertEquals(0, p.exitValue(), () -> cmd + ": " + readQuietly(log));
-    }
-
-    private static String readQuietly(Path p) {
-        try {
-            return Files.readString(p);
-        } catch (java.io.IOException e) {
-            return e.toString();
-        }
+        ExternalTool.run(tmp, Duration.ofSeconds(120), cmd);
     }
 }

@@ -2,7 +2,6 @@ package org.lanesift.dist;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
-import static org.junit.jupiter.api.Assertions.fail;
 
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -11,7 +10,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Random;
-import java.util.concurrent.TimeUnit;
+import java.time.Duration;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.lanesift.json.JsonReader;
@@ -141,20 +140,6 @@ class LogicCaptureRateTest {
     }
 
     private static void exec(Path dir, List<String> cmd) throws Exception {
-        Path log = dir.resolve("log.txt");
-        Process p = new ProcessBuilder(cmd).directory(dir.toFile()).redirectErrorStream(true).redirectOutput(log.toFile()).start();
-        if (!p.waitFor(120, TimeUnit.SECONDS)) {
-            p.destroyForcibly();
-            fail(cmd + " did not finish in 120 s");
-        }
-        assertEquals(0, p.exitValue(), () -> cmd + ": " + readQuietly(log));
-    }
-
-    private static String readQuietly(Path p) {
-        try {
-            return Files.readString(p);
-        } catch (java.io.IOException e) {
-            return e.toString();
-        }
+        ExternalTool.run(dir, Duration.ofSeconds(120), cmd);
     }
 }

@@ -62,7 +62,8 @@ public final class ExternalTool {
      */
     public static String run(Path dir, Duration timeout, List<String> command) throws IOException, InterruptedException {
         Path log = dir.resolve(Path.of(command.get(0)).getFileName() + "-output.txt");
-        Process p = new ProcessBuilder(command).directory(dir.toFile()).redirectErrorStream(true).redirectOutput(log.toFile()).start();
+        Process p = new ProcessBuilder(command).directory(dir.toFile()).redirectInput(ProcessBuilder.Redirect.from(new java.io.File("/dev/null")))
+                .redirectErrorStream(true).redirectOutput(log.toFile()).start();
         if (!p.waitFor(timeout.toMillis(), TimeUnit.MILLISECONDS)) {
             p.destroyForcibly();
             Assertions.fail(command + " did not finish in " + timeout.toSeconds() + " s");
