@@ -14,6 +14,7 @@ import org.lanesift.json.JsonWriter;
 import org.lanesift.json.NumberStyle;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
+import org.lanesift.time.Femtos;
 
 /**
  * One running sampler: gathers the clock and lane edges, recovers the clock, plans sample points,
@@ -271,13 +272,20 @@ final class DualEdgeStage implements Stage {
             if (Math.abs(g / uiFs - 1) < 0.01) {
                 continue; // edges on the bit grid itself: an exact source (a simulation), nothing lost
             }
+            // the clock itself is measured on the same coarse grid: a clock with a period below two grid
+            // steps shows as a slower one (aliasing, sampling theorem; common practice), so the unit
+            // interval derived from it is a fact only if the period measured is the clock's own
+            double periodFs = uiFs * cfg.uiPerPeriod();
             double minRate = SampleGrid.MIN_SAMPLES_PER_UI * 1e15 / uiFs;
             throw new org.lanesift.plugin.InputFormatException(String.format(Locale.ROOT,
-                    "input '%s' (channel '%s'): its edges lie on a %s sample grid (%s) but the link's unit interval is %s;"
-                            + " a logic capture needs at least %.0f samples per unit interval to place every bit, so at least %s:"
-                            + " capture again at %s or faster, or capture the legs as analog",
-                    q.port, q.channel, org.lanesift.time.Femtos.format(g), rate(1e15 / g), org.lanesift.time.Femtos.format(uiFs),
-                    SampleGrid.MIN_SAMPLES_PER_UI, rate(minRate), rate(minRate)));
+                    "input '%s' (channel '%s'): its edges lie on a %s sample grid (%s), too coarse for this link;"
+                            + " the clock period measured on that grid is %s (%d unit intervals per period: %s each only if that"
+                            + " period is the clock's own), but on this grid a clock faster than one period per 2 samples (%s)"
+                            + " shows as a slower one, so the link's unit interval cannot be known from this capture; rule: a logic capture needs at least %.0f"
+                            + " samples per unit interval (Ts <= UI / 2) to place every bit, so at least %s for the period measured"
+                            + " and more if the clock is faster than it appears: capture again faster, or capture the legs as analog",
+                    q.port, q.channel, Femtos.format(g), rate(1e15 / g), Femtos.format(periodFs), cfg.uiPerPeriod(),
+                    Femtos.format(uiFs), Femtos.format(2 * g), SampleGrid.MIN_SAMPLES_PER_UI, rate(minRate)));
         }
     }
 

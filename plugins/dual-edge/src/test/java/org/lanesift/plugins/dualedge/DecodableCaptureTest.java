@@ -89,14 +89,18 @@ class DecodableCaptureTest {
         long grid = 10_000_000;
         RuntimeException e = assertThrows(RuntimeException.class, () -> Run.whole(SEVEN, onGrid(sim.clock(), grid),
                 onGrid(sim.lane(0), grid), onGrid(sim.lane(1), grid), onGrid(sim.lane(2), grid)));
-        // the 7 ns clock is itself aliased at 10 ns a sample, so the unit interval the message states is
-        // that of the clock as captured; the refusal and the capture's rate are what must hold
+        // the 7 ns clock is itself aliased at 10 ns a sample (it shows a period of about 23 ns), so the
+        // message must not state the unit interval as a fact: it states the period measured and the rule
         Throwable c = e;
         while (c != null && !(c instanceof InputFormatException)) {
             c = c.getCause();
         }
         assertTrue(c instanceof InputFormatException, String.valueOf(e));
         assertTrue(c.getMessage().contains("sample grid (100 MS/s)"), c.getMessage());
+        assertFalse(c.getMessage().contains("unit interval is"), c.getMessage());
+        assertTrue(c.getMessage().contains("the clock period measured on that grid is")
+                && c.getMessage().contains("unit interval cannot be known from this capture")
+                && c.getMessage().contains("at least 2 samples per unit interval (Ts <= UI / 2)"), c.getMessage());
     }
 
     /** At 400 MS/s (2.8 samples per UI) the same link decodes bit for bit, with the same grid check passed. */

@@ -98,12 +98,12 @@ final class FrameAssembler {
     private final LineMark vsTrail = new LineMark(0);
 
     FrameAssembler(String id, Out out, Timing timing, Pictures pictures, int maxWidth, int maxHeight, Detail detail,
-                   int hsForced, int vsForced, double clockTolPercent) {
+                   int hsForced, int vsForced, double clockTolPercent, String controlLane) {
         this.id = id;
         this.out = out;
         this.timing = timing;
         this.pictures = pictures;
-        this.findings = new FrameFindings(id, out, timing, detail);
+        this.findings = new FrameFindings(id, out, timing, detail, controlLane);
         this.maxWidth = maxWidth;
         this.maxHeight = maxHeight;
         this.hs = new SyncPolarity(hsForced);
@@ -201,14 +201,30 @@ final class FrameAssembler {
 
     // ------------------------------------------------------------------ events
 
+    /**
+     * Lock is lost at a pixel. Missing bit slots are this decoder's own finding (an error); a clock
+     * that stopped or jumped was found upstream, where the clock is recovered (its
+     * {@code clock-dropout} or {@code clock-glitch} finding), so here the loss and the frame it
+     * breaks are its consequences, stated as information: the fault is found once.
+     */
     private void lostLock(long idx, long t, String why, boolean incomplete) {
         if (lastLostIdx == NONE || idx - lastLostIdx > 1) {
-            findings.anomaly(idx, t, "lost-lock", Severity.ERROR, "lock lost: " + why);
+            if (incomplete) {
+                findings.anomaly(idx, t, "lost-lock", Severity.ERROR, "lock lost: " + why);
+            } else {
+                findings.anomaly(idx, t, "lost-lock", Severity.INFO, "lock lost: " + why
+                        + " (consequence of the clock finding of the sampler that recovers the clock)");
+            }
         }
         lastLostIdx = idx;
         validFrom = idx + (incomplete ? 1 : 0);
         if (frame.isOpen() && !frame.broken()) {
-            frame.markBroken("lock lost at " + Femtos.format(t) + " (" + why + ")");
+            String reason = "lock lost at " + Femtos.format(t) + " (" + why + ")";
+            if (incomplete) {
+                frame.markBroken(reason);
+            } else {
+                frame.markBrokenUpstream(reason);
+            }
         }
         firstGap.drop();
         if (!lineOpen) {
@@ -497,8 +513,9 @@ final class FrameAssembler {
         }
         String why = complete ? null : frame.broken() ? frame.brokenReason()
                 : !startSeen ? "the capture began inside this frame" : "the capture ended inside this frame";
-        // partial only because the capture began or ended inside it: a fact of the capture window, no fault
-        boolean windowOnly = !complete && (!frame.broken() || frame.brokenByCaptureEnd());
+        // partial only because the capture began or ended inside it (a fact of the capture window), or
+        // because of a clock fault found upstream: no fault of its own
+        boolean windowOnly = !complete && (!frame.broken() || frame.brokenElsewhere());
         findings.frame(f, index, complete, suspect, why, windowOnly, frame.suspectPixels());
         out.frame(f);
         if (pictures != null) {

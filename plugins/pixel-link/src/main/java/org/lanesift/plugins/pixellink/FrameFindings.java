@@ -4,6 +4,7 @@ import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Field;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.Frame;
+import org.lanesift.time.Femtos;
 
 /**
  * What the frame assembler reports, as annotations on four tracks ({@code <id>.frames},
@@ -19,9 +20,15 @@ final class FrameFindings {
     private final String trackLines;
     private final String trackSync;
     private final String trackAnom;
+    private final String controlLane;
+    private long firstLineLengthT = -1;
 
-    FrameFindings(String id, FrameAssembler.Out out, Timing timing, FrameAssembler.Detail detail) {
+    /**
+     * @param controlLane names the lane (and slots) carrying DE, HS and VS, for the framing finding
+     */
+    FrameFindings(String id, FrameAssembler.Out out, Timing timing, FrameAssembler.Detail detail, String controlLane) {
         this.out = out;
+        this.controlLane = controlLane;
         this.timing = timing;
         this.detail = detail;
         trackFrames = id + ".frames";
@@ -37,11 +44,24 @@ final class FrameFindings {
                 .field("pixel", Field.integer(pixel, "px")).build());
     }
 
-    /** A line of another length than the frame's first. */
+    /**
+     * A line of another length than the frame's first. Lines are framed by DE alone, so lines that
+     * change length mean the framing is inconsistent: the first is the one warning, naming the lane
+     * that carries DE, HS and VS (a lane off by whole unit intervals keeps clean margins and shows
+     * only here); every later one is information pointing back at it, so the fault is found once.
+     */
     void lineLength(long startT, long endT, int pixels, int expected, int row, long frame) {
         timing.anomaly("line-length");
-        out.annotate(Annotation.on(trackAnom, "line-length").span(startT, endT).severity(Severity.WARNING)
-                .label("line " + row + ": " + pixels + " px, expected " + expected)
+        boolean first = firstLineLengthT < 0;
+        if (first) {
+            firstLineLengthT = startT;
+        }
+        String label = "line " + row + ": " + pixels + " px, expected " + expected + (first
+                ? "; framing from " + controlLane + " is inconsistent (a lane off by whole unit intervals, or a source"
+                        + " changing its line length); later lines of another length are listed as information"
+                : " (consequence: see the first line-length finding at " + Femtos.format(firstLineLengthT) + ")");
+        out.annotate(Annotation.on(trackAnom, "line-length").span(startT, endT).severity(first ? Severity.WARNING : Severity.INFO)
+                .label(label)
                 .field("pixels", Field.integer(pixels, "px")).field("expected", Field.integer(expected, "px"))
                 .field("row", Field.integer(row, "")).field("frame", Field.integer(frame, "")).build());
     }

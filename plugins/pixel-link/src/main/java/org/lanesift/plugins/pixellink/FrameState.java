@@ -13,7 +13,7 @@ final class FrameState {
     private boolean startPending;
     private boolean broken;
     private String brokenReason;
-    private boolean brokenByCaptureEnd;
+    private boolean brokenElsewhere;
     private boolean suspect;
     private long firstRise;
     private long firstT;
@@ -46,7 +46,7 @@ final class FrameState {
         startSeen = seen;
         startPending = pending;
         broken = false;
-        brokenByCaptureEnd = false;
+        brokenElsewhere = false;
         suspect = false;
         brokenReason = null;
         firstRise = idx;
@@ -94,13 +94,31 @@ final class FrameState {
     /** The capture ended inside this frame's line: partial through the capture window, not a fault. */
     void markCaptureEnd(String why) {
         if (!broken) {
-            brokenByCaptureEnd = true;
+            brokenElsewhere = true;
         }
         markBroken(why);
     }
 
-    boolean brokenByCaptureEnd() {
-        return brokenByCaptureEnd;
+    /**
+     * Marks the frame broken by a clock fault that the stage recovering the clock reports.
+     *
+     * @param why the reason, for the frame's annotation
+     */
+    void markBrokenUpstream(String why) {
+        if (!broken) {
+            brokenElsewhere = true;
+        }
+        markBroken(why);
+    }
+
+    /**
+     * Whether the frame was broken only by a fact reported elsewhere: the capture's end, or a clock
+     * fault found upstream.
+     *
+     * @return true if the frame's break is no finding of its own
+     */
+    boolean brokenElsewhere() {
+        return brokenElsewhere;
     }
 
     boolean broken() {

@@ -74,7 +74,8 @@ final class PixelLinkStage implements Stage {
                 ctx.annotate(a);
             }
         };
-        this.asm = new FrameAssembler(id, out, timing, pics, maxWidth, maxHeight, detail, hsForced, vsForced, clockTolPercent);
+        this.asm = new FrameAssembler(id, out, timing, pics, maxWidth, maxHeight, detail, hsForced, vsForced, clockTolPercent,
+                mapping.controlLanes(laneNames));
         this.px = new int[BATCH * 2];
         this.tt = new long[BATCH * 2];
     }

@@ -261,6 +261,26 @@ public record SlotMapping(String name, String title, String source, int colourBi
     }
 
     /**
+     * Names the lanes carrying the control bits, for findings about the framing, e.g.
+     * {@code "the lane carrying DE/HS/VS (lane2)"}.
+     *
+     * @param laneNames the input port of each lane of the (first) link, in table order
+     * @return a phrase naming each lane with a control slot and the control bits it carries
+     */
+    String controlLanes(List<String> laneNames) {
+        StringBuilder b = new StringBuilder();
+        for (int l = 0; l < lanes.size(); l++) {
+            List<String> lane = lanes.get(l);
+            List<String> ctl = List.of("DE", "HS", "VS").stream().filter(lane::contains).toList();
+            if (!ctl.isEmpty()) {
+                b.append(b.length() == 0 ? "" : " and ").append("the lane carrying ").append(String.join("/", ctl))
+                        .append(" (").append(l < laneNames.size() ? laneNames.get(l) : "lane " + l).append(")");
+            }
+        }
+        return b.toString();
+    }
+
+    /**
      * Whether the table carries HS and VS.
      *
      * @return true if both sync bits are mapped

@@ -134,7 +134,7 @@ class FrameAssemblerPartsTest {
             }
         };
         Timing timing = new Timing();
-        FrameFindings quiet = new FrameFindings("px", out, timing, FrameAssembler.Detail.ANOMALIES);
+        FrameFindings quiet = new FrameFindings("px", out, timing, FrameAssembler.Detail.ANOMALIES, "the lane carrying DE/HS/VS (lane2)");
         quiet.line(0, 10, 4, 0, 0);
         quiet.hsync(0, 10, 2);
         quiet.vsync(0, 10, 40, 2, Long.MIN_VALUE);
@@ -151,8 +151,18 @@ class FrameAssemblerPartsTest {
         assertEquals(1L, timing.anomalies.get("partial-frame"));
         assertEquals(1L, timing.anomalies.get("lost-lock"));
 
+        // lines changing length: one warning naming the control lane, the later ones information pointing back
         got.clear();
-        FrameFindings all = new FrameFindings("px", out, new Timing(), FrameAssembler.Detail.LINES);
+        quiet.lineLength(1_000_000, 2_000_000, 12, 16, 3, 0);
+        quiet.lineLength(3_000_000, 4_000_000, 20, 16, 4, 0);
+        quiet.lineLength(5_000_000, 6_000_000, 12, 16, 5, 0);
+        assertEquals(List.of(Severity.WARNING, Severity.INFO, Severity.INFO), got.stream().map(Annotation::severity).toList());
+        assertTrue(got.get(0).label().contains("framing from the lane carrying DE/HS/VS (lane2) is inconsistent"), got.get(0).label());
+        assertTrue(got.get(2).label().contains("consequence: see the first line-length finding at 1.000 ns"), got.get(2).label());
+        assertEquals(3L, timing.anomalies.get("line-length"));
+
+        got.clear();
+        FrameFindings all = new FrameFindings("px", out, new Timing(), FrameAssembler.Detail.LINES, "the lane carrying DE/HS/VS (lane2)");
         all.line(0, 10, 4, 0, 0);
         all.hsync(0, 10, 2);
         all.vsync(0, 10, 40, Long.MIN_VALUE, Long.MIN_VALUE);
