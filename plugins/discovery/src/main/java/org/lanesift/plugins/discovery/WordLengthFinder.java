@@ -39,6 +39,9 @@ final class WordLengthFinder {
      * @return candidates, best first
      */
     static List<Candidate> rank(SampledLink link, int prefix, int lanesFactor) {
+        if (link.burstMode().equals("idle-runs")) {
+            return rankHiddenTails(link, prefix, lanesFactor);
+        }
         double[] share = new double[MAX_BITS + 1];
         int[] sync = new int[MAX_BITS + 1];
         double best = 0;
@@ -70,6 +73,85 @@ final class WordLengthFinder {
         rest.sort((a, b) -> Double.compare(b.wholeShare(), a.wholeShare()));
         out.addAll(rest);
         return out;
+    }
+
+    /**
+     * Idle runs: a burst's visible end is its last bit that differs from the idle level, so the
+     * payload seen is the payload sent less a hidden tail of idle-level bits (about half the
+     * bursts end in one such bit, a quarter in two, and so on). For word length {@code w} and
+     * sync {@code s}, each distinct visible payload length needs a pad {@code p} (bits up to the
+     * next whole word, per lane) and scores the likelihood of that tail against a length drawn
+     * at random: {@code log((1 - OUTLIER) * u * sum_j 2^-(p + j*u + 1) + OUTLIER)}, where
+     * {@code u} is the per-lane word unit. A longer word predicts the lengths more sharply
+     * ({@code u} grows), so a divisor of the true word length scores lower by about
+     * {@code log 2} per length, and a multiple misses half the lengths (Bayesian model
+     * comparison with an Occam factor; common practice). Candidates within
+     * {@link #TAIL_ELIGIBLE} of the best score per length are eligible, best score first.
+     */
+    private static List<Candidate> rankHiddenTails(SampledLink link, int prefix, int lanesFactor) {
+        double[] score = new double[MAX_BITS + 1];
+        int[] sync = new int[MAX_BITS + 1];
+        int lengths = 1;
+        double best = Double.NEGATIVE_INFINITY;
+        for (int w = MIN_BITS; w <= MAX_BITS; w++) {
+            score[w] = Double.NEGATIVE_INFINITY;
+            for (int s = prefix; s >= Math.max(0, prefix - w + 1); s--) {
+                long[] distinct = distinctLengths(link, s);
+                lengths = Math.max(1, distinct.length);
+                double d = tailScore(distinct, w, lanesFactor);
+                if (d > score[w] + 1e-9) {
+                    score[w] = d;
+                    sync[w] = s;
+                }
+            }
+            best = Math.max(best, score[w]);
+        }
+        List<Candidate> out = new ArrayList<>();
+        for (int w = MIN_BITS; w <= MAX_BITS; w++) {
+            out.add(new Candidate(w, sync[w], wholeShare(link, sync[w], w, lanesFactor),
+                    score[w] >= best - TAIL_ELIGIBLE * lengths));
+        }
+        double[] sc = score;
+        out.sort((a, b) -> a.eligible() != b.eligible() ? (a.eligible() ? -1 : 1)
+                : Double.compare(sc[b.wordBits()], sc[a.wordBits()]) != 0 ? Double.compare(sc[b.wordBits()], sc[a.wordBits()])
+                : Integer.compare(b.wordBits(), a.wordBits()));
+        return out;
+    }
+
+    /** Share of lengths assumed hit by a bit error or a cut (any length equally likely then). */
+    static final double OUTLIER = 0.05;
+    /** Score per distinct length below the best that still counts as eligible. */
+    static final double TAIL_ELIGIBLE = 0.1;
+
+    /** Log-likelihood of the hidden tails that word length {@code w} asks of these visible payload lengths (per lane). */
+    static double tailScore(long[] distinct, int w, int lanesFactor) {
+        int u = w / (int) gcd(w, lanesFactor);
+        double sum = 0;
+        for (long len : distinct) {
+            int pad = (int) ((u - len % u) % u);
+            double g = Math.pow(2, -(pad + 1)) / (1 - Math.pow(2, -u));
+            sum += Math.log((1 - OUTLIER) * u * g + OUTLIER);
+        }
+        return sum;
+    }
+
+    /** The distinct payload lengths (after {@code syncBits}) of the inner bursts. */
+    private static long[] distinctLengths(SampledLink link, int syncBits) {
+        int n = link.bursts();
+        int from = n > 4 ? 1 : 0;
+        int to = n > 4 ? n - 1 : n;
+        java.util.Set<Long> lengths = new java.util.TreeSet<>();
+        for (int b = from; b < to; b++) {
+            long len = link.length(b) - syncBits;
+            if (len > 0) {
+                lengths.add(len);
+            }
+        }
+        return lengths.stream().mapToLong(Long::longValue).toArray();
+    }
+
+    private static long gcd(long a, long b) {
+        return b == 0 ? a : gcd(b, a % b);
     }
 
     /**
