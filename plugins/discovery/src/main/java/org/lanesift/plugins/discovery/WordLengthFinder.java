@@ -135,19 +135,32 @@ final class WordLengthFinder {
         return sum;
     }
 
-    /** The distinct payload lengths (after {@code syncBits}) of the inner bursts. */
+    /**
+     * The distinct payload lengths (after {@code syncBits}) of the inner bursts, longest first;
+     * a length less than {@link #MIN_BITS} below a kept one is taken as the same sent length
+     * with a longer hidden tail and dropped.
+     */
     private static long[] distinctLengths(SampledLink link, int syncBits) {
         int n = link.bursts();
         int from = n > 4 ? 1 : 0;
         int to = n > 4 ? n - 1 : n;
-        java.util.Set<Long> lengths = new java.util.TreeSet<>();
+        java.util.TreeSet<Long> lengths = new java.util.TreeSet<>();
         for (int b = from; b < to; b++) {
             long len = link.length(b) - syncBits;
             if (len > 0) {
                 lengths.add(len);
             }
         }
-        return lengths.stream().mapToLong(Long::longValue).toArray();
+        // one sent length shows as several when its bursts hide tails of different lengths: keep
+        // the longest of lengths less than MIN_BITS apart (sent lengths differ by a word or more)
+        long[] out = new long[lengths.size()];
+        int m = 0;
+        for (long len : lengths.descendingSet()) {
+            if (m == 0 || out[m - 1] - len >= MIN_BITS) {
+                out[m++] = len;
+            }
+        }
+        return java.util.Arrays.copyOf(out, m);
     }
 
     private static long gcd(long a, long b) {
