@@ -44,11 +44,14 @@ public final class DiscoveryEngine {
         List<Hypotheses.Framing> framings = new ArrayList<>();
         List<PictureCandidate> pictures = new ArrayList<>();
         List<WordLengthFinder.Candidate> laneLevel = WordLengthFinder.rank(link, prefix, 1);
+        boolean idleRuns = link.burstMode().equals("idle-runs");
         for (LaneDistribution d : dists) {
-            List<WordLengthFinder.Candidate> wl = d == LaneDistribution.BIT ? WordLengthFinder.rank(link, prefix, lanes) : laneLevel;
-            for (int i = 0; i < Math.min(WORD_CANDIDATES, wl.size()); i++) {
+            boolean spread = d == LaneDistribution.BIT && idleRuns;
+            List<WordLengthFinder.Candidate> wl = spread ? spreadCandidates(link, prefix, lanes, laneLevel)
+                    : d == LaneDistribution.BIT ? WordLengthFinder.rank(link, prefix, lanes) : laneLevel;
+            for (int i = 0; i < (spread ? wl.size() : Math.min(WORD_CANDIDATES, wl.size())); i++) {
                 WordLengthFinder.Candidate w = wl.get(i);
-                double prior = w.eligible() ? 0.02 * (WORD_CANDIDATES - i) : 0;
+                double prior = w.eligible() && !spread ? 0.02 * (WORD_CANDIDATES - i) : 0;
                 List<MergedBurst> merged = LaneMerger.merge(link, w.syncBits(), w.wordBits(), d, MAX_BURSTS);
                 List<CrcCatalogue.Match> crcs = CrcCatalogue.search(merged, CRC_BURSTS, CRC_SHARE);
                 double slope = entropySlope(merged, w.wordBits());
@@ -87,6 +90,33 @@ public final class DiscoveryEngine {
                 distinct(pictures), bitAutocorrelation(link, s), entropy(merged, best.wordBits()));
     }
 
+    /** Word lengths tried with bits spread over the lanes on idle-run links (at most this many). */
+    static final int SPREAD_CANDIDATES = 5;
+
+    /**
+     * Bits spread over N lanes, idle-run links: a lane carries {@code words * w / N} bits, so the
+     * burst lengths show a lane unit {@code U} (the best lane-level word length) and cannot tell
+     * apart the word lengths {@code w} that divide {@code N * U}; all of them (longest first, at
+     * most {@link #SPREAD_CANDIDATES}) are tried, with the best spread-lane ranking's first
+     * candidate when it is not among them, and the picture, checksum and fields decide.
+     */
+    private static List<WordLengthFinder.Candidate> spreadCandidates(SampledLink link, int prefix, int lanes,
+                                                                     List<WordLengthFinder.Candidate> laneLevel) {
+        List<WordLengthFinder.Candidate> out = new ArrayList<>();
+        WordLengthFinder.Candidate unit = laneLevel.get(0);
+        int span = lanes * unit.wordBits();
+        for (int w = WordLengthFinder.MAX_BITS; w >= WordLengthFinder.MIN_BITS && out.size() < SPREAD_CANDIDATES; w--) {
+            if (span % w == 0) {
+                out.add(new WordLengthFinder.Candidate(w, unit.syncBits(), WordLengthFinder.wholeShare(link, unit.syncBits(), w, lanes), true));
+            }
+        }
+        WordLengthFinder.Candidate first = WordLengthFinder.rank(link, prefix, lanes).get(0);
+        if (out.stream().noneMatch(c -> c.wordBits() == first.wordBits() && c.syncBits() == first.syncBits())) {
+            out.add(first);
+        }
+        return out;
+    }
+
     /** Packed bits and their count. */
     record Bits(long[] bits, int count) {
     }
@@ -94,9 +124,10 @@ public final class DiscoveryEngine {
     /**
      * The data bursts' words after the leading word (and length field), before the checksum,
      * values MSB first. A data burst's word count comes from its length field when there is one;
-     * otherwise a count within two words of the most common one is taken as that one (a bit error
-     * next to a burst's end, in the idle run, moves the end seen), so one damaged burst does not
-     * shift the rest of the picture.
+     * (when it claims no more words than the burst carries), otherwise a count within two words
+     * or an eighth of the most common one is taken as that one (a bit error next to a burst's
+     * end, in the idle run, moves the end seen, by up to a word per lane), so one damaged burst
+     * does not shift the rest of the picture.
      */
     static Bits dataBits(List<MergedBurst> merged, int w, boolean msb, BurstFields f, CrcCatalogue.Match crc) {
         int cap = PictureFinder.MAX_PIXELS * 24;
@@ -118,10 +149,12 @@ public final class DiscoveryEngine {
             int words = b.words(w);
             if (f.lengthWord >= 0 && words > f.lengthWord) {
                 long fromField = b.word(f.lengthWord, w, msb) + f.lengthOffset;
-                if (fromField > 0 && Math.abs(fromField - words) <= 2) {
+                if (fromField > 0 && fromField <= words + 2) {
                     words = (int) fromField;
+                } else if (Math.abs(words - modal) <= Math.max(2, modal / 8)) {
+                    words = modal;
                 }
-            } else if (Math.abs(words - modal) <= 2) {
+            } else if (Math.abs(words - modal) <= Math.max(2, modal / 8)) {
                 words = modal;
             }
             int end = words - crcWords;

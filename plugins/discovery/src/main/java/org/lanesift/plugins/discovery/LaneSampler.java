@@ -7,11 +7,20 @@ import org.lanesift.data.BitSets;
  * Samples each data lane at the sample points of a {@link Clocking} (one bit per slot of every
  * running clock period) and cuts the bits into bursts: a pause of the clock ends a burst, and so
  * does a run of at least {@link #IDLE_RUN_BITS} bits during which every lane stays at its idle
- * level. At most {@code maxBits} bits per lane are kept, so memory is bounded by the bits examined.
+ * level (a flip of one or two bits with long idle runs on both sides is part of the idle run,
+ * see {@link #GLITCH_GUARD_BITS}). At most {@code maxBits} bits per lane are kept, so memory is bounded by the bits examined.
  */
 final class LaneSampler {
     /** Shortest idle run that separates bursts on a running clock (common practice: idle gaps last many unit intervals). */
     static final int IDLE_RUN_BITS = 96;
+    /** Longest non-idle stretch inside an idle run taken as a bit error rather than a burst. */
+    static final int GLITCH_BITS = 2;
+    /**
+     * Idle bits needed on both sides of such a stretch: more than a word of the longest length
+     * (32 bits) plus a leading word, so that the last one bit of a burst that ends in a small
+     * value sent MSB first is not taken for an error.
+     */
+    static final int GLITCH_GUARD_BITS = 48;
 
     private LaneSampler() {
     }
@@ -92,6 +101,38 @@ final class LaneSampler {
         return idle;
     }
 
+    /** Whether every lane is at its idle level at bit {@code i}. */
+    private static boolean quiet(long[][] bits, boolean[] idle, int i) {
+        for (int k = 0; k < bits.length; k++) {
+            if (((bits[k][i >>> 6] >>> i & 1L) != 0) != idle[k]) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    /**
+     * The length of a bit error in an idle run at bit {@code i}: at most {@link #GLITCH_BITS}
+     * non-quiet bits followed by at least {@link #GLITCH_GUARD_BITS} quiet ones (the caller has
+     * seen as many before), or 0 when this is not one. Counted as idle, such a flip neither
+     * stretches the burst before it nor joins two bursts.
+     */
+    private static int glitch(long[][] bits, boolean[] idle, int i, int end) {
+        int len = 0;
+        while (len < GLITCH_BITS && i + len < end && !quiet(bits, idle, i + len)) {
+            len++;
+        }
+        if (i + len + GLITCH_GUARD_BITS > end) {
+            return 0;
+        }
+        for (int j = i + len; j < i + len + GLITCH_GUARD_BITS; j++) {
+            if (!quiet(bits, idle, j)) {
+                return 0;
+            }
+        }
+        return len;
+    }
+
     private static int[][] cut(long[][] bits, int n, boolean[] idle, int[] stopAfter, int stops) {
         int[] s = new int[64];
         int[] e = new int[64];
@@ -102,12 +143,14 @@ final class LaneSampler {
             int burstStart = segStart;
             int quietRun = 0;
             for (int i = segStart; i < segEnd; i++) {
-                boolean quiet = true;
-                for (int k = 0; k < bits.length && quiet; k++) {
-                    quiet = ((bits[k][i >>> 6] >>> i & 1L) != 0) == idle[k];
-                }
-                if (quiet) {
+                if (quiet(bits, idle, i)) {
                     quietRun++;
+                    continue;
+                }
+                int glitch = quietRun >= GLITCH_GUARD_BITS ? glitch(bits, idle, i, segEnd) : 0;
+                if (glitch > 0) {
+                    quietRun += glitch;
+                    i += glitch - 1;
                     continue;
                 }
                 if (quietRun >= IDLE_RUN_BITS) {

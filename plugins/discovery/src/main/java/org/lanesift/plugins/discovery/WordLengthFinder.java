@@ -39,6 +39,9 @@ final class WordLengthFinder {
      * @return candidates, best first
      */
     static List<Candidate> rank(SampledLink link, int prefix, int lanesFactor) {
+        if (link.burstMode().equals("idle-runs")) {
+            return rankHiddenTails(link, prefix, lanesFactor);
+        }
         double[] share = new double[MAX_BITS + 1];
         int[] sync = new int[MAX_BITS + 1];
         double best = 0;
@@ -70,6 +73,117 @@ final class WordLengthFinder {
         rest.sort((a, b) -> Double.compare(b.wholeShare(), a.wholeShare()));
         out.addAll(rest);
         return out;
+    }
+
+    /**
+     * Idle runs: a burst's visible end is its last bit that differs from the idle level, so the
+     * payload seen is the payload sent less a hidden tail of idle-level bits (about half the
+     * bursts end in one such bit, a quarter in two, and so on). For word length {@code w} and
+     * sync {@code s}, each distinct visible payload length needs a pad {@code p} (bits up to the
+     * next whole word, per lane) and scores the likelihood of that tail against a length drawn
+     * at random: {@code log((1 - OUTLIER) * u * sum_j 2^-(p + j*u + 1) + OUTLIER)}, where
+     * {@code u} is the per-lane word unit. A longer word predicts the lengths more sharply
+     * ({@code u} grows), so a divisor of the true word length scores lower by about
+     * {@code log 2} per length, and a multiple misses half the lengths (Bayesian model
+     * comparison with an Occam factor; common practice). Candidates within
+     * {@link #TAIL_ELIGIBLE} of the best score per length are eligible, best score first.
+     */
+    private static List<Candidate> rankHiddenTails(SampledLink link, int prefix, int lanesFactor) {
+        double[] score = new double[MAX_BITS + 1];
+        int[] sync = new int[MAX_BITS + 1];
+        double weight = 1;
+        double best = Double.NEGATIVE_INFINITY;
+        for (int w = MIN_BITS; w <= MAX_BITS; w++) {
+            score[w] = Double.NEGATIVE_INFINITY;
+            for (int s = prefix; s >= Math.max(0, prefix - w + 1); s--) {
+                long[][] lengths = distinctLengths(link, s);
+                double d = tailScore(lengths[0], lengths[1], w, lanesFactor);
+                if (d > score[w] + 1e-9) {
+                    score[w] = d;
+                    sync[w] = s;
+                    weight = 0;
+                    for (long x : lengths[1]) {
+                        weight += x;
+                    }
+                }
+            }
+            best = Math.max(best, score[w]);
+        }
+        List<Candidate> out = new ArrayList<>();
+        for (int w = MIN_BITS; w <= MAX_BITS; w++) {
+            out.add(new Candidate(w, sync[w], wholeShare(link, sync[w], w, lanesFactor),
+                    score[w] >= best - TAIL_ELIGIBLE * Math.max(1, weight)));
+        }
+        double[] sc = score;
+        out.sort((a, b) -> a.eligible() != b.eligible() ? (a.eligible() ? -1 : 1)
+                : Double.compare(sc[b.wordBits()], sc[a.wordBits()]) != 0 ? Double.compare(sc[b.wordBits()], sc[a.wordBits()])
+                : Integer.compare(b.wordBits(), a.wordBits()));
+        return out;
+    }
+
+    /** Share of lengths assumed hit by a bit error or a cut (any length equally likely then). */
+    static final double OUTLIER = 0.05;
+    /** Score per unit of weight below the best that still counts as eligible. */
+    static final double TAIL_ELIGIBLE = 0.1;
+    /**
+     * Most weight one distinct length gets (its burst count, up to this): a length seen once may
+     * be a bit error in the idle run, one seen often is sent; capped so that many equal data
+     * bursts do not make every divisor of their length look right.
+     */
+    static final int MAX_WEIGHT = 3;
+
+    /**
+     * Weighted log-likelihood of the hidden tails that word length {@code w} asks of these
+     * visible payload lengths (per lane).
+     */
+    static double tailScore(long[] lengths, long[] weights, int w, int lanesFactor) {
+        int u = w / (int) gcd(w, lanesFactor);
+        double sum = 0;
+        for (int i = 0; i < lengths.length; i++) {
+            long len = lengths[i];
+            int pad = (int) ((u - len % u) % u);
+            double g = Math.pow(2, -(pad + 1)) / (1 - Math.pow(2, -u));
+            sum += weights[i] * Math.log((1 - OUTLIER) * u * g + OUTLIER);
+        }
+        return sum;
+    }
+
+    /**
+     * The distinct payload lengths (after {@code syncBits}) of the inner bursts, longest first,
+     * and their weights (burst count, at most {@link #MAX_WEIGHT}); a length less than
+     * {@link #MIN_BITS} below a kept one is taken as the same sent length with a longer hidden
+     * tail and counted with it.
+     */
+    private static long[][] distinctLengths(SampledLink link, int syncBits) {
+        int n = link.bursts();
+        int from = n > 4 ? 1 : 0;
+        int to = n > 4 ? n - 1 : n;
+        java.util.TreeMap<Long, Integer> counts = new java.util.TreeMap<>();
+        for (int b = from; b < to; b++) {
+            long len = link.length(b) - syncBits;
+            if (len > 0) {
+                counts.merge(len, 1, Integer::sum);
+            }
+        }
+        // one sent length shows as several when its bursts hide tails of different lengths
+        // (sent lengths differ by a word or more)
+        long[] out = new long[counts.size()];
+        long[] weight = new long[counts.size()];
+        int m = 0;
+        for (java.util.Map.Entry<Long, Integer> e : counts.descendingMap().entrySet()) {
+            if (m == 0 || out[m - 1] - e.getKey() >= MIN_BITS) {
+                out[m++] = e.getKey();
+            }
+            weight[m - 1] += e.getValue();
+        }
+        for (int i = 0; i < m; i++) {
+            weight[i] = Math.min(MAX_WEIGHT, weight[i]);
+        }
+        return new long[][] {java.util.Arrays.copyOf(out, m), java.util.Arrays.copyOf(weight, m)};
+    }
+
+    private static long gcd(long a, long b) {
+        return b == 0 ? a : gcd(b, a % b);
     }
 
     /**
