@@ -145,7 +145,7 @@ final class CsvLayout {
             }
             int n = fields(head, lines.get(d), c[0]).size();
             int h = prevNonBlank(head, lines, d);
-            boolean match = h >= 0 && fields(head, lines.get(h), c[0]).size() == n;
+            boolean match = h >= 0 && headerFits(fields(head, lines.get(h), c[0]), fields(head, lines.get(d), c[0]));
             int score = (match ? 1_000_000 : 0) + n * 100 - Math.min(d, 99);
             if (score > bestScore) {
                 bestScore = score;
@@ -175,12 +175,19 @@ final class CsvLayout {
                     + MAX_COLUMNS + " are supported");
         }
         // header, and an optional units line between header and data
+        refuseBadLeadRow(file, head, lines, bestData, l.separator, l.decimalComma, np);
         int h = prevNonBlank(head, lines, bestData);
         List<String> names = null;
         String[] lineUnits = null;
         if (h >= 0) {
             List<String> hf = fields(head, lines.get(h), l.separator);
-            if (hf.size() == l.fieldCount) {
+            if (headerFits(hf, data0)) {
+                if (hf.size() < l.fieldCount) {
+                    hf = new ArrayList<>(hf);
+                    hf.add(""); // the rows end with a separator, the header does not
+                } else if (hf.size() > l.fieldCount) {
+                    hf = hf.subList(0, l.fieldCount); // the header ends with a separator, the rows do not
+                }
                 if (allUnits(hf)) {
                     int h2 = prevNonBlank(head, lines, h);
                     if (h2 >= 0 && fields(head, lines.get(h2), l.separator).size() == l.fieldCount) {
@@ -324,12 +331,80 @@ final class CsvLayout {
         return l;
     }
 
+    /**
+     * A header fits the data rows if it has as many cells, or one fewer when the data row's last
+     * cell is empty (a separator at the end of the rows only), or one more when its own last cell is
+     * empty (a separator at the end of the header only).
+     */
+    private static boolean headerFits(List<String> header, List<String> row) {
+        return header.size() == row.size() || header.size() == row.size() - 1 && row.get(row.size() - 1).isBlank()
+                || header.size() == row.size() + 1 && header.get(header.size() - 1).isBlank();
+    }
+
+    /**
+     * The lines just before the first data row are taken as the header; if they are data rows with
+     * a bad cell (a number first, most cells numbers), that cell is reported with its line instead of
+     * the file being read as one without a time column. Walks back over such rows and reports the
+     * first bad cell from the earliest on.
+     */
+    private static void refuseBadLeadRow(Path file, byte[] head, List<int[]> lines, int data, byte sep, boolean dc,
+            NumberParser np) {
+        int n = fields(head, lines.get(data), sep).size();
+        int bad = -1;
+        for (int h = prevNonBlank(head, lines, data); h >= 0; h = prevNonBlank(head, lines, h)) {
+            List<String> f = fields(head, lines.get(h), sep);
+            int before = prevNonBlank(head, lines, h);
+            boolean underHeader = before >= 0 && fields(head, lines.get(before), sep).size() == f.size();
+            if (f.size() != n || !looksLikeData(f, dc, np, underHeader)) {
+                break;
+            }
+            bad = h;
+        }
+        for (int i = bad; i >= 0 && i < data; i++) {
+            if (allBlank(head, lines.get(i)[0], lines.get(i)[1])) {
+                continue;
+            }
+            List<String> f = fields(head, lines.get(i), sep);
+            for (int j = 0; j < f.size(); j++) {
+                String cell = unquote(f.get(j).trim());
+                if (!isNumber(cell, dc, np) && !(j == f.size() - 1 && cell.isEmpty())) {
+                    throw new CaptureFormatException(file, i + 1, "column " + (j + 1) + ": expected a number"
+                            + (dc ? " with a decimal comma" : "") + ", found '" + org.lanesift.plugin.Echo.of(cell)
+                            + "' (the rows after it are numbers)");
+                }
+            }
+        }
+    }
+
+    /** A row is data, not a header, if most cells are numbers and the first is one (or a header line sits above it). */
+    private static boolean looksLikeData(List<String> f, boolean dc, NumberParser np, boolean underHeader) {
+        int numbers = 0;
+        for (String c : f) {
+            if (isNumber(unquote(c.trim()), dc, np)) {
+                numbers++;
+            }
+        }
+        boolean firstIsNumber = isNumber(unquote(f.get(0).trim()), dc, np);
+        return numbers > 0 && numbers * 2 >= f.size() && (firstIsNumber || underHeader);
+    }
+
+    private static boolean isNumber(String cell, boolean dc, NumberParser np) {
+        byte[] b = cell.getBytes(StandardCharsets.ISO_8859_1);
+        np.parse(b, 0, b.length, dc);
+        return np.ok && !cell.isEmpty();
+    }
+
     long estimatedRows() {
         return Math.max(1, Math.round((fileSize - dataOffset) / Math.max(1.0, headRowBytes)));
     }
 
     private static int trimEnd(byte[] b, int from, int to) {
-        while (to > from && (b[to - 1] == ' ' || b[to - 1] == '\t' || b[to - 1] == '\r')) {
+        return trimEnd(b, from, to, (byte) 0);
+    }
+
+    /** Trims spaces and line ends, and tabs unless the tab is the separator (then a trailing tab ends an empty cell). */
+    private static int trimEnd(byte[] b, int from, int to, byte sep) {
+        while (to > from && (b[to - 1] == ' ' || b[to - 1] == '\t' && sep != '\t' || b[to - 1] == '\r')) {
             to--;
         }
         return to;
@@ -481,7 +556,7 @@ final class CsvLayout {
     private static int numericFields(byte[] b, int[] ln, byte sep, boolean dc, NumberParser np) {
         int from = ln[0];
         int count = 0;
-        int end = trimEnd(b, ln[0], ln[1]);
+        int end = trimEnd(b, ln[0], ln[1], sep);
         for (int k = ln[0]; k <= end; k++) {
             if (k == end || b[k] == sep) {
                 int s = from;
@@ -505,7 +580,7 @@ final class CsvLayout {
     private static List<String> fields(byte[] b, int[] ln, byte sep) {
         List<String> out = new ArrayList<>();
         int from = ln[0];
-        int end = trimEnd(b, ln[0], ln[1]);
+        int end = trimEnd(b, ln[0], ln[1], sep);
         for (int k = ln[0]; k <= end; k++) {
             if (k == end || b[k] == sep) {
                 out.add(text(b, from, k - from));

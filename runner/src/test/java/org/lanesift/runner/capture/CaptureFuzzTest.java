@@ -24,8 +24,11 @@ class CaptureFuzzTest {
 
     @FuzzTest(maxDuration = "5s")
     void rawSidecar(FuzzedDataProvider d) throws Exception {
-        byte[] capture = d.consumeBytes(64);
-        byte[] sidecar = d.consumeRemainingAsBytes();
+        rawSidecar(d.consumeBytes(64), d.consumeRemainingAsBytes());
+    }
+
+    /** The raw-capture target: a capture file and its JSON sidecar. */
+    static void rawSidecar(byte[] capture, byte[] sidecar) throws Exception {
         FuzzChecks.withFile(capture, ".bin", f -> {
             try {
                 Files.write(f.resolveSibling(f.getFileName() + ".json"), sidecar);

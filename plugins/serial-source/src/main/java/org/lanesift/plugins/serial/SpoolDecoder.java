@@ -7,8 +7,11 @@ import org.lanesift.annotation.Severity;
  * Turns spooled bytes back into runs of logic8 samples with their capture-wide sample index, and
  * into gap annotations. A run never spans a gap: at a sequence gap, a sample-index jump, a CRC
  * failure followed by missing samples, or a reconnect, the current run ends and the next starts
- * at the true index of the next good sample (docs/spool.md, "Gaps"). Memory: one frame buffer
- * and one run buffer of {@code blockSamples} bytes.
+ * at the true index of the next good sample (docs/spool.md, "Gaps"). Every irregularity is
+ * annotated: samples lost before the first frame, a sequence jump over a continuous index, an index
+ * overlap (samples trimmed), a late (reordered) or repeated frame; a gap whose length comes from
+ * wall-clock time is labelled an estimate. Memory: one frame buffer and one run buffer of
+ * {@code blockSamples} bytes.
  */
 final class SpoolDecoder {
     /** Receives runs and annotations. */
@@ -38,6 +41,12 @@ final class SpoolDecoder {
     private long duplicates;
     private long samples;
     private long dropBefore;
+    private long reordered;
+    private long overlaps;
+    private long seqJumps;
+    /** Sequence numbers [from, to) of the last sequence gap; a late frame in it arrived out of order. */
+    private long gapSeqFrom = -1;
+    private long gapSeqTo = -1;
 
     SpoolDecoder(SpoolHeader header, int blockSamples, Out out) {
         this.header = header;
@@ -60,6 +69,21 @@ final class SpoolDecoder {
 
     long samples() {
         return samples;
+    }
+
+    /** @return frames that arrived after later ones (their samples fell in a reported gap and are dropped) */
+    long reordered() {
+        return reordered;
+    }
+
+    /** @return frames whose index overlapped samples already read (the overlap trimmed) */
+    long overlaps() {
+        return overlaps;
+    }
+
+    /** @return sequence jumps with a continuous sample index (frames lost that held no new samples) */
+    long seqJumps() {
+        return seqJumps;
     }
 
     /** Samples (and gaps, corrupt runs, repeats) before this capture-wide index are left out (a replay from a start time). */
@@ -88,23 +112,25 @@ final class SpoolDecoder {
             return;
         }
         segmentStart = false;
-        expectedIndex = resume(deviceIndex + shift);
+        expectedIndex = resume(deviceIndex + shift, -1);
     }
 
     /**
      * The capture-wide index of a segment's first frame: a device that counts from 0 again after a
      * reconnect is moved on by the wall-clock gap, and the samples missed become a gap.
      */
-    private long resume(long idx) {
-        if (expectedIndex >= 0) {
-            if (idx < expectedIndex) { // the device restarted its count
-                long resume = expectedIndex + wallGapSamples();
-                shift += resume - idx;
-                idx = resume;
+    private long resume(long idx, long seq) {
+        if (expectedIndex < 0) {
+            if (idx > 0) { // the device counts from 0 since configured: the first frames were lost
+                gap(0, idx, seq, "start", false);
             }
-            if (idx > expectedIndex) {
-                gap(expectedIndex, idx, -1, "reconnect");
-            }
+        } else if (idx < expectedIndex) { // the device restarted its count: only the clock tells how much is missing
+            long resume = expectedIndex + wallGapSamples();
+            shift += resume - idx;
+            gap(expectedIndex, resume, -1, "reconnect", true);
+            idx = resume;
+        } else if (idx > expectedIndex) {
+            gap(expectedIndex, idx, -1, "reconnect", false);
         }
         return idx;
     }
@@ -139,7 +165,7 @@ final class SpoolDecoder {
             expectedIndex = 0;
         } else {
             long resume = expectedIndex + wallGapSamples();
-            gap(expectedIndex, resume, -1, "reconnect");
+            gap(expectedIndex, resume, -1, "reconnect", true);
             expectedIndex = resume;
         }
     }
@@ -208,24 +234,33 @@ final class SpoolDecoder {
         long seqU = seq & 0xFFFFFFFFL;
         if (segmentStart) {
             segmentStart = false;
-            idx = resume(idx);
+            idx = resume(idx, expectedIndex < 0 ? seqU : -1);
             expectedIndex = idx;
         } else {
             if (expectedSeq >= 0 && seqU != expectedSeq && (int) (seqU - expectedSeq) < 0) {
-                duplicate(idx, n, seqU);
+                late(idx, n, seqU);
                 return;
             }
             if (expectedIndex < 0) {
                 expectedIndex = idx;
             }
+            long missingFrames = expectedSeq >= 0 ? ((seqU - expectedSeq) & 0xFFFFFFFFL) : -1;
             if (idx > expectedIndex) {
-                long missingFrames = expectedSeq >= 0 ? ((seqU - expectedSeq) & 0xFFFFFFFFL) : -1;
-                gap(expectedIndex, idx, missingFrames, "sequence");
+                gap(expectedIndex, idx, missingFrames, "sequence", false);
+                if (missingFrames > 0) {
+                    gapSeqFrom = expectedSeq;
+                    gapSeqTo = seqU;
+                }
                 expectedIndex = idx;
+            } else if (missingFrames > 0) {
+                seqJump(idx, missingFrames);
             }
         }
         expectedSeq = (seqU + 1) & 0xFFFFFFFFL;
         int skip = (int) Math.min(n, Math.max(0, expectedIndex - idx));
+        if (skip > 0) {
+            overlap(idx, skip, n, seqU);
+        }
         if (skip > 0 && skip == n) {
             return;
         }
@@ -271,7 +306,12 @@ final class SpoolDecoder {
         return Math.round(index * periodFs);
     }
 
-    private void gap(long fromIndex, long toIndex, long missingFrames, String cause) {
+    /**
+     * Reports missing samples.
+     *
+     * @param estimated true when the length comes from wall-clock time, not from the device's index
+     */
+    private void gap(long fromIndex, long toIndex, long missingFrames, String cause, boolean estimated) {
         if (toIndex <= dropBefore) {
             return;
         }
@@ -282,8 +322,12 @@ final class SpoolDecoder {
         flush();
         gaps++;
         Annotation.Builder a = Annotation.on(TRACK, "stream-gap").span(fs(fromIndex), fs(toIndex)).severity(Severity.ERROR)
-                .label("gap: " + (toIndex - fromIndex) + " samples missing (" + cause + ")")
+                .label(estimated
+                        ? "gap: about " + (toIndex - fromIndex) + " samples missing (" + cause
+                                + "; an estimate from wall-clock time, not a count)"
+                        : "gap: " + (toIndex - fromIndex) + " samples missing (" + cause + ")")
                 .number("missingSamples", toIndex - fromIndex, "samples").text("cause", cause)
+                .text("length", estimated ? "estimate" : "exact")
                 .number("segment", segment, "");
         if (missingFrames >= 0) {
             a.number("missingFrames", missingFrames, "frames");
@@ -302,13 +346,45 @@ final class SpoolDecoder {
                 .number("segment", segment, "").number("segmentOffset", at, "B").build());
     }
 
-    private void duplicate(long idx, int n, long seq) {
+    /** A DATA frame behind the expected sequence number: late if a reported gap lost it, else a repeat. */
+    private void late(long idx, int n, long seq) {
         if (idx + n <= dropBefore) {
             return;
         }
-        duplicates++;
-        out.annotate(Annotation.on(TRACK, "stream-duplicate").span(fs(idx), fs(idx + n)).severity(Severity.WARNING)
-                .label("frame " + seq + " repeated or out of order; its samples are dropped").number("seq", seq, "")
+        boolean inGap = gapSeqFrom >= 0 && (int) (seq - gapSeqFrom) >= 0 && (int) (seq - gapSeqTo) < 0;
+        Annotation.Builder a;
+        if (inGap) {
+            reordered++;
+            a = Annotation.on(TRACK, "stream-reordered").label("frame " + seq
+                    + " arrived after later frames; its samples are dropped and the gap before it stays");
+        } else {
+            duplicates++;
+            a = Annotation.on(TRACK, "stream-duplicate").label("frame " + seq + " repeated; its samples are dropped");
+        }
+        out.annotate(a.span(fs(idx), fs(idx + n)).severity(Severity.WARNING).number("seq", seq, "")
                 .number("segment", segment, "").build());
+    }
+
+    /** Frames lost (by sequence number) while the sample index runs on: they held no samples we miss. */
+    private void seqJump(long idx, long missingFrames) {
+        if (idx < dropBefore) {
+            return;
+        }
+        seqJumps++;
+        long t = fs(idx);
+        out.annotate(Annotation.on(TRACK, "stream-seq-jump").span(t, t).severity(Severity.WARNING)
+                .label(missingFrames + " frame numbers skipped but the sample index is continuous; no samples missing")
+                .number("missingFrames", missingFrames, "frames").number("segment", segment, "").build());
+    }
+
+    /** A frame whose first samples repeat indices already read: those are trimmed, the rest kept. */
+    private void overlap(long idx, int skip, int n, long seq) {
+        if (idx + skip <= dropBefore) {
+            return;
+        }
+        overlaps++;
+        out.annotate(Annotation.on(TRACK, "stream-overlap").span(fs(idx), fs(idx + skip)).severity(Severity.WARNING)
+                .label("frame " + seq + " overlaps samples already read; " + skip + " of its " + n + " samples trimmed")
+                .number("trimmedSamples", skip, "samples").number("seq", seq, "").number("segment", segment, "").build());
     }
 }

@@ -212,7 +212,8 @@ final class SpoolSourceStage implements org.lanesift.plugin.Stage {
                 .label(decoder.samples() + " samples, " + decoder.gaps() + " gaps, " + decoder.corruptRuns() + " corrupt runs")
                 .number("bytes", reader.consumed(), "B").number("samples", decoder.samples(), "samples")
                 .number("gaps", decoder.gaps(), "").number("corruptRuns", decoder.corruptRuns(), "")
-                .number("duplicates", decoder.duplicates(), "").number("segments", reader.segment(), "")
+                .number("duplicates", decoder.duplicates(), "").number("reordered", decoder.reordered(), "")
+                .number("overlaps", decoder.overlaps(), "").number("seqJumps", decoder.seqJumps(), "").number("segments", reader.segment(), "")
                 .number("samplesSpanFs", endFs, "fs").build());
         writePosition(true);
     }

@@ -13,21 +13,7 @@ import org.lanesift.annotation.Annotation;
 class DeviceStreamFuzzTest {
     @FuzzTest(maxDuration = "5s")
     void deviceStream(FuzzedDataProvider d) {
-        long[] last = {Long.MIN_VALUE};
-        SpoolDecoder dec = new SpoolDecoder(new SpoolHeader(true, 50e6, 8, "fuzz", "1"), 64, new SpoolDecoder.Out() {
-            @Override
-            public void samples(long firstIndex, byte[] b, int n) {
-                if (firstIndex < last[0]) {
-                    throw new AssertionError("samples from index " + firstIndex + " after " + last[0]);
-                }
-                last[0] = firstIndex + n;
-            }
-
-            @Override
-            public void annotate(Annotation a) {
-                // gaps, corruption and repeats are reported here; any is fine
-            }
-        });
+        SpoolDecoder dec = checkedDecoder();
         int segment = 0;
         long clock = 1_000_000L;
         dec.beginSegment(segment, clock, -1);
@@ -42,5 +28,24 @@ class DeviceStreamFuzzTest {
             dec.feed(chunk, 0, chunk.length);
         }
         dec.flush();
+    }
+
+    /** A decoder whose output check fails when sample indices handed on go backwards. */
+    static SpoolDecoder checkedDecoder() {
+        long[] last = {Long.MIN_VALUE};
+        return new SpoolDecoder(new SpoolHeader(true, 50e6, 8, "fuzz", "1"), 64, new SpoolDecoder.Out() {
+            @Override
+            public void samples(long firstIndex, byte[] b, int n) {
+                if (firstIndex < last[0]) {
+                    throw new AssertionError("samples from index " + firstIndex + " after " + last[0]);
+                }
+                last[0] = firstIndex + n;
+            }
+
+            @Override
+            public void annotate(Annotation a) {
+                // gaps, corruption and repeats are reported here; any is fine
+            }
+        });
     }
 }
