@@ -111,8 +111,15 @@ public final class LiveTool implements Tool {
         }, "live-stop");
         Runtime.getRuntime().addShutdownHook(hook);
         capThread.start();
-        chainThread.start();
         try {
+            // the capture refuses an --out that is not new or empty, and the decode writes into --out/decoded:
+            // the decode starts only once the capture has begun its spool there (or has ended)
+            while (capThread.isAlive() && !hasEntries(dir)) {
+                Thread.sleep(5);
+            }
+            if (captureFailure.get() == null && (capThread.isAlive() || captureCode.get() == 0)) {
+                chainThread.start();
+            }
             capThread.join();
             if (captureCode.get() != 0 && !Files.exists(dir.resolve("spool.closed"))) {
                 chainThread.interrupt();
@@ -168,5 +175,13 @@ public final class LiveTool implements Tool {
             throw new InputFormatException("--chain " + chain + " /nodes: no node with plugin 'spool'; a live chain reads the capture through one");
         }
         return ids;
+    }
+
+    private static boolean hasEntries(Path dir) {
+        try (var files = Files.list(dir)) {
+            return files.findAny().isPresent();
+        } catch (java.io.IOException e) {
+            return false; // not created yet
+        }
     }
 }
