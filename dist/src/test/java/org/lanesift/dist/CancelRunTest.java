@@ -31,15 +31,7 @@ class CancelRunTest {
         // the invented 7:1 link of TransmitterLoopTest, long enough (2000 frames) that the run is still going when signalled
         int frame = TransmitterLoopTest.HT * TransmitterLoopTest.VT;
         TransmitterLoopTest.writeUserCapture(dir.resolve("user.vcd"), 2000 * frame);
-        String chain = "{\"nodes\": [\n"
-                + " {\"id\": \"cap\", \"plugin\": \"vcd\", \"options\": {\"file\": \"user.vcd\"}},\n"
-                + " {\"id\": \"sampler\", \"plugin\": \"dual-edge\", \"options\": {\"mode\": \"multiplied\", \"slots\": 7, \"lanes\": 3}},\n"
-                + " {\"id\": \"panel\", \"plugin\": \"pixel-link\", \"options\": {\"mapping\": \"bits-18\", \"pictures\": \"all\"}}],\n"
-                + " \"wires\": [{\"from\": \"cap.clk_out\", \"to\": \"sampler.clock\"},\n"
-                + "  {\"from\": \"cap.d0\", \"to\": \"sampler.lane0\"}, {\"from\": \"cap.d1\", \"to\": \"sampler.lane1\"},"
-                + " {\"from\": \"cap.d2\", \"to\": \"sampler.lane2\"},\n"
-                + "  {\"from\": \"sampler.bits0\", \"to\": \"panel.lane0\"}, {\"from\": \"sampler.bits1\", \"to\": \"panel.lane1\"},"
-                + " {\"from\": \"sampler.bits2\", \"to\": \"panel.lane2\"}]}\n";
+        String chain = TransmitterLoopTest.decodeChain("user.vcd");
         Path c = dir.resolve("chain.json");
         Files.writeString(c, chain);
         Path out = dir.resolve("out");

@@ -122,8 +122,9 @@ class TransmitterLoopTest {
         return v.at(pointer).asDouble();
     }
 
-    Path decode(Path dir, String vcd, String out) throws Exception {
-        String chain = "{\"nodes\": [\n"
+    /** The chain that decodes this test's VCD (clock and three data lanes, 18-bit mapping, every picture). */
+    static String decodeChain(String vcd) {
+        return "{\"nodes\": [\n"
                 + " {\"id\": \"cap\", \"plugin\": \"vcd\", \"options\": {\"file\": \"" + vcd + "\"}},\n"
                 + " {\"id\": \"sampler\", \"plugin\": \"dual-edge\", \"options\": {\"mode\": \"multiplied\", \"slots\": 7, \"lanes\": 3}},\n"
                 + " {\"id\": \"panel\", \"plugin\": \"pixel-link\", \"options\": {\"mapping\": \"bits-18\", \"pictures\": \"all\"}}],\n"
@@ -132,6 +133,10 @@ class TransmitterLoopTest {
                 + " {\"from\": \"cap.d2\", \"to\": \"sampler.lane2\"},\n"
                 + "  {\"from\": \"sampler.bits0\", \"to\": \"panel.lane0\"}, {\"from\": \"sampler.bits1\", \"to\": \"panel.lane1\"},"
                 + " {\"from\": \"sampler.bits2\", \"to\": \"panel.lane2\"}]}\n";
+    }
+
+    Path decode(Path dir, String vcd, String out) throws Exception {
+        String chain = decodeChain(vcd);
         Path c = dir.resolve(out + "-chain.json");
         Files.writeString(c, chain);
         ByteArrayOutputStream o = new ByteArrayOutputStream();
