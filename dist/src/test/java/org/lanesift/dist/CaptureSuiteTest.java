@@ -15,6 +15,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.lanesift.json.JsonReader;
 import org.lanesift.json.JsonValue;
+import org.lanesift.json.JsonWriter;
 import org.lanesift.testkit.ExternalTool;
 
 /**
@@ -248,14 +249,19 @@ class CaptureSuiteTest {
     // ------------------------------------------------------------------ helpers
 
     private static List<Finding> runPixel(String name, Path vcd) throws Exception {
+        return runChain(name, pixelChain(name, vcd));
+    }
+
+    /** Runs a chain file with {@code lanesift run} into its own folder and returns its warnings and errors. */
+    private static List<Finding> runChain(String name, Path chain) throws Exception {
         Path out = tmp.resolve("o-" + name);
-        EndToEndTest.Cli r = EndToEndTest.cli("run", pixelChain(name, vcd).toString(), "--out", out.toString(), "-q");
+        EndToEndTest.Cli r = EndToEndTest.cli("run", chain.toString(), "--out", out.toString(), "-q");
         assertEquals(0, r.code(), r.err());
         return findings(out);
     }
 
     private static List<Finding> runDdr(String name, Path vcd) throws Exception {
-        String json = "{\"nodes\":[{\"id\":\"cap\",\"plugin\":\"vcd\",\"options\":{\"file\":" + quote(vcd.toString()) + "}},"
+        String json = "{\"nodes\":[{\"id\":\"cap\",\"plugin\":\"vcd\",\"options\":{\"file\":" + JsonWriter.quote(vcd.toString()) + "}},"
                 + "{\"id\":\"sampler\",\"plugin\":\"dual-edge\",\"options\":{\"mode\":\"ddr\",\"lanes\":2,\"alignment\":\"center\"}},"
                 + "{\"id\":\"clk\",\"plugin\":\"jitter\",\"options\":{}},"
                 + "{\"id\":\"link\",\"plugin\":\"packet-link\",\"options\":{\"lanes\":2,\"profile\":\"framed\",\"lpStates\":false,"
@@ -263,10 +269,7 @@ class CaptureSuiteTest {
                 + "\"wires\":[{\"from\":\"cap.clk_out\",\"to\":\"sampler.clock\"},{\"from\":\"cap.clk_out\",\"to\":\"clk.clock\"},"
                 + "{\"from\":\"cap.d0\",\"to\":\"sampler.lane0\"},{\"from\":\"cap.d1\",\"to\":\"sampler.lane1\"},"
                 + "{\"from\":\"sampler.bits0\",\"to\":\"link.bits0\"},{\"from\":\"sampler.bits1\",\"to\":\"link.bits1\"}]}";
-        Path out = tmp.resolve("o-" + name);
-        EndToEndTest.Cli r = EndToEndTest.cli("run", write(name + ".json", json).toString(), "--out", out.toString(), "-q");
-        assertEquals(0, r.code(), r.err());
-        return findings(out);
+        return runChain(name, write(name + ".json", json));
     }
 
     private static Path pixelChain(String name, Path vcd) throws Exception {
@@ -275,7 +278,7 @@ class CaptureSuiteTest {
             wires.append(",{\"from\":\"cap.d").append(l).append("\",\"to\":\"sampler.lane").append(l).append("\"}");
             wires.append(",{\"from\":\"sampler.bits").append(l).append("\",\"to\":\"panel.lane").append(l).append("\"}");
         }
-        String json = "{\"nodes\":[{\"id\":\"cap\",\"plugin\":\"vcd\",\"options\":{\"file\":" + quote(vcd.toString()) + "}},"
+        String json = "{\"nodes\":[{\"id\":\"cap\",\"plugin\":\"vcd\",\"options\":{\"file\":" + JsonWriter.quote(vcd.toString()) + "}},"
                 + "{\"id\":\"sampler\",\"plugin\":\"dual-edge\",\"options\":{\"mode\":\"multiplied\",\"slots\":7,\"lanes\":4}},"
                 + "{\"id\":\"clk\",\"plugin\":\"jitter\",\"options\":{}},"
                 + "{\"id\":\"panel\",\"plugin\":\"pixel-link\",\"options\":{\"mapping\":\"vesa-24\",\"pictures\":\"none\"}}],"
@@ -304,16 +307,13 @@ class CaptureSuiteTest {
                 w.write(c[0] + "," + (swapLegs ? c[3] : c[1]) + "," + (swapLegs ? c[1] : c[3]) + "\n");
             }
         }
-        String json = "{\"nodes\":[{\"id\":\"cap\",\"plugin\":\"csv\",\"options\":{\"file\":" + quote(csv.toString()) + "}},"
+        String json = "{\"nodes\":[{\"id\":\"cap\",\"plugin\":\"csv\",\"options\":{\"file\":" + JsonWriter.quote(csv.toString()) + "}},"
                 + "{\"id\":\"rx\",\"plugin\":\"differential\",\"options\":{\"mode\":\"pair\",\"name\":\"CLK\",\"levelProfile\":\"lvds\","
                 + "\"detectSwap\":true,\"swapPattern\":\"clock-1100011\"}},"
                 + "{\"id\":\"clk\",\"plugin\":\"jitter\",\"options\":{}}],"
                 + "\"wires\":[{\"from\":\"cap.CLK_P\",\"to\":\"rx.p\"},{\"from\":\"cap.CLK_N\",\"to\":\"rx.n\"},"
                 + "{\"from\":\"rx.edges\",\"to\":\"clk.clock\"}]}";
-        Path out = tmp.resolve("o-" + name);
-        EndToEndTest.Cli r = EndToEndTest.cli("run", write(name + ".json", json).toString(), "--out", out.toString(), "-q");
-        assertEquals(0, r.code(), r.err());
-        return findings(out);
+        return runChain(name, write(name + ".json", json));
     }
 
     /** The warnings and errors of a run, in file order. */
@@ -369,10 +369,6 @@ class CaptureSuiteTest {
         Path p = tmp.resolve(name);
         Files.writeString(p, text);
         return p;
-    }
-
-    private static String quote(String s) {
-        return "\"" + s.replace("\\", "\\\\").replace("\"", "\\\"") + "\"";
     }
 
     private static void exec(List<String> cmd) throws Exception {

@@ -15,6 +15,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.lanesift.json.JsonReader;
 import org.lanesift.json.JsonValue;
+import org.lanesift.json.JsonWriter;
 import org.lanesift.testkit.ExternalTool;
 
 /**
@@ -126,17 +127,13 @@ class LogicCaptureRateTest {
             wires.append(",{\"from\":\"cap.d").append(l).append("\",\"to\":\"sampler.lane").append(l).append("\"}");
             wires.append(",{\"from\":\"sampler.bits").append(l).append("\",\"to\":\"panel.lane").append(l).append("\"}");
         }
-        String json = "{\"nodes\":[{\"id\":\"cap\",\"plugin\":\"vcd\",\"options\":{\"file\":" + quote(vcd.toString()) + "}},"
+        String json = "{\"nodes\":[{\"id\":\"cap\",\"plugin\":\"vcd\",\"options\":{\"file\":" + JsonWriter.quote(vcd.toString()) + "}},"
                 + "{\"id\":\"sampler\",\"plugin\":\"dual-edge\",\"options\":{\"mode\":\"multiplied\",\"slots\":7,\"lanes\":4}},"
                 + "{\"id\":\"panel\",\"plugin\":\"pixel-link\",\"options\":{\"mapping\":\"vesa-24\",\"pictures\":\"none\"}}],"
                 + "\"wires\":[" + wires + "]}";
         Path p = tmp.resolve(name);
         Files.writeString(p, json);
         return p;
-    }
-
-    private static String quote(String s) {
-        return "\"" + s.replace("\\", "\\\\").replace("\"", "\\\"") + "\"";
     }
 
     private static void exec(Path dir, List<String> cmd) throws Exception {
