@@ -74,9 +74,39 @@ final class RunCommand implements Callable<Integer> {
     long segmentFrames;
 
     private final Main.Host host;
+    private final Interrupts interrupts;
 
     RunCommand(Main.Host host) {
+        this(host, Interrupts.JVM);
+    }
+
+    RunCommand(Main.Host host, Interrupts interrupts) {
         this.host = host;
+        this.interrupts = interrupts;
+    }
+
+    /** Where the Ctrl-C handler goes: the JVM's shutdown hooks, or a test's stand-in. */
+    interface Interrupts {
+        /** The JVM's shutdown hooks, which SIGINT (Ctrl-C) runs. */
+        Interrupts JVM = new Interrupts() {
+            @Override
+            public void add(Thread hook) {
+                Runtime.getRuntime().addShutdownHook(hook);
+            }
+
+            @Override
+            public void remove(Thread hook) {
+                try {
+                    Runtime.getRuntime().removeShutdownHook(hook);
+                } catch (IllegalStateException ignored) {
+                    // already shutting down
+                }
+            }
+        };
+
+        void add(Thread hook);
+
+        void remove(Thread hook);
     }
 
     /** Where a command-line override went, for messages. */
@@ -193,17 +223,9 @@ final class RunCommand implements Callable<Integer> {
         }
         List<RunSummary.Instance> instances = new ArrayList<>();
         try (Execution c = built) {
-            RunOutputs outs = holder.outputs();
-            OutputFolder folder = holder.folder;
-            declareOutputs(spec, registry, outs, instances);
-            try {
-                folder.refuseInputs(outs.plannedFiles());
-            } catch (OutputException e) {
-                removeQuietly(folder);
-                throw e;
-            }
-            Instant started = Instant.now();
-            long t0 = System.nanoTime();
+            // the Ctrl-C handler is installed before the first file is written (the work folder), and
+            // removed only after the report is in place: an interrupt either finds nothing written or
+            // ends in a report that says the run was cancelled
             CountDownLatch done = new CountDownLatch(1);
             Thread hook = new Thread(() -> {
                 c.cancel();
@@ -213,7 +235,26 @@ final class RunCommand implements Callable<Integer> {
                     Thread.currentThread().interrupt();
                 }
             }, "lanesift-cancel");
-            Runtime.getRuntime().addShutdownHook(hook);
+            interrupts.add(hook);
+            RunOutputs outs;
+            OutputFolder folder;
+            try {
+                outs = holder.outputs();
+                folder = holder.folder;
+                declareOutputs(spec, registry, outs, instances);
+                try {
+                    folder.refuseInputs(outs.plannedFiles());
+                } catch (OutputException e) {
+                    removeQuietly(folder);
+                    throw e;
+                }
+            } catch (RuntimeException | Error e) {
+                done.countDown();
+                interrupts.remove(hook);
+                throw e;
+            }
+            Instant started = Instant.now();
+            long t0 = System.nanoTime();
             String status = "completed";
             Throwable failure = null;
             try {
@@ -260,11 +301,7 @@ final class RunCommand implements Callable<Integer> {
                     failure = e;
                 } finally {
                     done.countDown();
-                    try {
-                        Runtime.getRuntime().removeShutdownHook(hook);
-                    } catch (IllegalStateException ignored) {
-                        // already shutting down
-                    }
+                    interrupts.remove(hook);
                 }
             }
             if (failure != null) {
