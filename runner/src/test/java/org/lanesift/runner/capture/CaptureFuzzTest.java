@@ -14,12 +14,12 @@ import java.nio.file.Files;
 class CaptureFuzzTest {
     @FuzzTest(maxDuration = "5s")
     void csv(byte[] data) throws Exception {
-        FuzzChecks.withFile(data, ".csv", f -> FuzzChecks.capture(f, CsvSource::new));
+        FuzzChecks.withFile(data, ".csv", f -> FuzzChecks.capture(f, data.length, FuzzChecks.CSV, CsvSource::new));
     }
 
     @FuzzTest(maxDuration = "5s")
     void vcd(byte[] data) throws Exception {
-        FuzzChecks.withFile(data, ".vcd", f -> FuzzChecks.capture(f, VcdSource::new));
+        FuzzChecks.withFile(data, ".vcd", f -> FuzzChecks.capture(f, data.length, FuzzChecks.VCD, VcdSource::new));
     }
 
     @FuzzTest(maxDuration = "5s")
@@ -35,7 +35,7 @@ class CaptureFuzzTest {
             } catch (java.io.IOException e) {
                 throw new java.io.UncheckedIOException(e);
             }
-            FuzzChecks.capture(f, RawSource::new);
+            FuzzChecks.capture(f, capture.length + sidecar.length, FuzzChecks.RAW, RawSource::new);
         });
     }
 

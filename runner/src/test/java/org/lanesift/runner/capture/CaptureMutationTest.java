@@ -18,15 +18,15 @@ class CaptureMutationTest {
     @Test
     void csv() throws Exception {
         int n = SeededMutations.run(SEEDS.resolve("csv"), PER_SEED, 18_001,
-                d -> FuzzChecks.withFile(d, ".csv", f -> FuzzChecks.capture(f, CsvSource::new)));
-        System.out.println("csv: " + n + " mutated inputs");
+                d -> new CaptureFuzzTest().csv(d));
+        System.out.println("csv: " + n + " mutated inputs; " + FuzzChecks.CSV.summary());
     }
 
     @Test
     void vcd() throws Exception {
         int n = SeededMutations.run(SEEDS.resolve("vcd"), PER_SEED, 18_002,
-                d -> FuzzChecks.withFile(d, ".vcd", f -> FuzzChecks.capture(f, VcdSource::new)));
-        System.out.println("vcd: " + n + " mutated inputs");
+                d -> new CaptureFuzzTest().vcd(d));
+        System.out.println("vcd: " + n + " mutated inputs; " + FuzzChecks.VCD.summary());
     }
 
     @Test
@@ -38,7 +38,7 @@ class CaptureMutationTest {
             r.nextBytes(capture);
             CaptureFuzzTest.rawSidecar(capture, d);
         });
-        System.out.println("raw sidecar: " + n + " mutated inputs");
+        System.out.println("raw sidecar: " + n + " mutated inputs; " + FuzzChecks.RAW.summary());
     }
 
     @Test

@@ -10,6 +10,6 @@ class ChainFileMutationTest {
     void chainFile() throws Exception {
         int n = SeededMutations.run(Path.of("src/test/resources/org/lanesift/runner/chainfile/ChainFileFuzzTestInputs/chainFile"),
                 20, 18_004, d -> new ChainFileFuzzTest().chainFile(d));
-        System.out.println("chain file: " + n + " mutated inputs");
+        System.out.println("chain file: " + n + " mutated inputs; " + ChainFileFuzzTest.BOUND.summary());
     }
 }

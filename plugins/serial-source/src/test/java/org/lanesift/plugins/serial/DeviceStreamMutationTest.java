@@ -31,8 +31,8 @@ class DeviceStreamMutationTest {
             seeds.add(out.toByteArray());
             names.add("frames " + java.util.Arrays.toString(seqs));
         }
-        int n = SeededMutations.run(seeds, names, 1500, 18_006, DeviceStreamMutationTest::decode);
-        System.out.println("device stream: " + n + " mutated inputs");
+        int n = SeededMutations.run(seeds, names, 1500, 18_006, s -> DeviceStreamFuzzTest.BOUND.check(s.length, () -> decode(s)));
+        System.out.println("device stream: " + n + " mutated inputs; " + DeviceStreamFuzzTest.BOUND.summary());
     }
 
     /** Decodes a stream in reads of 1 to 64 bytes, with a reconnect now and then, all drawn from the bytes' hash. */
