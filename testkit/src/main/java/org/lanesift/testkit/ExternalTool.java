@@ -12,7 +12,7 @@ import org.junit.jupiter.api.Assumptions;
 
 /**
  * Finds an external program (from a Debian package: iverilog, vvp, ngspice, socat, dtc from
- * device-tree-compiler, gcc) that a test
+ * device-tree-compiler, gcc; python3 with a module such as numpy from python3-numpy) that a test
  * needs. Outside CI a missing program skips the test; under {@code CI=true} it fails it, so a green
  * CI run means the check really ran. Every module's tests use this one rule.
  */
@@ -36,6 +36,36 @@ public final class ExternalTool {
             Assumptions.abort(msg);
         }
         return p;
+    }
+
+    /**
+     * Returns the path of {@code python3} once it has imported a module, or skips (fails under CI)
+     * when either is missing: the same rule as {@link #require}, for a reference library such as
+     * numpy (Debian package {@code python3-numpy}).
+     *
+     * @param module  the module to import, such as {@code numpy}
+     * @param debian  the Debian package that provides it, for the message
+     * @return the path of python3
+     * @throws IOException          if python3 cannot be started
+     * @throws InterruptedException if the test is interrupted while waiting
+     */
+    public static Path requirePythonModule(String module, String debian) throws IOException, InterruptedException {
+        Path python = require("python3");
+        Process p = new ProcessBuilder(python.toString(), "-c", "import " + module)
+                .redirectInput(ProcessBuilder.Redirect.from(new java.io.File("/dev/null")))
+                .redirectErrorStream(true).redirectOutput(ProcessBuilder.Redirect.DISCARD).start();
+        boolean ended = p.waitFor(60, TimeUnit.SECONDS);
+        if (!ended) {
+            p.destroyForcibly();
+        }
+        if (!ended || p.exitValue() != 0) {
+            String msg = "python3 cannot import " + module + " (Debian package " + debian + ")";
+            if (underCi()) {
+                throw new AssertionError(msg + " and CI=true, so this check must run");
+            }
+            Assumptions.abort(msg);
+        }
+        return python;
     }
 
     /**

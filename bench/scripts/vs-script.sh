@@ -1,0 +1,63 @@
+#!/usr/bin/env bash
+# Lanesift against the script a practitioner would write (issue 19; a benchmark, not a unit test).
+# One capture: 8 interleaved float32 legs at 2.5 GS/s, a 100 MHz double-edge link with a clock
+# pair and 3 data pairs (ddr-capture.py; SIZE samples per channel, default 30 M = 960 MB). The
+# same job done two ways, alternately RUNS times (numpy, lanesift, numpy, lanesift, ...) so that a
+# load change on the machine hits both alike:
+#   - ddr-numpy.py: read, difference of each pair, clock zero crossings (both edges), data value
+#     interpolated at each crossing, count bits and ones (numpy from Debian's python3-numpy);
+#   - lanesift run of the equivalent chain: raw -> 4 x differential (threshold 0 V) -> dual-edge
+#     (both edges, 3 lanes), every output written as run writes it; bits and ones counted from
+#     its rx-bits*-bits.csv afterwards (not timed).
+# Each run must give the same bit count and ones count (the script stops otherwise). Wall times
+# include the start of python or of the JVM. Prints each run's times and ratio, min/median/max
+# of both, and a plain Java sequential read and sum of the same file (ReadSum.java, the read
+# loop's time, JVM start excluded) as the memory-speed yardstick.
+# The chain is ddr-chain.json; dist VsScriptTest checks on a small capture that both
+# sides give the same counts.
+# Usage: bench/scripts/vs-script.sh [RUNS (default 5)] [SIZE (samples per channel, default 30000000)]
+#        KEEP=1 keeps the work folder.
+set -euo pipefail
+cd "$(dirname "$0")/../.."
+ROOT="$PWD"
+RUNS="${1:-5}"
+SIZE="${2:-30000000}"
+python3 -c 'import numpy' 2>/dev/null || { echo "numpy is missing: install Debian's python3-numpy" >&2; exit 2; }
+WORK="$(mktemp -d /tmp/lanesift-vs-script.XXXXXX)"
+[ "${KEEP:-0}" = 1 ] || trap 'rm -rf "$WORK"' EXIT
+./lanesift --version >/dev/null            # builds dist/target/lanesift.jar if needed
+JAR="$ROOT/dist/target/lanesift.jar"
+CAP="$WORK/ddr.bin"
+python3 "$ROOT/bench/scripts/ddr-capture.py" "$CAP" "$SIZE"
+echo "capture: $CAP, $(stat -c %s "$CAP") bytes, $SIZE samples per channel" >&2
+cp "$ROOT/bench/scripts/ddr-chain.json" "$WORK/chain.json"   # reads ddr.bin beside it
+
+now() { date +%s.%N; }
+NP=()
+LS=()
+for r in $(seq 1 "$RUNS"); do
+  t0=$(now)
+  np_counts=$(python3 "$ROOT/bench/scripts/ddr-numpy.py" "$CAP")
+  t1=$(now)
+  rm -rf "$WORK/out"
+  # shellcheck disable=SC2086
+  java ${LANESIFT_JAVA_OPTS:-} -jar "$JAR" run "$WORK/chain.json" --out "$WORK/out" --quiet
+  t2=$(now)
+  ls_counts=$(cat "$WORK"/out/rx-bits*-bits.csv | awk -F, '$1 != "time (s)" { n++; o += ($2 == "1") } END { print "bits", n, "ones", o }')
+  if [ "$np_counts" != "$ls_counts" ]; then
+    echo "run $r: numpy says '$np_counts', lanesift says '$ls_counts'" >&2
+    exit 1
+  fi
+  np=$(awk -v a="$t0" -v b="$t1" 'BEGIN { print b - a }')
+  ls=$(awk -v a="$t1" -v b="$t2" 'BEGIN { print b - a }')
+  NP+=("$np")
+  LS+=("$ls")
+  printf 'run %d: %s; numpy %.2f s, lanesift %.2f s, lanesift/numpy %.2f\n' "$r" "$np_counts" "$np" "$ls" "$(awk -v a="$ls" -v b="$np" 'BEGIN { print a / b }')"
+done
+stats() { printf '%s\n' "$@" | sort -g | awk '{ v[NR] = $1 } END { printf "min %.2f s, median %.2f s, max %.2f s", v[1], (NR % 2 ? v[(NR + 1) / 2] : (v[NR / 2] + v[NR / 2 + 1]) / 2), v[NR] }'; }
+median() { printf '%s\n' "$@" | sort -g | awk '{ v[NR] = $1 } END { print (NR % 2 ? v[(NR + 1) / 2] : (v[NR / 2] + v[NR / 2 + 1]) / 2) }'; }
+echo "numpy script:  $(stats "${NP[@]}")"
+echo "lanesift run:  $(stats "${LS[@]}")"
+printf 'ratio of medians, lanesift/numpy: %.2f (target <= 0.33)\n' "$(awk -v a="$(median "${LS[@]}")" -v b="$(median "${NP[@]}")" 'BEGIN { print a / b }')"
+echo "plain Java read and sum (read loop only): $(java "$ROOT/bench/scripts/ReadSum.java" "$CAP")"
+echo "load average: $(cut -d' ' -f1-3 /proc/loadavg)"

@@ -1,0 +1,67 @@
+package org.lanesift.dist;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.BufferedReader;
+import java.io.ByteArrayOutputStream;
+import java.io.PrintStream;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Duration;
+import java.util.List;
+import java.util.stream.Stream;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.lanesift.runner.ChainRun;
+import org.lanesift.testkit.ExternalTool;
+
+/**
+ * The two sides of the script-comparison benchmark (bench/scripts/vs-script.sh, issue 19) do the
+ * same job: on a small capture from ddr-capture.py (8 float32 legs, 2.5 GS/s, a 100 MHz
+ * double-edge link with 3 data lanes), the numpy script (ddr-numpy.py; numpy from Debian's
+ * python3-numpy, the outside reference) and {@code run} of ddr-chain.json give the same number of
+ * bits and of ones. Speed is the script's business, not this test's.
+ */
+class VsScriptTest {
+    static final Path SCRIPTS = Path.of("../bench/scripts");
+
+    @Test
+    void numpyAndTheChainCountTheSameBitsAndOnes(@TempDir Path dir) throws Exception {
+        Path python = ExternalTool.requirePythonModule("numpy", "python3-numpy");
+        int samples = 100_000; // per channel: 3.2 MB, 40 us, 20,000 clock edges
+        ExternalTool.run(dir, Duration.ofMinutes(2), List.of(python.toString(),
+                SCRIPTS.resolve("ddr-capture.py").toAbsolutePath().toString(), "ddr.bin", Integer.toString(samples)));
+        String numpy = ExternalTool.run(dir, Duration.ofMinutes(2), List.of(python.toString(),
+                SCRIPTS.resolve("ddr-numpy.py").toAbsolutePath().toString(), "ddr.bin")).trim();
+
+        Files.copy(SCRIPTS.resolve("ddr-chain.json"), dir.resolve("chain.json"));
+        ByteArrayOutputStream o = new ByteArrayOutputStream();
+        int code = ChainRun.of(dir.resolve("chain.json")).out(dir.resolve("out")).quiet(true)
+                .run(new PrintStream(o, true, StandardCharsets.UTF_8), new PrintStream(o, true, StandardCharsets.UTF_8));
+        assertEquals(0, code, o.toString(StandardCharsets.UTF_8));
+        long bits = 0;
+        long ones = 0;
+        List<Path> csvs;
+        try (Stream<Path> s = Files.list(dir.resolve("out"))) {
+            csvs = s.filter(f -> f.getFileName().toString().matches("rx-bits\\d-bits\\.csv")).sorted().toList();
+        }
+        assertEquals(3, csvs.size(), csvs::toString);
+        for (Path csv : csvs) {
+            try (BufferedReader r = Files.newBufferedReader(csv, StandardCharsets.UTF_8)) {
+                assertEquals("time (s),bit,clock_edge,slot,edge,setup (s),hold (s),flagged", r.readLine());
+                for (String line = r.readLine(); line != null; line = r.readLine()) {
+                    String bit = line.split(",", 3)[1];
+                    assertTrue(bit.equals("0") || bit.equals("1"), line);
+                    bits++;
+                    ones += bit.equals("1") ? 1 : 0;
+                }
+            }
+        }
+        assertEquals(numpy, "bits " + bits + " ones " + ones);
+        // both edges of a 100 MHz clock over 40 us, 3 lanes; random data about half ones
+        assertEquals(3 * 2 * 4000, bits);
+        assertTrue(ones > bits * 45 / 100 && ones < bits * 55 / 100, "ones " + ones + " of " + bits);
+    }
+}
