@@ -59,6 +59,7 @@ class VsScriptTest {
                 }
             }
         }
+        // Source: numpy (Debian python3-numpy) through ddr-numpy.py, the outside reference for the counts
         assertEquals(numpy, "bits " + bits + " ones " + ones);
         // both edges of a 100 MHz clock over 40 us, 3 lanes; random data about half ones
         assertEquals(3 * 2 * 4000, bits);
