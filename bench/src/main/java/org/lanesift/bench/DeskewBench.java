@@ -32,6 +32,9 @@ import org.openjdk.jmh.infra.Blackhole;
  * edges each, in blocks of 250 k), a fresh chain each time, target under 1 s;</li>
  * <li>{@code delay}: fractional delay of one analog channel, 16 M samples in blocks of 64 k
  * ({@code interpolator} sinc or cubic), target at least 100 M samples/s;</li>
+ * <li>{@code legs8}: the leg stage of {@code lanesift bench}: eight channels of 2 M samples in
+ * blocks of 64 k, offsets 0, -30, 0, 40, 0, -55, 0, -25 ps at 2.5 GS/s (four plain copies with the
+ * shared kernel margin, four 16-tap sinc delays); {@code read2MSamplesOf8Legs} reads the same arrays;</li>
  * <li>{@code shift}: shifting 16 M edge times in blocks of 32 k, target memory speed.</li>
  * </ul>
  * All run through the real chain engine, so they include its checks and the allocation of each
@@ -74,6 +77,42 @@ public class DeskewBench {
                         AnalogBlock a = (AnalogBlock) b;
                         bh.consume(a.volts()[a.length() - 1]);
                     }).build();
+        }
+    }
+
+    /** The leg stage of {@code lanesift bench}: eight analog channels, four of them not delayed. */
+    @State(Scope.Benchmark)
+    public static class LegsState {
+        static final int LEGS = 8;
+        static final int BLOCKS = 32;
+        static final double PERIOD_FS = 400_000;
+        Chain chain;
+        long index;
+        float[][] legs = new float[LEGS][];
+        String[] inputs = new String[LEGS];
+
+        @Setup
+        public void setup(Blackhole bh) {
+            Random r = new Random(3);
+            var b = Chain.builder(new PluginRegistry().add(new DeskewPlugin()));
+            for (int c = 0; c < LEGS; c++) {
+                legs[c] = new float[ANALOG_BLOCK];
+                for (int i = 0; i < ANALOG_BLOCK; i++) {
+                    // an LVDS leg around 1.2 V: 7 samples a bit, about one sample 20-80 %, 5 mV noise
+                    double bit = ((i / 7 + c / 2) * 2654435761L >>> 7 & 1) == 0 ? -1 : 1;
+                    legs[c][i] = (float) (1.2 + (c % 2 == 0 ? 0.175 : -0.175) * bit + 0.005 * r.nextGaussian());
+                }
+                inputs[c] = "in" + c;
+                b.input(inputs[c], DataKind.ANALOG);
+            }
+            b.add("legs", "deskew", Map.of("kind", "analog", "channels", LEGS, "offsets", java.util.List.of(0, -30, 0, 40, 0, -55, 0, -25)));
+            for (int c = 0; c < LEGS; c++) {
+                b.wire(inputs[c], "legs.in" + c).tap("legs.out" + c, blk -> {
+                    AnalogBlock a = (AnalogBlock) blk;
+                    bh.consume(a.volts()[a.length() - 1]);
+                });
+            }
+            chain = b.build();
         }
     }
 
@@ -196,6 +235,33 @@ public class DeskewBench {
             float[] a = d.analog;
             for (int i = 0; i < ANALOG_BLOCK; i++) {
                 acc += a[i];
+            }
+        }
+        return acc;
+    }
+
+    /** The leg stage of {@code lanesift bench}: 8 channels x 2 M samples. */
+    @Benchmark
+    public void legs8Channels2MSamples(LegsState d) {
+        for (int k = 0; k < LegsState.BLOCKS; k++) {
+            long idx = d.index;
+            d.index += ANALOG_BLOCK;
+            for (int c = 0; c < LegsState.LEGS; c++) {
+                d.chain.push(d.inputs[c], new AnalogBlock("leg" + c, idx, Math.round(idx * LegsState.PERIOD_FS), LegsState.PERIOD_FS,
+                        d.legs[c], ANALOG_BLOCK, null));
+            }
+        }
+    }
+
+    /** Baseline: a plain sequential read of the same 8 x 2 M samples. */
+    @Benchmark
+    public double read2MSamplesOf8Legs(LegsState d) {
+        double acc = 0;
+        for (int k = 0; k < LegsState.BLOCKS; k++) {
+            for (float[] a : d.legs) {
+                for (int i = 0; i < ANALOG_BLOCK; i++) {
+                    acc += a[i];
+                }
             }
         }
         return acc;

@@ -20,6 +20,11 @@ import org.lanesift.data.BitSets;
  * touches an invalid input sample are marked invalid (their value uses the nearest input sample).
  * A gap in the input (a block that does not start one period after the previous one) ends the run
  * and starts a new one.
+ *
+ * <p>Cost: a fractional delay is a tap-major FIR over L1-sized chunks (about 1 to 2 ns a sample
+ * for 16 taps on the bench machine, {@code DeskewBench}); a zero delay hands each input block's own
+ * array on once the run's front margin is behind, after one branch-free check that every sample
+ * is finite ({@link SampleScan}).
  */
 final class AnalogDelayLine {
     private static final int CHUNK = 1024;
@@ -36,6 +41,8 @@ final class AnalogDelayLine {
     private final float[] tmp2 = new float[CHUNK];
     private final float[] tmp3 = new float[CHUNK];
     private final float[] acc = new float[CHUNK];
+    /** Whole-sample delay of zero: output sample n is input sample n. */
+    private final boolean identity;
 
     // current run
     private boolean open;
@@ -91,6 +98,7 @@ final class AnalogDelayLine {
         this.taps = kernel.taps(mu);
         this.frontMargin = Math.max(minFront, Math.max(0, -((long) fl + lo)));
         this.endMargin = Math.max(minEnd, Math.max(0, (long) fl + hi));
+        this.identity = taps.length == 1 && fl == 0 && lo == 0 && taps[0] == 1f;
     }
 
     /**
@@ -126,8 +134,42 @@ final class AnalogDelayLine {
         if (!open) {
             start(b);
         }
+        if (passThrough(b)) {
+            return;
+        }
         append(b);
         produce(received - endMargin);
+    }
+
+    /**
+     * A plain whole-sample identity (no delay, no end margin) hands on the input's own sample
+     * array once the run's front margin is behind: output sample {@code n} is input sample
+     * {@code n}, so the block is the input block under the output's index and time. Blocks own
+     * their arrays and no receiver may change them ({@link AnalogBlock}), so sharing is safe.
+     * Falls back to the buffered path while anything is held back or when the block holds a value
+     * that is not finite (which is replaced and marked invalid there).
+     *
+     * @return whether the block was handed on
+     */
+    private boolean passThrough(AnalogBlock b) {
+        int n = b.length();
+        if (!identity || bufLen != 0 || nextOut != received || endMargin != 0 || !SampleScan.allFinite(b.volts(), n)) {
+            return false;
+        }
+        long[] inv = null;
+        long[] src = b.invalid();
+        if (src != null && BitSets.count(src, n) > 0) {
+            inv = java.util.Arrays.copyOf(src, BitSets.words(n));
+            if ((n & 63) != 0) {
+                inv[inv.length - 1] &= (1L << n) - 1;
+            }
+        }
+        long startFs = originFs + Math.round(nextOut * periodFs);
+        received += n;
+        bufStart = received;
+        out.accept(new AnalogBlock(channel, originIndex + nextOut, startFs, periodFs, b.volts(), n, inv));
+        nextOut = received;
+        return true;
     }
 
     private void start(AnalogBlock b) {
@@ -146,7 +188,7 @@ final class AnalogDelayLine {
     private void append(AnalogBlock b) {
         int n = b.length();
         ensure(bufLen + n);
-        System.arraycopy(b.volts(), 0, buf, bufLen, n);
+        boolean finite = SampleScan.copyAllFinite(b.volts(), buf, bufLen, n);
         long[] inv = b.invalid();
         if (inv != null && BitSets.count(inv, n) > 0) {
             for (int i = 0; i < n; i++) {
@@ -160,16 +202,18 @@ final class AnalogDelayLine {
         } else {
             Arrays.fill(bad, bufLen, bufLen + n, (byte) 0);
         }
-        // a NaN or infinity would spread through the kernel: hold the previous value and mark it invalid
-        float prev = bufLen > 0 ? buf[bufLen - 1] : 0f;
-        for (int i = 0; i < n; i++) {
-            float v = buf[bufLen + i];
-            if (Float.isFinite(v)) {
-                prev = v;
-            } else {
-                buf[bufLen + i] = prev;
-                bad[bufLen + i] = 1;
-                lastBadIndex = Math.max(lastBadIndex, received + i);
+        if (!finite) {
+            // a NaN or infinity would spread through the kernel: hold the previous value and mark it invalid
+            float prev = bufLen > 0 ? buf[bufLen - 1] : 0f;
+            for (int i = 0; i < n; i++) {
+                float v = buf[bufLen + i];
+                if (Float.isFinite(v)) {
+                    prev = v;
+                } else {
+                    buf[bufLen + i] = prev;
+                    bad[bufLen + i] = 1;
+                    lastBadIndex = Math.max(lastBadIndex, received + i);
+                }
             }
         }
         bufLen += n;
