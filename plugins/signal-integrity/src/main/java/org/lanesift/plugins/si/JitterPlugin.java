@@ -276,7 +276,7 @@ public final class JitterPlugin implements PluginProvider {
             Sourced.of(r.cycleToCycle().peakToPeak(), "ps", edges).field(j, "cycleToCyclePeakToPeakPs");
             j.field("definitions", "TIE: edge time minus a least-squares line through edge time against edge number; "
                     + "period jitter: sd of consecutive edge intervals; cycle-to-cycle: differences of consecutive periods (RMS about 0)");
-            writeDecomposition(j, d, uiPs);
+            writeDecomposition(j, d, uiPs, PeriodicJitter.of(r.tiePs(), r.number(), n), 1e15 / r.periodFs());
             double[][] tub = bathtub(d, sorted, uiPs);
             writeBathtub(j, tub, uiPs);
             writeTracking(j, tr, trTie);
@@ -323,7 +323,8 @@ public final class JitterPlugin implements PluginProvider {
             }
         }
 
-        private void writeDecomposition(JsonWriter j, JitterDecomposition.Result d, double uiPs) {
+        private void writeDecomposition(JsonWriter j, JitterDecomposition.Result d, double uiPs, PeriodicJitter.Result pj,
+                                        double edgeHz) {
             new Sourced(ber, null, ber == DEFAULT_BER ? Source.assumed("1e-12, common practice") : Source.given("option ber"))
                     .field(j, "ber");
             j.name("decomposition").beginObject();
@@ -339,6 +340,16 @@ public final class JitterPlugin implements PluginProvider {
             j.field("relation", "TJ(BER) = DJ(dual-Dirac) + 2 Q(BER) RJ, Q(BER) = -inverse standard normal CDF of BER");
             Sourced.of(d.fitted() ? Math.max(0, 1 - d.tj() / uiPs) : Double.NaN, "UI", Source.derived("1 - TJ(BER) / unit interval"))
                     .field(j, "eyeOpeningUi");
+            Sourced.of(pj.peakToPeak(), "ps", Source.measured("peak-to-peak of the sum of the spectral lines of the TIE against edge"
+                    + " number, each fitted by least squares; the dual-Dirac DJ above is at most this for periodic jitter"))
+                    .field(j, "periodicJitterPeakToPeakPs");
+            Sourced.of(pj.residualRms(), "ps", Source.measured("RMS of the TIE with those lines removed: random jitter and"
+                    + " non-periodic deterministic jitter")).field(j, "residualTieRmsPs");
+            j.name("periodicLines").beginArray();
+            for (PeriodicJitter.Tone t : pj.tones()) {
+                j.beginObjectInline().field("frequencyHz", t.cyclesPerEdge() * edgeHz).field("amplitudePs", t.amplitude()).endObject();
+            }
+            j.endArray();
             JitterDecomposition.Tail[] tails = {d.left(), d.right()};
             for (int side = 0; side < 2; side++) {
                 JitterDecomposition.Tail t = tails[side];
