@@ -216,6 +216,19 @@ class CaptureSuiteTest {
         assertEquals(List.of(), consequences(f, "lane-skew-ambiguous"));
     }
 
+    @Test
+    void ddrClockDropoutIsFoundOnceWhereItIs() throws Exception {
+        long from = 1_000_000;
+        long to = 1_020_000; // ps: five 4 ns clock periods without an edge
+        Path vcd = write("ddr-dropout.vcd", new VcdFaults(Files.readAllLines(ddrVcd)).hold("clk_out", from, to).text());
+        List<Finding> f = runDdr("ddr-dropout", vcd);
+        row("verilog DDR", "clock held 20 ns from 1.000 us", f, "clock-dropout");
+        Finding d = once(f, "clock-dropout");
+        // the dropout starts at the last clock edge before the gap, less than one clock period (4 ns) earlier
+        assertTrue(d.startFs() <= from * 1000 && d.startFs() > (from - 2 * DDR_UI_PS) * 1000, d.toString());
+        assertEquals(List.of(), consequences(f, "clock-dropout"));
+    }
+
     /** A lane a whole unit interval late: clean margins, but it finds its sync pattern one clock edge after the other lane. */
     @Test
     void ddrLaneAWholeUnitIntervalOffIsFoundOnce() throws Exception {
@@ -254,6 +267,21 @@ class CaptureSuiteTest {
         String md = Files.readString(tmp.resolve("o-weak").resolve("report.md"));
         assertTrue(md.contains("- standard: limits the findings were checked against")
                 && md.contains("ANSI/TIA/EIA-644-A (values from memory, docs/reference-facts.md#lvds-electrical-levels)"), md);
+    }
+
+    /**
+     * The driver's clock stops for 200 ns (both legs held): in this chain no sampler recovers the
+     * clock, so the jitter stage, the only one that sees it, is told to report dropouts
+     * (option dropoutPeriods, as a dual-edge sampler's default of 1.5 periods).
+     */
+    @Test
+    void driverClockDropoutIsFoundOnceWhereItIs() throws Exception {
+        List<Finding> f = runDriver("driver-dropout", 3.5e-3, false, 1.0e-6, 1.2e-6);
+        row("ngspice driver", "legs held 200 ns from 1.0 us", f, "clock-dropout");
+        Finding d = once(f, "clock-dropout");
+        // the gap starts at the last rising edge before 1.0 us, less than one 50 ns period earlier
+        assertTrue(d.startFs() <= 1_000_000_000L && d.startFs() > 950_000_000L, d.toString());
+        assertEquals(List.of(), consequences(f, "clock-dropout"));
     }
 
     @Test
@@ -306,6 +334,12 @@ class CaptureSuiteTest {
 
     /** Simulates the driver at a drive current, writes its legs as a CSV capture and runs the chain. */
     private static List<Finding> runDriver(String name, double driveAmps, boolean swapLegs) throws Exception {
+        return runDriver(name, driveAmps, swapLegs, Double.NaN, Double.NaN);
+    }
+
+    /** As above; between {@code holdFromS} and {@code holdToS} (unless NaN) both legs keep their values from before. */
+    private static List<Finding> runDriver(String name, double driveAmps, boolean swapLegs, double holdFromS, double holdToS)
+            throws Exception {
         Path exe = ExternalTool.require("ngspice");
         String netlist = Files.readString(Path.of("src", "test", "spice", "lvds-driver.cir"))
                 .replace(".param IDRV=3.5m", ".param IDRV=" + driveAmps).replace("lvds-driver.out", name + ".out");
@@ -316,19 +350,26 @@ class CaptureSuiteTest {
         Path csv = tmp.resolve(name + ".csv");
         try (BufferedWriter w = Files.newBufferedWriter(csv)) {
             w.write("Time (s),CLK_P (V),CLK_N (V)\n");
+            String held = null;
             for (String line : Files.readAllLines(wave)) {
                 String[] c = line.trim().split("\\s+");
                 if (c.length < 4) {
                     continue;
                 }
                 // wrdata: time v(p) time v(n)
-                w.write(c[0] + "," + (swapLegs ? c[3] : c[1]) + "," + (swapLegs ? c[1] : c[3]) + "\n");
+                String legs = (swapLegs ? c[3] : c[1]) + "," + (swapLegs ? c[1] : c[3]);
+                double t = Double.parseDouble(c[0]);
+                if (t >= holdFromS && t <= holdToS) {
+                    held = held == null ? legs : held;
+                    legs = held;
+                }
+                w.write(c[0] + "," + legs + "\n");
             }
         }
         String json = "{\"nodes\":[{\"id\":\"cap\",\"plugin\":\"csv\",\"options\":{\"file\":" + JsonWriter.quote(csv.toString()) + "}},"
                 + "{\"id\":\"rx\",\"plugin\":\"differential\",\"options\":{\"mode\":\"pair\",\"name\":\"CLK\",\"levelProfile\":\"lvds\","
                 + "\"detectSwap\":true,\"swapPattern\":\"clock-1100011\"}},"
-                + "{\"id\":\"clk\",\"plugin\":\"jitter\",\"options\":{}}],"
+                + "{\"id\":\"clk\",\"plugin\":\"jitter\",\"options\":{\"dropoutPeriods\":1.5}}],"
                 + "\"wires\":[{\"from\":\"cap.CLK_P\",\"to\":\"rx.p\"},{\"from\":\"cap.CLK_N\",\"to\":\"rx.n\"},"
                 + "{\"from\":\"rx.edges\",\"to\":\"clk.clock\"}]}";
         return runChain(name, write(name + ".json", json));

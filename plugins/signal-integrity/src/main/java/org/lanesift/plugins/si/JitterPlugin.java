@@ -57,6 +57,9 @@ public final class JitterPlugin implements PluginProvider {
                     "loop bandwidth of a tracking reference clock for a second TIE; 0 leaves it out"))
             .option(OptionSpec.integer("trackingOrder", 2L, 1, 2,
                     "order of the tracking loop: 1 (phase only) or 2 (phase and frequency, damping 0.707)"))
+            .option(OptionSpec.number("dropoutPeriods", "", 0.0, 0.0, 1.0e6, "a gap between clock edges longer than this many"
+                    + " ideal periods is a clock-dropout finding; 0 (the default) leaves dropouts to the stage that recovers the"
+                    + " clock (dual-edge): set it where this stage is the only one that sees the clock"))
             .input(PortSpec.of("clock", DataKind.EDGES, "clock edges"))
             .output(PortSpec.of("files", DataKind.ARTIFACT, "<id>-jitter.json, <id>-jitter.png and <id>-bathtub.png"))
             .build();
@@ -188,6 +191,7 @@ public final class JitterPlugin implements PluginProvider {
         private final double ber;
         private final double trackingHz;
         private final int trackingOrder;
+        private final double dropoutPeriods;
 
         JitterStage(StageContext ctx) {
             this.ctx = ctx;
@@ -196,6 +200,7 @@ public final class JitterPlugin implements PluginProvider {
             ber = ctx.options().getDouble("ber");
             trackingHz = ctx.options().getDouble("trackingBandwidthHz");
             trackingOrder = ctx.options().getInt("trackingOrder");
+            dropoutPeriods = ctx.options().getDouble("dropoutPeriods");
         }
 
         @Override
@@ -317,9 +322,26 @@ public final class JitterPlugin implements PluginProvider {
                 }
             }
             ctx.annotate(a.build());
+            if (dropoutPeriods > 0 && n >= 3) {
+                dropouts(r.periodFs());
+            }
             if (ignored > 0) {
                 ctx.annotate(Annotation.on(id, "jitter-edges-not-analysed").span(firstFs, lastFs).severity(Severity.WARNING)
                         .label(ignored + " edges after the first " + n + " were not analysed (option maxEdges)").build());
+            }
+        }
+
+        /** One clock-dropout finding per gap between analysed edges longer than {@code dropoutPeriods} ideal periods. */
+        private void dropouts(double periodFs) {
+            double limit = dropoutPeriods * periodFs;
+            for (int i = 1; i < n; i++) {
+                long gap = times[i] - times[i - 1];
+                if (gap > limit) {
+                    ctx.annotate(Annotation.on(ctx.instanceId(), "clock-dropout").span(times[i - 1], times[i]).severity(Severity.ERROR)
+                            .label(String.format(Locale.ROOT, "'%s': no clock edge for %.2f periods (limit %.4g, option dropoutPeriods)",
+                                    channel, gap / periodFs, dropoutPeriods))
+                            .number("gapFs", gap, "fs").number("periods", gap / periodFs, "").build());
+                }
             }
         }
 
