@@ -63,7 +63,8 @@ public final class JsonScan {
     }
 
     /**
-     * The first member named {@code key} whose value is not an object or array.
+     * The first member named {@code key} whose value is not an object or array; a value with its
+     * source ({@code {"value": 1.5, "unit": "ps", "source": "measured"}}) counts as its {@code value}.
      *
      * @param root the parsed report
      * @param key  member name
@@ -102,6 +103,10 @@ public final class JsonScan {
             Member m = all.get(i);
             if (m.name().equals(key) && !m.value().isObject() && !m.value().isArray()) {
                 return m;
+            }
+            JsonValue inner = m.value().isObject() && m.value().get("source") != null ? m.value().get("value") : null;
+            if (m.name().equals(key) && inner != null && !inner.isObject() && !inner.isArray()) {
+                return new Member(m.pointer() + "/value", key, inner); // a value with its source (host-api Sourced)
             }
         }
         throw new AssertionError("no member \"" + key + "\" with a plain value in " + root);

@@ -216,11 +216,11 @@ public final class DemoTool implements Tool {
             skewLines("pixel link", dir.resolve("skew/pixel-legs.json"), dir.resolve("skew/pixel-lanes.json"),
                     DemoChains.PIXEL_PAIRS, t.legSkewPs(), t.laneSkewPs(), pixelNotes);
             JsonValue ring = at(read(dir.resolve("pixel/clk-p-ringing.json")), "summary");
-            double fn = number(at(ring, "naturalHz"), 0);
+            double fn = number(at(ring, "naturalHz", "value"), 0);
             double truthFn = Impairments.pixelLinkDefaults().ringFrequencyHz();
             check(Math.abs(fn - truthFn) < 0.05 * truthFn, String.format(Locale.ROOT,
                     "probe ringing on CLK_P: natural frequency %.1f MHz, damping %.3f (scenario: %.1f MHz, %.2f)", fn / 1e6,
-                    number(at(ring, "dampingRatio"), 0), truthFn / 1e6, Impairments.pixelLinkDefaults().ringDamping()));
+                    number(at(ring, "dampingRatio", "value"), 0), truthFn / 1e6, Impairments.pixelLinkDefaults().ringDamping()));
             report.append("Files: `pixel/` (frames `panel-frame-NNNN.png`, `panel-timing.json`/`.txt`, `d0-eye.png` (eye of D0, P-N), ")
                     .append("`d1-edges.json` (edges of D1, P-N), `sampler-margins.json`, `clk-p-ringing.json` (ringing on the CLK_P leg), ")
                     .append("`clk-jitter.json` and `clk-bathtub.png` (clock edges), `report.md` of the decode pass).\n")

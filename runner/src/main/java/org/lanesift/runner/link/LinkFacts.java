@@ -2,6 +2,7 @@ package org.lanesift.runner.link;
 
 import java.util.List;
 import org.lanesift.plugin.InputFormatException;
+import org.lanesift.report.Source;
 import org.lanesift.runner.capture.InspectReport;
 
 /**
@@ -16,7 +17,7 @@ import org.lanesift.runner.capture.InspectReport;
  * @param mappingAlso    another mapping the lane count also fits, empty if none
  * @param dataLanes      number of data pairs
  */
-public record LinkFacts(boolean packet, String kindSource, double clockHz, double unitIntervalFs, String mapping,
+public record LinkFacts(boolean packet, Source kindSource, double clockHz, double unitIntervalFs, String mapping,
                         String mappingAlso, int dataLanes) {
     /** Where the slot pattern and mappings are cited. */
     public static final String PIXEL_SOURCE = "docs/reference-facts.md#pixel-link-clock-and-slot-mappings";
@@ -38,16 +39,16 @@ public record LinkFacts(boolean packet, String kindSource, double clockHz, doubl
      */
     public static LinkFacts of(InspectReport r, List<LinkChains.Pair> pairs, String kind) {
         boolean packet;
-        String source;
+        Source source;
         if (kind.equals("auto")) {
             String lp = lowPowerLeg(r, pairs);
             packet = lp != null;
-            source = packet ? "measured: " + lp + " swings between D-PHY low-power levels (above "
+            source = Source.measured(packet ? lp + " swings between D-PHY low-power levels (above "
                     + LP_HIGH_VOLTS + " V and below " + LP_LOW_VOLTS + " V, " + DPHY_SOURCE + ")"
-                    : "measured: no leg swings between D-PHY low-power levels (" + DPHY_SOURCE + "), so a 7:1 pixel link";
+                    : "no leg swings between D-PHY low-power levels (" + DPHY_SOURCE + "), so a 7:1 pixel link");
         } else {
             packet = kind.equals("packet");
-            source = "given (--link " + kind + ")";
+            source = Source.given("--link " + kind);
         }
         LinkChains.Pair clk = pairs.get(0);
         double hz = clockHz(r, clk);

@@ -12,6 +12,8 @@ import java.util.Map;
 import org.lanesift.json.JsonReader;
 import org.lanesift.json.JsonValue;
 import org.lanesift.plugin.ToolArgs;
+import org.lanesift.report.Source;
+import org.lanesift.report.Sourced;
 import org.lanesift.runner.capture.InspectReport;
 import org.lanesift.time.Femtos;
 
@@ -20,7 +22,8 @@ import org.lanesift.time.Femtos;
  * (link, frames or packets and commands, timing, skews per named channel, the trust summary),
  * then the details (link facts with their sources, inputs, options as given, notes). Every value
  * says where it comes from: {@code measured}, {@code standard} (with a docs/reference-facts.md
- * anchor), {@code derived} or {@code default}. {@link #markdown()} and {@link #json()} render the
+ * anchor), {@code derived}, {@code given} or {@code assumed by default}, in the one host-api shape
+ * ({@link Sourced}, {@link Source}). {@link #markdown()} and {@link #json()} render the
  * same model; docs/sift.md describes both.
  */
 final class SiftReport {
@@ -48,14 +51,8 @@ final class SiftReport {
         return r;
     }
 
-    private static Map<String, Object> value(Object v, String unit, String source) {
-        Map<String, Object> m = new LinkedHashMap<>();
-        m.put("value", v);
-        if (unit != null) {
-            m.put("unit", unit);
-        }
-        m.put("source", source);
-        return m;
+    private static Map<String, Object> value(Object v, String unit, Source source) {
+        return new Sourced(v, unit, source).model();
     }
 
     /**
@@ -116,13 +113,13 @@ final class SiftReport {
                 }
                 md.append(" |\n");
                 row.put("unit", text(at(t, axis, "unit")));
-                row.put("source", "measured");
+                row.put("source", Source.measured("").text());
                 timing.put(axis, row);
             }
             double pclk = num(at(t, "pixelClockHz", "value"));
             double refresh = num(at(t, "refreshHz", "value"));
-            timing.put("pixelClockHz", value(pclk, "Hz", "measured"));
-            timing.put("refreshHz", value(refresh, "Hz", "measured"));
+            timing.put("pixelClockHz", value(pclk, "Hz", Source.measured("")));
+            timing.put("refreshHz", value(refresh, "Hz", Source.measured("")));
             res.put("timing", timing);
             md.append(String.format(Locale.ROOT, "%nPixel clock %.4f MHz (measured), refresh %.4g Hz (measured).%n%n", pclk / 1e6, refresh));
         } else {
@@ -150,7 +147,7 @@ final class SiftReport {
             headline += "every frame is suspect: decoded through a suspect skew correction ("
                     + String.join(", ", suspectSkews.stream().map(x -> x.substring(0, x.indexOf(':'))).toList()) + ")\n";
         }
-        res.put("source", "measured: decoded by chains/" + SiftTool.CHAIN);
+        res.put("source", Source.measured("decoded by chains/" + SiftTool.CHAIN).text());
         model.put("result", res);
     }
 
@@ -174,7 +171,7 @@ final class SiftReport {
 
     private void skewRow(List<Object> list, String ch, String against, String kind, double ps, double conf, String method) {
         boolean applied = !method.equals("manual");
-        String source = applied ? "measured (" + method + ")" : "default: 0 ps, the estimate was not confident enough";
+        String source = (applied ? Source.measured(method) : Source.assumed("0 ps, the estimate was not confident enough")).text();
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("channel", ch);
         m.put("against", against);
@@ -221,7 +218,7 @@ final class SiftReport {
                 m.put("count", 0L);
                 m.put("meaning", MEANINGS.getOrDefault(kind, text(a.get("label"))));
                 m.put("firstAt", Femtos.format(num(a.get("start_fs"))));
-                m.put("source", "measured by " + text(a.get("source")));
+                m.put("source", Source.measured("by " + text(a.get("source"))).text());
                 return m;
             });
             g.put("count", (Long) g.get("count") + 1);
@@ -250,38 +247,43 @@ final class SiftReport {
                          ToolArgs args) throws IOException {
         Map<String, Object> link = new LinkedHashMap<>();
         String std = f.packet() ? LinkFacts.DPHY_SOURCE : LinkFacts.PIXEL_SOURCE;
-        link.put("kind", value(f.packet() ? "packet" : "pixel", null, f.kindSource()));
-        link.put("clockHz", value(f.clockHz(), "Hz", "measured on " + pairs.get(0).p()));
-        link.put("unitIntervalS", value(f.unitIntervalFs() / 1e15, "s", "derived: measured clock period / "
+        String anchor = std.substring(std.indexOf('#') + 1);
+        Sourced kind = new Sourced(f.packet() ? "packet" : "pixel", null, f.kindSource());
+        Sourced clock = new Sourced(f.clockHz(), "Hz", Source.measured("on " + pairs.get(0).p()));
+        Sourced ui = new Sourced(f.unitIntervalFs() / 1e15, "s", Source.derived("measured clock period / "
                 + (f.packet() ? "2 (DDR, " : "7 (") + std + ")"));
+        link.put("kind", kind.model());
+        link.put("clockHz", clock.model());
+        link.put("unitIntervalS", ui.model());
+        Sourced mapping = new Sourced(f.mapping(), null, Source.standard(f.dataLanes() + " data pairs", anchor));
         if (!f.packet()) {
-            link.put("mapping", value(f.mapping(), null, "standard: " + f.dataLanes() + " data pairs (" + LinkFacts.PIXEL_SOURCE + ")"));
+            link.put("mapping", mapping.model());
             link.put("mappingAlsoFits", f.mappingAlso().isEmpty() ? null : f.mappingAlso());
         }
         List<Object> pairList = new ArrayList<>();
+        StringBuilder pairText = new StringBuilder();
         for (LinkChains.Pair p : pairs) {
             pairList.add(Map.of("name", p.name(), "p", p.p(), "n", p.n()));
+            pairText.append(p.name()).append(" = ").append(p.p()).append(p.n().isEmpty() ? "" : " / " + p.n())
+                    .append(p == pairs.get(0) ? " (clock)" : "").append(p == pairs.get(pairs.size() - 1) ? "" : ", ");
         }
-        link.put("pairs", value(pairList, null, args.text("map").isEmpty() && args.text("map-file").isEmpty()
-                ? "measured: the pairs inspect found (anti-correlated levels or steps), the steadiest clock first" : "given (channel map)"));
+        Sourced pairsValue = new Sourced(pairList, null, args.text("map").isEmpty() && args.text("map-file").isEmpty()
+                ? Source.measured("the pairs inspect found (anti-correlated levels or steps), the steadiest clock first")
+                : Source.given("channel map"));
+        link.put("pairs", pairsValue.model());
         model.put("link", link);
         md.append("## Details\n\n### Link\n\n")
-                .append("- kind: ").append(f.packet() ? "packet link" : "7:1 pixel link").append(" (").append(f.kindSource()).append(")\n")
-                .append(String.format(Locale.ROOT, "- clock: %.6g MHz on %s (measured)%n", f.clockHz() / 1e6, pairs.get(0).p()))
-                .append("- unit interval: ").append(Femtos.format(f.unitIntervalFs())).append(" (")
-                .append(((Map<?, ?>) link.get("unitIntervalS")).get("source")).append(")\n");
+                .append(kind.markdown("kind", f.packet() ? "packet link" : "7:1 pixel link"))
+                .append(clock.markdown("clock", String.format(Locale.ROOT, "%.6g MHz", f.clockHz() / 1e6)))
+                .append(ui.markdown("unit interval", Femtos.format(f.unitIntervalFs())));
         if (!f.packet()) {
-            md.append("- slot mapping: `").append(f.mapping()).append("` (").append(((Map<?, ?>) link.get("mapping")).get("source"))
-                    .append(")").append(f.mappingAlso().isEmpty() ? "" : "; `" + f.mappingAlso() + "` also fits 4 data pairs: if the"
-                            + " colours look wrong, edit `chains/3-decode.json` (node `panel`, option `mapping`) and rerun it")
-                    .append('\n');
+            md.append(mapping.markdown("slot mapping", "`" + f.mapping() + "`"));
+            if (!f.mappingAlso().isEmpty()) {
+                md.append("- `").append(f.mappingAlso()).append("` also fits 4 data pairs: if the colours look wrong, edit"
+                        + " `chains/3-decode.json` (node `panel`, option `mapping`) and rerun it\n");
+            }
         }
-        md.append("- pairs: ");
-        for (LinkChains.Pair p : pairs) {
-            md.append(p.name()).append(" = ").append(p.p()).append(p.n().isEmpty() ? "" : " / " + p.n()).append(p == pairs.get(0) ? " (clock)" : "")
-                    .append(p == pairs.get(pairs.size() - 1) ? "" : ", ");
-        }
-        md.append(" (").append(((Map<?, ?>) link.get("pairs")).get("source")).append(")\n\n");
+        md.append(pairsValue.markdown("pairs", pairText.toString())).append('\n');
         Map<String, Object> in = new LinkedHashMap<>();
         in.put("file", capture.toString());
         in.put("format", inspect.format());
@@ -292,7 +294,7 @@ final class SiftReport {
         double dur = inspect.channels().stream().mapToDouble(InspectReport.Channel::durationS).max().orElse(Double.NaN);
         in.put("sampleRateHz", rate);
         in.put("durationS", dur);
-        in.put("source", "measured: read from the capture by inspect");
+        in.put("source", Source.measured("read from the capture by inspect").text());
         model.put("inputs", in);
         md.append("### Inputs\n\n- file: `").append(capture).append("` (").append(inspect.format()).append(", ")
                 .append(String.format(Locale.ROOT, "%.3g MB", Files.size(capture) / 1e6)).append(")\n- channels: ")

@@ -51,7 +51,7 @@ class LinkFactsTest {
         // Source: docs/reference-facts.md#d-phy-levels-and-states: LP high above 880 mV, LP low below 550 mV
         LinkFacts f = LinkFacts.of(report(2, 0.0, 1.2), pairs(2), "auto");
         assertTrue(f.packet());
-        assertTrue(f.kindSource().startsWith("measured: D0_P"), f.kindSource());
+        assertTrue(f.kindSource().text().startsWith("measured: D0_P"), f.kindSource().text());
         assertEquals(1e15 / 35e6 / 2, f.unitIntervalFs(), 1e-6);
         assertFalse(LinkFacts.of(report(3, 0.0, 1.2), pairs(3), "pixel").packet());
     }

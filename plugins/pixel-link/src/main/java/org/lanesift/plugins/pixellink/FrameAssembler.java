@@ -53,6 +53,16 @@ final class FrameAssembler {
     private final int maxWidth;
     private final int maxHeight;
     private final double clockTol;
+    /** The data-lane slip rule (single links only), or null. */
+    private final LaneSlip slip;
+    private final java.util.function.IntFunction<String> laneName;
+    /** The last two pixels of the previous batch (-1 none), and a DE fall waiting for its next pixel. */
+    private int prev1 = -1;
+    private int prev2 = -1;
+    private int pendingFall = -1;
+    private long pendingFallT;
+    /** The data-lane slip finding's reference, once found. */
+    private String slipRef;
 
     private long n;
     private int ctrl = -1;
@@ -98,7 +108,8 @@ final class FrameAssembler {
     private final LineMark vsTrail = new LineMark(0);
 
     FrameAssembler(String id, Out out, Timing timing, Pictures pictures, int maxWidth, int maxHeight, Detail detail,
-                   int hsForced, int vsForced, double clockTolPercent, String controlLane) {
+                   int hsForced, int vsForced, double clockTolPercent, String controlLane, int[][] singleLinkTables,
+                   java.util.function.IntFunction<String> laneName) {
         this.id = id;
         this.out = out;
         this.timing = timing;
@@ -111,6 +122,8 @@ final class FrameAssembler {
         this.picture = new PictureBuffer(maxHeight);
         this.clockTol = clockTolPercent / 100;
         this.line = new int[maxWidth];
+        this.slip = singleLinkTables == null ? null : new LaneSlip(singleLinkTables);
+        this.laneName = laneName;
     }
 
     /**
@@ -126,6 +139,10 @@ final class FrameAssembler {
         int[] ln = line;
         int cap = ln.length;
         long base = n;
+        if (pendingFall != -1 && count > 0) {
+            slipFound(slip.fall(pendingFall, px[0], pendingFallT));
+            pendingFall = -1;
+        }
         for (int i = 0; i < count; i++) {
             int p = px[i];
             if ((p >>> 24) == c0) {
@@ -138,6 +155,9 @@ final class FrameAssembler {
                 continue;
             }
             x = xx;
+            if (slip != null && c0 >= 0 && ((p >>> 24 ^ c0) & 1) != 0) {
+                deEdgeForSlip(px, t, i, count);
+            }
             slow(p, t[i], base + i);
             xx = x;
             c0 = ctrl;
@@ -145,6 +165,42 @@ final class FrameAssembler {
         x = xx;
         n = base + count;
         timing.pixels = n;
+        if (count >= 2) {
+            prev2 = px[count - 2];
+            prev1 = px[count - 1];
+        } else if (count == 1) {
+            prev2 = prev1;
+            prev1 = px[0];
+        }
+    }
+
+    /** Hands the blanking pixels beside a DE edge at {@code px[i]} to the data-lane slip rule. */
+    private void deEdgeForSlip(int[] px, long[] t, int i, int count) {
+        if ((px[i] >>> 24 & 1) == 0) {
+            if (i + 1 < count) {
+                slipFound(slip.fall(px[i], px[i + 1], t[i]));
+            } else {
+                pendingFall = px[i];
+                pendingFallT = t[i];
+            }
+        } else {
+            int last = i >= 1 ? px[i - 1] : prev1;
+            int before = i >= 2 ? px[i - 2] : i == 1 ? prev1 : prev2;
+            if (last != -1 && before != -1) {
+                slipFound(slip.rise(before, last, t[i]));
+            }
+        }
+    }
+
+    /** The slip rule named a lane: one finding, and the frame being built (and every later one) is suspect. */
+    private void slipFound(LaneSlip.Slip s) {
+        if (s == null) {
+            return;
+        }
+        slipRef = findings.laneSlip(laneName.apply(s.lane()), s.late(), s.unitIntervals(), s.firstFs());
+        if (frame.isOpen()) {
+            frame.markSuspect(slipRef);
+        }
     }
 
     private void slow(int p, long t, long idx) {
@@ -269,8 +325,7 @@ final class FrameAssembler {
         int rows = picture.rows();
         if (len != width && valid) {
             // (a line begun before a lock loss is cut by it: the loss is named, and its frame broken, already)
-            frame.markSuspect();
-            findings.lineLength(lineStartT, t, len, width, rows, frame.index());
+            frame.markSuspect(findings.lineLength(lineStartT, t, len, width, rows, frame.index()));
         }
         if (rows >= maxHeight) {
             if (frame.firstTooTallReport()) {
@@ -459,6 +514,9 @@ final class FrameAssembler {
     private void openFrame(long idx, long t, boolean startSeen, boolean startPending, long hsL, long vL) {
         frame.open(idx, t, startSeen, startPending, hsL, vL);
         picture.reset();
+        if (slipRef != null) {
+            frame.markSuspect(slipRef);
+        }
     }
 
     private boolean frameStartSeenNow() {
@@ -516,7 +574,7 @@ final class FrameAssembler {
         // partial only because the capture began or ended inside it (a fact of the capture window), or
         // because of a clock fault found upstream: no fault of its own
         boolean windowOnly = !complete && (!frame.broken() || frame.brokenElsewhere());
-        findings.frame(f, index, complete, suspect, why, windowOnly, frame.suspectPixels());
+        findings.frame(f, index, complete, suspect, why, windowOnly, frame.suspectPixels(), frame.suspectCause());
         out.frame(f);
         if (pictures != null) {
             pictures.offer(f);

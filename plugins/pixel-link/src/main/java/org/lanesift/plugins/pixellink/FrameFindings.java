@@ -49,8 +49,10 @@ final class FrameFindings {
      * change length mean the framing is inconsistent: the first is the one warning, naming the lane
      * that carries DE, HS and VS (a lane off by whole unit intervals keeps clean margins and shows
      * only here); every later one is information pointing back at it, so the fault is found once.
+     *
+     * @return a reference to the first line-length finding, for the frames it makes suspect
      */
-    void lineLength(long startT, long endT, int pixels, int expected, int row, long frame) {
+    String lineLength(long startT, long endT, int pixels, int expected, int row, long frame) {
         timing.anomaly("line-length");
         boolean first = firstLineLengthT < 0;
         if (first) {
@@ -64,6 +66,29 @@ final class FrameFindings {
                 .label(label)
                 .field("pixels", Field.integer(pixels, "px")).field("expected", Field.integer(expected, "px"))
                 .field("row", Field.integer(row, "")).field("frame", Field.integer(frame, "")).build());
+        return "the line-length finding at " + Femtos.format(firstLineLengthT);
+    }
+
+    /**
+     * A data lane whole unit intervals off the others ({@link LaneSlip}): the one finding; the
+     * frames decoded through it are suspect and refer back to it.
+     *
+     * @param lane          the lane's name
+     * @param late          whether it is late (else early)
+     * @param unitIntervals by how many unit intervals
+     * @param tFs           the DE edge where the first evidence was seen
+     * @return a reference to this finding, for the frames it makes suspect
+     */
+    String laneSlip(String lane, boolean late, int unitIntervals, long tFs) {
+        timing.anomaly("lane-slot-offset");
+        String label = lane + ": pixel bits " + unitIntervals + " unit interval" + (unitIntervals > 1 ? "s " : " ")
+                + (late ? "late" : "early") + " against the DE edges (blanking pixels next to DE " + (late ? "falls" : "rises")
+                + " differ only in this lane's " + (late ? "first" : "last") + " slots); its pixel bits are decoded into the"
+                + " wrong pixels, the decode is suspect: correct the lane's skew by " + unitIntervals + " unit interval"
+                + (unitIntervals > 1 ? "s" : "");
+        out.annotate(Annotation.on(trackAnom, "lane-slot-offset").span(tFs, tFs).severity(Severity.WARNING).label(label)
+                .field("unitIntervals", Field.integer(late ? unitIntervals : -unitIntervals, "UI")).build());
+        return "the lane-slot-offset finding at " + Femtos.format(tFs);
     }
 
     /** One active line (detail {@code lines} only). */
@@ -104,15 +129,18 @@ final class FrameFindings {
      * A finished frame: its annotation (at detail {@code anomalies} only when partial), why it is
      * partial, and how many of its pixels had flagged bits. A frame that is partial only because
      * the capture began or ended inside it ({@code windowOnly}) is information, not a finding
-     * about the link: both its annotations are info.
+     * about the link: both its annotations are info. A frame suspect only through a finding stated
+     * elsewhere ({@code suspectCause}) is information referring to it, so the fault is found once.
      */
-    void frame(Frame f, long index, boolean complete, boolean suspect, String partialReason, boolean windowOnly, long suspectPixels) {
+    void frame(Frame f, long index, boolean complete, boolean suspect, String partialReason, boolean windowOnly, long suspectPixels,
+               String suspectCause) {
         Severity partialSev = windowOnly ? Severity.INFO : Severity.WARNING;
-        Severity sev = suspect ? Severity.WARNING : complete ? Severity.INFO : partialSev;
+        Severity sev = suspect ? (suspectCause != null && (complete || windowOnly) ? Severity.INFO : Severity.WARNING)
+                : complete ? Severity.INFO : partialSev;
         if (detail != FrameAssembler.Detail.ANOMALIES || !complete) {
             out.annotate(Annotation.on(trackFrames, "frame").span(f.startFs(), f.endFs()).severity(sev)
                     .label("frame " + index + ": " + f.width() + "x" + f.height() + (complete ? "" : " partial")
-                            + (suspect ? " suspect" : ""))
+                            + (suspect ? " suspect" : "") + (suspect && suspectCause != null ? " (consequence: see " + suspectCause + ")" : ""))
                     .field("index", Field.integer(index, "")).field("width", Field.integer(f.width(), "px"))
                     .field("height", Field.integer(f.height(), "lines")).field("partial", Field.enumValue(Boolean.toString(!complete)))
                     .field("suspect", Field.enumValue(Boolean.toString(suspect))).build());

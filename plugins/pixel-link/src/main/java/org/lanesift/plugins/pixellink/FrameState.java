@@ -15,6 +15,7 @@ final class FrameState {
     private String brokenReason;
     private boolean brokenElsewhere;
     private boolean suspect;
+    private String suspectCause;
     private long firstRise;
     private long firstT;
     private long firstV;
@@ -48,6 +49,7 @@ final class FrameState {
         broken = false;
         brokenElsewhere = false;
         suspect = false;
+        suspectCause = null;
         brokenReason = null;
         firstRise = idx;
         firstT = t;
@@ -129,8 +131,26 @@ final class FrameState {
         return brokenReason;
     }
 
-    void markSuspect() {
+    /**
+     * Marks the frame suspect because of a finding stated once elsewhere (the first is kept).
+     *
+     * @param cause a reference to that finding, e.g. "the line-length finding at 1.2 us"
+     */
+    void markSuspect(String cause) {
         suspect = true;
+        if (suspectCause == null) {
+            suspectCause = cause;
+        }
+    }
+
+    /**
+     * Why the frame is suspect when that is only the consequence of findings stated elsewhere:
+     * null when it holds pixels with flagged bits (its own finding) or is not suspect.
+     *
+     * @return the reference to the finding, or null
+     */
+    String suspectCause() {
+        return suspectPixels > 0 ? null : suspectCause;
     }
 
     /** A pixel with flagged bits arrived (counted also between frames; opening resets the count). */

@@ -34,6 +34,8 @@ final class LaneBuffer {
     /** End of live entries. */
     int tail;
     long bitsSeen;
+    /** The channel of the first bit stream received, or null before any. */
+    private String channel;
     long badSlots;
 
     private int pMask;
@@ -45,6 +47,11 @@ final class LaneBuffer {
     LaneBuffer(String name, boolean keepTimes) {
         this.name = name;
         this.keepTimes = keepTimes;
+    }
+
+    /** The lane's channel and input, e.g. {@code "d0 (lane0)"}, for findings. */
+    String label() {
+        return channel == null || channel.equals(name) ? name : channel + " (" + name + ")";
     }
 
     int size() {
@@ -108,6 +115,9 @@ final class LaneBuffer {
         }
         int n = b.count();
         bitsSeen += n;
+        if (channel == null) {
+            channel = b.channel();
+        }
         ensure(n + 2); // worst case: every bit closes a pixel
         long[] ce = b.clockEdge();
         long[] vals = b.values();

@@ -75,7 +75,8 @@ final class PixelLinkStage implements Stage {
             }
         };
         this.asm = new FrameAssembler(id, out, timing, pics, maxWidth, maxHeight, detail, hsForced, vsForced, clockTolPercent,
-                mapping.controlLanes(laneNames));
+                mapping.controlLanes(laneNames),
+                dual ? null : java.util.Arrays.copyOf(tables, Math.min(tables.length, lanes.length)), i -> lanes[i].label());
         this.px = new int[BATCH * 2];
         this.tt = new long[BATCH * 2];
     }

@@ -18,7 +18,8 @@ import org.apache.commons.math3.distribution.NormalDistribution;
  * {@code Phi(-Q_SHALLOW) / 2} of the edges lie beyond down to where only a few do. The right tail
  * likewise, with {@code 1 - F}. For a single Gaussian (no DJ) the fit reports a small DJ and a
  * smaller RJ whose TJ is still close; for sinusoidal DJ it reports less than the peak-to-peak (the
- * dual-Dirac DJ is a model figure, not a peak-to-peak); docs/jitter.md. Then RJ = (sigmaL + sigmaR) / 2 (RMS),
+ * dual-Dirac DJ is a model figure, not a peak-to-peak; {@link PeriodicJitter} gives the
+ * peak-to-peak of periodic jitter); docs/jitter.md. Then RJ = (sigmaL + sigmaR) / 2 (RMS),
  * DJ(dual-Dirac) = muR - muL, and TJ(BER) = DJ + 2 Q(BER) RJ with Q(BER) = -Phi^-1(BER), the
  * relation of the dual-Dirac model (docs/reference-facts.md#jitter-under-the-dual-dirac-model).
  *

@@ -20,6 +20,8 @@ import org.lanesift.plugin.PluginProvider;
 import org.lanesift.plugin.PortSpec;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
+import org.lanesift.report.Source;
+import org.lanesift.report.Sourced;
 
 /**
  * Plugin {@code jitter}: the time-interval error (TIE) of clock edges against an ideal clock fitted
@@ -37,6 +39,8 @@ public final class JitterPlugin implements PluginProvider {
     static final int BINS = 50;
     /** Default bit error ratio for total jitter, the one most link specifications quote (common practice). */
     static final double DEFAULT_BER = 1e-12;
+    /** The docs/reference-facts.md section of the dual-Dirac relation. */
+    static final String DUAL_DIRAC = "jitter-under-the-dual-dirac-model";
     /** Points of the bathtub curve, half on each wall. */
     static final int BATHTUB_POINTS = 100;
 
@@ -53,6 +57,9 @@ public final class JitterPlugin implements PluginProvider {
                     "loop bandwidth of a tracking reference clock for a second TIE; 0 leaves it out"))
             .option(OptionSpec.integer("trackingOrder", 2L, 1, 2,
                     "order of the tracking loop: 1 (phase only) or 2 (phase and frequency, damping 0.707)"))
+            .option(OptionSpec.number("dropoutPeriods", "", 0.0, 0.0, 1.0e6, "a gap between clock edges longer than this many"
+                    + " ideal periods is a clock-dropout finding; 0 (the default) leaves dropouts to the stage that recovers the"
+                    + " clock (dual-edge): set it where this stage is the only one that sees the clock"))
             .input(PortSpec.of("clock", DataKind.EDGES, "clock edges"))
             .output(PortSpec.of("files", DataKind.ARTIFACT, "<id>-jitter.json, <id>-jitter.png and <id>-bathtub.png"))
             .build();
@@ -184,6 +191,7 @@ public final class JitterPlugin implements PluginProvider {
         private final double ber;
         private final double trackingHz;
         private final int trackingOrder;
+        private final double dropoutPeriods;
 
         JitterStage(StageContext ctx) {
             this.ctx = ctx;
@@ -192,6 +200,7 @@ public final class JitterPlugin implements PluginProvider {
             ber = ctx.options().getDouble("ber");
             trackingHz = ctx.options().getDouble("trackingBandwidthHz");
             trackingOrder = ctx.options().getInt("trackingOrder");
+            dropoutPeriods = ctx.options().getDouble("dropoutPeriods");
         }
 
         @Override
@@ -259,22 +268,23 @@ public final class JitterPlugin implements PluginProvider {
             j.field("edgesAnalysed", n);
             j.field("edgesNotAnalysed", ignored);
             j.field("missingEdgePlaces", r.gaps());
-            j.field("idealPeriodPs", r.periodFs() / 1000);
-            j.field("idealFrequencyHz", 1e15 / r.periodFs());
-            j.field("tieRmsPs", r.tieRmsPs());
-            j.field("tiePeakToPeakPs", r.tie().peakToPeak());
-            j.field("periodMeanPs", r.period().mean());
-            j.field("periodJitterRmsPs", r.period().std());
-            j.field("periodJitterPeakToPeakPs", r.period().peakToPeak());
-            j.field("cycleToCycleRmsPs", r.c2cRmsPs());
-            j.field("cycleToCyclePeakToPeakPs", r.cycleToCycle().peakToPeak());
+            Source lsq = Source.measured("a least-squares line through edge time against edge number");
+            Source edges = Source.measured("from the clock edges");
+            Sourced.of(r.periodFs() / 1000, "ps", lsq).field(j, "idealPeriodPs");
+            Sourced.of(1e15 / r.periodFs(), "Hz", lsq).field(j, "idealFrequencyHz");
+            Sourced.of(r.tieRmsPs(), "ps", edges).field(j, "tieRmsPs");
+            Sourced.of(r.tie().peakToPeak(), "ps", edges).field(j, "tiePeakToPeakPs");
+            Sourced.of(r.period().mean(), "ps", edges).field(j, "periodMeanPs");
+            Sourced.of(r.period().std(), "ps", edges).field(j, "periodJitterRmsPs");
+            Sourced.of(r.period().peakToPeak(), "ps", edges).field(j, "periodJitterPeakToPeakPs");
+            Sourced.of(r.c2cRmsPs(), "ps", edges).field(j, "cycleToCycleRmsPs");
+            Sourced.of(r.cycleToCycle().peakToPeak(), "ps", edges).field(j, "cycleToCyclePeakToPeakPs");
             j.field("definitions", "TIE: edge time minus a least-squares line through edge time against edge number; "
                     + "period jitter: sd of consecutive edge intervals; cycle-to-cycle: differences of consecutive periods (RMS about 0)");
-            writeDecomposition(j, d, uiPs);
+            writeDecomposition(j, d, uiPs, PeriodicJitter.of(r.tiePs(), r.number(), n), 1e15 / r.periodFs());
             double[][] tub = bathtub(d, sorted, uiPs);
             writeBathtub(j, tub, uiPs);
             writeTracking(j, tr, trTie);
-            writeProvenance(j);
             r.tie().write(j, "tie", BINS, 1.0);
             r.period().write(j, "period", BINS, 1.0);
             r.cycleToCycle().write(j, "cycleToCycle", BINS, 1.0);
@@ -312,29 +322,62 @@ public final class JitterPlugin implements PluginProvider {
                 }
             }
             ctx.annotate(a.build());
+            if (dropoutPeriods > 0 && n >= 3) {
+                dropouts(r.periodFs());
+            }
             if (ignored > 0) {
                 ctx.annotate(Annotation.on(id, "jitter-edges-not-analysed").span(firstFs, lastFs).severity(Severity.WARNING)
                         .label(ignored + " edges after the first " + n + " were not analysed (option maxEdges)").build());
             }
         }
 
-        private void writeDecomposition(JsonWriter j, JitterDecomposition.Result d, double uiPs) {
-            j.field("ber", ber);
+        /** One clock-dropout finding per gap between analysed edges longer than {@code dropoutPeriods} ideal periods. */
+        private void dropouts(double periodFs) {
+            double limit = dropoutPeriods * periodFs;
+            for (int i = 1; i < n; i++) {
+                long gap = times[i] - times[i - 1];
+                if (gap > limit) {
+                    ctx.annotate(Annotation.on(ctx.instanceId(), "clock-dropout").span(times[i - 1], times[i]).severity(Severity.ERROR)
+                            .label(String.format(Locale.ROOT, "'%s': no clock edge for %.2f periods (limit %.4g, option dropoutPeriods)",
+                                    channel, gap / periodFs, dropoutPeriods))
+                            .number("gapFs", gap, "fs").number("periods", gap / periodFs, "").build());
+                }
+            }
+        }
+
+        private void writeDecomposition(JsonWriter j, JitterDecomposition.Result d, double uiPs, PeriodicJitter.Result pj,
+                                        double edgeHz) {
+            new Sourced(ber, null, ber == DEFAULT_BER ? Source.assumed("1e-12, common practice") : Source.given("option ber"))
+                    .field(j, "ber");
             j.name("decomposition").beginObject();
             j.field("model", "dual-Dirac: two Gaussians of weight 1/2; each tail fitted as a straight line on the Q scale "
                     + "(beyond Q " + JitterDecomposition.Q_SHALLOW + ", at most Q " + JitterDecomposition.Q_DEEP + ")");
-            j.field("randomJitterRmsPs", d.rjRms());
-            j.field("deterministicJitterDualDiracPs", d.djDd());
-            j.field("qOfBer", d.qBer());
-            j.field("totalJitterPs", d.tj());
+            Source fit = Source.measured("tail fits of the TIE distribution");
+            Sourced.of(d.rjRms(), "ps", fit).field(j, "randomJitterRmsPs");
+            Sourced.of(d.djDd(), "ps", fit).field(j, "deterministicJitterDualDiracPs");
+            Sourced.of(d.qBer(), null, Source.standard("Q(BER) = -inverse standard normal CDF of BER; Q(1e-12) = 7.034, "
+                    + "Fibre Channel MJSQ, T11.2", DUAL_DIRAC)).field(j, "qOfBer");
+            Sourced.of(d.tj(), "ps", Source.derived("TJ(BER) = DJ(dual-Dirac) + 2 Q(BER) RJ (" + Source.FACTS + "#" + DUAL_DIRAC
+                    + ") from the measured RJ and DJ")).field(j, "totalJitterPs");
             j.field("relation", "TJ(BER) = DJ(dual-Dirac) + 2 Q(BER) RJ, Q(BER) = -inverse standard normal CDF of BER");
-            j.field("eyeOpeningUi", d.fitted() ? Math.max(0, 1 - d.tj() / uiPs) : Double.NaN);
+            Sourced.of(d.fitted() ? Math.max(0, 1 - d.tj() / uiPs) : Double.NaN, "UI", Source.derived("1 - TJ(BER) / unit interval"))
+                    .field(j, "eyeOpeningUi");
+            Sourced.of(pj.peakToPeak(), "ps", Source.measured("peak-to-peak of the sum of the spectral lines of the TIE against edge"
+                    + " number, each fitted by least squares; the dual-Dirac DJ above is at most this for periodic jitter"))
+                    .field(j, "periodicJitterPeakToPeakPs");
+            Sourced.of(pj.residualRms(), "ps", Source.measured("RMS of the TIE with those lines removed: random jitter and"
+                    + " non-periodic deterministic jitter")).field(j, "residualTieRmsPs");
+            j.name("periodicLines").beginArray();
+            for (PeriodicJitter.Tone t : pj.tones()) {
+                j.beginObjectInline().field("frequencyHz", t.cyclesPerEdge() * edgeHz).field("amplitudePs", t.amplitude()).endObject();
+            }
+            j.endArray();
             JitterDecomposition.Tail[] tails = {d.left(), d.right()};
             for (int side = 0; side < 2; side++) {
                 JitterDecomposition.Tail t = tails[side];
                 j.name(side == 0 ? "leftTail" : "rightTail").beginObject();
-                j.field("diracPs", t == null ? Double.NaN : t.mu());
-                j.field("sigmaPs", t == null ? Double.NaN : t.sigma());
+                Sourced.of(t == null ? Double.NaN : t.mu(), "ps", fit).field(j, "diracPs");
+                Sourced.of(t == null ? Double.NaN : t.sigma(), "ps", fit).field(j, "sigmaPs");
                 j.field("diracWeight", t == null ? Double.NaN : t.weight());
                 j.field("rSquared", t == null ? Double.NaN : t.r2());
                 j.field("points", t == null ? 0 : t.points());
@@ -383,8 +426,8 @@ public final class JitterPlugin implements PluginProvider {
 
         private void writeBathtub(JsonWriter j, double[][] b, double uiPs) {
             j.name("bathtub").beginObject();
-            j.field("unitIntervalPs", uiPs);
-            j.field("transitionDensity", 1.0);
+            Sourced.of(uiPs, "ps", Source.measured("the least-squares clock period")).field(j, "unitIntervalPs");
+            Sourced.of(1.0, null, Source.assumed("1, every interval has a transition (a clock)")).field(j, "transitionDensity");
             j.field("points", "the first half span the wall after one ideal edge, the second half the wall before the next");
             j.name("positionPs").inlineArray(b[0], b[0].length);
             j.name("modelLog10ErrorProbability").inlineArray(b[1], b[1].length);
@@ -406,30 +449,15 @@ public final class JitterPlugin implements PluginProvider {
                 return;
             }
             j.beginObject();
-            j.field("loopBandwidthHz", trackingHz);
+            Sourced.of(trackingHz, "Hz", Source.given("option trackingBandwidthHz")).field(j, "loopBandwidthHz");
             j.field("order", trackingOrder);
             j.field("dampingRatio", trackingOrder == 2 ? TrackingClock.ZETA : Double.NaN);
             j.field("settlingEdgesLeftOut", tr.settlingEdges());
-            j.field("tieRmsPs", Math.hypot(trTie.mean(), trTie.std()));
-            j.field("tiePeakToPeakPs", trTie.peakToPeak());
+            Source against = Source.measured("TIE against the tracking reference");
+            Sourced.of(Math.hypot(trTie.mean(), trTie.std()), "ps", against).field(j, "tieRmsPs");
+            Sourced.of(trTie.peakToPeak(), "ps", against).field(j, "tiePeakToPeakPs");
             j.field("definition", "TIE against a reference clock that follows the edges through a phase-locked loop "
                     + "of this bandwidth (wander slower than it is removed)");
-            j.endObject();
-        }
-
-        private void writeProvenance(JsonWriter j) {
-            j.name("provenance").beginObject();
-            j.field("edgesAnalysed, idealPeriodPs, tie*, period*, cycleToCycle*", "measured from the clock edges");
-            j.field("decomposition.randomJitterRmsPs, deterministicJitterDualDiracPs, leftTail, rightTail",
-                    "measured: tail fits of the TIE distribution");
-            j.field("decomposition.qOfBer, totalJitterPs, eyeOpeningUi",
-                    "standard: the dual-Dirac relation TJ = DJ + 2 Q(BER) RJ (docs/reference-facts.md#jitter-under-the-dual-dirac-model), applied to the measured RJ and DJ");
-            j.field("ber", ber == DEFAULT_BER ? "assumed by default (1e-12, common practice)" : "given (option ber)");
-            j.field("bathtub.modelLog10ErrorProbability", "dual-Dirac model with the measured tails; transition density 1 assumed (a clock)");
-            j.field("bathtub.positionPs", "chosen: each wall until the model is far below any BER of interest");
-            j.field("bathtub.measuredErrorShare", "measured: share of TIE values beyond each sampling instant");
-            j.field("trackingReference", trackingHz > 0 ? "measured against a loop of the given bandwidth (option trackingBandwidthHz)"
-                    : "not asked for (option trackingBandwidthHz 0, the default)");
             j.endObject();
         }
     }

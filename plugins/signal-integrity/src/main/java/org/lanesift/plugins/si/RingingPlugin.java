@@ -17,6 +17,8 @@ import org.lanesift.plugin.PluginProvider;
 import org.lanesift.plugin.PortSpec;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
+import org.lanesift.report.Source;
+import org.lanesift.report.Sourced;
 
 /**
  * Plugin {@code ringing}: averages the signal after every edge, aligned on the edges' interpolated
@@ -203,8 +205,9 @@ public final class RingingPlugin implements PluginProvider {
             j.field("instance", id);
             j.field("plugin", ID);
             j.field("channel", channel);
-            j.field("lowLevelVolts", lv.lowVolts);
-            j.field("highLevelVolts", lv.highVolts);
+            Source levels = Source.measured("the two levels of the signal");
+            Sourced.of(lv.lowVolts, "V", levels).field(j, "lowLevelVolts");
+            Sourced.of(lv.highVolts, "V", levels).field(j, "highLevelVolts");
             j.field("edges", edges);
             j.field("fitted", fitted);
             j.field("notFitted", notFitted);
@@ -219,21 +222,26 @@ public final class RingingPlugin implements PluginProvider {
             j.field("samples", averager == null ? 0 : averager.length());
             j.field("fitted", avg.ok());
             j.field("reason", avg.ok() ? "" : avg.reason());
-            j.field("ringHz", avg.ringHz());
-            j.field("naturalHz", avg.naturalHz());
-            j.field("dampingRatio", avg.zeta());
-            j.field("amplitudeVolts", avg.amplitudeVolts());
+            Source avgFit = Source.measured("fit of the averaged edge");
+            Sourced.of(avg.ringHz(), "Hz", avgFit).field(j, "ringHz");
+            Sourced.of(avg.naturalHz(), "Hz", avgFit).field(j, "naturalHz");
+            Sourced.of(avg.zeta(), null, avgFit).field(j, "dampingRatio");
+            Sourced.of(avg.amplitudeVolts(), "V", avgFit).field(j, "amplitudeVolts");
             j.field("rSquared", avg.rSquared());
             j.endObject();
             j.name("summary").beginObject();
             j.field("from", fromAverage ? "the averaged edge" : any ? "the median of the single-edge fits (the average could not be fitted)" : "nothing fitted");
-            j.field("ringHz", ring);
-            j.field("naturalHz", nat);
-            j.field("dampingRatio", zeta);
-            j.field("q", q);
-            j.field("probeCapacitancePf", capF * 1e12);
-            j.field("loopInductanceNh", l * 1e9);
-            j.field("leadLengthMm", mm);
+            Source sumFit = Source.measured(fromAverage ? "fit of the averaged edge" : "median of the single-edge fits");
+            Sourced.of(ring, "Hz", sumFit).field(j, "ringHz");
+            Sourced.of(nat, "Hz", sumFit).field(j, "naturalHz");
+            Sourced.of(zeta, null, sumFit).field(j, "dampingRatio");
+            Sourced.of(q, null, sumFit).field(j, "q");
+            Sourced.of(capF * 1e12, "pF", capF * 1e12 == DEFAULT_PROBE_PF
+                    ? Source.assumed("a typical 10:1 passive probe, common practice, from memory") : Source.given("option probeCapacitancePf"))
+                    .field(j, "probeCapacitancePf");
+            Sourced.of(l * 1e9, "nH", Source.derived("L = 1 / ((2 pi f0)^2 C) from the measured f0 and the capacitance above"))
+                    .field(j, "loopInductanceNh");
+            Sourced.of(mm, "mm", Source.derived("about 1 nH per mm of straight lead (common practice)")).field(j, "leadLengthMm");
             j.field("advice", advice);
             j.endObject();
             j.name("assumptions").beginArray();
@@ -243,13 +251,6 @@ public final class RingingPlugin implements PluginProvider {
                     + (capF * 1e12 == DEFAULT_PROBE_PF ? " (default: a typical 10:1 passive probe, common practice, from memory)" : " (given)"));
             j.value("a straight lead has about 1 nH per mm (common practice); a loop's real inductance depends on its area");
             j.endArray();
-            j.name("provenance").beginObject();
-            j.field("average, fits, summary.ringHz, naturalHz, dampingRatio, q, lowLevelVolts, highLevelVolts", "measured");
-            j.field("summary.probeCapacitancePf", capF * 1e12 == DEFAULT_PROBE_PF
-                    ? "assumed by default (a typical 10:1 passive probe, common practice, from memory)" : "given (option probeCapacitancePf)");
-            j.field("summary.loopInductanceNh", "derived: L = 1 / ((2 pi f0)^2 C) from the measured f0 and the capacitance above");
-            j.field("summary.leadLengthMm", "derived: about 1 nH per mm of straight lead (common practice)");
-            j.endObject();
             j.name("fits").beginArray();
             for (double[] f : fits) {
                 j.beginObject();

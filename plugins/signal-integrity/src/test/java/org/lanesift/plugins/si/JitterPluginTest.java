@@ -1,6 +1,7 @@
 package org.lanesift.plugins.si;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 import static org.lanesift.plugins.si.EyeDiagramPluginTest.num;
 
 import java.nio.charset.StandardCharsets;
@@ -53,6 +54,21 @@ class JitterPluginTest {
         // Gaussian peak-to-peak over 200000 samples is about 2 * 4.4 sigma; it must at least exceed 8 sigma
         assertEquals(1, Math.signum(num(j, "tiePeakToPeakPs") - 16), j);
         SynthSignals.save(h.outputs("files", Artifact.class).get(1));
+    }
+
+    /** Every value of the report carries its source in the one host-api shape; no separate provenance object. */
+    @Test
+    void valuesSayWhereTheyComeFrom() {
+        StageHarness h = StageHarness.of(new JitterPlugin(), Map.of());
+        h.push("clock", clock(20_000, 1_000_000, 1_000, 7, -1, -1)).finish();
+        org.lanesift.json.JsonValue v = org.lanesift.testkit.JsonScan.parse("report", json(h));
+        assertEquals(null, v.get("provenance"));
+        assertEquals("ps", v.at("/tieRmsPs/unit").asString());
+        assertTrue(v.at("/tieRmsPs/source").asString().startsWith("measured"));
+        assertTrue(v.at("/ber/source").asString().startsWith("assumed by default"));
+        assertTrue(v.at("/decomposition/qOfBer/source").asString().startsWith("standard: ")
+                && v.at("/decomposition/qOfBer/source").asString().endsWith("(docs/reference-facts.md#jitter-under-the-dual-dirac-model)"));
+        assertTrue(v.at("/decomposition/totalJitterPs/source").asString().startsWith("derived: TJ(BER) = DJ(dual-Dirac) + 2 Q(BER) RJ"));
     }
 
     @Test
