@@ -6,7 +6,8 @@
 # Prints per set: wall and CPU seconds (min/median/max over the rounds), the median peak resident
 # memory, and the median of the per-round wall ratios to the first set. Every pass must count the
 # same bits and ones.
-# Usage: bench/scripts/cold-start.sh [ROUNDS] [GIGABYTES] [WORKDIR]
+# Usage: [ONLY='default|serial'] bench/scripts/cold-start.sh [ROUNDS] [GIGABYTES] [WORKDIR]
+# (ONLY: a regular expression; only the sets whose whole name matches run)
 set -euo pipefail
 cd "$(dirname "$0")/../.."
 ROUNDS="${1:-3}"
@@ -33,6 +34,7 @@ cat "$WORK/ddr.bin" > /dev/null   # the file in the page cache for every set ali
 for round in $(seq 1 "$ROUNDS"); do
   for s in "${SETS[@]}"; do
     name="${s%%|*}"; opts="${s#*|}"
+    if [ -n "${ONLY:-}" ] && ! [[ "$name" =~ ^(${ONLY})$ ]]; then continue; fi
     # shellcheck disable=SC2086
     /usr/bin/env time -f '%e %U %S %M' -o "$WORK/time.txt" java $opts -cp "$JAR" org.lanesift.bench.ColdPass "$WORK/ddr.bin" > "$WORK/out.txt"
     read -r wall user sys rss < "$WORK/time.txt"
