@@ -111,6 +111,23 @@ public final class Chain implements AutoCloseable {
         }
 
         @Override
+        public boolean mayLend(int output) {
+            if (output < 0 || output >= outputs.size() || !taps.get(output).isEmpty()) {
+                return false;
+            }
+            List<Target> ts = targets.get(output);
+            if (ts.isEmpty()) {
+                return false;
+            }
+            for (Target t : ts) {
+                if (t.node.step.descriptor() == null || !t.node.step.descriptor().readsLentBlocks()) {
+                    return false;
+                }
+            }
+            return true;
+        }
+
+        @Override
         public void emit(int output, Block block) {
             if (output < 0 || output >= outputs.size()) {
                 throw new ChainException(label() + " emitted on output " + output + " but has " + outputs.size() + " outputs", null);

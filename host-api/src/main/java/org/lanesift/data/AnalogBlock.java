@@ -8,8 +8,11 @@ import java.util.Objects;
  * <p>Sample {@code i} (0 &le; i &lt; {@link #length()}) was taken at
  * {@code startFs + i * periodFs} femtoseconds and reads {@code volts[i]} volts. Samples the
  * instrument clipped or did not deliver are marked in the optional {@link #invalid()} bitset
- * ({@link BitSets} layout); their values must not be trusted. The arrays are owned by the block
- * once it is emitted: a stage must not change them afterwards, and receivers must not change them.
+ * ({@link BitSets} layout); their values must not be trusted. Receivers never change the arrays.
+ * Who may keep them, and when a source may recycle them, is the ownership rule of {@link Block}:
+ * a block is the receivers' to keep unless the engine let its source lend it
+ * ({@link org.lanesift.plugin.StageContext#mayLend(int)}), and then it is readable only until the
+ * receiver's {@code accept} returns.
  *
  * @param channel    channel name
  * @param firstIndex index of sample 0 within the whole capture

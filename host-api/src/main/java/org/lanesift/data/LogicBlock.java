@@ -6,7 +6,9 @@ import java.util.Objects;
  * A contiguous run of one logic channel's samples, bit-packed 64 to a {@code long}
  * ({@link BitSets} layout): sample {@code i} is bit {@code i & 63} of {@code bits[i >>> 6]}, taken
  * at {@code startFs + i * periodFs} femtoseconds. Bits past {@code length} are ignored. Samples
- * that are unknown (an analyser's x/z, missing data) are marked in {@link #invalid()}.
+ * that are unknown (an analyser's x/z, missing data) are marked in {@link #invalid()}. Receivers
+ * never change the arrays; who may keep them is the ownership rule of {@link Block} (a lent block
+ * is readable only until the receiver's {@code accept} returns).
  *
  * @param channel    channel name
  * @param firstIndex index of sample 0 within the whole capture

@@ -19,6 +19,7 @@ public final class PluginDescriptor {
     private final Function<OptionValues, List<PortSpec>> inputs;
     private final Function<OptionValues, List<PortSpec>> outputs;
     private final Function<OptionValues, SegmentSupport> segments;
+    private final boolean readsLentBlocks;
 
     private PluginDescriptor(Builder b) {
         this.id = b.id;
@@ -32,6 +33,7 @@ public final class PluginDescriptor {
         this.outputs = b.outputs != null ? b.outputs : o -> fo;
         SegmentSupport none = SegmentSupport.no("plugin '" + b.id + "' does not declare that it can decode in segments");
         this.segments = b.segments != null ? b.segments : o -> none;
+        this.readsLentBlocks = b.readsLentBlocks;
     }
 
     /**
@@ -136,6 +138,17 @@ public final class PluginDescriptor {
         return s == null ? SegmentSupport.no("plugin '" + id + "' gave no segment support") : s;
     }
 
+    /**
+     * Whether the plugin's stages may be handed lent blocks: they read a received block's arrays
+     * only until {@link Stage#accept} returns, copy whatever they need later, and never emit a
+     * block that shares a received block's arrays. See {@link org.lanesift.data.Block}, "Ownership".
+     *
+     * @return true when declared with {@link Builder#readsLentBlocks()}; false by default
+     */
+    public boolean readsLentBlocks() {
+        return readsLentBlocks;
+    }
+
     @Override
     public String toString() {
         return id + " " + version;
@@ -153,6 +166,7 @@ public final class PluginDescriptor {
         private Function<OptionValues, List<PortSpec>> inputs;
         private Function<OptionValues, List<PortSpec>> outputs;
         private Function<OptionValues, SegmentSupport> segments;
+        private boolean readsLentBlocks;
 
         private Builder(String id) {
             if (id == null || !id.matches("[a-z0-9][a-z0-9.-]*")) {
@@ -261,6 +275,19 @@ public final class PluginDescriptor {
          */
         public Builder segments(Function<OptionValues, SegmentSupport> f) {
             segments = f;
+            return this;
+        }
+
+        /**
+         * Declares that the plugin's stages keep no received block, nor its arrays, past the return
+         * of {@link Stage#accept}, so that a source may recycle the arrays of the blocks it sends
+         * them (see {@link org.lanesift.data.Block}, "Ownership"). A stage that queues blocks
+         * until another input catches up must copy them before it declares this.
+         *
+         * @return this
+         */
+        public Builder readsLentBlocks() {
+            readsLentBlocks = true;
             return this;
         }
 

@@ -47,6 +47,20 @@ public interface StageContext {
     boolean isConnected(int output);
 
     /**
+     * Whether a source may lend the blocks it emits on an output: reuse their arrays for a later
+     * block instead of handing every block new ones. It may only when every receiver of the output
+     * declared {@link PluginDescriptor#readsLentBlocks()} and no host tap or host sink receives it
+     * (those may keep blocks). A lent block's arrays stay unchanged until the source's next
+     * {@link Stage#produce()} call begins; see {@link org.lanesift.data.Block}, "Ownership".
+     *
+     * @param output output index
+     * @return true when the output's blocks may be lent; false by default
+     */
+    default boolean mayLend(int output) {
+        return false;
+    }
+
+    /**
      * Sends a block downstream. Downstream stages run before this call returns.
      *
      * @param output output index

@@ -32,6 +32,16 @@ interface CaptureReader extends Closeable {
      */
     boolean next(Out out) throws IOException;
 
+    /**
+     * Lets the reader lend the blocks of some channels (reuse their arrays for a later span, see
+     * {@code org.lanesift.data.Block}, "Ownership"); before the first {@link #next}. Readers that
+     * cannot lend ignore it.
+     *
+     * @param perChannel one flag per channel
+     */
+    default void lend(boolean[] perChannel) {
+    }
+
     /** Work done so far, in samples (CSV rows, raw frames) or value changes (VCD). */
     long done();
 

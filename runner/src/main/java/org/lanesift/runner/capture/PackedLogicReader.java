@@ -20,7 +20,7 @@ import org.lanesift.time.Femtos;
  * Streams a packed logic capture (one sample word after another, each bit a channel; see
  * {@link PackedLogicSidecar}) as one LOGIC block per named channel per span. Memory is one read
  * buffer of a block's words, two byte arrays of a block's samples for 16-bit words, and the
- * blocks themselves; whole blocks are unpacked with {@link PackedLogic} (no per-sample branch on
+ * blocks themselves (new per block, or lent where the engine allows it, see {@link BlockArrays}); whole blocks are unpacked with {@link PackedLogic} (no per-sample branch on
  * format or channel).
  */
 final class PackedLogicReader implements CaptureReader {
@@ -35,6 +35,7 @@ final class PackedLogicReader implements CaptureReader {
     private final byte[] low;
     private final byte[] high;
     private final List<PortSpec> ports = new ArrayList<>();
+    private final BlockArrays arrays;
     private long pos;
 
     PackedLogicReader(Path file, PackedLogicSidecar sc, int blockSamples, boolean headerOnly) throws IOException {
@@ -63,6 +64,7 @@ final class PackedLogicReader implements CaptureReader {
         this.buf = new byte[cap * w];
         this.low = w == 2 ? new byte[cap] : buf;
         this.high = w == 2 ? new byte[cap] : null;
+        this.arrays = new BlockArrays(sc.names.length, blockSamples);
     }
 
     @Override
@@ -91,6 +93,7 @@ final class PackedLogicReader implements CaptureReader {
 
     @Override
     public boolean next(Out out) throws IOException {
+        arrays.nextBlock();
         if (pos >= samples) {
             return false;
         }
@@ -105,13 +108,12 @@ final class PackedLogicReader implements CaptureReader {
         if (sc.word.bytes == 2) {
             PackedLogic.deinterleave(buf, n, sc.word.littleEndian, low, high);
         }
-        int words = (n + 63) >>> 6;
         long[][] lowOut = new long[8][];
         long[][] highOut = new long[8][];
         long[][] chan = new long[sc.names.length][];
         boolean anyHigh = false;
         for (int k = 0; k < chan.length; k++) {
-            chan[k] = new long[words];
+            chan[k] = arrays.bits(k, n);
             int bit = sc.bits[k];
             if (bit < 8) {
                 lowOut[bit] = chan[k];
@@ -130,6 +132,11 @@ final class PackedLogicReader implements CaptureReader {
         }
         pos += n;
         return true;
+    }
+
+    @Override
+    public void lend(boolean[] perChannel) {
+        arrays.lend(perChannel);
     }
 
     @Override

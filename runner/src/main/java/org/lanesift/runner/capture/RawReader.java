@@ -15,7 +15,12 @@ import org.lanesift.data.DataKind;
 import org.lanesift.plugin.PortSpec;
 import org.lanesift.time.Femtos;
 
-/** Streams an interleaved raw binary capture described by a {@link RawSidecar}. */
+/**
+ * Streams an interleaved raw binary capture described by a {@link RawSidecar}: whole chunks of
+ * frames are read into one reused buffer and converted by the format's {@link RawConverter}; the
+ * block arrays are new per block, or lent (two sets used in turn, see {@link BlockArrays}) where the
+ * engine allows it.
+ */
 final class RawReader implements CaptureReader {
     private static final int READ_BYTES = 1 << 20;
     private final Path file;
@@ -29,6 +34,8 @@ final class RawReader implements CaptureReader {
     private final double periodFs;
     private final long startFs;
     private final ByteBuffer bb;
+    private final RawConverter converter;
+    private final BlockArrays arrays;
     private long pos;
     private final List<PortSpec> ports = new ArrayList<>();
     private final List<String> units = new ArrayList<>();
@@ -81,8 +88,13 @@ final class RawReader implements CaptureReader {
                     + " V + " + sc.offset[k] + " V)"));
             units.add("V");
         }
-        this.bb = ByteBuffer.allocate(Math.max(frame, READ_BYTES / frame * frame));
+        // buffers sized to the work: a short capture gets a short read buffer and short blocks
+        long readFrames = Math.max(1, Math.min((long) framesPerBlock, this.frames - firstFrame));
+        int chunkFrames = (int) Math.min(readFrames, Math.max(1, READ_BYTES / frame));
+        this.bb = ByteBuffer.allocate(headerOnly ? 0 : chunkFrames * frame);
         bb.order(sc.format == RawSidecar.Format.INT16BE ? ByteOrder.BIG_ENDIAN : ByteOrder.LITTLE_ENDIAN);
+        this.converter = headerOnly ? null : RawConverter.of(sc);
+        this.arrays = new BlockArrays(nch, framesPerBlock);
         this.ch = headerOnly ? null : FileChannel.open(file, StandardOpenOption.READ);
         if (ch != null) {
             ch.position(firstFrame * frame);
@@ -122,15 +134,24 @@ final class RawReader implements CaptureReader {
     }
 
     @Override
+    public void lend(boolean[] perChannel) {
+        arrays.lend(perChannel);
+    }
+
+    @Override
     public boolean next(Out out) throws IOException {
+        arrays.nextBlock();
         if (pos >= frames) {
             return false;
         }
         int n = (int) Math.min(framesPerBlock, frames - pos);
-        float[][] v = new float[nch][n];
+        float[][] v = new float[nch][];
+        for (int k = 0; k < nch; k++) {
+            v[k] = arrays.volts(k, n);
+        }
         long[][] inv = new long[nch][];
+        RawConverter.Masks masks = k -> inv[k] != null ? inv[k] : (inv[k] = arrays.mask(k, n));
         int row = 0;
-        boolean clip = sc.markClipped;
         while (row < n) {
             bb.clear();
             bb.limit((int) Math.min(bb.capacity(), (long) (n - row) * frame));
@@ -141,46 +162,8 @@ final class RawReader implements CaptureReader {
             }
             bb.flip();
             int got = bb.remaining() / frame;
-            if (sc.format == RawSidecar.Format.INT16LE || sc.format == RawSidecar.Format.INT16BE) {
-                row = int16(got, row, v, inv, n, clip);
-                continue;
-            }
-            for (int i = 0; i < got; i++, row++) {
-                for (int k = 0; k < nch; k++) {
-                    double code;
-                    boolean bad;
-                    switch (sc.format) {
-                        case UINT8 -> {
-                            int c = bb.get() & 0xff;
-                            code = c;
-                            bad = clip && (c == 0 || c == 255);
-                        }
-                        case INT8 -> {
-                            int c = bb.get();
-                            code = c;
-                            bad = clip && (c == -128 || c == 127);
-                        }
-                        case INT16LE, INT16BE -> {
-                            int c = bb.getShort();
-                            code = c;
-                            bad = clip && (c == Short.MIN_VALUE || c == Short.MAX_VALUE);
-                        }
-                        default -> {
-                            float f = bb.getFloat();
-                            code = f;
-                            bad = !Float.isFinite(f);
-                        }
-                    }
-                    float volts = (float) (code * sc.gain[k] + sc.offset[k]);
-                    v[k][row] = volts;
-                    if (bad || !Float.isFinite(volts)) {
-                        if (inv[k] == null) {
-                            inv[k] = new long[(n + 63) >>> 6];
-                        }
-                        inv[k][row >>> 6] |= 1L << row;
-                    }
-                }
-            }
+            converter.convert(bb, got, v, row, masks);
+            row += got;
         }
         long blockStart = startFs + Math.round(pos * periodFs);
         for (int k = 0; k < nch; k++) {
@@ -188,43 +171,6 @@ final class RawReader implements CaptureReader {
         }
         pos += n;
         return true;
-    }
-
-    private short[] codes = new short[0];
-
-    /**
-     * The common 16-bit case without a per-sample format switch: the frames are read as one
-     * array of codes, then each channel is converted in one tight loop.
-     */
-    private int int16(int got, int row, float[][] v, long[][] inv, int n, boolean clip) {
-        int values = got * nch;
-        if (codes.length < values) {
-            codes = new short[values];
-        }
-        bb.asShortBuffer().get(codes, 0, values);
-        bb.position(bb.position() + 2 * values);
-        for (int k = 0; k < nch; k++) {
-            float[] out = v[k];
-            double g = sc.gain[k];
-            double o = sc.offset[k];
-            for (int i = 0, j = k; i < got; i++, j += nch) {
-                int c = codes[j];
-                out[row + i] = (float) (c * g + o);
-            }
-            if (clip) {
-                for (int i = 0, j = k; i < got; i++, j += nch) {
-                    int c = codes[j];
-                    if (c == Short.MIN_VALUE || c == Short.MAX_VALUE) {
-                        if (inv[k] == null) {
-                            inv[k] = new long[(n + 63) >>> 6];
-                        }
-                        int r = row + i;
-                        inv[k][r >>> 6] |= 1L << r;
-                    }
-                }
-            }
-        }
-        return row + got;
     }
 
     @Override

@@ -11,6 +11,7 @@ import org.lanesift.plugin.StageContext;
 final class ReaderStage implements Stage {
     private final CaptureReader reader;
     private final StageContext ctx;
+    private boolean started;
 
     ReaderStage(CaptureReader reader, StageContext ctx) {
         this.reader = reader;
@@ -21,6 +22,15 @@ final class ReaderStage implements Stage {
     public boolean produce() throws IOException {
         if (ctx.isCancelled()) {
             return false;
+        }
+        if (!started) {
+            // asked at the first call, when the engine has wired every output
+            started = true;
+            boolean[] lend = new boolean[ctx.outputs().size()];
+            for (int k = 0; k < lend.length; k++) {
+                lend[k] = ctx.mayLend(k);
+            }
+            reader.lend(lend);
         }
         boolean more = reader.next(ctx::emit);
         long total = reader.total();

@@ -1,0 +1,203 @@
+package org.lanesift.runner.capture;
+
+import java.nio.ByteBuffer;
+
+/**
+ * Turns interleaved frames of one raw sample format into volts, one tight loop per channel over a
+ * whole chunk: {@code volts = (float) (code * gain + offset)} with the code as a double, exactly as
+ * docs/capture-raw.md states it. One subclass per format, chosen once per file, so no loop asks
+ * which format it reads. Invalid samples (clipped integer codes when the sidecar marks them,
+ * non-finite float results) are found from each chunk's extremes first and marked in a second loop
+ * only when there are any.
+ */
+abstract class RawConverter {
+    final int channels;
+    final double[] gain;
+    final double[] offset;
+    final boolean markClipped;
+
+    /** Receives the invalid samples of a block. */
+    interface Masks {
+        /** The mask of channel {@code k}, allocated (cleared) on first use. */
+        long[] of(int k);
+    }
+
+    RawConverter(RawSidecar sc) {
+        this.channels = sc.names.length;
+        this.gain = sc.gain;
+        this.offset = sc.offset;
+        this.markClipped = sc.markClipped;
+    }
+
+    /**
+     * The converter of a sidecar's format.
+     *
+     * @param sc checked sidecar
+     * @return the converter
+     */
+    static RawConverter of(RawSidecar sc) {
+        return switch (sc.format) {
+            case FLOAT32LE -> new Float32(sc);
+            case INT16LE, INT16BE -> new Int16(sc);
+            case UINT8 -> new Bytes(sc, false);
+            case INT8 -> new Bytes(sc, true);
+        };
+    }
+
+    /**
+     * Converts {@code frames} whole frames from the buffer's position (which it advances past them)
+     * into {@code volts[k][row ..]}.
+     *
+     * @param bb     the frames, in the byte order of the format
+     * @param frames frames to convert
+     * @param volts  one array per channel
+     * @param row    index in the arrays of the first frame
+     * @param masks  where invalid samples are marked
+     */
+    abstract void convert(ByteBuffer bb, int frames, float[][] volts, int row, Masks masks);
+
+    static void mark(long[] mask, int r) {
+        mask[r >>> 6] |= 1L << r;
+    }
+
+    /** float32le: read through a float view, finite check by the largest exponent seen. */
+    static final class Float32 extends RawConverter {
+        private float[] scratch = new float[0];
+
+        Float32(RawSidecar sc) {
+            super(sc);
+        }
+
+        @Override
+        void convert(ByteBuffer bb, int frames, float[][] volts, int row, Masks masks) {
+            int values = frames * channels;
+            if (scratch.length < values) {
+                scratch = new float[values];
+            }
+            float[] in = scratch;
+            bb.asFloatBuffer().get(in, 0, values);
+            bb.position(bb.position() + 4 * values);
+            for (int k = 0; k < channels; k++) {
+                float[] out = volts[k];
+                double g = gain[k];
+                double o = offset[k];
+                int exp = 0;
+                for (int i = 0, j = k; i < frames; i++, j += channels) {
+                    float v = (float) (in[j] * g + o);
+                    out[row + i] = v;
+                    exp = Math.max(exp, Float.floatToRawIntBits(v) & 0x7f80_0000);
+                }
+                if (exp == 0x7f80_0000) {
+                    // a NaN or infinite code, or a product too large for a float: invalid
+                    long[] m = masks.of(k);
+                    for (int i = 0; i < frames; i++) {
+                        if (!Float.isFinite(out[row + i])) {
+                            mark(m, row + i);
+                        }
+                    }
+                }
+            }
+        }
+    }
+
+    /**
+     * int16le and int16be: read through a short view in the sidecar's byte order. The sidecar's
+     * gain limit keeps every code's volts finite, so only clipped codes can be invalid.
+     */
+    static final class Int16 extends RawConverter {
+        private short[] scratch = new short[0];
+
+        Int16(RawSidecar sc) {
+            super(sc);
+        }
+
+        @Override
+        void convert(ByteBuffer bb, int frames, float[][] volts, int row, Masks masks) {
+            int values = frames * channels;
+            if (scratch.length < values) {
+                scratch = new short[values];
+            }
+            short[] in = scratch;
+            bb.asShortBuffer().get(in, 0, values);
+            bb.position(bb.position() + 2 * values);
+            for (int k = 0; k < channels; k++) {
+                float[] out = volts[k];
+                double g = gain[k];
+                double o = offset[k];
+                int lo = Integer.MAX_VALUE;
+                int hi = Integer.MIN_VALUE;
+                for (int i = 0, j = k; i < frames; i++, j += channels) {
+                    int c = in[j];
+                    out[row + i] = (float) (c * g + o);
+                    lo = Math.min(lo, c);
+                    hi = Math.max(hi, c);
+                }
+                if (markClipped && (lo == Short.MIN_VALUE || hi == Short.MAX_VALUE)) {
+                    long[] m = masks.of(k);
+                    for (int i = 0, j = k; i < frames; i++, j += channels) {
+                        int c = in[j];
+                        if (c == Short.MIN_VALUE || c == Short.MAX_VALUE) {
+                            mark(m, row + i);
+                        }
+                    }
+                }
+            }
+        }
+    }
+
+    /**
+     * uint8 and int8: one 256-entry table of volts per channel, computed once with the same
+     * arithmetic, so the loop is a lookup per sample. The table is indexed in offset-binary order
+     * (an int8 byte with its top bit flipped), so both formats have their end codes at 0 and 255.
+     */
+    static final class Bytes extends RawConverter {
+        private final float[][] table;
+        private final int flip;
+
+        Bytes(RawSidecar sc, boolean signed) {
+            super(sc);
+            this.flip = signed ? 0x80 : 0;
+            table = new float[channels][256];
+            for (int k = 0; k < channels; k++) {
+                for (int u = 0; u < 256; u++) {
+                    int b = u ^ flip;
+                    double code = signed ? (byte) b : b;
+                    table[k][u] = (float) (code * gain[k] + offset[k]);
+                    if (!Float.isFinite(table[k][u])) {
+                        // the sidecar's gain and offset limits rule this out
+                        throw new IllegalStateException("raw sidecar checks let through a gain giving " + table[k][u] + " V");
+                    }
+                }
+            }
+        }
+
+        @Override
+        void convert(ByteBuffer bb, int frames, float[][] volts, int row, Masks masks) {
+            byte[] in = bb.array();
+            int base = bb.arrayOffset() + bb.position();
+            bb.position(bb.position() + frames * channels);
+            int f = flip;
+            for (int k = 0; k < channels; k++) {
+                float[] out = volts[k];
+                float[] t = table[k];
+                int lo = 255;
+                int hi = 0;
+                for (int i = 0, j = base + k; i < frames; i++, j += channels) {
+                    int u = (in[j] & 0xff) ^ f;
+                    out[row + i] = t[u];
+                    lo = Math.min(lo, u);
+                    hi = Math.max(hi, u);
+                }
+                if (markClipped && (lo == 0 || hi == 255)) {
+                    long[] m = masks.of(k);
+                    for (int i = 0, j = base + k; i < frames; i++, j += channels) {
+                        int u = (in[j] & 0xff) ^ f;
+                        if (u == 0 || u == 255) {
+                            mark(m, row + i);
+                        }
+                    }
+                }
+            }
+        }
+    }
+}
