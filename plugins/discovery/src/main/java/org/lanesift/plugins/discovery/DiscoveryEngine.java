@@ -34,7 +34,8 @@ public final class DiscoveryEngine {
         double clockConf = c.clusteredShare() * Math.min(1.0, c.eyeUi() / 0.5);
         SampledLink sampled = LaneSampler.sample(c, in.risingFs(), in.nRising(), in.laneInitial(), in.laneEdgesFs(), in.laneCounts(), maxBits);
         int lanes = sampled.lanes().length;
-        SampledLink link = BurstAligner.align(sampled, SyncFinder.prefixes(sampled));
+        SampledLink framed = StreamFramer.frame(sampled);
+        SampledLink link = BurstAligner.align(framed, SyncFinder.prefixes(framed));
         int[][] pre = SyncFinder.prefixes(link);
         int prefix = Integer.MAX_VALUE;
         for (int[] p : pre) {

@@ -12,7 +12,9 @@ import org.junit.jupiter.api.condition.EnabledIfSystemProperty;
  * Bars from the issue: 95 % top-1 for word length, bit order, sync and clocking; 90 % of the
  * pictures among the top 3 candidates. They are asserted separately for links whose clock
  * pauses between bursts and for links that idle at a level between bursts on a running clock
- * (two tables, {@link AccuracyTables}). The methods behind each row: clocking from the circular
+ * (two tables, {@link AccuracyTables}; the streaming links among them, a quarter of the
+ * others, are counted in a third table), and on 60 links that stream with no pause, framed by
+ * their sync alone. The methods behind each row: clocking from the circular
  * histogram of data-transition phases; sync as the bursts' common prefix (majority per bit);
  * word length from the burst lengths (whole words after the sync; on idle-run links the
  * likelihood of the hidden idle-level tails, a Bayesian model comparison), with the autocorrelation of
@@ -28,6 +30,7 @@ import org.junit.jupiter.api.condition.EnabledIfSystemProperty;
  */
 class DiscoveryAccuracyTest {
     static final int FORMATS = 200;
+    static final int STREAMING_FORMATS = 60;
 
     @Test
     void meetsTheBarsOfTheIssueOnTheTestSeed() {
@@ -39,26 +42,43 @@ class DiscoveryAccuracyTest {
         assertBars(7L);
     }
 
+    /** Links that stream with no pause and no idle run, framed by their sync alone (16 to 24 bits). */
+    @Test
+    void meetsTheBarsOfTheIssueOnStreamingLinks() {
+        AccuracyTables a = AccuracyTables.measure(new LinkFormatGenerator(20_2026L).streamingOnly(), 20_2026L, STREAMING_FORMATS);
+        report(a);
+        List<String> missed = a.missedBars(AccuracyTables.STREAMING);
+        assertTrue(missed.isEmpty(), () -> String.join("\n", missed) + a.table());
+    }
+
     @Test
     @EnabledIfSystemProperty(named = "discovery.seeds", matches = "[0-9, _]+")
     void meetsTheBarsOfTheIssueOnEverySeedAsked() {
         List<String> missed = new ArrayList<>();
         StringBuilder all = new StringBuilder();
         for (String s : System.getProperty("discovery.seeds").split(",")) {
-            AccuracyTables a = AccuracyTables.measure(Long.parseLong(s.replace("_", "").trim()), FORMATS);
-            all.append(a.table());
-            System.out.println(a.table());
-            a.misses.stream().limit(40).forEach(System.out::println);
-            missed.addAll(a.missedBars());
+            long seed = Long.parseLong(s.replace("_", "").trim());
+            AccuracyTables a = AccuracyTables.measure(seed, FORMATS);
+            AccuracyTables st = AccuracyTables.measure(new LinkFormatGenerator(seed).streamingOnly(), seed, STREAMING_FORMATS);
+            for (AccuracyTables t : new AccuracyTables[] {a, st}) {
+                all.append(t.table());
+                report(t);
+            }
+            missed.addAll(a.missedBars(AccuracyTables.CLOCK_PAUSES, AccuracyTables.IDLE_RUNS));
+            missed.addAll(st.missedBars(AccuracyTables.STREAMING));
         }
         assertTrue(missed.isEmpty(), () -> String.join("\n", missed) + all);
     }
 
     private static void assertBars(long seed) {
         AccuracyTables a = AccuracyTables.measure(seed, FORMATS);
+        report(a);
+        List<String> missed = a.missedBars(AccuracyTables.CLOCK_PAUSES, AccuracyTables.IDLE_RUNS);
+        assertTrue(missed.isEmpty(), () -> String.join("\n", missed) + a.table());
+    }
+
+    private static void report(AccuracyTables a) {
         System.out.println(a.table());
         a.misses.stream().limit(40).forEach(System.out::println);
-        List<String> missed = a.missedBars();
-        assertTrue(missed.isEmpty(), () -> String.join("\n", missed) + a.table());
     }
 }
