@@ -32,8 +32,10 @@ public final class DiscoveryEngine {
     Hypotheses discover(LinkEdgesInput in) {
         Clocking c = ClockFinder.find(in.risingFs(), in.nRising(), in.fallingFs(), in.nFalling(), in.laneEdgesFs(), in.laneCounts());
         double clockConf = c.clusteredShare() * Math.min(1.0, c.eyeUi() / 0.5);
-        SampledLink link = LaneSampler.sample(c, in.risingFs(), in.nRising(), in.laneInitial(), in.laneEdgesFs(), in.laneCounts(), maxBits);
-        int lanes = link.lanes().length;
+        SampledLink sampled = LaneSampler.sample(c, in.risingFs(), in.nRising(), in.laneInitial(), in.laneEdgesFs(), in.laneCounts(), maxBits);
+        int lanes = sampled.lanes().length;
+        SampledLink framed = StreamFramer.frame(sampled);
+        SampledLink link = BurstAligner.align(framed, SyncFinder.prefixes(framed));
         int[][] pre = SyncFinder.prefixes(link);
         int prefix = Integer.MAX_VALUE;
         for (int[] p : pre) {
@@ -143,7 +145,7 @@ public final class DiscoveryEngine {
         }
         int modal = counts.entrySet().stream().max(java.util.Map.Entry.comparingByValue()).map(java.util.Map.Entry::getKey).orElse(0);
         for (MergedBurst b : merged) {
-            if (f.dataOpcode < 0 || b.words(w) == 0 || b.word(0, w, msb) != f.dataOpcode) {
+            if (!isData(b, w, msb, f.dataOpcode, modal)) {
                 continue;
             }
             int words = b.words(w);
@@ -169,6 +171,23 @@ public final class DiscoveryEngine {
             }
         }
         return new Bits(out, n);
+    }
+
+    /** Bit errors tolerated in the leading word of a data burst that has the data bursts' word count. */
+    static final int OPCODE_ERRORS = 2;
+
+    /**
+     * A data burst: its leading word is the data opcode, or differs from it in at most
+     * {@link #OPCODE_ERRORS} bits while the burst has the data bursts' most common word count (a
+     * bit error in the leading word would otherwise drop the burst and shift the rest of the
+     * picture by its pixels).
+     */
+    static boolean isData(MergedBurst b, int w, boolean msb, long dataOpcode, int modalWords) {
+        if (dataOpcode < 0 || b.words(w) == 0) {
+            return false;
+        }
+        long op = b.word(0, w, msb);
+        return op == dataOpcode || b.words(w) == modalWords && Long.bitCount(op ^ dataOpcode) <= OPCODE_ERRORS;
     }
 
     /** Entropy at the last wire position of a word minus that at the first (positive: the first bit varies less, as an MSB does). */

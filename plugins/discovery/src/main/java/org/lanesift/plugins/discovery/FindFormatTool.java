@@ -67,7 +67,9 @@ public final class FindFormatTool implements Tool {
         Map<String, Object> opts = new LinkedHashMap<>();
         opts.put("lanes", lanes.length);
         opts.put("maxBits", args.integer("max-bits", DiscoveryEngine.DEFAULT_MAX_BITS));
-        opts.put("capture", capture);
+        // the chain file resolves a relative path against its own folder (docs/chain-file.md, Files)
+        opts.put("capture", out.toAbsolutePath().normalize().relativize(Path.of(capture).toAbsolutePath().normalize()).toString()
+                .replace('\\', '/'));
         List<Artifact> files = new ArrayList<>();
         ChainBuilder b = Chain.builder(PluginRegistry.discover(FindFormatTool.class.getClassLoader()))
                 .add("cap", "vcd", Map.of("file", capture))

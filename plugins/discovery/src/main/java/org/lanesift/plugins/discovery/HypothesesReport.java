@@ -103,7 +103,9 @@ final class HypothesesReport {
         s.append(f("%d bursts, boundaries from %s; idle level per lane %s.\n\n", h.link().bursts(), switch (h.link().burstMode()) {
             case "clock-stops" -> "clock pauses (" + c.clockStops() + " pauses)";
             case "idle-runs" -> "idle runs of at least " + h.link().idleRunBits() + " bits";
-            default -> "nothing: the link streams without pauses";
+            default -> h.link().bursts() > 1 ? "the sync alone: the link streams without pauses, cut at every occurrence of the sync"
+                    + " that leaves whole words (the generated chain cannot restart at each sync yet)"
+                    : "nothing: the link streams without pauses and no sync stands out";
         }, levels(h.link().idleLevel())));
         s.append("## Sync\n\n");
         if (h.syncBits() > 0) {

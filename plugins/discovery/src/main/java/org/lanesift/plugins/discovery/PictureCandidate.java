@@ -7,7 +7,8 @@ package org.lanesift.plugins.discovery;
  * @param lineLength   pixels per line, from the autocorrelation peak of the pixel values
  * @param lines        whole lines
  * @param rgb          0xRRGGBB pixels, {@code lineLength * lines}
- * @param smoothness   mean of the horizontal and vertical neighbour-pixel correlations (-1 to 1)
+ * @param smoothness   mean of the horizontal and vertical neighbour-pixel correlations (-1 to 1), less
+ *                     {@link PictureFinder#DEPTH_PENALTY} where a same-size reading explains the bits better
  * @param horizontal   correlation of each pixel with its right neighbour
  * @param vertical     correlation of each pixel with the one below
  * @param hypothesis   the framing hypothesis it was decoded under (word length, bit order, lanes)

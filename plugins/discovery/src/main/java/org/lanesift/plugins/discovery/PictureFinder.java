@@ -32,12 +32,42 @@ final class PictureFinder {
     static List<PictureCandidate> candidates(long[] data, int nbits, String label) {
         List<PictureCandidate> out = new ArrayList<>();
         for (PixelFormat f : PixelFormat.values()) {
+            if (f.blueFirst) {
+                continue; // the blue-first twin is the red-first picture with two components swapped
+            }
             PictureCandidate c = decode(data, nbits, f, label);
             if (c != null) {
                 out.add(c);
+                out.add(twin(c));
             }
         }
         return out;
+    }
+
+    /**
+     * Smoothness taken off a reading that explains the bits less well than its same-size twin:
+     * loosely packed 18-bit colour whose padding bits carry data, or 24-bit colour whose two low
+     * bits of every component are always zero (the loose reading explains them). Smaller than any
+     * real difference of smoothness, it only orders the two.
+     */
+    static final double DEPTH_PENALTY = 0.005;
+    /** Share of pixels with a bit set under the loose padding above which the padding carries data. */
+    static final double PADDING_SHARE = 0.02;
+
+    /**
+     * The same pixels with red and blue swapped. Swapping two components changes no neighbour
+     * correlation of a component, so smoothness cannot tell the two apart: the twin gets the same
+     * scores and stands next to it in the ranking (red first, then blue first), and the report
+     * and the picture sheet show both.
+     */
+    static PictureCandidate twin(PictureCandidate c) {
+        int[] rgb = new int[c.rgb().length];
+        for (int i = 0; i < rgb.length; i++) {
+            int v = c.rgb()[i];
+            rgb[i] = (v & 0x00FF00) | (v >>> 16 & 0xFF) | (v & 0xFF) << 16;
+        }
+        return new PictureCandidate(c.format().twin(), c.lineLength(), c.lines(), rgb, c.smoothness(), c.horizontal(), c.vertical(),
+                c.hypothesis());
     }
 
     static PictureCandidate decode(long[] data, int nbits, PixelFormat f, String label) {
@@ -47,15 +77,23 @@ final class PictureFinder {
         }
         int[] rgb = new int[n];
         double[] y = new double[n];
+        long looseMask = PixelFormat.RGB666_LOOSE.paddingMask();
+        int padded = 0;
         for (int i = 0; i < n; i++) {
             long v = 0;
             int at = i * f.bitsPerPixel;
             for (int j = 0; j < f.bitsPerPixel; j++) {
                 v = v << 1 | (data[(at + j) >>> 6] >>> (at + j) & 1L);
             }
+            if ((v & looseMask) != 0) {
+                padded++;
+            }
             rgb[i] = f.rgb(v);
             y[i] = luma(rgb[i]);
         }
+        boolean paddingCarriesData = padded > PADDING_SHARE * n;
+        double penalty = f.layout == PixelFormat.Layout.P666_LOOSE && paddingCarriesData
+                || f.layout == PixelFormat.Layout.P888 && !paddingCarriesData ? DEPTH_PENALTY : 0;
         double h0 = correlation(y, n, 1, Integer.MAX_VALUE);
         if (h0 < MIN_HORIZONTAL) {
             return null; // noise along the line: no picture in this format, not worth a line-length search
@@ -68,7 +106,7 @@ final class PictureFinder {
         int[] pic = java.util.Arrays.copyOf(rgb, line * lines);
         double h = correlation(y, line * lines, 1, line);
         double v = correlation(y, line * lines, line, line);
-        return new PictureCandidate(f, line, lines, pic, (h + v) / 2, h, v, label);
+        return new PictureCandidate(f, line, lines, pic, (h + v) / 2 - penalty, h, v, label);
     }
 
     /**

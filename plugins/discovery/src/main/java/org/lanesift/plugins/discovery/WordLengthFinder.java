@@ -15,7 +15,7 @@ final class WordLengthFinder {
     static final int MIN_BITS = 4;
     static final int MAX_BITS = 32;
     static final double ELIGIBLE = 0.8;
-    /** The same where the clock stops between bursts, so that burst lengths are exact. */
+    /** The same where the clock stops between bursts or a streaming link is cut at its sync, so that burst lengths are exact. */
     static final double ELIGIBLE_EXACT = 0.97;
 
     /**
@@ -57,7 +57,7 @@ final class WordLengthFinder {
             share[w] = top;
             best = Math.max(best, top);
         }
-        double eligible = link.burstMode().equals("clock-stops") ? ELIGIBLE_EXACT : ELIGIBLE;
+        double eligible = link.burstMode().equals("idle-runs") ? ELIGIBLE : ELIGIBLE_EXACT;
         List<Candidate> out = new ArrayList<>();
         for (int w = MAX_BITS; w >= MIN_BITS; w--) {
             if (share[w] >= eligible * best) {

@@ -24,6 +24,8 @@ final class LinkFormatGenerator {
         LaneDistribution dist;
         boolean[] sync;
         boolean clockStops;
+        /** Bursts follow each other with no pause and no idle run (the clock runs throughout). */
+        boolean streaming;
         boolean idleLevel;
         CrcModel crc;
         boolean lengthField;
@@ -56,7 +58,7 @@ final class LinkFormatGenerator {
         /** The sync as discovery can see it: with idle runs, leading idle-level bits look like idle. */
         String visibleSync() {
             StringBuilder s = new StringBuilder();
-            boolean leading = !clockStops;
+            boolean leading = !clockStops && !streaming;
             for (boolean b : sync) {
                 if (leading && b == idleLevel) {
                     continue;
@@ -70,22 +72,34 @@ final class LinkFormatGenerator {
         @Override
         public String toString() {
             return "W=" + wordBits + (msbFirst ? " msb" : " lsb") + " " + clocking + " lanes=" + lanes + "/" + dist.label + " sync="
-                    + (sync.length == 0 ? "none" : visibleSync()) + (clockStops ? " clock-stops" : " idle-runs") + " crc="
+                    + (sync.length == 0 ? "none" : visibleSync()) + (clockStops ? " clock-stops" : streaming ? " streaming" : " idle-runs") + " crc="
                     + (crc == null ? "none" : crc.name()) + (lengthField ? " length-field" : "") + " " + pixel.label + " " + width + "x"
                     + height + (midBurstStart ? " mid-burst start" : "") + " errors=" + bitErrors;
         }
     }
 
     private final Random r;
+    /** Draws which idle-run links stream instead (apart, so that the other draws of a seed stay as they were). */
+    private final Random streams;
 
     LinkFormatGenerator(long seed) {
         r = new Random(seed);
+        streams = new Random(seed ^ 0x5157_3E4DL);
+    }
+
+    /** Only streaming links from now on. */
+    private boolean streamingOnly;
+
+    /** Draws only streaming links (bursts back to back, framed by the sync alone). */
+    LinkFormatGenerator streamingOnly() {
+        streamingOnly = true;
+        return this;
     }
 
     Link next() {
         while (true) {
             Link l = draw();
-            if (encode(l)) {
+            if ((!streamingOnly || l.streaming) && encode(l)) {
                 return l;
             }
         }
@@ -123,7 +137,7 @@ final class LinkFormatGenerator {
         l.lanes = 1 + r.nextInt(4);
         l.dist = l.lanes == 1 ? LaneDistribution.SINGLE
                 : new LaneDistribution[] {LaneDistribution.WORD, LaneDistribution.BIT, LaneDistribution.INDEPENDENT}[r.nextInt(3)];
-        l.clockStops = r.nextBoolean();
+        l.clockStops = r.nextBoolean() && !streamingOnly;
         String[] clk = {"single-edge-rising", "single-edge-falling", "double-edge", "multiplied-4"};
         l.clocking = clk[r.nextInt(l.clockStops ? 3 : 4)];
         l.slots = l.clocking.startsWith("single") ? 1 : l.clocking.equals("double-edge") ? 2 : 4;
@@ -155,6 +169,15 @@ final class LinkFormatGenerator {
         l.width = 32 + r.nextInt(49);
         l.height = Math.max(18, 1500 / l.width);
         l.midBurstStart = r.nextInt(4) == 0;
+        if (!l.clockStops && (streamingOnly || streams.nextInt(4) == 0) && l.wordBits % l.slots == 0) {
+            // streaming: framed by the sync alone, which must stand out of the data: 16 to 24 bits; with no pause
+            // there is no room for padding, so a burst fills whole clock periods (as where the clock pauses)
+            l.streaming = true;
+            l.sync = new boolean[(16 + streams.nextInt(9)) / l.slots * l.slots];
+            for (int i = 0; i < l.sync.length; i++) {
+                l.sync[i] = streams.nextBoolean();
+            }
+        }
         return l;
     }
 
@@ -378,9 +401,12 @@ final class LinkFormatGenerator {
             }
             burstSlots[b] = (len + s - 1) / s * s;
             gapSlots[b] = l.clockStops ? 0 : (150 + r.nextInt(150)) / s * s;
+            if (l.streaming) {
+                gapSlots[b] = 0;
+            }
             total += burstSlots[b] + gapSlots[b];
         }
-        int lead = l.clockStops ? 0 : 120 / s * s;
+        int lead = l.clockStops || l.streaming ? 0 : 120 / s * s;
         total += lead;
         for (int k = 0; k < n; k++) {
             boolean[] v = new boolean[total];
