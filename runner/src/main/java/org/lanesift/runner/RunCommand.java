@@ -46,9 +46,10 @@ import picocli.CommandLine.Parameters;
 
 /** {@code lanesift run CHAIN.json}: builds the chain, runs it over its sources, writes every output. */
 @Command(name = "run", mixinStandardHelpOptions = true, versionProvider = Version.class, sortOptions = false,
-        description = {"Runs a chain file over its capture files and writes every unwired output and every annotation "
-                + "into the output directory: signals.vcd, <instance>-<output>.csv, artifacts (reports, PNG pictures), "
-                + "annotations.jsonl and report.md (see docs/chain-file.md and docs/outputs.md)."})
+        description = {"Runs a chain file over its capture files and writes its unwired outputs (by-products only when "
+                + "asked for; see --outputs) and every annotation into the output directory: signals.vcd, "
+                + "<instance>-<output>.csv, artifacts (reports, PNG pictures), annotations.jsonl and report.md "
+                + "(see docs/chain-file.md and docs/outputs.md)."})
 final class RunCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "CHAIN.json", description = "The chain file.")
     Path chain;
