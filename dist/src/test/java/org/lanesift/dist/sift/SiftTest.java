@@ -113,12 +113,12 @@ class SiftTest {
         Path out = dir.resolve("sifted");
         Run r = lanesift("sift", "--capture", cap.toString(), "--out", out.toString(), "--outputs", "none", "--quiet");
         assertEquals(0, r.code(), r.err());
-        // none: the decoders' files are left out, the artifacts the report is built from are kept
-        assertEquals(List.of("artifacts"), json(out.resolve("chains/sift.json")).get("outputs").elements().stream()
+        // none: the decoders' files are left out, the artifacts and findings the report is built from are kept
+        assertEquals(List.of("artifacts", "annotations"), json(out.resolve("chains/sift.json")).get("outputs").elements().stream()
                 .map(JsonValue::asString).toList());
         try (var files = Files.list(out.resolve("decode"))) {
             List<String> names = files.map(p -> p.getFileName().toString()).toList();
-            assertTrue(names.stream().noneMatch(n -> n.endsWith(".vcd") || n.endsWith(".csv") || n.equals("annotations.jsonl")), names::toString);
+            assertTrue(names.stream().noneMatch(n -> n.endsWith(".vcd") || n.endsWith("-bits.csv")), names::toString);
             assertTrue(names.contains(FramePictures.fileName("panel", 2, false)) && names.contains("lanes-applied-skew.json"), names::toString);
         }
         assertEquals(2, (int) json(out.resolve("report.json")).at("/result/frames/complete").asDouble());

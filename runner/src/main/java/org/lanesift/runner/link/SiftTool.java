@@ -56,7 +56,7 @@ public final class SiftTool implements Tool {
             .option(OptionSpec.text("out", "lanesift-sift", "output folder"), "DIR")
             .option(OptionSpec.text("outputs", OutputSelection.STANDARD_NAME, "which decoder outputs go to OUT/decode, comma-separated"
                     + " (the chain file's 'outputs' field, docs/chain-file.md): standard, vcd, csv, binary, annotations, by-products,"
-                    + " or none; the artifacts (skew tables, reports, pictures) are always written, the report reads them"), "LIST")
+                    + " or none; the artifacts (skew tables, reports, pictures) and annotations are always written, the report reads them"), "LIST")
             .flag("json", "print the report as JSON on standard output (also written to OUT/report.json)")
             .option(OptionSpec.choice("fail-on", "none", "exit with status 3 when findings of this severity or worse exist:"
                     + " none, warning or error", "none", "warning", "error"), "SEVERITY")
@@ -157,8 +157,9 @@ public final class SiftTool implements Tool {
 
     /**
      * The {@code outputs} field of the chain sift writes: the forms and keywords given (no single
-     * outputs: the instance names are sift's own), with {@code artifacts} added, since the report
-     * and the skew tables are read from them; {@code none} leaves only the artifacts.
+     * outputs: the instance names are sift's own), with {@code artifacts} and {@code annotations}
+     * added, since the report, the skew tables and the findings are read from them; {@code none}
+     * leaves only those two.
      */
     static List<String> outputs(String list) {
         List<String> allowed = new ArrayList<>(List.of(OutputSelection.NONE, OutputSelection.STANDARD_NAME, OutputSelection.BY_PRODUCTS));
@@ -180,12 +181,15 @@ public final class SiftTool implements Tool {
             if (names.size() > 1) {
                 throw new OptionException("outputs", "--outputs " + list + ": 'none' cannot be combined with other names");
             }
-            return List.of(OutputSelection.Form.ARTIFACTS.label());
+            names.clear();
         }
-        if (!names.contains(OutputSelection.STANDARD_NAME) && !names.contains(OutputSelection.Form.ARTIFACTS.label())) {
-            boolean anyForm = names.stream().anyMatch(x -> !x.equals(OutputSelection.BY_PRODUCTS));
-            if (anyForm) {
-                names.add(OutputSelection.Form.ARTIFACTS.label());
+        boolean standard = names.contains(OutputSelection.STANDARD_NAME)
+                || (!names.isEmpty() && names.stream().allMatch(x -> x.equals(OutputSelection.BY_PRODUCTS)));
+        if (!standard) {
+            for (OutputSelection.Form f : List.of(OutputSelection.Form.ARTIFACTS, OutputSelection.Form.ANNOTATIONS)) {
+                if (!names.contains(f.label())) {
+                    names.add(f.label());
+                }
             }
         }
         return names;

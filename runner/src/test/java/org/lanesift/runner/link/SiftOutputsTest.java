@@ -8,13 +8,14 @@ import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.lanesift.plugin.OptionException;
 
-/** The outputs field sift writes into its chain: what was asked, plus the artifacts its report reads. */
+/** The outputs field sift writes into its chain: what was asked, plus the artifacts and annotations its report reads. */
 class SiftOutputsTest {
     @Test
     void theArtifactsAreAlwaysKept() {
         assertEquals(List.of("standard"), SiftTool.outputs("standard"));
         assertEquals(List.of("binary", "annotations", "artifacts"), SiftTool.outputs("binary, annotations"));
-        assertEquals(List.of("artifacts"), SiftTool.outputs("none"));
+        assertEquals(List.of("vcd", "artifacts", "annotations"), SiftTool.outputs("vcd"));
+        assertEquals(List.of("artifacts", "annotations"), SiftTool.outputs("none"));
         assertEquals(List.of("by-products"), SiftTool.outputs("by-products"), "no form given: the standard forms, artifacts included");
     }
 
