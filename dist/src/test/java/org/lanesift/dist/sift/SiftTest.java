@@ -124,8 +124,8 @@ class SiftTest {
         assertEquals(2, (int) json(out.resolve("report.json")).at("/result/frames/complete").asDouble());
         Run bad = lanesift("sift", "--capture", cap.toString(), "--out", dir.resolve("bad").toString(), "--outputs", "vcd,pictures");
         assertEquals(2, bad.code(), bad.err());
-        assertEquals("--outputs vcd,pictures: unknown output name 'pictures'; expected one or more of: none, standard, by-products, vcd,"
-                + " csv, binary, artifacts, annotations", bad.err().trim());
+        assertEquals("lanesift sift: --outputs vcd,pictures: unknown output name 'pictures'; expected one or more of: none, standard,"
+                + " by-products, vcd, csv, binary, artifacts, annotations (see: lanesift sift --help)", bad.err().trim());
     }
 
     @Test
