@@ -31,8 +31,11 @@ with open(path, "wb") as f:
         legs = [clk]
         for lane in range(3):
             # one bit per half period, centred on the clock edges (data changes a quarter period before them)
-            idx = np.floor((t + period / 4) / (period / 2)).astype(np.int64)
-            bits = (np.bitwise_xor(idx * (2654435761 + 97 * lane), idx >> 7) >> 3) & 1
+            idx = np.floor((t + period / 4) / (period / 2)).astype(np.uint64)
+            h = (idx + np.uint64(lane + 1)) * np.uint64(0x9E3779B97F4A7C15)   # a multiplicative hash: random-looking bits
+            h ^= h >> np.uint64(29)
+            h *= np.uint64(0xBF58476D1CE4E5B9)
+            bits = (h >> np.uint64(63)).astype(np.int64)
             legs.append(np.where(bits == 1, 1.0, -1.0))
         out = np.empty((n, 8), dtype="<f4")
         for i, d in enumerate(legs):
@@ -66,23 +69,29 @@ cat > "$WORK/ddr.json" <<'EOF'
   ]
 }
 EOF
-timed() { # name, extra args... ; prints seconds
+timed() { # name, extra args... ; prints wall seconds, and keeps the CPU seconds (user + system) in $WORK/$name.cpu
   local name="$1"; shift
   rm -rf "$WORK/$name"
   local start end
   start=$(date +%s.%N)
-  java -jar "$JAR" --quiet run "$WORK/ddr.json" --out "$WORK/$name" "$@" 2> "$WORK/$name.err" || { cat "$WORK/$name.err" >&2; exit 1; }
+  /usr/bin/env time -f '%U %S' -o "$WORK/$name.time" java -jar "$JAR" --quiet run "$WORK/ddr.json" --out "$WORK/$name" "$@" \
+    2> "$WORK/$name.err" || { cat "$WORK/$name.err" >&2; exit 1; }
   end=$(date +%s.%N)
+  awk '{print $1 + $2}' "$WORK/$name.time" > "$WORK/$name.cpu"
   echo "$end - $start" | bc
 }
+cpu() { cat "$WORK/$1.cpu"; }
 echo "capture $(du -h "$WORK/ddr.bin" | cut -f1), load before: $(cut -d' ' -f1-3 /proc/loadavg)"
 for r in $(seq 1 "$ROUNDS"); do
   d=$(timed default)
   n=$(timed none --outputs none)
   b=$(timed binary --outputs binary,artifacts,annotations)
   a=$(timed byproducts --outputs standard,by-products)
-  printf 'round %d: default %.2f s, none %.2f s, binary %.2f s, standard+by-products %.2f s; none/default %.2f, binary/default %.2f, default/with-by-products %.2f\n' \
+  printf 'round %d wall: default %.2f s, none %.2f s, binary %.2f s, standard+by-products %.2f s; none/default %.2f, binary/default %.2f, default/with-by-products %.2f\n' \
     "$r" "$d" "$n" "$b" "$a" "$(echo "$n / $d" | bc -l)" "$(echo "$b / $d" | bc -l)" "$(echo "$d / $a" | bc -l)"
+  printf 'round %d CPU:  default %.2f s, none %.2f s, binary %.2f s, standard+by-products %.2f s; none/default %.2f, binary/default %.2f, default/with-by-products %.2f\n' \
+    "$r" "$(cpu default)" "$(cpu none)" "$(cpu binary)" "$(cpu byproducts)" "$(echo "$(cpu none) / $(cpu default)" | bc -l)" \
+    "$(echo "$(cpu binary) / $(cpu default)" | bc -l)" "$(echo "$(cpu default) / $(cpu byproducts)" | bc -l)"
 done
 echo "load after: $(cut -d' ' -f1-3 /proc/loadavg)"
 ls -la "$WORK/default" "$WORK/binary" | grep -v '^total'
