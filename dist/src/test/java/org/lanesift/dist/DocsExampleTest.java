@@ -1,6 +1,7 @@
 package org.lanesift.dist;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.BufferedWriter;
@@ -11,6 +12,7 @@ import java.util.Locale;
 import java.util.Random;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.lanesift.testkit.ExternalTool;
 
 /**
  * The worked example of docs/chain-file.md, taken from the document itself, runs with the real
@@ -21,11 +23,17 @@ class DocsExampleTest {
     @TempDir
     Path tmp;
 
-    static String workedExample() throws Exception {
-        String doc = Files.readString(Path.of("..", "docs", "chain-file.md"));
-        int at = doc.indexOf("## Worked example");
-        int start = doc.indexOf("```json", at) + "```json".length();
+    /** The first fenced block of a language after a heading of a document in docs/. */
+    static String fenced(String docName, String heading, String language) throws Exception {
+        String doc = Files.readString(Path.of("..", "docs", docName));
+        int at = doc.indexOf(heading);
+        assertTrue(at >= 0, docName + " has no heading " + heading);
+        int start = doc.indexOf("```" + language + "\n", at) + ("```" + language).length();
         return doc.substring(start, doc.indexOf("```", start));
+    }
+
+    static String workedExample() throws Exception {
+        return fenced("chain-file.md", "## Worked example", "json");
     }
 
     /**
@@ -84,16 +92,43 @@ class DocsExampleTest {
             assertTrue(Math.abs(t - m * half) < 1e-11, "sampled at a clock crossing: " + row);
             assertEquals(bits[m] ? "1" : "0", c[1], "bit at clock edge " + m + ": " + row);
         }
-        for (String f : List.of("signals.vcd", "annotations.jsonl", "report.md", "clk-levels.json", "d0-levels.json")) {
+        for (String f : List.of("annotations.jsonl", "report.md", "clk-levels.json", "d0-levels.json")) {
             assertTrue(Files.exists(out.resolve(f)), f);
         }
+        // clk.logic and d0.logic are by-products (clk and d0 feed ddr through their edges): not written by default
+        assertFalse(Files.exists(out.resolve("signals.vcd")), "no by-products in signals.vcd by default");
+        String report = Files.readString(out.resolve("report.md"));
+        assertTrue(report.contains("Left out, not written: clk.logic, d0.logic."), report);
+    }
+
+    @Test
+    void theDocumentedCReaderCountsThePackedBitsOfTheDocumentedChain() throws Exception {
+        Path gcc = ExternalTool.require("gcc");
+        writeCapture(0, 0);
+        Files.writeString(tmp.resolve("lane0.json"), workedExample());
+        Path out = tmp.resolve("packed");
+        EndToEndTest.Cli r = EndToEndTest.cli("run", tmp.resolve("lane0.json").toString(), "--out", out.toString(), "-q",
+                "--outputs", "csv,binary");
+        assertEquals(0, r.code(), r::toString);
+        assertFalse(Files.exists(out.resolve("annotations.jsonl")), "annotations not selected");
+        assertFalse(Files.exists(out.resolve("d0-levels.json")), "artifacts not selected");
+        List<String> rows = Files.readAllLines(out.resolve("ddr-bits0-bits.csv"));
+        long bits = rows.size() - 1;
+        long ones = rows.stream().skip(1).filter(x -> x.split(",", -1)[1].equals("1")).count();
+        long flagged = rows.stream().skip(1).filter(x -> x.endsWith(",1")).count();
+        assertTrue(bits > 390 && ones > 100 && ones < bits - 100, "bits " + bits + ", ones " + ones);
+
+        // Source: gcc (Debian package gcc) compiling the C reader printed in docs/bits-binary.md, the outside reference
+        // for the layout: it counts bits, ones and flagged bits from the file alone
+        Files.writeString(tmp.resolve("bitcount.c"), fenced("bits-binary.md", "## Reading a `.bits` file in C", "c"));
+        ExternalTool.run(tmp, java.time.Duration.ofSeconds(60), List.of(gcc.toString(), "-O2", "-Wall", "-o", "bitcount", "bitcount.c"));
+        String counted = ExternalTool.run(tmp, java.time.Duration.ofSeconds(30),
+                List.of(tmp.resolve("bitcount").toString(), out.resolve("ddr-bits0.bits").toString())).trim();
+        assertEquals("bits " + bits + " ones " + ones + " flagged " + flagged + " header " + bits, counted);
     }
 
     static String oneRunExample() throws Exception {
-        String doc = Files.readString(Path.of("..", "docs", "skew-table.md"));
-        int at = doc.indexOf("## Estimate and correct in one run");
-        int start = doc.indexOf("```json", at) + "```json".length();
-        return doc.substring(start, doc.indexOf("```", start));
+        return fenced("skew-table.md", "## Estimate and correct in one run", "json");
     }
 
     @Test

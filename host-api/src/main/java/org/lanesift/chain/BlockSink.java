@@ -4,7 +4,9 @@ import org.lanesift.data.Block;
 
 /**
  * Receives blocks a chain emits on outputs that no wire consumes, so a host can write, draw or
- * collect them.
+ * collect them. A host that keeps only some of them says so with {@link #wants}: an output it does
+ * not want counts as unconnected ({@code StageContext.isConnected} is false), so a stage may skip
+ * making it, and its blocks are not delivered.
  */
 @FunctionalInterface
 public interface BlockSink {
@@ -16,4 +18,17 @@ public interface BlockSink {
      * @param block      the block
      */
     void accept(String instanceId, String output, Block block);
+
+    /**
+     * Whether the host wants an unwired output's blocks. The chain asks once per output, when the
+     * output is first emitted on or its connection first queried (after the chain is built, so a
+     * host may decide once it knows the chain's outputs).
+     *
+     * @param instanceId emitting instance
+     * @param output     output port name
+     * @return true (the default) to receive its blocks
+     */
+    default boolean wants(String instanceId, String output) {
+        return true;
+    }
 }

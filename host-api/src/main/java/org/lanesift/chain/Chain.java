@@ -66,6 +66,8 @@ public final class Chain implements AutoCloseable {
         final List<List<Target>> targets = new ArrayList<>();
         final List<List<Consumer<Block>>> taps;
         final long[] lastStart;
+        /** Per output: 0 not asked yet, 1 the host sink wants it, -1 it does not. */
+        final byte[] hostWants;
         double samplePeriodFs = Double.NaN;
         int samplePeriodInput = -1;
         Stage stage;
@@ -79,6 +81,17 @@ public final class Chain implements AutoCloseable {
             this.taps = step.taps();
             lastStart = new long[inputs.size()];
             java.util.Arrays.fill(lastStart, Long.MIN_VALUE);
+            hostWants = new byte[outputs.size()];
+        }
+
+        private boolean hostWants(int output) {
+            if (hostSink == null) {
+                return false;
+            }
+            if (hostWants[output] == 0) {
+                hostWants[output] = hostSink.wants(id, outputs.get(output).name()) ? (byte) 1 : (byte) -1;
+            }
+            return hostWants[output] > 0;
         }
 
         String label() {
@@ -107,7 +120,7 @@ public final class Chain implements AutoCloseable {
 
         @Override
         public boolean isConnected(int output) {
-            return !targets.get(output).isEmpty() || !taps.get(output).isEmpty() || hostSink != null;
+            return !targets.get(output).isEmpty() || !taps.get(output).isEmpty() || hostWants(output);
         }
 
         @Override
@@ -142,7 +155,7 @@ public final class Chain implements AutoCloseable {
             }
             List<Target> ts = targets.get(output);
             if (ts.isEmpty()) {
-                if (hostSink != null) {
+                if (hostWants(output)) {
                     hostSink.accept(id, port.name(), block);
                 }
                 return;

@@ -27,7 +27,7 @@ import org.lanesift.json.JsonValue;
  * {@code mappingFile}, {@code maskFile}) are resolved against the chain file's directory.
  */
 public final class ChainFileReader {
-    private static final Set<String> ROOT_KEYS = Set.of("nodes", "wires", "description");
+    private static final Set<String> ROOT_KEYS = Set.of("nodes", "wires", "description", "outputs");
     private static final Set<String> NODE_KEYS = Set.of("id", "plugin", "options");
     private static final Set<String> WIRE_KEYS = Set.of("from", "to");
     private static final String ID_PATTERN = "[A-Za-z0-9_-]+";
@@ -142,7 +142,29 @@ public final class ChainFileReader {
             }
         }
         checkCycles(specWires, ids.size(), ids, file);
-        return new ChainFile(new ChainSpec(specNodes, specWires), path, file, description);
+        return new ChainFile(new ChainSpec(specNodes, specWires), path, file, description, outputNames(root.get("outputs"), file));
+    }
+
+    /** The {@code outputs} field: its shape only (a list of non-empty strings); the host checks the names. */
+    private static List<String> outputNames(JsonValue v, String file) {
+        if (v == null) {
+            return null;
+        }
+        if (!v.isArray()) {
+            throw err(file, "/outputs", "expected an array of output names such as [\"standard\"] or [\"none\"], got " + describe(v));
+        }
+        if (v.elements().isEmpty()) {
+            throw err(file, "/outputs", "is empty; expected at least one output name, or [\"none\"] for no output files");
+        }
+        List<String> names = new ArrayList<>();
+        for (int i = 0; i < v.elements().size(); i++) {
+            String name = text(v.elements().get(i), "/outputs/" + i, file);
+            if (name.isBlank()) {
+                throw err(file, "/outputs/" + i, "empty; expected an output name (see docs/chain-file.md, \"Which outputs a run writes\")");
+            }
+            names.add(name);
+        }
+        return names;
     }
 
     /**

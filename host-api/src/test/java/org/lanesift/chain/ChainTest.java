@@ -103,6 +103,50 @@ class ChainTest {
     }
 
     @Test
+    void anOutputTheHostDoesNotWantIsUnconnectedAndNotDelivered() {
+        List<Boolean> connected = new ArrayList<>();
+        List<String> asked = new ArrayList<>();
+        org.lanesift.plugin.PluginProvider two = new org.lanesift.plugin.PluginProvider() {
+            public org.lanesift.plugin.PluginDescriptor descriptor() {
+                return org.lanesift.plugin.PluginDescriptor.builder("test.two-out")
+                        .input(org.lanesift.plugin.PortSpec.of("in", DataKind.ANALOG, ""))
+                        .output(org.lanesift.plugin.PortSpec.of("kept", DataKind.ANALOG, ""))
+                        .output(org.lanesift.plugin.PortSpec.of("dropped", DataKind.ANALOG, "")).build();
+            }
+
+            public org.lanesift.plugin.Stage open(org.lanesift.plugin.StageContext ctx) {
+                return new org.lanesift.plugin.Stage() {
+                    public void accept(int input, Block block) {
+                        connected.add(ctx.isConnected(0));
+                        connected.add(ctx.isConnected(1));
+                        ctx.emit(0, block);
+                        ctx.emit(1, block);
+                    }
+                };
+            }
+        };
+        List<String> got = new ArrayList<>();
+        Chain c = Chain.builder(new PluginRegistry().add(two)).input("x", DataKind.ANALOG).add("s", "test.two-out").wire("x", "s.in")
+                .outputs(new BlockSink() {
+                    public void accept(String id, String port, Block b) {
+                        got.add(id + "." + port);
+                    }
+
+                    public boolean wants(String id, String port) {
+                        asked.add(id + "." + port);
+                        return !port.equals("dropped");
+                    }
+                }).build();
+        c.push("x", analog(0, 10, 1e6));
+        c.push("x", analog(10, 10, 1e6));
+        c.finish();
+        c.close();
+        assertEquals(List.of(true, false, true, false), connected);
+        assertEquals(List.of("s.kept", "s.kept"), got);
+        assertEquals(List.of("s.kept", "s.dropped"), asked, "asked once per output");
+    }
+
+    @Test
     void mismatchedSampleRatesOnOneStageAreRefused() {
         org.lanesift.plugin.PluginProvider two = new org.lanesift.plugin.PluginProvider() {
             public org.lanesift.plugin.PluginDescriptor descriptor() {

@@ -32,6 +32,7 @@ import org.lanesift.chain.ChainFile;
 import org.lanesift.chain.ChainFileException;
 import org.lanesift.chain.ChainFileReader;
 import org.lanesift.runner.output.OutputFolder;
+import org.lanesift.runner.output.OutputSelection;
 import org.lanesift.runner.output.ReportWriter;
 import org.lanesift.runner.output.RunOutputs;
 import org.lanesift.runner.output.RunSummary;
@@ -45,9 +46,10 @@ import picocli.CommandLine.Parameters;
 
 /** {@code lanesift run CHAIN.json}: builds the chain, runs it over its sources, writes every output. */
 @Command(name = "run", mixinStandardHelpOptions = true, versionProvider = Version.class, sortOptions = false,
-        description = {"Runs a chain file over its capture files and writes every unwired output and every annotation "
-                + "into the output directory: signals.vcd, <instance>-<output>.csv, artifacts (reports, PNG pictures), "
-                + "annotations.jsonl and report.md (see docs/chain-file.md and docs/outputs.md)."})
+        description = {"Runs a chain file over its capture files and writes its unwired outputs (by-products only when "
+                + "asked for; see --outputs) and every annotation into the output directory: signals.vcd, "
+                + "<instance>-<output>.csv, artifacts (reports, PNG pictures), annotations.jsonl and report.md "
+                + "(see docs/chain-file.md and docs/outputs.md)."})
 final class RunCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "CHAIN.json", description = "The chain file.")
     Path chain;
@@ -63,6 +65,13 @@ final class RunCommand implements Callable<Integer> {
     @Option(names = "--set", paramLabel = "NODE.OPTION=VALUE",
             description = "Overrides one option of one instance. Repeatable.")
     List<String> sets = new ArrayList<>();
+
+    @Option(names = "--outputs", paramLabel = "LIST",
+            description = "Which results to write, in which forms, comma-separated; overrides the chain file's 'outputs': "
+                    + "none (report.md only), standard (vcd, csv, artifacts, annotations: the default), vcd, csv, binary "
+                    + "(packed .bits/.words files), artifacts, annotations, by-products, or INSTANCE.OUTPUT names "
+                    + "(docs/chain-file.md, \"Which outputs a run writes\").")
+    String outputsList;
 
     @Option(names = "--jobs", paramLabel = "N", defaultValue = "1",
             description = "Decodes the capture in time segments on N threads and stitches them exactly (default: ${DEFAULT-VALUE},"
@@ -239,9 +248,14 @@ final class RunCommand implements Callable<Integer> {
             RunOutputs outs;
             OutputFolder folder;
             try {
+                Results results = declareOutputs(spec, registry, instances);
+                holder.selection = select(cf, results);
                 outs = holder.outputs();
                 folder = holder.folder;
-                declareOutputs(spec, registry, outs, instances);
+                for (Map.Entry<String, org.lanesift.data.DataKind> r : results.kinds.entrySet()) {
+                    int dot = r.getKey().indexOf('.');
+                    outs.declare(r.getKey().substring(0, dot), r.getKey().substring(dot + 1), r.getValue());
+                }
                 try {
                     folder.refuseInputs(outs.plannedFiles());
                 } catch (OutputException e) {
@@ -320,9 +334,39 @@ final class RunCommand implements Callable<Integer> {
         return 0;
     }
 
+    /** The selection of the chain file's {@code outputs} field, or of {@code --outputs} when given. */
+    private OutputSelection select(ChainFile cf, Results results) {
+        if (outputsList != null) {
+            List<String> names = new ArrayList<>();
+            for (String n : outputsList.split(",", -1)) {
+                names.add(n.trim());
+            }
+            try {
+                return OutputSelection.of(names, results.kinds.keySet(), results.byProducts);
+            } catch (OutputSelection.SelectionException e) {
+                throw new CliError("--outputs " + org.lanesift.plugin.Echo.of(outputsList) + ": " + e.getMessage(), e);
+            }
+        }
+        try {
+            return OutputSelection.of(cf.outputs(), results.kinds.keySet(), results.byProducts);
+        } catch (OutputSelection.SelectionException e) {
+            throw new ChainFileException(cf.shownName(), e.index() < 0 ? "/outputs" : "/outputs/" + e.index(), 0, 0, e.getMessage());
+        }
+    }
+
     private Chain build(ChainSpec spec, PluginRegistry registry, Holder holder, ProgressBar bar) {
         ChainBuilder b = ChainBuilder.fromSpec(spec, registry)
-                .outputs((id, port, block) -> holder.outputs().accept(id, port, block))
+                .outputs(new org.lanesift.chain.BlockSink() {
+                    @Override
+                    public void accept(String id, String port, org.lanesift.data.Block block) {
+                        holder.outputs().accept(id, port, block);
+                    }
+
+                    @Override
+                    public boolean wants(String id, String port) {
+                        return holder.outputs().wants(id, port);
+                    }
+                })
                 .annotations((src, a) -> holder.outputs().accept(src, a))
                 .progress(bar);
         holder.dir = outDir;
@@ -386,6 +430,7 @@ final class RunCommand implements Callable<Integer> {
         Path dir;
         OutputFolder folder;
         RunOutputs outputs;
+        OutputSelection selection;
 
         Holder(List<Path> inputs) {
             this.inputs = inputs;
@@ -395,7 +440,8 @@ final class RunCommand implements Callable<Integer> {
             if (outputs == null) {
                 folder = OutputFolder.open(dir, inputs);
                 try {
-                    outputs = new RunOutputs(folder.work(), Version.get());
+                    outputs = new RunOutputs(folder.work(), Version.get(), selection == null
+                            ? OutputSelection.of(null, List.of(), List.of()) : selection);
                 } catch (OutputException e) {
                     removeQuietly(folder);
                     throw new OutputException("--out " + dir + ": cannot create the directory: " + Failures.describe(Failures.root(e)), e);
@@ -497,7 +543,15 @@ final class RunCommand implements Callable<Integer> {
         return text;
     }
 
-    private static void declareOutputs(ChainSpec spec, PluginRegistry registry, RunOutputs outs, List<RunSummary.Instance> instances) {
+    /**
+     * The chain's results (outputs no wire consumes) with their kinds, in node and port order, and
+     * which of them are by-products: stream outputs (not artifacts) of an instance that feeds another
+     * through some other output.
+     */
+    private record Results(Map<String, org.lanesift.data.DataKind> kinds, Set<String> byProducts) {
+    }
+
+    private static Results declareOutputs(ChainSpec spec, PluginRegistry registry, List<RunSummary.Instance> instances) {
         Set<String> wired = new HashSet<>();
         Map<String, List<PortSpec>> outsByNode = new HashMap<>();
         for (ChainSpec.Node n : spec.nodes()) {
@@ -524,13 +578,24 @@ final class RunCommand implements Callable<Integer> {
                 wired.add(from);
             }
         }
+        Map<String, org.lanesift.data.DataKind> kinds = new LinkedHashMap<>();
+        Set<String> byProducts = new HashSet<>();
         for (ChainSpec.Node n : spec.nodes()) {
+            boolean feeds = false;
             for (PortSpec ps : outsByNode.get(n.id())) {
-                if (!wired.contains(n.id() + "." + ps.name())) {
-                    outs.declare(n.id(), ps.name(), ps.kind());
+                feeds |= wired.contains(n.id() + "." + ps.name());
+            }
+            for (PortSpec ps : outsByNode.get(n.id())) {
+                String name = n.id() + "." + ps.name();
+                if (!wired.contains(name)) {
+                    kinds.put(name, ps.kind());
+                    if (feeds && ps.kind() != org.lanesift.data.DataKind.ARTIFACT) {
+                        byProducts.add(name);
+                    }
                 }
             }
         }
+        return new Results(kinds, byProducts);
     }
 
     private void summary(String shown, int instances, RunOutputs outs) {

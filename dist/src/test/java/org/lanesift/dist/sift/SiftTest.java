@@ -106,6 +106,29 @@ class SiftTest {
     }
 
     @Test
+    void siftWritesTheOutputsItIsToldAndSaysSoInItsChain(@TempDir Path dir) throws IOException {
+        Path cap = dir.resolve("my-scope.csv");
+        PixelLinkCapture gen = new PixelLinkCapture();
+        gen.write(cap, NAMES, 7001);
+        Path out = dir.resolve("sifted");
+        Run r = lanesift("sift", "--capture", cap.toString(), "--out", out.toString(), "--outputs", "none", "--quiet");
+        assertEquals(0, r.code(), r.err());
+        // none: the decoders' files are left out, the artifacts and findings the report is built from are kept
+        assertEquals(List.of("artifacts", "annotations"), json(out.resolve("chains/sift.json")).get("outputs").elements().stream()
+                .map(JsonValue::asString).toList());
+        try (var files = Files.list(out.resolve("decode"))) {
+            List<String> names = files.map(p -> p.getFileName().toString()).toList();
+            assertTrue(names.stream().noneMatch(n -> n.endsWith(".vcd") || n.endsWith("-bits.csv")), names::toString);
+            assertTrue(names.contains(FramePictures.fileName("panel", 2, false)) && names.contains("lanes-applied-skew.json"), names::toString);
+        }
+        assertEquals(2, (int) json(out.resolve("report.json")).at("/result/frames/complete").asDouble());
+        Run bad = lanesift("sift", "--capture", cap.toString(), "--out", dir.resolve("bad").toString(), "--outputs", "vcd,pictures");
+        assertEquals(2, bad.code(), bad.err());
+        assertEquals("lanesift sift: --outputs vcd,pictures: unknown output name 'pictures'; expected one or more of: none, standard,"
+                + " by-products, vcd, csv, binary, artifacts, annotations (see: lanesift sift --help)", bad.err().trim());
+    }
+
+    @Test
     void aSuspectSkewMakesEveryFrameSuspect(@TempDir Path dir) throws IOException {
         // lane TX2 sits 0.43 UI late: the slot-grid estimate folds skew into one UI, so one this close to half a UI
         // may belong on the other side and is marked suspect (docs/skew-table.md); the frames may still decode,

@@ -111,7 +111,7 @@ class ViewToolTest {
         Path typo = Files.writeString(dir.resolve("typo.json"), "{\"nodes\": [{\"id\": \"cap\", \"plugin\": \"csv\"}], \"wire\": []}");
         r = ToolHarness.of(new ViewTool()).option("chain", typo.toString()).option("snapshot", dir.resolve("t.png").toString()).run();
         assertEquals(2, r.code());
-        assertTrue(r.err().contains("typo.json /wire: unknown key 'wire'; expected one of: description, nodes, wires"), r.err());
+        assertTrue(r.err().contains("typo.json /wire: unknown key 'wire'; expected one of: description, nodes, outputs, wires"), r.err());
 
         Path notes = Files.createDirectories(dir.resolve("bad-run"));
         Files.writeString(notes.resolve("annotations.jsonl"), "{\"start_fs\":1,\"end_fs\":2}\n{oops\n");

@@ -21,6 +21,7 @@ import org.lanesift.plugin.ToolArgs;
 import org.lanesift.plugin.ToolConsole;
 import org.lanesift.plugin.ToolSpec;
 import org.lanesift.runner.ChainRun;
+import org.lanesift.runner.output.OutputSelection;
 import org.lanesift.runner.capture.InspectReport;
 import org.lanesift.runner.capture.Inspector;
 
@@ -53,6 +54,9 @@ public final class SiftTool implements Tool {
             .option(OptionSpec.text("map-file", "", "channel map file: one NAME=P,N per line, '#' comments; added after --map"),
                     "FILE")
             .option(OptionSpec.text("out", "lanesift-sift", "output folder"), "DIR")
+            .option(OptionSpec.text("outputs", OutputSelection.STANDARD_NAME, "which decoder outputs go to OUT/decode, comma-separated"
+                    + " (the chain file's 'outputs' field, docs/chain-file.md): standard, vcd, csv, binary, annotations, by-products,"
+                    + " or none; the artifacts (skew tables, reports, pictures) and annotations are always written, the report reads them"), "LIST")
             .flag("json", "print the report as JSON on standard output (also written to OUT/report.json)")
             .option(OptionSpec.choice("fail-on", "none", "exit with status 3 when findings of this severity or worse exist:"
                     + " none, warning or error", "none", "warning", "error"), "SEVERITY")
@@ -89,9 +93,10 @@ public final class SiftTool implements Tool {
             throw new OptionException("link", "--link packet: " + capture + " is a logic capture (no analog levels), and a packet"
                     + " link's low-power states are seen only on the analog legs; sift decodes logic captures of 7:1 pixel links");
         }
+        List<String> outputs = outputs(args.text("outputs"));
         LinkFacts facts = LinkFacts.of(inspect, pairs, args.text("link"));
         try {
-            SiftResult result = runPasses(capture, out, inspect.format(), pairs, facts, logicKind, console);
+            SiftResult result = runPasses(capture, out, inspect.format(), pairs, facts, logicKind, outputs, console);
             if (result.failedExit != 0) {
                 return result.failedExit;
             }
@@ -150,6 +155,46 @@ public final class SiftTool implements Tool {
         return pairs;
     }
 
+    /**
+     * The {@code outputs} field of the chain sift writes: the forms and keywords given (no single
+     * outputs: the instance names are sift's own), with {@code artifacts} and {@code annotations}
+     * added, since the report, the skew tables and the findings are read from them; {@code none}
+     * leaves only those two.
+     */
+    static List<String> outputs(String list) {
+        List<String> allowed = new ArrayList<>(List.of(OutputSelection.NONE, OutputSelection.STANDARD_NAME, OutputSelection.BY_PRODUCTS));
+        for (OutputSelection.Form f : OutputSelection.Form.values()) {
+            allowed.add(f.label());
+        }
+        List<String> names = new ArrayList<>();
+        for (String n : list.split(",", -1)) {
+            String t = n.trim();
+            if (!allowed.contains(t)) {
+                throw new OptionException("outputs", "--outputs " + org.lanesift.plugin.Echo.of(list) + ": unknown output name '"
+                        + org.lanesift.plugin.Echo.of(t) + "'; expected one or more of: " + String.join(", ", allowed));
+            }
+            if (!names.contains(t)) {
+                names.add(t);
+            }
+        }
+        if (names.contains(OutputSelection.NONE)) {
+            if (names.size() > 1) {
+                throw new OptionException("outputs", "--outputs " + list + ": 'none' cannot be combined with other names");
+            }
+            names.clear();
+        }
+        boolean standard = names.contains(OutputSelection.STANDARD_NAME)
+                || (!names.isEmpty() && names.stream().allMatch(x -> x.equals(OutputSelection.BY_PRODUCTS)));
+        if (!standard) {
+            for (OutputSelection.Form f : List.of(OutputSelection.Form.ARTIFACTS, OutputSelection.Form.ANNOTATIONS)) {
+                if (!names.contains(f.label())) {
+                    names.add(f.label());
+                }
+            }
+        }
+        return names;
+    }
+
     /** The chain file sift writes and runs, under OUT/chains. */
     static final String CHAIN = "sift.json";
 
@@ -158,7 +203,7 @@ public final class SiftTool implements Tool {
     }
 
     private static SiftResult runPasses(Path capture, Path out, String plugin, List<LinkChains.Pair> pairs, LinkFacts facts,
-                                        String logicKind, ToolConsole console) throws IOException {
+                                        String logicKind, List<String> outputs, ToolConsole console) throws IOException {
         Path chains = out.resolve("chains");
         for (String d : new String[] {"chains", "skew", "decode"}) {
             Files.createDirectories(out.resolve(d));
@@ -169,7 +214,7 @@ public final class SiftTool implements Tool {
         // feeds their tables to the corrections before the decode reads the capture from its start
         Path chain = chains.resolve(CHAIN);
         String ui = String.format(Locale.ROOT, "%.3fps", facts.unitIntervalFs() / 1e3);
-        ChainModels.write(chain, logicKind != null
+        Map<String, Object> model = new java.util.LinkedHashMap<>(logicKind != null
                 ? LinkChains.pixelLogicOneRun("7:1 pixel link from a logic capture: lane skew estimated and corrected in this"
                         + " run; 7:1 sampling, frames, timing, jitter", cap, ui, facts.mapping(), logicKind.equals("LOGIC"))
                 : facts.packet()
@@ -178,6 +223,8 @@ public final class SiftTool implements Tool {
                 : LinkChains.pixelOneRun("7:1 pixel link: leg and lane skews estimated and corrected in this run;"
                         + " 7:1 sampling, frames, timing, eye, jitter", cap,
                         ui, facts.mapping()));
+        model.put("outputs", outputs);
+        ChainModels.write(chain, model);
         int code = run(chain, out.resolve("decode"), console);
         if (code == 0) {
             // the tables as applied, kept per probe set (docs/skew-table.md)

@@ -94,6 +94,12 @@ public final class ReportWriter {
                         .append(" | ").append(span).append(" | ").append(cell(String.join(", ", s.files()))).append(" |\n");
             }
         }
+        if (!outs.leftOut().isEmpty() || !outs.selectionText().equals(OutputSelection.of(null, List.of(), List.of()).describe())) {
+            sb.append("\nWritten: ").append(outs.selectionText()).append(" (the chain file's `outputs` or `--outputs`).\n");
+        }
+        if (!outs.leftOut().isEmpty()) {
+            sb.append("Left out, not written: ").append(cell(String.join(", ", outs.leftOut()))).append(".\n");
+        }
 
         sb.append("\n## Findings\n\n");
         Map<Severity, Long> counts = outs.severityCounts();

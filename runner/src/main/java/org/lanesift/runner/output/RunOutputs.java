@@ -32,12 +32,18 @@ import org.lanesift.data.WordStream;
  * <ul>
  * <li>edges and logic, and word streams as vectors: one VCD, {@value #VCD};</li>
  * <li>analog: {@code <instance>-<output>.csv}; bit streams: {@code <instance>-<output>-bits.csv};</li>
+ * <li>bit and word streams in the packed binary forms (docs/bits-binary.md), when selected:
+ * {@code <instance>-<output>.bits}, {@code <instance>-<output>.words};</li>
  * <li>frames: counted only; a stage writes its frame pictures as artifacts ({@code <id>-frame-NNNN.png});</li>
  * <li>artifacts: a file of the artifact's name (a later artifact of the same name replaces it);</li>
  * <li>annotations: {@value #ANNOTATIONS}, JSON Lines.</li>
  * </ul>
  * Every writer streams, so memory does not grow with the capture; counts per output and the
- * findings by severity are kept for {@code report.md}.
+ * findings by severity are kept for {@code report.md}. An {@link OutputSelection} says which
+ * outputs are written and in which forms: an output it leaves out is not counted and its blocks are
+ * dropped (and not even asked for: {@link #wants}); one it keeps is counted even when no selected
+ * form writes its kind (so {@code none} still reports every count), and findings are counted
+ * whether or not {@value #ANNOTATIONS} is written.
  */
 public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
     /** File name of the VCD. */
@@ -56,6 +62,10 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
     private final Map<String, OutputStats> stats = new LinkedHashMap<>();
     private final Map<String, AnalogCsvWriter> analog = new LinkedHashMap<>();
     private final Map<String, BitsCsvWriter> bits = new LinkedHashMap<>();
+    private final Map<String, BitsBinaryWriter> bitsBinary = new LinkedHashMap<>();
+    private final Map<String, WordsBinaryWriter> wordsBinary = new LinkedHashMap<>();
+    private final OutputSelection selection;
+    private final java.util.Set<String> leftOut = new java.util.LinkedHashSet<>();
     private final Map<String, Path> files = new LinkedHashMap<>();
     private final Map<Severity, Long> severityCounts = new EnumMap<>(Severity.class);
     /** The references findings cite for their limits (their field {@code source}), with how many cite each. */
@@ -158,7 +168,20 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
      * @throws OutputException if the directory cannot be created
      */
     public RunOutputs(Path dir, String version) {
+        this(dir, version, OutputSelection.of(null, List.of(), List.of()));
+    }
+
+    /**
+     * Opens the outputs in a directory (created if needed), writing what a selection keeps.
+     *
+     * @param dir       output directory
+     * @param version   program version for the VCD header
+     * @param selection which outputs, in which forms
+     * @throws OutputException if the directory cannot be created
+     */
+    public RunOutputs(Path dir, String version, OutputSelection selection) {
         this.dir = dir;
+        this.selection = selection;
         try {
             Files.createDirectories(dir);
         } catch (IOException e) {
@@ -175,8 +198,12 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
      * @param kind     its kind
      */
     public void declare(String instance, String output, DataKind kind) {
+        if (!selection.wants(instance + "." + output)) {
+            leftOut.add(instance + "." + output);
+            return;
+        }
         stats.computeIfAbsent(instance + "." + output, k -> new OutputStats(instance, output, kind));
-        if (kind == DataKind.EDGES || kind == DataKind.LOGIC || kind == DataKind.WORDS) {
+        if ((kind == DataKind.EDGES || kind == DataKind.LOGIC || kind == DataKind.WORDS) && selection.writes(OutputSelection.Form.VCD)) {
             vcd.declare(instance, output);
         }
     }
@@ -188,21 +215,74 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
      * @return names relative to the output folder
      */
     public List<String> plannedFiles() {
-        List<String> names = new ArrayList<>(List.of(VCD, ANNOTATIONS, REPORT));
+        List<String> names = new ArrayList<>(List.of(REPORT));
+        if (selection.writes(OutputSelection.Form.ANNOTATIONS)) {
+            names.add(ANNOTATIONS);
+        }
         for (OutputStats s : stats.values()) {
             String base = Texts.safe(s.instance) + "-" + Texts.safe(s.output);
-            if (s.kind == DataKind.ANALOG) {
+            if (s.kind == DataKind.ANALOG && selection.writes(OutputSelection.Form.CSV)) {
                 names.add(base + ".csv");
             } else if (s.kind == DataKind.BITS) {
-                names.add(base + "-bits.csv");
+                if (selection.writes(OutputSelection.Form.CSV)) {
+                    names.add(base + "-bits.csv");
+                }
+                if (selection.writes(OutputSelection.Form.BINARY)) {
+                    names.add(base + ".bits");
+                }
+            } else if (s.kind == DataKind.WORDS && selection.writes(OutputSelection.Form.BINARY)) {
+                names.add(base + ".words");
+            } else if ((s.kind == DataKind.EDGES || s.kind == DataKind.LOGIC) && selection.writes(OutputSelection.Form.VCD)
+                    && !names.contains(VCD)) {
+                names.add(VCD);
             }
         }
+        if (!stats.isEmpty() && selection.writes(OutputSelection.Form.VCD) && !names.contains(VCD)) {
+            names.add(VCD);
+        }
         return names;
+    }
+
+    /**
+     * Whether an unwired output is written (or at least counted); the chain asks this before the
+     * output's first block, and a stage may then skip making an output nobody wants.
+     *
+     * @param instance instance id
+     * @param output   output port name
+     * @return true when the selection keeps it
+     */
+    public boolean wants(String instance, String output) {
+        boolean w = selection.wants(instance + "." + output);
+        if (!w) {
+            leftOut.add(instance + "." + output);
+        }
+        return w;
+    }
+
+    /**
+     * Outputs the selection left out (by-products, or outputs not named), in the order met.
+     *
+     * @return {@code instance.output} names
+     */
+    public List<String> leftOut() {
+        return List.copyOf(leftOut);
+    }
+
+    /**
+     * The selection, in words, for the report.
+     *
+     * @return its description
+     */
+    public String selectionText() {
+        return selection.describe();
     }
 
     @Override
     public void accept(String instance, String output, Block block) {
         String key = instance + "." + output;
+        if (!stats.containsKey(key) && !wants(instance, output)) {
+            return;
+        }
         OutputStats s = stats.computeIfAbsent(key, k -> new OutputStats(instance, output, block.kind()));
         if (s.kind == null || s.kind == DataKind.ANY) {
             s.kind = block.kind();
@@ -219,19 +299,42 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
 
     private void write(OutputStats s, String key, Block block) throws IOException {
         String base = Texts.safe(s.instance) + "-" + Texts.safe(s.output);
+        boolean toVcd = selection.writes(OutputSelection.Form.VCD);
+        boolean toCsv = selection.writes(OutputSelection.Form.CSV);
+        boolean toBinary = selection.writes(OutputSelection.Form.BINARY);
         if (block instanceof Edges e) {
-            vcd.edges(s.instance, s.output, e);
+            if (toVcd) {
+                vcd.edges(s.instance, s.output, e);
+                noteFile(s, VCD);
+            }
             s.items += e.count();
-            noteFile(s, VCD);
         } else if (block instanceof LogicBlock l) {
-            vcd.logic(s.instance, s.output, l);
+            if (toVcd) {
+                vcd.logic(s.instance, s.output, l);
+                noteFile(s, VCD);
+            }
             s.items += l.length();
-            noteFile(s, VCD);
         } else if (block instanceof WordStream w) {
-            vcd.words(s.instance, s.output, w);
+            if (toVcd) {
+                vcd.words(s.instance, s.output, w);
+                noteFile(s, VCD);
+            }
+            if (toBinary) {
+                WordsBinaryWriter wr = wordsBinary.get(key);
+                if (wr == null) {
+                    String name = base + ".words";
+                    wr = new WordsBinaryWriter(file(name));
+                    wordsBinary.put(key, wr);
+                    noteFile(s, name);
+                }
+                wr.write(w);
+            }
             s.items += w.count();
-            noteFile(s, VCD);
         } else if (block instanceof AnalogBlock a) {
+            if (!toCsv) {
+                s.items += a.length();
+                return;
+            }
             AnalogCsvWriter wr = analog.get(key);
             if (wr == null) {
                 String name = base + ".csv";
@@ -242,26 +345,41 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
             wr.write(a);
             s.items += a.length();
         } else if (block instanceof BitStream b) {
-            BitsCsvWriter wr = bits.get(key);
-            if (wr == null) {
-                String name = base + "-bits.csv";
-                wr = new BitsCsvWriter(file(name));
-                bits.put(key, wr);
-                noteFile(s, name);
+            if (toCsv) {
+                BitsCsvWriter wr = bits.get(key);
+                if (wr == null) {
+                    String name = base + "-bits.csv";
+                    wr = new BitsCsvWriter(file(name));
+                    bits.put(key, wr);
+                    noteFile(s, name);
+                }
+                wr.write(b);
             }
-            wr.write(b);
+            if (toBinary) {
+                BitsBinaryWriter wr = bitsBinary.get(key);
+                if (wr == null) {
+                    String name = base + ".bits";
+                    wr = new BitsBinaryWriter(file(name));
+                    bitsBinary.put(key, wr);
+                    noteFile(s, name);
+                }
+                wr.write(b);
+            }
             s.items += b.count();
         } else if (block instanceof Frame) {
             // frames are counted, not drawn: pictures are the stage's artifacts, chosen by its own picture
             // options and encoded by the one picture writer (signal-kit FramePictures), so each is written once
             s.items++;
         } else if (block instanceof Artifact a) {
+            s.items += a.content().length;
+            if (!selection.writes(OutputSelection.Form.ARTIFACTS)) {
+                return;
+            }
             String name = a.fileName();
             if (RESERVED.contains(name) || name.startsWith(".lanesift")) {
                 name = Texts.safe(s.instance) + "-" + name;
             }
             Files.write(file(name), a.content());
-            s.items += a.content().length;
             noteFile(s, name);
         } else {
             throw new IllegalArgumentException("output " + key + " emitted a block of unknown type " + block.getClass().getName());
@@ -282,11 +400,15 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
     @Override
     public void accept(String source, Annotation a) {
         try {
-            if (annotations == null) {
+            if (!selection.writes(OutputSelection.Form.ANNOTATIONS)) {
+                // counted below for the report, not written
+            } else if (annotations == null) {
                 annotations = new AnnotationJsonlWriter(file(ANNOTATIONS));
                 files.putIfAbsent(ANNOTATIONS, file(ANNOTATIONS));
             }
-            annotations.write(source, a);
+            if (annotations != null) {
+                annotations.write(source, a);
+            }
         } catch (IOException e) {
             throw new OutputException("cannot write " + dir.resolve(ANNOTATIONS) + ": " + e.getMessage(), e);
         }
@@ -338,6 +460,8 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
         List<Closeable> all = new ArrayList<>();
         all.addAll(analog.values());
         all.addAll(bits.values());
+        all.addAll(bitsBinary.values());
+        all.addAll(wordsBinary.values());
         if (annotations != null) {
             all.add(annotations);
         }
