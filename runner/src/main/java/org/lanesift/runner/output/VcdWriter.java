@@ -44,7 +44,7 @@ public final class VcdWriter implements Closeable {
     static final byte KNOWN = 0;
     static final byte UNKNOWN = 1;
     /** Changes held in memory by all signals together before the queues are spooled to disk. */
-    static final int QUEUE_BUDGET = 1 << 19;
+    static final int QUEUE_BUDGET = 1 << 17;
     private final int budget;
     /** Spooled changes read back at once per signal, at most. */
     private static final int READ_CHUNK = 1 << 13;
