@@ -79,17 +79,32 @@ final class Ascii {
     static int putDigits(byte[] dst, int at, long v, int n) {
         int end = at + n;
         int i = end;
-        while (v >= 100) {
-            int r = (int) (v % 100);
-            v /= 100;
-            dst[--i] = PAIRS[2 * r + 1];
-            dst[--i] = PAIRS[2 * r];
+        // eight digits at a time in int arithmetic, then two at a time
+        while (v >= 100_000_000L && i - 8 >= at) {
+            long q = v / 100_000_000L;
+            int r = (int) (v - q * 100_000_000L);
+            v = q;
+            for (int k = 0; k < 4; k++) {
+                int r2 = r / 100;
+                int d = r - r2 * 100;
+                r = r2;
+                dst[--i] = PAIRS[2 * d + 1];
+                dst[--i] = PAIRS[2 * d];
+            }
         }
-        if (v >= 10) {
-            dst[--i] = PAIRS[2 * (int) v + 1];
-            dst[--i] = PAIRS[2 * (int) v];
+        int w = (int) v; // below 10^8 now (or n was too small, which callers never ask)
+        while (w >= 100) {
+            int q = w / 100;
+            int d = w - q * 100;
+            w = q;
+            dst[--i] = PAIRS[2 * d + 1];
+            dst[--i] = PAIRS[2 * d];
+        }
+        if (w >= 10) {
+            dst[--i] = PAIRS[2 * w + 1];
+            dst[--i] = PAIRS[2 * w];
         } else {
-            dst[--i] = (byte) ('0' + v);
+            dst[--i] = (byte) ('0' + w);
         }
         while (i > at) {
             dst[--i] = '0';

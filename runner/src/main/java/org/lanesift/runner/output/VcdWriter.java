@@ -89,6 +89,8 @@ public final class VcdWriter implements Closeable {
         final ChangeQueue queue = new ChangeQueue(16);
         /** Changes read back from the spool, before those in {@link #queue}. */
         ChangeQueue readBack;
+        /** The queue {@link #next()} last returned (the merge's view of this signal's head). */
+        ChangeQueue cur;
         Path spool;
         long spooled;
         long spoolRead;
@@ -210,6 +212,11 @@ public final class VcdWriter implements Closeable {
          * @return the queue, or null if no change waits
          */
         ChangeQueue next() throws IOException {
+            cur = head();
+            return cur;
+        }
+
+        private ChangeQueue head() throws IOException {
             if (readBack != null && !readBack.isEmpty()) {
                 return readBack;
             }
@@ -654,7 +661,7 @@ public final class VcdWriter implements Closeable {
         }
         while (n > 0) {
             Var v = heap[0];
-            ChangeQueue q = v.next();
+            ChangeQueue q = v.cur;
             emit(v, q.headTime(), q.headValue(), q.headState());
             boolean fromQueue = q == v.queue;
             q.pop();
@@ -669,17 +676,14 @@ public final class VcdWriter implements Closeable {
         }
     }
 
-    private static long headTime(Var v) throws IOException {
-        return v.next().headTime();
-    }
-
-    private static boolean before(Var a, Var b) throws IOException {
-        long ta = headTime(a);
-        long tb = headTime(b);
+    /** Heap order: earlier head first, then position (every var in the heap has its head in {@code cur}). */
+    private static boolean before(Var a, Var b) {
+        long ta = a.cur.headTime();
+        long tb = b.cur.headTime();
         return ta != tb ? ta < tb : a.order < b.order;
     }
 
-    private static void siftDown(Var[] heap, int n, int i) throws IOException {
+    private static void siftDown(Var[] heap, int n, int i) {
         Var x = heap[i];
         while (true) {
             int c = 2 * i + 1;
