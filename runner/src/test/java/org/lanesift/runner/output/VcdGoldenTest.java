@@ -136,24 +136,26 @@ class VcdGoldenTest {
         return out;
     }
 
+    /** Gives a block to the new writer or to the oracle. */
     private static void feed(Object w, String scope, String name, Block b) {
-        if (w instanceof VcdWriter v) {
-            if (b instanceof LogicBlock l) {
+        VcdWriter v = w instanceof VcdWriter x ? x : null;
+        LegacyVcdWriter o = v == null ? (LegacyVcdWriter) w : null;
+        if (b instanceof LogicBlock l) {
+            if (v != null) {
                 v.logic(scope, name, l);
-            } else if (b instanceof Edges e) {
+            } else {
+                o.logic(scope, name, l);
+            }
+        } else if (b instanceof Edges e) {
+            if (v != null) {
                 v.edges(scope, name, e);
             } else {
-                v.words(scope, name, (WordStream) b);
+                o.edges(scope, name, e);
             }
+        } else if (v != null) {
+            v.words(scope, name, (WordStream) b);
         } else {
-            LegacyVcdWriter v = (LegacyVcdWriter) w;
-            if (b instanceof LogicBlock l) {
-                v.logic(scope, name, l);
-            } else if (b instanceof Edges e) {
-                v.edges(scope, name, e);
-            } else {
-                v.words(scope, name, (WordStream) b);
-            }
+            o.words(scope, name, (WordStream) b);
         }
     }
 
