@@ -22,6 +22,8 @@ final class Ascii {
     private static final long PER_S = 1_000_000_000_000_000L;
     /** "00".."99": two digits at a time. */
     private static final byte[] PAIRS = new byte[200];
+    /** "0000".."9999": four digits at a time. */
+    private static final byte[] QUADS = new byte[40_000];
     /** Powers of ten that a double holds exactly, 1e0 to 1e22. */
     private static final double[] POW10 = new double[23];
 
@@ -29,6 +31,12 @@ final class Ascii {
         for (int i = 0; i < 100; i++) {
             PAIRS[2 * i] = (byte) ('0' + i / 10);
             PAIRS[2 * i + 1] = (byte) ('0' + i % 10);
+        }
+        for (int i = 0; i < 10_000; i++) {
+            QUADS[4 * i] = (byte) ('0' + i / 1000);
+            QUADS[4 * i + 1] = (byte) ('0' + i / 100 % 10);
+            QUADS[4 * i + 2] = (byte) ('0' + i / 10 % 10);
+            QUADS[4 * i + 3] = (byte) ('0' + i % 10);
         }
         double p = 1;
         for (int i = 0; i < POW10.length; i++) {
@@ -79,20 +87,25 @@ final class Ascii {
     static int putDigits(byte[] dst, int at, long v, int n) {
         int end = at + n;
         int i = end;
-        // eight digits at a time in int arithmetic, then two at a time
+        // eight digits at a time (two table look-ups of four), then four, then two
         while (v >= 100_000_000L && i - 8 >= at) {
             long q = v / 100_000_000L;
             int r = (int) (v - q * 100_000_000L);
             v = q;
-            for (int k = 0; k < 4; k++) {
-                int r2 = r / 100;
-                int d = r - r2 * 100;
-                r = r2;
-                dst[--i] = PAIRS[2 * d + 1];
-                dst[--i] = PAIRS[2 * d];
-            }
+            int hi = r / 10_000;
+            int lo = r - hi * 10_000;
+            i -= 8;
+            System.arraycopy(QUADS, 4 * hi, dst, i, 4);
+            System.arraycopy(QUADS, 4 * lo, dst, i + 4, 4);
         }
         int w = (int) v; // below 10^8 now (or n was too small, which callers never ask)
+        while (w >= 10_000) {
+            int q = w / 10_000;
+            int d = w - q * 10_000;
+            w = q;
+            i -= 4;
+            System.arraycopy(QUADS, 4 * d, dst, i, 4);
+        }
         while (w >= 100) {
             int q = w / 100;
             int d = w - q * 100;
