@@ -56,16 +56,6 @@ final class AsciiFile implements Closeable {
     }
 
     /**
-     * Puts one ASCII character.
-     *
-     * @param c the character
-     */
-    void put(char c) throws IOException {
-        room(1);
-        buf[pos++] = (byte) c;
-    }
-
-    /**
      * Puts text as UTF-8 (headers, names), whatever its length.
      *
      * @param s the text
