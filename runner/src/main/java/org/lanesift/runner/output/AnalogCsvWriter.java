@@ -1,46 +1,41 @@
 package org.lanesift.runner.output;
 
-import java.io.BufferedWriter;
 import java.io.Closeable;
 import java.io.IOException;
-import java.io.Writer;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import org.lanesift.data.AnalogBlock;
 
 /**
  * Writes one analog output as CSV: a header {@code time (s),<name> (V)}, then one row per
- * sample with the exact sample time in seconds and the voltage; an invalid (clipped or missing)
- * sample has an empty voltage cell. Streams block by block.
+ * sample with the exact sample time in seconds and the voltage in volts (the shortest decimal that
+ * reads back as the same float, {@link Ascii#putFloat}); an invalid (clipped or missing) sample has
+ * an empty voltage cell. Streams block by block, straight into the file's byte buffer.
  */
 final class AnalogCsvWriter implements Closeable {
-    private final Writer out;
-    private final StringBuilder sb = new StringBuilder(1 << 16);
+    private static final int MAX_ROW = 2 * Ascii.MAX_NUMBER + 4;
+    private final AsciiFile out;
     long samples;
 
     AnalogCsvWriter(Path file, String name) throws IOException {
-        out = new BufferedWriter(Files.newBufferedWriter(file, StandardCharsets.UTF_8), 1 << 16);
-        out.write("time (s)," + name.replace(',', '_') + " (V)\n");
+        out = new AsciiFile(file);
+        out.put("time (s)," + name.replace(',', '_') + " (V)\n");
     }
 
     void write(AnalogBlock b) throws IOException {
-        float[] v = b.volts();
-        for (int i = 0; i < b.length(); i++) {
-            Texts.seconds(sb, b.timeFs(i));
-            sb.append(',');
+        final float[] v = b.volts();
+        final int n = b.length();
+        for (int i = 0; i < n; i++) {
+            out.room(MAX_ROW);
+            byte[] d = out.buf;
+            int p = Ascii.putSecondsFs(d, out.pos, b.timeFs(i));
+            d[p++] = ',';
             if (b.isValid(i)) {
-                sb.append(v[i]);
+                p = Ascii.putFloat(d, p, v[i]);
             }
-            sb.append('\n');
-            if (sb.length() > (1 << 16) - 64) {
-                out.append(sb);
-                sb.setLength(0);
-            }
+            d[p++] = '\n';
+            out.pos = p;
         }
-        out.append(sb);
-        sb.setLength(0);
-        samples += b.length();
+        samples += n;
     }
 
     @Override

@@ -6,39 +6,12 @@ final class Texts {
     }
 
     /**
-     * Femtoseconds as exact decimal seconds, e.g. {@code -1234} becomes {@code -0.000000000001234}.
-     * No floating-point rounding is involved.
+     * Femtoseconds as exact decimal seconds, e.g. {@code -1234} becomes {@code -0.000000000001234}
+     * (the text of {@link Ascii#putSecondsFs}).
      */
-    static void seconds(StringBuilder sb, long fs) {
-        if (fs == Long.MIN_VALUE) {
-            sb.append("-9223.372036854775808");
-            return;
-        }
-        if (fs < 0) {
-            sb.append('-');
-            fs = -fs;
-        }
-        long whole = fs / 1_000_000_000_000_000L;
-        long frac = fs % 1_000_000_000_000_000L;
-        sb.append(whole);
-        if (frac != 0) {
-            sb.append('.');
-            String f = Long.toString(frac);
-            for (int i = f.length(); i < 15; i++) {
-                sb.append('0');
-            }
-            int end = f.length();
-            while (f.charAt(end - 1) == '0') {
-                end--;
-            }
-            sb.append(f, 0, end);
-        }
-    }
-
     static String seconds(long fs) {
-        StringBuilder sb = new StringBuilder(24);
-        seconds(sb, fs);
-        return sb.toString();
+        byte[] b = new byte[Ascii.MAX_NUMBER];
+        return new String(b, 0, Ascii.putSecondsFs(b, 0, fs), java.nio.charset.StandardCharsets.US_ASCII);
     }
 
     /** A name safe for file names and VCD references: letters, digits, '_', '-' and '.'. */

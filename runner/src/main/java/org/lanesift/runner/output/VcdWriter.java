@@ -1,28 +1,26 @@
 package org.lanesift.runner.output;
 
-import org.lanesift.plugin.OutputException;
-import java.io.BufferedInputStream;
-import java.io.BufferedOutputStream;
-import java.io.BufferedWriter;
 import java.io.Closeable;
-import java.io.DataInputStream;
-import java.io.DataOutputStream;
-import java.io.EOFException;
 import java.io.IOException;
-import java.io.Writer;
+import java.nio.ByteBuffer;
+import java.nio.channels.FileChannel;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.nio.file.StandardOpenOption;
 import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.HashSet;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
-import java.util.PriorityQueue;
+import java.util.Set;
 import org.lanesift.data.BitSets;
 import org.lanesift.data.Edges;
 import org.lanesift.data.LogicBlock;
 import org.lanesift.data.LogicEdges;
 import org.lanesift.data.WordStream;
+import org.lanesift.plugin.OutputException;
 
 /**
  * Writes logic signals and word streams into one IEEE 1364-2005 Value Change Dump (clause 18)
@@ -30,44 +28,78 @@ import org.lanesift.data.WordStream;
  * written as {@code x}), word streams become vectors of their width.
  *
  * <p>Blocks of different signals reach the host in no common time order, while a VCD needs one
- * time order for the whole file. So each signal's value changes are spooled to its own small
- * binary file as they arrive (memory stays constant in capture length), and {@link #close()}
- * merges the spools in time order into the VCD. VCD times cannot be negative: if any change lies
+ * time order for the whole file. Each signal's value changes wait in a small queue of its own; once
+ * every declared signal has arrived the file is laid out (order, identifier codes, time origin) and
+ * a k-way merge writes, while the run goes on, every change earlier than the point all signals
+ * have passed (each signal's last change, or what the block order promises about its next one:
+ * blocks on one wire arrive in non-decreasing start order). The text goes to a body file that
+ * {@link #close()} appends to the header with a plain byte copy. When the layout cannot be fixed
+ * early (no signal was declared, or word streams, whose lanes are known only at the end), the same
+ * merge runs at close. Queues beyond a memory budget are spooled to one file per signal, opened
+ * only while appending or reading a chunk, so memory and open files stay bounded whatever the
+ * capture length and the number of signals. VCD times cannot be negative: if any change lies
  * before time 0, every time is shifted by the earliest one and a {@code $comment} says by how much.
  */
 public final class VcdWriter implements Closeable {
     static final byte KNOWN = 0;
     static final byte UNKNOWN = 1;
+    /** Changes held in memory by all signals together before the queues are spooled to disk. */
+    static final int QUEUE_BUDGET = 1 << 17;
+    private final int budget;
+    /** Spooled changes read back at once per signal, at most. */
+    private static final int READ_CHUNK = 1 << 13;
 
     private final Path file;
     private final Path spoolDir;
+    private final Path bodyFile;
     private final String version;
     private final Map<String, Var> vars = new LinkedHashMap<>();
-    private final Map<String, Integer> rank = new java.util.HashMap<>();
+    private final Map<String, Integer> rank = new HashMap<>();
+    private final Set<String> arrivedDeclared = new HashSet<>();
     /** Per word stream (scope NUL name): {highest lane seen, 1 if any word had a flag}. */
-    private final Map<String, int[]> streams = new java.util.HashMap<>();
+    private final Map<String, int[]> streams = new HashMap<>();
+    private final ByteBuffer scratch = ByteBuffer.allocate(READ_CHUNK * ChangeQueue.RECORD_BYTES);
     private boolean closed;
-    /** Spool files open at once while merging, whatever the number of signals. */
-    static final int MAX_OPEN_SPOOLS = 128;
-    /** Bytes of changes a signal holds in memory before appending them to its spool. */
-    static final int SPILL_BYTES = 16 << 10;
-    private final int maxOpen;
-    private int mergeFiles;
+    private boolean sawWords;
+    /** Whether order, codes and origin are fixed ({@link #layout}). */
+    private boolean settled;
+    private List<Var> layout;
+    private long origin;
+    /** Changes below this time were written; later changes are kept at or after it. */
+    private long writtenBelowFs = Long.MIN_VALUE;
+    private long queued;
+    private int callsSincePump;
+    /** The text being written: the body file while the run goes on, or the VCD itself at close. */
+    private AsciiFile out;
+    private boolean first = true;
+    private long current;
+    private long firstTime;
+    private boolean[] wrote;
 
-    /** One declared signal and its spool. */
+    /** One declared signal, its queue and its spool. */
     private final class Var {
         final String scope;
         String name;
         final int width;
         String code;
-        final Path spool;
-        /** Changes not yet appended to the spool; the spool file is open only while they are appended. */
-        final java.io.ByteArrayOutputStream pending = new java.io.ByteArrayOutputStream(256);
-        final DataOutputStream out = new DataOutputStream(pending);
+        byte[] codeBytes;
+        /** Position in the file's layout. */
+        int order;
+        /** Changes not yet written, after those in the spool. */
+        final ChangeQueue queue = new ChangeQueue(16);
+        /** Changes read back from the spool, before those in {@link #queue}. */
+        ChangeQueue readBack;
+        /** The queue {@link #next()} last returned (the merge's view of this signal's head). */
+        ChangeQueue cur;
+        Path spool;
+        long spooled;
+        long spoolRead;
         boolean logicStarted;
         boolean logicLevel;
         boolean logicInvalid;
         long lastTime = Long.MIN_VALUE;
+        /** No later block brings a change before this time (from the block order). */
+        long promiseFs = Long.MIN_VALUE;
         boolean havePending;
         long pendingTime;
         long pendingValue;
@@ -81,8 +113,9 @@ public final class VcdWriter implements Closeable {
         /** Logic: where the next block is expected to start, and where the gap before it would start. */
         long logicNextFs = Long.MIN_VALUE;
         long logicGapFs;
-        /** Edges: end of the last block. */
+        /** Edges: end of the last block, and start of the one before the last. */
         long edgesEndFs = Long.MIN_VALUE;
+        long edgesPrevStartFs = Long.MIN_VALUE;
 
         final int arrival;
         String key;
@@ -93,31 +126,18 @@ public final class VcdWriter implements Closeable {
         int lane;
         boolean flagsVar;
 
-        Var(String scope, String name, int width, int index) throws IOException {
+        Var(String scope, String name, int width, int index) {
             this.scope = scope;
             this.name = name;
             this.width = width;
             this.code = code(index);
             this.arrival = index;
-            Files.createDirectories(spoolDir);
-            this.spool = spoolDir.resolve("v" + index + ".bin");
-            Files.newOutputStream(spool).close();
-        }
-
-        /** Appends what is held in memory to the spool file, opening it only for that. */
-        void spill() throws IOException {
-            if (pending.size() == 0) {
-                return;
-            }
-            try (java.io.OutputStream o = Files.newOutputStream(spool, java.nio.file.StandardOpenOption.APPEND)) {
-                pending.writeTo(o);
-            }
-            pending.reset();
         }
 
         void change(long t, long value, byte state) throws IOException {
-            if (t < lastTime) {
-                t = lastTime; // a block overlapping the previous one: keep the file in time order
+            long floor = Math.max(lastTime, writtenBelowFs);
+            if (t < floor) {
+                t = floor; // a block overlapping the previous one: keep the file in time order
             }
             lastTime = t;
             if (havePending && pendingTime == t) {
@@ -132,7 +152,7 @@ public final class VcdWriter implements Closeable {
             pendingState = state;
         }
 
-        void flushPending() throws IOException {
+        void flushPending() {
             if (!havePending) {
                 return;
             }
@@ -144,33 +164,106 @@ public final class VcdWriter implements Closeable {
             writtenValue = pendingValue;
             writtenState = pendingState;
             firstTime = Math.min(firstTime, pendingTime);
-            out.writeLong(pendingTime);
-            out.writeLong(pendingValue);
-            out.writeByte(pendingState);
+            queue.add(pendingTime, pendingValue, pendingState);
+            queued++;
             changes++;
-            if (pending.size() >= SPILL_BYTES) {
-                spill();
+        }
+
+        /** Notes that no later block brings a change before {@code fs}; a change waiting before it is final. */
+        void promise(long fs) {
+            promiseFs = Math.max(promiseFs, fs);
+            if (havePending && pendingTime < promiseFs) {
+                flushPending();
             }
+        }
+
+        /** The earliest time a change not yet queued can have. */
+        long floorFs() {
+            return havePending ? pendingTime : Math.max(lastTime, promiseFs);
+        }
+
+        /** Appends the queue to the spool file, opened only for that. */
+        void spill() throws IOException {
+            if (queue.isEmpty()) {
+                return;
+            }
+            if (spool == null) {
+                Files.createDirectories(spoolDir);
+                spool = spoolDir.resolve("v" + arrival + ".bin");
+            }
+            queued -= queue.size();
+            try (FileChannel ch = FileChannel.open(spool, StandardOpenOption.CREATE, StandardOpenOption.WRITE,
+                    StandardOpenOption.APPEND)) {
+                while (!queue.isEmpty()) {
+                    scratch.clear();
+                    spooled += queue.drainTo(scratch);
+                    scratch.flip();
+                    while (scratch.hasRemaining()) {
+                        ch.write(scratch);
+                    }
+                }
+            }
+            queue.clear(1024);
+        }
+
+        /**
+         * The queue that holds this signal's next change, reading a chunk of the spool back if needed.
+         *
+         * @return the queue, or null if no change waits
+         */
+        ChangeQueue next() throws IOException {
+            cur = head();
+            return cur;
+        }
+
+        private ChangeQueue head() throws IOException {
+            if (readBack != null && !readBack.isEmpty()) {
+                return readBack;
+            }
+            if (spoolRead < spooled) {
+                int chunk = (int) Math.min(spooled - spoolRead, Math.max(64, Math.min(READ_CHUNK, budget / vars.size())));
+                if (readBack == null) {
+                    readBack = new ChangeQueue(chunk);
+                }
+                scratch.clear().limit(chunk * ChangeQueue.RECORD_BYTES);
+                try (FileChannel ch = FileChannel.open(spool, StandardOpenOption.READ)) {
+                    long at = spoolRead * ChangeQueue.RECORD_BYTES;
+                    while (scratch.hasRemaining()) {
+                        int n = ch.read(scratch, at);
+                        if (n < 0) {
+                            throw new IOException("spool " + spool + " ended early");
+                        }
+                        at += n;
+                    }
+                }
+                scratch.flip();
+                readBack.fillFrom(scratch);
+                spoolRead += chunk;
+                return readBack;
+            }
+            return queue.isEmpty() ? null : queue;
         }
     }
 
     /**
      * Creates a writer; nothing is written until a signal arrives.
      *
-     * @param file     the VCD to write at {@link #close()}
-     * @param spoolDir a directory for the per-signal spools (created when needed, emptied at close)
+     * @param file     the VCD to write
+     * @param spoolDir a directory for the body being written and the spools (created when needed,
+     *                 emptied at close)
      * @param version  text for {@code $version}
      */
     public VcdWriter(Path file, Path spoolDir, String version) {
-        this(file, spoolDir, version, MAX_OPEN_SPOOLS);
+        this(file, spoolDir, version, QUEUE_BUDGET);
     }
 
-    /** A writer that merges at most {@code maxOpen} spools at once (tests use a small number). */
-    VcdWriter(Path file, Path spoolDir, String version, int maxOpen) {
+    /** A writer that spools beyond {@code budget} queued changes (tests use a small number). */
+    VcdWriter(Path file, Path spoolDir, String version, int budget) {
+        this.budget = Math.max(1, budget);
         this.file = file;
         this.spoolDir = spoolDir;
+        this.bodyFile = spoolDir.resolve("body.vcd");
         this.version = version;
-        this.maxOpen = Math.max(2, maxOpen);
     }
 
     /** VCD identifier codes: printable ASCII 33..126, base 94 (IEEE 1364-2005 18.2.1). */
@@ -208,12 +301,17 @@ public final class VcdWriter implements Closeable {
     private Var var(String scope, String name, int width, String key) {
         Var v = vars.get(key);
         if (v == null) {
-            try {
-                v = new Var(Texts.safe(scope), Texts.safe(name), width, vars.size());
-                v.key = key;
-                v.rankKey = scope + "\u0000" + name;
-            } catch (IOException e) {
-                throw new OutputException("cannot create spool in " + spoolDir + ": " + e.getMessage(), e);
+            String rankKey = scope + "\u0000" + name;
+            if (settled) {
+                // the layout (order, codes) is fixed once streaming began; every signal is declared before
+                throw new IllegalStateException("VCD signal " + scope + "." + name + " arrived after the file was laid out;"
+                        + " every signal must be declared before the first one arrives");
+            }
+            v = new Var(Texts.safe(scope), Texts.safe(name), width, vars.size());
+            v.key = key;
+            v.rankKey = rankKey;
+            if (rank.containsKey(rankKey)) {
+                arrivedDeclared.add(rankKey);
             }
             vars.put(key, v);
         }
@@ -241,8 +339,13 @@ public final class VcdWriter implements Closeable {
         Var v = var(scope, name, 1);
         try {
             writeEdges(v, e);
+            // a later block starts no earlier than this one; edges right before a block's start are
+            // allowed for, by promising only the previous block's start
+            v.promise(v.edgesPrevStartFs);
+            v.edgesPrevStartFs = e.startFs();
+            afterBlock();
         } catch (IOException x) {
-            throw new OutputException("cannot write spool for " + scope + "." + name + ": " + x.getMessage(), x);
+            throw new OutputException("cannot write " + file + " for " + scope + "." + name + ": " + x.getMessage(), x);
         }
     }
 
@@ -260,8 +363,12 @@ public final class VcdWriter implements Closeable {
         Var v = var(scope, name, 1);
         try {
             writeLogic(v, b);
+            // the next block starts no earlier than this one, and its first change lies at most half a
+            // sample before its start
+            v.promise(b.startFs() - (long) Math.ceil(b.periodFs()) - 1);
+            afterBlock();
         } catch (IOException x) {
-            throw new OutputException("cannot write spool for " + scope + "." + name + ": " + x.getMessage(), x);
+            throw new OutputException("cannot write " + file + " for " + scope + "." + name + ": " + x.getMessage(), x);
         }
     }
 
@@ -335,6 +442,7 @@ public final class VcdWriter implements Closeable {
      */
     public void words(String scope, String name, WordStream w) {
         String stream = scope + "\u0000" + name;
+        sawWords = true; // lanes and flags are known only at close: the file is laid out then
         int[] info = streams.computeIfAbsent(stream, k -> new int[2]);
         try {
             long[] vals = w.values();
@@ -352,8 +460,9 @@ public final class VcdWriter implements Closeable {
                 word(v, st[i], en[i], vals[i] & mask);
                 word(f, st[i], en[i], flags[i] & 0xFF);
             }
+            afterBlock();
         } catch (IOException x) {
-            throw new OutputException("cannot write spool for " + scope + "." + name + ": " + x.getMessage(), x);
+            throw new OutputException("cannot write " + file + " for " + scope + "." + name + ": " + x.getMessage(), x);
         }
     }
 
@@ -376,7 +485,7 @@ public final class VcdWriter implements Closeable {
     }
 
     /** Final names of word-stream variables; drops flags variables of streams without flags. */
-    private List<Var> settleWordNames(List<Var> list) throws IOException {
+    private List<Var> settleWordNames(List<Var> list) {
         List<Var> keep = new ArrayList<>();
         for (Var v : list) {
             if (v.streamKey == null) {
@@ -385,9 +494,7 @@ public final class VcdWriter implements Closeable {
             }
             int[] info = streams.get(v.streamKey);
             if (v.flagsVar && info[1] == 0) {
-                v.out.close();
-                Files.deleteIfExists(v.spool);
-                continue;
+                continue; // its spool, if any, is removed with the others at close
             }
             v.name = v.name + (info[0] > 0 ? "_lane" + v.lane : "") + (v.flagsVar ? "_flags" : "");
             keep.add(v);
@@ -471,90 +578,200 @@ public final class VcdWriter implements Closeable {
         return v == null ? 0 : v.changes + (v.havePending ? 1 : 0);
     }
 
-    /** A spool to merge: one signal's changes (time, value, state), or merged ones that carry their signal. */
-    private record Source(Path file, int fixedVar) {
-    }
-
-    private static final class Cursor {
-        /** The signal of every record, or -1 when each record carries its own. */
-        final int fixedVar;
-        final DataInputStream in;
-        int var;
-        long time;
-        long value;
-        byte state;
-
-        Cursor(Source s) throws IOException {
-            this.fixedVar = s.fixedVar();
-            this.var = fixedVar;
-            this.in = new DataInputStream(new BufferedInputStream(Files.newInputStream(s.file()), 1 << 15));
-        }
-
-        boolean next() throws IOException {
-            try {
-                time = in.readLong();
-                if (fixedVar < 0) {
-                    var = in.readInt();
-                }
-                value = in.readLong();
-                state = in.readByte();
-                return true;
-            } catch (EOFException e) {
-                return false;
-            }
-        }
-    }
-
-    private static PriorityQueue<Cursor> queue() {
-        return new PriorityQueue<>((a, b) -> a.time != b.time ? Long.compare(a.time, b.time) : Integer.compare(a.var, b.var));
-    }
-
     /**
-     * Merges groups of at most {@link #maxOpen} sources into one spool each until no more than
-     * that many are left, so the final merge never holds more files open than that.
+     * Whether the file was laid out while signals were still arriving, so that the changes are
+     * written as the run goes on (tests).
+     *
+     * @return true once streaming
      */
-    private List<Source> premerge(List<Source> sources, List<Path> temporary) throws IOException {
-        List<Source> level = sources;
-        while (level.size() > maxOpen) {
-            List<Source> next = new ArrayList<>();
-            for (int g = 0; g < level.size(); g += maxOpen) {
-                List<Source> group = level.subList(g, Math.min(level.size(), g + maxOpen));
-                Path merged = spoolDir.resolve("m" + (mergeFiles++) + ".bin");
-                temporary.add(merged);
-                List<Cursor> open = new ArrayList<>();
-                try (DataOutputStream o = new DataOutputStream(new BufferedOutputStream(Files.newOutputStream(merged), 1 << 15))) {
-                    PriorityQueue<Cursor> q = queue();
-                    for (Source src : group) {
-                        Cursor c = new Cursor(src);
-                        open.add(c);
-                        if (c.next()) {
-                            q.add(c);
-                        }
-                    }
-                    while (!q.isEmpty()) {
-                        Cursor c = q.poll();
-                        o.writeLong(c.time);
-                        o.writeInt(c.var);
-                        o.writeLong(c.value);
-                        o.writeByte(c.state);
-                        if (c.next()) {
-                            q.add(c);
-                        }
-                    }
-                } finally {
-                    for (Cursor c : open) {
-                        c.in.close();
-                    }
-                }
-                next.add(new Source(merged, -1));
-            }
-            level = next;
+    boolean streaming() {
+        return settled && !closed;
+    }
+
+    /** After a block: keeps the queues within budget and writes what every signal has passed. */
+    private void afterBlock() throws IOException {
+        callsSincePump++;
+        if (!settled && !sawWords && !rank.isEmpty() && arrivedDeclared.size() == rank.size()) {
+            settle(new ArrayList<>(vars.values()));
         }
-        return level;
+        if (settled && (callsSincePump >= vars.size() || queued > budget / 2)) {
+            callsSincePump = 0;
+            long below = Long.MAX_VALUE;
+            for (Var v : layout) {
+                below = Math.min(below, v.floorFs());
+            }
+            if (below > writtenBelowFs) {
+                if (out == null) {
+                    Files.createDirectories(spoolDir);
+                    out = new AsciiFile(bodyFile);
+                }
+                merge(below, false);
+                writtenBelowFs = below;
+            }
+        }
+        if (queued > budget) {
+            for (Var v : vars.values()) {
+                v.spill();
+            }
+        }
     }
 
     /**
-     * Merges the spools into the VCD and removes them. Does nothing if no signal arrived.
+     * Fixes the file's layout: signals in the order declared, then the rest in order of arrival,
+     * grouped by scope in order of first appearance; identifier codes by position; the time origin.
+     */
+    private void settle(List<Var> list) {
+        list.sort((a, b) -> rankOf(a) != rankOf(b) ? Integer.compare(rankOf(a), rankOf(b)) : Integer.compare(a.arrival, b.arrival));
+        List<String> scopes = new ArrayList<>();
+        for (Var v : list) {
+            if (!scopes.contains(v.scope)) {
+                scopes.add(v.scope);
+            }
+        }
+        list.sort((a, b) -> Integer.compare(scopes.indexOf(a.scope), scopes.indexOf(b.scope)));
+        origin = 0;
+        for (int i = 0; i < list.size(); i++) {
+            Var v = list.get(i);
+            v.order = i;
+            v.code = code(i);
+            v.codeBytes = v.code.getBytes(StandardCharsets.US_ASCII);
+            // a signal's changes are in time order: its first one is the earliest (flushed or waiting)
+            origin = Math.min(origin, Math.min(v.firstTime, v.havePending ? v.pendingTime : Long.MAX_VALUE));
+        }
+        layout = list;
+        wrote = new boolean[list.size()];
+        settled = true;
+    }
+
+    /**
+     * The k-way merge: writes, in time order and by position at equal times, every queued change
+     * earlier than {@code below} (all of them if {@code all}).
+     */
+    private void merge(long below, boolean all) throws IOException {
+        int n = 0;
+        Var[] heap = new Var[layout.size()];
+        for (Var v : layout) {
+            ChangeQueue q = v.next();
+            if (q != null && (all || q.headTime() < below)) {
+                heap[n++] = v;
+            }
+        }
+        for (int i = n / 2 - 1; i >= 0; i--) {
+            siftDown(heap, n, i);
+        }
+        while (n > 0) {
+            Var v = heap[0];
+            ChangeQueue q = v.cur;
+            emit(v, q.headTime(), q.headValue(), q.headState());
+            boolean fromQueue = q == v.queue;
+            q.pop();
+            if (fromQueue) {
+                queued--;
+            }
+            ChangeQueue nq = v.next();
+            if (nq == null || (!all && nq.headTime() >= below)) {
+                heap[0] = heap[--n];
+            }
+            siftDown(heap, n, 0);
+        }
+    }
+
+    /** Heap order: earlier head first, then position (every var in the heap has its head in {@code cur}). */
+    private static boolean before(Var a, Var b) {
+        long ta = a.cur.headTime();
+        long tb = b.cur.headTime();
+        return ta != tb ? ta < tb : a.order < b.order;
+    }
+
+    private static void siftDown(Var[] heap, int n, int i) {
+        Var x = heap[i];
+        while (true) {
+            int c = 2 * i + 1;
+            if (c >= n) {
+                break;
+            }
+            if (c + 1 < n && before(heap[c + 1], heap[c])) {
+                c++;
+            }
+            if (!before(heap[c], x)) {
+                break;
+            }
+            heap[i] = heap[c];
+            i = c;
+        }
+        heap[i] = x;
+    }
+
+    /** Writes one change: a time line when the time moves on (with the initial dump first), then the value. */
+    private void emit(Var v, long time, long value, byte state) throws IOException {
+        long t = time - origin;
+        out.room(2 * Ascii.MAX_NUMBER + 16);
+        byte[] d = out.buf;
+        int p = out.pos;
+        if (first || t != current) {
+            if (first) {
+                // initial values of every signal at the first time: unknown until set
+                p = timeLine(d, p, t);
+                out.pos = p;
+                ascii(out, "$dumpvars\n");
+                for (Var x : layout) {
+                    ascii(out, x.width == 1 ? "x" + x.code + "\n" : "bx " + x.code + "\n");
+                }
+                ascii(out, "$end\n");
+                first = false;
+                firstTime = t;
+                out.room(2 * Ascii.MAX_NUMBER + 16);
+                d = out.buf;
+                p = out.pos;
+            } else {
+                p = timeLine(d, p, t);
+            }
+            current = t;
+        }
+        boolean redundant = state == UNKNOWN && t == firstTime && !wrote[v.order]; // $dumpvars said x already
+        wrote[v.order] = true;
+        if (!redundant) {
+            byte[] code = v.codeBytes;
+            if (code.length > Ascii.MAX_NUMBER) {
+                out.pos = p;
+                out.room(code.length + 8);
+                d = out.buf;
+                p = out.pos;
+            }
+            if (v.width == 1) {
+                d[p++] = state == UNKNOWN ? (byte) 'x' : value != 0 ? (byte) '1' : (byte) '0';
+            } else {
+                d[p++] = 'b';
+                if (state == UNKNOWN) {
+                    d[p++] = 'x';
+                } else {
+                    // leading zeros may be dropped (IEEE 1364-2005 18.2.1: left-extended with 0)
+                    p = Ascii.putBinary(d, p, value);
+                }
+                d[p++] = ' ';
+            }
+            System.arraycopy(code, 0, d, p, code.length);
+            p += code.length;
+            d[p++] = '\n';
+        }
+        out.pos = p;
+    }
+
+    private static int timeLine(byte[] d, int p, long t) {
+        d[p++] = '#';
+        p = Ascii.putLong(d, p, t);
+        d[p++] = '\n';
+        return p;
+    }
+
+    private static void ascii(AsciiFile f, String s) throws IOException {
+        byte[] b = s.getBytes(StandardCharsets.US_ASCII);
+        f.put(b, 0, b.length);
+    }
+
+    /**
+     * Writes what is left and finishes the VCD: the header, then the body (a byte copy of what was
+     * written while the run went on). Removes the spools. Does nothing if no signal arrived.
      *
      * @throws IOException if writing fails
      */
@@ -567,88 +784,47 @@ public final class VcdWriter implements Closeable {
         if (vars.isEmpty()) {
             return;
         }
-        List<Var> list = settleWordNames(new ArrayList<>(vars.values()));
-        list.sort((a, b) -> rankOf(a) != rankOf(b) ? Integer.compare(rankOf(a), rankOf(b)) : Integer.compare(a.arrival, b.arrival));
-        // group by scope, scopes in order of first appearance (in that order)
-        List<String> scopes = new ArrayList<>();
-        for (Var v : list) {
-            if (!scopes.contains(v.scope)) {
-                scopes.add(v.scope);
-            }
-        }
-        list.sort((a, b) -> Integer.compare(scopes.indexOf(a.scope), scopes.indexOf(b.scope)));
-        for (int i = 0; i < list.size(); i++) {
-            list.get(i).code = code(i);
-        }
-        long origin = 0;
-        for (Var v : list) {
-            if (v.lastWordEnd != Long.MIN_VALUE) {
-                v.change(v.lastWordEnd, 0, UNKNOWN); // no word after the last one
-            }
-            v.flushPending();
-            v.spill();
-            origin = Math.min(origin, v.firstTime);
-        }
-        List<Cursor> cursors = new ArrayList<>();
-        List<Path> temporary = new ArrayList<>();
-        try (Writer w = new BufferedWriter(Files.newBufferedWriter(file, StandardCharsets.US_ASCII), 1 << 16)) {
-            header(w, list, origin);
-            List<Source> sources = new ArrayList<>();
-            for (int i = 0; i < list.size(); i++) {
-                sources.add(new Source(list.get(i).spool, i));
-            }
-            PriorityQueue<Cursor> q = queue();
-            for (Source src : premerge(sources, temporary)) {
-                Cursor c = new Cursor(src);
-                cursors.add(c);
-                if (c.next()) {
-                    q.add(c);
+        try {
+            boolean early = settled;
+            for (Var v : settled ? layout : vars.values()) {
+                if (v.lastWordEnd != Long.MIN_VALUE) {
+                    v.change(v.lastWordEnd, 0, UNKNOWN); // no word after the last one
                 }
+                v.flushPending();
             }
-            long current = Long.MIN_VALUE;
-            boolean first = true;
-            long firstTime = q.isEmpty() ? 0 : q.peek().time - origin;
-            boolean[] wrote = new boolean[list.size()];
-            StringBuilder sb = new StringBuilder(128);
-            while (!q.isEmpty()) {
-                Cursor c = q.poll();
-                long t = c.time - origin;
-                if (first || t != current) {
-                    if (first) {
-                        // initial values of every signal at the first time: unknown until set
-                        w.write("#" + t + "\n$dumpvars\n");
-                        for (Var v : list) {
-                            w.write(v.width == 1 ? "x" + v.code + "\n" : "bx " + v.code + "\n");
+            if (!settled) {
+                settle(settleWordNames(new ArrayList<>(vars.values())));
+            }
+            if (early) {
+                merge(Long.MAX_VALUE, true);
+                out.close();
+                try (AsciiFile vcd = new AsciiFile(file)) {
+                    header(vcd);
+                    FileChannel to = vcd.channel();
+                    try (FileChannel from = FileChannel.open(bodyFile, StandardOpenOption.READ)) {
+                        long size = from.size();
+                        long at = 0;
+                        while (at < size) {
+                            at += from.transferTo(at, size - at, to);
                         }
-                        w.write("$end\n");
-                        first = false;
-                    } else {
-                        w.write("#" + t + "\n");
                     }
-                    current = t;
                 }
-                Var v = list.get(c.var);
-                boolean redundant = c.state == UNKNOWN && t == firstTime && !wrote[c.var]; // $dumpvars said x already
-                wrote[c.var] = true;
-                if (!redundant) {
-                    sb.setLength(0);
-                    value(sb, v, c.value, c.state);
-                    w.write(sb.toString());
-                }
-                if (c.next()) {
-                    q.add(c);
-                }
+            } else {
+                out = new AsciiFile(file);
+                header(out);
+                merge(Long.MAX_VALUE, true);
+                out.close();
             }
         } finally {
-            for (Cursor c : cursors) {
-                c.in.close();
+            if (out != null) {
+                out.close();
             }
-            for (Var v : list) {
-                Files.deleteIfExists(v.spool);
+            for (Var v : vars.values()) {
+                if (v.spool != null) {
+                    Files.deleteIfExists(v.spool);
+                }
             }
-            for (Path t : temporary) {
-                Files.deleteIfExists(t);
-            }
+            Files.deleteIfExists(bodyFile);
             try {
                 Files.deleteIfExists(spoolDir);
             } catch (IOException ignored) {
@@ -657,40 +833,25 @@ public final class VcdWriter implements Closeable {
         }
     }
 
-    private static void value(StringBuilder sb, Var v, long value, byte state) {
-        if (v.width == 1) {
-            sb.append(state == UNKNOWN ? 'x' : value != 0 ? '1' : '0').append(v.code).append('\n');
-            return;
-        }
-        sb.append('b');
-        if (state == UNKNOWN) {
-            sb.append('x');
-        } else {
-            // leading zeros may be dropped (IEEE 1364-2005 18.2.1: left-extended with 0)
-            sb.append(Long.toBinaryString(value));
-        }
-        sb.append(' ').append(v.code).append('\n');
-    }
-
-    private void header(Writer w, List<Var> list, long origin) throws IOException {
-        w.write("$date\n   " + java.time.Instant.now().truncatedTo(java.time.temporal.ChronoUnit.SECONDS) + "\n$end\n");
-        w.write("$version\n   " + version + "\n$end\n");
+    private void header(AsciiFile w) throws IOException {
+        ascii(w, "$date\n   " + java.time.Instant.now().truncatedTo(java.time.temporal.ChronoUnit.SECONDS) + "\n$end\n");
+        ascii(w, "$version\n   " + version + "\n$end\n");
         if (origin != 0) {
-            w.write("$comment\n   times shifted by " + (-origin) + " fs: time 0 here is " + origin
+            ascii(w, "$comment\n   times shifted by " + (-origin) + " fs: time 0 here is " + origin
                     + " fs in the capture\n$end\n");
         }
-        w.write("$timescale 1 fs $end\n");
+        ascii(w, "$timescale 1 fs $end\n");
         String open = null;
-        for (Var v : list) {
+        for (Var v : layout) {
             if (!v.scope.equals(open)) {
                 if (open != null) {
-                    w.write("$upscope $end\n");
+                    ascii(w, "$upscope $end\n");
                 }
-                w.write("$scope module " + v.scope + " $end\n");
+                ascii(w, "$scope module " + v.scope + " $end\n");
                 open = v.scope;
             }
-            w.write("$var wire " + v.width + " " + v.code + " " + v.name + (v.width > 1 ? " [" + (v.width - 1) + ":0]" : "") + " $end\n");
+            ascii(w, "$var wire " + v.width + " " + v.code + " " + v.name + (v.width > 1 ? " [" + (v.width - 1) + ":0]" : "") + " $end\n");
         }
-        w.write("$upscope $end\n$enddefinitions $end\n");
+        ascii(w, "$upscope $end\n$enddefinitions $end\n");
     }
 }

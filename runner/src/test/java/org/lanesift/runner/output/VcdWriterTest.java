@@ -148,6 +148,12 @@ class VcdWriterTest {
         }
     }
 
+    private static void manySignals(LegacyVcdWriter w, int signals) {
+        for (int k = 0; k < signals; k++) {
+            w.edges("cap", "s" + k, new Edges("s" + k, 0, 10_000, false, new long[] {10 + k, 5000 + 3L * k}, 2, new long[0], 0));
+        }
+    }
+
     private static void manySignals(VcdWriter w, int signals) {
         for (int k = 0; k < signals; k++) {
             // signal k: low, rises at 10 + k, falls at 5000 + 3 k
@@ -156,34 +162,43 @@ class VcdWriterTest {
     }
 
     /**
-     * Issue 18: 1,500 signals no longer keep 1,500 spool files open ("Too many open files"): a
-     * signal's file is open only while its changes are appended, and the merge opens at most a
-     * fixed number at once (merging in rounds), with the same VCD as a merge of everything at once.
+     * Issue 18: 1,500 signals never keep 1,500 files open ("Too many open files"): a signal's spool
+     * is open only while changes are appended or a chunk is read back. Whether the file is laid out
+     * early (declared signals, written while they arrive) or at close, and whether the changes stay
+     * in memory or go through the spools (a budget of 7 changes), the VCD is the one the writer
+     * before issue 19 wrote ({@link LegacyVcdWriter}, merge of everything at close).
      */
     @Test
     void fileHandlesStayBoundedWhateverTheNumberOfSignals() throws Exception {
-        long before = openFiles();
-        Path f = tmp.resolve("many.vcd");
-        VcdWriter w = new VcdWriter(f, tmp.resolve("spool"), "test");
-        manySignals(w, 1500);
-        long during = openFiles();
-        if (before >= 0) {
-            assertTrue(during - before < 20, "files open while writing 1500 signals: " + (during - before));
-        }
-        w.close();
-        Path g = tmp.resolve("rounds.vcd");
-        VcdWriter small = new VcdWriter(g, tmp.resolve("spool2"), "test", 7);
-        manySignals(small, 1500);
-        small.close();
-        Path h = tmp.resolve("once.vcd");
-        VcdWriter once = new VcdWriter(h, tmp.resolve("spool3"), "test", 100_000);
-        manySignals(once, 1500);
-        once.close();
+        Path h = tmp.resolve("legacy.vcd");
+        LegacyVcdWriter legacy = new LegacyVcdWriter(h, tmp.resolve("spool0"), "test", 100_000);
+        manySignals(legacy, 1500);
+        legacy.close();
         String body = bodyAfterDefinitions(h);
-        assertEquals(body, bodyAfterDefinitions(f));
-        assertEquals(body, bodyAfterDefinitions(g));
         assertTrue(body.contains("#5000\n"), "the first fall");
-        assertFalse(Files.exists(tmp.resolve("spool2")), "merge rounds leave no file behind");
+        int n = 0;
+        for (boolean declared : new boolean[] {false, true}) {
+            for (int budget : new int[] {7, VcdWriter.QUEUE_BUDGET}) {
+                long before = openFiles();
+                Path f = tmp.resolve("many" + n + ".vcd");
+                Path spool = tmp.resolve("spool" + ++n);
+                VcdWriter w = new VcdWriter(f, spool, "test", budget);
+                if (declared) {
+                    for (int k = 0; k < 1500; k++) {
+                        w.declare("cap", "s" + k);
+                    }
+                }
+                manySignals(w, 1500);
+                long during = openFiles();
+                if (before >= 0) {
+                    assertTrue(during - before < 20, "files open while writing 1500 signals: " + (during - before));
+                }
+                assertEquals(declared, w.streaming(), "laid out early when declared");
+                w.close();
+                assertEquals(body, bodyAfterDefinitions(f), "declared " + declared + ", budget " + budget);
+                assertFalse(Files.exists(spool), "no spool left behind");
+            }
+        }
     }
 
     /**
