@@ -40,12 +40,7 @@ final class SegmentFeed {
     /** Worker side: adds an event; waits while the reader is attached and {@code limit} are unread. */
     synchronized void add(Object event) {
         while (attached && events.size() >= limit && !cancelled) {
-            try {
-                wait();
-            } catch (InterruptedException e) {
-                Thread.currentThread().interrupt();
-                throw new SegmentException("interrupted while handing on a segment's output");
-            }
+            pause("handing on a segment's output");
         }
         events.add(event);
         notifyAll();
@@ -78,12 +73,7 @@ final class SegmentFeed {
      */
     synchronized Object next() {
         while (events.isEmpty() && !done && !cancelled) {
-            try {
-                wait();
-            } catch (InterruptedException e) {
-                Thread.currentThread().interrupt();
-                throw new SegmentException("interrupted while waiting for a segment");
-            }
+            pause("waiting for a segment");
         }
         if (cancelled) {
             return null;
@@ -103,5 +93,15 @@ final class SegmentFeed {
             throw new SegmentException(String.valueOf(failure));
         }
         return null;
+    }
+
+    /** Waits for a change of this feed; holds its lock. */
+    private void pause(String doing) {
+        try {
+            wait();
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new SegmentException("interrupted while " + doing);
+        }
     }
 }

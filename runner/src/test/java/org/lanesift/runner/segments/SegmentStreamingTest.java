@@ -15,16 +15,14 @@ import org.junit.jupiter.api.io.TempDir;
 import org.lanesift.chain.ChainSpec;
 import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.Block;
-import org.lanesift.data.DataKind;
 import org.lanesift.data.Edges;
 import org.lanesift.plugin.PluginDescriptor;
 import org.lanesift.plugin.PluginProvider;
 import org.lanesift.plugin.PluginRegistry;
-import org.lanesift.plugin.PortSpec;
-import org.lanesift.plugin.SegmentSupport;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
 import org.lanesift.runner.capture.RawSource;
+import org.lanesift.runner.fakes.FakeEdges;
 
 /**
  * The segment being stitched is handed on while it is decoded: its blocks reach the outputs
@@ -34,58 +32,43 @@ class SegmentStreamingTest {
     @TempDir
     Path dir;
 
-    /** Edges of a square wave; a stage that did not start at frame 0 finishes only once the outputs have had a block. */
+    /**
+     * The test plugin {@code fake-edges} (crossings of 0.5 V), except that a stage that did not
+     * start at frame 0 finishes only once the outputs have had a block, or after 20 s with a problem
+     * noted.
+     */
     static final class HeldEdges implements PluginProvider {
+        final PluginProvider edges = new FakeEdges();
         final CountDownLatch handedOn = new CountDownLatch(1);
         final List<String> problems = new ArrayList<>();
 
         @Override
         public PluginDescriptor descriptor() {
-            return PluginDescriptor.builder("held-edges").name("Held edges")
-                    .input(PortSpec.of("in", DataKind.ANALOG, "voltage"))
-                    .output(PortSpec.of("out", DataKind.EDGES, "rising and falling crossings of 0.5 V"))
-                    .segments(o -> SegmentSupport.after(1, 0))
-                    .build();
+            return edges.descriptor();
         }
 
         @Override
-        public Stage open(StageContext ctx) {
+        public Stage open(StageContext ctx) throws Exception {
+            Stage inner = edges.open(ctx);
             return new Stage() {
                 long firstIndex = -1;
-                long endFs = Long.MIN_VALUE;
-                Boolean level;
 
                 @Override
-                public void accept(int input, Block block) {
-                    AnalogBlock a = (AnalogBlock) block;
+                public void accept(int input, Block block) throws Exception {
                     if (firstIndex < 0) {
-                        firstIndex = a.firstIndex();
+                        firstIndex = ((AnalogBlock) block).firstIndex();
                     }
-                    long[] t = new long[a.length()];
-                    int n = 0;
-                    boolean initial = level == null ? a.volts()[0] > 0.5 : level;
-                    boolean l = initial;
-                    long start = endFs == Long.MIN_VALUE ? a.startFs() : endFs;
-                    for (int i = 0; i < a.length(); i++) {
-                        boolean v = a.volts()[i] > 0.5;
-                        if (v != l) {
-                            t[n++] = Math.max(start, a.timeFs(i) - Math.round(a.periodFs() / 2));
-                            l = v;
-                        }
-                    }
-                    level = l;
-                    long end = a.timeFs(a.length() - 1) + Math.round(a.periodFs() / 2);
-                    ctx.emit(0, new Edges(a.channel(), start, end, initial, t, n, null, 0));
-                    endFs = end;
+                    inner.accept(input, block);
                 }
 
                 @Override
-                public void finish() throws InterruptedException {
+                public void finish() throws Exception {
                     if (firstIndex > 0 && !handedOn.await(20, TimeUnit.SECONDS)) {
                         synchronized (problems) {
                             problems.add("the segment from frame " + firstIndex + " finished with nothing handed on before it");
                         }
                     }
+                    inner.finish();
                 }
             };
         }
@@ -106,7 +89,7 @@ class SegmentStreamingTest {
         PluginRegistry registry = new PluginRegistry().add(new RawSource()).add(held);
         ChainSpec spec = new ChainSpec(List.of(
                 new ChainSpec.Node("cap", "raw", Map.of("file", bin.toString(), "blockSamples", 4096L)),
-                new ChainSpec.Node("e", "held-edges", Map.of())),
+                new ChainSpec.Node("e", "fake-edges", Map.of())),
                 List.of(new ChainSpec.Wire("cap.A", "e.in")));
         List<Edges> out = new ArrayList<>();
         SegmentedRun run = new SegmentedRun(SegmentPlan.of(spec, registry), registry, 2, 20_000,
