@@ -1,15 +1,18 @@
 package org.lanesift.runner.segments;
 
+import java.util.ArrayDeque;
 import java.util.ArrayList;
 import java.util.Arrays;
-import java.util.HashMap;
+import java.util.Comparator;
+import java.util.Deque;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
-import java.util.Set;
-import java.util.concurrent.ConcurrentHashMap;
+import java.util.PriorityQueue;
+import java.util.concurrent.ExecutionException;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.AnnotationSink;
 import org.lanesift.annotation.Field;
@@ -21,7 +24,6 @@ import org.lanesift.chain.ProgressListener;
 import org.lanesift.data.Artifact;
 import org.lanesift.data.BitSets;
 import org.lanesift.data.Block;
-import org.lanesift.data.DataKind;
 import org.lanesift.data.Edges;
 import org.lanesift.data.LogicBlock;
 import org.lanesift.plugin.PluginRegistry;
@@ -37,14 +39,10 @@ import org.lanesift.time.Femtos;
  * the two neighbouring segments are compared over {@code [T_k - V, T_k + V)}, where both are
  * past their warm-up and clear of their ends: every transition, unknown span, logic sample and
  * annotation there must be identical, or the run stops with an error naming the output and the
- * first difference. The back chain receives the kept streams and annotations in the order the
- * front emitted them, as one pass would have delivered them, only cut at the seams (which no
+ * first difference. The back chain then receives the kept streams in time order, exactly as one
+ * pass would have delivered the same signal, only cut into blocks at different places (which no
  * stage may depend on). Front artifacts must be identical in every segment and are written once.
- *
- * <p>The segment being stitched (the head) is handed on while its worker decodes it
- * ({@link SegmentFeed}): only the events around its first seam wait, until that seam is checked.
- * At most {@code jobs} segments run ahead of the head, each keeping its output until the head
- * reaches it, so memory stays bounded and most blocks die young (cheap to collect).
+ * At most {@code jobs + 1} segments are held at a time, so memory stays bounded.
  */
 public final class SegmentedRun {
     private final SegmentPlan plan;
@@ -58,13 +56,21 @@ public final class SegmentedRun {
     private final ProgressListener progress;
     private volatile boolean cancelled;
     private volatile Chain backChain;
-    private final Set<Chain> fronts = ConcurrentHashMap.newKeySet();
-    private final Set<SegmentFeed> feeds = ConcurrentHashMap.newKeySet();
+    private final java.util.Set<Chain> fronts = java.util.concurrent.ConcurrentHashMap.newKeySet();
     private int segmentsDone;
     private int segmentCount;
 
-    /** Unread events at which the worker of the segment being stitched waits for the stitching thread. */
-    private static final int FEED_LIMIT = 256;
+    /** What one front run produced. */
+    private static final class Result {
+        final int index;
+        final Map<String, List<Block>> blocks = new LinkedHashMap<>();
+        final List<String> annSources = new ArrayList<>();
+        final List<Annotation> anns = new ArrayList<>();
+
+        Result(int index) {
+            this.index = index;
+        }
+    }
 
     /**
      * Prepares a run.
@@ -146,9 +152,6 @@ public final class SegmentedRun {
         for (Chain f : fronts) {
             f.cancel();
         }
-        for (SegmentFeed f : feeds) {
-            f.cancel();
-        }
     }
 
     /**
@@ -181,24 +184,27 @@ public final class SegmentedRun {
             t.setDaemon(true);
             return t;
         });
-        SegmentFeed[] bySegment = new SegmentFeed[segmentCount];
         try (Chain back = bb.build()) {
             backChain = back;
-            Map<String, Artifact> artifacts = new LinkedHashMap<>();
-            Seam seam = null;
+            Deque<Future<Result>> inFlight = new ArrayDeque<>();
             int next = 0;
-            for (int k = 0; k < segmentCount && !cancelled; k++) {
-                // the head and at most jobs segments ahead of it: bounded memory
-                while (next < segmentCount && next <= k + jobs) {
-                    int s = next++;
-                    SegmentFeed f = new SegmentFeed(FEED_LIMIT);
-                    bySegment[s] = f;
-                    feeds.add(f);
-                    pool.submit(() -> decode(s, f));
+            Result prev = null;
+            Map<String, Artifact> artifacts = new LinkedHashMap<>();
+            while ((next < segmentCount || !inFlight.isEmpty()) && !cancelled) {
+                while (next < segmentCount && inFlight.size() <= jobs) {
+                    int k = next++;
+                    inFlight.add(pool.submit(() -> decode(k)));
                 }
-                seam = stitch(k, bySegment[k], seam, back, artifacts);
-                feeds.remove(bySegment[k]);
-                bySegment[k] = null;
+                Result r = await(inFlight.poll());
+                collectArtifacts(r, artifacts);
+                if (prev != null) {
+                    compare(prev, r);
+                    deliver(prev, back);
+                }
+                prev = r;
+            }
+            if (prev != null && !cancelled) {
+                deliver(prev, back);
             }
             if (!cancelled) {
                 for (SegmentPlan.Port p : plan.ports) {
@@ -211,10 +217,25 @@ public final class SegmentedRun {
             back.finish();
         } finally {
             backChain = null;
-            for (SegmentFeed f : feeds) {
-                f.cancel();
-            }
             pool.shutdownNow();
+        }
+    }
+
+    private static Result await(Future<Result> f) {
+        try {
+            return f.get();
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new SegmentException("interrupted while waiting for a segment");
+        } catch (ExecutionException e) {
+            Throwable c = e.getCause();
+            if (c instanceof RuntimeException re) {
+                throw re;
+            }
+            if (c instanceof Error er) {
+                throw er;
+            }
+            throw new SegmentException(String.valueOf(c));
         }
     }
 
@@ -231,250 +252,81 @@ public final class SegmentedRun {
         return k + 1 >= segmentCount ? Long.MAX_VALUE : plan.layout.timeOf(frameOf(k + 1));
     }
 
-    /** Runs the front chain over segment k and its margins, handing what it emits to the feed. */
-    private void decode(int k, SegmentFeed feed) {
-        Throwable failure = null;
-        try {
-            long first = Math.max(0, frameOf(k) - marginFrames);
-            long end = Math.min(plan.layout.frames(), frameOf(k + 1) + marginFrames);
-            List<ChainSpec.Node> nodes = new ArrayList<>();
-            for (ChainSpec.Node n : plan.front.nodes()) {
-                if (n.id().equals(plan.sourceId)) {
-                    Map<String, Object> o = new LinkedHashMap<>(n.options());
-                    o.put("firstFrame", first);
-                    o.put("frameCount", Math.max(1, end - first));
-                    n = new ChainSpec.Node(n.id(), n.plugin(), o);
-                }
-                nodes.add(n);
+    /** Runs the front chain over segment k and its margins. */
+    private Result decode(int k) {
+        long first = Math.max(0, frameOf(k) - marginFrames);
+        long end = Math.min(plan.layout.frames(), frameOf(k + 1) + marginFrames);
+        List<ChainSpec.Node> nodes = new ArrayList<>();
+        for (ChainSpec.Node n : plan.front.nodes()) {
+            if (n.id().equals(plan.sourceId)) {
+                Map<String, Object> o = new LinkedHashMap<>(n.options());
+                o.put("firstFrame", first);
+                o.put("frameCount", Math.max(1, end - first));
+                n = new ChainSpec.Node(n.id(), n.plugin(), o);
             }
-            Map<String, Integer> portIndex = new HashMap<>();
-            for (int i = 0; i < plan.ports.size(); i++) {
-                portIndex.put(plan.ports.get(i).key(), i);
-            }
-            ChainBuilder b = ChainBuilder.fromSpec(new ChainSpec(nodes, plan.front.wires()), registry)
-                    .outputs((id, port, block) -> feed.add(new SegmentFeed.Out(portIndex.get(id + "." + port), block)))
-                    .annotations((src, a) -> feed.add(new SegmentFeed.Note(src, a)));
-            if (!cancelled) {
-                try (Chain c = b.build()) {
-                    fronts.add(c);
-                    try {
-                        c.run();
-                    } finally {
-                        fronts.remove(c);
-                    }
-                }
-            }
-        } catch (RuntimeException | Error e) {
-            failure = e;
-        } finally {
-            feed.finish(failure);
+            nodes.add(n);
         }
-    }
-
-    /**
-     * The check of one seam, between the segment before it (complete: its blocks and annotations
-     * around the seam) and the segment after it, whose events are checked while they arrive.
-     */
-    private final class Seam {
-        final long seamFs;
-        final long z0;
-        final long z1;
-        final List<List<Block>> earlier = new ArrayList<>();
-        final List<String> earlierNotes = new ArrayList<>();
-        final List<List<Block>> later = new ArrayList<>();
-        final List<String> laterNotes = new ArrayList<>();
-        /** Earlier annotations in the zone that the later segment has not matched yet, once checked. */
-        Map<String, Integer> unmatched;
-
-        Seam(long seamFs) {
-            this.seamFs = seamFs;
-            this.z0 = seamFs - zoneFs;
-            this.z1 = seamFs + zoneFs;
-            for (int i = 0; i < plan.ports.size(); i++) {
-                earlier.add(new ArrayList<>());
-                later.add(new ArrayList<>());
-            }
-        }
-
-        boolean overlaps(Block b) {
-            return b.startFs() < z1 && Math.max(b.endFs(), b.startFs() + 1) > z0;
-        }
-
-        boolean overlaps(Annotation a) {
-            return a.startFs() < z1 && Math.max(a.endFs(), a.startFs() + 1) > z0;
-        }
-
-        /** Compares the streams and the annotations seen so far; later annotations are matched one by one. */
-        void check() {
-            for (int i = 0; i < plan.ports.size(); i++) {
-                SegmentPlan.Port p = plan.ports.get(i);
-                if (p.kind() == DataKind.ARTIFACT) {
-                    continue;
-                }
-                String da = Streams.describe(earlier.get(i), z0, z1);
-                String db = Streams.describe(later.get(i), z0, z1);
-                if (!da.equals(db)) {
-                    throw seamError(seamFs, "output '" + p.key() + "'", Streams.firstDifference(da, db));
-                }
-                earlier.get(i).clear();
-                later.get(i).clear();
-            }
-            unmatched = new HashMap<>();
-            for (String n : earlierNotes) {
-                unmatched.merge(n, 1, Integer::sum);
-            }
-            for (String n : laterNotes) {
-                match(n);
-            }
-        }
-
-        /** A later annotation in the zone: the earlier segment must have had it too. */
-        void match(String note) {
-            Integer c = unmatched.get(note);
-            if (c == null) {
-                List<String> a = new ArrayList<>(earlierNotes);
-                a.sort(null);
-                throw seamError(seamFs, "the annotations", Streams.firstDifference(String.join("\n", a), note));
-            }
-            if (c == 1) {
-                unmatched.remove(note);
-            } else {
-                unmatched.put(note, c - 1);
-            }
-        }
-
-        /** At the end of the later segment: every earlier annotation in the zone was matched. */
-        void close() {
-            if (!unmatched.isEmpty()) {
-                List<String> a = new ArrayList<>(unmatched.keySet());
-                a.sort(null);
-                throw seamError(seamFs, "the annotations", "earlier segment: " + Streams.abbreviate(a.get(0))
-                        + "; later segment: (nothing)");
-            }
-        }
-    }
-
-    /**
-     * Takes segment k's events as they come: checks its starting seam against the segment before
-     * (holding only the events of the zone until then), sends its kept range on, and collects
-     * what the next seam's check needs.
-     *
-     * @return the next seam, its earlier side filled in, or null after the last segment
-     */
-    private Seam stitch(int k, SegmentFeed feed, Seam seam, Chain back, Map<String, Artifact> artifacts) {
-        long from = keepFrom(k);
-        long to = keepTo(k);
-        Seam ahead = k + 1 < segmentCount ? new Seam(to) : null;
-        boolean checked = seam == null;
-        List<Object> pending = new ArrayList<>();
-        boolean[] past = new boolean[plan.ports.size()];
-        int streams = 0;
-        for (SegmentPlan.Port p : plan.ports) {
-            streams += p.kind() == DataKind.ARTIFACT ? 0 : 1;
-        }
-        int pastCount = 0;
-        feed.attach();
-        Object e;
-        while ((e = feed.next()) != null && !cancelled) {
-            if (e instanceof SegmentFeed.Out o) {
-                SegmentPlan.Port p = plan.ports.get(o.port());
-                Block blk = o.block();
-                if (p.kind() == DataKind.ARTIFACT) {
-                    mergeArtifact(k, p, (Artifact) blk, artifacts);
-                    continue;
-                }
-                if (ahead != null && ahead.overlaps(blk)) {
-                    ahead.earlier.get(o.port()).add(blk);
-                }
-                Block kept = Streams.clip(blk, from, to);
-                if (checked) {
-                    if (kept != null) {
-                        send(p, kept, back);
-                    }
-                    continue;
-                }
-                if (seam.overlaps(blk)) {
-                    seam.later.get(o.port()).add(blk);
-                }
-                if (kept != null) {
-                    pending.add(new SegmentFeed.Out(o.port(), kept));
-                }
-                if (!past[o.port()] && blk.startFs() >= seam.z1) {
-                    past[o.port()] = true;
-                    pastCount++;
-                }
-                if (pastCount == streams) {
-                    seam.check();
-                    checked = true;
-                    flush(pending, back);
-                }
-            } else {
-                SegmentFeed.Note n = (SegmentFeed.Note) e;
-                Annotation a = n.annotation();
-                if (ahead != null && ahead.overlaps(a)) {
-                    ahead.earlierNotes.add(n.source() + " " + canonical(a));
-                }
-                if (seam != null && seam.overlaps(a)) {
-                    if (checked) {
-                        seam.match(n.source() + " " + canonical(a));
-                    } else {
-                        seam.laterNotes.add(n.source() + " " + canonical(a));
-                    }
-                }
-                if (a.startFs() >= from && a.startFs() < to) {
-                    if (checked) {
-                        annotations.accept(n.source(), a);
-                    } else {
-                        pending.add(n);
-                    }
-                }
-            }
-        }
+        Result r = new Result(k);
+        ChainBuilder b = ChainBuilder.fromSpec(new ChainSpec(nodes, plan.front.wires()), registry)
+                .outputs((id, port, block) -> r.blocks.computeIfAbsent(id + "." + port, x -> new ArrayList<>()).add(block))
+                .annotations((src, a) -> {
+                    r.annSources.add(src);
+                    r.anns.add(a);
+                });
         if (cancelled) {
-            return null;
+            return r;
         }
-        if (!checked) {
-            seam.check();
-            flush(pending, back);
-        }
-        if (seam != null) {
-            seam.close();
-        }
-        segmentsDone++;
-        progress.progress(Math.min(plan.layout.frames(), (long) segmentsDone * segmentFrames), plan.layout.frames());
-        return ahead;
-    }
-
-    private void flush(List<Object> pending, Chain back) {
-        for (Object e : pending) {
-            if (e instanceof SegmentFeed.Out o) {
-                send(plan.ports.get(o.port()), o.block(), back);
-            } else {
-                SegmentFeed.Note n = (SegmentFeed.Note) e;
-                annotations.accept(n.source(), n.annotation());
+        try (Chain c = b.build()) {
+            fronts.add(c);
+            try {
+                c.run();
+            } finally {
+                fronts.remove(c);
             }
         }
-        pending.clear();
+        return r;
     }
 
-    private void send(SegmentPlan.Port p, Block b, Chain back) {
-        if (p.backTargets().isEmpty()) {
-            outputs.accept(p.node(), p.port(), b);
-        } else {
-            back.push(p.inputId(), b);
+    private void collectArtifacts(Result r, Map<String, Artifact> merged) {
+        for (SegmentPlan.Port p : plan.ports) {
+            if (p.kind() != org.lanesift.data.DataKind.ARTIFACT) {
+                continue;
+            }
+            for (Block blk : r.blocks.getOrDefault(p.key(), List.of())) {
+                Artifact a = (Artifact) blk;
+                Artifact m = merged.get(p.key());
+                if (m == null) {
+                    merged.put(p.key(), a);
+                } else if (!m.fileName().equals(a.fileName()) || !Arrays.equals(m.content(), a.content())) {
+                    throw new SegmentException("output '" + p.key() + "': artifact " + a.fileName() + " of segment " + r.index
+                            + " differs from the one of segment 0, so it depends on where the capture was cut; decode without --jobs");
+                } else {
+                    merged.put(p.key(), new Artifact(m.channel(), Math.min(m.startFs(), a.startFs()), Math.max(m.endFs(), a.endFs()),
+                            m.fileName(), m.mediaType(), m.content()));
+                }
+            }
         }
     }
 
-    private void mergeArtifact(int k, SegmentPlan.Port p, Artifact a, Map<String, Artifact> merged) {
-        Artifact m = merged.get(p.key());
-        if (m == null) {
-            merged.put(p.key(), a);
-        } else if (!m.fileName().equals(a.fileName()) || !Arrays.equals(m.content(), a.content())) {
-            throw new SegmentException("output '" + p.key() + "': artifact " + a.fileName() + " of segment " + k
-                    + " differs from the one of segment 0, so it depends on where the capture was cut; decode without --jobs");
-        } else {
-            merged.put(p.key(), new Artifact(m.channel(), Math.min(m.startFs(), a.startFs()), Math.max(m.endFs(), a.endFs()),
-                    m.fileName(), m.mediaType(), m.content()));
+    /** Checks that segments a and b (= a + 1) agree around their seam. */
+    private void compare(Result a, Result b) {
+        long seam = keepFrom(b.index);
+        long z0 = seam - zoneFs;
+        long z1 = seam + zoneFs;
+        for (SegmentPlan.Port p : plan.ports) {
+            if (p.kind() == org.lanesift.data.DataKind.ARTIFACT) {
+                continue;
+            }
+            String da = Streams.describe(a.blocks.getOrDefault(p.key(), List.of()), z0, z1);
+            String db = Streams.describe(b.blocks.getOrDefault(p.key(), List.of()), z0, z1);
+            if (!da.equals(db)) {
+                throw seamError(seam, "output '" + p.key() + "'", Streams.firstDifference(da, db));
+            }
+        }
+        List<String> aa = annotationsIn(a, z0, z1);
+        List<String> ab = annotationsIn(b, z0, z1);
+        if (!aa.equals(ab)) {
+            throw seamError(seam, "the annotations", Streams.firstDifference(String.join("\n", aa), String.join("\n", ab)));
         }
     }
 
@@ -482,6 +334,18 @@ public final class SegmentedRun {
         return new SegmentException("the segments meeting at " + Femtos.format(seam) + " disagree on " + what + " within "
                 + Femtos.format(zoneFs) + " of the seam (" + diff + "): some instance keeps state longer than it declares;"
                 + " decode without --jobs");
+    }
+
+    private static List<String> annotationsIn(Result r, long z0, long z1) {
+        List<String> l = new ArrayList<>();
+        for (int i = 0; i < r.anns.size(); i++) {
+            Annotation a = r.anns.get(i);
+            if (a.startFs() < z1 && Math.max(a.endFs(), a.startFs() + 1) > z0) {
+                l.add(r.annSources.get(i) + " " + canonical(a));
+            }
+        }
+        l.sort(null);
+        return l;
     }
 
     static String canonical(Annotation a) {
@@ -494,6 +358,55 @@ public final class SegmentedRun {
                     .append(e.getValue().unit());
         }
         return s.toString();
+    }
+
+    /** Sends segment r's kept range on: its annotations, then its streams in time order. */
+    private void deliver(Result r, Chain back) {
+        long from = keepFrom(r.index);
+        long to = keepTo(r.index);
+        for (int i = 0; i < r.anns.size(); i++) {
+            Annotation a = r.anns.get(i);
+            if (a.startFs() >= from && a.startFs() < to) {
+                annotations.accept(r.annSources.get(i), a);
+            }
+        }
+        record Item(SegmentPlan.Port port, Block block) {
+        }
+        PriorityQueue<Item> q = new PriorityQueue<>(Comparator.comparingLong((Item i) -> i.block().startFs()));
+        Map<String, Deque<Block>> queues = new LinkedHashMap<>();
+        for (SegmentPlan.Port p : plan.ports) {
+            if (p.kind() == org.lanesift.data.DataKind.ARTIFACT) {
+                continue;
+            }
+            Deque<Block> kept = new ArrayDeque<>();
+            for (Block b : r.blocks.getOrDefault(p.key(), List.of())) {
+                Block s = Streams.clip(b, from, to);
+                if (s != null) {
+                    kept.add(s);
+                }
+            }
+            queues.put(p.key(), kept);
+            Block h = kept.poll();
+            if (h != null) {
+                q.add(new Item(p, h));
+            }
+        }
+        while (!q.isEmpty() && !cancelled) {
+            Item i = q.poll();
+            SegmentPlan.Port p = i.port();
+            if (p.backTargets().isEmpty()) {
+                outputs.accept(p.node(), p.port(), i.block());
+            } else {
+                back.push(p.inputId(), i.block());
+            }
+            Block h = queues.get(p.key()).poll();
+            if (h != null) {
+                q.add(new Item(p, h));
+            }
+        }
+        r.blocks.clear();
+        segmentsDone++;
+        progress.progress(Math.min(plan.layout.frames(), (long) segmentsDone * segmentFrames), plan.layout.frames());
     }
 
 
@@ -605,7 +518,7 @@ public final class SegmentedRun {
             return "same text";
         }
 
-        static String abbreviate(String s) {
+        private static String abbreviate(String s) {
             return s.length() > 160 ? s.substring(0, 160) + "..." : s;
         }
     }
