@@ -1,41 +1,54 @@
 #!/usr/bin/env bash
 # Multi-core check (not a unit test): decodes a generated pixel-link capture from disk in one pass
-# and in segments on two threads (run --jobs 2), both with a 256 MB heap; reports both times, their
-# ratio measured in this one run, the peak heaps, and whether every output file is the same.
-# Usage: bench/scripts/segments.sh [GIGABYTES] [WORKDIR]
+# and in segments on two threads (run --jobs 2), both with a 256 MB heap, RUNS times, alternating.
+# For every run: wall time, CPU time (user + sys, all threads: JIT and GC included) and peak heap
+# of each; the speed-up (wall) and the CPU ratio of that run; whether every output file is the
+# same. Then min / median / max of both ratios, and the load average (a shared machine: other
+# work on it slows the two-thread run more than the one-pass run).
+# Usage: bench/scripts/segments.sh [GIGABYTES] [WORKDIR] [RUNS]
 set -euo pipefail
 cd "$(dirname "$0")/../.."
 GB="${1:-2.1}"
 WORK="${2:-$(mktemp -d /tmp/lanesift-segments.XXXXXX)}"
+RUNS="${3:-3}"
 mkdir -p "$WORK"
 ./lanesift --version >/dev/null            # builds dist/target/lanesift.jar if needed
 JAR=dist/target/lanesift.jar
 [ -f "$WORK/long.bin" ] || java -cp "$JAR" org.lanesift.examples.demo.LongCapture "$WORK/long.bin" "$GB"
 cp examples/chains/segments-pixel-link.json "$WORK/chain.json"
-decode() { # name, extra args...
+decode() { # name, extra args... -> "$WORK/$name.t": wall cpu peakMB
   local name="$1"; shift
   rm -rf "$WORK/$name"
-  local start end
-  start=$(date +%s.%N)
-  /usr/bin/env time -v java -Xmx256m -Xlog:gc:file="$WORK/$name-gc.log" -jar "$JAR" --quiet run "$WORK/chain.json" \
-    --out "$WORK/$name" "$@" 2> "$WORK/$name-time.txt" || { cat "$WORK/$name-time.txt"; exit 1; }
-  end=$(date +%s.%N)
-  echo "$end - $start" | bc > "$WORK/$name-seconds"
+  /usr/bin/env time -f '%e %U %S' -o "$WORK/$name-time.txt" java -Xmx256m -Xlog:gc:file="$WORK/$name-gc.log" -jar "$JAR" \
+    --quiet run "$WORK/chain.json" --out "$WORK/$name" "$@" || { cat "$WORK/$name-time.txt"; exit 1; }
+  local peak
+  peak=$(grep -oE '[0-9]+M->[0-9]+M' "$WORK/$name-gc.log" | sed -E 's/M->.*//' | sort -n | tail -1)
+  awk -v p="${peak:-0}" '{printf "%s %.2f %s\n", $1, $2 + $3, p}' "$WORK/$name-time.txt" > "$WORK/$name.t"
 }
-echo "load before: $(cut -d' ' -f1-3 /proc/loadavg)"
-decode one
-decode two --jobs 2
-echo "load after: $(cut -d' ' -f1-3 /proc/loadavg)"
-same=yes
-for f in $(ls "$WORK/one"); do
-  case "$f" in
-    report.md) cmp -s <(grep -v ', started ' "$WORK/one/$f") <(grep -v ', started ' "$WORK/two/$f") || { same="no ($f)"; } ;;
-    signals.vcd) cmp -s <(tail -n +4 "$WORK/one/$f") <(tail -n +4 "$WORK/two/$f") || { same="no ($f)"; } ;;
-    *) cmp -s "$WORK/one/$f" "$WORK/two/$f" || { same="no ($f)"; } ;;
-  esac
+same() {
+  local s=yes f
+  for f in $(ls "$WORK/one"); do
+    case "$f" in
+      report.md) cmp -s <(grep -v ', started ' "$WORK/one/$f") <(grep -v ', started ' "$WORK/two/$f") || s="no ($f)" ;;
+      signals.vcd) cmp -s <(tail -n +4 "$WORK/one/$f") <(tail -n +4 "$WORK/two/$f") || s="no ($f)" ;;
+      *) cmp -s "$WORK/one/$f" "$WORK/two/$f" || s="no ($f)" ;;
+    esac
+  done
+  echo "$s"
+}
+echo "capture $(du -h "$WORK/long.bin" | cut -f1); load before: $(cut -d' ' -f1-3 /proc/loadavg)"
+: > "$WORK/ratios"
+for i in $(seq 1 "$RUNS"); do
+  decode one
+  decode two --jobs 2
+  read -r w1 c1 p1 < "$WORK/one.t"
+  read -r w2 c2 p2 < "$WORK/two.t"
+  sp=$(echo "$w1 / $w2" | bc -l); cr=$(echo "$c2 / $c1" | bc -l)
+  echo "$sp $cr" >> "$WORK/ratios"
+  printf 'run %d: one pass %.1f s wall, %.1f s CPU, peak heap %s MB; --jobs 2 %.1f s wall, %.1f s CPU, peak heap %s MB;' \
+    "$i" "$w1" "$c1" "$p1" "$w2" "$c2" "$p2"
+  printf ' speed-up %.2f, CPU ratio %.2f; same outputs: %s; load %s\n' "$sp" "$cr" "$(same)" "$(cut -d' ' -f1 /proc/loadavg)"
 done
-peak() { grep -oE '[0-9]+M->[0-9]+M' "$1" | sed -E 's/M->.*//' | sort -n | tail -1; }
-t1=$(cat "$WORK/one-seconds"); t2=$(cat "$WORK/two-seconds")
-printf 'capture %s: one pass %.1f s (peak heap %s MB), --jobs 2 %.1f s (peak heap %s MB); speed-up %.2f; same outputs: %s\n' \
-  "$(du -h "$WORK/long.bin" | cut -f1)" "$t1" "$(peak "$WORK/one-gc.log")" "$t2" "$(peak "$WORK/two-gc.log")" \
-  "$(echo "$t1 / $t2" | bc -l)" "$same"
+sort -n "$WORK/ratios" | awk '{a[NR]=$1} END {printf "speed-up (wall): min %.2f / median %.2f / max %.2f\n", a[1], a[int((NR+1)/2)], a[NR]}'
+sort -k2 -n "$WORK/ratios" | awk '{a[NR]=$2} END {printf "CPU --jobs 2 / one pass: min %.2f / median %.2f / max %.2f\n", a[1], a[int((NR+1)/2)], a[NR]}'
+echo "load after: $(cut -d' ' -f1-3 /proc/loadavg)"

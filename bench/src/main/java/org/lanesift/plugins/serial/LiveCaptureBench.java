@@ -52,7 +52,9 @@ import org.openjdk.jmh.annotations.Warmup;
  * upper bound; run with {@code -jvmArgsAppend -Xmx64m} to see that a small heap suffices). The
  * simulator runs in the same JVM and takes CPU a real device would not. Its samples make about 2
  * transitions per sample over the 8 channels (channel 0 toggles at nearly every sample), a worst
- * case for the edge decode.
+ * case for the edge decode. The CPU time of the capture and decode threads is printed too (with
+ * the rate each would reach on a core of its own), since wall-clock rates on a shared machine say
+ * more about the other users than about the code.
  */
 @State(Scope.Benchmark)
 @BenchmarkMode(Mode.SingleShotTime)
@@ -95,8 +97,11 @@ public class LiveCaptureBench {
     @Benchmark
     public long captureOnly() throws Exception {
         long t0 = System.nanoTime();
+        long cpu0 = ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime();
         Capture.Result r = capture(dir, megabytes);
+        long cpuNs = ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime() - cpu0;
         report("captureOnly", r.bytes(), System.nanoTime() - t0, -1, -1, -1);
+        cpu("captureOnly", r.bytes(), cpuNs, -1);
         return r.bytes();
     }
 
@@ -119,6 +124,7 @@ public class LiveCaptureBench {
         AtomicReference<Throwable> failed = new AtomicReference<>();
         Chain chain = decodeChain(dir, true, decodedSamples, edges);
         long[] decodeEnd = {0};
+        long[] decodeCpuNs = {0};
         Thread decode = new Thread(() -> {
             try {
                 chain.run();
@@ -126,6 +132,7 @@ public class LiveCaptureBench {
                 failed.set(t);
             } finally {
                 decodeEnd[0] = System.nanoTime();
+                decodeCpuNs[0] = ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime();
                 chain.close();
             }
         }, "bench-decode");
@@ -156,8 +163,10 @@ public class LiveCaptureBench {
         }, "bench-lag");
         watch.setDaemon(true);
         watch.start();
+        long captureCpu0 = ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime();
         res[0] = c.run();
         long captureEnd = System.nanoTime();
+        long captureCpuNs = ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime() - captureCpu0;
         long lagAtEnd = res[0].bytes() - spoolBytesOf(decodedSamples.get());
         maxLag[0] = Math.max(maxLag[0], lagAtEnd);
         decode.join();
@@ -179,6 +188,7 @@ public class LiveCaptureBench {
         System.out.printf(Locale.ROOT, "    edges %d (%.2f per sample), lag max in the second half of the capture %.1f MB,"
                 + " decode finished %.0f ms after the capture%n", edges.get(), edges.get() / (double) want, lateMax / 1e6,
                 (decodeEnd[0] - captureEnd) / 1e6);
+        cpu(what, res[0].bytes(), captureCpuNs, decodeCpuNs[0]);
         return edges.get();
     }
 
@@ -186,12 +196,15 @@ public class LiveCaptureBench {
     @Benchmark
     public long replayDecode() {
         long t0 = System.nanoTime();
+        long cpu0 = ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime();
         AtomicLong decodedSamples = new AtomicLong();
         AtomicLong edges = new AtomicLong();
         try (Chain chain = decodeChain(replay, false, decodedSamples, edges)) {
             chain.run();
         }
+        long cpuNs = ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime() - cpu0;
         report("replayDecode", spoolBytesOf(decodedSamples.get()), -1, System.nanoTime() - t0, -1, -1);
+        cpu("replayDecode", spoolBytesOf(decodedSamples.get()), -1, cpuNs);
         return edges.get();
     }
 
@@ -244,6 +257,23 @@ public class LiveCaptureBench {
 
     static Capture.Result capture(Path spool, int megabytes) throws IOException {
         return new Capture(simulator(megabytes, false), spool, settings()).run();
+    }
+
+    /**
+     * CPU time of the capture thread and of the decode thread, and the rate each would reach on a
+     * core of its own: figures that a busy machine changes far less than the wall-clock rates.
+     */
+    static void cpu(String what, long bytes, long captureCpuNs, long decodeCpuNs) {
+        StringBuilder sb = new StringBuilder("    " + what + " cpu:");
+        if (captureCpuNs >= 0) {
+            sb.append(String.format(Locale.ROOT, " capture thread %.2f s (%.0f MB per CPU second)", captureCpuNs / 1e9,
+                    bytes / 1e3 / (captureCpuNs / 1e6)));
+        }
+        if (decodeCpuNs > 0) {
+            sb.append(String.format(Locale.ROOT, " decode thread %.2f s (%.0f MB per CPU second)", decodeCpuNs / 1e9,
+                    bytes / 1e3 / (decodeCpuNs / 1e6)));
+        }
+        System.out.println(sb);
     }
 
     static void report(String what, long bytes, long captureNs, long decodeNs, long maxLag, long lagAtEnd) {

@@ -110,13 +110,13 @@ public final class LiveTool implements Tool {
             }
         }, "live-stop");
         Runtime.getRuntime().addShutdownHook(hook);
+        // the capture refuses an --out that is not new or empty, and the decode writes into --out/decoded:
+        // the decode starts once the capture has put its first file there (it has then taken the folder
+        // as its spool), or has ended. The file system tells us (a watch on the folder), no polling.
+        SpoolStart start = SpoolStart.watch(dir);
         capThread.start();
         try {
-            // the capture refuses an --out that is not new or empty, and the decode writes into --out/decoded:
-            // the decode starts only once the capture has begun its spool there (or has ended)
-            while (capThread.isAlive() && !hasEntries(dir)) {
-                Thread.sleep(5);
-            }
+            start.await(capThread);
             if (captureFailure.get() == null && (capThread.isAlive() || captureCode.get() == 0)) {
                 chainThread.start();
             }
@@ -128,6 +128,7 @@ public final class LiveTool implements Tool {
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();
         } finally {
+            start.close(captureCode.get() != 0);
             try {
                 Runtime.getRuntime().removeShutdownHook(hook);
             } catch (IllegalStateException shuttingDown) {
@@ -175,13 +176,5 @@ public final class LiveTool implements Tool {
             throw new InputFormatException("--chain " + chain + " /nodes: no node with plugin 'spool'; a live chain reads the capture through one");
         }
         return ids;
-    }
-
-    private static boolean hasEntries(Path dir) {
-        try (var files = Files.list(dir)) {
-            return files.findAny().isPresent();
-        } catch (java.io.IOException e) {
-            return false; // not created yet
-        }
     }
 }

@@ -33,7 +33,8 @@ import org.lanesift.time.Femtos;
  * Decodes a raw capture in time segments on several threads and stitches them exactly.
  *
  * <p>Segment {@code k} covers frames {@code [k L, (k+1) L)}; its front chain reads a margin of
- * {@code M} frames (warm-up plus one comparison block) on either side. Each front output is kept
+ * {@code M} frames on either side: the warm-up plus a comparison zone {@code V} at least as long,
+ * rounded up to whole blocks so that every segment cuts its blocks where one pass does. Each front output is kept
  * from time {@code T_k} (the segment's first frame) to {@code T_{k+1}}. Before a seam is crossed,
  * the two neighbouring segments are compared over {@code [T_k - V, T_k + V)}, where both are
  * past their warm-up and clear of their ends: every transition, unknown span, logic sample and
@@ -96,15 +97,16 @@ public final class SegmentedRun {
         long b = plan.layout.blockFrames();
         double p = plan.layout.periodFs();
         long warmFrames = (long) Math.ceil(plan.warmupFs / p);
-        // the comparison zone: one block either side of a seam, at least the warm-up
-        long zoneFrames = roundUp(Math.max(b, warmFrames), b);
-        this.marginFrames = roundUp(warmFrames, b) + zoneFrames;
+        // the margin: the warm-up plus a comparison zone at least as long, in whole blocks (so that
+        // the segments cut their blocks where one pass does); the zone is the rest of the margin
+        this.marginFrames = roundUp(2 * Math.max(1, warmFrames), b);
+        long zoneFrames = marginFrames - warmFrames;
         this.zoneFs = (long) Math.floor(zoneFrames * p) - 1;
         long dflt = Math.max(8 * marginFrames, 64 * b);
         long l = segmentFrames > 0 ? roundUp(segmentFrames, b) : dflt;
         if (l < 2 * marginFrames) {
             throw new SegmentException("--segment-frames " + segmentFrames + " is shorter than twice the margin of " + marginFrames
-                    + " frames each segment needs (warm-up " + Femtos.format(plan.warmupFs) + " plus one block either side)");
+                    + " frames each segment needs (warm-up " + Femtos.format(plan.warmupFs) + " plus a comparison zone, in whole blocks)");
         }
         this.segmentFrames = l;
     }
