@@ -31,7 +31,7 @@ class NumberStyleSpellingTest {
         Random r = new Random(19);
         int[] sig = {1, 3, 6, 9, 17};
         int[] dec = {0, 3, 6, 17};
-        for (int i = 0; i < 20_000; i++) {
+        for (int i = 0; i < 4_000; i++) {
             double v = switch (i % 4) {
                 case 0 -> r.nextGaussian();
                 case 1 -> (r.nextBoolean() ? 1 : -1) * r.nextDouble() * Math.pow(10, r.nextInt(60) - 30);
