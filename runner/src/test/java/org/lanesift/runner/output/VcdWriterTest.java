@@ -117,24 +117,30 @@ class VcdWriterTest {
         LogicBlock withX = new LogicBlock("d", 0, 0, whole.periodFs(), whole.bits(), 900, inv);
         Edges clk = Synth.clock("c", 2e6, 0.5, 1_000_000L, 200);
         Path dir = Files.createTempDirectory("vcdprop");
-        Path one = dir.resolve("one.vcd");
-        VcdWriter a = new VcdWriter(one, dir.resolve("s1"), "t");
-        a.logic("x", "d", withX);
-        a.edges("x", "c", clk);
-        a.close();
-        int c1 = Math.min(cut1, cut2);
-        int c2 = Math.max(cut1, cut2);
-        Path many = dir.resolve("many.vcd");
-        VcdWriter b = new VcdWriter(many, dir.resolve("s2"), "t");
-        int[] sizes = c1 == c2 ? new int[] {c1, 900 - c1} : new int[] {c1, c2 - c1, 900 - c2};
-        for (LogicBlock part : Synth.split(withX, sizes)) {
-            b.logic("x", "d", part);
+        try {
+            Path one = dir.resolve("one.vcd");
+            VcdWriter a = new VcdWriter(one, dir.resolve("s1"), "t");
+            a.logic("x", "d", withX);
+            a.edges("x", "c", clk);
+            a.close();
+            int c1 = Math.min(cut1, cut2);
+            int c2 = Math.max(cut1, cut2);
+            Path many = dir.resolve("many.vcd");
+            VcdWriter b = new VcdWriter(many, dir.resolve("s2"), "t");
+            int[] sizes = c1 == c2 ? new int[] {c1, 900 - c1} : new int[] {c1, c2 - c1, 900 - c2};
+            for (LogicBlock part : Synth.split(withX, sizes)) {
+                b.logic("x", "d", part);
+            }
+            for (Edges part : Synth.split(clk, c1 * 1_000_000L, c2 * 1_000_000L + 1)) {
+                b.edges("x", "c", part);
+            }
+            b.close();
+            assertEquals(bodyAfterDefinitions(one), bodyAfterDefinitions(many));
+        } finally {
+            try (var walk = Files.walk(dir)) { // a property has no @TempDir: remove the folder of each try
+                walk.sorted(java.util.Comparator.reverseOrder()).forEach(p -> p.toFile().delete());
+            }
         }
-        for (Edges part : Synth.split(clk, c1 * 1_000_000L, c2 * 1_000_000L + 1)) {
-            b.edges("x", "c", part);
-        }
-        b.close();
-        assertEquals(bodyAfterDefinitions(one), bodyAfterDefinitions(many));
     }
 
     /** Open file descriptors of this process (Linux), or -1 elsewhere. */

@@ -11,6 +11,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.Random;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.Artifact;
@@ -152,8 +153,7 @@ class SkewGuardsTest {
     }
 
     @Test
-    void deskewReportsASuspectRowWhenItAppliesIt() throws Exception {
-        java.nio.file.Path dir = java.nio.file.Files.createTempDirectory("skew-guards");
+    void deskewReportsASuspectRowWhenItAppliesIt(@TempDir java.nio.file.Path dir) throws Exception {
         java.nio.file.Path f = dir.resolve("t.json");
         SkewTable t = new SkewTable("lanes", List.of(new SkewTable.Entry("A", 0, 1, "reference", 0),
                 new SkewTable.Entry("B", 120.5, 0.93, "lanes", 5000, "ambiguous: transitions fall in 2 clusters")));
@@ -172,8 +172,7 @@ class SkewGuardsTest {
     }
 
     @Test
-    void aMissingTableNamesTheFolderItLookedIn() throws Exception {
-        java.nio.file.Path dir = java.nio.file.Files.createTempDirectory("skew-guards");
+    void aMissingTableNamesTheFolderItLookedIn(@TempDir java.nio.file.Path dir) throws Exception {
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class, () -> SkewTable.read(dir.resolve("none.json")));
         assertTrue(e.getMessage().contains("looked in folder " + dir.toAbsolutePath().normalize()), e.getMessage());
     }
