@@ -96,7 +96,9 @@ class CancelRunTest {
         Files.writeString(c, "{\"nodes\": [\n"
                 + " {\"id\": \"cap\", \"plugin\": \"raw\", \"options\": {\"file\": \"long.bin\"}},\n"
                 + " {\"id\": \"eye\", \"plugin\": \"eye-diagram\", \"options\": {\"bitRateHz\": 2e8, \"rangeMv\": [-300, 300]}}],\n"
-                + " \"wires\": [{\"from\": \"cap.sig\", \"to\": \"eye.signal\"}]}\n");
+                + " \"wires\": [{\"from\": \"cap.sig\", \"to\": \"eye.signal\"}],\n"
+                // cap.mon is a by-product (an unwired output of an instance that feeds another): asked for here
+                + " \"outputs\": [\"standard\", \"by-products\"]}\n");
         Path out = dir.resolve("out");
         Process p = new ProcessBuilder(List.of(Path.of(System.getProperty("java.home"), "bin", "java").toString(), "-cp",
                 System.getProperty("java.class.path"), "org.lanesift.runner.Main", "run", c.toString(), "--out", out.toString(), "-q"))
