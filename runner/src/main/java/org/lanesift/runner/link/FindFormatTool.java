@@ -1,6 +1,7 @@
 package org.lanesift.runner.link;
 
 import java.io.IOException;
+import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardCopyOption;
@@ -13,6 +14,7 @@ import org.lanesift.chain.Chain;
 import org.lanesift.chain.ChainBuilder;
 import org.lanesift.chain.StageFailure;
 import org.lanesift.data.Artifact;
+import org.lanesift.json.JsonReader;
 import org.lanesift.plugin.InputException;
 import org.lanesift.plugin.OptionException;
 import org.lanesift.plugin.OptionSpec;
@@ -119,6 +121,15 @@ public final class FindFormatTool implements Tool {
         Map<String, Object> model = LinkChains.discovery("find-format", new LinkChains.Capture(plugin, args.text("capture"), pairs),
                 logicKind, opts);
         List<Artifact> files = run(model);
+        if (!"EDGES".equals(logicKind) || !plugin.equals("vcd")) {
+            // the generated chain reads a VCD; give it this capture's front end, the path as the chain file names it
+            Map<String, Object> front = LinkChains.discovery("find-format", new LinkChains.Capture(plugin,
+                    (String) opts.get("capture"), pairs), logicKind, opts);
+            files.replaceAll(a -> a.fileName().equals(LinkChains.DISCOVERY + "-chain.json") ? new Artifact(a.channel(), a.startFs(),
+                    a.endFs(), a.fileName(), a.mediaType(), ChainModels.text(LinkChains.onFront(front,
+                    JsonReader.parse(a.fileName(), new String(a.content(), StandardCharsets.UTF_8)))).getBytes(StandardCharsets.UTF_8))
+                    : a);
+        }
         write(out, files);
         if (!console.quiet()) {
             for (Artifact a : files) {
