@@ -29,7 +29,7 @@ public final class ChainModels {
     /**
      * The model as pretty JSON text with a final newline (also used for the {@code sift} report).
      *
-     * @param model maps, lists, strings, numbers (non-finite ones become null) and booleans
+     * @param model maps, lists, strings, numbers (non-finite ones become null), booleans and parsed JSON values
      * @return the JSON text
      */
     public static String text(Map<String, Object> model) {
@@ -60,6 +60,8 @@ public final class ChainModels {
             w.value(((Number) v).longValue());
         } else if (v instanceof Number n) {
             w.value(n.doubleValue());
+        } else if (v instanceof org.lanesift.json.JsonValue j) {
+            w.value(j);
         } else if (v == null) {
             w.nullValue();
         } else {

@@ -251,6 +251,109 @@ public final class LinkChains {
         return c.pixelSampling(mapping).model();
     }
 
+    /** Instance id of the discovery stage in a {@link #discovery} chain (its files are named after it). */
+    public static final String DISCOVERY = "discovery";
+
+    /**
+     * Format discovery of an unknown clocked link ({@code link-discovery}, plugins/discovery) fed
+     * with the edges of the clock and the data lanes, from any capture sift reads: analog legs
+     * through the leg deskew (estimated in the same run) and one differential receiver per pair,
+     * as {@link #pixelOneRun} does; a logic capture's samples through {@code logic-edges}; a VCD's
+     * 1-bit signals as they are.
+     *
+     * @param description the chain's description
+     * @param cap         the capture; for a logic capture every pair's N channel is empty
+     * @param logicKind   {@code LOGIC} (logic samples), {@code EDGES} (edge lists) or null (analog legs)
+     * @param options     the {@code link-discovery} options
+     * @return the chain model
+     */
+    public static Map<String, Object> discovery(String description, Capture cap, String logicKind, Map<String, Object> options) {
+        LinkChains c = new LinkChains(description, cap);
+        List<Pair> pairs = cap.pairs();
+        String[] from = new String[pairs.size()];
+        if (logicKind == null) {
+            c.legEstimates().receivers(null, false);
+            for (int k = 0; k < pairs.size(); k++) {
+                from[k] = "rx-" + pairs.get(k).name() + ".edges";
+            }
+        } else if (logicKind.equals("LOGIC")) {
+            c.node("edges", "logic-edges", "channels", pairs.size());
+            for (int k = 0; k < pairs.size(); k++) {
+                c.wire("cap." + pairs.get(k).p(), "edges.in" + k);
+                from[k] = "edges.out" + k;
+            }
+        } else {
+            for (int k = 0; k < pairs.size(); k++) {
+                from[k] = "cap." + pairs.get(k).p();
+            }
+        }
+        Map<String, Object> o = new LinkedHashMap<>(options);
+        Map<String, Object> n = new LinkedHashMap<>();
+        n.put("id", DISCOVERY);
+        n.put("plugin", "link-discovery");
+        n.put("options", o);
+        c.nodes.add(n);
+        c.wire(from[0], DISCOVERY + ".clock");
+        for (int k = 1; k < pairs.size(); k++) {
+            c.wire(from[k], DISCOVERY + ".lane" + (k - 1));
+        }
+        return c.model();
+    }
+
+    /**
+     * The chain {@code link-discovery} generated for decoding with its best hypothesis (it reads
+     * the lanes from a VCD source {@code cap}, wired into {@code sampler.clock} and
+     * {@code sampler.lane0..}), moved onto the capture a {@link #discovery} model reads: the
+     * model's front end (every instance but the discovery stage) replaces the VCD source, and what
+     * fed {@code discovery.clock} and {@code discovery.laneK} feeds {@code sampler.clock} and
+     * {@code sampler.laneK}.
+     *
+     * @param model     a {@link #discovery} model whose capture path is as the generated chain should name it
+     * @param generated the generated chain file, parsed
+     * @return the chain model
+     */
+    public static Map<String, Object> onFront(Map<String, Object> model, org.lanesift.json.JsonValue generated) {
+        Map<String, String> feeds = new LinkedHashMap<>();
+        List<Object> nodes = new ArrayList<>();
+        List<Object> wires = new ArrayList<>();
+        for (Object n : (List<?>) model.get("nodes")) {
+            if (!DISCOVERY.equals(((Map<?, ?>) n).get("id"))) {
+                nodes.add(n);
+            }
+        }
+        for (Object o : (List<?>) model.get("wires")) {
+            Map<?, ?> w = (Map<?, ?>) o;
+            String to = (String) w.get("to");
+            if (to.startsWith(DISCOVERY + ".")) {
+                feeds.put(to.substring(DISCOVERY.length() + 1), (String) w.get("from"));
+            } else {
+                wires.add(w);
+            }
+        }
+        for (org.lanesift.json.JsonValue n : generated.get("nodes").elements()) {
+            if (!"cap".equals(n.get("id").asString())) {
+                nodes.add(n);
+            }
+        }
+        for (org.lanesift.json.JsonValue w : generated.get("wires").elements()) {
+            String from = w.get("from").asString();
+            String to = w.get("to").asString();
+            String feed = to.startsWith("sampler.") ? feeds.get(to.substring("sampler.".length())) : null;
+            if (from.startsWith("cap.") && feed == null) {
+                throw new IllegalStateException("generated chain: no front-end signal for wire " + from + " -> " + to);
+            }
+            Map<String, Object> m = new LinkedHashMap<>();
+            m.put("from", from.startsWith("cap.") ? feed : from);
+            m.put("to", to);
+            wires.add(m);
+        }
+        Map<String, Object> out = new LinkedHashMap<>();
+        for (Map.Entry<String, org.lanesift.json.JsonValue> e : generated.members().entrySet()) {
+            out.put(e.getKey(), e.getKey().equals("nodes") ? nodes : e.getKey().equals("wires") ? wires : e.getValue());
+        }
+        return out;
+    }
+
     private static List<String> diffPairs(Capture cap) {
         return List.of(cap.pairs().get(1).name(), cap.pairs().get(Math.min(2, cap.pairs().size() - 1)).name());
     }

@@ -121,7 +121,7 @@ public final class SiftTool implements Tool {
      * The kind of a logic capture's channels ("LOGIC" for sampled bits, "EDGES" for a VCD's
      * 1-bit signals), or null when the capture has analog channels (legs).
      */
-    private static String logicKind(InspectReport inspect) {
+    static String logicKind(InspectReport inspect) {
         boolean logic = !inspect.channels().isEmpty();
         boolean samples = false;
         for (InspectReport.Channel c : inspect.channels()) {
@@ -131,7 +131,7 @@ public final class SiftTool implements Tool {
         return !logic ? null : samples ? "LOGIC" : "EDGES";
     }
 
-    private static List<LinkChains.Pair> pairs(ToolArgs args, InspectReport inspect, boolean logic) {
+    static List<LinkChains.Pair> pairs(ToolArgs args, InspectReport inspect, boolean logic) {
         Set<String> known = new LinkedHashSet<>();
         inspect.channels().forEach(c -> known.add(c.name()));
         List<LinkChains.Pair> pairs = new ArrayList<>(LinkPairs.parseOption(args.text("map"), known));
