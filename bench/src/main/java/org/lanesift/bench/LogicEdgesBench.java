@@ -20,7 +20,9 @@ import org.openjdk.jmh.annotations.Warmup;
 /**
  * Logic to edges conversion on a 10 MHz square wave sampled at 1 GS/s (a transition every 50
  * samples), in blocks of 1 M samples; throughput in samples per second (ops = samples). The
- * baseline XORs the same words sequentially.
+ * baseline XORs the same words sequentially. {@link #toEdgesWithUnknowns} converts the same
+ * blocks with unknown samples: a run of 1 to 40 samples every 3000 or so (seeded), as a capture
+ * with dropouts has them.
  */
 @State(Scope.Benchmark)
 @BenchmarkMode(Mode.Throughput)
@@ -32,6 +34,7 @@ public class LogicEdgesBench {
     static final int N = 1 << 20;
     static final int BLOCKS = 16;
     LogicBlock[] blocks;
+    LogicBlock[] withUnknowns;
 
     @Setup
     public void setup() {
@@ -46,6 +49,16 @@ public class LogicEdgesBench {
             }
             long first = (long) b * N;
             blocks[b] = new LogicBlock("clk", first, first * 1_000_000L, 1e6, bits, N, null);
+        }
+        java.util.Random r = new java.util.Random(19);
+        withUnknowns = new LogicBlock[BLOCKS];
+        for (int b = 0; b < BLOCKS; b++) {
+            long[] inv = new long[BitSets.words(N)];
+            for (int i = r.nextInt(3000); i < N; i += 1 + r.nextInt(6000)) {
+                BitSets.setRange(inv, i, Math.min(N, i + 1 + r.nextInt(40)));
+            }
+            LogicBlock k = blocks[b];
+            withUnknowns[b] = new LogicBlock("clk", k.firstIndex(), k.startFs(), k.periodFs(), k.bits(), N, inv);
         }
     }
 
@@ -72,6 +85,19 @@ public class LogicEdgesBench {
         for (LogicBlock b : blocks) {
             Edges e = conv.toEdges(b);
             n += e.count();
+        }
+        return n;
+    }
+
+    /** Stateful conversion of the blocks with unknown runs. */
+    @Benchmark
+    @OperationsPerInvocation(N * BLOCKS)
+    public long toEdgesWithUnknowns() {
+        LogicEdges conv = new LogicEdges();
+        long n = 0;
+        for (LogicBlock b : withUnknowns) {
+            Edges e = conv.toEdges(b);
+            n += e.count() + e.invalidCount();
         }
         return n;
     }

@@ -18,7 +18,12 @@ package org.lanesift.data;
  *
  * <p><b>Speed.</b> A 64-bit word at a time: transitions are the set bits of {@code x ^ (x << 1 | carry)},
  * taken in order with {@code Long.numberOfTrailingZeros}; a block without unknown samples is
- * counted first so its time array is allocated once, at its exact length.
+ * counted first so its time array is allocated once, at its exact length. In a word with unknown
+ * samples each unknown bit is first filled with the level of the known sample below it (a
+ * segmented prefix copy in six shift steps), then the same XOR finds the transitions; the unknown
+ * runs are found a word at a time too. Such blocks collect their times in one builder reused from
+ * block to block. The edge lists are made through {@code Edges.ordered}: their times ascend by
+ * construction, so the per-transition order check of the public constructor is skipped.
  *
  * <p>Use one instance per channel: it carries the last level across block boundaries, so a
  * transition between two blocks is not lost. Instances are not thread-safe.
