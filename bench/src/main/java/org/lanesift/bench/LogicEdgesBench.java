@@ -22,7 +22,9 @@ import org.openjdk.jmh.annotations.Warmup;
  * samples), in blocks of 1 M samples; throughput in samples per second (ops = samples). The
  * baseline XORs the same words sequentially. {@link #toEdgesWithUnknowns} converts the same
  * blocks with unknown samples: a run of 1 to 40 samples every 3000 or so (seeded), as a capture
- * with dropouts has them.
+ * with dropouts has them. {@link #toEdgesDense} converts random logic with a transition every 4
+ * samples on average in blocks of 64 K samples, as the live decode sees it (its simulator makes
+ * about 2 transitions per sample over 8 channels).
  */
 @State(Scope.Benchmark)
 @BenchmarkMode(Mode.Throughput)
@@ -33,8 +35,11 @@ import org.openjdk.jmh.annotations.Warmup;
 public class LogicEdgesBench {
     static final int N = 1 << 20;
     static final int BLOCKS = 16;
+    /** Samples per block of the dense case: the spool source's default block. */
+    static final int DENSE_N = 1 << 16;
     LogicBlock[] blocks;
     LogicBlock[] withUnknowns;
+    LogicBlock[] dense;
 
     @Setup
     public void setup() {
@@ -51,6 +56,17 @@ public class LogicEdgesBench {
             blocks[b] = new LogicBlock("clk", first, first * 1_000_000L, 1e6, bits, N, null);
         }
         java.util.Random r = new java.util.Random(19);
+        dense = new LogicBlock[BLOCKS * 16];
+        boolean level = false;
+        for (int b = 0; b < dense.length; b++) {
+            long[] bits = new long[BitSets.words(DENSE_N)];
+            for (int i = 0; i < DENSE_N; i++) {
+                level ^= r.nextInt(4) == 0;
+                bits[i >>> 6] |= level ? 1L << i : 0L;
+            }
+            long first = (long) b * DENSE_N;
+            dense[b] = new LogicBlock("d", first, first * 20_000_000L, 2e7, bits, DENSE_N, null);
+        }
         withUnknowns = new LogicBlock[BLOCKS];
         for (int b = 0; b < BLOCKS; b++) {
             long[] inv = new long[BitSets.words(N)];
@@ -98,6 +114,18 @@ public class LogicEdgesBench {
         for (LogicBlock b : withUnknowns) {
             Edges e = conv.toEdges(b);
             n += e.count() + e.invalidCount();
+        }
+        return n;
+    }
+
+    /** Stateful conversion of dense random logic in spool-sized blocks. */
+    @Benchmark
+    @OperationsPerInvocation(DENSE_N * BLOCKS * 16)
+    public long toEdgesDense() {
+        LogicEdges conv = new LogicEdges();
+        long n = 0;
+        for (LogicBlock b : dense) {
+            n += conv.toEdges(b).count();
         }
         return n;
     }

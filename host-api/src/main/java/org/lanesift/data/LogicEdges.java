@@ -215,8 +215,9 @@ public final class LogicEdges {
             carry = x >>> 63;
             int base = w << 6;
             if (integral) {
+                final long wordFs = offset + base * period;
                 while (diff != 0) {
-                    times[k++] = offset + (base + Long.numberOfTrailingZeros(diff)) * period;
+                    times[k++] = wordFs + Long.numberOfTrailingZeros(diff) * period;
                     diff &= diff - 1;
                 }
             } else {
