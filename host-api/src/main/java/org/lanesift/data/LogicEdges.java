@@ -18,7 +18,12 @@ package org.lanesift.data;
  *
  * <p><b>Speed.</b> A 64-bit word at a time: transitions are the set bits of {@code x ^ (x << 1 | carry)},
  * taken in order with {@code Long.numberOfTrailingZeros}; a block without unknown samples is
- * counted first so its time array is allocated once, at its exact length.
+ * counted first so its time array is allocated once, at its exact length. In a word with unknown
+ * samples each unknown bit is first filled with the level of the known sample below it (a
+ * segmented prefix copy in six shift steps), then the same XOR finds the transitions; the unknown
+ * runs are found a word at a time too. Such blocks collect their times in one builder reused from
+ * block to block. The edge lists are made through {@code Edges.ordered}: their times ascend by
+ * construction, so the per-transition order check of the public constructor is skipped.
  *
  * <p>Use one instance per channel: it carries the last level across block boundaries, so a
  * transition between two blocks is not lost. Instances are not thread-safe.
@@ -28,6 +33,8 @@ public final class LogicEdges {
     private static final double EXACT = 0x1p52;
     private boolean havePrevious;
     private boolean previousLevel;
+    /** Reused for blocks with unknown samples: grows to the largest block, never shrinks. */
+    private final EdgeListBuilder builder = new EdgeListBuilder(64);
 
     /** Creates a converter with no history. */
     public LogicEdges() {
@@ -53,79 +60,121 @@ public final class LogicEdges {
         final long spanStart = origin - Math.round(p * 0.5);
         final long spanEnd = origin + Math.round((n - 0.5) * p);
         if (n == 0) {
-            return new Edges(b.channel(), spanStart, Math.max(spanStart, spanEnd), previousLevel, new long[0], 0, null, 0);
+            return Edges.ordered(b.channel(), spanStart, Math.max(spanStart, spanEnd), previousLevel, new long[0], 0, null, 0);
         }
         if (inv == null || BitSets.count(inv, n) == 0) {
             return allKnown(b, spanStart, spanEnd);
         }
         final int words = BitSets.words(n);
+        final long lastMask = (n & 63) != 0 ? (1L << (n & 63)) - 1 : -1L;
         // the level before sample 0: the previous block's, else the first known sample's
         boolean level;
         boolean known = havePrevious;
         if (havePrevious) {
             level = previousLevel;
         } else {
-            int first = 0;
-            while (first < n && inv != null && BitSets.get(inv, first)) {
-                first++;
-            }
+            int first = nextClear(inv, 0, n);
             level = first < n && b.get(first);
             known = first < n;
         }
         final boolean initial = level;
-        EdgeListBuilder out = new EdgeListBuilder(16 + (n >>> 5));
+        EdgeListBuilder out = builder;
+        out.clear();
         for (int w = 0; w < words; w++) {
             final long x = bits[w];
-            final long iv = inv == null ? 0 : inv[w];
-            final int inWord = (w == words - 1 && (n & 63) != 0) ? n & 63 : 64;
-            final long lastMask = inWord == 64 ? -1L : (1L << inWord) - 1;
-            final double base = ((long) w << 6) - 0.5;
-            if ((iv & lastMask) == 0) {
-                // fast path: every sample of this word is known
-                long diff = (x ^ ((x << 1) | (level ? 1L : 0L))) & lastMask;
-                out.reserve(Long.bitCount(diff));
-                while (diff != 0) {
-                    int j = Long.numberOfTrailingZeros(diff);
-                    out.addTime(origin + Math.round((base + j) * p));
-                    diff &= diff - 1;
-                }
-                level = ((x >>> (inWord - 1)) & 1L) != 0;
+            final long mask = w == words - 1 ? lastMask : -1L;
+            final long unknown = inv[w] & mask;
+            final long carry = level ? 1L : 0L;
+            long diff;
+            if (unknown == 0) {
+                diff = (x ^ (x << 1 | carry)) & mask;
+                level = ((x & mask) >>> (63 - Long.numberOfLeadingZeros(mask))) != 0;
             } else {
-                // unknown samples hold the last known level, so a change hidden in an unknown run
-                // appears at the end of the run (the first known sample with the new level)
-                for (int j = 0; j < inWord; j++) {
-                    if (((iv >>> j) & 1L) != 0) {
-                        continue;
-                    }
-                    boolean v = ((x >>> j) & 1L) != 0;
-                    if (v != level) {
-                        out.addTime(origin + Math.round((base + j) * p));
-                        level = v;
-                    }
+                // unknown samples hold the last known level: fill them with the level of the known
+                // sample below (segmented prefix copy, six doubling steps), so a change hidden in an
+                // unknown run shows at the first known sample after it
+                long filled = fillUnknown(x & ~unknown, unknown) | (level ? unknown & ~(unknown + 1) : 0L);
+                diff = (x ^ (filled << 1 | carry)) & ~unknown & mask;
+                level = (filled >>> (63 - Long.numberOfLeadingZeros(mask)) & 1L) != 0;
+            }
+            if (diff != 0) {
+                out.reserve(Long.bitCount(diff));
+                final double base = ((long) w << 6) - 0.5;
+                while (diff != 0) {
+                    out.addTime(origin + Math.round((base + Long.numberOfTrailingZeros(diff)) * p));
+                    diff &= diff - 1;
                 }
             }
         }
-        if (inv != null && BitSets.count(inv, n) > 0) {
-            int i = 0;
-            while (i < n) {
-                if (!BitSets.get(inv, i)) {
-                    i++;
-                    continue;
-                }
-                int s = i;
-                while (i < n && BitSets.get(inv, i)) {
-                    i++;
-                }
-                out.addSpan(Math.max(spanStart, origin + Math.round((s - 0.5) * p)),
-                        Math.min(spanEnd, origin + Math.round((i - 0.5) * p)));
-            }
+        // the unknown runs, a word at a time
+        int i = nextSet(inv, 0, n);
+        while (i < n) {
+            int s = i;
+            i = nextClear(inv, s, n);
+            out.addSpan(Math.max(spanStart, origin + Math.round((s - 0.5) * p)),
+                    Math.min(spanEnd, origin + Math.round((i - 0.5) * p)));
+            i = nextSet(inv, i, n);
         }
         if (known) {
             // a block of nothing but unknown samples leaves no level behind
             havePrevious = true;
             previousLevel = level;
         }
-        return out.build(b.channel(), spanStart, spanEnd, initial); // exact-length arrays: callers may rely on it
+        return out.buildOrdered(b.channel(), spanStart, spanEnd, initial); // exact-length arrays: callers may rely on it
+    }
+
+    /**
+     * Copies each known bit up through the run of unknown bits above it: bit j of the result is
+     * {@code v}'s bit at the nearest position {@code <= j} that is not in {@code unknown} (0 when
+     * there is none in this word). {@code v} must be 0 at unknown positions.
+     */
+    static long fillUnknown(long v, long unknown) {
+        long f = v;
+        long pass = unknown;
+        f |= (f << 1) & pass;
+        pass &= pass << 1;
+        f |= (f << 2) & pass;
+        pass &= pass << 2;
+        f |= (f << 4) & pass;
+        pass &= pass << 4;
+        f |= (f << 8) & pass;
+        pass &= pass << 8;
+        f |= (f << 16) & pass;
+        pass &= pass << 16;
+        f |= (f << 32) & pass;
+        return f;
+    }
+
+    /** The first set bit at or after {@code from}, or {@code n}. */
+    private static int nextSet(long[] words, int from, int n) {
+        if (from >= n) {
+            return n;
+        }
+        int w = from >>> 6;
+        long x = words[w] & (-1L << from);
+        while (x == 0) {
+            if (++w << 6 >= n) {
+                return n;
+            }
+            x = words[w];
+        }
+        return Math.min(n, (w << 6) + Long.numberOfTrailingZeros(x));
+    }
+
+    /** The first clear bit at or after {@code from}, or {@code n}. */
+    private static int nextClear(long[] words, int from, int n) {
+        if (from >= n) {
+            return n;
+        }
+        int w = from >>> 6;
+        long x = ~words[w] & (-1L << from);
+        while (x == 0) {
+            if (++w << 6 >= n) {
+                return n;
+            }
+            x = ~words[w];
+        }
+        return Math.min(n, (w << 6) + Long.numberOfTrailingZeros(x));
     }
 
     /**
@@ -166,8 +215,9 @@ public final class LogicEdges {
             carry = x >>> 63;
             int base = w << 6;
             if (integral) {
+                final long wordFs = offset + base * period;
                 while (diff != 0) {
-                    times[k++] = offset + (base + Long.numberOfTrailingZeros(diff)) * period;
+                    times[k++] = wordFs + Long.numberOfTrailingZeros(diff) * period;
                     diff &= diff - 1;
                 }
             } else {
@@ -179,7 +229,7 @@ public final class LogicEdges {
         }
         havePrevious = true;
         previousLevel = b.get(n - 1);
-        return new Edges(b.channel(), spanStart, spanEnd, initial, times, count, null, 0);
+        return Edges.ordered(b.channel(), spanStart, spanEnd, initial, times, count, null, 0);
     }
 
     /**

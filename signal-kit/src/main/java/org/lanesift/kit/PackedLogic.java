@@ -9,7 +9,8 @@ import java.nio.ByteOrder;
  * analyser or the device stream packs them) into one bit-packed array per channel, in the
  * {@link org.lanesift.data.BitSets} layout of {@code LogicBlock}. Eight samples at a time with an
  * 8x8 bit-matrix transpose in one {@code long} (the three-step exchange of Hacker's Delight,
- * section 7-3, "Transposing a Bit Matrix"); no per-sample branch on the channel or the format.
+ * section 7-3, "Transposing a Bit Matrix"), then the same exchange on bytes to gather 64 samples
+ * per channel in one word; no per-sample branch on the channel or the format.
  * A 16-bit word of 16 channels is two such bytes: {@link #deinterleave} separates them first.
  */
 public final class PackedLogic {
@@ -38,6 +39,11 @@ public final class PackedLogic {
      * Splits {@code n} samples into {@code out[k]} for channel (bit) k; a null entry skips that
      * channel, so any subset of the eight can be taken.
      *
+     * <p>Per 64 samples: eight 8x8 bit transposes (byte k of the k-th result holds 8 samples of
+     * channel k), then one 8x8 <em>byte</em> transpose of those eight words in three exchange steps
+     * (32-, 16-, 8-bit lanes), which leaves channel k's 64 samples in word k. A last partial word
+     * goes through the same steps with its missing bytes read as zero.
+     *
      * @param b   samples, one byte each
      * @param n   count
      * @param out up to eight arrays of at least {@code ceil(n/64)} words, overwritten, or null
@@ -46,65 +52,72 @@ public final class PackedLogic {
         if (out.length > 8) {
             throw new IllegalArgumentException("a byte holds 8 channels, asked for " + out.length);
         }
-        long[][] o = new long[8][];
-        System.arraycopy(out, 0, o, 0, out.length);
+        long[][] o = out.length == 8 ? out : java.util.Arrays.copyOf(out, 8);
         int words = (n + 63) >>> 6;
         int fullWords = n >>> 6;
-        long[] o0 = o[0], o1 = o[1], o2 = o[2], o3 = o[3], o4 = o[4], o5 = o[5], o6 = o[6], o7 = o[7];
-        // whole words: eight 8x8 transposes make 64 samples of every channel, kept in registers
         for (int w = 0; w < fullWords; w++) {
-            long a0 = 0, a1 = 0, a2 = 0, a3 = 0, a4 = 0, a5 = 0, a6 = 0, a7 = 0;
             int base = w << 6;
-            for (int k = 0; k < 8; k++) {
-                long t = transpose8((long) LE64.get(b, base + 8 * k));
-                int sh = 8 * k;
-                a0 |= (t & 0xFFL) << sh;
-                a1 |= (t >>> 8 & 0xFFL) << sh;
-                a2 |= (t >>> 16 & 0xFFL) << sh;
-                a3 |= (t >>> 24 & 0xFFL) << sh;
-                a4 |= (t >>> 32 & 0xFFL) << sh;
-                a5 |= (t >>> 40 & 0xFFL) << sh;
-                a6 |= (t >>> 48 & 0xFFL) << sh;
-                a7 |= (t >>> 56) << sh;
-            }
-            if (o0 != null) {
-                o0[w] = a0;
-            }
-            if (o1 != null) {
-                o1[w] = a1;
-            }
-            if (o2 != null) {
-                o2[w] = a2;
-            }
-            if (o3 != null) {
-                o3[w] = a3;
-            }
-            if (o4 != null) {
-                o4[w] = a4;
-            }
-            if (o5 != null) {
-                o5[w] = a5;
-            }
-            if (o6 != null) {
-                o6[w] = a6;
-            }
-            if (o7 != null) {
-                o7[w] = a7;
-            }
+            splitWord(transpose8((long) LE64.get(b, base)), transpose8((long) LE64.get(b, base + 8)),
+                    transpose8((long) LE64.get(b, base + 16)), transpose8((long) LE64.get(b, base + 24)),
+                    transpose8((long) LE64.get(b, base + 32)), transpose8((long) LE64.get(b, base + 40)),
+                    transpose8((long) LE64.get(b, base + 48)), transpose8((long) LE64.get(b, base + 56)), o, w);
         }
         if (fullWords == words) {
             return;
         }
-        // the last, partial word, sample by sample
-        for (int c = 0; c < 8; c++) {
-            if (o[c] == null) {
-                continue;
-            }
-            long word = 0;
-            for (int i = fullWords << 6; i < n; i++) {
-                word |= (long) (b[i] >>> c & 1) << i;
-            }
-            o[c][fullWords] = word;
+        // the last, partial word: the bytes that exist, zeros after them
+        long[] t = new long[8];
+        int base = fullWords << 6;
+        for (int i = base; i < n; i++) {
+            int j = i - base;
+            t[j >>> 3] |= (b[i] & 0xFFL) << ((j & 7) << 3);
+        }
+        splitWord(transpose8(t[0]), transpose8(t[1]), transpose8(t[2]), transpose8(t[3]),
+                transpose8(t[4]), transpose8(t[5]), transpose8(t[6]), transpose8(t[7]), o, fullWords);
+    }
+
+    private static final long LO32 = 0x00000000FFFFFFFFL;
+    private static final long LO16 = 0x0000FFFF0000FFFFL;
+    private static final long LO8 = 0x00FF00FF00FF00FFL;
+
+    /**
+     * Transposes the 8x8 byte matrix whose row k is {@code tk} (byte c of row k: 8 samples of
+     * channel c) and stores row c, channel c's 64 samples, as word {@code w} of {@code o[c]}.
+     */
+    private static void splitWord(long t0, long t1, long t2, long t3, long t4, long t5, long t6, long t7,
+                                  long[][] o, int w) {
+        // 32-bit lanes: rows k and k+4
+        long u0 = (t0 & LO32) | (t4 << 32);
+        long u4 = (t0 >>> 32) | (t4 & ~LO32);
+        long u1 = (t1 & LO32) | (t5 << 32);
+        long u5 = (t1 >>> 32) | (t5 & ~LO32);
+        long u2 = (t2 & LO32) | (t6 << 32);
+        long u6 = (t2 >>> 32) | (t6 & ~LO32);
+        long u3 = (t3 & LO32) | (t7 << 32);
+        long u7 = (t3 >>> 32) | (t7 & ~LO32);
+        // 16-bit lanes: rows k and k+2
+        long v0 = (u0 & LO16) | ((u2 & LO16) << 16);
+        long v2 = ((u0 >>> 16) & LO16) | (u2 & ~LO16);
+        long v1 = (u1 & LO16) | ((u3 & LO16) << 16);
+        long v3 = ((u1 >>> 16) & LO16) | (u3 & ~LO16);
+        long v4 = (u4 & LO16) | ((u6 & LO16) << 16);
+        long v6 = ((u4 >>> 16) & LO16) | (u6 & ~LO16);
+        long v5 = (u5 & LO16) | ((u7 & LO16) << 16);
+        long v7 = ((u5 >>> 16) & LO16) | (u7 & ~LO16);
+        // 8-bit lanes: rows k and k+1
+        store(o[0], w, (v0 & LO8) | ((v1 & LO8) << 8));
+        store(o[1], w, ((v0 >>> 8) & LO8) | (v1 & ~LO8));
+        store(o[2], w, (v2 & LO8) | ((v3 & LO8) << 8));
+        store(o[3], w, ((v2 >>> 8) & LO8) | (v3 & ~LO8));
+        store(o[4], w, (v4 & LO8) | ((v5 & LO8) << 8));
+        store(o[5], w, ((v4 >>> 8) & LO8) | (v5 & ~LO8));
+        store(o[6], w, (v6 & LO8) | ((v7 & LO8) << 8));
+        store(o[7], w, ((v6 >>> 8) & LO8) | (v7 & ~LO8));
+    }
+
+    private static void store(long[] to, int w, long x) {
+        if (to != null) {
+            to[w] = x;
         }
     }
 
