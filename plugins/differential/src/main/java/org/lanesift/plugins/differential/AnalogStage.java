@@ -248,6 +248,9 @@ final class AnalogStage implements Stage, LegAligner.Sink {
                 .number("lowLevelVolts", capture.mean(0), "V").number("highLevelVolts", capture.mean(1), "V")
                 .number("commonModeVolts", capture.cmMean(), "V")
                 .field("transitions", Field.integer(cmp.transitionsTotal(), "")).build());
+        if (!ctx.isConnected(OUT_REPORT)) {
+            return; // nothing reads the report (no wire, tap or host that wants it): its text is not made
+        }
         LevelReport.Header h = new LevelReport.Header(ctx.instanceId(), periodFs, originFs, initial, invalid.count(), invalid.samples());
         byte[] json = report.json(h, cmp, capture, q).getBytes(StandardCharsets.UTF_8);
         ctx.emit(OUT_REPORT, new Artifact(s.channel, t0, t1, ctx.instanceId() + "-levels.json", "application/json", json));

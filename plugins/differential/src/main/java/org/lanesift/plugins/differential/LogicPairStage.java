@@ -381,6 +381,9 @@ final class LogicPairStage implements Stage {
                     .label((annotated - MAX_ANNOTATIONS) + " further runs not annotated singly")
                     .field("agreeRuns", Field.integer(agreeRuns, "")).field("agreeSamples", Field.integer(agreeSamples, "")).build());
         }
+        if (!ctx.isConnected(AnalogStage.OUT_REPORT)) {
+            return; // nothing reads the report: its text is not made
+        }
         JsonWriter j = JsonWriter.compact().numberStyle(NumberStyle.significant(9)).nonFiniteAsNull();
         j.beginObject().field("instance", ctx.instanceId()).field("channel", s.channel).field("mode", s.modeName())
                 .field("samplePeriodFs", periodFs).field("startFs", originFs).field("samples", next)
