@@ -29,6 +29,18 @@ class ChainAndOptionsTest {
         return new AnalogBlock[] {TestSignals.legP(d, 1.25), TestSignals.legN(d, 1.25)};
     }
 
+    /** Pushes the legs into inputs {@code p} and {@code n} in blocks of 4096, then finishes and closes the chain. */
+    static void pushLegs(Chain c, AnalogBlock[] l) {
+        List<AnalogBlock> ps = Synth.split(l[0], 4096);
+        List<AnalogBlock> ns = Synth.split(l[1], 4096);
+        for (int i = 0; i < ps.size(); i++) {
+            c.push("p", ps.get(i));
+            c.push("n", ns.get(i));
+        }
+        c.finish();
+        c.close();
+    }
+
     @Test
     void runsInAChainWithTwoExternalInputsAndATap() {
         PluginRegistry reg = PluginRegistry.discover(getClass().getClassLoader());
@@ -46,14 +58,7 @@ class ChainAndOptionsTest {
                 .annotations((src, a) -> notes.add(src + ":" + a.kind()))
                 .build();
         AnalogBlock[] l = legs();
-        List<AnalogBlock> ps = Synth.split(l[0], 4096);
-        List<AnalogBlock> ns = Synth.split(l[1], 4096);
-        for (int i = 0; i < ps.size(); i++) {
-            c.push("p", ps.get(i));
-            c.push("n", ns.get(i));
-        }
-        c.finish();
-        c.close();
+        pushLegs(c, l);
         long[] t = TestSignals.times(edges.stream().map(Edges.class::cast).toList());
         // a 97 MHz square wave for 6 us: two transitions per period, about 1164
         assertEquals(1164, t.length, 2);

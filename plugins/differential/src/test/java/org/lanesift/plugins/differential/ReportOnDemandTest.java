@@ -11,13 +11,11 @@ import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.lanesift.chain.BlockSink;
 import org.lanesift.chain.Chain;
-import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.Artifact;
 import org.lanesift.data.Block;
 import org.lanesift.data.DataKind;
 import org.lanesift.data.Edges;
 import org.lanesift.plugin.PluginRegistry;
-import org.lanesift.testkit.Synth;
 
 /**
  * The level report ({@code report} output) is made only when something reads it. Skipping it is
@@ -57,15 +55,7 @@ class ReportOnDemandTest {
                 .outputs(sink)
                 .annotations((src, a) -> notes.add(src + ":" + a.kind() + ":" + a.label()))
                 .build();
-        AnalogBlock[] l = ChainAndOptionsTest.legs();
-        List<AnalogBlock> ps = Synth.split(l[0], 4096);
-        List<AnalogBlock> ns = Synth.split(l[1], 4096);
-        for (int i = 0; i < ps.size(); i++) {
-            c.push("p", ps.get(i));
-            c.push("n", ns.get(i));
-        }
-        c.finish();
-        c.close();
+        ChainAndOptionsTest.pushLegs(c, ChainAndOptionsTest.legs());
         return new Run(reports, notes, TestSignals.times(edges.stream().map(Edges.class::cast).toList()));
     }
 
