@@ -1,6 +1,7 @@
 package org.lanesift.dist;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.ByteArrayOutputStream;
@@ -38,6 +39,27 @@ class ToolCommandsTest {
         assertEquals(0, r.code(), r::toString);
         assertTrue(r.out().startsWith("Usage: lanesift " + command), r::toString);
         assertEquals("", r.err());
+    }
+
+    /**
+     * A '%' in an option's help is shown as written: the help library reads descriptions as format
+     * strings, and an unescaped one made it print a warning on the process's error stream.
+     */
+    @Test
+    void aPercentSignInHelpIsShownAsWritten() {
+        PrintStream saved = System.err;
+        ByteArrayOutputStream stray = new ByteArrayOutputStream();
+        Run r;
+        try {
+            System.setErr(new PrintStream(stray, true, StandardCharsets.UTF_8));
+            r = run("probe", "rise", "--help");
+        } finally {
+            System.setErr(saved);
+        }
+        assertEquals(0, r.code(), r::toString);
+        assertTrue(r.out().contains("10-90 % rise time"), r::toString);
+        assertFalse(r.out().contains("%%"), r::toString);
+        assertEquals("", stray.toString(StandardCharsets.UTF_8));
     }
 
     @Test

@@ -55,16 +55,16 @@ final class ToolCommand implements Callable<Integer> {
         CommandSpec cs = CommandSpec.wrapWithoutInspection(cmd);
         cs.name(ts.name());
         // the summary first: it is the line the parent's command list shows
-        java.util.List<String> d = new java.util.ArrayList<>(java.util.List.of(ts.summary()));
+        java.util.List<String> d = new java.util.ArrayList<>(java.util.List.of(literal(ts.summary())));
         if (!ts.description().isEmpty()) {
             d.add("");
-            d.add(String.join(" ", ts.description())); // one paragraph: the help wraps it to the terminal
+            d.add(literal(String.join(" ", ts.description()))); // one paragraph: the help wraps it to the terminal
         }
         cs.usageMessage().description(d.toArray(String[]::new));
         cs.usageMessage().sortOptions(false);
         cs.usageMessage().autoWidth(true);
         if (!ts.footer().isEmpty()) {
-            cs.usageMessage().footerHeading("%n").footer(ts.footer().toArray(String[]::new));
+            cs.usageMessage().footerHeading("%n").footer(ts.footer().stream().map(ToolCommand::literal).toArray(String[]::new));
         }
         cs.addOption(OptionSpec.builder("-h", "--help").usageHelp(true).description("Show this help message and exit.").build());
         for (ToolOption o : ts.options()) {
@@ -79,7 +79,7 @@ final class ToolCommand implements Callable<Integer> {
         org.lanesift.plugin.OptionSpec s = o.spec();
         OptionSpec.Builder b = OptionSpec.builder("--" + s.name()).required(o.required());
         if (o.isFlag()) {
-            return b.arity("0").type(boolean.class).description(s.help()).build();
+            return b.arity("0").type(boolean.class).description(literal(s.help())).build();
         }
         StringBuilder d = new StringBuilder(s.help());
         if (s.defaultValue() != null && !s.defaultValue().toString().isEmpty() && !o.required()) {
@@ -87,7 +87,7 @@ final class ToolCommand implements Callable<Integer> {
                     .append(s.type() == org.lanesift.plugin.OptionSpec.Type.NUMBER && !s.unit().isEmpty() ? " " + s.unit() : "")
                     .append(')');
         }
-        return b.arity("1").paramLabel(o.label()).type(Object.class).description(d.toString())
+        return b.arity("1").paramLabel(o.label()).type(Object.class).description(literal(d.toString()))
                 .converters(raw -> {
                     try {
                         return s.convert(raw);
@@ -95,6 +95,14 @@ final class ToolCommand implements Callable<Integer> {
                         throw new CommandLine.TypeConversionException(e.getMessage());
                     }
                 }).build();
+    }
+
+    /**
+     * Text shown as written: the help formats descriptions as format strings, so a '%' of our own
+     * (such as "10-90 % rise time") is doubled.
+     */
+    static String literal(String text) {
+        return text.replace("%", "%%");
     }
 
     private static String fmtDefault(double v) {
