@@ -2,11 +2,8 @@ package org.lanesift.bench;
 
 import java.io.IOException;
 import java.io.OutputStream;
-import java.nio.ByteBuffer;
-import java.nio.channels.FileChannel;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.nio.file.StandardOpenOption;
 import java.util.Map;
 import java.util.concurrent.TimeUnit;
 import org.lanesift.chain.Chain;
@@ -149,20 +146,7 @@ public class PackedLogicBench {
      */
     @Benchmark
     public long plainRead() throws IOException {
-        long x = 0;
-        ByteBuffer bb = ByteBuffer.allocate(1 << 20);
-        try (FileChannel ch = FileChannel.open(packedFile, StandardOpenOption.READ)) {
-            while (ch.read(bb.clear()) > 0) {
-                bb.flip();
-                while (bb.remaining() >= 8) {
-                    x ^= bb.getLong();
-                }
-                while (bb.hasRemaining()) {
-                    x ^= bb.get();
-                }
-            }
-        }
-        return x;
+        return PlainRead.xorAll(packedFile);
     }
 
     private static void run(ChainBuilder b) {

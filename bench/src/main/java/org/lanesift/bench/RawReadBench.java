@@ -141,20 +141,7 @@ public class RawReadBench {
      */
     @Benchmark
     public long plainRead() throws IOException {
-        long x = 0;
-        ByteBuffer bb = ByteBuffer.allocate(1 << 20);
-        try (FileChannel ch = FileChannel.open(file, StandardOpenOption.READ)) {
-            while (ch.read(bb.clear()) > 0) {
-                bb.flip();
-                while (bb.remaining() >= 8) {
-                    x ^= bb.getLong();
-                }
-                while (bb.hasRemaining()) {
-                    x ^= bb.get();
-                }
-            }
-        }
-        return x;
+        return PlainRead.xorAll(file);
     }
 
     /** A sink reading one value of every block (the last sample), optionally declaring that it keeps no block. */
