@@ -187,20 +187,4 @@ public final class EdgeListBuilder {
         long[] s = spanCount == 0 ? null : Arrays.copyOf(spans, 2 * spanCount);
         return new Edges(channel, startFs, endFs, initialLevel, t, timeCount, s, spanCount);
     }
-
-    /**
-     * {@link #build} for a producer in this package whose times are ascending by construction: the
-     * per-transition order check is skipped ({@link Edges#ordered}).
-     *
-     * @param channel      channel name
-     * @param startFs      start of the list's time span
-     * @param endFs        end of the list's time span
-     * @param initialLevel level before the first transition
-     * @return the edges
-     */
-    Edges buildOrdered(String channel, long startFs, long endFs, boolean initialLevel) {
-        long[] t = Arrays.copyOf(times, timeCount);
-        long[] s = spanCount == 0 ? null : Arrays.copyOf(spans, 2 * spanCount);
-        return Edges.ordered(channel, startFs, endFs, initialLevel, t, timeCount, s, spanCount);
-    }
 }

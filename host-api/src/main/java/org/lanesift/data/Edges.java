@@ -27,10 +27,6 @@ public record Edges(String channel, long startFs, long endFs, boolean initialLev
                     long[] invalidSpans, int invalidCount) implements Block {
 
     private static final long[] NONE = new long[0];
-    /** Lists with at most this many transitions are always checked: the pass costs less than asking. */
-    private static final int TRUST_ABOVE = 64;
-    /** Set, for the current thread only, while {@link #ordered} constructs a list. */
-    private static final ThreadLocal<boolean[]> ORDERED = ThreadLocal.withInitial(() -> new boolean[1]);
 
     /**
      * Checks the invariants, naming the channel and the first offending index.
@@ -56,12 +52,7 @@ public record Edges(String channel, long startFs, long endFs, boolean initialLev
             throw new IllegalArgumentException("edge list '" + channel + "': count " + count + " outside 0.." + timesFs.length);
         }
         long prev = startFs;
-        // a producer in this package that makes its times in order skips the pass (see ordered)
-        int checkFrom = count > TRUST_ABOVE && ORDERED.get()[0] ? count : 0;
-        if (checkFrom == count && count > 0 && timesFs[0] < startFs) {
-            checkFrom = 0;
-        }
-        for (int i = checkFrom; i < count; i++) {
+        for (int i = 0; i < count; i++) {
             long t = timesFs[i];
             if (t < prev) {
                 throw new IllegalArgumentException("edge list '" + channel + "': transition " + i + " at " + t
@@ -86,36 +77,6 @@ public record Edges(String channel, long startFs, long endFs, boolean initialLev
             if (invalidSpans[2 * i + 1] < invalidSpans[2 * i]) {
                 throw new IllegalArgumentException("edge list '" + channel + "': unknown span " + i + " ends before it starts");
             }
-        }
-    }
-
-    /**
-     * The constructor for producers in this package that make their transition times in order by
-     * construction (the logic-to-edges conversion: times are a strictly increasing function of the
-     * sample index). The rule: every other caller, in particular anything built from input that comes
-     * from outside (files, plugins, other modules), goes through the public constructor, which checks
-     * every transition against the one before it; this one skips that per-element pass for lists
-     * longer than {@value #TRUST_ABOVE} and still checks everything else (span bounds, the first
-     * and the last transition, counts, unknown spans).
-     *
-     * @param channel      channel name
-     * @param startFs      start of the covered span
-     * @param endFs        end of the covered span, exclusive
-     * @param initialLevel level at {@code startFs}
-     * @param timesFs      transition times, ascending by construction
-     * @param count        number of transitions
-     * @param invalidSpans unknown spans, or null
-     * @param invalidCount number of unknown spans
-     * @return the edge list
-     */
-    static Edges ordered(String channel, long startFs, long endFs, boolean initialLevel, long[] timesFs, int count,
-                         long[] invalidSpans, int invalidCount) {
-        boolean[] flag = ORDERED.get();
-        flag[0] = true;
-        try {
-            return new Edges(channel, startFs, endFs, initialLevel, timesFs, count, invalidSpans, invalidCount);
-        } finally {
-            flag[0] = false;
         }
     }
 

@@ -22,8 +22,7 @@ package org.lanesift.data;
  * samples each unknown bit is first filled with the level of the known sample below it (a
  * segmented prefix copy in six shift steps), then the same XOR finds the transitions; the unknown
  * runs are found a word at a time too. Such blocks collect their times in one builder reused from
- * block to block. The edge lists are made through {@code Edges.ordered}: their times ascend by
- * construction, so the per-transition order check of the public constructor is skipped.
+ * block to block.
  *
  * <p>Use one instance per channel: it carries the last level across block boundaries, so a
  * transition between two blocks is not lost. Instances are not thread-safe.
@@ -60,7 +59,7 @@ public final class LogicEdges {
         final long spanStart = origin - Math.round(p * 0.5);
         final long spanEnd = origin + Math.round((n - 0.5) * p);
         if (n == 0) {
-            return Edges.ordered(b.channel(), spanStart, Math.max(spanStart, spanEnd), previousLevel, new long[0], 0, null, 0);
+            return new Edges(b.channel(), spanStart, Math.max(spanStart, spanEnd), previousLevel, new long[0], 0, null, 0);
         }
         if (inv == null || BitSets.count(inv, n) == 0) {
             return allKnown(b, spanStart, spanEnd);
@@ -120,7 +119,7 @@ public final class LogicEdges {
             havePrevious = true;
             previousLevel = level;
         }
-        return out.buildOrdered(b.channel(), spanStart, spanEnd, initial); // exact-length arrays: callers may rely on it
+        return out.build(b.channel(), spanStart, spanEnd, initial); // exact-length arrays: callers may rely on it
     }
 
     /**
@@ -229,7 +228,7 @@ public final class LogicEdges {
         }
         havePrevious = true;
         previousLevel = b.get(n - 1);
-        return Edges.ordered(b.channel(), spanStart, spanEnd, initial, times, count, null, 0);
+        return new Edges(b.channel(), spanStart, spanEnd, initial, times, count, null, 0);
     }
 
     /**
