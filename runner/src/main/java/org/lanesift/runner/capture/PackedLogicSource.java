@@ -43,9 +43,7 @@ public final class PackedLogicSource implements PluginProvider {
     }
 
     static PackedLogicReader reader(OptionValues o, boolean headerOnly) throws IOException {
-        String s = o.getString("sidecar");
-        Path sidecar = s.isEmpty() ? Path.of(o.getString("file") + ".json") : Path.of(s);
-        return new PackedLogicReader(Path.of(o.getString("file")), PackedLogicSidecar.read(sidecar), o.getInt("blockSamples"),
+        return new PackedLogicReader(Path.of(o.getString("file")), PackedLogicSidecar.read(RawSource.sidecarOf(o)), o.getInt("blockSamples"),
                 headerOnly);
     }
 

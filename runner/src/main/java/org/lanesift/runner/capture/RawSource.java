@@ -44,6 +44,7 @@ public final class RawSource implements PluginProvider {
         return new ReaderStage(reader(context.options(), false), context);
     }
 
+    /** The sidecar a raw or packed-logic source reads: its {@code sidecar} option, or the file's path + ".json". */
     static Path sidecarOf(OptionValues o) {
         String s = o.getString("sidecar");
         return s.isEmpty() ? Path.of(o.getString("file") + ".json") : Path.of(s);
