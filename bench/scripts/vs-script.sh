@@ -10,7 +10,8 @@
 #     (both edges, 3 lanes), every output written as run writes it; bits and ones counted from
 #     its rx-bits*-bits.csv afterwards (not timed).
 # Each run must give the same bit count and ones count (the script stops otherwise). Wall times
-# include the start of python or of the JVM. Prints each run's times and ratio, min/median/max
+# include the start of python or of the JVM; CPU seconds (user + system, /usr/bin/time) are the
+# steadier figure on a shared machine. Prints each run's times and ratios, min/median/max
 # of both, and a plain Java sequential read and sum of the same file (ReadSum.java, the read
 # loop's time, JVM start excluded) as the memory-speed yardstick.
 # The chain is ddr-chain.json; dist VsScriptTest checks on a small capture that both
@@ -35,13 +36,15 @@ cp "$ROOT/bench/scripts/ddr-chain.json" "$WORK/chain.json"   # reads ddr.bin bes
 now() { date +%s.%N; }
 NP=()
 LS=()
+NPC=()
+LSC=()
 for r in $(seq 1 "$RUNS"); do
   t0=$(now)
-  np_counts=$(python3 "$ROOT/bench/scripts/ddr-numpy.py" "$CAP")
+  np_counts=$(/usr/bin/env time -f '%U %S' -o "$WORK/np-cpu.txt" python3 "$ROOT/bench/scripts/ddr-numpy.py" "$CAP")
   t1=$(now)
   rm -rf "$WORK/out"
   # shellcheck disable=SC2086
-  java ${LANESIFT_JAVA_OPTS:-} -jar "$JAR" run "$WORK/chain.json" --out "$WORK/out" --quiet
+  /usr/bin/env time -f '%U %S' -o "$WORK/ls-cpu.txt" java ${LANESIFT_JAVA_OPTS:-} -jar "$JAR" run "$WORK/chain.json" --out "$WORK/out" --quiet
   t2=$(now)
   ls_counts=$(cat "$WORK"/out/rx-bits*-bits.csv | awk -F, '$1 != "time (s)" { n++; o += ($2 == "1") } END { print "bits", n, "ones", o }')
   if [ "$np_counts" != "$ls_counts" ]; then
@@ -50,14 +53,23 @@ for r in $(seq 1 "$RUNS"); do
   fi
   np=$(awk -v a="$t0" -v b="$t1" 'BEGIN { print b - a }')
   ls=$(awk -v a="$t1" -v b="$t2" 'BEGIN { print b - a }')
+  npc=$(awk '{ print $1 + $2 }' "$WORK/np-cpu.txt")
+  lsc=$(awk '{ print $1 + $2 }' "$WORK/ls-cpu.txt")
   NP+=("$np")
   LS+=("$ls")
-  printf 'run %d: %s; numpy %.2f s, lanesift %.2f s, lanesift/numpy %.2f\n' "$r" "$np_counts" "$np" "$ls" "$(awk -v a="$ls" -v b="$np" 'BEGIN { print a / b }')"
+  NPC+=("$npc")
+  LSC+=("$lsc")
+  printf 'run %d: %s; numpy %.2f s (CPU %.2f s), lanesift %.2f s (CPU %.2f s), lanesift/numpy wall %.2f, CPU %.2f; load %s\n' "$r" "$np_counts" \
+    "$np" "$npc" "$ls" "$lsc" "$(awk -v a="$ls" -v b="$np" 'BEGIN { print a / b }')" "$(awk -v a="$lsc" -v b="$npc" 'BEGIN { print a / b }')" \
+    "$(cut -d' ' -f1 /proc/loadavg)"
 done
 stats() { printf '%s\n' "$@" | sort -g | awk '{ v[NR] = $1 } END { printf "min %.2f s, median %.2f s, max %.2f s", v[1], (NR % 2 ? v[(NR + 1) / 2] : (v[NR / 2] + v[NR / 2 + 1]) / 2), v[NR] }'; }
 median() { printf '%s\n' "$@" | sort -g | awk '{ v[NR] = $1 } END { print (NR % 2 ? v[(NR + 1) / 2] : (v[NR / 2] + v[NR / 2 + 1]) / 2) }'; }
 echo "numpy script:  $(stats "${NP[@]}")"
 echo "lanesift run:  $(stats "${LS[@]}")"
+echo "numpy CPU (user + system):    $(stats "${NPC[@]}")"
+echo "lanesift CPU (user + system): $(stats "${LSC[@]}")"
+printf 'ratio of median CPU seconds, lanesift/numpy: %.2f\n' "$(awk -v a="$(median "${LSC[@]}")" -v b="$(median "${NPC[@]}")" 'BEGIN { print a / b }')"
 printf 'ratio of medians, lanesift/numpy: %.2f (target <= 0.33)\n' "$(awk -v a="$(median "${LS[@]}")" -v b="$(median "${NP[@]}")" 'BEGIN { print a / b }')"
 echo "plain Java read and sum (read loop only): $(java "$ROOT/bench/scripts/ReadSum.java" "$CAP")"
 echo "load average: $(cut -d' ' -f1-3 /proc/loadavg)"
