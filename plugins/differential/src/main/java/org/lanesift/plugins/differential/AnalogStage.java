@@ -20,7 +20,8 @@ import org.lanesift.plugin.StageContext;
  * learns the levels, the {@link Comparator} runs chunk by chunk, windowed {@link LevelAcc}
  * statistics feed the {@link LevelTracker} (drift), the {@link WindowFindings} (level checks) and
  * the {@link LevelReport}; {@link InvalidRuns} annotates invalid input; {@link PairSignals} gives
- * P-N and (P+N)/2 when asked for.
+ * P-N and (P+N)/2 when asked for. Reads received blocks only during {@link #accept} (they may be
+ * lent: host-api {@code Block}, "Ownership"); what it needs later is copied.
  */
 final class AnalogStage implements Stage, LegAligner.Sink {
     static final int OUT_EDGES = 0;
@@ -28,6 +29,8 @@ final class AnalogStage implements Stage, LegAligner.Sink {
     static final int OUT_REPORT = 2;
     /** Most windows kept for the report; beyond that neighbours are merged. */
     static final int MAX_REPORT_WINDOWS = LevelReport.MAX_WINDOWS;
+    private static final float[] NO_VOLTS = new float[0];
+    private static final long[] NO_BITS = new long[0];
 
     private final StageContext ctx;
     private final Settings s;
@@ -80,6 +83,13 @@ final class AnalogStage implements Stage, LegAligner.Sink {
         }
         legs.add(input, b, periodFs);
         legs.pump(periodFs, this);
+        // nothing may refer to a received block's arrays once accept returns (they may be lent):
+        // the comparator keeps the tail of its last chunk as history when the next chunk begins, so
+        // an empty chunk makes it do that now; then the legs still waiting are copied
+        if (cmp != null) {
+            cmp.beginChunk(NO_VOLTS, 0, null, 0, 0, null, NO_BITS);
+        }
+        legs.detach();
     }
 
     @Override

@@ -48,6 +48,11 @@ import org.lanesift.time.TimeValue;
  * the logic, not these), start with the comparator's first output sample, and mark a sample
  * invalid where either leg is.
  *
+ * <p><b>Lent blocks.</b> The stages read a received block only during {@code accept} and copy what
+ * they keep (a leg waiting for the other, the warm-up, the comparator's history), so the plugin
+ * declares {@link PluginDescriptor.Builder#readsLentBlocks()}: a raw or packed-logic source may
+ * reuse its arrays for the blocks it sends here.
+ *
  * <p><b>Caution.</b> Probing a live link: keep within the voltage and power limits of the scope
  * input (a 50-ohm input in particular), do not tie the scope ground to a mains-referenced circuit,
  * and handle display flex cables with ESD protection; local codes and licensed practice come first.
@@ -104,6 +109,7 @@ public final class DifferentialPlugin implements PluginProvider {
             .inputs(DifferentialPlugin::inputs)
             .segments(DifferentialPlugin::segments)
             .outputs(DifferentialPlugin::outputs)
+            .readsLentBlocks()
             .build();
 
     /** Name of the optional output carrying P-N. */

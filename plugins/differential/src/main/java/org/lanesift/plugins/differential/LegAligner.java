@@ -4,12 +4,17 @@ import java.util.ArrayDeque;
 import java.util.ArrayList;
 import java.util.List;
 import org.lanesift.data.AnalogBlock;
+import org.lanesift.data.BitSets;
 
 /**
  * Lines the legs up: queues each input's blocks, checks that a channel's blocks follow each other
  * without gaps, drops the leading samples of the leg that started earlier so both share sample
  * times, and hands on {@link Chunk}s of samples both legs have. With one input it hands on each
  * block whole.
+ *
+ * <p>Blocks may be lent (host-api {@code Block}, "Ownership"): after the stage's {@code accept} has
+ * pumped, {@link #detach()} copies every block still queued into arrays of its own, which it
+ * reuses once the copy has been handed on. A block handed on is read only while the pump runs.
  */
 final class LegAligner {
     /** Receives the aligned samples. */
@@ -23,6 +28,10 @@ final class LegAligner {
     private final boolean twoLegs;
     private final String[] inputNames;
     private final List<ArrayDeque<AnalogBlock>> queues = new ArrayList<>();
+    /** Per input, the queued blocks that are copies of our own (their arrays go back to {@link #spare}). */
+    private final List<java.util.Set<AnalogBlock>> copies = new ArrayList<>();
+    /** Per input, volts arrays of copies already handed on, reused by the next {@link #detach()}. */
+    private final List<ArrayDeque<float[]>> spare = new ArrayList<>();
     private final int[] headOffset;
     private final long[] expectedStart;
     private final boolean[] seen;
@@ -36,6 +45,8 @@ final class LegAligner {
         int inputs = twoLegs ? 2 : 1;
         for (int i = 0; i < inputs; i++) {
             queues.add(new ArrayDeque<>());
+            copies.add(java.util.Collections.newSetFromMap(new java.util.IdentityHashMap<>()));
+            spare.add(new ArrayDeque<>());
         }
         headOffset = new int[inputs];
         expectedStart = new long[inputs];
@@ -87,7 +98,7 @@ final class LegAligner {
                 headOffset[skipLeg] += take;
                 skip -= take;
                 if (headOffset[skipLeg] == h.length()) {
-                    q.poll();
+                    release(skipLeg);
                     headOffset[skipLeg] = 0;
                 }
             }
@@ -106,7 +117,7 @@ final class LegAligner {
                 int len = a.length() - off;
                 sink.start(a, off);
                 sink.feed(new Chunk(a.volts(), off, null, 0, len, Chunk.mask(a.invalid(), off, len, null, 0)));
-                queues.get(0).poll();
+                release(0);
                 headOffset[0] = 0;
                 continue;
             }
@@ -122,13 +133,55 @@ final class LegAligner {
             headOffset[0] += len;
             headOffset[1] += len;
             if (headOffset[0] == a.length()) {
-                queues.get(0).poll();
+                release(0);
                 headOffset[0] = 0;
             }
             if (headOffset[1] == b.length()) {
-                queues.get(1).poll();
+                release(1);
                 headOffset[1] = 0;
             }
+        }
+    }
+
+    /** Drops an input's head block; a copy's array is kept for reuse (it is overwritten only by a later {@link #detach()}). */
+    private void release(int input) {
+        AnalogBlock h = queues.get(input).poll();
+        if (h != null && copies.get(input).remove(h)) {
+            spare.get(input).add(h.volts());
+        }
+    }
+
+    /**
+     * Copies every queued block that is not yet a copy of our own (the samples from the first one
+     * not handed on, and its invalid mask), so that nothing queued refers to a received block's
+     * arrays once the stage's {@code accept} returns. Call it after {@link #pump}, once the sink no
+     * longer reads the chunks it was fed.
+     */
+    void detach() {
+        for (int input = 0; input < queues.size(); input++) {
+            ArrayDeque<AnalogBlock> q = queues.get(input);
+            if (q.isEmpty()) {
+                continue;
+            }
+            java.util.Set<AnalogBlock> own = copies.get(input);
+            ArrayDeque<AnalogBlock> kept = new ArrayDeque<>(q.size());
+            for (AnalogBlock b : q) {
+                if (own.contains(b)) {
+                    kept.add(b);
+                    continue;
+                }
+                float[] v = spare.get(input).poll();
+                if (v == null || v.length < b.length()) {
+                    v = new float[b.length()];
+                }
+                System.arraycopy(b.volts(), 0, v, 0, b.length());
+                long[] inv = b.invalid() == null ? null : java.util.Arrays.copyOf(b.invalid(), BitSets.words(b.length()));
+                AnalogBlock c = new AnalogBlock(b.channel(), b.firstIndex(), b.startFs(), b.periodFs(), v, b.length(), inv);
+                own.add(c);
+                kept.add(c);
+            }
+            q.clear();
+            q.addAll(kept);
         }
     }
 

@@ -94,7 +94,34 @@ final class LogicPairStage implements Stage {
         expected[input] = b.startFs() + Math.round(b.length() * b.periodFs());
         queues.get(input).add(b);
         pump();
+        detach();
     }
+
+    /**
+     * Copies the blocks still waiting for the other leg (bits and invalid mask), so that nothing
+     * queued refers to a received block's arrays once {@link #accept} returns: blocks may be lent
+     * (host-api {@code Block}, "Ownership"). Logic blocks are one bit per sample, so the copy is small.
+     */
+    private void detach() {
+        for (ArrayDeque<LogicBlock> q : queues) {
+            int n = q.size();
+            for (int i = 0; i < n; i++) {
+                LogicBlock b = q.poll();
+                int words = BitSets.words(b.length());
+                q.add(copies.contains(b) ? b : own(new LogicBlock(b.channel(), b.firstIndex(), b.startFs(), b.periodFs(),
+                        java.util.Arrays.copyOf(b.bits(), words), b.length(),
+                        b.invalid() == null ? null : java.util.Arrays.copyOf(b.invalid(), words))));
+            }
+        }
+    }
+
+    private LogicBlock own(LogicBlock b) {
+        copies.add(b);
+        return b;
+    }
+
+    /** The queued blocks that are copies of our own (never copied again); forgotten when handed on. */
+    private final java.util.Set<LogicBlock> copies = java.util.Collections.newSetFromMap(new java.util.IdentityHashMap<>());
 
     private final long[] firstStarts = new long[2];
 
@@ -119,11 +146,11 @@ final class LogicPairStage implements Stage {
             headOffset[0] += len;
             headOffset[1] += len;
             if (headOffset[0] == p.length()) {
-                queues.get(0).poll();
+                copies.remove(queues.get(0).poll());
                 headOffset[0] = 0;
             }
             if (headOffset[1] == n.length()) {
-                queues.get(1).poll();
+                copies.remove(queues.get(1).poll());
                 headOffset[1] = 0;
             }
         }

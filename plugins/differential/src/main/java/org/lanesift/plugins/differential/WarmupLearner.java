@@ -39,9 +39,11 @@ final class WarmupLearner {
         this.levelsTrack = levelsTrack;
     }
 
-    /** Holds a chunk back; true once the warm-up is full. */
+    /** Holds a copy of a chunk back (its blocks may be lent and recycled); true once the warm-up is full. */
     boolean add(Chunk c) {
-        warm.add(c);
+        float[] a = java.util.Arrays.copyOfRange(c.a(), c.ao(), c.ao() + c.len());
+        float[] b = c.b() == null ? null : java.util.Arrays.copyOfRange(c.b(), c.bo(), c.bo() + c.len());
+        warm.add(new Chunk(a, 0, b, 0, c.len(), c.inv()));
         warmCount += c.len();
         return warmCount >= s.warmupSamples;
     }
