@@ -1,22 +1,24 @@
 #!/usr/bin/env bash
 # Cold-start check (not a unit test): one pass of raw -> 4 x differential (fixed threshold) ->
-# dual-edge over a generated 1 GB capture (8 interleaved float32 legs at 2.5 GS/s, a 100 MHz
-# double-edge link, bench DdrCapture), each pass in a fresh JVM with no output files
-# (bench ColdPass), under several sets of JVM options, the sets interleaved round by round.
+# dual-edge (the chain of ddr-chain.json) over the capture of vs-script.sh (8 interleaved float32
+# legs at 2.5 GS/s, a 100 MHz double-edge link, written by ddr-capture.py; SIZE samples per channel,
+# default 30 M = 960 MB), each pass in a fresh JVM with no output files (bench ColdPass), under several sets of JVM options, the sets interleaved round by round.
 # Prints per set: wall and CPU seconds (min/median/max over the rounds), the median peak resident
 # memory, and the median of the per-round wall ratios to the first set. Every pass must count the
 # same bits and ones.
-# Usage: [ONLY='default|serial'] bench/scripts/cold-start.sh [ROUNDS] [GIGABYTES] [WORKDIR]
+# Usage: [ONLY='default|serial'] bench/scripts/cold-start.sh [ROUNDS] [SIZE] [WORKDIR]
+# (WORKDIR: a folder kept by KEEP=1 vs-script.sh holds the same capture, ddr.bin, and is reused)
 # (ONLY: a regular expression; only the sets whose whole name matches run)
 set -euo pipefail
 cd "$(dirname "$0")/../.."
 ROUNDS="${1:-3}"
-GB="${2:-1.0}"
+SIZE="${2:-30000000}"
 WORK="${3:-$(mktemp -d /tmp/lanesift-cold.XXXXXX)}"
 mkdir -p "$WORK"
+python3 -c 'import numpy' 2>/dev/null || { echo "numpy is missing (ddr-capture.py): install Debian's python3-numpy" >&2; exit 2; }
 JAR=bench/target/benchmarks.jar
 [ -f "$JAR" ] || mvn -o -q -pl bench -am package -DskipTests
-[ -f "$WORK/ddr.bin" ] || java -cp "$JAR" org.lanesift.bench.DdrCapture "$WORK/ddr.bin" "$GB"
+[ -f "$WORK/ddr.bin" ] || python3 bench/scripts/ddr-capture.py "$WORK/ddr.bin" "$SIZE"
 # an application class-data archive of the classes one pass loads
 [ -f "$WORK/app.jsa" ] || java -XX:ArchiveClassesAtExit="$WORK/app.jsa" -cp "$JAR" org.lanesift.bench.ColdPass "$WORK/ddr.bin" >/dev/null 2>&1
 SETS=(

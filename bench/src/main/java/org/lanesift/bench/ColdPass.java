@@ -8,13 +8,17 @@ import org.lanesift.data.BitStream;
 import org.lanesift.plugin.PluginRegistry;
 
 /**
- * One pass of the {@link DdrCapture} chain over a capture in this JVM, with no output files: raw,
- * four differential stages with a fixed threshold, dual-edge; the bits of the three data lanes are
- * counted through taps. Prints the bit and ones counts (the check that every variant decodes the
- * same) and the pass's wall time and the JVM's uptime at the end, in seconds. Meant to be started
+ * One pass of the chain of bench/scripts/ddr-chain.json over a capture written by
+ * bench/scripts/ddr-capture.py, in this JVM, with no output files: raw, four differential stages
+ * with a fixed threshold of 0 V (legs {@code clk_p, clk_n, d0_p ... d2_n}), dual-edge; the bits of
+ * the three data lanes are counted through taps. Prints the bit and ones counts (the check that every variant decodes the
+ * same), the pass's wall time and the JVM's uptime at the end, in seconds, and the bytes the pass
+ * allocated on its thread (the chain runs on the calling thread). With {@code --no-lend} every raw
+ * output also gets a host tap that does nothing, so the source lends no block (host-api
+ * {@code Block}, "Ownership"): the same pass with new arrays for every block. Meant to be started
  * in a fresh JVM per run, with the JVM options under test (bench/scripts/cold-start.sh).
  *
- * <p>Usage: {@code java [options] -cp bench/target/benchmarks.jar org.lanesift.bench.ColdPass FILE}
+ * <p>Usage: {@code java [options] -cp bench/target/benchmarks.jar org.lanesift.bench.ColdPass FILE [--no-lend]}
  */
 public final class ColdPass {
     private ColdPass() {
@@ -23,19 +27,26 @@ public final class ColdPass {
     /**
      * Runs the pass.
      *
-     * @param args the capture written by {@link DdrCapture}
+     * @param args the capture written by bench/scripts/ddr-capture.py (its sidecar beside it)
      */
     public static void main(String[] args) {
         long t0 = System.nanoTime();
+        com.sun.management.ThreadMXBean threads = (com.sun.management.ThreadMXBean) java.lang.management.ManagementFactory.getThreadMXBean();
+        long allocated0 = threads.getCurrentThreadAllocatedBytes();
         Path file = Path.of(args[0]);
+        boolean lend = !(args.length > 1 && args[1].equals("--no-lend"));
         long[] counts = new long[2];
         ChainBuilder b = Chain.builder(PluginRegistry.discover(ColdPass.class.getClassLoader()))
                 .add("cap", "raw", Map.of("file", file.toString()))
                 .add("sampler", "dual-edge", Map.of("mode", "ddr", "lanes", 3));
-        for (String p : new String[] {"CLK", "D0", "D1", "D2"}) {
-            b.add("rx-" + p, "differential", Map.of("thresholdVolts", 0.0, "hysteresisVolts", 0.05, "levelReport", false))
-                    .wire("cap." + p + "_P", "rx-" + p + ".p").wire("cap." + p + "_N", "rx-" + p + ".n")
-                    .wire("rx-" + p + ".edges", "sampler." + (p.equals("CLK") ? "clock" : "lane" + p.charAt(1)));
+        for (String p : new String[] {"clk", "d0", "d1", "d2"}) {
+            // the options of ddr-chain.json: threshold given, hysteresis and levels learned
+            b.add(p, "differential", Map.of("thresholdVolts", 0.0))
+                    .wire("cap." + p + "_p", p + ".p").wire("cap." + p + "_n", p + ".n")
+                    .wire(p + ".edges", "sampler." + (p.equals("clk") ? "clock" : "lane" + p.charAt(1)));
+            if (!lend) {
+                b.tap("cap." + p + "_p", blk -> { }).tap("cap." + p + "_n", blk -> { });
+            }
         }
         for (int lane = 0; lane < 3; lane++) {
             b.tap("sampler.bits" + lane, blk -> {
@@ -51,6 +62,8 @@ public final class ColdPass {
         }
         double pass = (System.nanoTime() - t0) / 1e9;
         double uptime = java.lang.management.ManagementFactory.getRuntimeMXBean().getUptime() / 1e3;
-        System.out.printf(java.util.Locale.ROOT, "bits %d ones %d pass %.3f s uptime %.3f s%n", counts[0], counts[1], pass, uptime);
+        double allocatedMb = (threads.getCurrentThreadAllocatedBytes() - allocated0) / 1e6;
+        System.out.printf(java.util.Locale.ROOT, "bits %d ones %d pass %.3f s uptime %.3f s allocated %.0f MB%n", counts[0], counts[1], pass, uptime,
+                allocatedMb);
     }
 }
