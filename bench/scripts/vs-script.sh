@@ -6,7 +6,8 @@
 # load change on the machine hits both alike:
 #   - ddr-numpy.py: read, difference of each pair, clock zero crossings (both edges), data value
 #     interpolated at each crossing, count bits and ones (numpy from Debian's python3-numpy);
-#   - lanesift run of the equivalent chain: raw -> 4 x differential (threshold 0 V) -> dual-edge
+#   - lanesift run of the equivalent chain, started as a user starts it (the ./lanesift launcher, so
+#     with its JVM options; LANESIFT_JAVA_OPTS adds more): raw -> 4 x differential (threshold 0 V) -> dual-edge
 #     (both edges, 3 lanes), every output written as run writes it; bits and ones counted from
 #     its rx-bits*-bits.csv afterwards (not timed).
 # Each run must give the same bit count and ones count (the script stops otherwise). Wall times
@@ -17,7 +18,10 @@
 # The chain is ddr-chain.json; dist VsScriptTest checks on a small capture that both
 # sides give the same counts.
 # Usage: bench/scripts/vs-script.sh [RUNS (default 5)] [SIZE (samples per channel, default 30000000)]
-#        KEEP=1 keeps the work folder.
+#        KEEP=1 keeps the work folder; CAP=FILE reuses a capture written by ddr-capture.py (its sidecar
+#        beside it) instead of writing one; OUTPUTS=binary runs lanesift with --outputs binary,artifacts,annotations
+#        (packed .bits files instead of the bits CSV and the VCD, docs/bits-binary.md; bits and ones
+#        are then counted from the .bits files, not timed).
 set -euo pipefail
 cd "$(dirname "$0")/../.."
 ROOT="$PWD"
@@ -27,10 +31,18 @@ python3 -c 'import numpy' 2>/dev/null || { echo "numpy is missing: install Debia
 WORK="$(mktemp -d /tmp/lanesift-vs-script.XXXXXX)"
 [ "${KEEP:-0}" = 1 ] || trap 'rm -rf "$WORK"' EXIT
 ./lanesift --version >/dev/null            # builds dist/target/lanesift.jar if needed
-JAR="$ROOT/dist/target/lanesift.jar"
-CAP="$WORK/ddr.bin"
-python3 "$ROOT/bench/scripts/ddr-capture.py" "$CAP" "$SIZE"
-echo "capture: $CAP, $(stat -c %s "$CAP") bytes, $SIZE samples per channel" >&2
+if [ -n "${CAP:-}" ]; then
+  [ -f "$CAP" ] && [ -f "$CAP.json" ] || { echo "$CAP or its sidecar $CAP.json is missing" >&2; exit 2; }
+  ln -s "$(realpath "$CAP")" "$WORK/ddr.bin"; ln -s "$(realpath "$CAP.json")" "$WORK/ddr.bin.json"
+  CAP="$WORK/ddr.bin"
+  SIZE=$(( $(stat -L -c %s "$CAP") / 32 ))
+else
+  CAP="$WORK/ddr.bin"
+  python3 "$ROOT/bench/scripts/ddr-capture.py" "$CAP" "$SIZE"
+fi
+OUTPUT_ARGS=()
+[ "${OUTPUTS:-}" = binary ] && OUTPUT_ARGS=(--outputs binary,artifacts,annotations)
+echo "capture: $CAP, $(stat -L -c %s "$CAP") bytes, $SIZE samples per channel" >&2
 cp "$ROOT/bench/scripts/ddr-chain.json" "$WORK/chain.json"   # reads ddr.bin beside it
 
 now() { date +%s.%N; }
@@ -43,10 +55,29 @@ for r in $(seq 1 "$RUNS"); do
   np_counts=$(/usr/bin/env time -f '%U %S' -o "$WORK/np-cpu.txt" python3 "$ROOT/bench/scripts/ddr-numpy.py" "$CAP")
   t1=$(now)
   rm -rf "$WORK/out"
-  # shellcheck disable=SC2086
-  /usr/bin/env time -f '%U %S' -o "$WORK/ls-cpu.txt" java ${LANESIFT_JAVA_OPTS:-} -jar "$JAR" run "$WORK/chain.json" --out "$WORK/out" --quiet
+  /usr/bin/env time -f '%U %S' -o "$WORK/ls-cpu.txt" "$ROOT/lanesift" run "$WORK/chain.json" --out "$WORK/out" --quiet "${OUTPUT_ARGS[@]}"
   t2=$(now)
-  ls_counts=$(cat "$WORK"/out/rx-bits*-bits.csv | awk -F, '$1 != "time (s)" { n++; o += ($2 == "1") } END { print "bits", n, "ones", o }')
+  if [ "${OUTPUTS:-}" = binary ]; then
+    ls_counts=$(python3 - "$WORK"/out/rx-bits*.bits <<'PY'
+import sys
+import numpy as np
+n = o = 0
+for f in sys.argv[1:]:
+    b = open(f, "rb").read()
+    p = 32                                    # header (docs/bits-binary.md)
+    while p < len(b):
+        k = int.from_bytes(b[p:p + 8], "little", signed=True)
+        w = (k + 63) // 64
+        v = np.frombuffer(b, dtype="<u8", count=w, offset=p + 40)
+        n += k
+        o += int(np.unpackbits(v.view(np.uint8), bitorder="little")[:k].sum())
+        p += 40 + 24 * w
+print("bits", n, "ones", o)
+PY
+)
+  else
+    ls_counts=$(cat "$WORK"/out/rx-bits*-bits.csv | awk -F, '$1 != "time (s)" { n++; o += ($2 == "1") } END { print "bits", n, "ones", o }')
+  fi
   if [ "$np_counts" != "$ls_counts" ]; then
     echo "run $r: numpy says '$np_counts', lanesift says '$ls_counts'" >&2
     exit 1
