@@ -14,22 +14,18 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.SplittableRandom;
+import java.util.function.Consumer;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.lanesift.chain.Chain;
 import org.lanesift.chain.ChainBuilder;
-import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.Artifact;
 import org.lanesift.data.Block;
 import org.lanesift.data.DataKind;
 import org.lanesift.data.Edges;
 import org.lanesift.data.LogicBlock;
-import org.lanesift.plugin.PluginDescriptor;
-import org.lanesift.plugin.PluginProvider;
 import org.lanesift.plugin.PluginRegistry;
-import org.lanesift.plugin.PortSpec;
-import org.lanesift.plugin.Stage;
-import org.lanesift.plugin.StageContext;
+import org.lanesift.testkit.BlockKeeper;
 
 /**
  * The differential declares {@code readsLentBlocks}, so the raw and packed-logic sources reuse the
@@ -41,43 +37,6 @@ import org.lanesift.plugin.StageContext;
  */
 class DifferentialLentBlocksTest {
     private static final int FRAMES = 20_000;
-
-    /** A stage that declares readsLentBlocks but keeps every block (breaking the rule on purpose) and a copy as it came. */
-    static final class Witness implements PluginProvider {
-        final List<Object[]> kept = new ArrayList<>();
-        private final PluginDescriptor d;
-
-        Witness(DataKind kind) {
-            d = PluginDescriptor.builder("lent-witness").input(PortSpec.of("in", kind, "anything")).readsLentBlocks().build();
-        }
-
-        @Override
-        public PluginDescriptor descriptor() {
-            return d;
-        }
-
-        @Override
-        public Stage open(StageContext context) {
-            return new Stage() {
-                @Override
-                public void accept(int input, Block block) {
-                    Object arr = block instanceof AnalogBlock a ? a.volts() : ((LogicBlock) block).bits();
-                    Object copy = block instanceof AnalogBlock a ? a.volts().clone() : ((LogicBlock) block).bits().clone();
-                    kept.add(new Object[] {arr, copy});
-                }
-            };
-        }
-
-        /** Kept blocks whose arrays no longer read as they did on arrival. */
-        int changed() {
-            int n = 0;
-            for (Object[] k : kept) {
-                boolean same = k[0] instanceof float[] f ? Arrays.equals(f, (float[]) k[1]) : Arrays.equals((long[]) k[0], (long[]) k[1]);
-                n += same ? 0 : 1;
-            }
-            return n;
-        }
-    }
 
     /** Seeded legs: a random bit stream with soft edges, noise and a slow common-mode drift; some NaN samples. */
     private static float[][] legs(long seed, int frames, int samplesPerBit) {
@@ -120,10 +79,10 @@ class DifferentialLentBlocksTest {
     }
 
     /** What the chain's differential stages put out, rendered for comparison. */
-    private static List<String> decode(ChainSpec spec, boolean lend, Witness witness) {
+    private static List<String> decode(ChainSpec spec, boolean lend, BlockKeeper witness) {
         PluginRegistry reg = PluginRegistry.discover(DifferentialLentBlocksTest.class.getClassLoader()).add(witness);
         ChainBuilder b = Chain.builder(reg);
-        spec.build(b);
+        spec.build().accept(b);
         b.add("witness", "lent-witness").wire(spec.witnessAt(), "witness");
         if (!lend) {
             for (String out : spec.sourceOutputs()) {
@@ -156,46 +115,32 @@ class DifferentialLentBlocksTest {
         return blk.toString();
     }
 
-    /** A chain under test: how to build it, its source outputs, what to compare and where the witness listens. */
-    interface ChainSpec {
-        void build(ChainBuilder b);
-
-        List<String> sourceOutputs();
-
-        List<String> decodedOutputs();
-
-        String witnessAt();
+    /**
+     * A chain under test.
+     *
+     * @param build          adds the sources and the differential
+     * @param sourceOutputs  the source outputs the differential reads (tapped in the run that lends nothing)
+     * @param decodedOutputs what is compared
+     * @param witnessAt      the source output the witness listens to
+     */
+    record ChainSpec(Consumer<ChainBuilder> build, List<String> sourceOutputs, List<String> decodedOutputs, String witnessAt) {
     }
 
     private static ChainSpec onePair(Path bin, Map<String, Object> diffOptions, int blockSamples) {
-        return new ChainSpec() {
-            @Override
-            public void build(ChainBuilder b) {
-                b.add("cap", "raw", Map.of("file", bin.toString(), "blockSamples", blockSamples)).add("rx", "differential", diffOptions)
-                        .wire("cap.p", "rx.p").wire("cap.n", "rx.n");
-            }
-
-            @Override
-            public List<String> sourceOutputs() {
-                return List.of("cap.p", "cap.n");
-            }
-
-            @Override
-            public List<String> decodedOutputs() {
-                return List.of("rx.edges", "rx.logic", "rx.report");
-            }
-
-            @Override
-            public String witnessAt() {
-                return "cap.p";
-            }
-        };
+        return new ChainSpec(b -> {
+            b.add("cap", "raw", Map.of("file", bin.toString(), "blockSamples", blockSamples)).add("rx", "differential", diffOptions)
+                    .wire("cap.p", "rx.p").wire("cap.n", "rx.n");
+        }, List.of("cap.p", "cap.n"), List.of("rx.edges", "rx.logic", "rx.report"), "cap.p");
     }
 
     private static void assertSameWhenLent(ChainSpec spec, String what) {
-        Witness lentWitness = new Witness(DataKind.ANALOG);
+        assertSameWhenLent(spec, what, DataKind.ANALOG);
+    }
+
+    private static void assertSameWhenLent(ChainSpec spec, String what, DataKind legs) {
+        BlockKeeper lentWitness = new BlockKeeper("lent-witness", legs, true);
         List<String> lent = decode(spec, true, lentWitness);
-        Witness ownWitness = new Witness(DataKind.ANALOG);
+        BlockKeeper ownWitness = new BlockKeeper("lent-witness", legs, true);
         List<String> own = decode(spec, false, ownWitness);
         assertTrue(lentWitness.changed() > 0, what + ": the witness beside the differential was lent poisoned blocks");
         assertEquals(0, ownWitness.changed(), what + ": with taps on the source nothing is lent");
@@ -237,27 +182,9 @@ class DifferentialLentBlocksTest {
         for (Map<String, Object> o : List.of(Map.<String, Object>of("mode", "differential"),
                 Map.<String, Object>of("mode", "single", "reference", "fixed", "referenceVolts", 1.2, "hysteresisVolts", 0.01))) {
             String channel = o.get("mode").equals("single") ? "cap.n" : "cap.p";
-            ChainSpec spec = new ChainSpec() {
-                @Override
-                public void build(ChainBuilder b) {
-                    b.add("cap", "raw", Map.of("file", bin.toString(), "blockSamples", 999)).add("rx", "differential", o).wire(channel, "rx.in");
-                }
-
-                @Override
-                public List<String> sourceOutputs() {
-                    return List.of(channel);
-                }
-
-                @Override
-                public List<String> decodedOutputs() {
-                    return List.of("rx.edges", "rx.logic", "rx.report");
-                }
-
-                @Override
-                public String witnessAt() {
-                    return channel;
-                }
-            };
+            ChainSpec spec = new ChainSpec(b -> {
+                b.add("cap", "raw", Map.of("file", bin.toString(), "blockSamples", 999)).add("rx", "differential", o).wire(channel, "rx.in");
+            }, List.of(channel), List.of("rx.edges", "rx.logic", "rx.report"), channel);
             assertSameWhenLent(spec, "options " + o);
         }
     }
@@ -267,30 +194,12 @@ class DifferentialLentBlocksTest {
         float[][] l = legs(23, FRAMES, 9);
         Path pBin = rawFile(dir, "p.raw", new float[][] {l[0]}, new String[] {"p"});
         Path nBin = rawFile(dir, "n.raw", new float[][] {l[1]}, new String[] {"n"});
-        ChainSpec spec = new ChainSpec() {
-            @Override
-            public void build(ChainBuilder b) {
-                // different block lengths, so one leg's blocks wait across the other source's calls
-                b.add("capP", "raw", Map.of("file", pBin.toString(), "blockSamples", 1500))
-                        .add("capN", "raw", Map.of("file", nBin.toString(), "blockSamples", 640))
-                        .add("rx", "differential", Map.of()).wire("capP.p", "rx.p").wire("capN.n", "rx.n");
-            }
-
-            @Override
-            public List<String> sourceOutputs() {
-                return List.of("capP.p", "capN.n");
-            }
-
-            @Override
-            public List<String> decodedOutputs() {
-                return List.of("rx.edges", "rx.logic", "rx.report");
-            }
-
-            @Override
-            public String witnessAt() {
-                return "capP.p";
-            }
-        };
+        ChainSpec spec = new ChainSpec(b -> {
+            // different block lengths, so one leg's blocks wait across the other source's calls
+            b.add("capP", "raw", Map.of("file", pBin.toString(), "blockSamples", 1500))
+                    .add("capN", "raw", Map.of("file", nBin.toString(), "blockSamples", 640))
+                    .add("rx", "differential", Map.of()).wire("capP.p", "rx.p").wire("capN.n", "rx.n");
+        }, List.of("capP.p", "capN.n"), List.of("rx.edges", "rx.logic", "rx.report"), "capP.p");
         assertSameWhenLent(spec, "two sources");
     }
 
@@ -314,36 +223,11 @@ class DifferentialLentBlocksTest {
         Files.write(nBin, n);
         Files.writeString(Path.of(pBin + ".json"), "{\"rateHz\": 5e8, \"format\": \"logic8\", \"channels\": [{\"name\": \"p\", \"bit\": 0}]}");
         Files.writeString(Path.of(nBin + ".json"), "{\"rateHz\": 5e8, \"format\": \"logic8\", \"channels\": [{\"name\": \"n\", \"bit\": 0}]}");
-        ChainSpec spec = new ChainSpec() {
-            @Override
-            public void build(ChainBuilder b) {
-                b.add("capP", "packed-logic", Map.of("file", pBin.toString(), "blockSamples", 1024))
-                        .add("capN", "packed-logic", Map.of("file", nBin.toString(), "blockSamples", 320))
-                        .add("rx", "differential", Map.of("mode", "logic-pair")).wire("capP.p", "rx.p").wire("capN.n", "rx.n");
-            }
-
-            @Override
-            public List<String> sourceOutputs() {
-                return List.of("capP.p", "capN.n");
-            }
-
-            @Override
-            public List<String> decodedOutputs() {
-                return List.of("rx.edges", "rx.logic");
-            }
-
-            @Override
-            public String witnessAt() {
-                return "capP.p";
-            }
-        };
-        Witness lentWitness = new Witness(DataKind.LOGIC);
-        List<String> lent = decode(spec, true, lentWitness);
-        Witness ownWitness = new Witness(DataKind.LOGIC);
-        List<String> own = decode(spec, false, ownWitness);
-        assertTrue(lentWitness.changed() > 0, "the witness was lent poisoned blocks");
-        assertEquals(0, ownWitness.changed());
-        assertTrue(own.stream().anyMatch(x -> x.startsWith("rx.edges") && !x.contains(" [] ")), "edges were found");
-        assertEquals(own, lent, "logic-pair decodes lent blocks as it decodes blocks of its own");
+        ChainSpec spec = new ChainSpec(b -> {
+            b.add("capP", "packed-logic", Map.of("file", pBin.toString(), "blockSamples", 1024))
+                    .add("capN", "packed-logic", Map.of("file", nBin.toString(), "blockSamples", 320))
+                    .add("rx", "differential", Map.of("mode", "logic-pair")).wire("capP.p", "rx.p").wire("capN.n", "rx.n");
+        }, List.of("capP.p", "capN.n"), List.of("rx.edges", "rx.logic"), "capP.p");
+        assertSameWhenLent(spec, "logic-pair", DataKind.LOGIC);
     }
 }

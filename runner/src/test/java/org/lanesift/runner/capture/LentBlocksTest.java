@@ -21,13 +21,8 @@ import org.lanesift.chain.Chain;
 import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.Block;
 import org.lanesift.data.DataKind;
-import org.lanesift.data.LogicBlock;
-import org.lanesift.plugin.PluginDescriptor;
-import org.lanesift.plugin.PluginProvider;
 import org.lanesift.plugin.PluginRegistry;
-import org.lanesift.plugin.PortSpec;
-import org.lanesift.plugin.Stage;
-import org.lanesift.plugin.StageContext;
+import org.lanesift.testkit.BlockKeeper;
 
 /**
  * The ownership rule of lent blocks (host-api {@code Block}, "Ownership") as the raw and
@@ -43,46 +38,6 @@ class LentBlocksTest {
         BlockArrays.poison = poisonBefore;
     }
 
-    /** A sink that keeps every block it receives (breaking the rule if it declared readsLentBlocks) and a copy of it as it was. */
-    static final class Keeper implements PluginProvider {
-        final List<Block> kept = new ArrayList<>();
-        final List<Object> copies = new ArrayList<>();
-        private final PluginDescriptor d;
-
-        Keeper(String id, DataKind kind, boolean declares) {
-            PluginDescriptor.Builder b = PluginDescriptor.builder(id).input(PortSpec.of("in", kind, "anything"));
-            d = (declares ? b.readsLentBlocks() : b).build();
-        }
-
-        @Override
-        public PluginDescriptor descriptor() {
-            return d;
-        }
-
-        @Override
-        public Stage open(StageContext context) {
-            return new Stage() {
-                @Override
-                public void accept(int input, Block block) {
-                    kept.add(block);
-                    copies.add(block instanceof AnalogBlock a ? a.volts().clone() : ((LogicBlock) block).bits().clone());
-                }
-            };
-        }
-
-        /** How many kept blocks no longer read as they did when they arrived. */
-        int changed() {
-            int n = 0;
-            for (int i = 0; i < kept.size(); i++) {
-                boolean same = kept.get(i) instanceof AnalogBlock a
-                        ? java.util.Arrays.equals(a.volts(), (float[]) copies.get(i))
-                        : java.util.Arrays.equals(((LogicBlock) kept.get(i)).bits(), (long[]) copies.get(i));
-                n += same ? 0 : 1;
-            }
-            return n;
-        }
-    }
-
     private static Path rawCapture(Path dir, int frames) throws Exception {
         Path bin = dir.resolve("legs.raw");
         ByteBuffer bb = ByteBuffer.allocate(frames * 2 * 4).order(ByteOrder.LITTLE_ENDIAN);
@@ -94,7 +49,7 @@ class LentBlocksTest {
         return bin;
     }
 
-    private static Chain chain(Path bin, Keeper a, Keeper b, List<Block> tapped) {
+    private static Chain chain(Path bin, BlockKeeper a, BlockKeeper b, List<Block> tapped) {
         PluginRegistry reg = new PluginRegistry().add(new RawSource()).add(a).add(b);
         var cb = Chain.builder(reg).add("cap", "raw", Map.of("file", bin.toString(), "blockSamples", 256))
                 .add("a", a.descriptor().id()).add("b", b.descriptor().id()).wire("cap.p", "a").wire("cap.n", "b");
@@ -107,27 +62,27 @@ class LentBlocksTest {
     @Test
     void aKeeperThatDeclaredItReadsLentBlocksSeesThemPoisoned(@TempDir Path dir) throws Exception {
         BlockArrays.poison = true;
-        Keeper liar = new Keeper("keeps-lent", DataKind.ANALOG, true);
-        Keeper honest = new Keeper("keeps-own", DataKind.ANALOG, false);
+        BlockKeeper liar = new BlockKeeper("keeps-lent", DataKind.ANALOG, true);
+        BlockKeeper honest = new BlockKeeper("keeps-own", DataKind.ANALOG, false);
         // 5 full blocks of 256 frames and a short one
         try (Chain c = chain(rawCapture(dir, 5 * 256 + 100), liar, honest, null)) {
             c.run();
         }
-        assertEquals(6, liar.kept.size());
+        assertEquals(6, liar.kept().size());
         assertEquals(5, liar.changed(), "every full block lent to a stage that kept it was recycled under it");
-        AnalogBlock first = (AnalogBlock) liar.kept.get(0);
-        AnalogBlock third = (AnalogBlock) liar.kept.get(2);
+        AnalogBlock first = (AnalogBlock) liar.kept().get(0);
+        AnalogBlock third = (AnalogBlock) liar.kept().get(2);
         assertSame(first.volts(), third.volts(), "two sets of arrays are used in turn");
-        assertNotSame(first.volts(), ((AnalogBlock) liar.kept.get(1)).volts());
+        assertNotSame(first.volts(), ((AnalogBlock) liar.kept().get(1)).volts());
         assertEquals(0, honest.changed(), "a stage that did not declare it gets blocks of its own to keep");
-        assertEquals(0, ((AnalogBlock) honest.kept.get(0)).volts()[0], 0);
+        assertEquals(0, ((AnalogBlock) honest.kept().get(0)).volts()[0], 0);
     }
 
     @Test
     void withoutPoisonAKeptLentBlockStillChangesTwoSpansLater(@TempDir Path dir) throws Exception {
         BlockArrays.poison = false;
-        Keeper liar = new Keeper("keeps-lent", DataKind.ANALOG, true);
-        Keeper honest = new Keeper("keeps-own", DataKind.ANALOG, false);
+        BlockKeeper liar = new BlockKeeper("keeps-lent", DataKind.ANALOG, true);
+        BlockKeeper honest = new BlockKeeper("keeps-own", DataKind.ANALOG, false);
         try (Chain c = chain(rawCapture(dir, 4 * 256), liar, honest, null)) {
             c.run();
         }
@@ -138,8 +93,8 @@ class LentBlocksTest {
     @Test
     void anOutputWithATapIsNotLent(@TempDir Path dir) throws Exception {
         BlockArrays.poison = true;
-        Keeper liar = new Keeper("keeps-lent", DataKind.ANALOG, true);
-        Keeper liar2 = new Keeper("keeps-lent2", DataKind.ANALOG, true);
+        BlockKeeper liar = new BlockKeeper("keeps-lent", DataKind.ANALOG, true);
+        BlockKeeper liar2 = new BlockKeeper("keeps-lent2", DataKind.ANALOG, true);
         List<Block> tapped = new ArrayList<>();
         try (Chain c = chain(rawCapture(dir, 3 * 256), liar, liar2, tapped)) {
             c.run();
@@ -165,16 +120,16 @@ class LentBlocksTest {
         Files.write(bin, words);
         Files.writeString(Path.of(bin + ".json"), "{\"rateHz\": 5e8, \"format\": \"logic8\", \"channels\": [{\"name\": \"clk\", \"bit\": 5},"
                 + " {\"name\": \"d0\", \"bit\": 0}]}");
-        Keeper liar = new Keeper("keeps-lent", DataKind.LOGIC, true);
-        Keeper honest = new Keeper("keeps-own", DataKind.LOGIC, false);
+        BlockKeeper liar = new BlockKeeper("keeps-lent", DataKind.LOGIC, true);
+        BlockKeeper honest = new BlockKeeper("keeps-own", DataKind.LOGIC, false);
         PluginRegistry reg = new PluginRegistry().add(new PackedLogicSource()).add(liar).add(honest);
         try (Chain c = Chain.builder(reg).add("cap", "packed-logic", Map.of("file", bin.toString(), "blockSamples", 128))
                 .add("a", "keeps-lent").add("b", "keeps-own").wire("cap.clk", "a").wire("cap.d0", "b").build()) {
             c.run();
         }
-        assertEquals(4, liar.kept.size());
+        assertEquals(4, liar.kept().size());
         assertEquals(4, liar.changed());
         assertEquals(0, honest.changed());
-        assertFalse(liar.kept.get(0) == honest.kept.get(0));
+        assertFalse(liar.kept().get(0) == honest.kept().get(0));
     }
 }

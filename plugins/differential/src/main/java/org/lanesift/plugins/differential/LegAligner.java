@@ -2,7 +2,11 @@ package org.lanesift.plugins.differential;
 
 import java.util.ArrayDeque;
 import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.Collections;
+import java.util.IdentityHashMap;
 import java.util.List;
+import java.util.Set;
 import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.BitSets;
 
@@ -29,7 +33,7 @@ final class LegAligner {
     private final String[] inputNames;
     private final List<ArrayDeque<AnalogBlock>> queues = new ArrayList<>();
     /** Per input, the queued blocks that are copies of our own (their arrays go back to {@link #spare}). */
-    private final List<java.util.Set<AnalogBlock>> copies = new ArrayList<>();
+    private final List<Set<AnalogBlock>> copies = new ArrayList<>();
     /** Per input, volts arrays of copies already handed on, reused by the next {@link #detach()}. */
     private final List<ArrayDeque<float[]>> spare = new ArrayList<>();
     private final int[] headOffset;
@@ -45,7 +49,7 @@ final class LegAligner {
         int inputs = twoLegs ? 2 : 1;
         for (int i = 0; i < inputs; i++) {
             queues.add(new ArrayDeque<>());
-            copies.add(java.util.Collections.newSetFromMap(new java.util.IdentityHashMap<>()));
+            copies.add(Collections.newSetFromMap(new IdentityHashMap<>()));
             spare.add(new ArrayDeque<>());
         }
         headOffset = new int[inputs];
@@ -152,37 +156,32 @@ final class LegAligner {
     }
 
     /**
-     * Copies every queued block that is not yet a copy of our own (the samples from the first one
-     * not handed on, and its invalid mask), so that nothing queued refers to a received block's
-     * arrays once the stage's {@code accept} returns. Call it after {@link #pump}, once the sink no
-     * longer reads the chunks it was fed.
+     * Replaces every queued block that is not yet a copy of our own by a copy (its samples and
+     * invalid mask, the same place in the stream; the offset already handed on stays), so that
+     * nothing queued refers to a received block's arrays once the stage's {@code accept} returns.
+     * Call it after {@link #pump}, once the sink no longer reads the chunks it was fed.
      */
     void detach() {
         for (int input = 0; input < queues.size(); input++) {
             ArrayDeque<AnalogBlock> q = queues.get(input);
-            if (q.isEmpty()) {
-                continue;
+            Set<AnalogBlock> own = copies.get(input);
+            for (int i = q.size(); i > 0; i--) {
+                AnalogBlock b = q.poll();
+                q.add(own.contains(b) ? b : copy(input, b));
             }
-            java.util.Set<AnalogBlock> own = copies.get(input);
-            ArrayDeque<AnalogBlock> kept = new ArrayDeque<>(q.size());
-            for (AnalogBlock b : q) {
-                if (own.contains(b)) {
-                    kept.add(b);
-                    continue;
-                }
-                float[] v = spare.get(input).poll();
-                if (v == null || v.length < b.length()) {
-                    v = new float[b.length()];
-                }
-                System.arraycopy(b.volts(), 0, v, 0, b.length());
-                long[] inv = b.invalid() == null ? null : java.util.Arrays.copyOf(b.invalid(), BitSets.words(b.length()));
-                AnalogBlock c = new AnalogBlock(b.channel(), b.firstIndex(), b.startFs(), b.periodFs(), v, b.length(), inv);
-                own.add(c);
-                kept.add(c);
-            }
-            q.clear();
-            q.addAll(kept);
         }
+    }
+
+    private AnalogBlock copy(int input, AnalogBlock b) {
+        float[] v = spare.get(input).poll();
+        if (v == null || v.length < b.length()) {
+            v = new float[b.length()];
+        }
+        System.arraycopy(b.volts(), 0, v, 0, b.length());
+        long[] inv = b.invalid() == null ? null : Arrays.copyOf(b.invalid(), BitSets.words(b.length()));
+        AnalogBlock c = new AnalogBlock(b.channel(), b.firstIndex(), b.startFs(), b.periodFs(), v, b.length(), inv);
+        copies.get(input).add(c);
+        return c;
     }
 
     /** At the end: when one leg never caught up with the other there is nothing to compare, so both queues are dropped. */

@@ -3,7 +3,11 @@ package org.lanesift.plugins.differential;
 import java.nio.charset.StandardCharsets;
 import java.util.ArrayDeque;
 import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.Collections;
+import java.util.IdentityHashMap;
 import java.util.List;
+import java.util.Set;
 import org.lanesift.data.EdgeListBuilder;
 import org.lanesift.kit.PackedBits;
 import org.lanesift.annotation.Annotation;
@@ -109,8 +113,7 @@ final class LogicPairStage implements Stage {
                 LogicBlock b = q.poll();
                 int words = BitSets.words(b.length());
                 q.add(copies.contains(b) ? b : own(new LogicBlock(b.channel(), b.firstIndex(), b.startFs(), b.periodFs(),
-                        java.util.Arrays.copyOf(b.bits(), words), b.length(),
-                        b.invalid() == null ? null : java.util.Arrays.copyOf(b.invalid(), words))));
+                        Arrays.copyOf(b.bits(), words), b.length(), b.invalid() == null ? null : Arrays.copyOf(b.invalid(), words))));
             }
         }
     }
@@ -121,7 +124,7 @@ final class LogicPairStage implements Stage {
     }
 
     /** The queued blocks that are copies of our own (never copied again); forgotten when handed on. */
-    private final java.util.Set<LogicBlock> copies = java.util.Collections.newSetFromMap(new java.util.IdentityHashMap<>());
+    private final Set<LogicBlock> copies = Collections.newSetFromMap(new IdentityHashMap<>());
 
     private final long[] firstStarts = new long[2];
 

@@ -1,6 +1,7 @@
 package org.lanesift.plugins.differential;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
 import org.lanesift.annotation.Annotation;
@@ -41,8 +42,8 @@ final class WarmupLearner {
 
     /** Holds a copy of a chunk back (its blocks may be lent and recycled); true once the warm-up is full. */
     boolean add(Chunk c) {
-        float[] a = java.util.Arrays.copyOfRange(c.a(), c.ao(), c.ao() + c.len());
-        float[] b = c.b() == null ? null : java.util.Arrays.copyOfRange(c.b(), c.bo(), c.bo() + c.len());
+        float[] a = Arrays.copyOfRange(c.a(), c.ao(), c.ao() + c.len());
+        float[] b = c.b() == null ? null : Arrays.copyOfRange(c.b(), c.bo(), c.bo() + c.len());
         warm.add(new Chunk(a, 0, b, 0, c.len(), c.inv()));
         warmCount += c.len();
         return warmCount >= s.warmupSamples;
