@@ -112,7 +112,7 @@ class FindFormatCapturesTest {
         assertEquals(48, other.at("/pictures/0/lineLength").asDouble());
     }
 
-    private static JsonValue run(String... args) throws IOException {
+    static JsonValue run(String... args) throws IOException {
         String[] full = new String[args.length + 1];
         full[0] = "find-format";
         System.arraycopy(args, 0, full, 1, args.length);
@@ -123,7 +123,7 @@ class FindFormatCapturesTest {
     }
 
     /** Transition times of CLK, D0 and D1 (each starts low at 0 fs); returns the last time stamp. */
-    private static long readVcd(long[][] t) throws IOException {
+    static long readVcd(long[][] t) throws IOException {
         long[][] buf = new long[SIGNALS.length][1024];
         int[] n = new int[SIGNALS.length];
         boolean[] level = new boolean[SIGNALS.length];
