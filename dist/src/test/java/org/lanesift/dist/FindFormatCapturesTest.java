@@ -70,8 +70,13 @@ class FindFormatCapturesTest {
 
     /** The words of the generated chain of run {@code name}, without their times (index, lane, group, word, value, flags). */
     private static List<String> words(String name) throws IOException {
-        Path decoded = tmp.resolve("decoded-" + name);
-        EndToEndTest.Cli r = EndToEndTest.cli("run", tmp.resolve(name).resolve("discovery-chain.json").toString(), "--out",
+        return words(tmp, name);
+    }
+
+    /** The same for the run {@code name} under {@code dir}; the chain decodes into {@code dir/decoded-name}. */
+    static List<String> words(Path dir, String name) throws IOException {
+        Path decoded = dir.resolve("decoded-" + name);
+        EndToEndTest.Cli r = EndToEndTest.cli("run", dir.resolve(name).resolve("discovery-chain.json").toString(), "--out",
                 decoded.toString());
         assertEquals(0, r.code(), r::toString);
         return Files.readAllLines(decoded.resolve("words-words.csv")).stream().map(l -> l.replaceFirst(",[^,]*", "")).toList();
