@@ -70,8 +70,13 @@ class FindFormatCapturesTest {
 
     /** The words of the generated chain of run {@code name}, without their times (index, lane, group, word, value, flags). */
     private static List<String> words(String name) throws IOException {
-        Path decoded = tmp.resolve("decoded-" + name);
-        EndToEndTest.Cli r = EndToEndTest.cli("run", tmp.resolve(name).resolve("discovery-chain.json").toString(), "--out",
+        return words(tmp, name);
+    }
+
+    /** The same for the run {@code name} under {@code dir}; the chain decodes into {@code dir/decoded-name}. */
+    static List<String> words(Path dir, String name) throws IOException {
+        Path decoded = dir.resolve("decoded-" + name);
+        EndToEndTest.Cli r = EndToEndTest.cli("run", dir.resolve(name).resolve("discovery-chain.json").toString(), "--out",
                 decoded.toString());
         assertEquals(0, r.code(), r::toString);
         return Files.readAllLines(decoded.resolve("words-words.csv")).stream().map(l -> l.replaceFirst(",[^,]*", "")).toList();
@@ -112,7 +117,7 @@ class FindFormatCapturesTest {
         assertEquals(48, other.at("/pictures/0/lineLength").asDouble());
     }
 
-    private static JsonValue run(String... args) throws IOException {
+    static JsonValue run(String... args) throws IOException {
         String[] full = new String[args.length + 1];
         full[0] = "find-format";
         System.arraycopy(args, 0, full, 1, args.length);
@@ -123,7 +128,7 @@ class FindFormatCapturesTest {
     }
 
     /** Transition times of CLK, D0 and D1 (each starts low at 0 fs); returns the last time stamp. */
-    private static long readVcd(long[][] t) throws IOException {
+    static long readVcd(long[][] t) throws IOException {
         long[][] buf = new long[SIGNALS.length][1024];
         int[] n = new int[SIGNALS.length];
         boolean[] level = new boolean[SIGNALS.length];

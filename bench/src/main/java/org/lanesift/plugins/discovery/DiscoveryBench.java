@@ -1,6 +1,9 @@
 package org.lanesift.plugins.discovery;
 
+import java.lang.management.ManagementFactory;
+import java.lang.management.ThreadMXBean;
 import java.util.Arrays;
+import java.util.Locale;
 import java.util.Random;
 import java.util.concurrent.TimeUnit;
 import org.openjdk.jmh.annotations.Benchmark;
@@ -9,16 +12,21 @@ import org.openjdk.jmh.annotations.Fork;
 import org.openjdk.jmh.annotations.Measurement;
 import org.openjdk.jmh.annotations.Mode;
 import org.openjdk.jmh.annotations.OutputTimeUnit;
+import org.openjdk.jmh.annotations.Param;
 import org.openjdk.jmh.annotations.Scope;
 import org.openjdk.jmh.annotations.Setup;
 import org.openjdk.jmh.annotations.State;
 import org.openjdk.jmh.annotations.Warmup;
 
 /**
- * Discovery over 10 M sampled bits: one double-edge lane (5 M clock periods), bursts of an 8-bit
- * sync and 16-bit words sent MSB first, the clock pausing between bursts; the data bursts carry
+ * Discovery over 10 M sampled bits: one double-edge lane (5 M clock periods), bursts of a sync
+ * and 16-bit words sent MSB first; {@code link=clock-pauses}: an 8-bit sync, the clock pausing
+ * between bursts; {@code link=streaming}: a 24-bit sync, bursts back to back on a clock that
+ * never pauses (framed by the sync alone, the slowest framing path). The data bursts carry
  * a smooth 16-bit picture, the command bursts short random words. Time for one whole discovery
- * (single shot, seconds); the baseline reads the same edge arrays once. Lives in the plugin's
+ * (single shot, milliseconds); the baseline reads the same edge arrays once. Each discovery also
+ * prints the CPU time of its thread (the figure to read on a shared machine, where wall time
+ * includes waiting for a core) and the word and sync length found. Lives in the plugin's
  * package to reach the engine without widening its API (DEVELOPERS.md, Benchmarks).
  */
 @State(Scope.Benchmark)
@@ -31,6 +39,10 @@ public class DiscoveryBench {
     static final int BITS = 10_000_000;
     LinkEdgesInput input;
 
+    /** How the bursts are separated. */
+    @Param({"clock-pauses", "streaming"})
+    public String link;
+
     @Setup
     public void setup() {
         Random r = new Random(10);
@@ -39,10 +51,13 @@ public class DiscoveryBench {
         int bursts = 0;
         int n = 0;
         int pixel = 0;
+        boolean streaming = link.equals("streaming");
+        int sync = streaming ? 0xA7C35E : 0xA7;
+        int syncBits = streaming ? 24 : 8;
         while (n < BITS) {
             int start = n;
-            for (int j = 7; j >= 0; j--) {
-                bits[n++] = (0xA7 >> j & 1) != 0;
+            for (int j = syncBits - 1; j >= 0; j--) {
+                bits[n++] = (sync >> j & 1) != 0;
             }
             boolean data = r.nextInt(3) > 0;
             int words = data ? 257 : 2 + 2 * r.nextInt(4);
@@ -54,7 +69,8 @@ public class DiscoveryBench {
                     int x = pixel % 320;
                     int y = pixel / 320;
                     pixel++;
-                    v = ((x / 10) & 31) << 11 | ((y / 4) & 63) << 5 | ((x + y) / 20 & 31);
+                    // no component is zero: six black pixels in a row would be 96 bits at the idle level
+                    v = ((x / 10) & 31 | 1) << 11 | ((y / 4) & 63 | 1) << 5 | ((x + y) / 20 & 31 | 1);
                 } else {
                     v = r.nextInt(1 << 16);
                 }
@@ -88,7 +104,7 @@ public class DiscoveryBench {
             }
             t += period;
             if (b < bursts && 2 * p + 2 >= burstEnd[b]) {
-                t += 20 * period;
+                t += streaming ? 0 : 20 * period;
                 b++;
             }
         }
@@ -99,9 +115,15 @@ public class DiscoveryBench {
     /** One discovery of the whole 10 M bits. */
     @Benchmark
     public int discover() {
+        long cpu0 = THREADS.getCurrentThreadCpuTime();
         Hypotheses h = new DiscoveryEngine(DiscoveryEngine.DEFAULT_MAX_BITS).discover(input);
+        long cpuNs = THREADS.getCurrentThreadCpuTime() - cpu0;
+        System.out.printf(Locale.ROOT, "%ndiscover: %.2f s thread CPU for %d sampled bits; found %d-bit words, %d-bit sync%n",
+                cpuNs / 1e9, h.link().bits(), h.best().wordBits(), h.syncBits());
         return h.best().wordBits() + h.syncBits();
     }
+
+    private static final ThreadMXBean THREADS = ManagementFactory.getThreadMXBean();
 
     /** Baseline: one sequential read of the clock and lane edge arrays. */
     @Benchmark

@@ -32,7 +32,9 @@ import org.lanesift.runner.capture.Inspector;
  * clock and the data lanes of any capture the runner reads and writes its report, picture sheet
  * and chain file into a new folder. The lanes come as {@code sift} takes them
  * ({@link SiftTool#pairs}: {@code --map}, {@code --map-file}, or found by {@code inspect}), or, for
- * the 1-bit signals of a logic capture, as {@code --clock} and {@code --lanes}; the chain that
+ * one channel per signal (1-bit signals of a logic capture, or analog channels such as the 0/1
+ * columns of a logic analyser's CSV export, each compared against its mid-level), as
+ * {@code --clock} and {@code --lanes}; the chain that
  * turns them into edges is {@link LinkChains#discovery}, the one sift's front end is built from.
  *
  * <pre>
@@ -41,28 +43,27 @@ import org.lanesift.runner.capture.Inspector;
  * </pre>
  */
 public final class FindFormatTool implements Tool {
-    /** Default of {@code --max-bits}: the {@code link-discovery} default (plugins/discovery DiscoveryEngine). */
-    static final long DEFAULT_MAX_BITS = 1L << 24;
-
     static final ToolSpec SPEC = ToolSpec.builder("find-format")
             .summary("find the format of an undocumented clocked link from a capture")
             .description("Finds clocking, bursts, sync, word length, bit order, lane distribution, checksum, length field,",
                     "command and data bursts and candidate pictures of an unknown link, and writes a chain file that",
                     "decodes the capture with the best hypothesis. Reads every capture 'lanesift sift' reads: CSV",
                     "(analog legs or logic), VCD, raw binary with a JSON sidecar, packed logic, capture sets. Give the",
-                    "lanes with --map (or --map-file), the clock first; for 1-bit signals --clock and --lanes also do;",
+                    "lanes with --map (or --map-file), the clock first; for one channel per signal (1-bit signals, or",
+                    "analog channels such as a logic CSV's 0/1 columns, each against its mid-level) --clock and --lanes;",
                     "with neither, the pairs and the clock are found as sift finds them.")
             .required(OptionSpec.text("capture", null, "the capture: CSV, VCD, raw binary with a JSON sidecar, packed logic or a"
                     + " capture set"), "FILE")
-            .option(OptionSpec.text("clock", "", "channel of the clock signal of a logic capture (VCD port name)"), "NAME")
-            .option(OptionSpec.text("lanes", "", "channels of the data lanes of a logic capture, comma-separated, 1 to 4"), "NAMES")
+            .option(OptionSpec.text("clock", "", "channel of the clock: a 1-bit signal, or an analog channel taken against its mid-level"), "NAME")
+            .option(OptionSpec.text("lanes", "", "channels of the data lanes (one each, as --clock), comma-separated, 1 to 4"), "NAMES")
             .option(OptionSpec.text("map", "", "channel map: NAME=P,N entries (NAME=CH for a logic capture) separated by spaces"
                     + " or ';', the clock first, then 1 to 4 data lanes in order, such as \"CLK=CH1,CH2 D0=CH3,CH4\""), "MAP")
             .option(OptionSpec.text("map-file", "", "channel map file: one NAME=P,N per line, '#' comments; added after --map"),
                     "FILE")
             .option(OptionSpec.text("out", "lanesift-discovery", "folder to create for the results (must not exist)"), "DIR")
-            .option(OptionSpec.integer("max-bits", DEFAULT_MAX_BITS, 4096, 1L << 28,
-                    "bits per lane examined at most"), "BITS")
+            .option(OptionSpec.integer("max-bits", null, 4096, 1L << 28,
+                    "bits per lane examined at most (default: the link-discovery stage's maxBits, see 'lanesift plugins')"),
+                    "BITS")
             .footer("Exit codes: 0 found; 2 bad input (capture, map, options); 1 internal error. See docs/discovery.md.",
                     "",
                     "Safety: display flex cables are sensitive to electrostatic discharge; a scope's ground lead is",
@@ -99,8 +100,8 @@ public final class FindFormatTool implements Tool {
             // a VCD's 1-bit signals go to discovery as they are, without reading the capture twice
             logicKind = plugin.equals("vcd") ? "EDGES" : SiftTool.logicKind(inspect(capture));
             if (logicKind == null) {
-                throw new OptionException("clock", "--clock/--lanes: " + capture + " has analog channels; give the pairs with"
-                        + " --map CLK=P,N D0=P,N ...");
+                // analog channels named one per signal: a logic analyser's CSV export (0/1 columns) or single-ended signals
+                logicKind = LinkChains.LEVELS;
             }
         } else {
             InspectReport inspect = inspect(capture);
@@ -114,7 +115,10 @@ public final class FindFormatTool implements Tool {
         }
         Map<String, Object> opts = new LinkedHashMap<>();
         opts.put("lanes", pairs.size() - 1);
-        opts.put("maxBits", args.integer("max-bits", (int) DEFAULT_MAX_BITS));
+        if (args.has("max-bits")) {
+            // absent, the stage takes its own default (plugins/discovery DiscoveryEngine.DEFAULT_MAX_BITS), the one constant
+            opts.put("maxBits", args.integer("max-bits", 0));
+        }
         // the chain file resolves a relative path against its own folder (docs/chain-file.md, Files)
         opts.put("capture", out.toAbsolutePath().normalize().relativize(capture.toAbsolutePath().normalize()).toString()
                 .replace('\\', '/'));
@@ -147,7 +151,7 @@ public final class FindFormatTool implements Tool {
         return Inspector.inspect(capture, Map.of());
     }
 
-    /** {@code --clock} and {@code --lanes} as lanes of a logic capture (pairs with no N channel). */
+    /** {@code --clock} and {@code --lanes}: one channel per signal (pairs with no N channel). */
     private static List<LinkChains.Pair> named(ToolArgs args) {
         String[] lanes = args.text("lanes").split(",");
         if (lanes.length > 4 || args.text("lanes").isBlank()) {

@@ -251,6 +251,11 @@ public final class LinkChains {
         return c.pixelSampling(mapping).model();
     }
 
+    /** Front-end kind of {@link #discovery} for one analog channel per signal, compared against its mid-level. */
+    public static final String LEVELS = "LEVELS";
+    /** Samples each {@link #LEVELS} receiver learns its two levels from (4 MiB of float samples per signal at most). */
+    static final int LEVELS_WARMUP_SAMPLES = 1 << 20;
+
     /** Instance id of the discovery stage in a {@link #discovery} chain (its files are named after it). */
     public static final String DISCOVERY = "discovery";
 
@@ -259,11 +264,14 @@ public final class LinkChains {
      * with the edges of the clock and the data lanes, from any capture sift reads: analog legs
      * through the leg deskew (estimated in the same run) and one differential receiver per pair,
      * as {@link #pixelOneRun} does; a logic capture's samples through {@code logic-edges}; a VCD's
-     * 1-bit signals as they are.
+     * 1-bit signals as they are; one analog channel per signal (the 0/1 columns of a logic
+     * analyser's CSV export, or a single-ended signal) through one {@code differential} receiver
+     * in mode {@code single}, against the mid-level of its two levels.
      *
      * @param description the chain's description
      * @param cap         the capture; for a logic capture every pair's N channel is empty
-     * @param logicKind   {@code LOGIC} (logic samples), {@code EDGES} (edge lists) or null (analog legs)
+     * @param logicKind   {@code LOGIC} (logic samples), {@code EDGES} (edge lists), {@link #LEVELS} (one analog channel per
+     *                    signal) or null (analog legs)
      * @param options     the {@code link-discovery} options
      * @return the chain model
      */
@@ -275,6 +283,16 @@ public final class LinkChains {
             c.legEstimates().receivers(null, false);
             for (int k = 0; k < pairs.size(); k++) {
                 from[k] = "rx-" + pairs.get(k).name() + ".edges";
+            }
+        } else if (logicKind.equals(LEVELS)) {
+            for (int k = 0; k < pairs.size(); k++) {
+                String id = "rx-" + pairs.get(k).name();
+                // logic or single-ended levels, not LVDS: no level checks; a long warm-up, so that a capture that
+                // idles at one level for a while before the first edge still shows the receiver both levels
+                c.node(id, "differential", "mode", "single", "name", pairs.get(k).name(), "levelProfile", "none",
+                        "warmupSamples", LEVELS_WARMUP_SAMPLES);
+                c.wire("cap." + pairs.get(k).p(), id + ".in");
+                from[k] = id + ".edges";
             }
         } else if (logicKind.equals("LOGIC")) {
             c.node("edges", "logic-edges", "channels", pairs.size());

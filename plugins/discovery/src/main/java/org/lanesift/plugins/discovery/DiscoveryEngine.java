@@ -51,9 +51,9 @@ public final class DiscoveryEngine {
             boolean spread = d == LaneDistribution.BIT && idleRuns;
             List<WordLengthFinder.Candidate> wl = spread ? spreadCandidates(link, prefix, lanes, laneLevel)
                     : d == LaneDistribution.BIT ? WordLengthFinder.rank(link, prefix, lanes) : laneLevel;
-            for (int i = 0; i < (spread ? wl.size() : Math.min(WORD_CANDIDATES, wl.size())); i++) {
+            for (int i = 0; i < (spread ? wl.size() : WordLengthFinder.tried(wl, WORD_CANDIDATES)); i++) {
                 WordLengthFinder.Candidate w = wl.get(i);
-                double prior = w.eligible() && !spread ? 0.02 * (WORD_CANDIDATES - i) : 0;
+                double prior = w.eligible() && !spread ? 0.02 * Math.max(0, WORD_CANDIDATES - i) : 0;
                 List<MergedBurst> merged = LaneMerger.merge(link, w.syncBits(), w.wordBits(), d, MAX_BURSTS);
                 List<CrcCatalogue.Match> crcs = CrcCatalogue.search(merged, CRC_BURSTS, CRC_SHARE);
                 double slope = entropySlope(merged, w.wordBits());

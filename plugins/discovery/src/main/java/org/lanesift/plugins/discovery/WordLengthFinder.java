@@ -10,6 +10,17 @@ import java.util.List;
  * every word length 4 to 32 the sync length at or below the common prefix that makes the most
  * bursts whole is taken; the longest word length that makes at least {@link #ELIGIBLE} of the
  * best share whole ({@link #ELIGIBLE_EXACT} when the clock stops between bursts) ranks first (its divisors make as many whole, its multiples about half).
+ *
+ * <p>Exact lengths (clock pauses, streaming links cut at their sync): a few bursts spoiled by a
+ * bit error or a chance occurrence of the sync inside data make a multiple of the true word
+ * length fall below {@link #ELIGIBLE_EXACT} while its divisors stay whole, so a divisor would win
+ * (24-bit words read as 12). The multiples of the first candidate that make at least
+ * {@link #MULTIPLE_SHARE} of the bursts whole after the same sync are therefore kept as
+ * candidates too (lanes read one by one; not with bits spread over lanes), ordered by
+ * the bit statistics per position ({@link PositionStatistics}): a multiple whose per-position
+ * bit probabilities explain the payload better than the shorter period does (Bayesian
+ * information criterion) goes before it, the others right after it; the framing that explains
+ * most (picture, checksum, length field) decides among them.
  */
 final class WordLengthFinder {
     static final int MIN_BITS = 4;
@@ -25,9 +36,20 @@ final class WordLengthFinder {
      * @param syncBits   sync length that goes with it
      * @param wholeShare share of bursts that are whole words after that sync
      * @param eligible   whether the share is within {@link #ELIGIBLE} of the best
+     * @param multiple   a multiple of the best length by burst lengths, moved up (see the class comment)
      */
-    record Candidate(int wordBits, int syncBits, double wholeShare, boolean eligible) {
+    record Candidate(int wordBits, int syncBits, double wholeShare, boolean eligible, boolean multiple) {
+        Candidate(int wordBits, int syncBits, double wholeShare, boolean eligible) {
+            this(wordBits, syncBits, wholeShare, eligible, false);
+        }
     }
+
+    /**
+     * Share of the inner bursts (counted one by one, not by distinct length) that a multiple of
+     * the first candidate must make whole to be a candidate (common practice: a few bursts
+     * spoiled by bit errors or chance cuts; from the accuracy measurements, DiscoveryAccuracyTest).
+     */
+    static final double MULTIPLE_SHARE = 0.9;
 
     private WordLengthFinder() {
     }
@@ -72,7 +94,96 @@ final class WordLengthFinder {
         }
         rest.sort((a, b) -> Double.compare(b.wholeShare(), a.wholeShare()));
         out.addAll(rest);
+        return withMultiples(link, out, lanesFactor);
+    }
+
+    /**
+     * The ranking with the multiples of its first candidate that make at least
+     * {@link #MULTIPLE_SHARE} of the bursts whole moved up: those the bit statistics per
+     * position prefer to the first candidate before it (best first), the others right after it,
+     * all marked eligible.
+     */
+    private static List<Candidate> withMultiples(SampledLink link, List<Candidate> ranked, int lanesFactor) {
+        Candidate first = ranked.get(0);
+        int w0 = first.wordBits();
+        if (lanesFactor != 1) {
+            // bits spread over N lanes: every burst carries a whole number of bits on each lane, so the lengths make
+            // the multiples of N times the lane unit whole whatever the word length; they say nothing about multiples
+            return ranked;
+        }
+        List<Candidate> admitted = new ArrayList<>();
+        int s = first.syncBits();
+        for (Candidate c : ranked) {
+            // with the first candidate's sync: a longer sync or a shorter one can swallow a header word and make the
+            // data bursts whole at the pixel's length instead
+            if (c.wordBits() > w0 && c.wordBits() % w0 == 0 && !c.eligible() && burstShare(link, s, c.wordBits(), 1) >= MULTIPLE_SHARE) {
+                admitted.add(new Candidate(c.wordBits(), s, wholeShare(link, s, c.wordBits(), 1), true, true));
+            }
+        }
+        if (admitted.isEmpty()) {
+            return ranked;
+        }
+        int[] periods = new int[admitted.size() + 1];
+        int[] syncs = new int[periods.length];
+        periods[0] = w0;
+        syncs[0] = first.syncBits();
+        for (int i = 0; i < admitted.size(); i++) {
+            periods[i + 1] = admitted.get(i).wordBits();
+            syncs[i + 1] = admitted.get(i).syncBits();
+        }
+        double[] bic = PositionStatistics.bic(link, periods, syncs);
+        List<Candidate> before = new ArrayList<>();
+        List<Candidate> after = new ArrayList<>();
+        for (int i = 0; i < admitted.size(); i++) {
+            (bic[i + 1] < bic[0] ? before : after).add(admitted.get(i));
+        }
+        before.sort((a, b) -> Double.compare(bic[indexOf(periods, a.wordBits())], bic[indexOf(periods, b.wordBits())]));
+        List<Candidate> out = new ArrayList<>(before);
+        out.add(first);
+        out.addAll(after);
+        for (Candidate c : ranked.subList(1, ranked.size())) {
+            if (indexOf(periods, c.wordBits()) < 0) {
+                out.add(c);
+            }
+        }
         return out;
+    }
+
+    private static int indexOf(int[] a, int v) {
+        for (int i = 0; i < a.length; i++) {
+            if (a[i] == v) {
+                return i;
+            }
+        }
+        return -1;
+    }
+
+    /** Candidates to try in a ranking: the first {@code base} and every multiple {@link #rank} moved up. */
+    static int tried(List<Candidate> ranked, int base) {
+        int n = base;
+        for (int i = 0; i < ranked.size(); i++) {
+            if (ranked.get(i).multiple() && i >= base) {
+                n = i + 1;
+            }
+        }
+        return Math.min(n, ranked.size());
+    }
+
+    /** Share of the inner bursts (the first and last may be cut by the capture), one by one, whose payload is whole words. */
+    static double burstShare(SampledLink link, int syncBits, int wordBits, int lanesFactor) {
+        int n = link.bursts();
+        int from = n > 4 ? 1 : 0;
+        int to = n > 4 ? n - 1 : n;
+        int seen = 0;
+        int whole = 0;
+        for (int b = from; b < to; b++) {
+            long len = (long) (link.length(b) - syncBits) * lanesFactor;
+            if (len > 0) {
+                seen++;
+                whole += len % wordBits == 0 ? 1 : 0;
+            }
+        }
+        return seen == 0 ? 0 : whole / (double) seen;
     }
 
     /**
