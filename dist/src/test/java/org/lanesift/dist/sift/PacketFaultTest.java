@@ -76,9 +76,9 @@ class PacketFaultTest {
         assertTrue(at >= Long.parseLong(commandStarts.get(5)) && at < Long.parseLong(commandStarts.get(6)),
                 "mismatch at " + at + " fs, command 5 at " + commandStarts.get(5) + ", command 6 at " + commandStarts.get(6));
         // the bad packet's command: information naming the mismatch as its cause (and when it was found)
-        JsonValue bad = commands.get(5);
-        assertEquals("info", bad.get("severity").asString());
-        assertTrue(bad.get("label").asString().endsWith("(payload suspect, consequence: see the checksum-mismatch finding at "
-                + org.lanesift.time.Femtos.format(at) + ")"), bad.get("label").asString());
+        JsonValue badCommand = commands.get(5);
+        assertEquals("info", badCommand.get("severity").asString());
+        assertTrue(badCommand.get("label").asString().endsWith("(payload suspect, consequence: see the checksum-mismatch finding at "
+                + org.lanesift.time.Femtos.format(at) + ")"), badCommand.get("label").asString());
     }
 }
