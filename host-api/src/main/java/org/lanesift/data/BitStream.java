@@ -1,5 +1,6 @@
 package org.lanesift.data;
 
+import java.util.List;
 import java.util.Objects;
 
 /**
@@ -15,6 +16,10 @@ import java.util.Objects;
  * when there was no transition within reach. Bits whose margin fell below the sampler's threshold,
  * or that were taken in an unknown span, are set in {@code flagged}.
  *
+ * <p>{@code causes} names the findings the producer made (and annotated) that account for flagged
+ * bits or clock breaks in this block ({@link FindingRef}); a consumer states what they cause as
+ * information referring to them, and reports as its own finding only what none of them covers.
+ *
  * @param channel   lane name
  * @param startFs   start of the covered span
  * @param endFs     end of the covered span, exclusive
@@ -28,10 +33,11 @@ import java.util.Objects;
  * @param holdFs    hold margin of each bit
  * @param flagged   packed flags: margin below threshold or otherwise suspect
  * @param unitIntervalFs the unit interval the margins refer to (femtoseconds)
+ * @param causes    findings of the producer that account for flags or clock breaks in this block (unmodifiable)
  */
 public record BitStream(String channel, long startFs, long endFs, int count, long[] values, long[] timesFs,
                         long[] clockEdge, long[] falling, byte[] slot, long[] setupFs, long[] holdFs, long[] flagged,
-                        double unitIntervalFs) implements Block {
+                        double unitIntervalFs, List<FindingRef> causes) implements Block {
 
     /** Margin value meaning "no transition within reach". */
     public static final long UNKNOWN_MARGIN = Long.MAX_VALUE;
@@ -52,9 +58,11 @@ public record BitStream(String channel, long startFs, long endFs, int count, lon
      * @param holdFs hold margin of each bit
      * @param flagged packed flags: margin below threshold or otherwise suspect
      * @param unitIntervalFs the unit interval the margins refer to (femtoseconds)
+     * @param causes findings of the producer that account for flags or clock breaks in this block
      */
     public BitStream {
         Objects.requireNonNull(channel, "channel");
+        causes = causes == null ? List.of() : List.copyOf(causes);
         int w = BitSets.words(count);
         if (count < 0 || values.length < w || timesFs.length < count || clockEdge.length < count || falling.length < w
                 || (slot != null && slot.length < count) || setupFs.length < count || holdFs.length < count || flagged.length < w) {
@@ -63,6 +71,29 @@ public record BitStream(String channel, long startFs, long endFs, int count, lon
         if (endFs < startFs) {
             throw new IllegalArgumentException("bit stream '" + channel + "': end before start");
         }
+    }
+
+    /**
+     * A block whose producer names no finding behind its flags.
+     *
+     * @param channel lane name
+     * @param startFs start of the covered span
+     * @param endFs end of the covered span, exclusive
+     * @param count number of bits
+     * @param values packed bit values
+     * @param timesFs sample times
+     * @param clockEdge clock edge index of each bit
+     * @param falling packed flags: taken on a falling clock edge
+     * @param slot bit slot within the clock period, or null when every bit is slot 0
+     * @param setupFs setup margin of each bit
+     * @param holdFs hold margin of each bit
+     * @param flagged packed flags: margin below threshold or otherwise suspect
+     * @param unitIntervalFs the unit interval the margins refer to (femtoseconds)
+     */
+    public BitStream(String channel, long startFs, long endFs, int count, long[] values, long[] timesFs, long[] clockEdge,
+                     long[] falling, byte[] slot, long[] setupFs, long[] holdFs, long[] flagged, double unitIntervalFs) {
+        this(channel, startFs, endFs, count, values, timesFs, clockEdge, falling, slot, setupFs, holdFs, flagged, unitIntervalFs,
+                List.of());
     }
 
     /**

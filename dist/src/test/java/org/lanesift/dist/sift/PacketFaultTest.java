@@ -17,7 +17,9 @@ import org.lanesift.json.JsonValue;
  * ringing, skews; PacketLinkCapture) through {@code lanesift sift}, every plugin of the three
  * chains. Clean, the decode gives no warning and no error; with one payload bit of one long write
  * flipped after its checksum was computed (CRC-16/MCRF4XX, docs/reference-facts.md#dsi-packets-ecc-and-checksum),
- * exactly one {@code checksum-mismatch}, on that packet. Each case prints its row of the suite table.
+ * exactly one {@code checksum-mismatch}, on that packet, and no other warning or error: the
+ * command decoded from that packet is information referring to the mismatch. Each case prints its
+ * row of the suite table.
  */
 class PacketFaultTest {
     private static final String[] LEGS = {"CKP", "CKN", "D0P", "D0N", "D1P", "D1N"};
@@ -56,19 +58,27 @@ class PacketFaultTest {
         List<String> mismatch = f.stream().filter(s -> s.startsWith("checksum-mismatch@")).toList();
         // the packet of the sixth command: its command annotation, in decode order, starts where the mismatch does
         List<String> commandStarts = new ArrayList<>();
+        List<JsonValue> commands = new ArrayList<>();
         for (String line : Files.readAllLines(dir.resolve("b/decode/annotations.jsonl"))) {
             JsonValue a = JsonReader.parse("annotations.jsonl", line);
             if (a.get("kind").asString().equals("command")) {
                 commandStarts.add(a.get("start_fs").numberText());
+                commands.add(a);
             }
         }
         System.out.println("SUITE | test-tree packet link | payload bit flipped in command 5 | checksum-mismatch | " + mismatch.size()
                 + " | " + (mismatch.isEmpty() ? "-" : String.format("%.4f us", Long.parseLong(mismatch.get(0).split("@")[1]) * 1e-9))
                 + " | others: " + f.stream().filter(s -> !s.startsWith("checksum-mismatch@")).map(s -> s.split("@")[0]).toList());
         assertEquals(1, mismatch.size(), f.toString());
+        assertEquals(mismatch, f, "the checksum-mismatch and no other warning or error");
         assertEquals(clean.commands.size(), commandStarts.size(), "every command decoded, the bad one marked");
         long at = Long.parseLong(mismatch.get(0).split("@")[1]);
         assertTrue(at >= Long.parseLong(commandStarts.get(5)) && at < Long.parseLong(commandStarts.get(6)),
                 "mismatch at " + at + " fs, command 5 at " + commandStarts.get(5) + ", command 6 at " + commandStarts.get(6));
+        // the bad packet's command: information naming the mismatch as its cause (and when it was found)
+        JsonValue badCommand = commands.get(5);
+        assertEquals("info", badCommand.get("severity").asString());
+        assertTrue(badCommand.get("label").asString().endsWith("(payload suspect, consequence: see the checksum-mismatch finding at "
+                + org.lanesift.time.Femtos.format(at) + ")"), badCommand.get("label").asString());
     }
 }

@@ -9,12 +9,18 @@ import java.util.PriorityQueue;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Field;
 import org.lanesift.annotation.Severity;
+import org.lanesift.data.FindingRef;
 import org.lanesift.plugin.StageContext;
 
 /**
  * Holds annotations until no earlier one can still come, then publishes them in time order, so
  * the stage's annotations are in time order whatever the block sizes. At most {@link #CAP} of one
  * kind on one track are published; the rest are counted and summarised at the end.
+ *
+ * <p>The clock findings that break the clock ({@code clock-dropout}, {@code clock-glitch}) are also
+ * kept as {@link FindingRef}s until the stage hands them on with its next bits, so the decoders
+ * downstream state the breaks they see as consequences of these findings, and only of findings
+ * that were made.
  */
 final class AnnotationQueue {
     static final int CAP = 1000;
@@ -31,12 +37,18 @@ final class AnnotationQueue {
     private final Map<String, long[]> counts = new LinkedHashMap<>();
     private long seq;
     private long lastFs = Long.MIN_VALUE;
+    private final List<FindingRef> clockBreaks = new ArrayList<>();
 
     AnnotationQueue(StageContext ctx) {
         this.ctx = ctx;
     }
 
     void add(Annotation a) {
+        if (a.severity() != Severity.INFO && a.track().equals(ClockRecovery.TRACK)
+                && (a.kind().equals("clock-dropout") || a.kind().equals("clock-glitch"))) {
+            clockBreaks.add(new FindingRef(ctx.instanceId(), a.kind(), a.startFs(), FindingRef.Effect.CLOCK_BREAK, a.startFs(),
+                    a.endFs()));
+        }
         String key = a.track() + "\u0000" + a.kind();
         long[] c = counts.computeIfAbsent(key, k -> new long[] {0, Long.MAX_VALUE, Long.MIN_VALUE});
         c[0]++;
@@ -46,6 +58,20 @@ final class AnnotationQueue {
             return;
         }
         queue.add(new Item(a, seq++));
+    }
+
+    /**
+     * The clock-break findings made since the last call, for the next bits handed on.
+     *
+     * @return the references (empty when none), in the order made
+     */
+    List<FindingRef> takeClockBreaks() {
+        if (clockBreaks.isEmpty()) {
+            return List.of();
+        }
+        List<FindingRef> l = List.copyOf(clockBreaks);
+        clockBreaks.clear();
+        return l;
     }
 
     /**

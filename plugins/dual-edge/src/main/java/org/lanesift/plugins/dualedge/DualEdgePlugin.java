@@ -83,6 +83,12 @@ import org.lanesift.time.TimeValue;
  * rate. A lane whose transitions sit more than 0.35 UI from the mid-points between sample points may
  * be skewed by more than half a UI: it is named once ({@code lane-skew-ambiguous}, an error) and
  * all its bits are flagged, instead of {@code margin-low} runs.
+ *
+ * <p><b>Findings named downstream.</b> The bit streams name the findings behind what a decoder will
+ * see in them ({@link org.lanesift.data.BitStream#causes()}): a lane's {@code lane-skew-ambiguous}
+ * for its flagged bits from that block on, and each {@code clock-dropout} or {@code clock-glitch}
+ * (on the first blocks made after it, every lane) for the clock break around it. Only findings
+ * that were made are named, so a decoder reports as its own finding what none of them covers.
  */
 public final class DualEdgePlugin implements PluginProvider {
     /** The plugin id used in chain files. */

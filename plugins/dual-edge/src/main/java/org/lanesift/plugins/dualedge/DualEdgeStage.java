@@ -1,7 +1,9 @@
 package org.lanesift.plugins.dualedge;
 
 import java.nio.charset.StandardCharsets;
+import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.List;
 import java.util.Locale;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Severity;
@@ -10,6 +12,7 @@ import org.lanesift.data.BitSets;
 import org.lanesift.data.BitStream;
 import org.lanesift.data.Block;
 import org.lanesift.data.Edges;
+import org.lanesift.data.FindingRef;
 import org.lanesift.json.JsonWriter;
 import org.lanesift.json.NumberStyle;
 import org.lanesift.plugin.Stage;
@@ -47,6 +50,8 @@ final class DualEdgeStage implements Stage {
     /** Per lane: the lane's eye lies so far from the clock's bit centre that its bits may be those of a neighbouring slot. */
     private final boolean[] skewAmbiguous;
     private final boolean[] skewJudged;
+    /** Per lane: the lane-skew-ambiguous finding its flagged bits are the consequence of, or null. */
+    private final FindingRef[] skewFinding;
     /** A lane's eye centre this far from the sample point (UI) makes its slot ambiguous. */
     static final double AMBIGUOUS_OFFSET_UI = 0.35;
     /** Bits with a transition within reach on both sides needed to judge a lane's eye centre. */
@@ -65,6 +70,7 @@ final class DualEdgeStage implements Stage {
         gridJudged = new boolean[cfg.lanes() + 1];
         skewAmbiguous = new boolean[cfg.lanes()];
         skewJudged = new boolean[cfg.lanes()];
+        skewFinding = new FindingRef[cfg.lanes()];
         cr = new ClockRecovery(cfg, clockQ, notes);
         planner = new SamplePlanner(cfg);
         sb = new SampleBuf(cfg.marginThreshold());
@@ -233,6 +239,7 @@ final class DualEdgeStage implements Stage {
         prevBlockEnd = end;
         double meanUi = uiSum / ready;
         judgeGrid(meanUi);
+        List<FindingRef> clockBreaks = notes.takeClockBreaks();
         for (int i = 0; i < lanes.length; i++) {
             EdgeQueue q = laneQ[i];
             boolean fast = q.started && minS >= 0 && minS - reach >= q.startFs && (!finishing || maxS + reach < q.endFs)
@@ -244,12 +251,22 @@ final class DualEdgeStage implements Stage {
                 BitSets.setRange(l.flagged, 0, ready);
             }
             BitStream bs = new BitStream(q.channel != null ? q.channel : "lane" + i, start, end, ready, l.values, times, edges,
-                    falling, slot, l.setup, l.hold, l.flagged, meanUi);
+                    falling, slot, l.setup, l.hold, l.flagged, meanUi, causes(clockBreaks, skewFinding[i]));
             ctx.emit(i, bs);
         }
         emittedBits += ready;
         uiSumAll += uiSum;
         sb.removePrefix(ready);
+    }
+
+    /** The findings a lane's block names as the cause of its flags and clock breaks. */
+    private static List<FindingRef> causes(List<FindingRef> clockBreaks, FindingRef skew) {
+        if (skew == null) {
+            return clockBreaks;
+        }
+        List<FindingRef> l = new ArrayList<>(clockBreaks);
+        l.add(skew);
+        return l;
     }
 
     /**
@@ -330,6 +347,8 @@ final class DualEdgeStage implements Stage {
                             + " %+.2f UI against the clock, its bits may belong to the neighbouring slot: bits flagged", name,
                             offsetUi, offsetUi, other))
                     .number("offsetUI", offsetUi, "UI").text("lane", name).build());
+            skewFinding[lane] = new FindingRef(ctx.instanceId(), "lane-skew-ambiguous", a, FindingRef.Effect.FLAGGED_BITS, a,
+                    Long.MAX_VALUE);
         }
     }
 

@@ -352,6 +352,35 @@ class DdrSamplingTest {
         }
         assertEquals(1, r.reportNumber(null, "dropouts"));
         assertEquals(1, r.reportNumber(null, "restarts"));
+        // the bits name the dropout finding (once, on the first block made after it) for the decoders downstream
+        List<org.lanesift.data.FindingRef> refs = r.blocks.get(0).stream().flatMap(b -> b.causes().stream()).toList();
+        assertEquals(List.of(new org.lanesift.data.FindingRef("dut", "clock-dropout", drop.get(0).startFs(),
+                org.lanesift.data.FindingRef.Effect.CLOCK_BREAK, drop.get(0).startFs(), drop.get(0).endFs())), refs);
+        // no later than the first block holding bits after the gap, so a decoder knows it when it meets the break
+        List<org.lanesift.data.BitStream> blocks = r.blocks.get(0);
+        int namedAt = -1;
+        int afterAt = -1;
+        for (int i = blocks.size() - 1; i >= 0; i--) {
+            org.lanesift.data.BitStream b = blocks.get(i);
+            namedAt = b.causes().isEmpty() ? namedAt : i;
+            afterAt = b.count() > 0 && b.timesFs()[b.count() - 1] > sim.clockT[gapTo] ? i : afterAt;
+        }
+        assertTrue(namedAt >= 0 && namedAt <= afterAt, "named in block " + namedAt + ", first bits after the gap in block " + afterAt);
+
+        // a shorter gap (3 periods) that a sampler is told to tolerate (dropoutPeriods 5): no dropout
+        // finding, and its bits name none
+        long[] t3 = new long[sim.bits - 4];
+        n = 0;
+        for (int k = 0; k < sim.bits; k++) {
+            if (k < gapFrom || k >= gapFrom + 4) {
+                t3[n++] = sim.clockT[k];
+            }
+        }
+        org.lanesift.data.Edges clock3 = org.lanesift.data.Edges.of("CLK", 0, sim.endFs, false, t3);
+        assertEquals(1, Run.whole(Map.of(), clock3, sim.lane(0)).of("clock-dropout").size(), "a dropout by default");
+        Run tolerant = Run.whole(Map.of("dropoutPeriods", 5.0), clock3, sim.lane(0));
+        assertEquals(List.of(), tolerant.of("clock-dropout"));
+        assertEquals(List.of(), tolerant.blocks.get(0).stream().flatMap(b -> b.causes().stream()).toList());
     }
 
     /** A clock lane that never toggles gives an error annotation and no bits, not a crash or invented bits. */

@@ -144,6 +144,25 @@ class DecodableCaptureTest {
                 assertEquals(0, flagged, "lane " + l);
             }
         }
+        // the skewed lane's blocks name the one finding behind their flags, covering every flagged bit;
+        // the other lanes name none
+        for (int l = 0; l < 3; l++) {
+            for (org.lanesift.data.BitStream b : r.blocks.get(l)) {
+                List<org.lanesift.data.FindingRef> refs = b.causes().stream()
+                        .filter(x -> x.effect() == org.lanesift.data.FindingRef.Effect.FLAGGED_BITS).toList();
+                if (l != 1) {
+                    assertEquals(List.of(), refs, "lane " + l);
+                    continue;
+                }
+                assertEquals(1, refs.size(), refs.toString());
+                org.lanesift.data.FindingRef ref = refs.get(0);
+                assertEquals("lane-skew-ambiguous", ref.kind());
+                assertEquals(notes.get(0).startFs(), ref.atFs(), "refers to the finding made");
+                for (int k = 0; k < b.count(); k++) {
+                    assertTrue(!b.isFlagged(k) || ref.covers(b.timesFs()[k]), "bit " + k + " not covered by " + ref);
+                }
+            }
+        }
     }
 
     /** Skews well inside half a UI leave the lanes alone. */

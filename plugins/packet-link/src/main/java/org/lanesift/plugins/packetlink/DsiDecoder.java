@@ -7,6 +7,7 @@ import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Field;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.WordStream;
+import org.lanesift.time.Femtos;
 
 /**
  * Turns merged burst bytes into packets, annotations, command log entries and frames, and emits
@@ -264,9 +265,12 @@ final class DsiDecoder implements PacketParser.Listener {
         if (dcs && dt != DataTypes.DCS_READ) {
             frames.command(e.cmd, src, so, sn, t0, t1, sus || bad);
         }
+        // a bad checksum is found once, by the checksum-mismatch finding on this packet: the command
+        // decoded from it is that finding's consequence, information referring to it
         Annotation.Builder b = Annotation.on("commands", "command").span(t0, t1)
-                .label(e.name + (e.meaning.isEmpty() ? "" : ": " + e.meaning))
-                .severity(bad || sus ? Severity.WARNING : Severity.INFO)
+                .label(e.name + (e.meaning.isEmpty() ? "" : ": " + e.meaning)
+                        + (bad ? " (payload suspect, consequence: see the checksum-mismatch finding at " + Femtos.format(t0) + ")" : ""))
+                .severity(!bad && sus ? Severity.WARNING : Severity.INFO)
                 .field("name", Field.enumValue(e.name)).field("vc", Field.integer(vc, "")).field("mode", Field.enumValue(mode));
         if (e.cmd >= 0) {
             b.field("command", Field.integer(e.cmd, ""));

@@ -2,12 +2,13 @@ package org.lanesift.plugins.pixellink;
 
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Severity;
+import org.lanesift.data.FindingRef;
 import org.lanesift.data.Frame;
 import org.lanesift.time.Femtos;
 
 /**
  * Turns the decoded pixel stream (one int per pixel: {@code 0xRRGGBB}, DE/HS/VS in bits 24..26,
- * flags in bits 27..30) into frames, timing measurements and annotations.
+ * flags in bits 27..31) into frames, timing measurements and annotations.
  *
  * <p>Lines are DE-high runs. Frames are separated by vertical blanking, recognised as a DE-low gap
  * holding at least two HS leading edges (when HS pulses are present) or longer than one line period
@@ -27,10 +28,13 @@ final class FrameAssembler {
     static final int GAP = 1 << 28;
     static final int INCOMPLETE = 1 << 29;
     static final int MISMATCH = 1 << 30;
+    /** Some bit was flagged because of a finding the sampler made and named ({@link UpstreamFindings}). */
+    static final int CAUSED = 1 << 31;
     private static final int F_SUSPECT = SUSPECT >>> 24;
     private static final int F_GAP = GAP >>> 24;
     private static final int F_INCOMPLETE = INCOMPLETE >>> 24;
     private static final int F_MISMATCH = MISMATCH >>> 24;
+    private static final int F_CAUSED = CAUSED >>> 24;
     private static final long NONE = LineMark.NONE;
 
     /** Where results go. */
@@ -56,6 +60,10 @@ final class FrameAssembler {
     /** The data-lane slip rule (single links only), or null. */
     private final LaneSlip slip;
     private final java.util.function.IntFunction<String> laneName;
+    /** The sampler's findings behind flagged bits and clock breaks. */
+    private final UpstreamFindings upstream;
+    /** Time of the last pixel of the previous batch. */
+    private long lastT = Long.MIN_VALUE;
     /** The last two pixels of the previous batch (-1 none), and a DE fall waiting for its next pixel. */
     private int prev1 = -1;
     private int prev2 = -1;
@@ -109,7 +117,7 @@ final class FrameAssembler {
 
     FrameAssembler(String id, Out out, Timing timing, Pictures pictures, int maxWidth, int maxHeight, Detail detail,
                    int hsForced, int vsForced, double clockTolPercent, String controlLane, int[][] singleLinkTables,
-                   java.util.function.IntFunction<String> laneName) {
+                   java.util.function.IntFunction<String> laneName, UpstreamFindings upstream) {
         this.id = id;
         this.out = out;
         this.timing = timing;
@@ -124,6 +132,7 @@ final class FrameAssembler {
         this.line = new int[maxWidth];
         this.slip = singleLinkTables == null ? null : new LaneSlip(singleLinkTables);
         this.laneName = laneName;
+        this.upstream = upstream;
     }
 
     /**
@@ -158,12 +167,15 @@ final class FrameAssembler {
             if (slip != null && c0 >= 0 && ((p >>> 24 ^ c0) & 1) != 0) {
                 deEdgeForSlip(px, t, i, count);
             }
-            slow(p, t[i], base + i);
+            slow(p, t[i], i > 0 ? t[i - 1] : lastT, base + i);
             xx = x;
             c0 = ctrl;
         }
         x = xx;
         n = base + count;
+        if (count > 0) {
+            lastT = t[count - 1];
+        }
         timing.pixels = n;
         if (count >= 2) {
             prev2 = px[count - 2];
@@ -203,14 +215,22 @@ final class FrameAssembler {
         }
     }
 
-    private void slow(int p, long t, long idx) {
+    private void slow(int p, long t, long prevT, long idx) {
         int flags = p >>> 24;
         boolean incomplete = (flags & F_INCOMPLETE) != 0;
         if (incomplete || (flags & F_GAP) != 0) {
-            lostLock(idx, t, incomplete ? "a pixel with missing bit slots or a lane without data" : "the clock stopped or jumped", incomplete);
+            lostLock(idx, t, incomplete ? "a pixel with missing bit slots or a lane without data" : "the clock stopped or jumped", incomplete,
+                    incomplete ? null : upstream.breakBetween(prevT == Long.MIN_VALUE ? t : prevT, t));
         }
         if ((flags & F_SUSPECT) != 0) {
             frame.suspectPixel();
+        } else if ((flags & F_CAUSED) != 0) {
+            FindingRef r = upstream.flagsNear(t);
+            if (r == null) {
+                frame.suspectPixel(); // cannot happen: the lane buffer explained the flag with a reference it was given
+            } else {
+                frame.causedPixel(r.describe());
+            }
         }
         if ((flags & F_MISMATCH) != 0) {
             if (frame.firstMismatch()) {
@@ -258,18 +278,23 @@ final class FrameAssembler {
     // ------------------------------------------------------------------ events
 
     /**
-     * Lock is lost at a pixel. Missing bit slots are this decoder's own finding (an error); a clock
-     * that stopped or jumped was found upstream, where the clock is recovered (its
-     * {@code clock-dropout} or {@code clock-glitch} finding), so here the loss and the frame it
-     * breaks are its consequences, stated as information: the fault is found once.
+     * Lock is lost at a pixel. Missing bit slots are this decoder's own finding (an error). A clock
+     * that stopped or jumped where the stage recovering the clock made a finding it named in the
+     * bits ({@code cause}: its {@code clock-dropout} or {@code clock-glitch}) is that finding's
+     * consequence, stated as information referring to it; a break no such finding accounts for
+     * (the sampler was told to tolerate longer gaps, say) is this decoder's own finding, an error,
+     * and the frame it breaks refers to it: either way the fault is found once.
      */
-    private void lostLock(long idx, long t, String why, boolean incomplete) {
+    private void lostLock(long idx, long t, String why, boolean incomplete, FindingRef cause) {
         if (lastLostIdx == NONE || idx - lastLostIdx > 1) {
             if (incomplete) {
                 findings.anomaly(idx, t, "lost-lock", Severity.ERROR, "lock lost: " + why);
-            } else {
+            } else if (cause != null) {
                 findings.anomaly(idx, t, "lost-lock", Severity.INFO, "lock lost: " + why
-                        + " (consequence of the clock finding of the sampler that recovers the clock)");
+                        + " (consequence: see " + cause.describe() + ")");
+            } else {
+                findings.anomaly(idx, t, "lost-lock", Severity.ERROR, "lock lost: " + why
+                        + "; no finding of the stage that recovers the clock accounts for it");
             }
         }
         lastLostIdx = idx;
@@ -574,7 +599,7 @@ final class FrameAssembler {
         // partial only because the capture began or ended inside it (a fact of the capture window), or
         // because of a clock fault found upstream: no fault of its own
         boolean windowOnly = !complete && (!frame.broken() || frame.brokenElsewhere());
-        findings.frame(f, index, complete, suspect, why, windowOnly, frame.suspectPixels(), frame.suspectCause());
+        findings.frame(f, index, complete, suspect, why, windowOnly, frame.suspectPixels(), frame.causedPixels(), frame.suspectCause());
         out.frame(f);
         if (pictures != null) {
             pictures.offer(f);

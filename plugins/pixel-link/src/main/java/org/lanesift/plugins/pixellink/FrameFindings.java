@@ -130,10 +130,11 @@ final class FrameFindings {
      * partial, and how many of its pixels had flagged bits. A frame that is partial only because
      * the capture began or ended inside it ({@code windowOnly}) is information, not a finding
      * about the link: both its annotations are info. A frame suspect only through a finding stated
-     * elsewhere ({@code suspectCause}) is information referring to it, so the fault is found once.
+     * elsewhere ({@code suspectCause}) is information referring to it, so the fault is found once;
+     * so is the count of its pixels whose flagged bits that finding accounts for ({@code causedPixels}).
      */
     void frame(Frame f, long index, boolean complete, boolean suspect, String partialReason, boolean windowOnly, long suspectPixels,
-               String suspectCause) {
+               long causedPixels, String suspectCause) {
         Severity partialSev = windowOnly ? Severity.INFO : Severity.WARNING;
         Severity sev = suspect ? (suspectCause != null && (complete || windowOnly) ? Severity.INFO : Severity.WARNING)
                 : complete ? Severity.INFO : partialSev;
@@ -155,6 +156,10 @@ final class FrameFindings {
             out.annotate(Annotation.on(trackAnom, "suspect-bits").span(f.startFs(), f.endFs()).severity(Severity.WARNING)
                     .label("frame " + index + ": " + suspectPixels + " pixels with flagged bits")
                     .field("pixels", Field.integer(suspectPixels, "px")).build());
+        } else if (causedPixels > 0 && suspectCause != null) {
+            out.annotate(Annotation.on(trackAnom, "suspect-bits").span(f.startFs(), f.endFs()).severity(Severity.INFO)
+                    .label("frame " + index + ": " + causedPixels + " pixels with flagged bits (consequence: see " + suspectCause + ")")
+                    .field("pixels", Field.integer(causedPixels, "px")).build());
         }
     }
 

@@ -22,6 +22,7 @@ final class FrameState {
     private long firstHs;
     private long index;
     private long suspectPixels;
+    private long causedPixels;
     private long mismatches;
     private boolean driftReported;
     private boolean tooTallReported;
@@ -56,6 +57,7 @@ final class FrameState {
         firstHs = hsLine;
         firstV = vLine;
         suspectPixels = 0;
+        causedPixels = 0;
         mismatches = 0;
         driftReported = false;
         tooTallReported = false;
@@ -102,7 +104,8 @@ final class FrameState {
     }
 
     /**
-     * Marks the frame broken by a clock fault that the stage recovering the clock reports.
+     * Marks the frame broken by a clock fault stated once elsewhere: a finding of the stage
+     * recovering the clock, or this decoder's own {@code lost-lock} finding.
      *
      * @param why the reason, for the frame's annotation
      */
@@ -151,6 +154,23 @@ final class FrameState {
      */
     String suspectCause() {
         return suspectPixels > 0 ? null : suspectCause;
+    }
+
+    /**
+     * A pixel whose flagged bits a finding of the sampler accounts for arrived: the frame is suspect
+     * as that finding's consequence (counted also between frames; opening resets the count).
+     *
+     * @param cause a reference to that finding, for the frame's annotation
+     */
+    void causedPixel(String cause) {
+        if (open) {
+            markSuspect(cause);
+        }
+        causedPixels++;
+    }
+
+    long causedPixels() {
+        return causedPixels;
     }
 
     /** A pixel with flagged bits arrived (counted also between frames; opening resets the count). */

@@ -4,19 +4,25 @@ import java.lang.invoke.MethodHandles;
 import java.lang.invoke.VarHandle;
 import java.nio.ByteOrder;
 import java.util.Arrays;
+import org.lanesift.data.BitSets;
 import org.lanesift.data.BitStream;
+import org.lanesift.data.FindingRef;
 
 /**
  * The pixels of one data lane waiting to be merged with the other lanes: per clock period one
  * entry with the seven slot bits (bit s = slot s), their seven flags, a completeness bit, the
  * clock period index and the time of slot 0. A pixel whose slots arrive across two blocks is
- * carried over.
+ * carried over. Flags that a finding of the sampler accounts for ({@link BitStream#causes()}) are
+ * not kept as flags: the entry carries {@link #EXPLAINED} instead, so the decoder states them as
+ * that finding's consequence.
  */
 final class LaneBuffer {
     /** Entry bit: all seven slots were present exactly once. */
     static final int COMPLETE = 1 << 14;
     /** Entry bits 7..13: the slot flags. */
     static final int FLAGS = 0x7F << 7;
+    /** Entry bit: some slot was flagged by the sampler because of a finding it made and named. */
+    static final int EXPLAINED = 1 << 15;
 
     private static final VarHandle LONGS = MethodHandles.byteArrayViewVarHandle(long[].class, ByteOrder.LITTLE_ENDIAN);
     /** Slots 0..6 in bytes 0..6. */
@@ -41,6 +47,9 @@ final class LaneBuffer {
     private int pMask;
     private int pWord;
     private int pFlags;
+    private boolean pExplained;
+    /** The sampler's findings behind this lane's flagged bits. */
+    private final UpstreamFindings flagCauses = new UpstreamFindings();
     private long pEdge;
     private long pTime;
 
@@ -123,6 +132,16 @@ final class LaneBuffer {
         long[] vals = b.values();
         long[] fl = b.flagged();
         long[] ts = b.timesFs();
+        long[] ex = null;
+        flagCauses.add(b.causes());
+        flagCauses.dropBefore(b.startFs());
+        if (n > 0) {
+            long[][] split = explain(fl, ts, n);
+            if (split != null) {
+                fl = split[0];
+                ex = split[1];
+            }
+        }
         double ui = b.unitIntervalFs();
         int[] wArr = word;
         long[] eArr = edge;
@@ -140,7 +159,14 @@ final class LaneBuffer {
                     long e0 = ce[i];
                     long v56 = window56(vals, i);
                     long f56 = window56(fl, i);
-                    if (f56 == 0) {
+                    long x56 = ex == null ? 0 : window56(ex, i);
+                    if (x56 != 0) {
+                        for (int r = 0; r < 8; r++) {
+                            wArr[t + r] = ((int) (v56 >>> (7 * r)) & 0x7F) | (((int) (f56 >>> (7 * r)) & 0x7F) << 7) | COMPLETE
+                                    | (((int) (x56 >>> (7 * r)) & 0x7F) != 0 ? EXPLAINED : 0);
+                            eArr[t + r] = e0 + r;
+                        }
+                    } else if (f56 == 0) {
                         for (int r = 0; r < 8; r++) {
                             wArr[t + r] = ((int) (v56 >>> (7 * r)) & 0x7F) | COMPLETE;
                             eArr[t + r] = e0 + r;
@@ -160,7 +186,7 @@ final class LaneBuffer {
                     i += 56;
                 }
                 while (i < fastEnd && (((long) LONGS.get(slot, i)) & SEVEN_BYTES) == SLOT_PATTERN && ce[i] == ce[i + 6]) {
-                    wArr[t] = seven(vals, i) | (seven(fl, i) << 7) | COMPLETE;
+                    wArr[t] = seven(vals, i) | (seven(fl, i) << 7) | COMPLETE | (ex != null && seven(ex, i) != 0 ? EXPLAINED : 0);
                     eArr[t] = ce[i];
                     tArr[t] = ts[i];
                     t++;
@@ -192,12 +218,51 @@ final class LaneBuffer {
             if (bit(fl, i)) {
                 pFlags |= 1 << s;
             }
+            if (ex != null && bit(ex, i)) {
+                pExplained = true;
+            }
             if (pMask == 0x7F) {
                 t = close(t);
             }
             i++;
         }
         tail = t;
+    }
+
+    /**
+     * Splits a block's flags into those no named finding accounts for and those one does.
+     *
+     * @return {own flags, explained flags}, or null when no flagged bit is explained
+     */
+    private long[][] explain(long[] fl, long[] ts, int n) {
+        long[] ex = null;
+        int words = BitSets.words(n);
+        for (int w = 0; w < words; w++) {
+            long f = fl[w];
+            if (w == words - 1 && (n & 63) != 0) {
+                f &= (1L << (n & 63)) - 1;
+            }
+            while (f != 0) {
+                int i = (w << 6) + Long.numberOfTrailingZeros(f);
+                f &= f - 1;
+                if (flagCauses.flagsAt(ts[i]) != null) {
+                    if (ex == null) {
+                        ex = new long[words];
+                    }
+                    ex[w] |= 1L << i;
+                }
+            }
+        }
+        if (ex == null) {
+            return null;
+        }
+        long[] own = new long[Math.max(fl.length, words + 1)];
+        long[] exPadded = new long[own.length];
+        for (int w = 0; w < words; w++) {
+            own[w] = fl[w] & ~ex[w];
+            exPadded[w] = ex[w];
+        }
+        return new long[][] {own, exPadded};
     }
 
     /** Bits i..i+55 (the caller guarantees they exist). */
@@ -227,12 +292,13 @@ final class LaneBuffer {
     }
 
     private int close(int t) {
-        word[t] = pWord | (pFlags << 7) | (pMask == 0x7F ? COMPLETE : 0);
+        word[t] = pWord | (pFlags << 7) | (pMask == 0x7F ? COMPLETE : 0) | (pExplained ? EXPLAINED : 0);
         edge[t] = pEdge;
         timeFs[t] = pTime;
         pMask = 0;
         pWord = 0;
         pFlags = 0;
+        pExplained = false;
         return t + 1;
     }
 

@@ -40,6 +40,8 @@ final class PixelLinkStage implements Stage {
     private double sumDt;
     private long nDt;
     private long clocks;
+    /** The sampler's findings named in the bit streams, for the consequences seen here. */
+    private final UpstreamFindings upstream = new UpstreamFindings();
 
     PixelLinkStage(StageContext ctx, SlotMapping mapping, boolean reverse, boolean dual, List<String> laneNames,
                    FrameAssembler.Detail detail, Pictures.Mode picMode, long[] picRange, int maxWidth, int maxHeight,
@@ -76,7 +78,7 @@ final class PixelLinkStage implements Stage {
         };
         this.asm = new FrameAssembler(id, out, timing, pics, maxWidth, maxHeight, detail, hsForced, vsForced, clockTolPercent,
                 mapping.controlLanes(laneNames),
-                dual ? null : java.util.Arrays.copyOf(tables, Math.min(tables.length, lanes.length)), i -> lanes[i].label());
+                dual ? null : java.util.Arrays.copyOf(tables, Math.min(tables.length, lanes.length)), i -> lanes[i].label(), upstream);
         this.px = new int[BATCH * 2];
         this.tt = new long[BATCH * 2];
     }
@@ -85,6 +87,7 @@ final class PixelLinkStage implements Stage {
     public void accept(int input, Block block) {
         BitStream b = (BitStream) block;
         LaneBuffer lb = lanes[input];
+        upstream.add(b.causes());
         lb.add(b);
         if (lb.size() > MAX_LAG) {
             List<String> empty = new ArrayList<>();
@@ -128,6 +131,7 @@ final class PixelLinkStage implements Stage {
     private void flush() {
         if (fill > 0) {
             asm.process(px, tt, fill);
+            upstream.dropBefore(tt[fill - 1]);
             fill = 0;
         }
     }
@@ -234,6 +238,7 @@ final class PixelLinkStage implements Stage {
             int and = a & b & c & d;
             pxa[f] = tb0[a & 127] | tb1[b & 127] | tb2[c & 127] | tb3[d & 127] | gap
                     | ((or & LaneBuffer.FLAGS) != 0 ? FrameAssembler.SUSPECT : 0)
+                    | ((or & LaneBuffer.EXPLAINED) != 0 ? FrameAssembler.CAUSED : 0)
                     | ((and & LaneBuffer.COMPLETE) == 0 ? FrameAssembler.INCOMPLETE : 0);
             tta[f++] = t;
             if (f == BATCH * 2) {
@@ -283,7 +288,8 @@ final class PixelLinkStage implements Stage {
             and &= w;
             or |= w;
         }
-        return acc | ((or & LaneBuffer.FLAGS) != 0 ? FrameAssembler.SUSPECT : 0) | (and == 0 ? FrameAssembler.INCOMPLETE : 0);
+        return acc | ((or & LaneBuffer.FLAGS) != 0 ? FrameAssembler.SUSPECT : 0)
+                | ((or & LaneBuffer.EXPLAINED) != 0 ? FrameAssembler.CAUSED : 0) | (and == 0 ? FrameAssembler.INCOMPLETE : 0);
     }
 
     private int clockCheck(long e, long t) {
@@ -348,7 +354,7 @@ final class PixelLinkStage implements Stage {
                 or |= w;
             }
             px[fill] = acc | gap | ((or & LaneBuffer.FLAGS) != 0 ? FrameAssembler.SUSPECT : 0)
-                    | (and == 0 ? FrameAssembler.INCOMPLETE : 0);
+                    | ((or & LaneBuffer.EXPLAINED) != 0 ? FrameAssembler.CAUSED : 0) | (and == 0 ? FrameAssembler.INCOMPLETE : 0);
             tt[fill++] = stale ? prevT : t;
         } else {
             if (stale) {

@@ -4,6 +4,7 @@ import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
 import org.lanesift.data.BitStream;
+import org.lanesift.data.FindingRef;
 import org.lanesift.testkit.StageHarness;
 
 /** Test helper: runs a synthetic link through the plugin alone, block by block. */
@@ -22,6 +23,8 @@ final class Capture {
     /** Clock index after which the clock stops for stopFs (0 = never). */
     long stopAfterClock = -1;
     long stopFs;
+    /** Whether the bits after the stop name a clock-dropout finding of a sampler as its cause, as dual-edge does. */
+    boolean stopNamed;
     /** Lanes not pushed at all. */
     java.util.Set<String> silentLanes = java.util.Set.of();
     /** Optional re-cutting of each lane block (bit counts). */
@@ -67,7 +70,7 @@ final class Capture {
             List<BitStream> lanes = TestLink.serialise(words, n, firstClock + c, x -> per * (x + drift * x * x / 2), table,
                     colourBits, reverse, dual, flagClock, names);
             if (stopAfterClock >= 0) {
-                lanes = lanes.stream().map(b -> shiftAfter(b, stopAfterClock, stopFs)).toList();
+                lanes = lanes.stream().map(b -> shiftAfter(b, stopAfterClock, stopFs, stopNamed)).toList();
             }
             for (BitStream b : lanes) {
                 if (silentLanes.contains(b.channel())) {
@@ -86,20 +89,28 @@ final class Capture {
         return h;
     }
 
-    /** The clock stops after a given clock period: later bit times move by a pause. */
-    static BitStream shiftAfter(BitStream b, long clock, long pauseFs) {
+    /**
+     * The clock stops after a given clock period: later bit times move by a pause. When
+     * {@code named}, the blocks with bits after the pause name the sampler's clock-dropout finding
+     * over the pause (from the time the next clock period was due).
+     */
+    static BitStream shiftAfter(BitStream b, long clock, long pauseFs, boolean named) {
         long[] t = b.timesFs().clone();
         boolean any = false;
+        long due = Long.MAX_VALUE;
         for (int i = 0; i < b.count(); i++) {
             if (b.clockEdge()[i] > clock) {
+                due = Math.min(due, t[i]);
                 t[i] += pauseFs;
                 any = true;
             }
         }
+        List<FindingRef> causes = !named || !any ? List.of()
+                : List.of(new FindingRef("sampler", "clock-dropout", due, FindingRef.Effect.CLOCK_BREAK, due, due + pauseFs));
         long start = b.clockEdge()[0] > clock ? b.startFs() + pauseFs : b.startFs();
         long end = any ? b.endFs() + pauseFs : b.endFs();
         return new BitStream(b.channel(), start, end, b.count(), b.values(), t, b.clockEdge(), b.falling(), b.slot(), b.setupFs(),
-                b.holdFs(), b.flagged(), b.unitIntervalFs());
+                b.holdFs(), b.flagged(), b.unitIntervalFs(), causes);
     }
 
     /** Expected decoded picture of source frame f. */

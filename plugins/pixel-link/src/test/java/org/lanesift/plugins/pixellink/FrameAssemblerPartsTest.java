@@ -139,10 +139,10 @@ class FrameAssemblerPartsTest {
         quiet.hsync(0, 10, 2);
         quiet.vsync(0, 10, 40, 2, Long.MIN_VALUE);
         Frame complete = new Frame("px", 0, 10, 0, 2, 1, new int[2], false, false);
-        quiet.frame(complete, 0, true, false, null, false, 0, null);
+        quiet.frame(complete, 0, true, false, null, false, 0, 0, null);
         assertTrue(got.isEmpty(), got.toString());
         Frame partial = new Frame("px", 0, 10, 1, 2, 1, new int[2], true, false);
-        quiet.frame(partial, 1, false, false, "the capture ended inside this frame", true, 3, null);
+        quiet.frame(partial, 1, false, false, "the capture ended inside this frame", true, 3, 0, null);
         assertEquals(List.of("frame", "partial-frame", "suspect-bits"), got.stream().map(Annotation::kind).toList());
         // cut by the capture window: information; the flagged bits in it stay a warning
         assertEquals(List.of(Severity.INFO, Severity.INFO, Severity.WARNING), got.stream().map(Annotation::severity).toList());

@@ -188,12 +188,16 @@ class FrameAssemblyTest {
         }
     }
 
-    /** The clock stops mid-frame: lost lock is annotated, that frame is partial, the others stay complete. */
+    /**
+     * The clock stops mid-frame and the sampler named its clock-dropout finding in the bits: lost
+     * lock is annotated as that finding's consequence, that frame is partial, the others stay complete.
+     */
     @Test
     void clockStoppingMidFrame() throws Exception {
         Capture c = small(SMALL);
         c.stopAfterClock = 2 * SMALL.frameClocks() + (SMALL.vSync() + SMALL.vBack() + 4L) * SMALL.hTotal() + 8;
         c.stopFs = 5_000_000_000L; // 5 us pause, 200 clock periods of 25 ns
+        c.stopNamed = true;
         try (StageHarness h = c.run()) {
             List<Frame> frames = h.outputs("frames", Frame.class);
             assertEquals(5, frames.size(), frames + " " + h.annotations());
@@ -205,13 +209,34 @@ class FrameAssemblyTest {
             assertEquals(1, lost.size());
             // the stopped clock is the finding of the sampler that recovers it: here it is a consequence, information only
             assertEquals(Severity.INFO, lost.get(0).severity());
-            assertTrue(lost.get(0).label().contains("consequence"), lost.get(0).label());
+            assertTrue(lost.get(0).label().contains("consequence: see the clock-dropout finding of 'sampler' at"), lost.get(0).label());
             List<Annotation> partial = h.annotations("partial-frame");
             assertTrue(partial.stream().anyMatch(a -> a.label().contains("lock lost")));
             assertTrue(partial.stream().allMatch(a -> a.severity() == Severity.INFO), partial.toString());
             Report r = Report.of(h);
             assertEquals(2, r.num("frames/complete"));
             assertFalse(r.bool("horizontal/total/varying"), "measurements across the stop are not taken");
+        }
+    }
+
+    /**
+     * The same stop where no finding of the sampler covers it (a sampler told to tolerate long
+     * gaps): the decoder reports the lost lock itself, once, as an error, and the frame it breaks
+     * is information referring to it; nothing else is a warning or an error.
+     */
+    @Test
+    void clockStopNoSamplerFindingCoversIsFoundHereOnce() throws Exception {
+        Capture c = small(SMALL);
+        c.stopAfterClock = 2 * SMALL.frameClocks() + (SMALL.vSync() + SMALL.vBack() + 4L) * SMALL.hTotal() + 8;
+        c.stopFs = 5_000_000_000L;
+        try (StageHarness h = c.run()) {
+            List<Annotation> findings = h.annotations().stream().filter(a -> a.severity() != Severity.INFO).toList();
+            assertEquals(1, findings.size(), findings.toString());
+            assertEquals("lost-lock", findings.get(0).kind());
+            assertEquals(Severity.ERROR, findings.get(0).severity());
+            assertFalse(findings.get(0).label().contains("consequence"), findings.get(0).label());
+            assertTrue(h.annotations("partial-frame").stream().anyMatch(a -> a.label().contains("lock lost")));
+            assertTrue(h.outputs("frames", Frame.class).get(2).partial());
         }
     }
 
