@@ -221,6 +221,8 @@ final class Lane {
      * between two sampled bits longer than {@code gapFs} (the clock stopped) or a run of at least
      * {@code idleBits} equal bits (the line idling) ends the burst; each burst gets a fresh
      * deserializer, so the sync is sought again at every burst and bursts may differ in length.
+     * With {@code syncRestart} a sync on a word boundary inside a burst also starts a new burst
+     * ({@link #feedBurst}); with neither pauses nor idle runs that alone cuts a streaming link.
      *
      * @param gapFs    longest pause inside a burst, femtoseconds (0: pauses do not cut)
      * @param idleBits shortest idle run (0: runs do not cut)
@@ -238,7 +240,7 @@ final class Lane {
                 boolean bit = ((v[i >>> 6] >>> i) & 1L) != 0;
                 if (gapFs > 0 && gapLastFs != Long.MIN_VALUE && ti - gapLastFs > gapFs) {
                     if (current != null) {
-                        current.feed(b, from, i);
+                        feedBurst(b, from, i);
                         closeGapped(gapLastFs + Math.round(ui > 0 ? ui : 0), 0);
                     }
                     idle = false;
@@ -273,7 +275,7 @@ final class Lane {
                 }
                 burstBits++;
                 if (idleBits > 0 && runLength >= idleBits) {
-                    current.feed(b, from, i + 1);
+                    feedBurst(b, from, i + 1);
                     if (burstBits > runLength) {
                         closeGapped(runStartFs, runLength);
                     } else {
@@ -285,8 +287,29 @@ final class Lane {
                 }
             }
             if (current != null && from < n) {
-                current.feed(b, from, n);
+                feedBurst(b, from, n);
             }
+        }
+    }
+
+    /**
+     * Feeds bits {@code [from, to)} to the open burst; where its deserializer finds the next
+     * burst's sync (restart mode), closes the burst just before that sync and goes on with a
+     * fresh deserializer that starts synced.
+     */
+    private void feedBurst(BitStream b, int from, int to) {
+        int i = from;
+        while (i < to) {
+            i = current.feed(b, i, to);
+            if (!current.restartPending) {
+                return;
+            }
+            LaneDeserializer next = factory.create(index);
+            next.startSynced(current.restartSyncFs, current.uiFs);
+            long cut = current.restartStartFs;
+            done.add(new Burst(gapBurstStartFs, Math.max(gapBurstStartFs, cut), current));
+            gapBurstStartFs = cut;
+            current = next;
         }
     }
 

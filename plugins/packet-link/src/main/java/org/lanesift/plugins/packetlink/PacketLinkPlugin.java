@@ -85,6 +85,11 @@ public final class PacketLinkPlugin implements PluginProvider {
                     "framed profile without line states: a pause longer than this between two sampled bits (the clock stopped) ends a burst; 0: off"))
             .option(OptionSpec.integer("idleBits", 0L, 0, 1 << 20,
                     "framed profile without line states: a run of at least this many equal bits (the idle level) ends a burst; 0: off"))
+            .option(OptionSpec.bool("syncRestart", false,
+                    "framed profile without line states: every occurrence of the sync pattern on a word boundary starts a new burst"
+                    + " (word alignment restarts there; streaming links whose bursts follow each other with no pause)"))
+            .option(OptionSpec.integer("syncErrors", 0L, 0, 8,
+                    "framed profile: bits of the sync pattern that may differ from it where it is sought (fewer than a quarter of syncBits)"))
             .option(OptionSpec.bool("dropTrail", true, "framed profile: drop the final run of equal bits of each burst (the trail)"))
             .option(OptionSpec.integer("pngFrames", 8L, 0, 100000, "frames written as PNG (the first N)"))
             .option(OptionSpec.integer("maxBurstBytes", 8L << 20, 64, 1L << 28, "largest burst kept per lane, bytes"))
