@@ -31,7 +31,13 @@ final class HypothesesReport {
         for (boolean l : h.link().idleLevel()) {
             w.value(l ? 1 : 0);
         }
-        w.endArray().endObject();
+        w.endArray();
+        if (ChainFile.restartsAtSync(h)) {
+            SyncTolerance.Choice t = SyncTolerance.choose(h.link(), h.syncWire(), b.wordBits());
+            w.name("restartAtSync").beginObject().field("syncErrors", t.errors()).field("wordBoundariesExamined", t.boundaries())
+                    .field("chancePerBoundary", t.chance()).endObject();
+        }
+        w.endObject();
         w.name("sync").beginObject().field("present", h.syncBits() > 0).field("bits", h.syncBits()).field("wire", h.syncWire())
                 .field("hex", h.syncBits() > 0 ? ChainFile.syncHex(h.syncWire(), b.msbFirst()) : "")
                 .field("commonPrefixBits", h.prefixBits()).field("burstsStartingWithIt", round(h.syncShare())).endObject();
@@ -104,9 +110,17 @@ final class HypothesesReport {
             case "clock-stops" -> "clock pauses (" + c.clockStops() + " pauses)";
             case "idle-runs" -> "idle runs of at least " + h.link().idleRunBits() + " bits";
             default -> h.link().bursts() > 1 ? "the sync alone: the link streams without pauses, cut at every occurrence of the sync"
-                    + " that leaves whole words (the generated chain cannot restart at each sync yet)"
+                    + " that leaves whole words"
                     : "nothing: the link streams without pauses and no sync stands out";
         }, levels(h.link().idleLevel())));
+        if (ChainFile.restartsAtSync(h)) {
+            SyncTolerance.Choice t = SyncTolerance.choose(h.link(), h.syncWire(), b.wordBits());
+            s.append(f("The generated chain restarts the word alignment at every sync on a word boundary (`syncRestart`), accepting"
+                    + " %d wrong sync bit(s) (`syncErrors`): on random data a word boundary matches that closely with probability"
+                    + " %.2g, over the %d word boundaries examined %.2g chance matches are expected%s.\n\n", t.errors(), t.chance(),
+                    t.boundaries(), t.chance() * t.boundaries(), t.errors() < SyncTolerance.MAX_ERRORS
+                            ? "; more would let data pass for a sync (or the examined bursts already hold a near match)" : ""));
+        }
         s.append("## Sync\n\n");
         if (h.syncBits() > 0) {
             s.append(f("%d bits `%s` in wire order (0x%s read %s first); %.0f %% of the bursts start with it on every lane "
