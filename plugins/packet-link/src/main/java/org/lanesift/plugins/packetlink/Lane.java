@@ -3,6 +3,7 @@ package org.lanesift.plugins.packetlink;
 import java.util.ArrayDeque;
 import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.BitStream;
+import org.lanesift.kit.LegPairs;
 
 /**
  * One data lane inside the stage: pairs the samples of its two legs, runs the state tracker,
@@ -32,10 +33,7 @@ final class Lane {
     final LaneStateTracker tracker;
     private final DeserializerFactory factory;
     private final MarginRuns margins;
-    private final ArrayDeque<AnalogBlock> legP = new ArrayDeque<>();
-    private final ArrayDeque<AnalogBlock> legN = new ArrayDeque<>();
-    private int posP;
-    private int posN;
+    private final LegPairs legs;
     private final ArrayDeque<BitStream> bits = new ArrayDeque<>();
     private int bitPos;
     private long bitsDoneFs = Long.MIN_VALUE;
@@ -48,46 +46,15 @@ final class Lane {
         this.tracker = tracker;
         this.factory = factory;
         this.margins = margins;
+        this.legs = new LegPairs(tracker::accept);
     }
 
     void acceptLeg(boolean positive, AnalogBlock b) {
-        if (b.length() == 0) {
-            return;
-        }
-        (positive ? legP : legN).add(b);
-        pairLegs();
+        legs.accept(positive, b);
     }
 
     void acceptBits(BitStream b) {
         bits.add(b);
-    }
-
-    private void pairLegs() {
-        while (!legP.isEmpty() && !legN.isEmpty()) {
-            AnalogBlock p = legP.peek();
-            AnalogBlock n = legN.peek();
-            double period = p.periodFs();
-            long tp = p.startFs() + Math.round(posP * period);
-            long tn = n.startFs() + Math.round(posN * n.periodFs());
-            if (tp < tn - period / 2) {
-                posP += Math.max(1, (int) Math.min(p.length() - posP, Math.floor((tn - tp) / period + 0.5)));
-            } else if (tn < tp - period / 2) {
-                posN += Math.max(1, (int) Math.min(n.length() - posN, Math.floor((tp - tn) / period + 0.5)));
-            } else {
-                int k = Math.min(p.length() - posP, n.length() - posN);
-                tracker.accept(p.volts(), posP, p.invalid(), n.volts(), posN, n.invalid(), k, tp, period);
-                posP += k;
-                posN += k;
-            }
-            if (posP >= p.length()) {
-                legP.poll();
-                posP = 0;
-            }
-            if (posN >= n.length()) {
-                legN.poll();
-                posN = 0;
-            }
-        }
     }
 
     /** Moves every bit whose state is settled into its burst (or drops it); finishes completed bursts. */

@@ -3,6 +3,7 @@ package org.lanesift.plugins.packetlink;
 import java.util.ArrayList;
 import java.util.List;
 import org.lanesift.data.DataKind;
+import org.lanesift.kit.LineStateClassifier;
 import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.OptionValues;
 import org.lanesift.plugin.PluginDescriptor;
@@ -68,10 +69,10 @@ public final class PacketLinkPlugin implements PluginProvider {
                     + "D-PHY/DSI-like packet links; a generic framed-link profile for unknown links.")
             .option(OptionSpec.integer("lanes", 1L, 1, 4, "number of data lanes"))
             .option(OptionSpec.choice("profile", "dsi", "dsi: MIPI DSI packets; framed: generic sync + words", "dsi", "framed"))
-            .option(OptionSpec.number("lpHighVolts", "V", 0.88, 0.0, 5.0, "low-power receiver high threshold (D-PHY, from memory)"))
-            .option(OptionSpec.number("lpLowVolts", "V", 0.55, 0.0, 5.0, "low-power receiver low threshold (D-PHY, from memory)"))
-            .option(OptionSpec.number("hsCommonMinVolts", "V", 0.07, 0.0, 5.0, "lowest common mode counted as high speed"))
-            .option(OptionSpec.number("hsCommonMaxVolts", "V", 0.33, 0.0, 5.0, "highest common mode counted as high speed"))
+            .option(OptionSpec.number("lpHighVolts", "V", LineStateClassifier.DEFAULT_HIGH_VOLTS, 0.0, 5.0, "low-power receiver high threshold (D-PHY, from memory)"))
+            .option(OptionSpec.number("lpLowVolts", "V", LineStateClassifier.DEFAULT_LOW_VOLTS, 0.0, 5.0, "low-power receiver low threshold (D-PHY, from memory)"))
+            .option(OptionSpec.number("hsCommonMinVolts", "V", LineStateClassifier.DEFAULT_HS_COMMON_MIN_VOLTS, 0.0, 5.0, "lowest common mode counted as high speed"))
+            .option(OptionSpec.number("hsCommonMaxVolts", "V", LineStateClassifier.DEFAULT_HS_COMMON_MAX_VOLTS, 0.0, 5.0, "highest common mode counted as high speed"))
             .option(OptionSpec.time("minStateTime", TimeValue.Unit.NS, "30ns", "a line state must last this long to count"))
             .option(OptionSpec.bool("lpStates", true, "framed profile: lanes have low-power states (analog legs wired)"))
             .option(OptionSpec.text("syncPattern", "B8", "framed profile: sync pattern in hex (empty: none)"))
