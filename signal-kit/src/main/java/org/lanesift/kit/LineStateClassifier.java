@@ -18,7 +18,7 @@ public final class LineStateClassifier {
     public static final double DEFAULT_HS_COMMON_MIN_VOLTS = 0.07;
     /** Highest common mode counted as high speed, volts. */
     public static final double DEFAULT_HS_COMMON_MAX_VOLTS = 0.33;
-    /** A line state must last this long to count, femtoseconds (30 ns: below the shortest low-power state, common practice). */
+    /** A line state must last this long to count, femtoseconds (30 ns: below the shortest low-power state, about 50 ns, docs/reference-facts.md#d-phy-levels-and-states). */
     public static final long DEFAULT_MIN_STATE_FS = 30_000_000L;
 
     private final float highVolts;
