@@ -50,6 +50,8 @@ final class LaneDeserializer {
     long seekBits;
     /** Bits searched since the last sync was found (or since the start). */
     long unsyncedBits;
+    /** Restart mode: bits appended at a time, so a filler sync never makes a whole block be appended again. */
+    static final int RESTART_CHUNK_BITS = 4096;
     /** Restart mode: first word boundary of the buffer not yet checked for the sync. */
     private int checkedBits;
     /** Restart mode: {@link #feed} stopped just after a new sync; the caller starts the next burst there. */
@@ -131,9 +133,14 @@ final class LaneDeserializer {
      */
     void dropLastBits(int n) {
         int keep = Math.max(0, nbits - n);
-        for (int i = keep; i < nbits; i++) {
-            bits[i >>> 6] &= ~(1L << i);
-            flagged[i >>> 6] &= ~(1L << i);
+        if (keep < nbits) {
+            int w = keep >>> 6;
+            long low = (keep & 63) == 0 ? 0L : -1L >>> (64 - (keep & 63));
+            bits[w] &= low;
+            flagged[w] &= low;
+            int end = Math.min(bits.length, BitSets.words(nbits));
+            Arrays.fill(bits, w + 1, Math.max(w + 1, end), 0L);
+            Arrays.fill(flagged, w + 1, Math.max(w + 1, Math.min(flagged.length, end)), 0L);
         }
         nbits = keep;
         wordStarts = Math.min(wordStarts, (keep + wordBits - 1) / wordBits);
@@ -186,6 +193,9 @@ final class LaneDeserializer {
                 continue;
             }
             int n = to - i;
+            if (restart) {
+                n = Math.min(n, RESTART_CHUNK_BITS); // bounds the bits fed again after a filler sync
+            }
             if (groupWords > 0) {
                 n = Math.min(n, groupWords * wordBits - nbits);
             }
@@ -203,8 +213,12 @@ final class LaneDeserializer {
                 i += n;
                 if (restart) {
                     int end = nextSync(s, i - n, before);
-                    if (end >= 0) {
+                    if (restartPending) {
                         return end;
+                    }
+                    if (end >= 0) {
+                        i = end; // a filler sync: the bits after it go into the emptied buffer again
+                        continue;
                     }
                 }
             }
@@ -231,7 +245,8 @@ final class LaneDeserializer {
      * @param s       the stream
      * @param first   stream index of the first bit of the last append
      * @param before  buffer position of that bit
-     * @return the stream index just after a new sync, or -1
+     * @return the stream index just after a new sync ({@link #restartPending} set, or after a
+     *         filler sync, the bits from there to be fed again), or -1
      */
     private int nextSync(BitStream s, int first, int before) {
         while (checkedBits + syncBits <= nbits) {
@@ -247,11 +262,10 @@ final class LaneDeserializer {
             long startFs = startIdx >= first ? t[startIdx] : syncFs - Math.round((syncBits - 1) * (uiFs > 0 ? uiFs : 0));
             if (p == 0) {
                 // a sync right after the sync: the burst starts after it
-                int rest = first + (nbits - before) - end;
                 dropLastBits(nbits);
                 checkedBits = 0;
                 syncFoundFs = syncFs;
-                return rest == 0 ? -1 : resume(s, end, rest);
+                return end;
             }
             dropLastBits(nbits - p);
             restartPending = true;
@@ -262,11 +276,6 @@ final class LaneDeserializer {
         return -1;
     }
 
-    /** After a filler sync: feeds the bits of the last append that followed it again, into the emptied buffer. */
-    private int resume(BitStream s, int from, int n) {
-        int r = feed(s, from, from + n);
-        return restartPending ? r : -1;
-    }
 
     private void append(BitStream s, int i, int n) {
         int need = BitSets.words(nbits + n) + 1;

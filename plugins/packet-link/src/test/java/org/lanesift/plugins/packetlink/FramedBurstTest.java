@@ -32,7 +32,9 @@ class FramedBurstTest {
         /** Bursts back to back, the sync repeated at each. */
         STREAMING,
         /** Streaming, some syncs with one or two wrong bits, the capture starting inside the first burst. */
-        STREAMING_DAMAGED
+        STREAMING_DAMAGED,
+        /** Streaming, and between some bursts the sync sent over and over as a filler (up to 400 times). */
+        STREAMING_FILLER
     }
 
     /** One lane: bursts of sync + words LSB first; between bursts a pause or an idle run of zeros, or nothing. */
@@ -53,8 +55,9 @@ class FramedBurstTest {
                 }
             }
             int damage = kind == Kind.STREAMING_DAMAGED && b % 2 == k ? (b % 5 == 2 ? 0b1 : b % 5 == 4 ? 0b100000010000 : 0) : 0;
-            for (int j = 0; j < syncBits; j++) {
-                v.add(((sync ^ damage) >> j & 1) != 0);
+            int fillers = kind == Kind.STREAMING_FILLER && b % 3 == 1 ? b * 37 % 400 : 0;
+            for (int j = 0; j < syncBits * (1 + fillers); j++) {
+                v.add(((sync ^ damage) >> (j % syncBits) & 1) != 0);
                 t.add(now);
                 now += LinkSynth.UI_FS;
             }
@@ -116,7 +119,7 @@ class FramedBurstTest {
      */
     @ParameterizedTest(name = "{0}, cut every {1} UI")
     @CsvSource({"CLOCK_STOPS, 37", "CLOCK_STOPS, 5000", "IDLE_RUNS, 41", "IDLE_RUNS, 3000", "STREAMING, 43", "STREAMING, 4000",
-            "STREAMING_DAMAGED, 29", "STREAMING_DAMAGED, 2500"})
+            "STREAMING_DAMAGED, 29", "STREAMING_DAMAGED, 2500", "STREAMING_FILLER, 31", "STREAMING_FILLER, 30000"})
     void syncRestartGivesEveryBurstWholeOnEveryKindOfLink(Kind kind, int cutUi) {
         int wordBits = 10;
         List<int[]> bursts = bursts(wordBits, 60);
