@@ -46,6 +46,26 @@ class DemoTest {
         } finally {
             Files.move(moved, dir); // @TempDir cleans its own folder
         }
+
+        // find-format on the packet link's legs finds the low-power/high-speed state pattern before every burst the
+        // packet-link decoder saw entered (its hs-entry findings: LP-11, LP-01, LP-00, then HS on each lane)
+        Path found = dir.resolve("found-format");
+        int ff = Main.run(new String[] {"find-format", "--capture", dir.resolve("captures/packet-link.csv").toString(), "--map",
+                "HSCLK=HSCLK_P,HSCLK_N L0=L0_P,L0_N L1=L1_P,L1_N", "--out", found.toString(), "--quiet"},
+                new PrintStream(out, true, StandardCharsets.UTF_8), new PrintStream(err, true, StandardCharsets.UTF_8));
+        assertEquals(0, ff, err.toString(StandardCharsets.UTF_8));
+        long entries = 0;
+        for (String line : Files.readAllLines(dir.resolve("packet/annotations.jsonl"))) {
+            if (org.lanesift.testkit.JsonScan.parse("annotation", line).get("kind").asString().equals("hs-entry")) {
+                entries++;
+            }
+        }
+        org.lanesift.json.JsonValue states = org.lanesift.testkit.JsonScan.parse("hypotheses",
+                Files.readString(found.resolve("discovery-hypotheses.json"))).at("/bursts/lineStates");
+        assertTrue(entries > 50, "hs-entry findings: " + entries);
+        assertEquals("LP-11, LP-01, LP-00, HS", states.get("pattern").asString());
+        assertEquals(entries, (long) states.get("enteredThroughPattern").asDouble());
+        assertEquals(entries, (long) states.get("highSpeedIntervals").asDouble());
     }
 
     @Test

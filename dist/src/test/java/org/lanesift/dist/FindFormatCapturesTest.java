@@ -59,6 +59,12 @@ class FindFormatCapturesTest {
     void csvOfAnalogLegsGivesTheHypothesesOfTheVcd() throws IOException {
         JsonValue csv = run("--capture", tmp.resolve("legs.csv").toString(), "--map", MAP, "--out", tmp.resolve("csv").toString());
         assertSame(csv);
+        // LVDS-like legs (1.2 V common mode) never fall below the 880 mV low-power high threshold
+        // (docs/reference-facts.md#d-phy-levels-and-states): no low-power/high-speed state pattern is claimed
+        assertEquals("none", csv.at("/bursts/lineStates/pattern").asString());
+        assertEquals(0, csv.at("/bursts/lineStates/highSpeedIntervals").asDouble());
+        assertEquals(2, csv.at("/bursts/lineStates/lanesExamined").asDouble());
+        assertEquals(null, vcd.at("/bursts/lineStates"), "a VCD's 1-bit signals have no levels");
         // the generated chain reads the CSV through the same front end and cuts the words the VCD's chain cuts
         List<String> fromVcd = words("vcd");
         List<String> fromCsv = words("csv");

@@ -266,7 +266,8 @@ public final class LinkChains {
      * as {@link #pixelOneRun} does; a logic capture's samples through {@code logic-edges}; a VCD's
      * 1-bit signals as they are; one analog channel per signal (the 0/1 columns of a logic
      * analyser's CSV export, or a single-ended signal) through one {@code differential} receiver
-     * in mode {@code single}, against the mid-level of its two levels.
+     * in mode {@code single}, against the mid-level of its two levels. Analog legs also go to discovery as they are (option
+     * {@code legs}), where the low-power/high-speed state pattern is sought in their levels.
      *
      * @param description the chain's description
      * @param cap         the capture; for a logic capture every pair's N channel is empty
@@ -306,6 +307,9 @@ public final class LinkChains {
             }
         }
         Map<String, Object> o = new LinkedHashMap<>(options);
+        if (logicKind == null) {
+            o.put("legs", true);
+        }
         Map<String, Object> n = new LinkedHashMap<>();
         n.put("id", DISCOVERY);
         n.put("plugin", "link-discovery");
@@ -314,6 +318,10 @@ public final class LinkChains {
         c.wire(from[0], DISCOVERY + ".clock");
         for (int k = 1; k < pairs.size(); k++) {
             c.wire(from[k], DISCOVERY + ".lane" + (k - 1));
+        }
+        for (int k = 1; logicKind == null && k < pairs.size(); k++) {
+            // the single-ended levels as captured: the state pattern lives in each leg's own level
+            c.wire("cap." + pairs.get(k).p(), DISCOVERY + ".lane" + (k - 1) + "p").wire("cap." + pairs.get(k).n(), DISCOVERY + ".lane" + (k - 1) + "n");
         }
         return c.model();
     }

@@ -7,7 +7,8 @@ import org.lanesift.json.JsonWriter;
  * A chain file (docs/chain-file.md) that decodes the capture with the best hypothesis: the VCD
  * source, the {@code dual-edge} sampler in the found clocking, and the {@code packet-link}
  * framed profile with the found sync, word length, bit order, lane distribution and burst
- * boundaries (clock pauses or idle runs).
+ * boundaries (clock pauses or idle runs; on a streaming link the sync itself, with
+ * {@code syncRestart} and the {@code syncErrors} of {@link SyncTolerance}).
  */
 final class ChainFile {
     private ChainFile() {
@@ -39,6 +40,8 @@ final class ChainFile {
             w.field("burstGap", String.format(Locale.ROOT, "%.6gns", 1.5 * h.clocking().periodFs() / 1e6));
         } else if (h.link().burstMode().equals("idle-runs")) {
             w.field("idleBits", h.link().idleRunBits());
+        } else if (restartsAtSync(h)) {
+            w.field("syncRestart", true).field("syncErrors", SyncTolerance.choose(h.link(), h.syncWire(), b.wordBits()).errors());
         }
         w.endObject().endObject();
         w.endArray();
@@ -51,6 +54,11 @@ final class ChainFile {
         w.endArray();
         w.endObject();
         return w.finish();
+    }
+
+    /** Whether the generated chain cuts the link at its syncs: a streaming link with a sync. */
+    static boolean restartsAtSync(Hypotheses h) {
+        return h.link().burstMode().equals("streaming") && h.syncBits() > 0;
     }
 
     /** The sync as the framed profile reads it: in the word bit order (msb: the first wire bit is the top bit). */

@@ -1,6 +1,7 @@
 package org.lanesift.plugins.discovery;
 
 import java.nio.charset.StandardCharsets;
+import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.Artifact;
 import org.lanesift.data.Block;
 import org.lanesift.data.Edges;
@@ -8,7 +9,8 @@ import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
 
 /**
- * Collects the clock's and the lanes' edges (bounded by {@code maxBits}), runs the
+ * Collects the clock's and the lanes' edges (bounded by {@code maxBits}) and, when wired, follows
+ * the line states of the lanes' legs (counters only), runs the
  * {@link DiscoveryEngine} at the end and emits the report, the picture sheet and the chain file.
  */
 final class DiscoveryStage implements Stage {
@@ -23,7 +25,10 @@ final class DiscoveryStage implements Stage {
     private long firstFs = Long.MAX_VALUE;
     private long lastFs = Long.MIN_VALUE;
 
-    DiscoveryStage(StageContext ctx, int lanes, int maxBits, int sheetPictures, String capture) {
+    /** Per data lane, the state pattern of its legs; null when the legs are not wired. */
+    private final LineStatePattern[] legs;
+
+    DiscoveryStage(StageContext ctx, int lanes, int maxBits, int sheetPictures, String capture, boolean withLegs) {
         this.ctx = ctx;
         this.maxBits = maxBits;
         this.sheetPictures = sheetPictures;
@@ -36,10 +41,19 @@ final class DiscoveryStage implements Stage {
             this.lanes[k] = new EdgeCollector(maxBits);
             names[k] = "lane" + k;
         }
+        this.legs = withLegs ? new LineStatePattern[lanes] : null;
+        for (int k = 0; withLegs && k < lanes; k++) {
+            legs[k] = new LineStatePattern();
+        }
     }
 
     @Override
     public void accept(int input, Block block) {
+        if (input > lanes.length) {
+            int leg = input - lanes.length - 1;
+            legs[leg / 2].accept(leg % 2 == 0, (AnalogBlock) block);
+            return;
+        }
         Edges e = (Edges) block;
         firstFs = Math.min(firstFs, e.startFs());
         lastFs = Math.max(lastFs, e.endFs());
@@ -65,13 +79,14 @@ final class DiscoveryStage implements Stage {
         }
         LinkEdgesInput in = new LinkEdgesInput(clockName, clock.rising, clock.nRising, clock.falling, clock.nFalling, names, init, t, c);
         Hypotheses h = new DiscoveryEngine(maxBits).discover(in);
+        LineStates states = legs == null ? null : LineStates.of(legs);
         String id = ctx.instanceId();
         long s = firstFs == Long.MAX_VALUE ? 0 : firstFs;
         long e = Math.max(s, lastFs);
         ctx.emit(0, new Artifact(id, s, e, id + "-hypotheses.json", "application/json",
-                HypothesesReport.json(h, in).getBytes(StandardCharsets.UTF_8)));
+                HypothesesReport.json(h, in, states).getBytes(StandardCharsets.UTF_8)));
         ctx.emit(0, new Artifact(id, s, e, id + "-hypotheses.md", "text/markdown",
-                HypothesesReport.markdown(h, in, id).getBytes(StandardCharsets.UTF_8)));
+                HypothesesReport.markdown(h, in, states, id).getBytes(StandardCharsets.UTF_8)));
         ctx.emit(0, new Artifact(id, s, e, id + "-pictures.png", "image/png", ContactSheet.png(h.pictures(), sheetPictures)));
         ctx.emit(0, new Artifact(id, s, e, id + "-chain.json", "application/json",
                 ChainFile.json(h, in, capture).getBytes(StandardCharsets.UTF_8)));

@@ -3,6 +3,9 @@ package org.lanesift.plugins.discovery;
 import java.util.List;
 import java.util.Locale;
 import org.lanesift.json.JsonWriter;
+import org.lanesift.kit.LineState;
+import org.lanesift.kit.LineStateClassifier;
+import org.lanesift.unit.Quantity;
 
 /**
  * The hypotheses report, as JSON ({@code <id>-hypotheses.json}) and Markdown
@@ -13,7 +16,7 @@ final class HypothesesReport {
     private HypothesesReport() {
     }
 
-    static String json(Hypotheses h, LinkEdgesInput in) {
+    static String json(Hypotheses h, LinkEdgesInput in, LineStates states) {
         Hypotheses.Framing b = h.best();
         Clocking c = h.clocking();
         JsonWriter w = JsonWriter.pretty();
@@ -31,7 +34,16 @@ final class HypothesesReport {
         for (boolean l : h.link().idleLevel()) {
             w.value(l ? 1 : 0);
         }
-        w.endArray().endObject();
+        w.endArray();
+        if (ChainFile.restartsAtSync(h)) {
+            SyncTolerance.Choice t = SyncTolerance.choose(h.link(), h.syncWire(), b.wordBits());
+            w.name("restartAtSync").beginObject().field("syncErrors", t.errors()).field("wordBoundariesExamined", t.boundaries())
+                    .field("chancePerBoundary", t.chance()).endObject();
+        }
+        if (states != null) {
+            lineStates(w, states);
+        }
+        w.endObject();
         w.name("sync").beginObject().field("present", h.syncBits() > 0).field("bits", h.syncBits()).field("wire", h.syncWire())
                 .field("hex", h.syncBits() > 0 ? ChainFile.syncHex(h.syncWire(), b.msbFirst()) : "")
                 .field("commonPrefixBits", h.prefixBits()).field("burstsStartingWithIt", round(h.syncShare())).endObject();
@@ -83,7 +95,60 @@ final class HypothesesReport {
         return w.finish();
     }
 
-    static String markdown(Hypotheses h, LinkEdgesInput in, String id) {
+    /** The low-power/high-speed state pattern of the legs, under {@code bursts.lineStates}. */
+    private static void lineStates(JsonWriter w, LineStates l) {
+        w.name("lineStates").beginObject().field("pattern", l.found() ? PATTERN : "none").field("confidence", round(l.confidence()))
+                .field("lanesExamined", l.lanes()).field("samplePairs", l.samples()).field("highSpeedIntervals", l.hsIntervals())
+                .field("enteredThroughPattern", l.fullEntries());
+        optional(w, "stopLevelVolts", round(l.stopLevelVolts()));
+        optional(w, "highSpeedCommonModeVolts", round(l.hsCommonVolts()));
+        optional(w, "lp01MeanS", l.lp01MeanS());
+        optional(w, "lp00MeanS", l.lp00MeanS());
+        w.name("timeShare").beginObjectInline();
+        for (LineState s : LineState.values()) {
+            w.field(s.label, round(l.stateShare()[s.ordinal()]));
+        }
+        w.endObject().field("source", "docs/reference-facts.md#d-phy-levels-and-states").endObject();
+    }
+
+    private static void optional(JsonWriter w, String name, double v) {
+        if (Double.isFinite(v)) {
+            w.field(name, v);
+        }
+    }
+
+    /** The entry into high speed of a D-PHY lane. */
+    static final String PATTERN = "LP-11, LP-01, LP-00, HS";
+
+    /** The line-state paragraph of the Bursts section. */
+    private static String lineStates(LineStates l) {
+        StringBuilder s = new StringBuilder();
+        s.append(f("Line states from the single-ended legs of %d lane(s) (a leg high above %.2f V, low below %.2f V; high speed at a"
+                + " common mode of %.2f to %.2f V; docs/reference-facts.md#d-phy-levels-and-states): ", l.lanes(),
+                LineStateClassifier.DEFAULT_HIGH_VOLTS, LineStateClassifier.DEFAULT_LOW_VOLTS, LineStateClassifier.DEFAULT_HS_COMMON_MIN_VOLTS,
+                LineStateClassifier.DEFAULT_HS_COMMON_MAX_VOLTS));
+        s.append(f("%d of %d high-speed intervals entered through LP-11, LP-01, LP-00", l.fullEntries(), l.hsIntervals()));
+        if (l.fullEntries() > 0) {
+            s.append(f(" (LP-01 for %s, LP-00 for %s on average)", Quantity.format(l.lp01MeanS(), "s"), Quantity.format(l.lp00MeanS(), "s")));
+        }
+        if (Double.isFinite(l.stopLevelVolts())) {
+            s.append("; stop level (LP-11) ").append(Quantity.format(l.stopLevelVolts(), "V"));
+        }
+        if (Double.isFinite(l.hsCommonVolts())) {
+            s.append("; high-speed common mode ").append(Quantity.format(l.hsCommonVolts(), "V"));
+        }
+        s.append("; time per state:");
+        for (LineState st : LineState.values()) {
+            if (l.stateShare()[st.ordinal()] > 0) {
+                s.append(f(" %s %.0f %%", st.label, 100 * l.stateShare()[st.ordinal()]));
+            }
+        }
+        s.append(l.found() ? f(". The lanes have the low-power/high-speed state pattern %s (confidence %.2f).\n\n", PATTERN, l.confidence())
+                : f(". No low-power/high-speed state pattern (confidence %.2f).\n\n", l.confidence()));
+        return s.toString();
+    }
+
+    static String markdown(Hypotheses h, LinkEdgesInput in, LineStates states, String id) {
         Hypotheses.Framing b = h.best();
         Clocking c = h.clocking();
         StringBuilder s = new StringBuilder();
@@ -104,9 +169,20 @@ final class HypothesesReport {
             case "clock-stops" -> "clock pauses (" + c.clockStops() + " pauses)";
             case "idle-runs" -> "idle runs of at least " + h.link().idleRunBits() + " bits";
             default -> h.link().bursts() > 1 ? "the sync alone: the link streams without pauses, cut at every occurrence of the sync"
-                    + " that leaves whole words (the generated chain cannot restart at each sync yet)"
+                    + " that leaves whole words"
                     : "nothing: the link streams without pauses and no sync stands out";
         }, levels(h.link().idleLevel())));
+        if (states != null) {
+            s.append(lineStates(states));
+        }
+        if (ChainFile.restartsAtSync(h)) {
+            SyncTolerance.Choice t = SyncTolerance.choose(h.link(), h.syncWire(), b.wordBits());
+            s.append(f("The generated chain restarts the word alignment at every sync on a word boundary (`syncRestart`), accepting"
+                    + " %d wrong sync bit(s) (`syncErrors`): on random data a word boundary matches that closely with probability"
+                    + " %.2g, over the %d word boundaries examined %.2g chance matches are expected%s.\n\n", t.errors(), t.chance(),
+                    t.boundaries(), t.chance() * t.boundaries(), t.errors() < SyncTolerance.MAX_ERRORS
+                            ? "; more would let data pass for a sync (or the examined bursts already hold a near match)" : ""));
+        }
         s.append("## Sync\n\n");
         if (h.syncBits() > 0) {
             s.append(f("%d bits `%s` in wire order (0x%s read %s first); %.0f %% of the bursts start with it on every lane "

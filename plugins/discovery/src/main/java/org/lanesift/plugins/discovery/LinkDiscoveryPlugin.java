@@ -18,7 +18,10 @@ import org.lanesift.plugin.StageContext;
  * sync, word length, bit order, lane distribution, length field, checksum, command and data
  * bursts, pixel format and line length.
  *
- * <p><b>Inputs</b>: {@code clock} (EDGES) and {@code lane0} .. {@code lane{N-1}} (EDGES).
+ * <p><b>Inputs</b>: {@code clock} (EDGES) and {@code lane0} .. {@code lane{N-1}} (EDGES); with
+ * {@code legs}, also each data lane's single-ended legs {@code lane{k}p} and {@code lane{k}n}
+ * (ANALOG, volts), in which the low-power/high-speed state pattern is sought
+ * ({@link LineStatePattern}).
  * <b>Output</b> {@code files} (ARTIFACT): {@code <id>-hypotheses.json} and
  * {@code <id>-hypotheses.md} (each parameter with its ranked candidates, evidence and
  * confidence), {@code <id>-pictures.png} (the candidate pictures, best first, on one sheet) and
@@ -38,6 +41,8 @@ public final class LinkDiscoveryPlugin implements PluginProvider {
                     "bits per lane examined at most (the rest of the capture is not read into memory)"))
             .option(OptionSpec.integer("sheetPictures", 6L, 1, 12, "candidate pictures on the contact sheet"))
             .option(OptionSpec.text("capture", "", "capture file named in the generated chain (empty: a placeholder)"))
+            .option(OptionSpec.bool("legs", false, "the data lanes' single-ended legs are wired (lane{k}p, lane{k}n): look for the"
+                    + " low-power/high-speed state pattern in their levels"))
             .inputs(LinkDiscoveryPlugin::inputs)
             .output(PortSpec.of("files", DataKind.ARTIFACT, "hypotheses JSON and Markdown, picture sheet PNG, chain file"))
             .build();
@@ -52,6 +57,10 @@ public final class LinkDiscoveryPlugin implements PluginProvider {
         for (int k = 0; k < o.getInt("lanes"); k++) {
             in.add(PortSpec.of("lane" + k, DataKind.EDGES, "edges of data lane " + k));
         }
+        for (int k = 0; o.getBoolean("legs") && k < o.getInt("lanes"); k++) {
+            in.add(PortSpec.of("lane" + k + "p", DataKind.ANALOG, "data lane " + k + " positive leg, single-ended, volts"));
+            in.add(PortSpec.of("lane" + k + "n", DataKind.ANALOG, "data lane " + k + " negative leg, single-ended, volts"));
+        }
         return in;
     }
 
@@ -63,6 +72,7 @@ public final class LinkDiscoveryPlugin implements PluginProvider {
     @Override
     public Stage open(StageContext context) {
         OptionValues o = context.options();
-        return new DiscoveryStage(context, o.getInt("lanes"), o.getInt("maxBits"), o.getInt("sheetPictures"), o.getString("capture"));
+        return new DiscoveryStage(context, o.getInt("lanes"), o.getInt("maxBits"), o.getInt("sheetPictures"), o.getString("capture"),
+                o.getBoolean("legs"));
     }
 }

@@ -77,7 +77,57 @@ class DiscoveryReportTest {
     @Test
     void generatedChainDecodesEveryBurstThroughTheEngine() {
         LinkFormatGenerator.Link l = link();
-        JsonValue chain = JsonScan.parse("chain.json", text(run(l).get("chain.json")));
+        Map<String, Map<String, Object>> opts = chainOptions(run(l));
+        assertEquals("ddr", opts.get("dual-edge").get("mode"));
+        assertEquals("B8", opts.get("packet-link").get("syncPattern"));
+        assertEveryBurstWhole(l, opts);
+    }
+
+    /** A streaming two-lane link: 8-bit words MSB first, a 20-bit sync (invented), bursts of several lengths back to back. */
+    private static LinkFormatGenerator.Link streaming() {
+        return new LinkFormatGenerator(78).fixedStreaming(16, true, "double-edge", 2, LaneDistribution.WORD, "110100111000101101100101", null,
+                true, PixelFormat.RGB565, 64, 40);
+    }
+
+    @Test
+    void generatedChainRestartsAtEverySyncOfAStreamingLink() {
+        LinkFormatGenerator.Link l = streaming();
+        Map<String, Artifact> f = run(l);
+        String md = text(f.get("hypotheses.md"));
+        assertTrue(md.contains("boundaries from the sync alone: the link streams without pauses"), md);
+        assertTrue(md.contains("The generated chain restarts the word alignment at every sync on a word boundary (`syncRestart`)"), md);
+        JsonValue j = JsonScan.parse("hypotheses.json", text(f.get("hypotheses.json")));
+        assertEquals("streaming", j.at("/bursts/boundaries").asString());
+        assertEquals("110100111000101101100101", j.at("/sync/wire").asString());
+        Map<String, Map<String, Object>> opts = chainOptions(f);
+        assertEquals(true, opts.get("packet-link").get("syncRestart"));
+        // 24-bit sync: two wrong bits match a random word boundary with probability (1 + 24 + 276) / 2^24 (binomial count)
+        assertEquals(j.at("/bursts/restartAtSync/syncErrors").asDouble(), ((Long) opts.get("packet-link").get("syncErrors")).doubleValue());
+        assertEquals(SyncTolerance.chance(24, (int) j.at("/bursts/restartAtSync/syncErrors").asDouble()),
+                j.at("/bursts/restartAtSync/chancePerBoundary").asDouble(), 1e-12);
+        assertEquals(301.0 / (1 << 24), SyncTolerance.chance(24, 2), 1e-15);
+        assertEveryBurstWhole(l, opts);
+    }
+
+    @Test
+    void withoutSyncRestartTheStreamingLinkIsNotCutIntoItsBursts() {
+        LinkFormatGenerator.Link l = streaming();
+        Map<String, Map<String, Object>> opts = chainOptions(run(l));
+        opts.get("packet-link").remove("syncRestart");
+        opts.get("packet-link").remove("syncErrors");
+        List<WordStream> words = decode(l, opts);
+        // one endless run of words, emitted in pieces as they come, not one stream per burst
+        long whole = 0;
+        for (int i = 0; i < words.size() && i < l.sentWire.size(); i++) {
+            if (Arrays.equals(l.sentWords(i), Arrays.copyOf(words.get(i).values(), words.get(i).count()))) {
+                whole++;
+            }
+        }
+        assertTrue(whole < l.sentWire.size() / 2, whole + " of " + l.sentWire.size());
+    }
+
+    private static Map<String, Map<String, Object>> chainOptions(Map<String, Artifact> files) {
+        JsonValue chain = JsonScan.parse("chain.json", text(files.get("chain.json")));
         Map<String, Map<String, Object>> opts = new HashMap<>();
         for (JsonValue node : chain.get("nodes").elements()) {
             Map<String, Object> o = new HashMap<>();
@@ -85,8 +135,20 @@ class DiscoveryReportTest {
                     : (Object) (long) v.asDouble()));
             opts.put(node.get("plugin").asString(), o);
         }
-        assertEquals("ddr", opts.get("dual-edge").get("mode"));
-        assertEquals("B8", opts.get("packet-link").get("syncPattern"));
+        return opts;
+    }
+
+    /** The generated chain's sampler and framed decoder, run through the chain engine, give every burst's words as sent. */
+    private static void assertEveryBurstWhole(LinkFormatGenerator.Link l, Map<String, Map<String, Object>> opts) {
+        List<WordStream> words = decode(l, opts);
+        assertEquals(l.sentWire.size(), words.size(), "one word stream per burst");
+        for (int i = 0; i < words.size(); i++) {
+            WordStream w = words.get(i);
+            assertArrayEquals(l.sentWords(i), Arrays.copyOf(w.values(), w.count()), "burst " + i);
+        }
+    }
+
+    private static List<WordStream> decode(LinkFormatGenerator.Link l, Map<String, Map<String, Object>> opts) {
         PluginRegistry reg = new PluginRegistry().add(new DualEdgePlugin()).add(new PacketLinkPlugin());
         List<WordStream> words = new ArrayList<>();
         ChainBuilder b = Chain.builder(reg).input("clk", DataKind.EDGES).input("d0", DataKind.EDGES).input("d1", DataKind.EDGES)
@@ -100,11 +162,7 @@ class DiscoveryReportTest {
             c.push("d1", laneEdges(l.input, 1));
             c.finish();
         }
-        assertEquals(l.sentWire.size(), words.size(), "one word stream per burst");
-        for (int i = 0; i < words.size(); i++) {
-            WordStream w = words.get(i);
-            assertArrayEquals(l.sentWords(i), Arrays.copyOf(w.values(), w.count()), "burst " + i);
-        }
+        return words;
     }
 
     static Edges clockEdges(LinkEdgesInput in) {

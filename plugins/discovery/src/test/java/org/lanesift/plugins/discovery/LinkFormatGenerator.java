@@ -108,6 +108,24 @@ final class LinkFormatGenerator {
     /** A format given by hand (seeded content), encoded. */
     Link fixed(int wordBits, boolean msbFirst, String clocking, int lanes, LaneDistribution dist, String syncWire, boolean clockStops,
                CrcModel crc, boolean lengthField, PixelFormat pixel, int width, int height) {
+        Link l = shape(wordBits, msbFirst, clocking, lanes, dist, syncWire, crc, lengthField, pixel, width, height);
+        l.clockStops = clockStops;
+        return encoded(l);
+    }
+
+    /**
+     * A streaming format given by hand: bursts back to back with no pause and no idle run, framed
+     * by the sync alone (which must stand out of the data: 16 bits or more).
+     */
+    Link fixedStreaming(int wordBits, boolean msbFirst, String clocking, int lanes, LaneDistribution dist, String syncWire, CrcModel crc,
+                        boolean lengthField, PixelFormat pixel, int width, int height) {
+        Link l = shape(wordBits, msbFirst, clocking, lanes, dist, syncWire, crc, lengthField, pixel, width, height);
+        l.streaming = true;
+        return encoded(l);
+    }
+
+    private static Link shape(int wordBits, boolean msbFirst, String clocking, int lanes, LaneDistribution dist, String syncWire,
+                              CrcModel crc, boolean lengthField, PixelFormat pixel, int width, int height) {
         Link l = new Link();
         l.wordBits = wordBits;
         l.msbFirst = msbFirst;
@@ -119,13 +137,16 @@ final class LinkFormatGenerator {
         for (int i = 0; i < syncWire.length(); i++) {
             l.sync[i] = syncWire.charAt(i) == '1';
         }
-        l.clockStops = clockStops;
         l.crc = crc;
         l.lengthField = lengthField;
         l.pixel = pixel;
         l.width = width;
         l.height = height;
         l.noErrors = true;
+        return l;
+    }
+
+    private Link encoded(Link l) {
         if (!encode(l)) {
             throw new IllegalArgumentException("no chunk size fits " + l);
         }

@@ -3,6 +3,7 @@ package org.lanesift.plugins.packetlink;
 import java.util.ArrayDeque;
 import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.BitStream;
+import org.lanesift.kit.LegPairs;
 
 /**
  * One data lane inside the stage: pairs the samples of its two legs, runs the state tracker,
@@ -32,10 +33,7 @@ final class Lane {
     final LaneStateTracker tracker;
     private final DeserializerFactory factory;
     private final MarginRuns margins;
-    private final ArrayDeque<AnalogBlock> legP = new ArrayDeque<>();
-    private final ArrayDeque<AnalogBlock> legN = new ArrayDeque<>();
-    private int posP;
-    private int posN;
+    private final LegPairs legs;
     private final ArrayDeque<BitStream> bits = new ArrayDeque<>();
     private int bitPos;
     private long bitsDoneFs = Long.MIN_VALUE;
@@ -48,46 +46,15 @@ final class Lane {
         this.tracker = tracker;
         this.factory = factory;
         this.margins = margins;
+        this.legs = new LegPairs(tracker::accept);
     }
 
     void acceptLeg(boolean positive, AnalogBlock b) {
-        if (b.length() == 0) {
-            return;
-        }
-        (positive ? legP : legN).add(b);
-        pairLegs();
+        legs.accept(positive, b);
     }
 
     void acceptBits(BitStream b) {
         bits.add(b);
-    }
-
-    private void pairLegs() {
-        while (!legP.isEmpty() && !legN.isEmpty()) {
-            AnalogBlock p = legP.peek();
-            AnalogBlock n = legN.peek();
-            double period = p.periodFs();
-            long tp = p.startFs() + Math.round(posP * period);
-            long tn = n.startFs() + Math.round(posN * n.periodFs());
-            if (tp < tn - period / 2) {
-                posP += Math.max(1, (int) Math.min(p.length() - posP, Math.floor((tn - tp) / period + 0.5)));
-            } else if (tn < tp - period / 2) {
-                posN += Math.max(1, (int) Math.min(n.length() - posN, Math.floor((tp - tn) / period + 0.5)));
-            } else {
-                int k = Math.min(p.length() - posP, n.length() - posN);
-                tracker.accept(p.volts(), posP, p.invalid(), n.volts(), posN, n.invalid(), k, tp, period);
-                posP += k;
-                posN += k;
-            }
-            if (posP >= p.length()) {
-                legP.poll();
-                posP = 0;
-            }
-            if (posN >= n.length()) {
-                legN.poll();
-                posN = 0;
-            }
-        }
     }
 
     /** Moves every bit whose state is settled into its burst (or drops it); finishes completed bursts. */
@@ -221,6 +188,8 @@ final class Lane {
      * between two sampled bits longer than {@code gapFs} (the clock stopped) or a run of at least
      * {@code idleBits} equal bits (the line idling) ends the burst; each burst gets a fresh
      * deserializer, so the sync is sought again at every burst and bursts may differ in length.
+     * With {@code syncRestart} a sync on a word boundary inside a burst also starts a new burst
+     * ({@link #feedBurst}); with neither pauses nor idle runs that alone cuts a streaming link.
      *
      * @param gapFs    longest pause inside a burst, femtoseconds (0: pauses do not cut)
      * @param idleBits shortest idle run (0: runs do not cut)
@@ -238,7 +207,7 @@ final class Lane {
                 boolean bit = ((v[i >>> 6] >>> i) & 1L) != 0;
                 if (gapFs > 0 && gapLastFs != Long.MIN_VALUE && ti - gapLastFs > gapFs) {
                     if (current != null) {
-                        current.feed(b, from, i);
+                        feedBurst(b, from, i);
                         closeGapped(gapLastFs + Math.round(ui > 0 ? ui : 0), 0);
                     }
                     idle = false;
@@ -273,7 +242,7 @@ final class Lane {
                 }
                 burstBits++;
                 if (idleBits > 0 && runLength >= idleBits) {
-                    current.feed(b, from, i + 1);
+                    feedBurst(b, from, i + 1);
                     if (burstBits > runLength) {
                         closeGapped(runStartFs, runLength);
                     } else {
@@ -285,8 +254,29 @@ final class Lane {
                 }
             }
             if (current != null && from < n) {
-                current.feed(b, from, n);
+                feedBurst(b, from, n);
             }
+        }
+    }
+
+    /**
+     * Feeds bits {@code [from, to)} to the open burst; where its deserializer finds the next
+     * burst's sync (restart mode), closes the burst just before that sync and goes on with a
+     * fresh deserializer that starts synced.
+     */
+    private void feedBurst(BitStream b, int from, int to) {
+        int i = from;
+        while (i < to) {
+            i = current.feed(b, i, to);
+            if (!current.restartPending) {
+                return;
+            }
+            LaneDeserializer next = factory.create(index);
+            next.startSynced(current.restartSyncFs, current.uiFs);
+            long cut = current.restartStartFs;
+            done.add(new Burst(gapBurstStartFs, Math.max(gapBurstStartFs, cut), current));
+            gapBurstStartFs = cut;
+            current = next;
         }
     }
 

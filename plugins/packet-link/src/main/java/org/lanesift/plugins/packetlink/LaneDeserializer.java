@@ -10,6 +10,12 @@ import org.lanesift.data.BitStream;
  * bit into a growing buffer (64 bits at a time) and notes the sample time of each word's first
  * bit. Words are read out later with {@link #word}, so the trail at the end of a burst can be cut
  * off first ({@link #dataBits}). With a group size, the pattern is sought again after each group.
+ * The pattern matches where at most {@code syncErrors} of its bits differ. With {@code restart},
+ * every word boundary is also checked for the pattern after the sync: a burst carries whole
+ * words, so the next burst's sync begins on a word boundary of this one; there the buffer is cut,
+ * and {@link #feed} stops just after the new sync so that the caller can close this burst and go
+ * on with a fresh deserializer ({@link #restartPending}). A sync right after a sync (a filler)
+ * makes no empty burst.
  */
 final class LaneDeserializer {
     /** Receives a finished group of words (fixed-length grouping). */
@@ -24,6 +30,8 @@ final class LaneDeserializer {
     final boolean msbFirst;
     final int groupWords;
     final int maxBits;
+    final int syncErrors;
+    final boolean restart;
     private final GroupSink groups;
 
     boolean synced;
@@ -42,17 +50,52 @@ final class LaneDeserializer {
     long seekBits;
     /** Bits searched since the last sync was found (or since the start). */
     long unsyncedBits;
+    /** Restart mode: bits appended at a time, so a filler sync never makes a whole block be appended again. */
+    static final int RESTART_CHUNK_BITS = 4096;
+    /** Restart mode: first word boundary of the buffer not yet checked for the sync. */
+    private int checkedBits;
+    /** Restart mode: {@link #feed} stopped just after a new sync; the caller starts the next burst there. */
+    boolean restartPending;
+    /** Restart mode: time of the new sync's last bit (the next burst's {@link #syncFoundFs}). */
+    long restartSyncFs;
+    /** Restart mode: time of the new sync's first bit (where this burst ends and the next one starts). */
+    long restartStartFs;
 
     LaneDeserializer(int lane, long syncWire, int syncBits, int wordBits, boolean msbFirst, int groupWords, int maxBits, GroupSink groups) {
+        this(lane, syncWire, syncBits, 0, false, wordBits, msbFirst, groupWords, maxBits, groups);
+    }
+
+    LaneDeserializer(int lane, long syncWire, int syncBits, int syncErrors, boolean restart, int wordBits, boolean msbFirst, int groupWords,
+                     int maxBits, GroupSink groups) {
         this.lane = lane;
         this.syncWire = syncWire;
         this.syncBits = syncBits;
+        this.syncErrors = syncErrors;
+        this.restart = restart && syncBits > 0;
         this.wordBits = wordBits;
         this.msbFirst = msbFirst;
         this.groupWords = groupWords;
         this.maxBits = maxBits;
         this.groups = groups;
         this.synced = syncBits == 0;
+    }
+
+    /**
+     * Starts a burst whose sync another deserializer found ({@link #restartPending}).
+     *
+     * @param syncFs time of the sync's last bit
+     * @param uiFs   unit interval known so far
+     */
+    void startSynced(long syncFs, double uiFs) {
+        synced = true;
+        syncFoundFs = syncFs;
+        this.uiFs = uiFs;
+    }
+
+    /** Whether the low {@code syncBits} bits of {@code x} (wire order) are the sync with at most {@code syncErrors} bits wrong. */
+    private boolean isSync(long x) {
+        long mask = syncBits == 64 ? -1L : (1L << syncBits) - 1;
+        return Long.bitCount((x ^ syncWire) & mask) <= syncErrors;
     }
 
     /** Starts over: a new burst. */
@@ -65,6 +108,8 @@ final class LaneDeserializer {
         overflow = false;
         seekBits = 0;
         unsyncedBits = 0;
+        checkedBits = 0;
+        restartPending = false;
     }
 
     /**
@@ -88,9 +133,14 @@ final class LaneDeserializer {
      */
     void dropLastBits(int n) {
         int keep = Math.max(0, nbits - n);
-        for (int i = keep; i < nbits; i++) {
-            bits[i >>> 6] &= ~(1L << i);
-            flagged[i >>> 6] &= ~(1L << i);
+        if (keep < nbits) {
+            int w = keep >>> 6;
+            long low = (keep & 63) == 0 ? 0L : -1L >>> (64 - (keep & 63));
+            bits[w] &= low;
+            flagged[w] &= low;
+            int end = Math.min(bits.length, BitSets.words(nbits));
+            Arrays.fill(bits, w + 1, Math.max(w + 1, end), 0L);
+            Arrays.fill(flagged, w + 1, Math.max(w + 1, Math.min(flagged.length, end)), 0L);
         }
         nbits = keep;
         wordStarts = Math.min(wordStarts, (keep + wordBits - 1) / wordBits);
@@ -112,8 +162,10 @@ final class LaneDeserializer {
      * @param s    the stream
      * @param from first bit
      * @param to   end bit, exclusive
+     * @return the end of the bits taken: {@code to}, or in restart mode the bit just after a new
+     *         sync ({@link #restartPending} set)
      */
-    void feed(BitStream s, int from, int to) {
+    int feed(BitStream s, int from, int to) {
         if (s.unitIntervalFs() > 0) {
             uiFs = s.unitIntervalFs();
         }
@@ -131,7 +183,7 @@ final class LaneDeserializer {
                     i++;
                     seekBits++;
                     unsyncedBits++;
-                    if (++shiftCount >= syncBits && (shift & mask) == syncWire) {
+                    if (++shiftCount >= syncBits && (syncErrors == 0 ? (shift & mask) == syncWire : isSync(shift))) {
                         synced = true;
                         unsyncedBits = 0;
                         syncFoundFs = s.timesFs()[i - 1];
@@ -141,6 +193,9 @@ final class LaneDeserializer {
                 continue;
             }
             int n = to - i;
+            if (restart) {
+                n = Math.min(n, RESTART_CHUNK_BITS); // bounds the bits fed again after a filler sync
+            }
             if (groupWords > 0) {
                 n = Math.min(n, groupWords * wordBits - nbits);
             }
@@ -150,11 +205,22 @@ final class LaneDeserializer {
             }
             if (n <= 0) {
                 if (overflow) {
-                    return;
+                    return to;
                 }
             } else {
+                int before = nbits;
                 append(s, i, n);
                 i += n;
+                if (restart) {
+                    int end = nextSync(s, i - n, before);
+                    if (restartPending) {
+                        return end;
+                    }
+                    if (end >= 0) {
+                        i = end; // a filler sync: the bits after it go into the emptied buffer again
+                        continue;
+                    }
+                }
             }
             if (groupWords > 0 && nbits == groupWords * wordBits) {
                 groups.group(this);
@@ -164,10 +230,52 @@ final class LaneDeserializer {
                 shiftCount = 0;
             }
             if (overflow) {
-                return;
+                return to;
             }
         }
+        return to;
     }
+
+    /**
+     * Restart mode: checks the word boundaries whose sync-long span the last append completed.
+     * On a match at boundary {@code p > 0} the buffer is cut at {@code p} and the stream index
+     * just after the sync is returned; a match at {@code p = 0} (a sync right after the sync) is
+     * dropped and the search goes on.
+     *
+     * @param s       the stream
+     * @param first   stream index of the first bit of the last append
+     * @param before  buffer position of that bit
+     * @return the stream index just after a new sync ({@link #restartPending} set, or after a
+     *         filler sync, the bits from there to be fed again), or -1
+     */
+    private int nextSync(BitStream s, int first, int before) {
+        while (checkedBits + syncBits <= nbits) {
+            int p = checkedBits;
+            if (!isSync(PackedBits.get64(bits, p))) {
+                checkedBits += wordBits;
+                continue;
+            }
+            int end = first + (p + syncBits - before);
+            long[] t = s.timesFs();
+            long syncFs = t[end - 1];
+            int startIdx = first + (p - before);
+            long startFs = startIdx >= first ? t[startIdx] : syncFs - Math.round((syncBits - 1) * (uiFs > 0 ? uiFs : 0));
+            if (p == 0) {
+                // a sync right after the sync: the burst starts after it
+                dropLastBits(nbits);
+                checkedBits = 0;
+                syncFoundFs = syncFs;
+                return end;
+            }
+            dropLastBits(nbits - p);
+            restartPending = true;
+            restartSyncFs = syncFs;
+            restartStartFs = startFs;
+            return end;
+        }
+        return -1;
+    }
+
 
     private void append(BitStream s, int i, int n) {
         int need = BitSets.words(nbits + n) + 1;

@@ -5,6 +5,8 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.function.Consumer;
+import org.lanesift.kit.LineState;
+import org.lanesift.kit.LineStateClassifier;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Field;
 import org.lanesift.annotation.Severity;
@@ -13,9 +15,9 @@ import org.lanesift.annotation.Severity;
  * Follows the line state of one lane from its two single-ended legs, sample by sample, and keeps
  * the list of high-speed intervals for the bit handling.
  *
- * <p>Each leg reads high above {@code lpHighVolts}, low below {@code lpLowVolts}, and keeps its
- * last reading in between (the hysteresis of a low-power receiver). Both legs low with a common
- * mode inside {@code [hsCommonMinVolts, hsCommonMaxVolts]} is high speed; below it, LP-00. A new
+ * <p>Each sample pair's state comes from signal-kit's {@link LineStateClassifier} (each leg
+ * high above {@code lpHighVolts}, low below {@code lpLowVolts}, its last reading in between; both
+ * low with a common mode inside {@code [hsCommonMinVolts, hsCommonMaxVolts]} is high speed). A new
  * state counts only once it has lasted {@code minStateFs}; it then starts at its first sample and
  * the previous state ends just after its own last sample. Sequences are checked from each stop
  * state (LP-11): LP-01, LP-00 then HS is a high-speed entry; LP-10, LP-00, LP-01, LP-00 an escape
@@ -48,26 +50,20 @@ final class LaneStateTracker {
 
     private final int lane;
     private final String track;
-    private final float highVolts;
-    private final float lowVolts;
-    private final float cmMinVolts;
-    private final float cmMaxVolts;
+    private final LineStateClassifier levels;
     private final long minStateFs;
     private final Consumer<Annotation> out;
     private final LpdtSink lpdt;
 
-    private boolean legP;
-    private boolean legN;
-    private boolean legsKnown;
-    private LaneState committed;
+    private LineState committed;
     private long committedStartFs;
     private long lastMatchEndFs = Long.MIN_VALUE;
     private long lastMatchFs = Long.MIN_VALUE;
-    private LaneState candidate;
+    private LineState candidate;
     private long candidateStartFs;
     private long processedUntilFs = Long.MIN_VALUE;
 
-    private final List<LaneState> sequence = new ArrayList<>();
+    private final List<LineState> sequence = new ArrayList<>();
     private final List<long[]> sequenceSpans = new ArrayList<>();
     private boolean escape;
     private long escapeStartFs;
@@ -81,10 +77,7 @@ final class LaneStateTracker {
                      Consumer<Annotation> out, LpdtSink lpdt) {
         this.lane = lane;
         this.track = "lane" + lane + ".state";
-        this.highVolts = (float) highVolts;
-        this.lowVolts = (float) lowVolts;
-        this.cmMinVolts = (float) cmMinVolts;
-        this.cmMaxVolts = (float) cmMaxVolts;
+        this.levels = new LineStateClassifier(highVolts, lowVolts, cmMinVolts, cmMaxVolts);
         this.minStateFs = minStateFs;
         this.out = out;
         this.lpdt = lpdt;
@@ -107,48 +100,19 @@ final class LaneStateTracker {
         long step = Math.round(periodFs);
         for (int i = 0; i < n; i++) {
             long t = t0Fs + Math.round(i * periodFs);
-            LaneState s;
+            LineState s;
             int ip = pOff + i;
             int in = nOff + i;
             if ((pInvalid != null && (pInvalid[ip >>> 6] & (1L << ip)) != 0) || (nInvalid != null && (nInvalid[in >>> 6] & (1L << in)) != 0)) {
-                s = LaneState.INVALID;
+                s = LineState.INVALID;
             } else {
-                s = classify(p[ip], nv[in]);
+                s = levels.classify(p[ip], nv[in]);
             }
             step(s, t, step);
         }
     }
 
-    private LaneState classify(float vp, float vn) {
-        if (!legsKnown) {
-            legP = vp > (highVolts + lowVolts) * 0.5f;
-            legN = vn > (highVolts + lowVolts) * 0.5f;
-            legsKnown = true;
-        }
-        if (vp > highVolts) {
-            legP = true;
-        } else if (vp < lowVolts) {
-            legP = false;
-        }
-        if (vn > highVolts) {
-            legN = true;
-        } else if (vn < lowVolts) {
-            legN = false;
-        }
-        if (legP) {
-            return legN ? LaneState.LP11 : LaneState.LP10;
-        }
-        if (legN) {
-            return LaneState.LP01;
-        }
-        float cm = (vp + vn) * 0.5f;
-        if (cm < cmMinVolts) {
-            return LaneState.LP00;
-        }
-        return cm <= cmMaxVolts ? LaneState.HS : LaneState.INVALID;
-    }
-
-    private void step(LaneState s, long t, long step) {
+    private void step(LineState s, long t, long step) {
         processedUntilFs = t + step;
         if (committed == null) {
             if (candidate != s) {
@@ -187,8 +151,8 @@ final class LaneStateTracker {
         return lastMatchFs + 1;
     }
 
-    private void commit(LaneState s, long startFs, long matchEndFs) {
-        LaneState prev = committed;
+    private void commit(LineState s, long startFs, long matchEndFs) {
+        LineState prev = committed;
         long prevStart = committedStartFs;
         long prevLastSampleFs = lastMatchFs;
         long prevEnd = prev == null ? startFs : Math.min(lastMatchEndFs, startFs);
@@ -200,13 +164,13 @@ final class LaneStateTracker {
         lastMatchEndFs = matchEndFs;
         lastMatchFs = matchEndFs - 1;
         candidate = null;
-        if (prev == LaneState.HS && open != null) {
+        if (prev == LineState.HS && open != null) {
             // the burst ends just after its last high-speed sample: bits between that sample and the
             // next state belong to the trail or to the transition and are not used
             open.endFs = Math.max(open.startFs, prevLastSampleFs + 1);
             open.closed = true;
             open = null;
-            if (s == LaneState.LP11) {
+            if (s == LineState.LP11) {
                 out.accept(Annotation.on(track, "hs-exit").span(prevEnd, startFs).label("HS exit to LP-11")
                         .field("lane", Field.integer(lane, "")).build());
             } else {
@@ -218,7 +182,7 @@ final class LaneStateTracker {
         if (escape && prev != null) {
             escapeStep(prev, prevStart, prevEnd, s);
         }
-        if (s == LaneState.LP11) {
+        if (s == LineState.LP11) {
             if (escape) {
                 endEscape(startFs);
             }
@@ -226,7 +190,7 @@ final class LaneStateTracker {
             sequenceSpans.clear();
             return;
         }
-        if (s == LaneState.HS) {
+        if (s == LineState.HS) {
             checkHsEntry(startFs);
             open = new Interval(startFs);
             intervals.add(open);
@@ -235,8 +199,8 @@ final class LaneStateTracker {
             sequenceSpans.clear();
             return;
         }
-        if (escape || s == LaneState.INVALID) {
-            if (s == LaneState.INVALID) {
+        if (escape || s == LineState.INVALID) {
+            if (s == LineState.INVALID) {
                 out.accept(Annotation.on(track, "lane-level-invalid").span(startFs, startFs).severity(Severity.WARNING)
                         .label("lane " + lane + " levels fit no line state").field("lane", Field.integer(lane, "")).build());
             }
@@ -246,19 +210,19 @@ final class LaneStateTracker {
             sequence.add(s);
             sequenceSpans.add(new long[] {startFs});
         }
-        if (matches(LaneState.LP10, LaneState.LP00, LaneState.LP01, LaneState.LP00)) {
+        if (matches(LineState.LP10, LineState.LP00, LineState.LP01, LineState.LP00)) {
             escape = true;
             escapeStartFs = sequenceSpans.get(0)[0];
             marks.clear();
             out.accept(Annotation.on(track, "escape-entry").span(escapeStartFs, startFs).label("escape mode entry")
                     .field("lane", Field.integer(lane, "")).build());
-        } else if (matches(LaneState.LP10, LaneState.LP00, LaneState.LP10, LaneState.LP00)) {
+        } else if (matches(LineState.LP10, LineState.LP00, LineState.LP10, LineState.LP00)) {
             out.accept(Annotation.on(track, "turnaround-request").span(sequenceSpans.get(0)[0], startFs)
                     .label("bus turnaround request").field("lane", Field.integer(lane, "")).build());
         }
     }
 
-    private boolean matches(LaneState... want) {
+    private boolean matches(LineState... want) {
         if (sequence.size() != want.length) {
             return false;
         }
@@ -271,7 +235,7 @@ final class LaneStateTracker {
     }
 
     private void checkHsEntry(long hsStartFs) {
-        boolean ok = matches(LaneState.LP01, LaneState.LP00);
+        boolean ok = matches(LineState.LP01, LineState.LP00);
         if (ok) {
             long lp01 = sequenceSpans.get(0)[0];
             long lp00 = sequenceSpans.get(1)[0];
@@ -281,7 +245,7 @@ final class LaneStateTracker {
                     .number("lp00Duration", (hsStartFs - lp00) * 1e-15, "s").build());
         } else {
             StringBuilder seq = new StringBuilder("LP-11");
-            for (LaneState x : sequence) {
+            for (LineState x : sequence) {
                 seq.append(", ").append(x.label);
             }
             out.accept(Annotation.on(track, "hs-entry-bad").span(hsStartFs, hsStartFs).severity(Severity.WARNING)
@@ -290,9 +254,9 @@ final class LaneStateTracker {
         }
     }
 
-    private void escapeStep(LaneState prev, long prevStart, long prevEnd, LaneState next) {
-        if ((prev == LaneState.LP10 || prev == LaneState.LP01) && next == LaneState.LP00) {
-            marks.add(new long[] {prev == LaneState.LP10 ? 1 : 0, prevStart, prevEnd});
+    private void escapeStep(LineState prev, long prevStart, long prevEnd, LineState next) {
+        if ((prev == LineState.LP10 || prev == LineState.LP01) && next == LineState.LP00) {
+            marks.add(new long[] {prev == LineState.LP10 ? 1 : 0, prevStart, prevEnd});
         }
     }
 
@@ -350,7 +314,7 @@ final class LaneStateTracker {
         marks.clear();
     }
 
-    private void stateSpan(LaneState s, long startFs, long endFs) {
+    private void stateSpan(LineState s, long startFs, long endFs) {
         out.accept(Annotation.on(track, "lane-state").span(startFs, Math.max(startFs, endFs)).label(s.label)
                 .field("lane", Field.integer(lane, "")).field("state", Field.enumValue(s.label)).build());
     }
@@ -373,7 +337,7 @@ final class LaneStateTracker {
         }
     }
 
-    LaneState committed() {
+    LineState committed() {
         return committed;
     }
 }

@@ -27,6 +27,10 @@ final class LinkConfig {
     final long burstGapFs;
     /** Framed, no line states: a run of at least this many equal bits ends a burst (0: off). */
     final int idleBits;
+    /** Framed, no line states: an occurrence of the sync on a word boundary starts a new burst. */
+    final boolean syncRestart;
+    /** Framed: bits of the sync pattern that may differ where it is sought. */
+    final int syncErrors;
     final int pngFrames;
     final long maxBurstBytes;
     final int maxLogEntries;
@@ -53,7 +57,7 @@ final class LinkConfig {
         }
         minStateFs = Math.round(st);
         if (dsi) {
-            for (String f : new String[] {"lpStates", "syncPattern", "syncBits", "wordBits", "bitOrder", "laneDistribution", "groupWords", "dropTrail", "burstGap", "idleBits"}) {
+            for (String f : new String[] {"lpStates", "syncPattern", "syncBits", "wordBits", "bitOrder", "laneDistribution", "groupWords", "dropTrail", "burstGap", "idleBits", "syncRestart", "syncErrors"}) {
                 OptionSpec spec = d.option(f);
                 if (!o.asMap().get(f).equals(spec.defaultValue())) {
                     throw new OptionException(f, where + "option '" + f + "' belongs to profile 'framed'; profile 'dsi' fixes it "
@@ -78,6 +82,16 @@ final class LinkConfig {
             throw new OptionException(burstGapFs > 0 ? "burstGap" : "idleBits", where + "options 'burstGap' and 'idleBits' cut bursts "
                     + "of links without line states; set 'lpStates' to false (with line states the legs mark the bursts)");
         }
+        syncRestart = o.getBoolean("syncRestart");
+        syncErrors = o.getInt("syncErrors");
+        if (syncRestart && lpStates) {
+            throw new OptionException("syncRestart", where + "option 'syncRestart' cuts bursts of links without line states; set "
+                    + "'lpStates' to false (with line states the legs mark the bursts)");
+        }
+        if (syncRestart && groupWords > 0) {
+            throw new OptionException("groupWords", where + "option 'groupWords' cannot be combined with 'syncRestart' "
+                    + "(bursts of any length are cut at each sync; use one or the other)");
+        }
         if ((burstGapFs > 0 || idleBits > 0) && groupWords > 0) {
             throw new OptionException("groupWords", where + "option 'groupWords' cannot be combined with 'burstGap' or 'idleBits' "
                     + "(bursts of any length are cut at their boundaries; use one or the other)");
@@ -100,6 +114,13 @@ final class LinkConfig {
                 throw new OptionException("syncPattern", where + "option 'syncPattern' 0x" + hex + " has bits above 'syncBits' = " + syncBits);
             }
         }
+        if (syncRestart && syncBits == 0) {
+            throw new OptionException("syncRestart", where + "option 'syncRestart' needs a sync pattern ('syncPattern' and 'syncBits')");
+        }
+        if (syncErrors > 0 && 4 * syncErrors >= syncBits) {
+            throw new OptionException("syncErrors", where + "option 'syncErrors' (" + syncErrors + ") must be below a quarter of 'syncBits' ("
+                    + syncBits + "), or the pattern matches too much of the data");
+        }
         // wire order: wire bit j is bit j of syncWire
         syncWire = syncBits == 0 ? 0 : msbFirst ? Long.reverse(pattern) >>> (64 - syncBits) : pattern;
         pngFrames = o.getInt("pngFrames");
@@ -115,9 +136,9 @@ final class LinkConfig {
         return new LinkConfig(d, o);
     }
 
-    /** Whether bursts are found from pauses or idle runs in the bits (framed profile, no line states). */
+    /** Whether bursts are found in the bits: from pauses, idle runs or syncs (framed profile, no line states). */
     boolean gapBursts() {
-        return !lpStates && (burstGapFs > 0 || idleBits > 0);
+        return !lpStates && (burstGapFs > 0 || idleBits > 0 || syncRestart);
     }
 
     int inputsPerLane() {

@@ -3,6 +3,7 @@ package org.lanesift.plugins.packetlink;
 import java.util.ArrayList;
 import java.util.List;
 import org.lanesift.data.DataKind;
+import org.lanesift.kit.LineStateClassifier;
 import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.OptionValues;
 import org.lanesift.plugin.PluginDescriptor;
@@ -68,10 +69,10 @@ public final class PacketLinkPlugin implements PluginProvider {
                     + "D-PHY/DSI-like packet links; a generic framed-link profile for unknown links.")
             .option(OptionSpec.integer("lanes", 1L, 1, 4, "number of data lanes"))
             .option(OptionSpec.choice("profile", "dsi", "dsi: MIPI DSI packets; framed: generic sync + words", "dsi", "framed"))
-            .option(OptionSpec.number("lpHighVolts", "V", 0.88, 0.0, 5.0, "low-power receiver high threshold (D-PHY, from memory)"))
-            .option(OptionSpec.number("lpLowVolts", "V", 0.55, 0.0, 5.0, "low-power receiver low threshold (D-PHY, from memory)"))
-            .option(OptionSpec.number("hsCommonMinVolts", "V", 0.07, 0.0, 5.0, "lowest common mode counted as high speed"))
-            .option(OptionSpec.number("hsCommonMaxVolts", "V", 0.33, 0.0, 5.0, "highest common mode counted as high speed"))
+            .option(OptionSpec.number("lpHighVolts", "V", LineStateClassifier.DEFAULT_HIGH_VOLTS, 0.0, 5.0, "low-power receiver high threshold (D-PHY, from memory)"))
+            .option(OptionSpec.number("lpLowVolts", "V", LineStateClassifier.DEFAULT_LOW_VOLTS, 0.0, 5.0, "low-power receiver low threshold (D-PHY, from memory)"))
+            .option(OptionSpec.number("hsCommonMinVolts", "V", LineStateClassifier.DEFAULT_HS_COMMON_MIN_VOLTS, 0.0, 5.0, "lowest common mode counted as high speed"))
+            .option(OptionSpec.number("hsCommonMaxVolts", "V", LineStateClassifier.DEFAULT_HS_COMMON_MAX_VOLTS, 0.0, 5.0, "highest common mode counted as high speed"))
             .option(OptionSpec.time("minStateTime", TimeValue.Unit.NS, "30ns", "a line state must last this long to count"))
             .option(OptionSpec.bool("lpStates", true, "framed profile: lanes have low-power states (analog legs wired)"))
             .option(OptionSpec.text("syncPattern", "B8", "framed profile: sync pattern in hex (empty: none)"))
@@ -85,6 +86,11 @@ public final class PacketLinkPlugin implements PluginProvider {
                     "framed profile without line states: a pause longer than this between two sampled bits (the clock stopped) ends a burst; 0: off"))
             .option(OptionSpec.integer("idleBits", 0L, 0, 1 << 20,
                     "framed profile without line states: a run of at least this many equal bits (the idle level) ends a burst; 0: off"))
+            .option(OptionSpec.bool("syncRestart", false,
+                    "framed profile without line states: every occurrence of the sync pattern on a word boundary starts a new burst"
+                    + " (word alignment restarts there; streaming links whose bursts follow each other with no pause)"))
+            .option(OptionSpec.integer("syncErrors", 0L, 0, 8,
+                    "framed profile: bits of the sync pattern that may differ from it where it is sought (fewer than a quarter of syncBits)"))
             .option(OptionSpec.bool("dropTrail", true, "framed profile: drop the final run of equal bits of each burst (the trail)"))
             .option(OptionSpec.integer("pngFrames", 8L, 0, 100000, "frames written as PNG (the first N)"))
             .option(OptionSpec.integer("maxBurstBytes", 8L << 20, 64, 1L << 28, "largest burst kept per lane, bytes"))

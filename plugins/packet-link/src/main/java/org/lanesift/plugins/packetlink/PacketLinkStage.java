@@ -67,7 +67,7 @@ final class PacketLinkStage implements Stage {
             LaneStateTracker tr = new LaneStateTracker(k, cfg.lpHighVolts, cfg.lpLowVolts, cfg.hsCmMinVolts, cfg.hsCmMaxVolts,
                     cfg.minStateFs, ctx::annotate, cfg.dsi ? this::lpdt : null);
             lanes[k] = new Lane(k, tr, l -> new LaneDeserializer(l, cfg.dsi ? 0xB8 : cfg.syncWire, cfg.dsi ? 8 : cfg.syncBits,
-                    cfg.dsi ? 8 : cfg.wordBits, !cfg.dsi && cfg.msbFirst, cfg.dsi ? 0 : cfg.groupWords, cfg.maxBits(),
+                    cfg.dsi ? 0 : cfg.syncErrors, !cfg.dsi && cfg.syncRestart, cfg.dsi ? 8 : cfg.wordBits, !cfg.dsi && cfg.msbFirst, cfg.dsi ? 0 : cfg.groupWords, cfg.maxBits(),
                     d -> laneGroup(lane, d)), new MarginRuns(k, ctx::annotate));
         }
     }

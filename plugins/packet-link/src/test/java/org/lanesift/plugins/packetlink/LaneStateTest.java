@@ -1,5 +1,6 @@
 package org.lanesift.plugins.packetlink;
 
+import org.lanesift.kit.LineState;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -28,16 +29,16 @@ class LaneStateTest {
         LinkSynth s = new LinkSynth(1);
         s.idle(1_000_000_000L);
         // straight from LP-11 through LP-00 into high speed: entry not as specified
-        s.states(0, LaneState.LP00, LaneState.HS, LaneState.LP11);
+        s.states(0, LineState.LP00, LineState.HS, LineState.LP11);
         s.idle(1_000_000_000L);
-        s.states(0, LaneState.LP10, LaneState.LP00, LaneState.LP10, LaneState.LP00, LaneState.LP11);
+        s.states(0, LineState.LP10, LineState.LP00, LineState.LP10, LineState.LP00, LineState.LP11);
         s.idle(1_000_000_000L);
         // escape entry, then the ultra-low-power command 00011110 as spaced one-hot marks, exit
-        s.states(0, LaneState.LP10, LaneState.LP00, LaneState.LP01, LaneState.LP00);
+        s.states(0, LineState.LP10, LineState.LP00, LineState.LP01, LineState.LP00);
         for (int j = 7; j >= 0; j--) {
-            s.states(0, (LaneStateTracker.ESC_ULPS >> j & 1) != 0 ? LaneState.LP10 : LaneState.LP01, LaneState.LP00);
+            s.states(0, (LaneStateTracker.ESC_ULPS >> j & 1) != 0 ? LineState.LP10 : LineState.LP01, LineState.LP00);
         }
-        s.states(0, LaneState.LP10, LaneState.LP11);
+        s.states(0, LineState.LP10, LineState.LP11);
         s.idle(1_000_000_000L);
         StageHarness h = run(s);
         List<Annotation> bad = h.annotations("hs-entry-bad");

@@ -1,5 +1,6 @@
 package org.lanesift.plugins.packetlink;
 
+import org.lanesift.kit.LineState;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
@@ -26,7 +27,7 @@ final class LinkSynth {
     static final long UI_FS = 2_000_000;           // 2 ns: 500 Mbit/s per lane
     static final long LPX_FS = 100_000_000;        // 100 ns per low-power state
 
-    private record Seg(LaneState state, long startFs, long endFs, boolean[] bits, long bitsStartFs) {
+    private record Seg(LineState state, long startFs, long endFs, boolean[] bits, long bitsStartFs) {
     }
 
     private final int lanes;
@@ -54,14 +55,14 @@ final class LinkSynth {
         nowFs = 0;
     }
 
-    private void seg(int lane, LaneState s, long start, long end) {
+    private void seg(int lane, LineState s, long start, long end) {
         segs.get(lane).add(new Seg(s, start, end, null, 0));
     }
 
     /** Stays in LP-11 on every lane. */
     LinkSynth idle(long fs) {
         for (int k = 0; k < lanes; k++) {
-            seg(k, LaneState.LP11, nowFs, nowFs + fs);
+            seg(k, LineState.LP11, nowFs, nowFs + fs);
         }
         nowFs += fs;
         return this;
@@ -71,8 +72,8 @@ final class LinkSynth {
     LinkSynth hs(byte[] bytes) {
         long t = nowFs;
         for (int k = 0; k < lanes; k++) {
-            seg(k, LaneState.LP01, t, t + LPX_FS);
-            seg(k, LaneState.LP00, t + LPX_FS, t + 2 * LPX_FS);
+            seg(k, LineState.LP01, t, t + LPX_FS);
+            seg(k, LineState.LP00, t + LPX_FS, t + 2 * LPX_FS);
         }
         long hsStart = alignUp(t + 2 * LPX_FS);
         int maxLaneBytes = (bytes.length + lanes - 1) / lanes;
@@ -95,7 +96,7 @@ final class LinkSynth {
             while (pos < totalBits) {
                 b[pos++] = trail;
             }
-            segs.get(k).add(new Seg(LaneState.HS, hsStart, hsEnd, b, hsStart));
+            segs.get(k).add(new Seg(LineState.HS, hsStart, hsEnd, b, hsStart));
             // what a sampler on a running clock delivers: junk around the burst, then the burst
             addBits(k, randomBits(40), hsStart - 40 * UI_FS);
             addBits(k, b, hsStart);
@@ -104,7 +105,7 @@ final class LinkSynth {
                 flagBits(k, hsStart - 40 * UI_FS, hsStart);
                 flagBits(k, hsEnd, hsEnd + 40 * UI_FS);
             }
-            seg(k, LaneState.LP11, hsEnd, hsEnd + LPX_FS);
+            seg(k, LineState.LP11, hsEnd, hsEnd + LPX_FS);
         }
         nowFs = hsEnd + LPX_FS;
         return this;
@@ -113,8 +114,8 @@ final class LinkSynth {
     /** Low-power data transmission of {@code bytes} on lane 0; other lanes stay in LP-11. */
     LinkSynth lpdt(byte[] bytes) {
         long t = nowFs;
-        LaneState[] entry = {LaneState.LP10, LaneState.LP00, LaneState.LP01, LaneState.LP00};
-        for (LaneState s : entry) {
+        LineState[] entry = {LineState.LP10, LineState.LP00, LineState.LP01, LineState.LP00};
+        for (LineState s : entry) {
             seg(0, s, t, t + LPX_FS);
             t += LPX_FS;
         }
@@ -129,29 +130,29 @@ final class LinkSynth {
             }
         }
         for (boolean bit : bits) {
-            seg(0, bit ? LaneState.LP10 : LaneState.LP01, t, t + LPX_FS);
-            seg(0, LaneState.LP00, t + LPX_FS, t + 2 * LPX_FS);
+            seg(0, bit ? LineState.LP10 : LineState.LP01, t, t + LPX_FS);
+            seg(0, LineState.LP00, t + LPX_FS, t + 2 * LPX_FS);
             t += 2 * LPX_FS;
         }
-        seg(0, LaneState.LP10, t, t + LPX_FS);
+        seg(0, LineState.LP10, t, t + LPX_FS);
         t += LPX_FS;
         for (int k = 1; k < lanes; k++) {
-            seg(k, LaneState.LP11, nowFs, t);
+            seg(k, LineState.LP11, nowFs, t);
         }
         nowFs = t;
         return idle(LPX_FS);
     }
 
     /** Appends an arbitrary line-state sequence on one lane (others stay LP-11). */
-    LinkSynth states(int lane, LaneState... states) {
+    LinkSynth states(int lane, LineState... states) {
         long t = nowFs;
-        for (LaneState s : states) {
+        for (LineState s : states) {
             seg(lane, s, t, t + LPX_FS);
             t += LPX_FS;
         }
         for (int k = 0; k < lanes; k++) {
             if (k != lane) {
-                seg(k, LaneState.LP11, nowFs, t);
+                seg(k, LineState.LP11, nowFs, t);
             }
         }
         nowFs = t;
@@ -168,7 +169,7 @@ final class LinkSynth {
     long lastHsStartFs() {
         List<Seg> l = segs.get(0);
         for (int i = l.size() - 1; i >= 0; i--) {
-            if (l.get(i).state == LaneState.HS) {
+            if (l.get(i).state == LineState.HS) {
                 return l.get(i).bitsStartFs;
             }
         }
@@ -212,7 +213,7 @@ final class LinkSynth {
             Seg s = list.get(si);
             if (t < s.startFs || t >= s.endFs) {
                 // gaps never occur in this generator except after the last segment
-                s = new Seg(LaneState.LP11, t, t + 1, null, 0);
+                s = new Seg(LineState.LP11, t, t + 1, null, 0);
             }
             float vp;
             float vn;
@@ -229,7 +230,7 @@ final class LinkSynth {
                 }
                 default -> { vp = 0.7f; vn = 0.7f; }
             }
-            if (edgeFs > 0 && si > 0 && t - s.startFs < edgeFs && s.state != LaneState.HS && list.get(si - 1).state != LaneState.HS) {
+            if (edgeFs > 0 && si > 0 && t - s.startFs < edgeFs && s.state != LineState.HS && list.get(si - 1).state != LineState.HS) {
                 float[] prev = levels(list.get(si - 1).state);
                 double a = (t - s.startFs) / (double) edgeFs;
                 vp = (float) (prev[0] + (vp - prev[0]) * a);
@@ -241,7 +242,7 @@ final class LinkSynth {
         return new float[][] {p, m};
     }
 
-    private static float[] levels(LaneState st) {
+    private static float[] levels(LineState st) {
         return switch (st) {
             case LP11 -> new float[] {1.2f, 1.2f};
             case LP10 -> new float[] {1.2f, 0f};

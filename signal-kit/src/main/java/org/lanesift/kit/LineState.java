@@ -1,7 +1,10 @@
-package org.lanesift.plugins.packetlink;
+package org.lanesift.kit;
 
-/** The line states of one lane as told by its two single-ended legs (MIPI D-PHY, from memory). */
-enum LaneState {
+/**
+ * The line states of one D-PHY-like lane as told by its two single-ended legs
+ * (docs/reference-facts.md#d-phy-levels-and-states; MIPI D-PHY, from memory).
+ */
+public enum LineState {
     /** Both legs high: stop state. */
     LP11("LP-11"),
     /** Positive leg high, negative low. */
@@ -15,9 +18,10 @@ enum LaneState {
     /** Levels fit no state (between thresholds, or common mode outside the high-speed range). */
     INVALID("invalid");
 
-    final String label;
+    /** The state's name in reports, such as {@code LP-11}. */
+    public final String label;
 
-    LaneState(String label) {
+    LineState(String label) {
         this.label = label;
     }
 }
