@@ -57,6 +57,8 @@ final class AnalogDelayLine {
     private long bufStart;      // run index of buf[0]
     private int bufLen;
     private long lastBadIndex = Long.MIN_VALUE; // highest run index of an invalid entry in buf
+    /** Whether any entry of {@code bad} was ever set in this run; while not, {@code bad} is all zeros and is not kept up. */
+    private boolean anyBad;
     private final long frontMargin; // outputs left out at a run's start (its kernel reaches before the run, or a shared margin)
     private final long endMargin;   // outputs left out at a run's end
 
@@ -191,6 +193,7 @@ final class AnalogDelayLine {
         boolean finite = SampleScan.copyAllFinite(b.volts(), buf, bufLen, n);
         long[] inv = b.invalid();
         if (inv != null && BitSets.count(inv, n) > 0) {
+            anyBad = true;
             for (int i = 0; i < n; i++) {
                 if ((inv[i >>> 6] & (1L << i)) != 0) {
                     bad[bufLen + i] = 1;
@@ -199,10 +202,11 @@ final class AnalogDelayLine {
                     bad[bufLen + i] = 0;
                 }
             }
-        } else {
+        } else if (anyBad) {
             Arrays.fill(bad, bufLen, bufLen + n, (byte) 0);
         }
         if (!finite) {
+            anyBad = true;
             // a NaN or infinity would spread through the kernel: hold the previous value and mark it invalid
             float prev = bufLen > 0 ? buf[bufLen - 1] : 0f;
             for (int i = 0; i < n; i++) {
@@ -314,7 +318,9 @@ final class AnalogDelayLine {
         int drop = (int) Math.min(bufLen, Math.max(0, keepFrom - bufStart));
         if (drop > 0 && drop >= bufLen / 2) {
             System.arraycopy(buf, drop, buf, 0, bufLen - drop);
-            System.arraycopy(bad, drop, bad, 0, bufLen - drop);
+            if (anyBad) {
+                System.arraycopy(bad, drop, bad, 0, bufLen - drop);
+            }
             bufLen -= drop;
             bufStart += drop;
         }
@@ -332,6 +338,7 @@ final class AnalogDelayLine {
         open = false;
         buf = new float[0];
         bad = new byte[0];
+        anyBad = false;
         bufLen = 0;
     }
 }
