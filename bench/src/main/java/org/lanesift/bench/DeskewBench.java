@@ -34,7 +34,10 @@ import org.openjdk.jmh.infra.Blackhole;
  * ({@code interpolator} sinc or cubic), target at least 100 M samples/s;</li>
  * <li>{@code legs8}: the leg stage of {@code lanesift bench}: eight channels of 2 M samples in
  * blocks of 64 k, offsets 0, -30, 0, 40, 0, -55, 0, -25 ps at 2.5 GS/s (four plain copies with the
- * shared kernel margin, four 16-tap sinc delays); {@code read2MSamplesOf8Legs} reads the same arrays;</li>
+ * shared kernel margin, four 16-tap sinc delays); {@code read2MSamplesOf8Legs} reads the same arrays.
+ * With {@code legOffsets=none} every offset is 0, so all eight legs take the pass-through path and
+ * what is left is the finite-sample check of each block and the chain's bookkeeping: the most a
+ * source's guarantee of finite samples could save;</li>
  * <li>{@code shift}: shifting 16 M edge times in blocks of 32 k, target memory speed.</li>
  * </ul>
  * All run through the real chain engine, so they include its checks and the allocation of each
@@ -83,6 +86,9 @@ public class DeskewBench {
     /** The leg stage of {@code lanesift bench}: eight analog channels, four of them not delayed. */
     @State(Scope.Benchmark)
     public static class LegsState {
+        /** {@code bench}: the offsets of {@code lanesift bench}; {@code none}: all zero (pass-through only). */
+        @Param({"bench", "none"})
+        String legOffsets;
         static final int LEGS = 8;
         static final int BLOCKS = 32;
         static final double PERIOD_FS = 400_000;
@@ -105,7 +111,9 @@ public class DeskewBench {
                 inputs[c] = "in" + c;
                 b.input(inputs[c], DataKind.ANALOG);
             }
-            b.add("legs", "deskew", Map.of("kind", "analog", "channels", LEGS, "offsets", java.util.List.of(0, -30, 0, 40, 0, -55, 0, -25)));
+            java.util.List<Integer> offsets = legOffsets.equals("none") ? java.util.List.of(0, 0, 0, 0, 0, 0, 0, 0)
+                    : java.util.List.of(0, -30, 0, 40, 0, -55, 0, -25);
+            b.add("legs", "deskew", Map.of("kind", "analog", "channels", LEGS, "offsets", offsets));
             for (int c = 0; c < LEGS; c++) {
                 b.wire(inputs[c], "legs.in" + c).tap("legs.out" + c, blk -> {
                     AnalogBlock a = (AnalogBlock) blk;

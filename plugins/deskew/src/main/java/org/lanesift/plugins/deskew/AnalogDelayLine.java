@@ -25,6 +25,16 @@ import org.lanesift.data.BitSets;
  * for 16 taps on the bench machine, {@code DeskewBench}); a zero delay hands each input block's own
  * array on once the run's front margin is behind, after one branch-free check that every sample
  * is finite ({@link SampleScan}).
+ *
+ * <p>Why the full kernel runs on every sample (measured 2026-12-04, {@code lanesift bench}, thread
+ * CPU time, 3 interleaved runs): the JIT of Java 17 vectorises the tap-major form above only over
+ * long runs (each call copies 16 shifted windows), and neither a sample-major loop with constant
+ * tap offsets (4.6 ns a sample) nor one without the copies (2.9 ns) is vectorised. A variant that
+ * interpolated linearly wherever a leg stayed within 30 mV over 32 outputs plus the kernel span and
+ * an 8-sample guard (within 2.2 x 30 mV of the full kernel) took the leg stage from 0.17-0.19 s to
+ * 0.26-0.27 s: on the bench's link only a third of the delayed legs' samples are that quiet, and
+ * the short runs between them cost more to filter than they save. On edges slower than the quiet
+ * span it also moved or added P-N crossings (174 of 300 seeded slow-edge pairs), so it was dropped.
  */
 final class AnalogDelayLine {
     private static final int CHUNK = 1024;
@@ -57,6 +67,8 @@ final class AnalogDelayLine {
     private long bufStart;      // run index of buf[0]
     private int bufLen;
     private long lastBadIndex = Long.MIN_VALUE; // highest run index of an invalid entry in buf
+    /** Whether any entry of {@code bad} was ever set in this run; while not, {@code bad} is all zeros and is not kept up. */
+    private boolean anyBad;
     private final long frontMargin; // outputs left out at a run's start (its kernel reaches before the run, or a shared margin)
     private final long endMargin;   // outputs left out at a run's end
 
@@ -191,6 +203,7 @@ final class AnalogDelayLine {
         boolean finite = SampleScan.copyAllFinite(b.volts(), buf, bufLen, n);
         long[] inv = b.invalid();
         if (inv != null && BitSets.count(inv, n) > 0) {
+            anyBad = true;
             for (int i = 0; i < n; i++) {
                 if ((inv[i >>> 6] & (1L << i)) != 0) {
                     bad[bufLen + i] = 1;
@@ -199,10 +212,11 @@ final class AnalogDelayLine {
                     bad[bufLen + i] = 0;
                 }
             }
-        } else {
+        } else if (anyBad) {
             Arrays.fill(bad, bufLen, bufLen + n, (byte) 0);
         }
         if (!finite) {
+            anyBad = true;
             // a NaN or infinity would spread through the kernel: hold the previous value and mark it invalid
             float prev = bufLen > 0 ? buf[bufLen - 1] : 0f;
             for (int i = 0; i < n; i++) {
@@ -314,7 +328,9 @@ final class AnalogDelayLine {
         int drop = (int) Math.min(bufLen, Math.max(0, keepFrom - bufStart));
         if (drop > 0 && drop >= bufLen / 2) {
             System.arraycopy(buf, drop, buf, 0, bufLen - drop);
-            System.arraycopy(bad, drop, bad, 0, bufLen - drop);
+            if (anyBad) {
+                System.arraycopy(bad, drop, bad, 0, bufLen - drop);
+            }
             bufLen -= drop;
             bufStart += drop;
         }
@@ -332,6 +348,7 @@ final class AnalogDelayLine {
         open = false;
         buf = new float[0];
         bad = new byte[0];
+        anyBad = false;
         bufLen = 0;
     }
 }
