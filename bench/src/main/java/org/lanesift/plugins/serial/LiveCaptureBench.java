@@ -66,6 +66,10 @@ public class LiveCaptureBench {
     @Param({"512"})
     int megabytes;
 
+    /** The spool source's {@code blockSamples}: samples per block it emits (its default is 65536). */
+    @Param({"65536"})
+    int blockSamples;
+
     Path dir;
     Path replay;
 
@@ -122,7 +126,7 @@ public class LiveCaptureBench {
         AtomicLong decodedSamples = new AtomicLong();
         AtomicLong edges = new AtomicLong();
         AtomicReference<Throwable> failed = new AtomicReference<>();
-        Chain chain = decodeChain(dir, true, decodedSamples, edges);
+        Chain chain = decodeChain(dir, true, blockSamples, decodedSamples, edges);
         long[] decodeEnd = {0};
         long[] decodeCpuNs = {0};
         Thread decode = new Thread(() -> {
@@ -199,7 +203,7 @@ public class LiveCaptureBench {
         long cpu0 = ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime();
         AtomicLong decodedSamples = new AtomicLong();
         AtomicLong edges = new AtomicLong();
-        try (Chain chain = decodeChain(replay, false, decodedSamples, edges)) {
+        try (Chain chain = decodeChain(replay, false, blockSamples, decodedSamples, edges)) {
             chain.run();
         }
         long cpuNs = ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime() - cpu0;
@@ -214,12 +218,13 @@ public class LiveCaptureBench {
         return Math.round(samples * (double) (Framing.HEADER + 8 + spf + Framing.TRAILER) / spf);
     }
 
-    static Chain decodeChain(Path spool, boolean follow, AtomicLong decodedSamples, AtomicLong edges) {
+    static Chain decodeChain(Path spool, boolean follow, int blockSamples, AtomicLong decodedSamples, AtomicLong edges) {
         PluginRegistry reg = new PluginRegistry().add(new SpoolSourceProvider()).add(new LogicEdgesProvider());
         Map<String, Object> src = new HashMap<>();
         src.put("dir", spool.toString());
         src.put("follow", follow);
         src.put("channels", 8);
+        src.put("blockSamples", blockSamples);
         ChainBuilder b = Chain.builder(reg).add("dev", "spool", src).add("edges", "logic-edges", Map.of("channels", 8));
         for (int c = 0; c < 8; c++) {
             b.wire("dev.ch" + c, "edges.in" + c);

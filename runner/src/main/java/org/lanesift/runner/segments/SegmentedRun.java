@@ -3,8 +3,10 @@ package org.lanesift.runner.segments;
 import java.util.ArrayDeque;
 import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.Collections;
 import java.util.Comparator;
 import java.util.Deque;
+import java.util.Iterator;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
@@ -60,15 +62,45 @@ public final class SegmentedRun {
     private int segmentsDone;
     private int segmentCount;
 
+    private final TimeChunks chunks = new TimeChunks();
+
     /** What one front run produced. */
     private static final class Result {
         final int index;
-        final Map<String, List<Block>> blocks = new LinkedHashMap<>();
+        final Map<String, KeptStream> streams = new LinkedHashMap<>();
         final List<String> annSources = new ArrayList<>();
         final List<Annotation> anns = new ArrayList<>();
+        private final TimeChunks chunks;
 
-        Result(int index) {
+        Result(int index, TimeChunks chunks) {
             this.index = index;
+            this.chunks = chunks;
+        }
+
+        void keep(String key, Block b) {
+            streams.computeIfAbsent(key, x -> new KeptStream(chunks)).add(b);
+        }
+
+        List<Block> blocks(String key) {
+            KeptStream k = streams.get(key);
+            return k == null ? List.of() : k.blocks();
+        }
+
+        List<Block> clipped(String key, long fromFs, long toFs) {
+            KeptStream k = streams.get(key);
+            return k == null ? List.of() : k.clipped(fromFs, toFs);
+        }
+
+        Iterator<Block> clippedOneByOne(String key, long fromFs, long toFs) {
+            KeptStream k = streams.get(key);
+            return k == null ? Collections.emptyIterator() : k.clippedOneByOne(fromFs, toFs);
+        }
+
+        void release() {
+            for (KeptStream k : streams.values()) {
+                k.release();
+            }
+            streams.clear();
         }
     }
 
@@ -266,9 +298,9 @@ public final class SegmentedRun {
             }
             nodes.add(n);
         }
-        Result r = new Result(k);
+        Result r = new Result(k, chunks);
         ChainBuilder b = ChainBuilder.fromSpec(new ChainSpec(nodes, plan.front.wires()), registry)
-                .outputs((id, port, block) -> r.blocks.computeIfAbsent(id + "." + port, x -> new ArrayList<>()).add(block))
+                .outputs((id, port, block) -> r.keep(id + "." + port, block))
                 .annotations((src, a) -> {
                     r.annSources.add(src);
                     r.anns.add(a);
@@ -292,7 +324,7 @@ public final class SegmentedRun {
             if (p.kind() != org.lanesift.data.DataKind.ARTIFACT) {
                 continue;
             }
-            for (Block blk : r.blocks.getOrDefault(p.key(), List.of())) {
+            for (Block blk : r.blocks(p.key())) {
                 Artifact a = (Artifact) blk;
                 Artifact m = merged.get(p.key());
                 if (m == null) {
@@ -317,8 +349,8 @@ public final class SegmentedRun {
             if (p.kind() == org.lanesift.data.DataKind.ARTIFACT) {
                 continue;
             }
-            String da = Streams.describe(a.blocks.getOrDefault(p.key(), List.of()), z0, z1);
-            String db = Streams.describe(b.blocks.getOrDefault(p.key(), List.of()), z0, z1);
+            String da = Streams.describe(a.clipped(p.key(), z0, z1), z0, z1);
+            String db = Streams.describe(b.clipped(p.key(), z0, z1), z0, z1);
             if (!da.equals(db)) {
                 throw seamError(seam, "output '" + p.key() + "'", Streams.firstDifference(da, db));
             }
@@ -373,22 +405,15 @@ public final class SegmentedRun {
         record Item(SegmentPlan.Port port, Block block) {
         }
         PriorityQueue<Item> q = new PriorityQueue<>(Comparator.comparingLong((Item i) -> i.block().startFs()));
-        Map<String, Deque<Block>> queues = new LinkedHashMap<>();
+        Map<String, Iterator<Block>> queues = new LinkedHashMap<>();
         for (SegmentPlan.Port p : plan.ports) {
             if (p.kind() == org.lanesift.data.DataKind.ARTIFACT) {
                 continue;
             }
-            Deque<Block> kept = new ArrayDeque<>();
-            for (Block b : r.blocks.getOrDefault(p.key(), List.of())) {
-                Block s = Streams.clip(b, from, to);
-                if (s != null) {
-                    kept.add(s);
-                }
-            }
+            Iterator<Block> kept = r.clippedOneByOne(p.key(), from, to);
             queues.put(p.key(), kept);
-            Block h = kept.poll();
-            if (h != null) {
-                q.add(new Item(p, h));
+            if (kept.hasNext()) {
+                q.add(new Item(p, kept.next()));
             }
         }
         while (!q.isEmpty() && !cancelled) {
@@ -399,12 +424,12 @@ public final class SegmentedRun {
             } else {
                 back.push(p.inputId(), i.block());
             }
-            Block h = queues.get(p.key()).poll();
-            if (h != null) {
-                q.add(new Item(p, h));
+            Iterator<Block> rest = queues.get(p.key());
+            if (rest.hasNext()) {
+                q.add(new Item(p, rest.next()));
             }
         }
-        r.blocks.clear();
+        r.release();
         segmentsDone++;
         progress.progress(Math.min(plan.layout.frames(), (long) segmentsDone * segmentFrames), plan.layout.frames());
     }

@@ -9,9 +9,19 @@ import org.lanesift.data.LogicEdges;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
 
-/** The running {@code logic-edges} stage: one stateful converter and one activity record per channel. */
+/**
+ * The running {@code logic-edges} stage: one stateful converter and one activity record per channel.
+ *
+ * <p>The shortest pulses are measured over the transition times. Once a channel's shortest high and
+ * low pulses are both one sample period, nothing can be shorter as long as every transition lies
+ * on one grid of whole sample periods (a whole number of femtoseconds per sample, and every
+ * block's start {@code firstIndex} periods after one origin); from then on the times are no
+ * longer read, which on a busy channel was a quarter of the stage's time.
+ */
 final class LogicEdgesStage implements Stage {
     static final String TRACK = "activity";
+    /** No grid origin yet. */
+    private static final long NO_GRID = Long.MIN_VALUE;
     private final StageContext ctx;
     private final LogicEdges[] conv;
     private final long[] nextIndex;
@@ -21,6 +31,10 @@ final class LogicEdgesStage implements Stage {
     private final long[] shortestHighFs;
     private final long[] shortestLowFs;
     private final String[] names;
+    /** Time of sample 0 on the grid of the channel's current gap-free stretch, femtoseconds, or NO_GRID. */
+    private final long[] gridOriginFs;
+    /** Set for good once a channel's blocks leave the grid: its pulses are then always measured. */
+    private final boolean[] offGrid;
 
     LogicEdgesStage(StageContext ctx, int channels) {
         this.ctx = ctx;
@@ -32,7 +46,10 @@ final class LogicEdgesStage implements Stage {
         shortestHighFs = new long[channels];
         shortestLowFs = new long[channels];
         names = new String[channels];
+        gridOriginFs = new long[channels];
+        offGrid = new boolean[channels];
         for (int c = 0; c < channels; c++) {
+            gridOriginFs[c] = NO_GRID;
             conv[c] = new LogicEdges();
             nextIndex[c] = -1;
             lastEdgeFs[c] = Long.MIN_VALUE;
@@ -55,16 +72,45 @@ final class LogicEdgesStage implements Stage {
             }
             conv[input].reset(); // a gap: the level before it says nothing about the level after it
             lastEdgeFs[input] = Long.MIN_VALUE;
+            gridOriginFs[input] = NO_GRID; // no pulse is measured across the gap
             gaps[input]++;
         }
         nextIndex[input] = b.firstIndex() + b.length();
+        checkGrid(input, b);
         Edges e = conv[input].toEdges(b);
-        measure(input, e);
+        measure(input, e, b.periodFs());
         ctx.emit(input, e);
     }
 
+    /**
+     * Keeps {@code offGrid} up to date: a block is on the grid when the period is a whole number of
+     * femtoseconds and its start lies {@code firstIndex} periods after the stretch's origin.
+     */
+    private void checkGrid(int c, LogicBlock b) {
+        if (offGrid[c]) {
+            return;
+        }
+        double p = b.periodFs();
+        if (p != Math.rint(p) || p < 1 || p > 0x1p52) {
+            offGrid[c] = true;
+            return;
+        }
+        long origin;
+        try {
+            origin = Math.subtractExact(b.startFs(), Math.multiplyExact(b.firstIndex(), (long) p));
+        } catch (ArithmeticException tooFar) {
+            offGrid[c] = true;
+            return;
+        }
+        if (gridOriginFs[c] == NO_GRID) {
+            gridOriginFs[c] = origin;
+        } else if (gridOriginFs[c] != origin) {
+            offGrid[c] = true;
+        }
+    }
+
     /** Counts transitions and keeps the shortest pulse between two transitions of one gap-free stretch. */
-    private void measure(int c, Edges e) {
+    private void measure(int c, Edges e, double periodFs) {
         int n = e.count();
         if (n == 0) {
             return;
@@ -75,6 +121,10 @@ final class LogicEdgesStage implements Stage {
             return;
         }
         long[] t = e.timesFs();
+        if (!offGrid[c] && shortestHighFs[c] <= periodFs && shortestLowFs[c] <= periodFs) {
+            lastEdgeFs[c] = t[n - 1]; // both at one period, the least on the grid: nothing can be shorter
+            return;
+        }
         // the interval ending at t[k] has the level before t[k]: the initial level for even k
         long even = lastEdgeFs[c] == Long.MIN_VALUE ? Long.MAX_VALUE : t[0] - lastEdgeFs[c];
         long odd = Long.MAX_VALUE;
