@@ -19,7 +19,7 @@ final class FindingSource {
 
     /**
      * @param a the finding
-     * @return the text for report.md, e.g. {@code "measured; limit standard: ... (docs/reference-facts.md#...)"},
+     * @return the text for report.md, e.g. {@code "measured; limit standard: ANSI/TIA/EIA-644-A, values from memory (...)"},
      *         or empty when the finding has no number and no source
      */
     static String of(Annotation a) {
