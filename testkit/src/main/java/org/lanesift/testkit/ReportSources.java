@@ -6,7 +6,6 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
-import java.util.Map;
 import java.util.Set;
 import java.util.TreeSet;
 import java.util.regex.Matcher;
@@ -66,26 +65,26 @@ public final class ReportSources {
      */
     public static List<String> unsourced(JsonValue root) {
         List<String> out = new ArrayList<>();
-        walk(root, "", out);
+        for (JsonScan.Member m : JsonScan.members(root)) {
+            // the member "value" of a value with its source needs none itself: it is not a quantity name
+            if ((m.value().isNumber() || m.value().isNull()) && needsSource(m.name()) && !inArray(root, m.pointer())) {
+                out.add(m.pointer());
+            }
+        }
         return out;
     }
 
-    private static void walk(JsonValue v, String pointer, List<String> out) {
-        if (v.isArray()) {
-            return; // a data series
-        }
-        if (!v.isObject() || (v.get("source") != null && v.members().containsKey("value"))) {
-            return; // a scalar, or a value with its source
-        }
-        for (Map.Entry<String, JsonValue> e : v.members().entrySet()) {
-            String p = pointer + "/" + e.getKey().replace("~", "~0").replace("/", "~1");
-            JsonValue x = e.getValue();
-            if ((x.isNumber() || x.isNull()) && needsSource(e.getKey())) {
-                out.add(p);
-            } else {
-                walk(x, p, out);
+    /** Whether a member lies inside an array (a data series), from its RFC 6901 pointer. */
+    private static boolean inArray(JsonValue root, String pointer) {
+        JsonValue v = root;
+        String[] parts = pointer.substring(1).split("/", -1);
+        for (int i = 0; i < parts.length - 1; i++) {
+            if (v.isArray()) {
+                return true;
             }
+            v = v.get(parts[i].replace("~1", "/").replace("~0", "~"));
         }
+        return v.isArray();
     }
 
     /**
