@@ -17,6 +17,7 @@ import org.lanesift.json.JsonReader;
 import org.lanesift.json.JsonValue;
 import org.lanesift.json.JsonWriter;
 import org.lanesift.testkit.ExternalTool;
+import org.lanesift.testkit.ReportSources;
 
 /**
  * The clean-capture and fault suite, from sources outside the project, through the command line
@@ -312,7 +313,10 @@ class CaptureSuiteTest {
         // report.md says where the limits come from: the standard, with its reference-facts anchor
         String md = Files.readString(tmp.resolve("o-weak").resolve("report.md"));
         assertTrue(md.contains("- standard: limits the findings were checked against")
-                && md.contains("ANSI/TIA/EIA-644-A (values from memory, docs/reference-facts.md#lvds-electrical-levels)"), md);
+                && md.contains("standard: ANSI/TIA/EIA-644-A, values from memory (docs/reference-facts.md#lvds-electrical-levels)"), md);
+        // and each finding line says its value is measured and where its limit comes from
+        assertTrue(md.contains(f.get(0).label() + " [measured; limit standard: ANSI/TIA/EIA-644-A, values from memory"
+                + " (docs/reference-facts.md#lvds-electrical-levels)]"), md);
     }
 
     /**
@@ -347,6 +351,8 @@ class CaptureSuiteTest {
         Path out = tmp.resolve("o-" + name);
         EndToEndTest.Cli r = EndToEndTest.cli("run", chain.toString(), "--out", out.toString(), "-q");
         assertEquals(0, r.code(), r.err());
+        // every measurement and limit of its JSON reports says where it comes from (issue 17 item 8)
+        assertEquals(List.of(), ReportSources.unsourcedIn(out), "values without a source in the reports of " + name);
         return findings(out);
     }
 

@@ -8,9 +8,12 @@ import java.io.PrintStream;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.List;
+import java.util.Set;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.lanesift.runner.Main;
+import org.lanesift.testkit.ReportSources;
 
 /** The demo end to end, as {@code ./lanesift demo} runs it: every pixel and every command must match the ground truth. */
 class DemoTest {
@@ -32,6 +35,19 @@ class DemoTest {
         // no advice to run the decode pass (with this capture's skew tables) on another capture (issue 16)
         String report = Files.readString(dir.resolve("report.md"));
         assertTrue(!report.contains("--input") && report.contains("never pass 3 alone"), report);
+
+        // every measurement and limit in the demo's JSON reports says where it comes from (issue 17 item 8; the rule: testkit ReportSources)
+        assertEquals(List.of(), ReportSources.unsourcedIn(dir), "values in the demo's JSON reports without a source");
+        // report.md shows the source of each finding's numbers, and every docs/reference-facts.md anchor cited exists
+        String decode = Files.readString(dir.resolve("pixel/report.md"));
+        assertTrue(decode.contains("level-check: vid-high 353.4 mV, limit at least 100 mV [measured; limit standard: ANSI/TIA/EIA-644-A,"
+                + " values from memory (docs/reference-facts.md#lvds-electrical-levels)]"), decode);
+        assertTrue(decode.contains("skew-applied: offset +37.019 ps [given: the offsetsFile skew table, method legs-xcorr]"), decode);
+        Set<String> known = ReferenceFactsTest.anchors(Files.readString(ReferenceFactsTest.repositoryRoot().resolve("docs/reference-facts.md")));
+        Set<String> cited = ReportSources.citedAnchors(dir);
+        assertTrue(cited.contains("lvds-electrical-levels") && cited.contains("jitter-under-the-dual-dirac-model"), cited::toString);
+        assertEquals(Set.of(), new java.util.TreeSet<>(cited.stream().filter(a -> !known.contains(a)).toList()),
+                "anchors the demo's outputs cite that docs/reference-facts.md does not have");
 
         // the chain files name their files relative to themselves: moved whole, the decode pass gives the same result
         Path moved = dir.resolveSibling(dir.getFileName() + "-moved");

@@ -142,7 +142,7 @@ class DocsExampleTest {
         // the estimators' tables are written with the outputs; the leg estimate finds the 200 ps to within 50 ps
         // (the bound; 400 ps samples of piecewise-linear 1 ns edges bias the parabolic peak fit by about 25 ps)
         String legs = Files.readString(out.resolve("legs-D0-skew.json"));
-        double legPs = org.lanesift.json.JsonReader.parse("legs-D0-skew.json", legs).at("/channels/D0_N/offsetPs").asDouble();
+        double legPs = org.lanesift.json.JsonReader.parse("legs-D0-skew.json", legs).at("/channels/D0_N/offsetPs/value").asDouble();
         assertEquals(-200, legPs, 50, legs);
         List<String> rows = Files.readAllLines(out.resolve("ddr-bits0-bits.csv"));
         assertTrue(rows.size() > 390, "bits: " + (rows.size() - 1));

@@ -3,6 +3,7 @@ package org.lanesift.report;
 import java.util.LinkedHashMap;
 import java.util.Map;
 import java.util.Objects;
+import org.lanesift.json.JsonValue;
 import org.lanesift.json.JsonWriter;
 
 /**
@@ -88,6 +89,46 @@ public record Sourced(Object value, String unit, Source source) {
         }
         m.put("source", source.text());
         return m;
+    }
+
+    /**
+     * The value as a parsed JSON object, for reports assembled from {@link JsonValue}s.
+     *
+     * @return {@code {"value": ..., "unit": ..., "source": ...}}
+     * @throws IllegalArgumentException if the value is not a number, text, boolean or null
+     */
+    public JsonValue json() {
+        Map<String, JsonValue> m = new LinkedHashMap<>();
+        if (value == null) {
+            m.put("value", JsonValue.nullValue());
+        } else if (value instanceof Number n) {
+            m.put("value", JsonValue.number(n.doubleValue()));
+        } else if (value instanceof Boolean b) {
+            m.put("value", JsonValue.bool(b));
+        } else if (value instanceof String t) {
+            m.put("value", JsonValue.string(t));
+        } else {
+            throw new IllegalArgumentException("a sourced value as JSON must be a number, text or boolean: " + value);
+        }
+        if (unit != null) {
+            m.put("unit", JsonValue.string(unit));
+        }
+        m.put("source", JsonValue.string(source.text()));
+        return JsonValue.object(m);
+    }
+
+    /**
+     * Reads a member that may be a plain value or a value with its source.
+     *
+     * @param v a parsed member value, or null
+     * @return the {@code value} member when {@code v} is an object with {@code value} and
+     *         {@code source}, otherwise {@code v} itself (null stays null)
+     */
+    public static JsonValue plain(JsonValue v) {
+        if (v != null && v.isObject() && v.members().containsKey("value") && v.members().containsKey("source")) {
+            return v.get("value");
+        }
+        return v;
     }
 
     /**

@@ -18,6 +18,7 @@ import java.util.concurrent.Future;
 import javax.imageio.ImageIO;
 import org.lanesift.json.JsonReader;
 import org.lanesift.json.JsonValue;
+import org.lanesift.report.Sourced;
 import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.OutputException;
 import org.lanesift.kit.FramePictures;
@@ -355,7 +356,8 @@ public final class DemoTool implements Tool {
         }
 
         private static double number(JsonValue v, double absent) {
-            return v != null && v.isNumber() ? v.asDouble() : absent;
+            JsonValue n = Sourced.plain(v);
+            return n != null && n.isNumber() ? n.asDouble() : absent;
         }
 
         private static String text(JsonValue v, String absent) {

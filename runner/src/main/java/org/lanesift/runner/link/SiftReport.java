@@ -369,7 +369,8 @@ final class SiftReport {
     }
 
     private static double num(JsonValue v) {
-        return v != null && v.isNumber() ? v.asDouble() : Double.NaN;
+        JsonValue n = Sourced.plain(v);
+        return n != null && n.isNumber() ? n.asDouble() : Double.NaN;
     }
 
     private static String text(JsonValue v) {

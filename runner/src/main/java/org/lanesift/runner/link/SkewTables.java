@@ -11,6 +11,8 @@ import java.util.Map;
 import org.lanesift.json.JsonReader;
 import org.lanesift.json.JsonValue;
 import org.lanesift.json.JsonWriter;
+import org.lanesift.report.Source;
+import org.lanesift.report.Sourced;
 
 /**
  * Merges the per-instance skew tables that one estimation pass writes ({@code <instance>-skew.json},
@@ -47,7 +49,8 @@ public final class SkewTables {
                     if (conf < MIN_CONFIDENCE) {
                         notes.add(en.getKey() + ": estimate " + fmt(number(entry.get("offsetPs"), 0)) + " ps has confidence "
                                 + fmt(conf) + ", not applied (0 ps used)");
-                        entry.put("offsetPs", JsonValue.number(0.0));
+                        entry.put("offsetPs", Sourced.of(0.0, "ps", Source.assumed("0 ps: the estimate's confidence is below "
+                                + MIN_CONFIDENCE + ", not applied")).json());
                         entry.put("method", JsonValue.string("manual"));
                     }
                     channels.put(en.getKey(), JsonValue.object(entry));
@@ -65,7 +68,8 @@ public final class SkewTables {
     }
 
     private static double number(JsonValue v, double absent) {
-        return v != null && v.isNumber() ? v.asDouble() : absent;
+        JsonValue n = Sourced.plain(v);
+        return n != null && n.isNumber() ? n.asDouble() : absent;
     }
 
     private static String fmt(double d) {

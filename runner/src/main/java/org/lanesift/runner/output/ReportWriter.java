@@ -9,6 +9,7 @@ import java.util.Locale;
 import java.util.Map;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.DataKind;
+import org.lanesift.report.Source;
 import org.lanesift.unit.Quantity;
 
 /**
@@ -179,8 +180,8 @@ public final class ReportWriter {
      */
     private static void sources(StringBuilder sb, RunOutputs outs) {
         sb.append("\n## Where the values come from\n\n");
-        sb.append("- measured: every number in the findings and in the output files is measured from the capture,"
-                + " unless the file or finding says otherwise\n");
+        sb.append("- each finding above ends with the source of its numbers in brackets; each value in the JSON reports"
+                + " carries its own `source` (measured, standard, derived, given or assumed by default)\n");
         sb.append("- given: the options under \"options given\" (chain file or `--set`)\n");
         sb.append("- assumed: the options under \"defaults assumed\" are the plugins' defaults; check that they fit the setup\n");
         Map<String, Long> cited = outs.citedSources();
@@ -189,7 +190,9 @@ public final class ReportWriter {
         } else {
             sb.append("- standard: limits the findings were checked against (field `source` of each finding):\n");
             for (Map.Entry<String, Long> e : cited.entrySet()) {
-                sb.append("  - ").append(oneLine(e.getKey())).append(": ").append(e.getValue())
+                String reference = e.getKey().startsWith(Source.Kind.STANDARD.word() + ": ")
+                        ? e.getKey().substring(Source.Kind.STANDARD.word().length() + 2) : e.getKey();
+                sb.append("  - ").append(oneLine(reference)).append(": ").append(e.getValue())
                         .append(e.getValue() == 1 ? " finding" : " findings").append('\n');
             }
         }

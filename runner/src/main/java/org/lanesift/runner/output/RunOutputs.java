@@ -413,9 +413,9 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
             throw new OutputException("cannot write " + dir.resolve(ANNOTATIONS) + ": " + e.getMessage(), e);
         }
         severityCounts.merge(a.severity(), 1L, Long::sum);
-        org.lanesift.annotation.Field cited = a.fields().get("source");
-        if (cited != null && cited.type() == org.lanesift.annotation.Field.Type.TEXT) {
-            citedSources.merge(String.valueOf(cited.value()), 1L, Long::sum);
+        String cited = FindingSource.cited(a);
+        if (cited != null && FindingSource.isStandard(cited)) {
+            citedSources.merge(cited, 1L, Long::sum);
         }
         if (a.kind().equals(SUSPECT_SKEW_KIND) && suspectSkews.size() < EXAMPLES_PER_SEVERITY) {
             org.lanesift.annotation.Field why = a.fields().get("reason");
@@ -425,8 +425,9 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
         // the earliest findings, whatever order the stages reported them in
         java.util.TreeSet<Example> ex = earliest.computeIfAbsent(a.severity(), k -> new java.util.TreeSet<>());
         if (ex.size() < EXAMPLES_PER_SEVERITY || a.startFs() <= ex.last().startFs()) {
-            ex.add(new Example(a.startFs(), Texts.seconds(a.startFs()) + " s, " + source + ", " + a.kind() + ": " + a.label(),
-                    arrivals++));
+            String from = FindingSource.of(a);
+            ex.add(new Example(a.startFs(), Texts.seconds(a.startFs()) + " s, " + source + ", " + a.kind() + ": " + a.label()
+                    + (from.isEmpty() ? "" : " [" + from + "]"), arrivals++));
             if (ex.size() > EXAMPLES_PER_SEVERITY) {
                 ex.pollLast();
             }

@@ -18,6 +18,7 @@ import org.lanesift.plugin.OptionException;
 import org.lanesift.plugin.OptionValues;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
+import org.lanesift.report.Source;
 import org.lanesift.time.Femtos;
 
 /** The running {@code deskew} instance: one offset and, for analog, one delay line per channel. */
@@ -253,7 +254,8 @@ final class DeskewStage implements Stage {
         c.resolved = true;
         ctx.annotate(Annotation.on(c.name, "skew-applied").span(b.startFs(), b.startFs())
                 .label(String.format(Locale.ROOT, "offset %+.3f ps", c.offsetFs / Femtos.PER_PS))
-                .number("offsetPs", c.offsetFs / Femtos.PER_PS, "ps").text("method", c.method).build());
+                .number("offsetPs", c.offsetFs / Femtos.PER_PS, "ps").text("method", c.method)
+                .text("source", appliedSource(c.method).text()).build());
         if (c.suspect.isEmpty() && c.confidence < SUSPECT_CONFIDENCE) {
             c.suspect = String.format(Locale.ROOT, "confidence %.2f is below %.2f", c.confidence, SUSPECT_CONFIDENCE);
         }
@@ -328,5 +330,14 @@ final class DeskewStage implements Stage {
             long e = lastFs == Long.MIN_VALUE ? s : Math.max(s, lastFs);
             ctx.emit(n, new Artifact(ctx.instanceId(), s, e, ctx.instanceId() + "-applied-skew.json", "application/json", json));
         }
+    }
+
+    /**
+     * Where an applied offset comes from: the {@code offsets} option ({@code manual}), or a skew
+     * table measured by an earlier pass and given as {@code offsetsFile} (its method named).
+     */
+    static Source appliedSource(String method) {
+        return "manual".equals(method) ? Source.given("the offsets option")
+                : Source.given("the offsetsFile skew table, method " + method);
     }
 }

@@ -14,6 +14,8 @@ import java.util.Objects;
 import org.lanesift.json.JsonReader;
 import org.lanesift.json.JsonValue;
 import org.lanesift.json.JsonWriter;
+import org.lanesift.report.Source;
+import org.lanesift.report.Sourced;
 
 /**
  * A skew table: for each channel name, the time offset to <b>apply</b> to it, in picoseconds,
@@ -138,14 +140,38 @@ public final class SkewTable {
         JsonWriter j = JsonWriter.pretty().beginObject().field("format", FORMAT).field("version", VERSION)
                 .field("convention", CONVENTION).field("mode", mode).name("channels").beginObject();
         for (Entry e : entries.values()) {
-            j.name(e.name()).beginObjectInline().field("offsetPs", round(e.offsetPs())).field("confidence", round(e.confidence()))
-                    .field("method", e.method()).field("edges", e.edges());
+            j.name(e.name()).beginObjectInline();
+            Sourced.of(round(e.offsetPs()), "ps", offsetSource(e.method())).field(j, "offsetPs");
+            Sourced.of(round(e.confidence()), null, confidenceSource(e.method())).field(j, "confidence");
+            j.field("method", e.method()).field("edges", e.edges());
             if (e.isSuspect()) {
                 j.field("suspect", e.suspect());
             }
             j.endObject();
         }
         return j.endObject().endObject().finish() + "\n";
+    }
+
+    /**
+     * Where a row's offset comes from, after its method: given for a manual entry, 0 by definition
+     * for the reference channel, measured by {@code skew-estimate} otherwise.
+     *
+     * @param method the row's method
+     * @return the source
+     */
+    static Source offsetSource(String method) {
+        return switch (method) {
+            case "manual" -> Source.given("a manual entry");
+            case "reference" -> Source.derived("the reference channel: 0 by definition");
+            default -> Source.measured("skew-estimate, method " + method);
+        };
+    }
+
+    private static Source confidenceSource(String method) {
+        return switch (method) {
+            case "manual", "reference" -> Source.assumed("1: a given offset and the reference are trusted");
+            default -> Source.measured("skew-estimate, method " + method);
+        };
     }
 
     /** Keeps a femtosecond of resolution in ps (three decimals) and drops float noise. */
@@ -216,7 +242,7 @@ public final class SkewTable {
             if (!row.isObject()) {
                 throw new IllegalArgumentException(source + ": " + ptr + " must be an object with offsetPs, got " + describe(row));
             }
-            JsonValue o = row.get("offsetPs");
+            JsonValue o = Sourced.plain(row.get("offsetPs"));
             if (o == null || !o.isNumber()) {
                 throw new IllegalArgumentException(source + ": " + ptr + "/offsetPs must be a number of picoseconds, got " + describe(o));
             }
@@ -225,7 +251,7 @@ public final class SkewTable {
                 throw new IllegalArgumentException(source + ": " + ptr + "/offsetPs " + off + " is beyond +/-1e9 ps (1 ms)");
             }
             double conf = 1;
-            JsonValue c = row.get("confidence");
+            JsonValue c = Sourced.plain(row.get("confidence"));
             if (c != null) {
                 if (!c.isNumber() || !(c.asDouble() >= 0 && c.asDouble() <= 1)) {
                     throw new IllegalArgumentException(source + ": " + ptr + "/confidence must be a number from 0 to 1, got " + describe(c));

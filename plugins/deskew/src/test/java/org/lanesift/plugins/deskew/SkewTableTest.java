@@ -66,6 +66,25 @@ class SkewTableTest {
     }
 
     @Test
+    void writtenTablesSayWhereEachOffsetComesFromAndReadBack() {
+        SkewTable t = new SkewTable("legs", List.of(new SkewTable.Entry("p", 0, 1, "reference", 10),
+                new SkewTable.Entry("n", -27.5, 0.9, "legs-xcorr", 10), new SkewTable.Entry("x", 5, 1, "manual", 0)));
+        org.lanesift.json.JsonValue j = org.lanesift.json.JsonReader.parse("t", t.toJson());
+        assertEquals("derived: the reference channel: 0 by definition", j.at("/channels/p/offsetPs/source").asString());
+        assertEquals("measured: skew-estimate, method legs-xcorr", j.at("/channels/n/offsetPs/source").asString());
+        assertEquals("measured: skew-estimate, method legs-xcorr", j.at("/channels/n/confidence/source").asString());
+        assertEquals("given: a manual entry", j.at("/channels/x/offsetPs/source").asString());
+        assertEquals("ps", j.at("/channels/n/offsetPs/unit").asString());
+        SkewTable back = SkewTable.parse("t", t.toJson());
+        assertEquals(-27.5, back.get("n").offsetPs(), 1e-9);
+        assertEquals(0.9, back.get("n").confidence(), 1e-9);
+        // a sourced offset that is not a number is refused like a plain one
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class, () -> SkewTable.parse("t.json",
+                "{\"format\":\"lanesift-skew-table\",\"version\":1,\"channels\":{\"a\":{\"offsetPs\":{\"value\":\"3\",\"source\":\"given\"}}}}"));
+        assertTrue(e.getMessage().contains("/channels/a/offsetPs must be a number of picoseconds"), e.getMessage());
+    }
+
+    @Test
     void syntaxErrorsGiveLineAndColumn() {
         String text = "{\"format\":\"lanesift-skew-table\",\n\"version\":1,\n\"channels\":{\"a\":{\"offsetPs\":3,}}}";
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class, () -> SkewTable.parse("t.json", text));

@@ -7,6 +7,8 @@ import java.util.Locale;
 import java.util.Map;
 import org.lanesift.json.JsonWriter;
 import org.lanesift.json.NumberStyle;
+import org.lanesift.report.Source;
+import org.lanesift.report.Sourced;
 
 /**
  * The checked quantities of a span, and the {@code <instance>-levels.json} report: the capture's
@@ -109,23 +111,45 @@ final class LevelReport {
         double hi = a.mean(1);
         double lo = a.mean(0);
         double swing = hi - lo;
+        Source level = Source.measured("mean of the settled samples");
+        Source peak = Source.measured("extreme sample beyond the settled level");
         j.field("startFs", cmp.timeAt(a.startIndex, 0)).field("endFs", cmp.timeAt(a.endIndex, 0))
                 .field("samples", a.samples).field("invalidSamples", a.invalid)
                 .field("settledHigh", a.n[1]).field("settledLow", a.n[0])
-                .field("highLevelFromSettled", a.settled(1)).field("lowLevelFromSettled", a.settled(0))
-                .field("highLevelVolts", hi).field("lowLevelVolts", lo)
-                .field("highSpreadVolts", a.spread(1)).field("lowSpreadVolts", a.spread(0))
-                .field("overshootVolts", a.max[1] - hi).field("undershootVolts", lo - a.min[0])
-                .field("overshootPercent", 100 * (a.max[1] - hi) / swing).field("undershootPercent", 100 * (lo - a.min[0]) / swing);
+                .field("highLevelFromSettled", a.settled(1)).field("lowLevelFromSettled", a.settled(0));
+        sourced(j, "highLevelVolts", hi, "V", level);
+        sourced(j, "lowLevelVolts", lo, "V", level);
+        sourced(j, "highSpreadVolts", a.spread(1), "V", Source.measured("standard deviation of the settled samples"));
+        sourced(j, "lowSpreadVolts", a.spread(0), "V", Source.measured("standard deviation of the settled samples"));
+        sourced(j, "overshootVolts", a.max[1] - hi, "V", peak);
+        sourced(j, "undershootVolts", lo - a.min[0], "V", peak);
+        sourced(j, "overshootPercent", 100 * (a.max[1] - hi) / swing, "%", Source.derived("overshoot / (high - low level)"));
+        sourced(j, "undershootPercent", 100 * (lo - a.min[0]) / swing, "%", Source.derived("undershoot / (high - low level)"));
         if (twoLegs) {
-            j.field("commonModeVolts", a.cmMean()).field("commonModeSpreadVolts", a.cmSpread())
-                    .field("commonModeHighVolts", a.cmMean(1)).field("commonModeLowVolts", a.cmMean(0));
+            Source cm = Source.measured("(P + N) / 2 of the settled samples");
+            sourced(j, "commonModeVolts", a.cmMean(), "V", cm);
+            sourced(j, "commonModeSpreadVolts", a.cmSpread(), "V", cm);
+            sourced(j, "commonModeHighVolts", a.cmMean(1), "V", cm);
+            sourced(j, "commonModeLowVolts", a.cmMean(0), "V", cm);
         }
         j.name("quantities").beginObject();
         for (Map.Entry<String, Double> e : quantities(s, a).entrySet()) {
-            j.field(e.getKey(), e.getValue());
+            sourced(j, e.getKey(), e.getValue(), "V", Source.measured("from the settled levels"));
         }
         j.endObject();
+    }
+
+    private static void sourced(JsonWriter j, String name, double value, String unit, Source source) {
+        Sourced.of(value, unit, source).field(j, name);
+    }
+
+    /** Where the warm-up threshold and hysteresis come from, after {@link WarmupLearner.Result#source()}. */
+    private static Source thresholdSource(String learned) {
+        return switch (learned) {
+            case "given" -> Source.given("the thresholdVolts and hysteresis options");
+            case "learned" -> Source.measured("learned from the levels of the warm-up samples");
+            default -> Source.assumed("no two levels in the warm-up samples; the fallback threshold and hysteresis");
+        };
     }
 
     /**
@@ -141,13 +165,18 @@ final class LevelReport {
         JsonWriter j = JsonWriter.compact().numberStyle(NumberStyle.significant(9)).nonFiniteAsNull();
         j.beginObject();
         j.field("instance", h.instance()).field("channel", s.channel).field("mode", s.modeName())
-                .field("levelProfile", s.profile.id).field("samplePeriodFs", h.periodFs()).field("startFs", h.originFs())
+                .field("levelProfile", s.profile.id).field("startFs", h.originFs())
                 .field("samples", cmp.nextIndex()).field("transitions", cmp.transitionsTotal())
-                .field("thresholdSource", h.learned().source())
-                .field("initialThresholdVolts", h.learned().thresholdVolts())
-                .field("initialHysteresisVolts", h.learned().hysteresisVolts())
-                .field("finalThresholdVolts", cmp.threshold()).field("finalHysteresisVolts", cmp.hysteresis())
-                .field("inverted", cmp.invert()).field("invalidRuns", h.invalidRuns()).field("invalidSamples", h.invalidSamples())
+                .field("thresholdSource", h.learned().source());
+        Source initial = thresholdSource(h.learned().source());
+        Source tracked = "given".equals(h.learned().source()) ? initial
+                : Source.measured("tracked from the levels by the adaptive threshold");
+        sourced(j, "samplePeriodFs", h.periodFs(), "fs", Source.given("the capture's sample rate"));
+        sourced(j, "initialThresholdVolts", h.learned().thresholdVolts(), "V", initial);
+        sourced(j, "initialHysteresisVolts", h.learned().hysteresisVolts(), "V", initial);
+        sourced(j, "finalThresholdVolts", cmp.threshold(), "V", tracked);
+        sourced(j, "finalHysteresisVolts", cmp.hysteresis(), "V", tracked);
+        j.field("inverted", cmp.invert()).field("invalidRuns", h.invalidRuns()).field("invalidSamples", h.invalidSamples())
                 .field("windowSamples", (long) s.windowSamples * merge).field("statsStride", s.statsStride);
         j.name("capture").beginObject();
         levelsJson(j, capture, cmp);
@@ -158,9 +187,11 @@ final class LevelReport {
             if (v == null) {
                 continue;
             }
-            j.beginObject().field("quantity", ch.quantity()).field("what", ch.what()).field("valueVolts", v)
-                    .field("minVolts", ch.min()).field("maxVolts", ch.max())
-                    .field("verdict", ch.judge(v).name().toLowerCase(Locale.ROOT)).field("source", ch.source()).endObject();
+            j.beginObject().field("quantity", ch.quantity()).field("what", ch.what());
+            sourced(j, "valueVolts", v, "V", Source.measured("from the settled levels"));
+            sourced(j, "minVolts", ch.min(), "V", ch.from());
+            sourced(j, "maxVolts", ch.max(), "V", ch.from());
+            j.field("verdict", ch.judge(v).name().toLowerCase(Locale.ROOT)).endObject();
         }
         j.endArray();
         j.name("windows").beginArray();

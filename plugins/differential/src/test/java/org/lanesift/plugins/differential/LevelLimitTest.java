@@ -11,6 +11,7 @@ import java.util.List;
 import java.util.Map;
 import org.junit.jupiter.api.Test;
 import org.lanesift.json.JsonValue;
+import org.lanesift.report.Sourced;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.AnalogBlock;
@@ -166,15 +167,20 @@ class LevelLimitTest {
         long count = 0;
         for (JsonValue w : report.get("windows").elements()) {
             long k = (long) w.get("settledHigh").asDouble();
-            weighted += k * w.get("highLevelVolts").asDouble();
+            weighted += k * Sourced.plain(w.get("highLevelVolts")).asDouble();
             count += k;
         }
         JsonValue vodHigh = report.get("checks").elements().get(0);
         assertEquals("vod-high", vodHigh.get("quantity").asString());
-        assertEquals(weighted / count, vodHigh.get("valueVolts").asDouble(), 1e-6);
-        assertEquals(0.275, vodHigh.get("valueVolts").asDouble(), 0.01);
+        assertEquals(weighted / count, Sourced.plain(vodHigh.get("valueVolts")).asDouble(), 1e-6);
+        assertEquals(0.275, Sourced.plain(vodHigh.get("valueVolts")).asDouble(), 0.01);
+        // the limits say where they come from, the measured value that it is measured
+        assertEquals("standard: ANSI/TIA/EIA-644-A, values from memory (docs/reference-facts.md#lvds-electrical-levels)",
+                vodHigh.get("minVolts").get("source").asString());
+        assertEquals(0.247, Sourced.plain(vodHigh.get("minVolts")).asDouble(), 1e-9);
+        assertTrue(vodHigh.get("valueVolts").get("source").asString().startsWith("measured"));
         assertEquals("info", vodHigh.get("verdict").asString());
-        assertEquals(0.2, report.get("windows").elements().get(9).get("quantities").get("vod-high").asDouble(), 1e-6);
+        assertEquals(0.2, Sourced.plain(report.get("windows").elements().get(9).get("quantities").get("vod-high")).asDouble(), 1e-6);
     }
 
     @Test

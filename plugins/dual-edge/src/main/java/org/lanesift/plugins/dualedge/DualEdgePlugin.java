@@ -93,6 +93,8 @@ import org.lanesift.time.TimeValue;
 public final class DualEdgePlugin implements PluginProvider {
     /** The plugin id used in chain files. */
     public static final String ID = "dual-edge";
+    /** Default margin threshold, UI. */
+    static final double DEFAULT_MARGIN_THRESHOLD_UI = 0.15;
 
     private static final PluginDescriptor DESCRIPTOR = PluginDescriptor.builder(ID)
             .name("Clocked sampler (DDR, single edge, multiplied clock)")
@@ -114,7 +116,7 @@ public final class DualEdgePlugin implements PluginProvider {
                     + " over the first 'searchBits' bits (replaces 'phase')"))
             .option(OptionSpec.integer("searchBits", 8192L, 16, 10_000_000, "bits per lane at the start of the capture"
                     + " used by autoPhase"))
-            .option(OptionSpec.number("marginThreshold", "UI", 0.15, 0.0, 0.5, "setup or hold margins below this fraction"
+            .option(OptionSpec.number("marginThreshold", "UI", DEFAULT_MARGIN_THRESHOLD_UI, 0.0, 0.5, "setup or hold margins below this fraction"
                     + " of a UI are flagged"))
             .option(OptionSpec.number("glitchFraction", "", 0.2, 0.0, 0.45, "clock pulses shorter than this fraction of the"
                     + " period are glitches and ignored (0 disables)"))

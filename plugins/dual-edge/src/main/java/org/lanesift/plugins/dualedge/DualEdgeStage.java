@@ -17,6 +17,8 @@ import org.lanesift.json.JsonWriter;
 import org.lanesift.json.NumberStyle;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
+import org.lanesift.report.Source;
+import org.lanesift.report.Sourced;
 import org.lanesift.time.Femtos;
 
 /**
@@ -413,10 +415,11 @@ final class DualEdgeStage implements Stage {
             j.name("slots").value(cfg.slots());
             j.name("clockPattern").value(cfg.pattern());
         }
-        j.name("marginThresholdUI").value(cfg.marginThreshold());
-        j.name("marginReachUI").value(1.0);
+        Sourced.of(cfg.marginThreshold(), "UI", cfg.marginThreshold() == DualEdgePlugin.DEFAULT_MARGIN_THRESHOLD_UI
+                ? Source.assumed("0.15 UI, common practice") : Source.given("option marginThreshold")).field(j, "marginThresholdUI");
+        Sourced.of(1.0, "UI", Source.derived("by construction: a margin is measured up to one unit interval")).field(j, "marginReachUI");
         double meanUi = emittedBits > 0 ? uiSumAll / emittedBits : Double.NaN;
-        j.name("unitIntervalFs").value(meanUi);
+        Sourced.of(meanUi, "fs", Source.measured("mean unit interval of the sampled bits")).field(j, "unitIntervalFs");
         j.name("bitsPerLane").value(emittedBits);
         j.name("clock").beginObject();
         j.name("channel").value(clockQ.channel);
@@ -431,7 +434,7 @@ final class DualEdgeStage implements Stage {
         j.name("max").value(cr.stats().periodMaxFs());
         j.name("intervals").value(cr.stats().intervals());
         j.endObject();
-        j.name("frequencyHz").value(cr.frequencyHz());
+        Sourced.of(cr.frequencyHz(), "Hz", Source.measured("1 / mean clock period")).field(j, "frequencyHz");
         j.name("duty").beginObject();
         j.name("mean").value(cr.stats().dutyMean());
         j.name("min").value(cr.stats().dutyMin());
@@ -446,14 +449,16 @@ final class DualEdgeStage implements Stage {
         }
         j.endObject();
         j.name("phase").beginObject();
-        j.name("source").value(cfg.autoPhase() ? "autoPhase" : "option");
         j.name("alignment").value(cfg.mode() == SamplerConfig.Mode.MULTIPLIED ? "slot-centre" : cfg.edgeAligned() ? "edge" : "center");
+        Source given = cfg.autoPhase() ? Source.measured("centre of the widest transition-free window (autoPhase)")
+                : phaseIsUi && phaseUi == 0 ? Source.assumed("0 UI, the sample point the alignment gives") : Source.given("option phase");
+        Source other = cfg.autoPhase() ? given : Source.derived("the phase times the mean unit interval");
         if (phaseIsUi) {
-            j.name("phaseUI").value(phaseUi);
-            j.name("phaseFs").value(phaseUi * meanUi);
+            Sourced.of(phaseUi, "UI", given).field(j, "phaseUI");
+            Sourced.of(phaseUi * meanUi, "fs", other).field(j, "phaseFs");
         } else {
-            j.name("phaseFs").value(phaseFs);
-            j.name("phaseUI").value(phaseFs / meanUi);
+            Sourced.of(phaseFs, "fs", given).field(j, "phaseFs");
+            Sourced.of(phaseFs / meanUi, "UI", other).field(j, "phaseUI");
         }
         if (cfg.autoPhase()) {
             j.name("search").beginObject();
@@ -494,10 +499,11 @@ final class DualEdgeStage implements Stage {
     }
 
     private static void writeWindow(JsonWriter j, EyeSearch.Window w) {
-        j.name("centreUI").value(w.centreUi());
-        j.name("windowUI").value(w.widthUi());
-        j.name("leftUI").value(w.leftUi());
-        j.name("rightUI").value(w.rightUi());
+        Source found = Source.measured("transition-free window of the searched bits");
+        Sourced.of(w.centreUi(), "UI", found).field(j, "centreUI");
+        Sourced.of(w.widthUi(), "UI", found).field(j, "windowUI");
+        Sourced.of(w.leftUi(), "UI", found).field(j, "leftUI");
+        Sourced.of(w.rightUi(), "UI", found).field(j, "rightUI");
         j.name("transitions").value(w.transitions());
     }
 }

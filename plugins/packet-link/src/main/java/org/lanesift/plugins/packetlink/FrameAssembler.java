@@ -11,6 +11,8 @@ import org.lanesift.annotation.Severity;
 import org.lanesift.data.Frame;
 import org.lanesift.json.JsonWriter;
 import org.lanesift.json.NumberStyle;
+import org.lanesift.report.Source;
+import org.lanesift.report.Sourced;
 
 /**
  * Rebuilds pictures from packets, in both ways a host feeds a panel:
@@ -461,9 +463,12 @@ final class FrameAssembler {
                 periodN++;
             }
         }
-        j.endArray().name("summary").beginObjectInline().field("frames", timings.size())
-                .field("meanFramePeriodS", periodN == 0 ? Double.NaN : periodSum / periodN * 1e-15)
-                .field("frameRateHz", periodN == 0 ? Double.NaN : 1e15 * periodN / periodSum).endObject().endObject();
+        j.endArray().name("summary").beginObjectInline().field("frames", timings.size());
+        Sourced.of(periodN == 0 ? Double.NaN : periodSum / periodN * 1e-15, "s", Source.measured("mean start-to-start time of"
+                + " consecutive frames")).field(j, "meanFramePeriodS");
+        Sourced.of(periodN == 0 ? Double.NaN : 1e15 * periodN / periodSum, "Hz", Source.derived("1 / mean frame period"))
+                .field(j, "frameRateHz");
+        j.endObject().endObject();
         return (j.finish() + "\n").getBytes(StandardCharsets.UTF_8);
     }
 

@@ -7,6 +7,8 @@ import java.util.Locale;
 import java.util.Map;
 import org.lanesift.json.JsonWriter;
 import org.lanesift.json.NumberStyle;
+import org.lanesift.report.Source;
+import org.lanesift.report.Sourced;
 
 /**
  * Everything measured about the video timing of one link, and its two report forms: JSON
@@ -107,7 +109,7 @@ final class Timing {
                 .field("suspect", framesSuspect).endObject();
         double tol = clockTolerancePercent / 100;
         freqJson(j.name("pixelClockHz"), pixelClockHz(), clockPerLine, tol);
-        j.field("linkClockHz", pixelClockHz() / pixelsPerClock);
+        Sourced.of(pixelClockHz() / pixelsPerClock, "Hz", Source.derived("pixel clock / pixels per clock")).field(j, "linkClockHz");
         freqJson(j.name("refreshHz"), refresh.mean(), refresh, tol);
         j.name("horizontal").beginObject().field("unit", "pixels").field("syncPresent", hSyncPresent())
                 .field("syncPolarity", pol(hsActive));
@@ -149,13 +151,18 @@ final class Timing {
                 .field("samples", Math.min(vTotal.count(), vActive.count())).endObject();
     }
 
+    /** Where a timing value with its spread comes from (the {@code source} member of the value, as host-api Sourced writes it). */
+    private static final String STAT_SOURCE = Source.measured("the typical value over the decoded lines or frames; min and max over"
+            + " the samples").text();
+    private static final String FREQ_SOURCE = Source.measured("from the decoded clock or frame times; min and max over the samples").text();
+
     private static void statJson(JsonWriter j, Stat s) {
         if (s == null || s.count() == 0) {
             j.nullValue();
             return;
         }
         j.beginObjectInline().field("value", s.typical()).field("min", s.min()).field("max", s.max())
-                .field("varying", s.varying()).field("samples", s.count()).endObject();
+                .field("varying", s.varying()).field("samples", s.count()).field("source", STAT_SOURCE).endObject();
     }
 
     private static void freqJson(JsonWriter j, double value, DStat s, double tol) {
@@ -169,7 +176,7 @@ final class Timing {
         } else {
             j.field("min", s.min()).field("max", s.max()).field("varying", s.varying(tol)).field("samples", s.count());
         }
-        j.endObject();
+        j.field("source", FREQ_SOURCE).endObject();
     }
 
     // ---------------------------------------------------------------- text

@@ -90,7 +90,8 @@ class FrameAssemblyTest {
             assertEquals(v.hsHigh() ? "positive" : "negative", r.str("horizontal/syncPolarity"));
             assertEquals(v.vsHigh() ? "positive" : "negative", r.str("vertical/syncPolarity"));
             assertEquals(dual ? 80_000_000L : 40_000_000L, r.num("pixelClockHz/value"));
-            assertEquals(40_000_000L, r.num("linkClockHz"));
+            assertEquals(40_000_000L, r.num("linkClockHz/value"));
+            assertEquals("derived: pixel clock / pixels per clock", r.get("linkClockHz/source").asString());
             assertEquals(3, r.num("frames/complete"));
             assertEquals(0, r.num("frames/suspect"));
         }

@@ -17,6 +17,8 @@ import org.lanesift.plugin.PluginProvider;
 import org.lanesift.plugin.PortSpec;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
+import org.lanesift.report.Source;
+import org.lanesift.report.Sourced;
 
 /**
  * Plugin {@code edge-metrics}: per transition of an analog signal the 10-90 % and 20-80 % rise and
@@ -29,6 +31,8 @@ public final class EdgeMetricsPlugin implements PluginProvider {
     static final String ID = "edge-metrics";
     static final int KEEP = 1 << 20;
     static final int BINS = 40;
+    /** Default settling band, percent of the swing. */
+    static final double DEFAULT_SETTLING_PERCENT = 5.0;
 
     static final OptionSpec LEVELS = OptionSpec.numbers("levelsVolts", "V",
             "the two levels [low, high] in volts; empty = the histogram modes of the first levelSamples samples");
@@ -41,7 +45,7 @@ public final class EdgeMetricsPlugin implements PluginProvider {
                     + "transition, with their distributions over the capture.")
             .option(LEVELS)
             .option(LEVEL_SAMPLES)
-            .option(OptionSpec.number("settlingPercent", "%", 5.0, 0.1, 9.0,
+            .option(OptionSpec.number("settlingPercent", "%", DEFAULT_SETTLING_PERCENT, 0.1, 9.0,
                     "half-width of the settling band around the final level, percent of the swing"))
             .option(OptionSpec.bool("annotateEdges", false, "emit one annotation per edge (many on a long capture)"))
             .input(PortSpec.of("signal", DataKind.ANALOG, "the signal, volts"))
@@ -126,11 +130,15 @@ public final class EdgeMetricsPlugin implements PluginProvider {
             j.field("plugin", ID);
             j.field("channel", channel);
             j.field("samples", samples);
-            j.field("samplePeriodPs", periodFs / 1000);
-            j.field("lowLevelVolts", lv.lowVolts);
-            j.field("highLevelVolts", lv.highVolts);
-            j.field("levelsFrom", ctx.options().getNumbers("levelsVolts").isEmpty() ? "histogram modes of the first samples" : "option levelsVolts");
-            j.field("settlingBandPercent", settleFraction * 100);
+            Sourced.of(periodFs / 1000, "ps", Source.given("the capture's sample rate")).field(j, "samplePeriodPs");
+            boolean found = ctx.options().getNumbers("levelsVolts").isEmpty();
+            Source levels = found ? Source.measured("histogram modes of the first samples") : Source.given("option levelsVolts");
+            Sourced.of(lv.lowVolts, "V", levels).field(j, "lowLevelVolts");
+            Sourced.of(lv.highVolts, "V", levels).field(j, "highLevelVolts");
+            j.field("levelsFrom", found ? "histogram modes of the first samples" : "option levelsVolts");
+            Sourced.of(settleFraction * 100, "%", settleFraction * 100 == DEFAULT_SETTLING_PERCENT
+                    ? Source.assumed("a 5 % settling band, common practice") : Source.given("option settlingPercent"))
+                    .field(j, "settlingBandPercent");
             j.field("risingEdges", rise1090.count());
             j.field("fallingEdges", fall1090.count());
             j.field("incompleteTransitions", tracker.incomplete());

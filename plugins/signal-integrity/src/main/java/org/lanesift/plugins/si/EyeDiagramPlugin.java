@@ -22,6 +22,8 @@ import org.lanesift.plugin.PluginProvider;
 import org.lanesift.plugin.PortSpec;
 import org.lanesift.plugin.Stage;
 import org.lanesift.plugin.StageContext;
+import org.lanesift.report.Source;
+import org.lanesift.report.Sourced;
 
 /**
  * Plugin {@code eye-diagram}: folds an analog signal (a differential signal or one leg, volts) on
@@ -35,6 +37,8 @@ public final class EyeDiagramPlugin implements PluginProvider {
     static final String ID = "eye-diagram";
     /** Samples buffered to fix the voltage range when {@code rangeMv} is not given. */
     static final int RANGE_SAMPLES = 1 << 16;
+    /** Default sample point, UI: the middle of the unit interval. */
+    static final double DEFAULT_SAMPLE_POINT_UI = 0.5;
     /** Samples that may wait for clock edges before the stage gives up. */
     static final int MAX_PENDING = 1 << 24;
     /** Fixed-rate folding restarts its phase from the absolute sample index every this many samples. */
@@ -53,7 +57,7 @@ public final class EyeDiagramPlugin implements PluginProvider {
             .option(OptionSpec.integer("widthPx", 640L, 64, 4096, "width of the density plot in pixels (one time bin per pixel)"))
             .option(OptionSpec.integer("heightPx", 400L, 32, 4096, "height of the density plot in pixels (one voltage bin per pixel)"))
             .option(OptionSpec.text("maskFile", "", "eye mask file (docs/eye-mask.md); empty for none"))
-            .option(OptionSpec.number("samplePoint", "UI", 0.5, 0.0, 1.0,
+            .option(OptionSpec.number("samplePoint", "UI", DEFAULT_SAMPLE_POINT_UI, 0.0, 1.0,
                     "where in the unit interval eye height is measured (0.5 = middle of the eye after alignment)"))
             .option(OptionSpec.choice("align", "auto", "auto centres the eye opening at 0.5 UI (crossings near 0 and 1); none keeps the clock/bit-rate phase", "auto", "none"))
             .option(OptionSpec.number("offsetUi", "UI", 0.0, -1.0, 1.0, "extra shift of the time axis, in UI"))
@@ -403,30 +407,40 @@ public final class EyeDiagramPlugin implements PluginProvider {
             } else {
                 j.field("bitRateHz", bitRateHz);
             }
-            j.field("uiPs", uiFs / 1000);
+            Sourced.of(uiFs / 1000, "ps", clockMode ? Source.measured("clock interval / uiPerClockInterval")
+                    : Source.given("option bitRateHz")).field(j, "uiPs");
             j.field("uiCount", uiCount);
             j.field("samples", acc.inRange());
             j.field("samplesOutOfRange", acc.outOfRange());
             j.field("samplesUnclocked", unclocked);
             j.field("widthBins", e.acc.widthBins());
             j.field("heightBins", e.acc.heightBins());
-            j.field("rangeMinMv", e.rowMv(0));
-            j.field("rangeMaxMv", e.rowMv(e.acc.heightBins()));
-            j.field("binMv", 1000 / e.acc.binsPerVolt());
-            j.field("binPs", uiFs / e.binsPerUi / 1000);
-            j.field("lowLevelMv", e.lowMv);
-            j.field("highLevelMv", e.highMv);
-            j.field("thresholdMv", e.thresholdMv);
+            Source range = ctx.options().getNumbers("rangeMv").isEmpty() ? Source.measured("from the first " + RANGE_SAMPLES + " samples")
+                    : Source.given("option rangeMv");
+            Sourced.of(e.rowMv(0), "mV", range).field(j, "rangeMinMv");
+            Sourced.of(e.rowMv(e.acc.heightBins()), "mV", range).field(j, "rangeMaxMv");
+            Sourced.of(1000 / e.acc.binsPerVolt(), "mV", Source.derived("range / heightBins")).field(j, "binMv");
+            Sourced.of(uiFs / e.binsPerUi / 1000, "ps", Source.derived("unit interval / bins per UI")).field(j, "binPs");
+            Source rails = Source.measured("mean of the rails at the sample point");
+            Sourced.of(e.lowMv, "mV", rails).field(j, "lowLevelMv");
+            Sourced.of(e.highMv, "mV", rails).field(j, "highLevelMv");
+            Sourced.of(e.thresholdMv, "mV", ctx.options().getNumbers("thresholdMv").isEmpty()
+                    ? Source.derived("midway between the two levels") : Source.given("option thresholdMv")).field(j, "thresholdMv");
             j.field("aligned", align);
-            j.field("crossingUi", e.crossingUi);
-            j.field("samplePointUi", e.samplePointUi);
+            Sourced.of(e.crossingUi, "UI", Source.measured("where the traces cross the threshold")).field(j, "crossingUi");
+            double samplePoint = ctx.options().getDouble("samplePoint");
+            Sourced.of(e.samplePointUi, "UI", samplePoint == DEFAULT_SAMPLE_POINT_UI
+                    ? Source.assumed("the middle of the unit interval, common practice") : Source.given("option samplePoint"))
+                    .field(j, "samplePointUi");
             if (e.unmeasured != null) {
                 j.field("unmeasured", e.unmeasured);
             }
-            j.field("eyeHeightMv", e.eyeHeightMv);
-            j.field("eyeHeight3SigmaMv", e.eyeHeight3SigmaMv);
-            j.field("eyeWidthUi", e.eyeWidthUi);
-            j.field("eyeWidthPs", e.eyeWidthPs());
+            Source eye = Source.measured("empty bins of the eye, see definition");
+            Sourced.of(e.eyeHeightMv, "mV", eye).field(j, "eyeHeightMv");
+            Sourced.of(e.eyeHeight3SigmaMv, "mV", Source.measured("rail statistics at the sample point, see definition"))
+                    .field(j, "eyeHeight3SigmaMv");
+            Sourced.of(e.eyeWidthUi, "UI", eye).field(j, "eyeWidthUi");
+            Sourced.of(e.eyeWidthPs(), "ps", eye).field(j, "eyeWidthPs");
             j.field("definition", "height: empty bins around the threshold at the sample point (+/-1 column); "
                     + "width: empty bins along the threshold row around the sample point; "
                     + "height3Sigma: (mean - 3 sd) of the upper rail minus (mean + 3 sd) of the lower rail at the sample point");

@@ -378,8 +378,9 @@ public final class JitterPlugin implements PluginProvider {
                 j.name(side == 0 ? "leftTail" : "rightTail").beginObject();
                 Sourced.of(t == null ? Double.NaN : t.mu(), "ps", fit).field(j, "diracPs");
                 Sourced.of(t == null ? Double.NaN : t.sigma(), "ps", fit).field(j, "sigmaPs");
-                j.field("diracWeight", t == null ? Double.NaN : t.weight());
-                j.field("rSquared", t == null ? Double.NaN : t.r2());
+                Sourced.of(t == null ? Double.NaN : t.weight(), null, Source.standard("the dual-Dirac model's weight of each"
+                        + " Dirac, Fibre Channel MJSQ, T11.2", DUAL_DIRAC)).field(j, "diracWeight");
+                Sourced.of(t == null ? Double.NaN : t.r2(), null, Source.measured("goodness of the tail fit")).field(j, "rSquared");
                 j.field("points", t == null ? 0 : t.points());
                 j.endObject();
             }

@@ -227,7 +227,7 @@ public final class RingingPlugin implements PluginProvider {
             Sourced.of(avg.naturalHz(), "Hz", avgFit).field(j, "naturalHz");
             Sourced.of(avg.zeta(), null, avgFit).field(j, "dampingRatio");
             Sourced.of(avg.amplitudeVolts(), "V", avgFit).field(j, "amplitudeVolts");
-            j.field("rSquared", avg.rSquared());
+            Sourced.of(avg.rSquared(), null, Source.measured("goodness of the fit of the averaged edge")).field(j, "rSquared");
             j.endObject();
             j.name("summary").beginObject();
             j.field("from", fromAverage ? "the averaged edge" : any ? "the median of the single-edge fits (the average could not be fitted)" : "nothing fitted");
