@@ -98,7 +98,15 @@ public final class NumberStyle {
         if (kind == 0) {
             return Double.toString(v).replace('E', 'e');
         }
-        String t = String.format(SPELLING, pattern, v);
+        // The JDK's %g rounds the shortest decimal text of a double, not its exact value. For
+        // normal doubles that text has 15 to 17 digits and the double rounding is off by less than
+        // one unit in the last place of the double; below Double.MIN_NORMAL the text can be as
+        // short as 10 digits, and 1.005579095e-314 (exactly 1.00557909496...e-314) came out as
+        // 1.0055791e-314. There the exact value is rounded first, which %g then writes unchanged.
+        Object arg = Math.abs(v) < Double.MIN_NORMAL
+                ? new java.math.BigDecimal(v).round(new java.math.MathContext(digits, java.math.RoundingMode.HALF_UP))
+                : (Object) v;
+        String t = String.format(SPELLING, pattern, arg);
         int e = t.indexOf('e');
         String mant = e < 0 ? t : t.substring(0, e);
         String exp = e < 0 ? "" : t.substring(e);

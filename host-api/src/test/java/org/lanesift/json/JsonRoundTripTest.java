@@ -14,6 +14,7 @@ import java.util.Map;
 import java.util.Random;
 import net.jqwik.api.ForAll;
 import net.jqwik.api.Property;
+import org.junit.jupiter.api.Test;
 
 /**
  * Randomised round trips: random trees written (compact and pretty) and read back are equal, and
@@ -97,6 +98,16 @@ class JsonRoundTripTest {
         double rel = b.subtract(exact).abs().divide(exact.abs(), java.math.MathContext.DECIMAL64).doubleValue();
         // (or, as for 4.9e-324, the shortest text that reads back as the very same double)
         assertTrue(rel <= 5.0000001e-9 || b.doubleValue() == d, t + " for " + d);
+    }
+
+    @Test
+    void subnormalNumbersAreRoundedFromTheirExactValue() {
+        // exactly 1.00557909496...e-314 (BigDecimal of the double); the JDK's %g alone rounds the
+        // shortest text 1.005579095e-314 half up and writes 1.0055791e-314 (a failing seed of the
+        // property above)
+        assertEquals("1.00557909e-314", NumberStyle.significant(9).format(1.005579095E-314));
+        assertEquals("-1.00557909e-314", NumberStyle.significant(9).format(-1.005579095E-314));
+        assertEquals("4.94065646e-324", NumberStyle.significant(9).format(Double.MIN_VALUE));
     }
 
     @Property(tries = 500)
