@@ -17,16 +17,27 @@ final class StreamFramer {
     static final int WINDOW_BITS = 16;
     /** Occurrences needed. */
     static final int MIN_OCCURRENCES = 4;
-    /** Share of occurrences that must agree for a bit to extend the pattern. */
+    /** Share of occurrences that must agree for a bit to extend the pattern to the right (into the header most bursts share). */
     static final double AGREEMENT = 0.9;
+    /**
+     * Share of occurrences that must agree (or all but one) for a bit to extend the pattern to the
+     * left: a sync bit differs only where a bit error hit it, while the bits before it end the
+     * previous burst, and a picture whose components leave their low bits zero (loosely packed
+     * colour) ends most bursts alike, 90 to 95 % of them, which would start the sync a bit or two early.
+     */
+    static final double LEFT_AGREEMENT = 0.97;
     /** Bits of lane 0 searched for the window. */
     static final int SEARCH_BITS = 1 << 20;
 
     private StreamFramer() {
     }
 
-    /** Windows tried, most frequent first. */
-    static final int CANDIDATES = 64;
+    /**
+     * Windows tried, most frequent first: a picture with flat areas has hundreds of frequent
+     * 16-bit values (the rotations of each area's repeating pixel bits) and can push the sync's
+     * windows below the first 64.
+     */
+    static final int CANDIDATES = 256;
 
     /** @return the link cut at its sync, or the same link when it is not streaming or no sync stands out */
     static SampledLink frame(SampledLink link) {
@@ -44,10 +55,31 @@ final class StreamFramer {
                 counts[v]++;
             }
         }
-        boolean[] best = null;
-        int bestWord = 0;
-        double bestScore = MIN_OCCURRENCES;
-        for (int c = 0; c < CANDIDATES; c++) {
+        Candidate best = null;
+        for (Candidate c : rank(lane, n, counts)) {
+            best = best == null || c.score() > best.score() ? c : best;
+        }
+        if (best == null) {
+            return link;
+        }
+        int[] starts = wholeCuts(occurrences(lane, link.bits(), best.pattern(), best.pattern().length), best.pattern().length, best.wordBits());
+        int[] end = new int[starts.length];
+        for (int b = 0; b < starts.length; b++) {
+            end[b] = b + 1 < starts.length ? starts[b + 1] : link.bits();
+        }
+        return new SampledLink(link.lanes(), link.bits(), starts, end, starts.length, link.idleLevel(), "streaming", link.idleRunBits());
+    }
+
+    /** A sync candidate: the pattern, its occurrences, its score and the word length its cut makes whole. */
+    record Candidate(boolean[] pattern, int[] at, double score, int wordBits) {
+    }
+
+    /** Every scored candidate above {@link #MIN_OCCURRENCES}, in the order tried ({@code counts} is used up). */
+    static java.util.List<Candidate> rank(long[] lane, int n, int[] counts) {
+        java.util.List<Candidate> out = new java.util.ArrayList<>();
+        int[] tops = new int[CANDIDATES];
+        int k = 0;
+        for (; k < CANDIDATES; k++) {
             int top = 0;
             for (int x = 1; x < counts.length; x++) {
                 if (counts[x] > counts[top]) {
@@ -58,8 +90,12 @@ final class StreamFramer {
                 break;
             }
             counts[top] = 0;
-            int[] core = occurrences(lane, n, windowBits(top), WINDOW_BITS);
-            int left = extend(lane, n, core, -1, 0);
+            tops[k] = top;
+        }
+        int[][] cores = windowOccurrences(lane, n, Arrays.copyOf(tops, k));
+        for (int c = 0; c < k; c++) {
+            int[] core = cores[c];
+            int left = extend(lane, n, core, -1, 0, LEFT_AGREEMENT);
             boolean[] pattern = pattern(lane, n, core, left);
             // the extension may run on into the leading word most bursts share: shorter heads cut at every burst.
             // Every head still holds the window, so its occurrences are among the window's (no new scan)
@@ -67,22 +103,46 @@ final class StreamFramer {
                 boolean[] p = Arrays.copyOf(pattern, len);
                 int[] at = among(lane, n, core, left, p);
                 double score = score(at, len);
-                if (score > bestScore) {
-                    bestScore = score;
-                    best = p;
-                    bestWord = wordBits(at, len);
+                if (score > MIN_OCCURRENCES) {
+                    out.add(new Candidate(p, at, score, wordBits(at, len)));
                 }
             }
         }
-        if (best == null) {
-            return link;
+        return out;
+    }
+
+    /**
+     * Per window value, the starts of its non-overlapping occurrences in the first {@code n} bits,
+     * all values found in one pass (each as {@link #occurrences} would find it alone).
+     */
+    private static int[][] windowOccurrences(long[] lane, int n, int[] values) {
+        int[] slot = new int[1 << WINDOW_BITS];
+        Arrays.fill(slot, -1);
+        int[][] out = new int[values.length][];
+        int[] m = new int[values.length];
+        int[] next = new int[values.length];
+        for (int c = 0; c < values.length; c++) {
+            slot[values[c]] = c;
+            out[c] = new int[16];
         }
-        int[] starts = wholeCuts(occurrences(lane, link.bits(), best, best.length), best.length, bestWord);
-        int[] end = new int[starts.length];
-        for (int b = 0; b < starts.length; b++) {
-            end[b] = b + 1 < starts.length ? starts[b + 1] : link.bits();
+        int mask = (1 << WINDOW_BITS) - 1;
+        int v = 0;
+        for (int i = 0; i < n; i++) {
+            v = (v << 1 | (int) (lane[i >>> 6] >>> i & 1L)) & mask;
+            int c = i >= WINDOW_BITS - 1 ? slot[v] : -1;
+            int start = i - WINDOW_BITS + 1;
+            if (c >= 0 && start >= next[c]) {
+                if (m[c] == out[c].length) {
+                    out[c] = Arrays.copyOf(out[c], 2 * m[c]);
+                }
+                out[c][m[c]++] = start;
+                next[c] = start + WINDOW_BITS;
+            }
         }
-        return new SampledLink(link.lanes(), link.bits(), starts, end, starts.length, link.idleLevel(), "streaming", link.idleRunBits());
+        for (int c = 0; c < values.length; c++) {
+            out[c] = Arrays.copyOf(out[c], m[c]);
+        }
+        return out;
     }
 
     /** Starts of the non-overlapping occurrences of {@code p} among the window's occurrences moved {@code left} bits back. */
@@ -107,7 +167,7 @@ final class StreamFramer {
 
     /** The window extended left and right while its occurrences {@code at} agree, each bit the majority. */
     private static boolean[] pattern(long[] lane, int n, int[] at, int left) {
-        int right = extend(lane, n, at, +1, WINDOW_BITS - 1);
+        int right = extend(lane, n, at, +1, WINDOW_BITS - 1, AGREEMENT);
         int len = Math.min(SyncFinder.MAX_BITS, left + WINDOW_BITS + right);
         boolean[] pattern = new boolean[len];
         for (int p = 0; p < len; p++) {
@@ -126,14 +186,31 @@ final class StreamFramer {
     }
 
     /**
-     * How well cutting at these occurrences frames the stream: the pieces between them carry whole
-     * words after the pattern, so for the right word length nearly every piece is whole, while
-     * pieces cut at a pattern of the data have lengths that a word length divides only by chance
-     * ({@code 1/W}): the piece count times the best (whole share minus {@code 1/W}).
+     * How well cutting at these occurrences frames the stream, the piece count times two shares.
+     * <ul>
+     * <li>Whole words: the pieces between occurrences carry whole words after the pattern, so for
+     * the right word length every piece length is whole, while a word length divides the lengths
+     * of pieces cut at a pattern of the data only by chance ({@code 1/W}): the best (whole share
+     * minus {@code 1/W}). The share counts distinct piece lengths, each weighted by how often it
+     * occurs up to {@link #DISTINCT_WEIGHT_CAP}: the many data bursts of one length are one test of
+     * divisibility, not many (weighted as in {@link WordLengthFinder}'s idle-run model), so a long
+     * word that only divides the data bursts' length does not beat the one that divides them all.
+     * <li>Recurring lengths: bursts repeat their lengths (the data bursts all carry the same
+     * number of pixels, the commands a few parameter counts), so cut at the sync nearly every bit
+     * lies in a piece whose length occurs again, while a pattern of the picture recurs at spacings
+     * that follow the picture (a flat area: one pixel apart, then once in a long irregular gap):
+     * the share of the spanned bits that lie in pieces of a recurring length.
+     * </ul>
+     * Together they are a test of the burst-length distribution the cut yields (common practice:
+     * a frame marker recurs at the frame period; the whole-word test is the divisibility one of
+     * {@link WordLengthFinder}).
      */
     private static double score(int[] at, int len) {
         return pieceStats(at, len)[0];
     }
+
+    /** Pieces of one length that count as separate tests of divisibility at most. */
+    static final int DISTINCT_WEIGHT_CAP = 3;
 
     /** Share of the most pieces made whole that the cut filter's unit must make whole. */
     static final double UNIT_SHARE = 0.95;
@@ -167,22 +244,44 @@ final class StreamFramer {
     private static double[] pieceStats(int[] at, int len) {
         int pieces = 0;
         int[] whole = new int[WordLengthFinder.MAX_BITS + 1];
+        int[] payloads = new int[Math.max(0, at.length - 1)];
         for (int b = 0; b + 1 < at.length; b++) {
             int payload = at[b + 1] - at[b] - len;
             if (payload <= 0) {
                 continue;
             }
-            pieces++;
+            payloads[pieces++] = payload;
             for (int w = WordLengthFinder.MIN_BITS; w <= WordLengthFinder.MAX_BITS; w++) {
                 if (payload % w == 0) {
                     whole[w]++;
                 }
             }
         }
+        Arrays.sort(payloads, 0, pieces);
+        double weight = 0;
+        double[] weightWhole = new double[WordLengthFinder.MAX_BITS + 1];
+        long spanned = 0;
+        long recurring = 0;
+        for (int i = 0, j; i < pieces; i = j) {
+            j = i;
+            while (j < pieces && payloads[j] == payloads[i]) {
+                j++;
+            }
+            int same = j - i;
+            spanned += (long) same * (payloads[i] + len);
+            recurring += same > 1 ? (long) same * (payloads[i] + len) : 0;
+            double wt = Math.min(same, DISTINCT_WEIGHT_CAP);
+            weight += wt;
+            for (int w = WordLengthFinder.MIN_BITS; w <= WordLengthFinder.MAX_BITS; w++) {
+                if (payloads[i] % w == 0) {
+                    weightWhole[w] += wt;
+                }
+            }
+        }
         double best = 0;
         int most = 0;
         for (int w = WordLengthFinder.MIN_BITS; w <= WordLengthFinder.MAX_BITS && pieces > 0; w++) {
-            best = Math.max(best, whole[w] / (double) pieces - 1.0 / w);
+            best = Math.max(best, weightWhole[w] / weight - 1.0 / w);
             most = Math.max(most, whole[w]);
         }
         // the cut filter takes the shortest length that makes nearly as many pieces whole: a longer one may
@@ -193,15 +292,8 @@ final class StreamFramer {
                 unit = w;
             }
         }
-        return new double[] {pieces * best, unit};
-    }
-
-    private static boolean[] windowBits(int value) {
-        boolean[] p = new boolean[WINDOW_BITS];
-        for (int j = 0; j < WINDOW_BITS; j++) {
-            p[j] = (value >>> (WINDOW_BITS - 1 - j) & 1) != 0;
-        }
-        return p;
+        double coverage = spanned == 0 ? 0 : recurring / (double) spanned;
+        return new double[] {pieces * best * coverage, unit};
     }
 
     /** Starts of the non-overlapping exact occurrences of the pattern in the first {@code n} bits. */
@@ -225,7 +317,7 @@ final class StreamFramer {
     }
 
     /** Bits the pattern extends in direction {@code dir} from offset {@code edge} of each occurrence while they agree. */
-    private static int extend(long[] lane, int n, int[] at, int dir, int edge) {
+    private static int extend(long[] lane, int n, int[] at, int dir, int edge, double agreement) {
         int d = 0;
         while (d < SyncFinder.MAX_BITS - WINDOW_BITS) {
             int ones = 0;
@@ -237,7 +329,8 @@ final class StreamFramer {
                     ones += (int) (lane[i >>> 6] >>> i & 1L);
                 }
             }
-            if (seen < MIN_OCCURRENCES || Math.max(ones, seen - ones) < AGREEMENT * seen) {
+            int agree = Math.max(ones, seen - ones);
+            if (seen < MIN_OCCURRENCES || agree < agreement * seen && (agreement == AGREEMENT || seen - agree > 1)) {
                 break;
             }
             d++;
