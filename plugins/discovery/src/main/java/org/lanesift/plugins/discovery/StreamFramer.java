@@ -33,6 +33,14 @@ final class StreamFramer {
     }
 
     /**
+     * Share of a pattern's occurrences that another candidate's occurrence precedes within
+     * {@link SyncFinder#MAX_BITS} bits for the pattern to count as inside a header ({@link #follows}).
+     */
+    static final double HEADER_SHARE = 0.9;
+    /** Candidates (best first) checked as the sync that a header pattern follows. */
+    static final int HEADER_RIVALS = 32;
+
+    /**
      * Windows tried, most frequent first: a picture with flat areas has hundreds of frequent
      * 16-bit values (the rotations of each area's repeating pixel bits) and can push the sync's
      * windows below the first 64.
@@ -55,10 +63,7 @@ final class StreamFramer {
                 counts[v]++;
             }
         }
-        Candidate best = null;
-        for (Candidate c : rank(lane, n, counts)) {
-            best = best == null || c.score() > best.score() ? c : best;
-        }
+        Candidate best = best(rank(lane, n, counts));
         if (best == null) {
             return link;
         }
@@ -68,6 +73,17 @@ final class StreamFramer {
             end[b] = b + 1 < starts.length ? starts[b + 1] : link.bits();
         }
         return new SampledLink(link.lanes(), link.bits(), starts, end, starts.length, link.idleLevel(), "streaming", link.idleRunBits());
+    }
+
+    /** The best scoring candidate not inside a header ({@link #insideHeader}), or null; sorts {@code ranked}, best first. */
+    static Candidate best(java.util.List<Candidate> ranked) {
+        ranked.sort(java.util.Comparator.comparingDouble(Candidate::score).reversed());
+        for (Candidate c : ranked) {
+            if (!insideHeader(c, ranked)) {
+                return c;
+            }
+        }
+        return null;
     }
 
     /** A sync candidate: the pattern, its occurrences, its score and the word length its cut makes whole. */
@@ -102,13 +118,78 @@ final class StreamFramer {
             for (int len = pattern.length; len >= left + WINDOW_BITS; len--) {
                 boolean[] p = Arrays.copyOf(pattern, len);
                 int[] at = among(lane, n, core, left, p);
-                double score = score(at, len);
-                if (score > MIN_OCCURRENCES) {
-                    out.add(new Candidate(p, at, score, wordBits(at, len)));
+                // chance occurrences of the window in the data may have stopped the extension short of the
+                // sync's first bits: extend again over the occurrences of the whole pattern
+                int more = Math.min(SyncFinder.MAX_BITS - len, extend(lane, n, at, -1, 0, LEFT_AGREEMENT));
+                if (more > 0) {
+                    boolean[] q = new boolean[more + len];
+                    for (int j = 0; j < more; j++) {
+                        q[j] = majority(lane, n, at, j - more);
+                    }
+                    System.arraycopy(p, 0, q, more, len);
+                    at = among(lane, n, at, more, q);
+                    p = q;
+                }
+                double score = score(at, p.length, n);
+                if (at.length >= MIN_OCCURRENCES && score > 0) {
+                    out.add(new Candidate(p, at, score, wordBits(at, p.length, n)));
                 }
             }
         }
         return out;
+    }
+
+    /** The majority bit at {@code offset} from the occurrences (a tie gives a zero, as in {@link #pattern}). */
+    private static boolean majority(long[] lane, int n, int[] at, int offset) {
+        int ones = 0;
+        int seen = 0;
+        for (int a : at) {
+            int i = a + offset;
+            if (i >= 0 && i < n) {
+                seen++;
+                ones += (int) (lane[i >>> 6] >>> i & 1L);
+            }
+        }
+        return 2 * ones > seen;
+    }
+
+    /**
+     * Whether the candidate sits inside a burst's header: one of the best {@link #HEADER_RIVALS}
+     * candidates occurs within {@link SyncFinder#MAX_BITS} bits before nearly every occurrence of
+     * it ({@link #HEADER_SHARE}), and not the other way round. A pattern of the header (a run of
+     * zeros in a length field, say) recurs once a burst just as the sync does and cuts the stream
+     * into the same lengths, a word or two late; before the real sync lies the end of the previous
+     * burst, where no pattern recurs at a fixed distance.
+     */
+    private static boolean insideHeader(Candidate c, java.util.List<Candidate> ranked) {
+        for (int r = 0; r < Math.min(HEADER_RIVALS, ranked.size()); r++) {
+            Candidate a = ranked.get(r);
+            if (a != c && follows(c.at(), a.at(), a.pattern().length) >= HEADER_SHARE
+                    && follows(a.at(), c.at(), c.pattern().length) < HEADER_SHARE) {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    /**
+     * Share of the occurrences {@code at} that an occurrence of {@code before} (a pattern of
+     * {@code beforeBits}) precedes, ending at or before it and starting at most
+     * {@link SyncFinder#MAX_BITS} bits before it (an overlapping pattern is the same marker cut at
+     * another bit, not a header's sync).
+     */
+    static double follows(int[] at, int[] before, int beforeBits) {
+        int hit = 0;
+        int j = -1;
+        for (int a : at) {
+            while (j + 1 < before.length && before[j + 1] + beforeBits <= a) {
+                j++;
+            }
+            if (j >= 0 && a - before[j] <= SyncFinder.MAX_BITS) {
+                hit++;
+            }
+        }
+        return at.length == 0 ? 0 : hit / (double) at.length;
     }
 
     /**
@@ -205,8 +286,8 @@ final class StreamFramer {
      * a frame marker recurs at the frame period; the whole-word test is the divisibility one of
      * {@link WordLengthFinder}).
      */
-    private static double score(int[] at, int len) {
-        return pieceStats(at, len)[0];
+    private static double score(int[] at, int len, int n) {
+        return pieceStats(at, len, n)[0];
     }
 
     /** Pieces of one length that count as separate tests of divisibility at most. */
@@ -216,8 +297,8 @@ final class StreamFramer {
     static final double UNIT_SHARE = 0.95;
 
     /** The shortest word length that makes nearly as many pieces whole as the best one. */
-    private static int wordBits(int[] at, int len) {
-        return (int) pieceStats(at, len)[1];
+    private static int wordBits(int[] at, int len, int n) {
+        return (int) pieceStats(at, len, n)[1];
     }
 
     /**
@@ -241,7 +322,7 @@ final class StreamFramer {
     }
 
     /** {score, word length}: see {@link #score}. */
-    private static double[] pieceStats(int[] at, int len) {
+    private static double[] pieceStats(int[] at, int len, int n) {
         int pieces = 0;
         int[] whole = new int[WordLengthFinder.MAX_BITS + 1];
         int[] payloads = new int[Math.max(0, at.length - 1)];
@@ -260,7 +341,6 @@ final class StreamFramer {
         Arrays.sort(payloads, 0, pieces);
         double weight = 0;
         double[] weightWhole = new double[WordLengthFinder.MAX_BITS + 1];
-        long spanned = 0;
         long recurring = 0;
         for (int i = 0, j; i < pieces; i = j) {
             j = i;
@@ -268,8 +348,7 @@ final class StreamFramer {
                 j++;
             }
             int same = j - i;
-            spanned += (long) same * (payloads[i] + len);
-            recurring += same > 1 ? (long) same * (payloads[i] + len) : 0;
+            recurring += same >= DISTINCT_WEIGHT_CAP ? (long) same * (payloads[i] + len) : 0;
             double wt = Math.min(same, DISTINCT_WEIGHT_CAP);
             weight += wt;
             for (int w = WordLengthFinder.MIN_BITS; w <= WordLengthFinder.MAX_BITS; w++) {
@@ -292,8 +371,7 @@ final class StreamFramer {
                 unit = w;
             }
         }
-        double coverage = spanned == 0 ? 0 : recurring / (double) spanned;
-        return new double[] {pieces * best * coverage, unit};
+        return new double[] {best * recurring / (double) n, unit};
     }
 
     /** Starts of the non-overlapping exact occurrences of the pattern in the first {@code n} bits. */
