@@ -5,13 +5,21 @@ import java.util.Arrays;
 /**
  * Frames a streaming link (the clock never pauses and the lanes never idle) by its sync. The
  * {@link #CANDIDATES} {@link #WINDOW_BITS}-bit values that occur most often on lane 0 are each
- * extended left and right while at least {@link #AGREEMENT} of their occurrences agree bit by bit
- * (the bits before a sync are the end of the previous burst and vary, so the extension stops at
- * the sync's first bit); the pattern whose occurrences cut the stream into pieces of whole words
- * ({@link #score}) is the sync, and the stream is cut at every exact occurrence of it. Frequency
- * alone does not do: a smooth picture repeats its bit patterns more often than bursts start. The
- * piece before the first occurrence (a capture that starts mid-burst) is dropped. A link whose
- * sync is shorter than the window, or has none, stays one burst.
+ * extended right while at least {@link #AGREEMENT} of their occurrences agree bit by bit, and
+ * left while nearly all do ({@link #LEFT_AGREEMENT}: the bits before a sync end the previous
+ * burst and vary, so the extension stops at the sync's first bit); each pattern and its shorter
+ * heads is a candidate, scored by the burst-length distribution its cut yields ({@link #score}:
+ * pieces of whole words, and nearly all of the stream in pieces whose length recurs). Frequency
+ * alone does not do, nor does the number of whole pieces: a picture repeats its bit patterns far
+ * more often than bursts start (a flat area repeats its pixel every few bits) and cuts the stream
+ * into many short pieces of whole words, but at spacings that follow the picture, not a frame. A
+ * candidate that another one precedes at a header's distance in nearly every burst is a pattern
+ * of the header, not the sync ({@link #insideHeader}); a head of the best that occurs in clearly
+ * more places and cuts nearly as well is taken instead ({@link #widestHead}). The stream is cut at every exact
+ * occurrence of the best candidate where the piece since the last cut is whole words; the piece
+ * before the first occurrence (a capture that starts mid-burst) is dropped. A link with no
+ * pattern of at least {@link #WINDOW_BITS} bits that recurs {@link #MIN_OCCURRENCES} times stays
+ * one burst.
  */
 final class StreamFramer {
     static final int WINDOW_BITS = 16;
@@ -80,17 +88,41 @@ final class StreamFramer {
         ranked.sort(java.util.Comparator.comparingDouble(Candidate::score).reversed());
         for (Candidate c : ranked) {
             if (!insideHeader(c, ranked)) {
-                return c;
+                return widestHead(c, ranked);
             }
         }
         return null;
+    }
+
+    /** More occurrences a head needs, as a share of the longer pattern's, to be preferred ({@link #widestHead}). */
+    static final double HEAD_MORE = 0.1;
+    /** Share of the longer pattern's score a head preferred for its occurrences must reach. */
+    static final double HEAD_SCORE_SHARE = 0.75;
+
+    /**
+     * The head of {@code c} (a shorter candidate that starts where it does) that occurs in the most
+     * places, at least {@link #HEAD_MORE} more than {@code c}, with a score of at least
+     * {@link #HEAD_SCORE_SHARE} of its score; else {@code c}. The pattern may run on into the
+     * leading word the data bursts share, and the data bursts, all of one length, then frame most of
+     * the stream alone; the sync begins the commands as well.
+     */
+    private static Candidate widestHead(Candidate c, java.util.List<Candidate> ranked) {
+        Candidate best = c;
+        for (Candidate h : ranked) {
+            if (h.pattern().length < c.pattern().length && h.at().length >= (1 + HEAD_MORE) * c.at().length
+                    && h.at().length > best.at().length && h.score() >= HEAD_SCORE_SHARE * c.score()
+                    && Arrays.equals(h.pattern(), Arrays.copyOf(c.pattern(), h.pattern().length))) {
+                best = h;
+            }
+        }
+        return best;
     }
 
     /** A sync candidate: the pattern, its occurrences, its score and the word length its cut makes whole. */
     record Candidate(boolean[] pattern, int[] at, double score, int wordBits) {
     }
 
-    /** Every scored candidate above {@link #MIN_OCCURRENCES}, in the order tried ({@code counts} is used up). */
+    /** Every candidate with {@link #MIN_OCCURRENCES} occurrences and a positive score, in the order tried ({@code counts} is used up). */
     static java.util.List<Candidate> rank(long[] lane, int n, int[] counts) {
         java.util.List<Candidate> out = new java.util.ArrayList<>();
         int[] tops = new int[CANDIDATES];
@@ -267,7 +299,9 @@ final class StreamFramer {
     }
 
     /**
-     * How well cutting at these occurrences frames the stream, the piece count times two shares.
+     * How well cutting at these occurrences frames the {@code n} bits searched: the product of two
+     * shares, between 0 and 1, that do not grow with the number of pieces (a pattern of the
+     * picture has far more pieces than there are bursts).
      * <ul>
      * <li>Whole words: the pieces between occurrences carry whole words after the pattern, so for
      * the right word length every piece length is whole, while a word length divides the lengths
@@ -280,7 +314,11 @@ final class StreamFramer {
      * number of pixels, the commands a few parameter counts), so cut at the sync nearly every bit
      * lies in a piece whose length occurs again, while a pattern of the picture recurs at spacings
      * that follow the picture (a flat area: one pixel apart, then once in a long irregular gap):
-     * the share of the spanned bits that lie in pieces of a recurring length.
+     * the share of the {@code n} bits that lie in pieces whose length occurs at least
+     * {@link #DISTINCT_WEIGHT_CAP} times (twice can be chance; a pattern with few occurrences
+     * covers little of the stream), counted on the cut {@link #frame} would make: after
+     * {@link #wholeCuts} has dropped the chance occurrences of the pattern inside data, which
+     * would split data bursts into pieces of lengths that never recur.
      * </ul>
      * Together they are a test of the burst-length distribution the cut yields (common practice:
      * a frame marker recurs at the frame period; the whole-word test is the divisibility one of
@@ -288,6 +326,24 @@ final class StreamFramer {
      */
     private static double score(int[] at, int len, int n) {
         return pieceStats(at, len, n)[0];
+    }
+
+    /** Bits in the pieces between consecutive cuts whose length occurs at least {@link #DISTINCT_WEIGHT_CAP} times. */
+    private static long recurringBits(int[] cuts) {
+        int[] lengths = new int[Math.max(0, cuts.length - 1)];
+        for (int b = 0; b + 1 < cuts.length; b++) {
+            lengths[b] = cuts[b + 1] - cuts[b];
+        }
+        Arrays.sort(lengths);
+        long bits = 0;
+        for (int i = 0, j; i < lengths.length; i = j) {
+            j = i;
+            while (j < lengths.length && lengths[j] == lengths[i]) {
+                j++;
+            }
+            bits += j - i >= DISTINCT_WEIGHT_CAP ? (long) (j - i) * lengths[i] : 0;
+        }
+        return bits;
     }
 
     /** Pieces of one length that count as separate tests of divisibility at most. */
@@ -341,14 +397,12 @@ final class StreamFramer {
         Arrays.sort(payloads, 0, pieces);
         double weight = 0;
         double[] weightWhole = new double[WordLengthFinder.MAX_BITS + 1];
-        long recurring = 0;
         for (int i = 0, j; i < pieces; i = j) {
             j = i;
             while (j < pieces && payloads[j] == payloads[i]) {
                 j++;
             }
             int same = j - i;
-            recurring += same >= DISTINCT_WEIGHT_CAP ? (long) same * (payloads[i] + len) : 0;
             double wt = Math.min(same, DISTINCT_WEIGHT_CAP);
             weight += wt;
             for (int w = WordLengthFinder.MIN_BITS; w <= WordLengthFinder.MAX_BITS; w++) {
@@ -371,7 +425,7 @@ final class StreamFramer {
                 unit = w;
             }
         }
-        return new double[] {best * recurring / (double) n, unit};
+        return new double[] {unit == 0 ? 0 : best * recurringBits(wholeCuts(at, len, unit)) / (double) n, unit};
     }
 
     /** Starts of the non-overlapping exact occurrences of the pattern in the first {@code n} bits. */
