@@ -18,8 +18,8 @@ import org.lanesift.json.JsonValue;
  * {@code find-format} on the logic captures the runner reads gives the hypotheses of the VCD path,
  * and the chain it generates cuts the same words: the bundled strip capture
  * (examples/strip/strip.vcd: CLK, D0, D1) is sampled here as a logic analyser would, at 16 GS/s
- * (62.5 ps, 1/128 of the 8 ns clock period, so that the sample grid stays within one bin of the
- * clocking histogram), and written as a packed logic8 export with its sidecar (other bits of the
+ * (62.5 ps, 1/128 of the 8 ns clock period, within one bin of the clocking histogram) and at an
+ * ordinary logic analyser's 2.5 GS/s (the grid five bins wide, ClockFinder.grid), and written as a packed logic8 export with its sidecar (other bits of the
  * byte random), as a capture set of two logic8 acquisitions sharing D0 (docs/capture-set.md), and
  * as a logic CSV of 0/1 columns (read as volts; each signal through a receiver against its
  * mid-level). Invented test data: the strip link is the demo scenario's.
@@ -37,38 +37,53 @@ class FindFormatLogicCapturesTest {
 
     @BeforeAll
     static void samplesAndVcdRun() throws IOException {
-        long[][] t = new long[FindFormatCapturesTest.SIGNALS.length][];
-        long endFs = FindFormatCapturesTest.readVcd(t);
-        int n = (int) (endFs / STEP_FS) + 1;
-        levels = new boolean[t.length][n];
-        for (int k = 0; k < t.length; k++) {
-            int next = 0;
-            boolean level = false; // every signal starts low and toggles at each listed time
-            for (int i = 0; i < n; i++) {
-                while (next < t[k].length && t[k][next] <= i * STEP_FS) {
-                    level = !level;
-                    next++;
-                }
-                levels[k][i] = level;
-            }
-        }
+        levels = sample(STEP_FS);
         vcd = FindFormatCapturesTest.run("--capture", FindFormatCapturesTest.STRIP.toString(), "--clock", "CLK", "--lanes", "D0,D1",
                 "--out", tmp.resolve("vcd").toString());
         vcdWords = words("vcd");
         assertTrue(vcdWords.size() > 3000, "words: " + vcdWords.size());
     }
 
+    /** Levels of CLK, D0, D1 at every sample of a grid of {@code stepFs}, from the VCD. */
+    static boolean[][] sample(long stepFs) throws IOException {
+        long[][] t = new long[FindFormatCapturesTest.SIGNALS.length][];
+        long endFs = FindFormatCapturesTest.readVcd(t);
+        int n = (int) (endFs / stepFs) + 1;
+        boolean[][] out = new boolean[t.length][n];
+        for (int k = 0; k < t.length; k++) {
+            int next = 0;
+            boolean level = false; // every signal starts low and toggles at each listed time
+            for (int i = 0; i < n; i++) {
+                while (next < t[k].length && t[k][next] <= i * stepFs) {
+                    level = !level;
+                    next++;
+                }
+                out[k][i] = level;
+            }
+        }
+        return out;
+    }
+
     @Test
     void packedLogicGivesTheHypothesesAndWordsOfTheVcd() throws IOException {
         Path bin = tmp.resolve("strip.bin");
-        writeLogic8(bin, new int[] {0, 1, 2}, new int[] {2, 5, 0}, 11);
+        writeLogic8(bin, levels, RATE_HZ, new int[] {0, 1, 2}, new int[] {2, 5, 0}, 11);
         assertSameAsVcd("packed", bin);
     }
 
     @Test
+    void packedLogicAtAnOrdinaryRateGivesTheHypothesesAndWordsOfTheVcd() throws IOException {
+        // 2.5 GS/s: 20 samples per 8 ns clock period, 10 per 4 ns unit interval; each slot
+        // boundary's phases fall on grid values 5 histogram bins apart (ClockFinder.grid)
+        Path bin = tmp.resolve("strip-2g5.bin");
+        writeLogic8(bin, sample(400_000), 2.5e9, new int[] {0, 1, 2}, new int[] {0, 1, 2}, 14);
+        assertSameAsVcd("packed-2g5", bin);
+    }
+
+    @Test
     void captureSetOfTwoAcquisitionsGivesTheHypothesesAndWordsOfTheVcd() throws IOException {
-        writeLogic8(tmp.resolve("a1.bin"), new int[] {0, 1}, new int[] {0, 1}, 12);
-        writeLogic8(tmp.resolve("a2.bin"), new int[] {1, 2}, new int[] {0, 1}, 13);
+        writeLogic8(tmp.resolve("a1.bin"), levels, RATE_HZ, new int[] {0, 1}, new int[] {0, 1}, 12);
+        writeLogic8(tmp.resolve("a2.bin"), levels, RATE_HZ, new int[] {1, 2}, new int[] {0, 1}, 13);
         Path set = tmp.resolve("strip.set.json");
         Files.writeString(set, "{\"format\": \"lanesift-capture-set/1\", \"shared\": \"D0\", \"acquisitions\": ["
                 + "{\"name\": \"a1\", \"file\": \"a1.bin\"}, {\"name\": \"a2\", \"file\": \"a2.bin\"}]}");
@@ -112,12 +127,12 @@ class FindFormatLogicCapturesTest {
         return FindFormatCapturesTest.words(tmp, name);
     }
 
-    /** Signals {@code signals} (0 CLK, 1 D0, 2 D1) as bits {@code bits} of a logic8 export; the other bits random. */
-    private static void writeLogic8(Path bin, int[] signals, int[] bits, long seed) throws IOException {
+    /** Signals {@code signals} (0 CLK, 1 D0, 2 D1) of {@code levels} as bits {@code bits} of a logic8 export; the other bits random. */
+    private static void writeLogic8(Path bin, boolean[][] levels, double rateHz, int[] signals, int[] bits, long seed) throws IOException {
         int n = levels[0].length;
         byte[] b = new byte[n];
         new Random(seed).nextBytes(b);
-        StringBuilder sidecar = new StringBuilder("{\"rateHz\": " + RATE_HZ + ", \"format\": \"logic8\", \"channels\": [");
+        StringBuilder sidecar = new StringBuilder("{\"rateHz\": " + rateHz + ", \"format\": \"logic8\", \"channels\": [");
         for (int s = 0; s < signals.length; s++) {
             int m = 1 << bits[s];
             boolean[] v = levels[signals[s]];

@@ -16,6 +16,10 @@ final class ClockFinder {
     static final double STEADY_TOLERANCE = 0.1;
     /** Share of steady periods (pauses aside) below which the signal is refused as a clock. */
     static final double MIN_STEADY_SHARE = 0.9;
+    /** Transitions whose offsets from the clock are examined for a sample grid. */
+    static final int GRID_SAMPLE = 8192;
+    /** Offsets closer than this are one grid value (grids of a fractional number of fs round). */
+    static final long GRID_TOLERANCE_FS = 2;
 
     private ClockFinder() {
     }
@@ -56,6 +60,8 @@ final class ClockFinder {
         double duty = duty(risingFs, nRising, fallingFs, nFalling, period);
         long[] hist = new long[BINS];
         long total = 0;
+        long[] offsets = new long[GRID_SAMPLE];
+        int nOffsets = 0;
         for (int k = 0; k < laneEdgesFs.length; k++) {
             long[] t = laneEdgesFs[k];
             int r = 0;
@@ -76,20 +82,79 @@ final class ClockFinder {
                 }
                 hist[(int) (ph * BINS) % BINS]++;
                 total++;
+                if (nOffsets < GRID_SAMPLE) {
+                    offsets[nOffsets++] = t[i] - risingFs[r];
+                }
             }
         }
         if (total < 32) {
             throw new InputFormatException("data lanes: " + total + " transitions inside running clock periods; at least 32 expected "
                     + "(are the lanes and the clock from the same link?)");
         }
-        return clusters(hist, total, period, duty, stops);
+        double gridFs = grid(offsets, nOffsets, period);
+        int reach = Math.max(1, (int) Math.ceil(gridFs / period * BINS / 2));
+        return clusters(hist, total, period, duty, stops, reach);
     }
 
-    private static Clocking clusters(long[] hist, long total, double period, double duty, int stops) {
+    /**
+     * The sample grid the edge times lie on, as seen in the offsets of data transitions from their
+     * clock edge: a logic capture (or a VCD with a coarse timescale) gives offsets that are whole
+     * multiples of one step, so the phases of one slot boundary fall on a few values one step
+     * apart, with empty histogram bins between them when the step is wider than a bin. Offsets on
+     * a grid repeat (at most a quarter of them distinct, or there is no grid to speak of). The step
+     * is the smallest difference between distinct offsets, taken as a grid only when nearly every
+     * difference is a whole multiple of it (within {@link #GRID_TOLERANCE_FS}, for grids that are
+     * not a whole number of femtoseconds) and it is at most 1/8 of the clock period; otherwise 0.
+     *
+     * @param offsets  offsets of data transitions from the rising clock edge before them, fs
+     * @param n        how many
+     * @param periodFs the clock period, fs
+     * @return the grid step in fs, or 0 when the times show none worth widening the clusters for
+     */
+    static double grid(long[] offsets, int n, double periodFs) {
+        long[] v = Arrays.copyOf(offsets, n);
+        Arrays.sort(v);
+        long[] d = new long[n];
+        int m = 0;
+        long last = n > 0 ? v[0] : 0;
+        for (int i = 1; i < n; i++) {
+            if (v[i] - last > GRID_TOLERANCE_FS) {
+                d[m++] = v[i] - last;
+                last = v[i];
+            }
+        }
+        if (m < 1 || 4L * (m + 1) > n) {
+            return 0; // one offset value, or offsets that seldom repeat: times off any grid
+        }
+        long step = Long.MAX_VALUE;
+        for (int i = 0; i < m; i++) {
+            step = Math.min(step, d[i]);
+        }
+        if (step > periodFs / 8) {
+            return 0;
+        }
+        int onGrid = 0;
+        for (int i = 0; i < m; i++) {
+            long k = Math.round(d[i] / (double) step);
+            if (Math.abs(d[i] - k * step) <= GRID_TOLERANCE_FS * k) {
+                onGrid++;
+            }
+        }
+        return onGrid >= 0.9 * m ? step : 0;
+    }
+
+    /**
+     * @param reach half-width of the smoothing window in bins: 1, or half the sample grid's step
+     *              where the edges lie on a grid coarser than a bin, so that the spikes one step
+     *              apart of one slot boundary make one cluster
+     */
+    private static Clocking clusters(long[] hist, long total, double period, double duty, int stops, int reach) {
         long[] smooth = new long[BINS];
         long max = 0;
         for (int b = 0; b < BINS; b++) {
-            smooth[b] = hist[(b + BINS - 1) % BINS] + hist[b] + hist[(b + 1) % BINS];
+            for (int j = -reach; j <= reach; j++) {
+                smooth[b] += hist[(b + j + BINS) % BINS];
+            }
             max = Math.max(max, smooth[b]);
         }
         long thr = Math.max(1, max / 8);
@@ -124,7 +189,7 @@ final class ClockFinder {
                     c = (c + 1) % BINS;
                 }
                 centres[n] = (s > 0 ? sw / s : b + len / 2.0) / BINS % 1.0;
-                widths[n] = len / (double) BINS;
+                widths[n] = Math.max(1, len - 2 * (reach - 1)) / (double) BINS;
                 n++;
                 step += len - 1;
                 b = (c + BINS - 1) % BINS;
