@@ -149,7 +149,7 @@ public final class BenchTool implements Tool {
             out.printf(Locale.ROOT, "  %-34s %6.1f %%%s%n", names[i].replace("+ ", ""), 100 * share,
                     share < 0 ? "  (negative: within the run-to-run noise of this machine)" : "");
         }
-        out.printf(Locale.ROOT, "whole chain: %.1f M samples/s per channel, ratio to the sequential read %.4f (target 0.10); "
+        out.printf(Locale.ROOT, "whole chain: %.1f M samples/s per channel, ratio to the sequential read %.4f (target 0.5); "
                 + "the capture itself holds %d MB of the heap%n", n / secs[3] / 1e6, (n / secs[3]) / readRate, need >> 20);
         if (cpuTimeAvailable()) {
             // CPU seconds of the chain's thread: what other processes on a shared machine take does not count
