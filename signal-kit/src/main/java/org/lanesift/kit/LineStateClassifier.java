@@ -48,6 +48,26 @@ public final class LineStateClassifier {
     }
 
     /**
+     * The state of sample pair {@code ip}/{@code in} of two leg blocks: {@link LineState#INVALID}
+     * where either sample is marked invalid (the leg's reading is then kept), else
+     * {@link #classify(float, float)}.
+     *
+     * @param p        positive leg samples
+     * @param ip       index of the positive sample
+     * @param pInvalid validity mask of the positive block (bit i set: sample i invalid) or null
+     * @param n        negative leg samples
+     * @param in       index of the negative sample
+     * @param nInvalid validity mask of the negative block or null
+     * @return the state of this sample pair
+     */
+    public LineState classify(float[] p, int ip, long[] pInvalid, float[] n, int in, long[] nInvalid) {
+        if (pInvalid != null && (pInvalid[ip >>> 6] >>> ip & 1L) != 0 || nInvalid != null && (nInvalid[in >>> 6] >>> in & 1L) != 0) {
+            return LineState.INVALID;
+        }
+        return classify(p[ip], n[in]);
+    }
+
+    /**
      * @param vp positive leg, volts
      * @param vn negative leg, volts
      * @return the state of this sample pair

@@ -2,6 +2,7 @@ package org.lanesift.plugins.discovery;
 
 import org.lanesift.kit.LineState;
 import org.lanesift.kit.LineStateClassifier;
+import org.lanesift.kit.LineStateFilter;
 import org.lanesift.kit.LegPairs;
 
 /**
@@ -9,7 +10,8 @@ import org.lanesift.kit.LegPairs;
  * legs: LP-11 (stop), LP-01 (request), LP-00 (bridge), then high speed
  * (docs/reference-facts.md#d-phy-levels-and-states). Each sample pair is classified with
  * signal-kit's {@link LineStateClassifier} (the thresholds the {@code packet-link} decoder uses);
- * a state counts once it has lasted {@link LineStateClassifier#DEFAULT_MIN_STATE_FS}. It counts
+ * a state counts once it has lasted {@link LineStateClassifier#DEFAULT_MIN_STATE_FS}
+ * ({@link LineStateFilter}, as in the decoder). It counts
  * the high-speed intervals and how many were entered through the whole sequence, the time spent in
  * each state, the legs' mean levels in the stop state and the high-speed common mode, and the
  * mean durations of LP-01 and LP-00 before an entry. Memory: counters only.
@@ -17,9 +19,7 @@ import org.lanesift.kit.LegPairs;
 final class LineStatePattern implements LegPairs.Sink {
     private final LineStateClassifier levels = LineStateClassifier.dphy();
     private final LegPairs pairs = new LegPairs(this);
-    private LineState committed;
-    private LineState candidate;
-    private long candidateStartFs;
+    private final LineStateFilter filter = new LineStateFilter(LineStateClassifier.DEFAULT_MIN_STATE_FS);
     private long lastFs = Long.MIN_VALUE;
     /** States since the last stop state, up to two, with their start times. */
     private final LineState[] since = new LineState[2];
@@ -53,8 +53,7 @@ final class LineStatePattern implements LegPairs.Sink {
             int ip = pOff + i;
             int in = nOff + i;
             long t = t0Fs + Math.round(i * periodFs);
-            LineState s = pInvalid != null && (pInvalid[ip >>> 6] >>> ip & 1L) != 0 || nInvalid != null && (nInvalid[in >>> 6] >>> in & 1L) != 0
-                    ? LineState.INVALID : levels.classify(p[ip], n[in]);
+            LineState s = levels.classify(p, ip, pInvalid, n, in, nInvalid);
             samples++;
             if (s == LineState.LP11) {
                 stopSumVolts += p[ip] + n[in];
@@ -68,26 +67,17 @@ final class LineStatePattern implements LegPairs.Sink {
     }
 
     private void step(LineState s, long t) {
+        LineState committed = filter.committed();
         if (committed != null && lastFs != Long.MIN_VALUE) {
             stateFs[committed.ordinal()] += t - lastFs;
         }
         lastFs = t;
-        if (s == committed) {
-            candidate = null;
-            return;
-        }
-        if (candidate != s) {
-            candidate = s;
-            candidateStartFs = t;
-        }
-        if (t - candidateStartFs >= LineStateClassifier.DEFAULT_MIN_STATE_FS) {
-            commit(s, candidateStartFs);
+        if (filter.step(s, t)) {
+            commit(s, filter.committedStartFs());
         }
     }
 
     private void commit(LineState s, long startFs) {
-        committed = s;
-        candidate = null;
         if (s == LineState.LP11) {
             afterStop = true;
             sinceCount = 0;

@@ -7,6 +7,7 @@ import java.util.Locale;
 import java.util.function.Consumer;
 import org.lanesift.kit.LineState;
 import org.lanesift.kit.LineStateClassifier;
+import org.lanesift.kit.LineStateFilter;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Field;
 import org.lanesift.annotation.Severity;
@@ -51,16 +52,12 @@ final class LaneStateTracker {
     private final int lane;
     private final String track;
     private final LineStateClassifier levels;
-    private final long minStateFs;
+    private final LineStateFilter filter;
     private final Consumer<Annotation> out;
     private final LpdtSink lpdt;
 
-    private LineState committed;
-    private long committedStartFs;
     private long lastMatchEndFs = Long.MIN_VALUE;
     private long lastMatchFs = Long.MIN_VALUE;
-    private LineState candidate;
-    private long candidateStartFs;
     private long processedUntilFs = Long.MIN_VALUE;
 
     private final List<LineState> sequence = new ArrayList<>();
@@ -78,7 +75,7 @@ final class LaneStateTracker {
         this.lane = lane;
         this.track = "lane" + lane + ".state";
         this.levels = new LineStateClassifier(highVolts, lowVolts, cmMinVolts, cmMaxVolts);
-        this.minStateFs = minStateFs;
+        this.filter = new LineStateFilter(minStateFs);
         this.out = out;
         this.lpdt = lpdt;
     }
@@ -100,42 +97,20 @@ final class LaneStateTracker {
         long step = Math.round(periodFs);
         for (int i = 0; i < n; i++) {
             long t = t0Fs + Math.round(i * periodFs);
-            LineState s;
-            int ip = pOff + i;
-            int in = nOff + i;
-            if ((pInvalid != null && (pInvalid[ip >>> 6] & (1L << ip)) != 0) || (nInvalid != null && (nInvalid[in >>> 6] & (1L << in)) != 0)) {
-                s = LineState.INVALID;
-            } else {
-                s = levels.classify(p[ip], nv[in]);
-            }
-            step(s, t, step);
+            step(levels.classify(p, pOff + i, pInvalid, nv, nOff + i, nInvalid), t, step);
         }
     }
 
     private void step(LineState s, long t, long step) {
         processedUntilFs = t + step;
-        if (committed == null) {
-            if (candidate != s) {
-                candidate = s;
-                candidateStartFs = t;
-            }
-            if (t - candidateStartFs >= minStateFs) {
-                commit(s, candidateStartFs, t + step);
-            }
-            return;
-        }
-        if (s == committed) {
+        LineState prev = filter.committed();
+        long prevStart = filter.committedStartFs();
+        if (prev != null && s == prev) {
             lastMatchEndFs = t + step;
             lastMatchFs = t;
-            candidate = null;
-            return;
         }
-        if (candidate != s) {
-            candidate = s;
-            candidateStartFs = t;
-        }
-        if (t - candidateStartFs >= minStateFs) {
-            commit(s, candidateStartFs, t + step);
+        if (filter.step(s, t)) {
+            commit(prev, prevStart, s, filter.committedStartFs(), t + step);
         }
     }
 
@@ -145,25 +120,29 @@ final class LaneStateTracker {
      * start a new state whose start is only known once it has lasted {@code minStateFs}.
      */
     long knownUntilFs() {
-        if (committed == null) {
+        if (filter.committed() == null) {
             return Long.MIN_VALUE;
         }
         return lastMatchFs + 1;
     }
 
-    private void commit(LineState s, long startFs, long matchEndFs) {
-        LineState prev = committed;
-        long prevStart = committedStartFs;
+    /**
+     * A new state was committed by the filter.
+     *
+     * @param prev       the state before it, or null
+     * @param prevStart  start of {@code prev}
+     * @param s          the new state
+     * @param startFs    its start (its first sample)
+     * @param matchEndFs just after the sample that committed it
+     */
+    private void commit(LineState prev, long prevStart, LineState s, long startFs, long matchEndFs) {
         long prevLastSampleFs = lastMatchFs;
         long prevEnd = prev == null ? startFs : Math.min(lastMatchEndFs, startFs);
         if (prev != null) {
             stateSpan(prev, prevStart, prevEnd);
         }
-        committed = s;
-        committedStartFs = startFs;
         lastMatchEndFs = matchEndFs;
         lastMatchFs = matchEndFs - 1;
-        candidate = null;
         if (prev == LineState.HS && open != null) {
             // the burst ends just after its last high-speed sample: bits between that sample and the
             // next state belong to the trail or to the transition and are not used
@@ -321,12 +300,15 @@ final class LaneStateTracker {
 
     /** Ends the capture: closes an open interval and reports the last state. */
     void finish() {
-        if (candidate != null && committed != null && processedUntilFs - candidateStartFs >= minStateFs) {
-            commit(candidate, candidateStartFs, processedUntilFs);
+        LineState prev = filter.committed();
+        long prevStart = filter.committedStartFs();
+        if (filter.flush(processedUntilFs)) {
+            commit(prev, prevStart, filter.committed(), filter.committedStartFs(), processedUntilFs);
         }
-        if (committed != null) {
-            long end = Math.max(committedStartFs, lastMatchEndFs);
-            stateSpan(committed, committedStartFs, end);
+        LineState last = filter.committed();
+        if (last != null) {
+            long end = Math.max(filter.committedStartFs(), lastMatchEndFs);
+            stateSpan(last, filter.committedStartFs(), end);
             if (open != null) {
                 open.endFs = end;
                 open.closed = true;
@@ -338,6 +320,6 @@ final class LaneStateTracker {
     }
 
     LineState committed() {
-        return committed;
+        return filter.committed();
     }
 }
