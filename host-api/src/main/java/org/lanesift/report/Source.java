@@ -40,6 +40,21 @@ public record Source(Kind kind, String detail) {
         public String word() {
             return word;
         }
+
+        /**
+         * The kind a source text starts with, the reverse of {@link Source#text()}.
+         *
+         * @param text a source text, e.g. {@code "given: the offsetsFile skew table"}
+         * @return its kind, or null when it starts with none (a plain citation)
+         */
+        public static Kind of(String text) {
+            for (Kind k : values()) {
+                if (text.startsWith(k.word + ":") || text.equals(k.word)) {
+                    return k;
+                }
+            }
+            return null;
+        }
     }
 
     /**

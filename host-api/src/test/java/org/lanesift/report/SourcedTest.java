@@ -37,4 +37,14 @@ class SourcedTest {
                 new Sourced(75e6, "Hz", Source.measured("on CLK_P")).markdown("clock", "75 MHz"));
         assertEquals("derived", Source.derived("").text());
     }
+
+    @Test
+    void kindIsReadBackFromTheText() {
+        for (Source.Kind k : Source.Kind.values()) {
+            assertEquals(k, Source.Kind.of(new Source(k, "how").text()));
+            assertEquals(k, Source.Kind.of(new Source(k, "").text()));
+        }
+        assertEquals(null, Source.Kind.of("ANSI/TIA/EIA-644-A"));
+        assertEquals(null, Source.Kind.of("measuredly"));
+    }
 }

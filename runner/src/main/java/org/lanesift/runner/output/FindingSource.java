@@ -25,14 +25,14 @@ final class FindingSource {
     static String of(Annotation a) {
         String cited = cited(a);
         if (cited != null && isStandard(cited)) {
-            return Source.measured("").text() + "; limit " + cited;
+            return Source.Kind.MEASURED.word() + "; limit " + cited;
         }
         if (cited != null) {
             return cited;
         }
         for (Field f : a.fields().values()) {
             if (f.type() == Field.Type.NUMBER && f.unit() != null && !f.unit().isEmpty()) {
-                return Source.measured("").text();
+                return Source.Kind.MEASURED.word();
             }
         }
         return "";
@@ -53,11 +53,7 @@ final class FindingSource {
      *         at all (a plain citation of a published limit)
      */
     static boolean isStandard(String text) {
-        for (Source.Kind k : Source.Kind.values()) {
-            if (text.startsWith(k.word() + ":") || text.equals(k.word())) {
-                return k == Source.Kind.STANDARD;
-            }
-        }
-        return true;
+        Source.Kind k = Source.Kind.of(text);
+        return k == null || k == Source.Kind.STANDARD;
     }
 }
