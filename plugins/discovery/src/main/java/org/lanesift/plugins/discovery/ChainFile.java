@@ -40,8 +40,8 @@ final class ChainFile {
             w.field("burstGap", String.format(Locale.ROOT, "%.6gns", 1.5 * h.clocking().periodFs() / 1e6));
         } else if (h.link().burstMode().equals("idle-runs")) {
             w.field("idleBits", h.link().idleRunBits());
-        } else if (restartsAtSync(h)) {
-            w.field("syncRestart", true).field("syncErrors", SyncTolerance.choose(h.link(), h.syncWire(), b.wordBits()).errors());
+        } else if (h.restart() != null) {
+            w.field("syncRestart", true).field("syncErrors", h.restart().errors());
         }
         w.endObject().endObject();
         w.endArray();
@@ -54,11 +54,6 @@ final class ChainFile {
         w.endArray();
         w.endObject();
         return w.finish();
-    }
-
-    /** Whether the generated chain cuts the link at its syncs: a streaming link with a sync. */
-    static boolean restartsAtSync(Hypotheses h) {
-        return h.link().burstMode().equals("streaming") && h.syncBits() > 0;
     }
 
     /** The sync as the framed profile reads it: in the word bit order (msb: the first wire bit is the top bit). */

@@ -88,8 +88,10 @@ public final class DiscoveryEngine {
         List<WordLengthFinder.Candidate> wordOrder = new ArrayList<>(ranked);
         wordOrder.sort(Comparator.comparingInt((WordLengthFinder.Candidate x) -> x.wordBits() == best.wordBits() ? 0 : 1));
         List<MergedBurst> merged = LaneMerger.merge(link, best.syncBits(), best.wordBits(), best.distribution(), MAX_BURSTS);
+        SyncTolerance.Choice restart = link.burstMode().equals("streaming") && s > 0
+                ? SyncTolerance.choose(link, wire.toString(), best.wordBits()) : null;
         return new Hypotheses(c, clockConf, link, s, wire.toString(), syncShare, prefix, wordOrder, framings, best,
-                distinct(pictures), bitAutocorrelation(link, s), entropy(merged, best.wordBits()));
+                distinct(pictures), bitAutocorrelation(link, s), entropy(merged, best.wordBits()), restart);
     }
 
     /** Word lengths tried with bits spread over the lanes on idle-run links (at most this many). */

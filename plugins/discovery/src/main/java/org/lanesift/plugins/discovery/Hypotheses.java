@@ -19,10 +19,13 @@ import java.util.List;
  * @param pictures        candidate pictures, best first
  * @param bitAutocorrelation strongest lags of the payload bit stream's autocorrelation, with their values
  * @param entropyPerPosition entropy (bits) of each wire position within a word, best framing
+ * @param restart         how the generated chain restarts at every sync, for a streaming link
+ *                        with a sync; null otherwise (the bursts are cut at pauses or idle runs)
  */
 record Hypotheses(Clocking clocking, double clockConfidence, SampledLink link, int syncBits, String syncWire, double syncShare,
                          int prefixBits, List<WordLengthFinder.Candidate> wordLengths, List<Framing> framings, Framing best,
-                         List<PictureCandidate> pictures, double[][] bitAutocorrelation, double[] entropyPerPosition) {
+                         List<PictureCandidate> pictures, double[][] bitAutocorrelation, double[] entropyPerPosition,
+                         SyncTolerance.Choice restart) {
 
     /**
      * One framing hypothesis and what it explains.

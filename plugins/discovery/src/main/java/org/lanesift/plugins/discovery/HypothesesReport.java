@@ -35,8 +35,8 @@ final class HypothesesReport {
             w.value(l ? 1 : 0);
         }
         w.endArray();
-        if (ChainFile.restartsAtSync(h)) {
-            SyncTolerance.Choice t = SyncTolerance.choose(h.link(), h.syncWire(), b.wordBits());
+        if (h.restart() != null) {
+            SyncTolerance.Choice t = h.restart();
             w.name("restartAtSync").beginObject().field("syncErrors", t.errors()).field("wordBoundariesExamined", t.boundaries())
                     .field("chancePerBoundary", t.chance()).endObject();
         }
@@ -175,8 +175,8 @@ final class HypothesesReport {
         if (states != null) {
             s.append(lineStates(states));
         }
-        if (ChainFile.restartsAtSync(h)) {
-            SyncTolerance.Choice t = SyncTolerance.choose(h.link(), h.syncWire(), b.wordBits());
+        if (h.restart() != null) {
+            SyncTolerance.Choice t = h.restart();
             s.append(f("The generated chain restarts the word alignment at every sync on a word boundary (`syncRestart`), accepting"
                     + " %d wrong sync bit(s) (`syncErrors`): on random data a word boundary matches that closely with probability"
                     + " %.2g, over the %d word boundaries examined %.2g chance matches are expected%s.\n\n", t.errors(), t.chance(),
