@@ -40,10 +40,7 @@ class CancelRunTest {
         Path c = dir.resolve("chain.json");
         Files.writeString(c, chain);
         Path out = dir.resolve("out");
-        List<String> cmd = List.of(Path.of(System.getProperty("java.home"), "bin", "java").toString(), "-cp",
-                System.getProperty("java.class.path"), "org.lanesift.runner.Main", "run", c.toString(), "--out", out.toString(), "-q");
-        Process p = new ProcessBuilder(cmd).directory(dir.toFile()).redirectErrorStream(true)
-                .redirectOutput(dir.resolve("log.txt").toFile()).start();
+        Process p = startRun(dir, c, out);
         try {
             Poll.until(Duration.ofSeconds(120), "the first picture", () -> !p.isAlive() || !pictures(out).isEmpty());
             assertTrue(p.isAlive(), "the run ended before it could be interrupted: " + log(dir));
@@ -100,9 +97,7 @@ class CancelRunTest {
                 // cap.mon is a by-product (an unwired output of an instance that feeds another): asked for here
                 + " \"outputs\": [\"standard\", \"by-products\"]}\n");
         Path out = dir.resolve("out");
-        Process p = new ProcessBuilder(List.of(Path.of(System.getProperty("java.home"), "bin", "java").toString(), "-cp",
-                System.getProperty("java.class.path"), "org.lanesift.runner.Main", "run", c.toString(), "--out", out.toString(), "-q"))
-                .directory(dir.toFile()).redirectErrorStream(true).redirectOutput(dir.resolve("log.txt").toFile()).start();
+        Process p = startRun(dir, c, out);
         try {
             Poll.until(Duration.ofSeconds(120), "the run writing cap-mon.csv", () -> !p.isAlive() || monitorCsvStarted(out));
             assertTrue(p.isAlive(), "the run ended before it could be interrupted: " + log(dir));
@@ -124,6 +119,13 @@ class CancelRunTest {
     }
 
     /** Sends SIGINT, as Ctrl-C does, and waits for the process to end. */
+    /** Starts {@code lanesift run CHAIN --out OUT -q} in a child JVM, its output to log.txt in {@code dir}. */
+    private static Process startRun(Path dir, Path chain, Path out) throws Exception {
+        List<String> cmd = List.of(Path.of(System.getProperty("java.home"), "bin", "java").toString(), "-cp",
+                System.getProperty("java.class.path"), "org.lanesift.runner.Main", "run", chain.toString(), "--out", out.toString(), "-q");
+        return new ProcessBuilder(cmd).directory(dir.toFile()).redirectErrorStream(true).redirectOutput(dir.resolve("log.txt").toFile()).start();
+    }
+
     private static void interrupt(Process p) throws Exception {
         Process kill = new ProcessBuilder("kill", "-INT", Long.toString(p.pid())).inheritIO().start();
         assertEquals(0, kill.waitFor());
