@@ -63,6 +63,22 @@ public class DifferentialBench {
     @Param({"false", "true"})
     public boolean analogOutputs;
 
+    /**
+     * {@code random}: each bit random (a data lane); {@code clock}: the bit toggles every
+     * {@code samplesPerBit} samples (a clock pair: with 12, nearly the DDR capture's clock edge every
+     * 12.5 samples of bench/scripts/ddr-capture.py).
+     */
+    @Param({"random"})
+    public String pattern;
+
+    /**
+     * {@code on}: the default options (window statistics every {@code statsStride} samples, learned
+     * hysteresis, level report); {@code off}: levelReport=false, a given threshold (0 V) and hysteresis, so no window
+     * statistics are taken and the comparator runs alone (the difference is the statistics' cost).
+     */
+    @Param({"on"})
+    public String statistics;
+
     float[][] p = new float[BLOCKS][];
     float[][] n = new float[BLOCKS][];
     Stage stage;
@@ -80,7 +96,7 @@ public class DifferentialBench {
             n[b] = new float[N];
             for (int i = 0; i < N; i++) {
                 if (((long) b * N + i) % samplesPerBit == 0) {
-                    bit = r.nextBoolean();
+                    bit = pattern.equals("clock") ? !bit : r.nextBoolean();
                 }
                 double target = bit ? 0.175 : -0.175;
                 level += (target - level) * 0.45; // first-order edge, about 4 samples 10-90 %
@@ -89,7 +105,14 @@ public class DifferentialBench {
                 n[b][i] = (float) (1.2 - d / 2);
             }
         }
-        open(Map.of("statsStride", statsStride, "diffOutput", analogOutputs, "commonOutput", analogOutputs));
+        Map<String, Object> o = new java.util.HashMap<>(Map.of("statsStride", statsStride, "diffOutput", analogOutputs,
+                "commonOutput", analogOutputs));
+        if (statistics.equals("off")) {
+            o.put("levelReport", false);
+            o.put("thresholdVolts", 0.0);
+            o.put("hysteresisVolts", 0.035);
+        }
+        open(o);
     }
 
     void open(Map<String, ?> options) throws Exception {
