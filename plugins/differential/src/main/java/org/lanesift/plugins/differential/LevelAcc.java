@@ -25,10 +25,6 @@ final class LevelAcc {
     final double[] sqRaw = new double[2];
     final double[] cqRaw = new double[2];
     long samples;
-    /** Samples gathered per state before their sums are taken. */
-    private static final int BATCH = 256;
-    /** Chunk indices of the samples that count, state 0 from 0 and state 1 from {@link #BATCH}. */
-    private final int[] taken = new int[2 * BATCH];
     long invalid;
     long startIndex;
     long endIndex;
@@ -61,45 +57,113 @@ final class LevelAcc {
     void add(float[] a, int ao, float[] b, int bo, long base, int s0, int s1, long[] bits, long[] inv, float thr,
              float half, float settled, int stride, float maxAbsVolts) {
         samples += s1 - s0;
-        int[] ix = taken;
+        // accumulate in locals (registers), in the same order as one sample at a time, and write back once, so the
+        // sums do not depend on where the segments start
+        long n0 = n[0];
+        long n1 = n[1];
+        double sum0 = sum[0];
+        double sum1 = sum[1];
+        double sq0 = sq[0];
+        double sq1 = sq[1];
+        double cm0 = cmSum[0];
+        double cm1 = cmSum[1];
+        double cq0 = cmSq[0];
+        double cq1 = cmSq[1];
+        double min0 = min[0];
+        double min1 = min[1];
+        double max0 = max[0];
+        double max1 = max[1];
+        long r0 = nRaw[0];
+        long r1 = nRaw[1];
+        double rs0 = sumRaw[0];
+        double rs1 = sumRaw[1];
+        double rc0 = cmRaw[0];
+        double rc1 = cmRaw[1];
+        double rq0 = sqRaw[0];
+        double rq1 = sqRaw[1];
+        double rcq0 = cqRaw[0];
+        double rcq1 = cqRaw[1];
         // one sample per run of stride samples, at the run's hashed offset (runs counted from the stream start)
         long from = base + s0;
         long to = base + s1;
-        long run = Math.floorDiv(from, stride);
-        boolean more = true;
-        while (more) {
-            // pass 1: the chunk indices of the samples that count, split by comparator state without a branch
-            // on it (random data makes it a coin toss), each state's in stream order
-            int c0 = 0;
-            int c1 = 0;
-            while (c0 < BATCH && c1 < BATCH) {
-                long k = run * stride + DitheredStride.offset(run, stride);
-                run++;
-                if (k < from) {
-                    continue;
-                }
-                if (k >= to) {
-                    more = false;
-                    break;
-                }
-                int i = (int) (k - base);
-                if (inv != null && (inv[i >>> 6] & (1L << i)) != 0) {
-                    continue;
-                }
-                float d = b == null ? a[ao + i] : a[ao + i] - b[bo + i];
-                if (Math.abs(d - thr) < half || Math.abs(d) > maxAbsVolts) {
-                    continue;
-                }
-                int high = (int) (bits[i >>> 6] >>> i) & 1;
-                ix[c0] = i;
-                ix[BATCH + c1] = i;
-                c0 += 1 - high;
-                c1 += high;
+        for (long run = Math.floorDiv(from, stride); ; run++) {
+            long k = run * stride + DitheredStride.offset(run, stride);
+            if (k < from) {
+                continue;
             }
-            // pass 2: each state's sums in the same order as one sample at a time, so they are the same
-            // whichever way the samples were cut into segments and batches
-            accumulate(0, ix, 0, c0, a, ao, b, bo, thr, settled);
-            accumulate(1, ix, BATCH, c1, a, ao, b, bo, thr, settled);
+            if (k >= to) {
+                break;
+            }
+            int i = (int) (k - base);
+            if (inv != null && (inv[i >>> 6] & (1L << i)) != 0) {
+                continue;
+            }
+            float x = a[ao + i];
+            float y = b == null ? 0f : b[bo + i];
+            float d = b == null ? x : x - y;
+            float dist = Math.abs(d - thr);
+            if (dist < half || Math.abs(d) > maxAbsVolts) {
+                continue;
+            }
+            double cm = 0.5 * ((double) x + y);
+            boolean isSettled = dist >= settled;
+            if ((bits[i >>> 6] & (1L << i)) != 0) {
+                r1++;
+                rs1 += d;
+                rc1 += cm;
+                rq1 += (double) d * d;
+                rcq1 += cm * cm;
+                min1 = d < min1 ? d : min1;
+                max1 = d > max1 ? d : max1;
+                if (isSettled) {
+                    n1++;
+                    sum1 += d;
+                    sq1 += (double) d * d;
+                    cm1 += cm;
+                    cq1 += cm * cm;
+                }
+            } else {
+                r0++;
+                rs0 += d;
+                rc0 += cm;
+                rq0 += (double) d * d;
+                rcq0 += cm * cm;
+                min0 = d < min0 ? d : min0;
+                max0 = d > max0 ? d : max0;
+                if (isSettled) {
+                    n0++;
+                    sum0 += d;
+                    sq0 += (double) d * d;
+                    cm0 += cm;
+                    cq0 += cm * cm;
+                }
+            }
+        }
+        nRaw[0] = r0;
+        nRaw[1] = r1;
+        sumRaw[0] = rs0;
+        sumRaw[1] = rs1;
+        cmRaw[0] = rc0;
+        cmRaw[1] = rc1;
+        sqRaw[0] = rq0;
+        sqRaw[1] = rq1;
+        cqRaw[0] = rcq0;
+        cqRaw[1] = rcq1;
+        n[0] = n0;
+        n[1] = n1;
+        sum[0] = sum0;
+        sum[1] = sum1;
+        sq[0] = sq0;
+        sq[1] = sq1;
+        min[0] = min0;
+        min[1] = min1;
+        max[0] = max0;
+        max[1] = max1;
+        if (b != null) {
+            cmSum[0] = cm0;
+            cmSum[1] = cm1;
+            cmSq[0] = cq0;
+            cmSq[1] = cq1;
         }
         if (inv != null) {
             for (int i = s0; i < s1; i++) {
@@ -109,60 +173,6 @@ final class LevelAcc {
             }
         }
         endIndex = base + s1;
-    }
-
-    /** Adds {@code count} samples of state {@code c} at chunk indices {@code ix[at..]}, in order, to the sums (locals in the loop). */
-    private void accumulate(int c, int[] ix, int at, int count, float[] a, int ao, float[] b, int bo, float thr, float settled) {
-        if (count == 0) {
-            return;
-        }
-        long nc = n[c];
-        double sumc = sum[c];
-        double sqc = sq[c];
-        double cmc = cmSum[c];
-        double cqc = cmSq[c];
-        double minc = min[c];
-        double maxc = max[c];
-        long rc = nRaw[c];
-        double rsc = sumRaw[c];
-        double rcc = cmRaw[c];
-        double rqc = sqRaw[c];
-        double rcqc = cqRaw[c];
-        for (int t = at, end = at + count; t < end; t++) {
-            int i = ix[t];
-            float x = a[ao + i];
-            float y = b == null ? 0f : b[bo + i];
-            float d = b == null ? x : x - y;
-            double cm = 0.5 * ((double) x + y);
-            rc++;
-            rsc += d;
-            rcc += cm;
-            rqc += (double) d * d;
-            rcqc += cm * cm;
-            minc = d < minc ? d : minc;
-            maxc = d > maxc ? d : maxc;
-            if (Math.abs(d - thr) >= settled) {
-                nc++;
-                sumc += d;
-                sqc += (double) d * d;
-                cmc += cm;
-                cqc += cm * cm;
-            }
-        }
-        n[c] = nc;
-        sum[c] = sumc;
-        sq[c] = sqc;
-        min[c] = minc;
-        max[c] = maxc;
-        nRaw[c] = rc;
-        sumRaw[c] = rsc;
-        cmRaw[c] = rcc;
-        sqRaw[c] = rqc;
-        cqRaw[c] = rcqc;
-        if (b != null) {
-            cmSum[c] = cmc;
-            cmSq[c] = cqc;
-        }
     }
 
     /**
