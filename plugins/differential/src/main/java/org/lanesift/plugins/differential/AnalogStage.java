@@ -31,14 +31,6 @@ final class AnalogStage implements Stage, LegAligner.Sink {
     static final int MAX_REPORT_WINDOWS = LevelReport.MAX_WINDOWS;
     private static final float[] NO_VOLTS = new float[0];
     private static final long[] NO_BITS = new long[0];
-    /**
-     * Samples the comparator runs ahead of the window statistics, which then read the same samples
-     * while both legs are still in the first-level cache (2 x 16 KiB of floats). One comparator pass
-     * over a whole 64 Ki window first left the statistics' strided reads to miss the cache. The
-     * cut changes no result: the comparator and {@link LevelAcc} give the same output however a
-     * window is cut, and the threshold changes only between windows.
-     */
-    static final int PIECE_SAMPLES = 4096;
 
     private final StageContext ctx;
     private final Settings s;
@@ -51,8 +43,6 @@ final class AnalogStage implements Stage, LegAligner.Sink {
     private final InvalidRuns invalid;
     /** The optional analog outputs P-N and (P+N)/2; null unless mode pair asks for one. */
     private final PairSignals pair;
-    /** Samples per comparator-then-statistics step, {@link #PIECE_SAMPLES} (tests compare it with whole windows). */
-    private final int pieceSamples;
 
     private double periodFs = Double.NaN;
     private double adaptSamples;
@@ -68,12 +58,6 @@ final class AnalogStage implements Stage, LegAligner.Sink {
     private boolean finished;
 
     AnalogStage(StageContext ctx, Settings s) {
-        this(ctx, s, PIECE_SAMPLES);
-    }
-
-    /** As above, with the comparator run ahead of the statistics by {@code pieceSamples} at most (at least 1). */
-    AnalogStage(StageContext ctx, Settings s, int pieceSamples) {
-        this.pieceSamples = Math.max(1, pieceSamples);
         this.ctx = ctx;
         this.s = s;
         this.levelsTrack = s.channel + ".levels";
@@ -165,13 +149,9 @@ final class AnalogStage implements Stage, LegAligner.Sink {
             float thr = cmp.threshold();
             float half = cmp.hysteresis() / 2;
             float settled = Math.max(half, tracker.settledHalfBand());
-            float maxAbs = s.profile.levelMaxAbsVolts();
-            for (int p = pos; p < e; ) {
-                int q = (int) Math.min(e, (long) p + pieceSamples);
-                cmp.runSegment(p, q);
-                window.add(c.a(), c.ao(), c.b(), c.bo(), base, p, q, bits, cmp.chunkInvalid(), thr, half, settled, s.statsStride, maxAbs);
-                p = q;
-            }
+            cmp.runSegment(pos, e);
+            window.add(c.a(), c.ao(), c.b(), c.bo(), base, pos, e, bits, cmp.chunkInvalid(), thr, half, settled, s.statsStride,
+                    s.profile.levelMaxAbsVolts());
             pos = e;
             if (base + e == winEnd) {
                 endWindow();
