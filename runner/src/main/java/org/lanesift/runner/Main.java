@@ -119,21 +119,71 @@ public final class Main implements Callable<Integer> {
         }
         try {
             Host host = new Host(out, err, Main.class.getClassLoader(), debug, quiet);
-            Map<String, Tool> tools = tools(host.loader, err, debug);
-            CommandLine cl = commandLine(host, tools);
+            String word = commandWord(args);
+            Map<String, Tool> tools = word != null && (word.isEmpty() || BUILT_IN.contains(word)) ? Map.of()
+                    : tools(host.loader, err, debug);
+            if (word != null && !word.isEmpty() && !BUILT_IN.contains(word) && !tools.containsKey(word)) {
+                word = null; // not a command: the whole command line, for picocli's error and suggestions
+            }
+            CommandLine cl = commandLine(host, tools, word);
             return cl.execute(args);
         } catch (Throwable t) {
             return Failures.report(t, err, debug);
         }
     }
 
-    static CommandLine commandLine(Host host, Map<String, Tool> tools) {
+    /** The commands built into the runner (a tool cannot take these names). */
+    private static final List<String> BUILT_IN = List.of("run", "plugins", "inspect");
+
+    /**
+     * The one command an invocation runs, so only that one is built (building the picocli model of
+     * every command costs more than most runs; DEVELOPERS.md "Cold start"): the first argument
+     * after the root's own switches ({@code --debug}, {@code -q}, {@code --quiet}); the empty
+     * string when the arguments are only those switches and {@code --version} or {@code -V} (no
+     * command needed); null when the whole command line is needed (no command, {@code --help}, any
+     * other option before the command).
+     *
+     * @param args the arguments
+     * @return the command's name, "", or null
+     */
+    static String commandWord(String[] args) {
+        boolean version = false;
+        for (String a : args) {
+            switch (a) {
+                case "--debug", "-q", "--quiet" -> {
+                }
+                case "--version", "-V" -> version = true;
+                default -> {
+                    return version || a.startsWith("-") ? null : a;
+                }
+            }
+        }
+        return version ? "" : null;
+    }
+
+    /**
+     * The command line.
+     *
+     * @param host  the invocation's streams and switches
+     * @param tools the contributed commands by name
+     * @param only  the one command to build (see {@link #commandWord}), "" for none, null for all
+     * @return the root command
+     */
+    static CommandLine commandLine(Host host, Map<String, Tool> tools, String only) {
         CommandLine cl = new CommandLine(new Main(host));
-        cl.addSubcommand("run", new RunCommand(host));
-        cl.addSubcommand("plugins", new PluginsCommand(host));
-        cl.addSubcommand("inspect", new InspectCommand(host));
+        if (only == null || only.equals("run")) {
+            cl.addSubcommand("run", new RunCommand(host));
+        }
+        if (only == null || only.equals("plugins")) {
+            cl.addSubcommand("plugins", new PluginsCommand(host));
+        }
+        if (only == null || only.equals("inspect")) {
+            cl.addSubcommand("inspect", new InspectCommand(host));
+        }
         for (Tool t : tools.values()) {
-            cl.addSubcommand(t.name(), ToolCommand.of(t, host));
+            if (only == null || only.equals(t.name())) {
+                cl.addSubcommand(t.name(), ToolCommand.of(t, host));
+            }
         }
         cl.setOut(new PrintWriter(host.out, true));
         cl.setErr(new PrintWriter(host.err, true));
@@ -145,7 +195,6 @@ public final class Main implements Callable<Integer> {
     /** Tools by name, built-in command names excluded; a tool that fails to load is reported and skipped. */
     static Map<String, Tool> tools(ClassLoader loader, PrintStream err, boolean debug) {
         Map<String, Tool> byName = new LinkedHashMap<>();
-        List<String> builtIn = List.of("run", "plugins", "inspect", "help");
         java.util.Iterator<Tool> it = ServiceLoader.load(Tool.class, loader).iterator();
         List<Tool> found = new ArrayList<>();
         while (true) {
@@ -163,7 +212,7 @@ public final class Main implements Callable<Integer> {
         found.sort((a, b) -> a.name().compareTo(b.name()));
         for (Tool t : found) {
             String n = t.name();
-            if (n != null && n.matches("[a-z][a-z0-9-]*") && !builtIn.contains(n)) {
+            if (n != null && n.matches("[a-z][a-z0-9-]*") && !BUILT_IN.contains(n) && !n.equals("help")) {
                 byName.putIfAbsent(n, t);
             }
         }
