@@ -13,38 +13,30 @@ import java.util.concurrent.Callable;
 import org.lanesift.plugin.PluginRegistry;
 import org.lanesift.plugin.Tool;
 import picocli.CommandLine;
-import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
-import picocli.CommandLine.Option;
+import picocli.CommandLine.Model.OptionSpec;
 import picocli.CommandLine.ScopeType;
 
 /**
  * The {@code lanesift} command line: {@code run}, {@code plugins}, {@code inspect}, plus every
  * {@link Tool} found through {@link ServiceLoader} as a subcommand of its own name. Exit codes:
  * 0 success, 2 bad input (one line on stderr naming the file, line, pointer or option), 1 internal
- * error. Stack traces appear only with {@code --debug}.
+ * error. Stack traces appear only with {@code --debug}. Only the command that is run is built
+ * (see {@link #commandWord}), and the root and {@code run} are declared in code rather than by
+ * annotations: both cut the fixed cost of every run (DEVELOPERS.md, "Cold start").
  */
-@Command(name = "lanesift", mixinStandardHelpOptions = true, versionProvider = Version.class, sortOptions = false,
-        usageHelpAutoWidth = true,
-        description = {"Turns raw captures of fast differential links (LVDS 7:1 pixel links, MIPI D-PHY/DSI-like packet "
-                + "links) into checked bits, pixels, timings and commands.", ""},
-        footerHeading = "%n",
-        footer = {"Exit codes: 0 done, 2 bad input (one line on stderr says what and where), 1 internal error.",
-                "Safety: a scope input is 50 ohm and earthed; never probe mains-referenced circuits with it, respect its "
-                        + "voltage and power limits, and guard display flex cables against ESD. Follow local codes and "
-                        + "licensed practice.",
-                "Documentation: README.md and docs/ in the source tree."})
 public final class Main implements Callable<Integer> {
-    @Option(names = "--debug", scope = ScopeType.INHERIT, description = "Print stack traces with errors.")
-    boolean debug;
-
-    @Option(names = {"-q", "--quiet"}, scope = ScopeType.INHERIT, description = "No progress bar, no summary.")
-    boolean quiet;
-
-    @CommandLine.Spec
-    CommandSpec spec;
+    private static final String DESCRIPTION = "Turns raw captures of fast differential links (LVDS 7:1 pixel links, MIPI "
+            + "D-PHY/DSI-like packet links) into checked bits, pixels, timings and commands.";
+    private static final String[] FOOTER = {
+        "Exit codes: 0 done, 2 bad input (one line on stderr says what and where), 1 internal error.",
+        "Safety: a scope input is 50 ohm and earthed; never probe mains-referenced circuits with it, respect its "
+                + "voltage and power limits, and guard display flex cables against ESD. Follow local codes and "
+                + "licensed practice.",
+        "Documentation: README.md and docs/ in the source tree."};
 
     private final Host host;
+    private CommandLine commandLine;
 
     private Main(Host host) {
         this.host = host;
@@ -81,7 +73,7 @@ public final class Main implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        spec.commandLine().usage(host.out);
+        commandLine.usage(host.out);
         return 0;
     }
 
@@ -170,9 +162,19 @@ public final class Main implements Callable<Integer> {
      * @return the root command
      */
     static CommandLine commandLine(Host host, Map<String, Tool> tools, String only) {
-        CommandLine cl = new CommandLine(new Main(host));
+        Main main = new Main(host);
+        CommandSpec cs = CommandSpec.wrapWithoutInspection(main).name("lanesift").versionProvider(new Version());
+        cs.usageMessage().sortOptions(false).autoWidth(true).description(DESCRIPTION, "").footerHeading("%n").footer(FOOTER);
+        cs.addOption(OptionSpec.builder("--debug").scopeType(ScopeType.INHERIT).arity("0").type(boolean.class)
+                .description("Print stack traces with errors.").build());
+        cs.addOption(OptionSpec.builder("-q", "--quiet").scopeType(ScopeType.INHERIT).arity("0").type(boolean.class)
+                .description("No progress bar, no summary.").build());
+        cs.addOption(OptionSpec.builder("-h", "--help").usageHelp(true).description("Show this help message and exit.").build());
+        cs.addOption(OptionSpec.builder("-V", "--version").versionHelp(true).description("Print version information and exit.").build());
+        CommandLine cl = new CommandLine(cs);
+        main.commandLine = cl;
         if (only == null || only.equals("run")) {
-            cl.addSubcommand("run", new RunCommand(host));
+            cl.addSubcommand("run", RunCommand.commandLine(new RunCommand(host)));
         }
         if (only == null || only.equals("plugins")) {
             cl.addSubcommand("plugins", new PluginsCommand(host));
