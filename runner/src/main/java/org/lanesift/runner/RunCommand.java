@@ -158,7 +158,9 @@ final class RunCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
-        bind();
+        if (spec != null) {
+            bind(); // from a command line; ChainRun sets the fields itself
+        }
         String shown = chain.toString();
         ChainFile cf = new ChainFileReader().read(chain, shown);
         List<ChainSpec.Node> nodes = new ArrayList<>(cf.spec().nodes());
