@@ -13,38 +13,30 @@ import java.util.concurrent.Callable;
 import org.lanesift.plugin.PluginRegistry;
 import org.lanesift.plugin.Tool;
 import picocli.CommandLine;
-import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
-import picocli.CommandLine.Option;
+import picocli.CommandLine.Model.OptionSpec;
 import picocli.CommandLine.ScopeType;
 
 /**
  * The {@code lanesift} command line: {@code run}, {@code plugins}, {@code inspect}, plus every
  * {@link Tool} found through {@link ServiceLoader} as a subcommand of its own name. Exit codes:
  * 0 success, 2 bad input (one line on stderr naming the file, line, pointer or option), 1 internal
- * error. Stack traces appear only with {@code --debug}.
+ * error. Stack traces appear only with {@code --debug}. Only the command that is run is built
+ * (see {@link #commandWord}), and the root and {@code run} are declared in code rather than by
+ * annotations: both cut the fixed cost of every run (DEVELOPERS.md, "Cold start").
  */
-@Command(name = "lanesift", mixinStandardHelpOptions = true, versionProvider = Version.class, sortOptions = false,
-        usageHelpAutoWidth = true,
-        description = {"Turns raw captures of fast differential links (LVDS 7:1 pixel links, MIPI D-PHY/DSI-like packet "
-                + "links) into checked bits, pixels, timings and commands.", ""},
-        footerHeading = "%n",
-        footer = {"Exit codes: 0 done, 2 bad input (one line on stderr says what and where), 1 internal error.",
-                "Safety: a scope input is 50 ohm and earthed; never probe mains-referenced circuits with it, respect its "
-                        + "voltage and power limits, and guard display flex cables against ESD. Follow local codes and "
-                        + "licensed practice.",
-                "Documentation: README.md and docs/ in the source tree."})
 public final class Main implements Callable<Integer> {
-    @Option(names = "--debug", scope = ScopeType.INHERIT, description = "Print stack traces with errors.")
-    boolean debug;
-
-    @Option(names = {"-q", "--quiet"}, scope = ScopeType.INHERIT, description = "No progress bar, no summary.")
-    boolean quiet;
-
-    @CommandLine.Spec
-    CommandSpec spec;
+    private static final String DESCRIPTION = "Turns raw captures of fast differential links (LVDS 7:1 pixel links, MIPI "
+            + "D-PHY/DSI-like packet links) into checked bits, pixels, timings and commands.";
+    private static final String[] FOOTER = {
+        "Exit codes: 0 done, 2 bad input (one line on stderr says what and where), 1 internal error.",
+        "Safety: a scope input is 50 ohm and earthed; never probe mains-referenced circuits with it, respect its "
+                + "voltage and power limits, and guard display flex cables against ESD. Follow local codes and "
+                + "licensed practice.",
+        "Documentation: README.md and docs/ in the source tree."};
 
     private final Host host;
+    private CommandLine commandLine;
 
     private Main(Host host) {
         this.host = host;
@@ -81,7 +73,7 @@ public final class Main implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        spec.commandLine().usage(host.out);
+        commandLine.usage(host.out);
         return 0;
     }
 
@@ -119,21 +111,81 @@ public final class Main implements Callable<Integer> {
         }
         try {
             Host host = new Host(out, err, Main.class.getClassLoader(), debug, quiet);
-            Map<String, Tool> tools = tools(host.loader, err, debug);
-            CommandLine cl = commandLine(host, tools);
+            String word = commandWord(args);
+            Map<String, Tool> tools = word != null && (word.isEmpty() || BUILT_IN.contains(word)) ? Map.of()
+                    : tools(host.loader, err, debug);
+            if (word != null && !word.isEmpty() && !BUILT_IN.contains(word) && !tools.containsKey(word)) {
+                word = null; // not a command: the whole command line, for picocli's error and suggestions
+            }
+            CommandLine cl = commandLine(host, tools, word);
             return cl.execute(args);
         } catch (Throwable t) {
             return Failures.report(t, err, debug);
         }
     }
 
-    static CommandLine commandLine(Host host, Map<String, Tool> tools) {
-        CommandLine cl = new CommandLine(new Main(host));
-        cl.addSubcommand("run", new RunCommand(host));
-        cl.addSubcommand("plugins", new PluginsCommand(host));
-        cl.addSubcommand("inspect", new InspectCommand(host));
+    /** The commands built into the runner (a tool cannot take these names). */
+    private static final List<String> BUILT_IN = List.of("run", "plugins", "inspect");
+
+    /**
+     * The one command an invocation runs, so only that one is built (building the picocli model of
+     * every command costs more than most runs; DEVELOPERS.md "Cold start"): the first argument
+     * after the root's own switches ({@code --debug}, {@code -q}, {@code --quiet}); the empty
+     * string when the arguments are only those switches and {@code --version} or {@code -V} (no
+     * command needed); null when the whole command line is needed (no command, {@code --help}, any
+     * other option before the command).
+     *
+     * @param args the arguments
+     * @return the command's name, "", or null
+     */
+    static String commandWord(String[] args) {
+        boolean version = false;
+        for (String a : args) {
+            switch (a) {
+                case "--debug", "-q", "--quiet" -> {
+                }
+                case "--version", "-V" -> version = true;
+                default -> {
+                    return version || a.startsWith("-") ? null : a;
+                }
+            }
+        }
+        return version ? "" : null;
+    }
+
+    /**
+     * The command line.
+     *
+     * @param host  the invocation's streams and switches
+     * @param tools the contributed commands by name
+     * @param only  the one command to build (see {@link #commandWord}), "" for none, null for all
+     * @return the root command
+     */
+    static CommandLine commandLine(Host host, Map<String, Tool> tools, String only) {
+        Main main = new Main(host);
+        CommandSpec cs = CommandSpec.wrapWithoutInspection(main).name("lanesift").versionProvider(new Version());
+        cs.usageMessage().sortOptions(false).autoWidth(true).description(DESCRIPTION, "").footerHeading("%n").footer(FOOTER);
+        cs.addOption(OptionSpec.builder("--debug").scopeType(ScopeType.INHERIT).arity("0").type(boolean.class)
+                .description("Print stack traces with errors.").build());
+        cs.addOption(OptionSpec.builder("-q", "--quiet").scopeType(ScopeType.INHERIT).arity("0").type(boolean.class)
+                .description("No progress bar, no summary.").build());
+        cs.addOption(OptionSpec.builder("-h", "--help").usageHelp(true).description("Show this help message and exit.").build());
+        cs.addOption(OptionSpec.builder("-V", "--version").versionHelp(true).description("Print version information and exit.").build());
+        CommandLine cl = new CommandLine(cs);
+        main.commandLine = cl;
+        if (only == null || only.equals("run")) {
+            cl.addSubcommand("run", RunCommand.commandLine(new RunCommand(host)));
+        }
+        if (only == null || only.equals("plugins")) {
+            cl.addSubcommand("plugins", new PluginsCommand(host));
+        }
+        if (only == null || only.equals("inspect")) {
+            cl.addSubcommand("inspect", new InspectCommand(host));
+        }
         for (Tool t : tools.values()) {
-            cl.addSubcommand(t.name(), ToolCommand.of(t, host));
+            if (only == null || only.equals(t.name())) {
+                cl.addSubcommand(t.name(), ToolCommand.of(t, host));
+            }
         }
         cl.setOut(new PrintWriter(host.out, true));
         cl.setErr(new PrintWriter(host.err, true));
@@ -145,7 +197,6 @@ public final class Main implements Callable<Integer> {
     /** Tools by name, built-in command names excluded; a tool that fails to load is reported and skipped. */
     static Map<String, Tool> tools(ClassLoader loader, PrintStream err, boolean debug) {
         Map<String, Tool> byName = new LinkedHashMap<>();
-        List<String> builtIn = List.of("run", "plugins", "inspect", "help");
         java.util.Iterator<Tool> it = ServiceLoader.load(Tool.class, loader).iterator();
         List<Tool> found = new ArrayList<>();
         while (true) {
@@ -163,7 +214,7 @@ public final class Main implements Callable<Integer> {
         found.sort((a, b) -> a.name().compareTo(b.name()));
         for (Tool t : found) {
             String n = t.name();
-            if (n != null && n.matches("[a-z][a-z0-9-]*") && !builtIn.contains(n)) {
+            if (n != null && n.matches("[a-z][a-z0-9-]*") && !BUILT_IN.contains(n) && !n.equals("help")) {
                 byName.putIfAbsent(n, t);
             }
         }

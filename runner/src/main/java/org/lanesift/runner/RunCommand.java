@@ -40,47 +40,30 @@ import org.lanesift.runner.segments.SegmentException;
 import org.lanesift.runner.segments.SegmentPlan;
 import org.lanesift.runner.segments.SegmentedRun;
 import org.lanesift.unit.Quantity;
-import picocli.CommandLine.Command;
-import picocli.CommandLine.Option;
-import picocli.CommandLine.Parameters;
+import picocli.CommandLine;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Model.PositionalParamSpec;
 
-/** {@code lanesift run CHAIN.json}: builds the chain, runs it over its sources, writes every output. */
-@Command(name = "run", mixinStandardHelpOptions = true, versionProvider = Version.class, sortOptions = false,
-        description = {"Runs a chain file over its capture files and writes its unwired outputs (by-products only when "
-                + "asked for; see --outputs) and every annotation into the output directory: signals.vcd, "
-                + "<instance>-<output>.csv, artifacts (reports, PNG pictures), annotations.jsonl and report.md "
-                + "(see docs/chain-file.md and docs/outputs.md)."})
+/**
+ * {@code lanesift run CHAIN.json}: builds the chain, runs it over its sources, writes every output.
+ * The command line is declared in code ({@link #commandLine}), not by annotations: reading
+ * annotations costs picocli a reflective pass that took longer than a small run's decode
+ * (DEVELOPERS.md, "Cold start").
+ */
 final class RunCommand implements Callable<Integer> {
-    @Parameters(index = "0", paramLabel = "CHAIN.json", description = "The chain file.")
+    private static final String DESCRIPTION = "Runs a chain file over its capture files and writes its unwired outputs (by-products "
+            + "only when asked for; see --outputs) and every annotation into the output directory: signals.vcd, "
+            + "<instance>-<output>.csv, artifacts (reports, PNG pictures), annotations.jsonl and report.md "
+            + "(see docs/chain-file.md and docs/outputs.md).";
+
     Path chain;
-
-    @Option(names = "--input", paramLabel = "NAME=FILE",
-            description = "Sets option 'file' of instance NAME (relative to the current directory). Repeatable.")
     List<String> inputs = new ArrayList<>();
-
-    @Option(names = "--out", paramLabel = "DIR", description = "Output directory (default: ${DEFAULT-VALUE}).",
-            defaultValue = "lanesift-out")
     Path outDir;
-
-    @Option(names = "--set", paramLabel = "NODE.OPTION=VALUE",
-            description = "Overrides one option of one instance. Repeatable.")
     List<String> sets = new ArrayList<>();
-
-    @Option(names = "--outputs", paramLabel = "LIST",
-            description = "Which results to write, in which forms, comma-separated; overrides the chain file's 'outputs': "
-                    + "none (report.md only), standard (vcd, csv, artifacts, annotations: the default), vcd, csv, binary "
-                    + "(packed .bits/.words files), artifacts, annotations, by-products, or INSTANCE.OUTPUT names "
-                    + "(docs/chain-file.md, \"Which outputs a run writes\").")
     String outputsList;
-
-    @Option(names = "--jobs", paramLabel = "N", defaultValue = "1",
-            description = "Decodes the capture in time segments on N threads and stitches them exactly (default: ${DEFAULT-VALUE},"
-                    + " one pass); needs a raw capture and instances that declare segment support (docs/segments.md).")
     int jobs;
-
-    @Option(names = "--segment-frames", paramLabel = "FRAMES", defaultValue = "0",
-            description = "With --jobs: frames per segment, rounded up to whole blocks (default: chosen from the warm-up).")
     long segmentFrames;
+    private CommandSpec spec;
 
     private final Main.Host host;
     private final Interrupts interrupts;
@@ -92,6 +75,57 @@ final class RunCommand implements Callable<Integer> {
     RunCommand(Main.Host host, Interrupts interrupts) {
         this.host = host;
         this.interrupts = interrupts;
+    }
+
+    /**
+     * The command's picocli model: the chain file, then its options in the order the help lists them,
+     * the standard {@code --help} and {@code --version}.
+     *
+     * @param cmd the command the parsed values go to
+     * @return the command line, ready to run or to add as the {@code run} subcommand
+     */
+    static CommandLine commandLine(RunCommand cmd) {
+        CommandSpec cs = CommandSpec.wrapWithoutInspection(cmd).name("run").versionProvider(new Version());
+        cs.usageMessage().sortOptions(false).description(DESCRIPTION);
+        cs.addPositional(PositionalParamSpec.builder().index("0").arity("1").required(true).paramLabel("CHAIN.json").type(Path.class)
+                .description("The chain file.").build());
+        cs.addOption(CommandLine.Model.OptionSpec.builder("--input").paramLabel("NAME=FILE").type(List.class).auxiliaryTypes(String.class)
+                .description("Sets option 'file' of instance NAME (relative to the current directory). Repeatable.").build());
+        cs.addOption(CommandLine.Model.OptionSpec.builder("--out").paramLabel("DIR").type(Path.class).defaultValue("lanesift-out")
+                .description("Output directory (default: ${DEFAULT-VALUE}).").build());
+        cs.addOption(CommandLine.Model.OptionSpec.builder("--set").paramLabel("NODE.OPTION=VALUE").type(List.class).auxiliaryTypes(String.class)
+                .description("Overrides one option of one instance. Repeatable.").build());
+        cs.addOption(CommandLine.Model.OptionSpec.builder("--outputs").paramLabel("LIST").type(String.class)
+                .description("Which results to write, in which forms, comma-separated; overrides the chain file's 'outputs': "
+                        + "none (report.md only), standard (vcd, csv, artifacts, annotations: the default), vcd, csv, binary "
+                        + "(packed .bits/.words files), artifacts, annotations, by-products, or INSTANCE.OUTPUT names "
+                        + "(docs/chain-file.md, \"Which outputs a run writes\").").build());
+        cs.addOption(CommandLine.Model.OptionSpec.builder("--jobs").paramLabel("N").type(int.class).defaultValue("1")
+                .description("Decodes the capture in time segments on N threads and stitches them exactly (default: ${DEFAULT-VALUE},"
+                        + " one pass); needs a raw capture and instances that declare segment support (docs/segments.md).").build());
+        cs.addOption(CommandLine.Model.OptionSpec.builder("--segment-frames").paramLabel("FRAMES").type(long.class).defaultValue("0")
+                .description("With --jobs: frames per segment, rounded up to whole blocks (default: chosen from the warm-up).")
+                .build());
+        cs.addOption(CommandLine.Model.OptionSpec.builder("-h", "--help").usageHelp(true).description("Show this help message and exit.").build());
+        cs.addOption(CommandLine.Model.OptionSpec.builder("-V", "--version").versionHelp(true).description("Print version information and exit.").build());
+        cmd.spec = cs;
+        return new CommandLine(cs);
+    }
+
+    /** Takes the parsed values (defaults for options not given) from the model. */
+    private void bind() {
+        chain = spec.positionalParameters().get(0).getValue();
+        inputs = listValue("--input");
+        outDir = spec.findOption("--out").getValue();
+        sets = listValue("--set");
+        outputsList = spec.findOption("--outputs").getValue();
+        jobs = spec.findOption("--jobs").<Integer>getValue();
+        segmentFrames = spec.findOption("--segment-frames").<Long>getValue();
+    }
+
+    private List<String> listValue(String option) {
+        List<String> v = spec.findOption(option).getValue();
+        return v == null ? new ArrayList<>() : v;
     }
 
     /** Where the Ctrl-C handler goes: the JVM's shutdown hooks, or a test's stand-in. */
@@ -124,6 +158,9 @@ final class RunCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws Exception {
+        if (spec != null) {
+            bind(); // from a command line; ChainRun sets the fields itself
+        }
         String shown = chain.toString();
         ChainFile cf = new ChainFileReader().read(chain, shown);
         List<ChainSpec.Node> nodes = new ArrayList<>(cf.spec().nodes());

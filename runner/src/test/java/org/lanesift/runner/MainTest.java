@@ -44,6 +44,59 @@ class MainTest {
     }
 
     @Test
+    void theCommandWordPicksTheOneCommandToBuild() {
+        assertEquals("run", Main.commandWord(new String[] {"run", "chain.json"}));
+        assertEquals("run", Main.commandWord(new String[] {"--debug", "-q", "run", "--help"}));
+        assertEquals("fake-tool", Main.commandWord(new String[] {"--quiet", "fake-tool", "--version"}));
+        assertEquals("", Main.commandWord(new String[] {"--version"}));
+        assertEquals("", Main.commandWord(new String[] {"-q", "-V", "--debug"}));
+        // the whole command line: usage, help, an option the root does not know, or version before a command
+        assertEquals(null, Main.commandWord(new String[] {}));
+        assertEquals(null, Main.commandWord(new String[] {"--debug"}));
+        assertEquals(null, Main.commandWord(new String[] {"--help", "run"}));
+        assertEquals(null, Main.commandWord(new String[] {"-qV"}));
+        assertEquals(null, Main.commandWord(new String[] {"--version", "run"}));
+        assertEquals(null, Main.commandWord(new String[] {"--", "run"}));
+    }
+
+    /** A command built alone answers exactly as it does inside the whole command line. */
+    @ParameterizedTest
+    @ValueSource(strings = {"run", "plugins", "inspect", "fake-tool"})
+    void aCommandBuiltAloneHelpsAndFailsAsInTheWholeCommandLine(String cmd) {
+        java.io.ByteArrayOutputStream o = new java.io.ByteArrayOutputStream();
+        java.io.PrintStream ps = new java.io.PrintStream(o, true, java.nio.charset.StandardCharsets.UTF_8);
+        Main.Host host = new Main.Host(ps, ps, Main.class.getClassLoader(), false, false);
+        var tools = Main.tools(host.loader, ps, false);
+        for (String[] args : List.of(new String[] {cmd, "--help"}, new String[] {cmd, "--no-such-option"})) {
+            o.reset();
+            int whole = Main.commandLine(host, tools, null).execute(args);
+            String wholeText = o.toString(java.nio.charset.StandardCharsets.UTF_8);
+            o.reset();
+            int alone = Main.commandLine(host, tools, cmd).execute(args);
+            assertEquals(whole, alone, String.join(" ", args));
+            assertEquals(wholeText, o.toString(java.nio.charset.StandardCharsets.UTF_8), String.join(" ", args));
+            assertFalse(wholeText.isEmpty());
+        }
+        Cli r = Cli.run(cmd, "--help");
+        assertEquals(0, r.code(), r::toString);
+    }
+
+    @Test
+    void versionAloneBuildsNoCommandAndSaysTheSame() {
+        java.io.ByteArrayOutputStream o = new java.io.ByteArrayOutputStream();
+        java.io.PrintStream ps = new java.io.PrintStream(o, true, java.nio.charset.StandardCharsets.UTF_8);
+        Main.Host host = new Main.Host(ps, ps, Main.class.getClassLoader(), false, false);
+        var none = Main.commandLine(host, java.util.Map.of(), "");
+        assertTrue(none.getSubcommands().isEmpty());
+        assertEquals(0, none.execute("--version"));
+        String alone = o.toString(java.nio.charset.StandardCharsets.UTF_8);
+        o.reset();
+        assertEquals(0, Main.commandLine(host, Main.tools(host.loader, ps, false), null).execute("--version"));
+        assertEquals(o.toString(java.nio.charset.StandardCharsets.UTF_8), alone);
+        assertTrue(alone.startsWith("lanesift "), alone);
+    }
+
+    @Test
     void noArgumentsPrintsUsage() {
         Cli r = Cli.run();
         assertEquals(0, r.code());

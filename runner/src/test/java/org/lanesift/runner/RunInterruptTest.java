@@ -81,7 +81,7 @@ class RunInterruptTest {
         ByteArrayOutputStream o = new ByteArrayOutputStream();
         PrintStream ps = new PrintStream(o, true, StandardCharsets.UTF_8);
         Main.Host host = new Main.Host(ps, ps, Main.class.getClassLoader(), false, true);
-        CommandLine cl = new CommandLine(new RunCommand(host, interrupts));
+        CommandLine cl = RunCommand.commandLine(new RunCommand(host, interrupts));
         cl.setExecutionExceptionHandler((ex, c, parsed) -> Failures.report(ex, ps, false));
         return cl.execute(args);
     }

@@ -33,7 +33,10 @@ import org.lanesift.plugin.ToolSpec;
  */
 public final class BenchTool implements Tool {
     private static volatile double readSink;
-    private static final ThreadMXBean THREADS = ManagementFactory.getThreadMXBean();
+    /** The thread CPU clock, looked up on first use: java.management would load with every tool command. */
+    private static final class Threads {
+        static final ThreadMXBean MX = ManagementFactory.getThreadMXBean();
+    }
 
     /** Creates the tool (ServiceLoader). */
     public BenchTool() {
@@ -170,12 +173,12 @@ public final class BenchTool implements Tool {
     }
 
     private static boolean cpuTimeAvailable() {
-        return THREADS.isCurrentThreadCpuTimeSupported() && THREADS.isThreadCpuTimeEnabled();
+        return Threads.MX.isCurrentThreadCpuTimeSupported() && Threads.MX.isThreadCpuTimeEnabled();
     }
 
     /** Thread CPU time of the calling thread, nanoseconds, or 0 when the JVM does not measure it. */
     private static long cpuNanos() {
-        return cpuTimeAvailable() ? THREADS.getCurrentThreadCpuTime() : 0;
+        return cpuTimeAvailable() ? Threads.MX.getCurrentThreadCpuTime() : 0;
     }
 
     /** Reads every sample once; {@code secs} receives wall-clock and thread CPU seconds. */

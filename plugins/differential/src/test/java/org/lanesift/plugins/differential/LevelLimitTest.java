@@ -183,6 +183,39 @@ class LevelLimitTest {
         assertEquals(0.2, Sourced.plain(report.get("windows").elements().get(9).get("quantities").get("vod-high")).asDouble(), 1e-6);
     }
 
+    /** A long capture's report keeps a page of windows: neighbours merged, every sample still counted once. */
+    @Test
+    void aLongCaptureReportsAtMost32WindowsCoveringItAll() {
+        AnalogBlock[] legs = pair(0.350, 1.2);
+        StageHarness h = TestSignals.runPair(Map.of("windowSamples", 256), legs[0], legs[1]);
+        String json = new String(h.outputs("report", Artifact.class).get(0).content(), StandardCharsets.UTF_8);
+        JsonValue report = org.lanesift.testkit.JsonScan.parse("level report", json);
+        List<JsonValue> windows = report.get("windows").elements();
+        // 40 000 samples are 157 windows of 256: merged in pairs at 32, three times, into 20 of 2048 (the last one short)
+        assertEquals(20, windows.size(), json);
+        assertEquals(256 * 8, (long) report.get("windowSamples").asDouble());
+        long samples = 0;
+        double weighted = 0;
+        long settled = 0;
+        for (int i = 0; i < windows.size(); i++) {
+            JsonValue w = windows.get(i);
+            samples += (long) w.get("samples").asDouble();
+            if (i > 0) {
+                assertEquals(windows.get(i - 1).get("endFs").asDouble(), w.get("startFs").asDouble(), 0, "windows are contiguous");
+            }
+            long k = (long) w.get("settledHigh").asDouble();
+            weighted += k * Sourced.plain(w.get("highLevelVolts")).asDouble();
+            settled += k;
+        }
+        assertEquals(N, samples, "every sample in exactly one window");
+        assertEquals(N, (long) report.get("capture").get("samples").asDouble());
+        assertEquals(report.get("capture").get("startFs").asDouble(), windows.get(0).get("startFs").asDouble(), 0);
+        assertEquals(report.get("capture").get("endFs").asDouble(), windows.get(windows.size() - 1).get("endFs").asDouble(), 0);
+        assertEquals(settled, (long) report.get("capture").get("settledHigh").asDouble());
+        assertEquals(Sourced.plain(report.get("capture").get("highLevelVolts")).asDouble(), weighted / settled, 1e-6);
+        assertTrue(json.length() < 80_000, () -> "report of " + json.length() + " characters");
+    }
+
     @Test
     void dphyProfiles() {
         // MIPI D-PHY HS (docs/reference-facts.md#d-phy-levels-and-states, from memory): 200 mV swing around 200 mV common mode passes
