@@ -16,9 +16,13 @@ import org.lanesift.plugin.PluginRegistry;
  * allocated on its thread (the chain runs on the calling thread). With {@code --no-lend} every raw
  * output also gets a host tap that does nothing, so the source lends no block (host-api
  * {@code Block}, "Ownership"): the same pass with new arrays for every block. Meant to be started
- * in a fresh JVM per run, with the JVM options under test (bench/scripts/cold-start.sh).
+ * in a fresh JVM per run, with the JVM options under test (bench/scripts/cold-start.sh). With
+ * {@code --passes N} it makes N passes in the same JVM, one line each: the first is the cold pass,
+ * the later ones show the warm speed. The read-ahead thread of the raw source is on unless the JVM
+ * is started with {@code -Dlanesift.readAhead=false}; the allocation figure counts the calling
+ * thread only, so blocks that thread allocates are not in it.
  *
- * <p>Usage: {@code java [options] -cp bench/target/benchmarks.jar org.lanesift.bench.ColdPass FILE [--no-lend]}
+ * <p>Usage: {@code java [options] -cp bench/target/benchmarks.jar org.lanesift.bench.ColdPass FILE [--no-lend] [--passes N]}
  */
 public final class ColdPass {
     private ColdPass() {
@@ -30,11 +34,27 @@ public final class ColdPass {
      * @param args the capture written by bench/scripts/ddr-capture.py (its sidecar beside it)
      */
     public static void main(String[] args) {
+        Path file = Path.of(args[0]);
+        boolean lend = true;
+        int passes = 1;
+        for (int i = 1; i < args.length; i++) {
+            if (args[i].equals("--no-lend")) {
+                lend = false;
+            } else if (args[i].equals("--passes") && i + 1 < args.length) {
+                passes = Integer.parseInt(args[++i]);
+            } else {
+                throw new IllegalArgumentException("unknown argument " + args[i] + "; expected FILE [--no-lend] [--passes N]");
+            }
+        }
+        for (int p = 0; p < passes; p++) {
+            pass(file, lend);
+        }
+    }
+
+    private static void pass(Path file, boolean lend) {
         long t0 = System.nanoTime();
         com.sun.management.ThreadMXBean threads = (com.sun.management.ThreadMXBean) java.lang.management.ManagementFactory.getThreadMXBean();
         long allocated0 = threads.getCurrentThreadAllocatedBytes();
-        Path file = Path.of(args[0]);
-        boolean lend = !(args.length > 1 && args[1].equals("--no-lend"));
         long[] counts = new long[2];
         ChainBuilder b = Chain.builder(PluginRegistry.discover(ColdPass.class.getClassLoader()))
                 .add("cap", "raw", Map.of("file", file.toString()))
