@@ -22,6 +22,10 @@ import java.util.function.BooleanSupplier;
  * the {@link BlockArrays} and of the reader's state happens either on the caller's thread while no
  * read is running, or in the read itself, one read at a time (a {@link FutureTask} orders them).
  *
+ * <p>When the caller asks for a span whose read the thread has not begun yet (the thread has not
+ * been given a core: on a machine busy with other work), the caller reads it itself instead of
+ * waiting for the thread to be scheduled, so a busy machine costs little more than one thread.
+ *
  * <p>A failure of a background read (an {@link IOException}, a {@link CaptureFormatException} such
  * as a file that shrank) is thrown from the {@link #next()} call that would have returned its
  * span, as the same exception object, so that callers see what a read on their own thread would
@@ -118,6 +122,11 @@ final class ReadAhead<S> implements Closeable {
     private S awaitPending() throws IOException {
         FutureTask<S> p = pending;
         pending = null;
+        // A read the thread has not begun (it has not been given a core yet, e.g. on a busy
+        // machine) is done here rather than waited for; a FutureTask runs once, on whichever
+        // thread gets to it first, so the thread then skips it.
+        tasks.remove(p);
+        p.run();
         try {
             return p.get();
         } catch (ExecutionException e) {
