@@ -165,6 +165,11 @@ final class PackedLogicReader implements CaptureReader {
         arrays.lend(perChannel);
     }
 
+    /** The read-ahead of this reader (for tests). */
+    ReadAhead<?> readAhead() {
+        return spans;
+    }
+
     @Override
     public void close() throws IOException {
         spans.close();

@@ -202,6 +202,11 @@ final class RawReader implements CaptureReader {
         return s;
     }
 
+    /** The read-ahead of this reader (for tests). */
+    ReadAhead<?> readAhead() {
+        return spans;
+    }
+
     @Override
     public void close() throws IOException {
         spans.close();

@@ -173,9 +173,10 @@ final class ReadAhead<S> implements Closeable {
         }
     }
 
-    /** Whether the read-ahead thread was started (for tests). */
-    boolean started() {
-        return thread != null;
+    /** Whether a read was handed to the thread and has ended, there (for tests: the next span comes from the thread). */
+    boolean readAheadDone() {
+        FutureTask<S> p = pending;
+        return p != null && p.isDone() && !tasks.contains(p);
     }
 
     /**

@@ -196,6 +196,16 @@ class ReadAheadTest {
             // the size was checked when the reader opened; now the file loses the end of its second block
             ch.truncate(256L * frameBytes + 100L * frameBytes);
             int[] blocks = {0};
+            assertTrue(rd.next((k, b) -> blocks[0]++), "the first block is whole");
+            if (ahead) {
+                // wait until the thread has met the end of the file, so the error comes from there
+                ReadAhead<?> spans = logic ? ((PackedLogicReader) rd).readAhead() : ((RawReader) rd).readAhead();
+                long end = System.nanoTime() + 10_000_000_000L;
+                while (!spans.readAheadDone() && System.nanoTime() < end) {
+                    Thread.onSpinWait();
+                }
+                assertTrue(spans.readAheadDone(), "the thread read the second block");
+            }
             Exception e = assertThrows(Exception.class, () -> {
                 while (rd.next((k, b) -> blocks[0]++)) {
                     // until it fails
