@@ -24,7 +24,7 @@ import java.util.function.BooleanSupplier;
  *
  * <p>When the caller asks for a span whose read the thread has not begun yet (the thread has not
  * been given a core: on a machine busy with other work), the caller reads it itself instead of
- * waiting for the thread to be scheduled, so a busy machine costs little more than one thread.
+ * waiting for the thread to be scheduled.
  *
  * <p>A failure of a background read (an {@link IOException}, a {@link CaptureFormatException} such
  * as a file that shrank) is thrown from the {@link #next()} call that would have returned its
