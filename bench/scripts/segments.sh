@@ -7,7 +7,9 @@
 # compiler threads, which under load includes waiting for a core) and peak heap of each; the
 # speed-up (wall) and the CPU ratio of that run; whether every output file is the same. Then min / median / max of both ratios, and the load average (a shared machine: other
 # work on it slows the two-thread run more than the one-pass run).
-# Usage: bench/scripts/segments.sh [GIGABYTES] [WORKDIR] [RUNS]
+# Usage: [EXTRA_JAVA_OPTS=...] bench/scripts/segments.sh [GIGABYTES] [WORKDIR] [RUNS]
+# (EXTRA_JAVA_OPTS: more JVM options for both runs, e.g. -Dlanesift.readAhead=false for the A/B of
+# the raw reader's read-ahead thread)
 set -euo pipefail
 cd "$(dirname "$0")/../.."
 GB="${1:-2.1}"
@@ -21,7 +23,7 @@ cp examples/chains/segments-pixel-link.json "$WORK/chain.json"
 decode() { # name, extra args... -> "$WORK/$name.t": wall cpu peakMB gcCpu jitSeconds
   local name="$1"; shift
   rm -rf "$WORK/$name"
-  LANESIFT_JAVA_OPTS="-Xmx256m -Xlog:gc*:file=$WORK/$name-gc.log -XX:+UnlockDiagnosticVMOptions -XX:+CITime" \
+  LANESIFT_JAVA_OPTS="-Xmx256m -Xlog:gc*:file=$WORK/$name-gc.log -XX:+UnlockDiagnosticVMOptions -XX:+CITime ${EXTRA_JAVA_OPTS:-}" \
     /usr/bin/env time -f '%e %U %S' -o "$WORK/$name-time.txt" ./lanesift \
     --quiet run "$WORK/chain.json" --out "$WORK/$name" "$@" > "$WORK/$name-jit.txt" 2>&1 \
     || { cat "$WORK/$name-time.txt" "$WORK/$name-jit.txt"; exit 1; }

@@ -12,13 +12,20 @@ import org.lanesift.plugin.PluginRegistry;
  * bench/scripts/ddr-capture.py, in this JVM, with no output files: raw, four differential stages
  * with a fixed threshold of 0 V (legs {@code clk_p, clk_n, d0_p ... d2_n}), dual-edge; the bits of
  * the three data lanes are counted through taps. Prints the bit and ones counts (the check that every variant decodes the
- * same), the pass's wall time and the JVM's uptime at the end, in seconds, and the bytes the pass
- * allocated on its thread (the chain runs on the calling thread). With {@code --no-lend} every raw
+ * same), the pass's wall time and the JVM's uptime at the end, in seconds, the bytes the pass
+ * allocated on its thread (the chain runs on the calling thread), and the CPU seconds of the pass on
+ * its thread and in the whole process (the read-ahead thread, the compilers and the collector
+ * besides): on two idle cores the pass takes about the larger of the calling thread's CPU and the
+ * read-ahead thread's. With {@code --no-lend} every raw
  * output also gets a host tap that does nothing, so the source lends no block (host-api
  * {@code Block}, "Ownership"): the same pass with new arrays for every block. Meant to be started
- * in a fresh JVM per run, with the JVM options under test (bench/scripts/cold-start.sh).
+ * in a fresh JVM per run, with the JVM options under test (bench/scripts/cold-start.sh). With
+ * {@code --passes N} it makes N passes in the same JVM, one line each: the first is the cold pass,
+ * the later ones show the warm speed. The read-ahead thread of the raw source is on unless the JVM
+ * is started with {@code -Dlanesift.readAhead=false}; the allocation figure counts the calling
+ * thread only, so blocks that thread allocates are not in it.
  *
- * <p>Usage: {@code java [options] -cp bench/target/benchmarks.jar org.lanesift.bench.ColdPass FILE [--no-lend]}
+ * <p>Usage: {@code java [options] -cp bench/target/benchmarks.jar org.lanesift.bench.ColdPass FILE [--no-lend] [--passes N]}
  */
 public final class ColdPass {
     private ColdPass() {
@@ -30,11 +37,31 @@ public final class ColdPass {
      * @param args the capture written by bench/scripts/ddr-capture.py (its sidecar beside it)
      */
     public static void main(String[] args) {
+        Path file = Path.of(args[0]);
+        boolean lend = true;
+        int passes = 1;
+        for (int i = 1; i < args.length; i++) {
+            if (args[i].equals("--no-lend")) {
+                lend = false;
+            } else if (args[i].equals("--passes") && i + 1 < args.length) {
+                passes = Integer.parseInt(args[++i]);
+            } else {
+                throw new IllegalArgumentException("unknown argument " + args[i] + "; expected FILE [--no-lend] [--passes N]");
+            }
+        }
+        for (int p = 0; p < passes; p++) {
+            pass(file, lend);
+        }
+    }
+
+    private static void pass(Path file, boolean lend) {
         long t0 = System.nanoTime();
         com.sun.management.ThreadMXBean threads = (com.sun.management.ThreadMXBean) java.lang.management.ManagementFactory.getThreadMXBean();
         long allocated0 = threads.getCurrentThreadAllocatedBytes();
-        Path file = Path.of(args[0]);
-        boolean lend = !(args.length > 1 && args[1].equals("--no-lend"));
+        long cpu0 = threads.getCurrentThreadCpuTime();
+        com.sun.management.OperatingSystemMXBean os = (com.sun.management.OperatingSystemMXBean) java.lang.management.ManagementFactory
+                .getOperatingSystemMXBean();
+        long processCpu0 = os.getProcessCpuTime();
         long[] counts = new long[2];
         ChainBuilder b = Chain.builder(PluginRegistry.discover(ColdPass.class.getClassLoader()))
                 .add("cap", "raw", Map.of("file", file.toString()))
@@ -63,7 +90,9 @@ public final class ColdPass {
         double pass = (System.nanoTime() - t0) / 1e9;
         double uptime = java.lang.management.ManagementFactory.getRuntimeMXBean().getUptime() / 1e3;
         double allocatedMb = (threads.getCurrentThreadAllocatedBytes() - allocated0) / 1e6;
-        System.out.printf(java.util.Locale.ROOT, "bits %d ones %d pass %.3f s uptime %.3f s allocated %.0f MB%n", counts[0], counts[1], pass, uptime,
-                allocatedMb);
+        double cpu = (threads.getCurrentThreadCpuTime() - cpu0) / 1e9;
+        double processCpu = (os.getProcessCpuTime() - processCpu0) / 1e9;
+        System.out.printf(java.util.Locale.ROOT, "bits %d ones %d pass %.3f s uptime %.3f s allocated %.0f MB cpu %.3f s (this thread) %.3f s"
+                + " (process)%n", counts[0], counts[1], pass, uptime, allocatedMb, cpu, processCpu);
     }
 }

@@ -6,12 +6,15 @@ import java.util.Arrays;
  * The per-channel arrays a capture reader fills for one block: new arrays for every block, or, for
  * the channels whose blocks the engine lets the source lend (see {@code org.lanesift.data.Block},
  * "Ownership"), two sets of arrays used in turn, so that the set emitted by one {@code next} call
- * is overwritten two calls later. Only full-length blocks are lent; a shorter last block gets new
- * arrays of its exact length, as every block did before lending existed.
+ * is recycled when the next call begins and overwritten by the block after, filled on the caller's
+ * thread or ahead of time on the reader's read-ahead thread ({@link ReadAhead}, which calls
+ * {@link #release()}, {@link #begin()} and {@link #handOut()} in the order that keeps this rule).
+ * Only full-length blocks are lent; a shorter last block gets new arrays of its exact length, as
+ * every block did before lending existed. Not thread-safe: used by one thread at a time.
  *
  * <p>Test mode: when {@link #poison} is on, the set emitted by the previous call is overwritten
  * with poison (NaN volts, alternating logic bits, every sample marked invalid) as the next call
- * begins, so a receiver that kept a lent block sees it change at once.
+ * begins ({@link #release()}), so a receiver that kept a lent block sees it change at once.
  */
 final class BlockArrays {
     /** Test mode, see the class comment; also set by the system property {@code lanesift.poisonLentBlocks=true}. */
@@ -26,8 +29,10 @@ final class BlockArrays {
     private final long[][][] masks = new long[2][][];
     /** Set of the block being filled (0 or 1). */
     private int set;
-    /** Whether a block has been filled since the last {@link #nextBlock()}, i.e. whether the other set is now out. */
+    /** Whether an array of {@link #set} has been taken since the last {@link #begin()}. */
     private boolean filled;
+    /** Set handed out (0 or 1), or -1. */
+    private int out = -1;
 
     /**
      * @param channels   channels per block
@@ -58,16 +63,31 @@ final class BlockArrays {
         return false;
     }
 
-    /** Starts the next block: the set emitted last time is now out, the other one is filled (and, in test mode, the one out is poisoned). */
-    void nextBlock() {
-        if (!filled) {
-            return;
+    /**
+     * The set handed out last is recycled now (a call to the reader's {@code next} began): in test
+     * mode it is poisoned. Called before any array of the next block is filled.
+     */
+    void release() {
+        if (out >= 0 && poison) {
+            poison(out);
         }
-        filled = false;
-        if (poison) {
-            poison(set);
+        out = -1;
+    }
+
+    /** Starts filling a block: the set not filled last (never the one handed out). */
+    void begin() {
+        if (filled) {
+            filled = false;
+            set ^= 1;
         }
-        set ^= 1;
+        if (set == out) {
+            throw new IllegalStateException("block arrays: the set being filled is still out");
+        }
+    }
+
+    /** The set just filled is handed out, until the next {@link #release()}. */
+    void handOut() {
+        out = filled ? set : -1;
     }
 
     private void poison(int s) {

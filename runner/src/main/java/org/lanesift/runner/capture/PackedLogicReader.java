@@ -21,7 +21,8 @@ import org.lanesift.time.Femtos;
  * {@link PackedLogicSidecar}) as one LOGIC block per named channel per span. Memory is one read
  * buffer of a block's words, two byte arrays of a block's samples for 16-bit words, and the
  * blocks themselves (new per block, or lent where the engine allows it, see {@link BlockArrays}); whole blocks are unpacked with {@link PackedLogic} (no per-sample branch on
- * format or channel).
+ * format or channel). The next block is read on a second thread while the current one is decoded
+ * ({@link ReadAhead}), unless that is turned off or the capture is one block.
  */
 final class PackedLogicReader implements CaptureReader {
     private final Path file;
@@ -36,9 +37,21 @@ final class PackedLogicReader implements CaptureReader {
     private final byte[] high;
     private final List<PortSpec> ports = new ArrayList<>();
     private final BlockArrays arrays;
+    /** Samples handed out (the caller's thread). */
     private long pos;
+    /** Next sample to read (by one read at a time, see {@link ReadAhead}). */
+    private long readPos;
+    private final ReadAhead<Span> spans;
 
     PackedLogicReader(Path file, PackedLogicSidecar sc, int blockSamples, boolean headerOnly) throws IOException {
+        this(file, sc, blockSamples, headerOnly, ReadAhead.allowed());
+    }
+
+    /**
+     * @param readAhead whether the next block may be read on a second thread while this one is
+     *                  decoded ({@link ReadAhead}; never for a capture of one block)
+     */
+    PackedLogicReader(Path file, PackedLogicSidecar sc, int blockSamples, boolean headerOnly, boolean readAhead) throws IOException {
         this.file = file;
         this.sc = sc;
         long size;
@@ -65,6 +78,8 @@ final class PackedLogicReader implements CaptureReader {
         this.low = w == 2 ? new byte[cap] : buf;
         this.high = w == 2 ? new byte[cap] : null;
         this.arrays = new BlockArrays(sc.names.length, blockSamples);
+        this.spans = new ReadAhead<>(file.getFileName().toString(), readAhead && !headerOnly && samples > blockSamples, arrays,
+                this::read, () -> readPos < samples);
     }
 
     @Override
@@ -91,13 +106,27 @@ final class PackedLogicReader implements CaptureReader {
         return periodFs;
     }
 
+    /** One block of every channel, unpacked, not yet handed out. */
+    private record Span(long first, int n, long[][] bits) {
+    }
+
     @Override
     public boolean next(Out out) throws IOException {
-        arrays.nextBlock();
-        if (pos >= samples) {
+        Span s = spans.next();
+        if (s == null) {
             return false;
         }
-        int n = (int) Math.min(blockSamples, samples - pos);
+        long blockStart = startFs + Math.round(s.first * periodFs);
+        for (int k = 0; k < s.bits.length; k++) {
+            out.emit(k, new LogicBlock(sc.names[k], s.first, blockStart, periodFs, s.bits[k], s.n, null));
+        }
+        pos = s.first + s.n;
+        return true;
+    }
+
+    /** Reads and unpacks the block at {@link #readPos} into the arrays of the set being filled. */
+    private Span read() throws IOException {
+        int n = (int) Math.min(blockSamples, samples - readPos);
         int bytes = n * sc.word.bytes;
         ByteBuffer bb = ByteBuffer.wrap(buf, 0, bytes);
         while (bb.hasRemaining()) {
@@ -126,12 +155,9 @@ final class PackedLogicReader implements CaptureReader {
         if (anyHigh) {
             PackedLogic.split(high, n, highOut);
         }
-        long blockStart = startFs + Math.round(pos * periodFs);
-        for (int k = 0; k < chan.length; k++) {
-            out.emit(k, new LogicBlock(sc.names[k], pos, blockStart, periodFs, chan[k], n, null));
-        }
-        pos += n;
-        return true;
+        Span s = new Span(readPos, n, chan);
+        readPos += n;
+        return s;
     }
 
     @Override
@@ -139,8 +165,14 @@ final class PackedLogicReader implements CaptureReader {
         arrays.lend(perChannel);
     }
 
+    /** The read-ahead of this reader (for tests). */
+    ReadAhead<?> readAhead() {
+        return spans;
+    }
+
     @Override
     public void close() throws IOException {
+        spans.close();
         if (ch != null) {
             ch.close();
         }

@@ -25,6 +25,7 @@ public final class PackedLogicSource implements PluginProvider {
             .option(OptionSpec.text("file", null, "path of the binary file"))
             .option(OptionSpec.text("sidecar", "", "path of the JSON sidecar; empty = the file's path + \".json\""))
             .option(OptionSpec.integer("blockSamples", 1L << 20, 64, 1 << 24, "samples per block (per channel)"))
+            .option(RawSource.READ_AHEAD)
             .outputs(PackedLogicSource::ports)
             .build();
 
@@ -44,7 +45,7 @@ public final class PackedLogicSource implements PluginProvider {
 
     static PackedLogicReader reader(OptionValues o, boolean headerOnly) throws IOException {
         return new PackedLogicReader(Path.of(o.getString("file")), PackedLogicSidecar.read(RawSource.sidecarOf(o)), o.getInt("blockSamples"),
-                headerOnly);
+                headerOnly, o.getBoolean("readAhead") && ReadAhead.allowed());
     }
 
     private static List<PortSpec> ports(OptionValues o) {

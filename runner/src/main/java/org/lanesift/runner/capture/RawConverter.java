@@ -180,15 +180,23 @@ abstract class RawConverter {
 
     /**
      * uint8 and int8: one 256-entry table of volts per channel, computed once with the same
-     * arithmetic, so the loop is a lookup per sample. The table is indexed in offset-binary order
+     * arithmetic, so the loop is a lookup per sample; the frames are copied out of the (direct)
+     * read buffer in tiles of 16 KB, each spread to every channel while it is in the first-level
+     * cache. The table is indexed in offset-binary order
      * (an int8 byte with its top bit flipped), so both formats have their end codes at 0 and 255.
      */
     static final class Bytes extends RawConverter {
+        /** Bytes (frames x channels) per tile: 16 KB. */
+        static final int TILE_VALUES = 16384;
         private final float[][] table;
         private final int flip;
+        private final byte[] tile;
+        private final int tileFrames;
 
         Bytes(RawSidecar sc, boolean signed) {
             super(sc);
+            tileFrames = Math.max(1, TILE_VALUES / channels);
+            tile = new byte[tileFrames * channels];
             this.flip = signed ? 0x80 : 0;
             table = new float[channels][256];
             for (int k = 0; k < channels; k++) {
@@ -206,27 +214,30 @@ abstract class RawConverter {
 
         @Override
         void convert(ByteBuffer bb, int frames, float[][] volts, int row, Masks masks) {
-            byte[] in = bb.array();
-            int base = bb.arrayOffset() + bb.position();
-            bb.position(bb.position() + frames * channels);
+            byte[] in = tile;
             int f = flip;
-            for (int k = 0; k < channels; k++) {
-                float[] out = volts[k];
-                float[] t = table[k];
-                int lo = 255;
-                int hi = 0;
-                for (int i = 0, j = base + k; i < frames; i++, j += channels) {
-                    int u = (in[j] & 0xff) ^ f;
-                    out[row + i] = t[u];
-                    lo = Math.min(lo, u);
-                    hi = Math.max(hi, u);
-                }
-                if (markClipped && (lo == 0 || hi == 255)) {
-                    long[] m = masks.of(k);
-                    for (int i = 0, j = base + k; i < frames; i++, j += channels) {
+            for (int f0 = 0; f0 < frames; f0 += tileFrames) {
+                int n = Math.min(tileFrames, frames - f0);
+                bb.get(in, 0, n * channels);
+                for (int k = 0; k < channels; k++) {
+                    float[] out = volts[k];
+                    float[] t = table[k];
+                    int base = row + f0;
+                    int lo = 255;
+                    int hi = 0;
+                    for (int i = 0, j = k; i < n; i++, j += channels) {
                         int u = (in[j] & 0xff) ^ f;
-                        if (u == 0 || u == 255) {
-                            mark(m, row + i);
+                        out[base + i] = t[u];
+                        lo = Math.min(lo, u);
+                        hi = Math.max(hi, u);
+                    }
+                    if (markClipped && (lo == 0 || hi == 255)) {
+                        long[] m = masks.of(k);
+                        for (int i = 0, j = k; i < n; i++, j += channels) {
+                            int u = (in[j] & 0xff) ^ f;
+                            if (u == 0 || u == 255) {
+                                mark(m, base + i);
+                            }
                         }
                     }
                 }

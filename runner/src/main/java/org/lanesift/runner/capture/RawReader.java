@@ -17,12 +17,18 @@ import org.lanesift.time.Femtos;
 
 /**
  * Streams an interleaved raw binary capture described by a {@link RawSidecar}: whole chunks of
- * frames are read into one reused buffer and converted by the format's {@link RawConverter}; the
+ * frames are read into one reused direct buffer and converted by the format's {@link RawConverter}; the
  * block arrays are new per block, or lent (two sets used in turn, see {@link BlockArrays}) where the
- * engine allows it.
+ * engine allows it. Unless turned off (the source's {@code readAhead} option, the system property
+ * {@code lanesift.readAhead=false}) or the window is one block, the next block is read and
+ * converted on a second thread while the caller decodes the current one ({@link ReadAhead}); the
+ * blocks, and any error reading them, are the same either way.
  */
 final class RawReader implements CaptureReader {
-    private static final int READ_BYTES = 1 << 20;
+    /** Bytes read at a time (whole frames, at least one). */
+    static final int READ_BYTES = 1 << 20;
+    /** {@link #READ_BYTES}, or smaller chunks in tests. */
+    static volatile int readBytes = READ_BYTES;
     private final Path file;
     private final RawSidecar sc;
     private final FileChannel ch;
@@ -36,19 +42,27 @@ final class RawReader implements CaptureReader {
     private final ByteBuffer bb;
     private final RawConverter converter;
     private final BlockArrays arrays;
+    /** Frames handed out (the caller's thread). */
     private long pos;
+    /** Next frame to read (by one read at a time, see {@link ReadAhead}). */
+    private long readPos;
+    private final ReadAhead<Span> spans;
     private final List<PortSpec> ports = new ArrayList<>();
     private final List<String> units = new ArrayList<>();
 
     RawReader(Path file, RawSidecar sc, int blockSamples, boolean headerOnly) throws IOException {
-        this(file, sc, blockSamples, headerOnly, 0, 0);
+        this(file, sc, blockSamples, headerOnly, 0, 0, ReadAhead.allowed());
     }
 
     /**
      * A reader of frames {@code [firstFrame, firstFrame + frameCount)} (to the end when the count
      * is 0), with the sample indices and times of the whole capture.
+     *
+     * @param readAhead whether the next block may be read on a second thread while this one is
+     *                  decoded ({@link ReadAhead}; never for a window of one block)
      */
-    RawReader(Path file, RawSidecar sc, int blockSamples, boolean headerOnly, long firstFrame, long frameCount) throws IOException {
+    RawReader(Path file, RawSidecar sc, int blockSamples, boolean headerOnly, long firstFrame, long frameCount, boolean readAhead)
+            throws IOException {
         this.file = file;
         this.sc = sc;
         this.nch = sc.names.length;
@@ -80,6 +94,7 @@ final class RawReader implements CaptureReader {
                     + String.format(java.util.Locale.ROOT, "%.0f", Femtos.MAX_SECONDS) + " s of its origin (times are femtoseconds in 64 bits)");
         }
         this.pos = firstFrame;
+        this.readPos = firstFrame;
         this.framesPerBlock = Math.max(1, Math.min(blockSamples, CsvReader.MAX_SPAN_VALUES / nch));
         this.periodFs = Femtos.periodFs(sc.rateHz);
         this.startFs = Femtos.fromSeconds(sc.startTimeS);
@@ -90,8 +105,9 @@ final class RawReader implements CaptureReader {
         }
         // buffers sized to the work: a short capture gets a short read buffer and short blocks
         long readFrames = Math.max(1, Math.min((long) framesPerBlock, this.frames - firstFrame));
-        int chunkFrames = (int) Math.min(readFrames, Math.max(1, READ_BYTES / frame));
-        this.bb = ByteBuffer.allocate(headerOnly ? 0 : chunkFrames * frame);
+        int chunkFrames = (int) Math.min(readFrames, Math.max(1, readBytes / frame));
+        // a direct buffer: the channel reads into it without a copy through a temporary one
+        this.bb = headerOnly ? ByteBuffer.allocate(0) : ByteBuffer.allocateDirect(chunkFrames * frame);
         bb.order(sc.format == RawSidecar.Format.INT16BE ? ByteOrder.BIG_ENDIAN : ByteOrder.LITTLE_ENDIAN);
         this.converter = headerOnly ? null : RawConverter.of(sc);
         this.arrays = new BlockArrays(nch, framesPerBlock);
@@ -99,6 +115,8 @@ final class RawReader implements CaptureReader {
         if (ch != null) {
             ch.position(firstFrame * frame);
         }
+        this.spans = new ReadAhead<>(file.getFileName().toString(), readAhead && !headerOnly && this.frames - firstFrame > framesPerBlock,
+                arrays, this::read, () -> readPos < this.frames);
     }
 
     @Override
@@ -138,13 +156,27 @@ final class RawReader implements CaptureReader {
         arrays.lend(perChannel);
     }
 
+    /** One block of every channel, read and converted, not yet handed out. */
+    private record Span(long first, int n, float[][] volts, long[][] invalid) {
+    }
+
     @Override
     public boolean next(Out out) throws IOException {
-        arrays.nextBlock();
-        if (pos >= frames) {
+        Span s = spans.next();
+        if (s == null) {
             return false;
         }
-        int n = (int) Math.min(framesPerBlock, frames - pos);
+        long blockStart = startFs + Math.round(s.first * periodFs);
+        for (int k = 0; k < nch; k++) {
+            out.emit(k, new AnalogBlock(sc.names[k], s.first, blockStart, periodFs, s.volts[k], s.n, s.invalid[k]));
+        }
+        pos = s.first + s.n;
+        return true;
+    }
+
+    /** Reads and converts the block at {@link #readPos} into the arrays of the set being filled. */
+    private Span read() throws IOException {
+        int n = (int) Math.min(framesPerBlock, frames - readPos);
         float[][] v = new float[nch][];
         for (int k = 0; k < nch; k++) {
             v[k] = arrays.volts(k, n);
@@ -165,16 +197,19 @@ final class RawReader implements CaptureReader {
             converter.convert(bb, got, v, row, masks);
             row += got;
         }
-        long blockStart = startFs + Math.round(pos * periodFs);
-        for (int k = 0; k < nch; k++) {
-            out.emit(k, new AnalogBlock(sc.names[k], pos, blockStart, periodFs, v[k], n, inv[k]));
-        }
-        pos += n;
-        return true;
+        Span s = new Span(readPos, n, v, inv);
+        readPos += n;
+        return s;
+    }
+
+    /** The read-ahead of this reader (for tests). */
+    ReadAhead<?> readAhead() {
+        return spans;
     }
 
     @Override
     public void close() throws IOException {
+        spans.close();
         if (ch != null) {
             ch.close();
         }

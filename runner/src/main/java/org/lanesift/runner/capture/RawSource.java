@@ -17,6 +17,9 @@ import org.lanesift.plugin.StageContext;
  * One ANALOG output per channel. Rules in docs/capture-raw.md.
  */
 public final class RawSource implements PluginProvider {
+    /** The option of the raw and packed-logic sources that turns the read-ahead thread off ({@link ReadAhead}). */
+    static final OptionSpec READ_AHEAD = OptionSpec.bool("readAhead", true, "read the next block on a second thread while"
+            + " this one is decoded (false: one thread; the system property lanesift.readAhead=false turns it off everywhere)");
     static final PluginDescriptor DESCRIPTOR = PluginDescriptor.builder("raw")
             .name("Raw binary capture")
             .description("Reads interleaved binary samples with a JSON sidecar giving rateHz, format and channels"
@@ -27,6 +30,7 @@ public final class RawSource implements PluginProvider {
             .option(OptionSpec.integer("firstFrame", 0L, 0, Long.MAX_VALUE, "first frame to read (0 = the start);"
                     + " sample times stay those of the whole capture"))
             .option(OptionSpec.integer("frameCount", 0L, 0, Long.MAX_VALUE, "frames to read from firstFrame (0 = to the end)"))
+            .option(READ_AHEAD)
             .outputs(RawSource::ports)
             .build();
 
@@ -52,7 +56,7 @@ public final class RawSource implements PluginProvider {
 
     static RawReader reader(OptionValues o, boolean headerOnly) throws IOException {
         return new RawReader(Path.of(o.getString("file")), RawSidecar.read(sidecarOf(o)), o.getInt("blockSamples"), headerOnly,
-                o.getLong("firstFrame"), o.getLong("frameCount"));
+                o.getLong("firstFrame"), o.getLong("frameCount"), o.getBoolean("readAhead") && ReadAhead.allowed());
     }
 
     /**

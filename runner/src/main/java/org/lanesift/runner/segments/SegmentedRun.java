@@ -294,6 +294,9 @@ public final class SegmentedRun {
                 Map<String, Object> o = new LinkedHashMap<>(n.options());
                 o.put("firstFrame", first);
                 o.put("frameCount", Math.max(1, end - first));
+                // the segments already use the cores: a read-ahead thread per segment cost CPU and
+                // won no time (bench/scripts/segments.sh, DEVELOPERS.md "Read-ahead")
+                o.put("readAhead", false);
                 n = new ChainSpec.Node(n.id(), n.plugin(), o);
             }
             nodes.add(n);

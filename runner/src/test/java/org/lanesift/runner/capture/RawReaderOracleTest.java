@@ -20,19 +20,23 @@ import org.lanesift.data.AnalogBlock;
 /**
  * The bulk raw reader gives bit for bit the samples and invalid marks of the per-sample reader it
  * replaced ({@link PerSampleRawOracle}), over a seeded corpus: every format and byte order, one to
- * eight channels, gains and offsets from the smallest to the largest the sidecar allows (negative
+ * nine channels, gains and offsets from the smallest to the largest the sidecar allows (negative
  * too), clipped end codes with and without markClipped, NaN, infinities, -0, subnormal and
- * overflowing float codes, block sizes from 1 frame up, windows, and with its blocks lent (and
- * poisoned after use) or not.
+ * overflowing float codes, block sizes from 1 frame up, read chunks of odd sizes, windows, and
+ * with its blocks lent (and poisoned after use) or not, read ahead on a second thread or not.
  */
 class RawReaderOracleTest {
     private static final RawSidecar.Format[] FORMATS = RawSidecar.Format.values();
+
+    /** Read chunk sizes: the reader's own, and odd ones that cut frames and tiles anywhere. */
+    private static final int[] CHUNK_BYTES = {RawReader.READ_BYTES, 1, 37, 1000, 4099, 65_531};
 
     private final boolean poisonBefore = BlockArrays.poison;
 
     @AfterEach
     void poisonAsBefore() {
         BlockArrays.poison = poisonBefore;
+        RawReader.readBytes = RawReader.READ_BYTES;
     }
 
     @Test
@@ -48,8 +52,7 @@ class RawReaderOracleTest {
     }
 
     private static void checkCase(Path dir, Random rnd, RawSidecar.Format format, String name) throws Exception {
-        int[] channelChoices = {1, 2, 3, 8};
-        int nch = channelChoices[rnd.nextInt(channelChoices.length)];
+        int nch = 1 + rnd.nextInt(9);
         int frames = rnd.nextInt(4) == 0 ? 64 * (1 + rnd.nextInt(40)) : rnd.nextInt(3000);
         Path bin = dir.resolve(name + ".raw");
         Files.write(bin, corpus(rnd, format, nch, frames));
@@ -62,25 +65,28 @@ class RawReaderOracleTest {
         Files.writeString(Path.of(bin + ".json"), json.append("]}").toString());
         RawSidecar sc = RawSidecar.read(Path.of(bin + ".json"));
         byte[] bytes = Files.readAllBytes(bin);
-        int[] blockChoices = {1, 7, 64, 65, 1000, 65536};
+        int[] blockChoices = {1, 7, 64, 65, 1000, 2049, 65536};
         for (int pass = 0; pass < 3; pass++) {
             int block = blockChoices[rnd.nextInt(blockChoices.length)];
             long first = frames == 0 || rnd.nextBoolean() ? 0 : rnd.nextInt(frames);
             long count = rnd.nextBoolean() ? 0 : rnd.nextInt(frames + 2);
             boolean lend = rnd.nextBoolean();
+            boolean ahead = rnd.nextBoolean();
             BlockArrays.poison = lend && rnd.nextBoolean();
+            RawReader.readBytes = CHUNK_BYTES[rnd.nextInt(CHUNK_BYTES.length)];
             String what = name + " (" + format.text + ", " + nch + " ch, " + frames + " frames, block " + block + ", first " + first
-                    + ", count " + count + (lend ? ", lent" : "") + (BlockArrays.poison ? ", poisoned" : "") + ")";
-            compare(bin, sc, bytes, block, first, count, lend, what);
+                    + ", count " + count + ", chunks of " + RawReader.readBytes + " bytes" + (lend ? ", lent" : "")
+                    + (BlockArrays.poison ? ", poisoned" : "") + (ahead ? ", read ahead" : "") + ")";
+            compare(bin, sc, bytes, block, first, count, lend, ahead, what);
         }
     }
 
     /** Reads through the bulk reader, copying each block as it arrives, and compares it with the oracle's conversion of the same frames. */
-    private static void compare(Path bin, RawSidecar sc, byte[] bytes, int block, long first, long count, boolean lend, String what)
-            throws Exception {
+    private static void compare(Path bin, RawSidecar sc, byte[] bytes, int block, long first, long count, boolean lend, boolean ahead,
+            String what) throws Exception {
         int nch = sc.names.length;
         List<AnalogBlock> copies = new ArrayList<>();
-        try (RawReader r = new RawReader(bin, sc, block, false, first, count)) {
+        try (RawReader r = new RawReader(bin, sc, block, false, first, count, ahead)) {
             boolean[] flags = new boolean[nch];
             java.util.Arrays.fill(flags, lend);
             r.lend(flags);
@@ -174,7 +180,7 @@ class RawReaderOracleTest {
             RawSidecar sc = RawSidecar.read(Path.of(bin + ".json"));
             PerSampleRawOracle.Result want = PerSampleRawOracle.convert(sc, Files.readAllBytes(bin), 0, 500);
             assertTrue(want.invalid()[0] != null && want.invalid()[1] != null, format.text + ": the corpus has invalid samples");
-            compare(bin, sc, Files.readAllBytes(bin), 64, 0, 0, true, format.text);
+            compare(bin, sc, Files.readAllBytes(bin), 64, 0, 0, true, true, format.text);
         }
     }
 }
