@@ -126,15 +126,7 @@ public class DifferentialBench {
     @Benchmark
     @OperationsPerInvocation(N * BLOCKS)
     public int sequentialReadOfBothLegs() {
-        int x = 0;
-        for (int b = 0; b < BLOCKS; b++) {
-            float[] a = p[b];
-            float[] c = n[b];
-            for (int i = 0; i < N; i++) {
-                x += Float.floatToRawIntBits(a[i]) ^ Float.floatToRawIntBits(c[i]);
-            }
-        }
-        return x;
+        return PlainRead.foldLegs(p, n, N);
     }
 
     /** Pair to logic + edges with default options (learned threshold, linear interpolation, level statistics). */

@@ -38,4 +38,25 @@ public final class PlainRead {
         }
         return x;
     }
+
+    /**
+     * The in-memory yardstick of the leg benchmarks: reads the first {@code n} samples of every pair
+     * of arrays once, each folded into the result so nothing is optimised away.
+     *
+     * @param p first legs, one array per block
+     * @param q second legs, as many as {@code p}
+     * @param n samples per block
+     * @return a sum of the samples' bit patterns
+     */
+    public static int foldLegs(float[][] p, float[][] q, int n) {
+        int x = 0;
+        for (int k = 0; k < p.length; k++) {
+            float[] a = p[k];
+            float[] b = q[k];
+            for (int i = 0; i < n; i++) {
+                x += Float.floatToRawIntBits(a[i]) ^ Float.floatToRawIntBits(b[i]);
+            }
+        }
+        return x;
+    }
 }

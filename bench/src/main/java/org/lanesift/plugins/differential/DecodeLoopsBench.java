@@ -140,14 +140,6 @@ public class DecodeLoopsBench {
     @Benchmark
     @OperationsPerInvocation(N * CHUNKS)
     public int sequentialReadOfBothLegs() {
-        int x = 0;
-        for (int k = 0; k < CHUNKS; k++) {
-            float[] a = p[k];
-            float[] b = n[k];
-            for (int i = 0; i < N; i++) {
-                x += Float.floatToRawIntBits(a[i]) ^ Float.floatToRawIntBits(b[i]);
-            }
-        }
-        return x;
+        return org.lanesift.bench.PlainRead.foldLegs(p, n, N);
     }
 }
