@@ -169,8 +169,8 @@ public final class Main implements Callable<Integer> {
                 .description("Print stack traces with errors.").build());
         cs.addOption(OptionSpec.builder("-q", "--quiet").scopeType(ScopeType.INHERIT).arity("0").type(boolean.class)
                 .description("No progress bar, no summary.").build());
-        cs.addOption(OptionSpec.builder("-h", "--help").usageHelp(true).description("Show this help message and exit.").build());
-        cs.addOption(OptionSpec.builder("-V", "--version").versionHelp(true).description("Print version information and exit.").build());
+        cs.addOption(ToolCommand.helpOption());
+        cs.addOption(ToolCommand.versionOption());
         CommandLine cl = new CommandLine(cs);
         main.commandLine = cl;
         if (only == null || only.equals("run")) {

@@ -106,8 +106,8 @@ final class RunCommand implements Callable<Integer> {
         cs.addOption(CommandLine.Model.OptionSpec.builder("--segment-frames").paramLabel("FRAMES").type(long.class).defaultValue("0")
                 .description("With --jobs: frames per segment, rounded up to whole blocks (default: chosen from the warm-up).")
                 .build());
-        cs.addOption(CommandLine.Model.OptionSpec.builder("-h", "--help").usageHelp(true).description("Show this help message and exit.").build());
-        cs.addOption(CommandLine.Model.OptionSpec.builder("-V", "--version").versionHelp(true).description("Print version information and exit.").build());
+        cs.addOption(ToolCommand.helpOption());
+        cs.addOption(ToolCommand.versionOption());
         cmd.spec = cs;
         return new CommandLine(cs);
     }

@@ -66,7 +66,7 @@ final class ToolCommand implements Callable<Integer> {
         if (!ts.footer().isEmpty()) {
             cs.usageMessage().footerHeading("%n").footer(ts.footer().stream().map(ToolCommand::literal).toArray(String[]::new));
         }
-        cs.addOption(OptionSpec.builder("-h", "--help").usageHelp(true).description("Show this help message and exit.").build());
+        cs.addOption(helpOption());
         for (ToolOption o : ts.options()) {
             cs.addOption(option(o));
         }
@@ -131,5 +131,15 @@ final class ToolCommand implements Callable<Integer> {
             // an option the tool found wrong after parsing: the same line as a value the parser refused
             throw new CommandLine.ParameterException(commandLine, e.getMessage(), e);
         }
+    }
+
+    /** The standard {@code -h, --help} option every command declares (one wording for all). */
+    static OptionSpec helpOption() {
+        return OptionSpec.builder("-h", "--help").usageHelp(true).description("Show this help message and exit.").build();
+    }
+
+    /** The standard {@code -V, --version} option of the root command and {@code run}. */
+    static OptionSpec versionOption() {
+        return OptionSpec.builder("-V", "--version").versionHelp(true).description("Print version information and exit.").build();
     }
 }
