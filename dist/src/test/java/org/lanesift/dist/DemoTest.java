@@ -103,7 +103,7 @@ class DemoTest {
         assertTrue(o.contains("whole chain:") && o.contains("ratio to the sequential read"), o);
         // the CPU-time figures follow the wall-clock ones, with a ratio of their own
         java.util.regex.Matcher m = java.util.regex.Pattern
-                .compile("whole chain \\(CPU time\\): [0-9.]+ M samples/s per channel, ratio to the sequential read ([0-9.]+);")
+                .compile("whole chain \\(process CPU time, all threads\\): [0-9.]+ M samples/s per channel, ratio to the sequential read ([0-9.]+);")
                 .matcher(o);
         assertTrue(m.find(), o);
         double cpuRatio = Double.parseDouble(m.group(1));
