@@ -18,8 +18,11 @@ package org.lanesift.data;
  *
  * <p><b>Speed.</b> A 64-bit word at a time: transitions are the set bits of {@code x ^ (x << 1 | carry)},
  * taken in order with {@code Long.numberOfTrailingZeros}; a block without unknown samples is
- * counted first so its time array is allocated once, at its exact length. In a word with unknown
- * samples each unknown bit is first filled with the level of the known sample below it (a
+ * counted first so its time array is allocated once, at its exact length. With a whole number of
+ * femtoseconds per sample, a word with many transitions (a clock near the sample rate) is written
+ * a byte at a time from a table of the set bits' time offsets, eight slots per byte whatever its
+ * bits, with no branch on the data: on such words about twice as fast as taking the bits one by
+ * one. In a word with unknown samples each unknown bit is first filled with the level of the known sample below it (a
  * segmented prefix copy in six shift steps), then the same XOR finds the transitions; the unknown
  * runs are found a word at a time too. Such blocks collect their times in one builder reused from
  * block to block.
@@ -30,10 +33,15 @@ package org.lanesift.data;
 public final class LogicEdges {
     /** Products below this are exact in a double. */
     private static final double EXACT = 0x1p52;
+    /** Words with at least this many transitions go through {@link #denseWord}. */
+    static final int DENSE_WORD = 24;
     private boolean havePrevious;
     private boolean previousLevel;
     /** Reused for blocks with unknown samples: grows to the largest block, never shrinks. */
     private final EdgeListBuilder builder = new EdgeListBuilder(64);
+    /** {@link #slotOffsets} for {@link #slotPeriodFs}, or null before the first dense word. */
+    private long[] slotFs;
+    private long slotPeriodFs;
 
     /** Creates a converter with no history. */
     public LogicEdges() {
@@ -202,24 +210,17 @@ public final class LogicEdges {
         }
         long[] times = new long[count];
         // pass 2: times
-        int k = 0;
-        carry = initial ? 1L : 0L;
-        boolean integral = p == Math.rint(p) && 2.0 * n * p < EXACT;
-        long period = (long) p;
-        long offset = origin - (period >> 1);
-        for (int w = 0; w < words; w++) {
-            long x = bits[w];
-            long mask = w == words - 1 ? lastMask : -1L;
-            long diff = (x ^ (x << 1 | carry)) & mask;
-            carry = x >>> 63;
-            int base = w << 6;
-            if (integral) {
-                final long wordFs = offset + base * period;
-                while (diff != 0) {
-                    times[k++] = wordFs + Long.numberOfTrailingZeros(diff) * period;
-                    diff &= diff - 1;
-                }
-            } else {
+        if (p == Math.rint(p) && 2.0 * n * p < EXACT) {
+            integralTimes(bits, words, lastMask, initial, times, origin - ((long) p >> 1), (long) p, slotOffsets((long) p));
+        } else {
+            int k = 0;
+            carry = initial ? 1L : 0L;
+            for (int w = 0; w < words; w++) {
+                long x = bits[w];
+                long mask = w == words - 1 ? lastMask : -1L;
+                long diff = (x ^ (x << 1 | carry)) & mask;
+                carry = x >>> 63;
+                int base = w << 6;
                 while (diff != 0) {
                     times[k++] = origin + Math.round((base + Long.numberOfTrailingZeros(diff) - 0.5) * p);
                     diff &= diff - 1;
@@ -229,6 +230,88 @@ public final class LogicEdges {
         havePrevious = true;
         previousLevel = b.get(n - 1);
         return new Edges(b.channel(), spanStart, spanEnd, initial, times, count, null, 0);
+    }
+
+    /**
+     * Pass 2 of {@link #allKnown} for a whole number of femtoseconds per sample: fills
+     * {@code times} (exactly as long as the block has transitions) with
+     * {@code offset + j * period} for every sample j that differs from the one before it. Words
+     * with many transitions go through {@link #denseWord} while 64 slots remain; the rest, and
+     * the last words, take the set bits one by one.
+     */
+    private static void integralTimes(long[] bits, int words, long lastMask, boolean initial, long[] times,
+                                      long offset, long period, long[] slotFs) {
+        final int denseLimit = times.length - 64;
+        final long wordStepFs = period << 6;
+        long carry = initial ? 1L : 0L;
+        long wordFs = offset;
+        int k = 0;
+        for (int w = 0; w < words; w++, wordFs += wordStepFs) {
+            final long x = bits[w];
+            long diff = x ^ (x << 1 | carry);
+            carry = x >>> 63;
+            if (w == words - 1) {
+                diff &= lastMask;
+            }
+            if (k <= denseLimit && Long.bitCount(diff) >= DENSE_WORD) {
+                k = denseWord(times, k, diff, wordFs, period, slotFs);
+            } else {
+                while (diff != 0) {
+                    times[k++] = wordFs + Long.numberOfTrailingZeros(diff) * period;
+                    diff &= diff - 1;
+                }
+            }
+        }
+    }
+
+    /**
+     * Writes the times of the transitions {@code diff} marks in one word, eight sample positions
+     * at a time: for each byte of {@code diff}, all eight slots {@code times[k..k+7]} get
+     * {@code byteFs} plus the offsets of the byte's set bits from {@code slotFs} (see
+     * {@link #slotOffsets}), then {@code k} moves on by the byte's bit count. The slots past a
+     * byte's transitions hold junk until later transitions overwrite them, so the caller leaves
+     * room for 64 slots after {@code k}. No branch depends on the data.
+     *
+     * @return the slot after the word's last transition
+     */
+    private static int denseWord(long[] times, int k, long diff, long wordFs, long period, long[] slotFs) {
+        for (int q = 0; q < 64; q += 8) {
+            final int bits = (int) (diff >>> q) & 0xFF;
+            final int at = bits << 3;
+            final long byteFs = wordFs + q * period;
+            times[k] = byteFs + slotFs[at];
+            times[k + 1] = byteFs + slotFs[at + 1];
+            times[k + 2] = byteFs + slotFs[at + 2];
+            times[k + 3] = byteFs + slotFs[at + 3];
+            times[k + 4] = byteFs + slotFs[at + 4];
+            times[k + 5] = byteFs + slotFs[at + 5];
+            times[k + 6] = byteFs + slotFs[at + 6];
+            times[k + 7] = byteFs + slotFs[at + 7];
+            k += Integer.bitCount(bits);
+        }
+        return k;
+    }
+
+    /**
+     * For each byte value b, the times of its set bits' sample positions after the byte's first
+     * sample, {@code position * period}, ascending at {@code [8b, 8b + bitCount(b))}; the rest of its
+     * eight entries are 0. Made once per period (16 KiB) and kept while the period stays.
+     */
+    private long[] slotOffsets(long period) {
+        if (slotFs == null || slotPeriodFs != period) {
+            long[] t = new long[256 * 8];
+            for (int b = 0; b < 256; b++) {
+                int i = 0;
+                for (int j = 0; j < 8; j++) {
+                    if ((b >>> j & 1) != 0) {
+                        t[(b << 3) + i++] = j * period;
+                    }
+                }
+            }
+            slotFs = t;
+            slotPeriodFs = period;
+        }
+        return slotFs;
     }
 
     /**
