@@ -15,6 +15,7 @@ import org.lanesift.plugin.StageContext;
 /** The running {@code spool} source. */
 final class SpoolSourceStage implements org.lanesift.plugin.Stage {
     private static final long POLL_MS = 20;
+    private static final String[] CHANNEL_NAMES = {"ch0", "ch1", "ch2", "ch3", "ch4", "ch5", "ch6", "ch7"};
     private final StageContext ctx;
     private final Path dir;
     private final boolean follow;
@@ -28,6 +29,8 @@ final class SpoolSourceStage implements org.lanesift.plugin.Stage {
     private SpoolReader reader;
     private double periodFs;
     private long lastClosedEpochMs = -1;
+    /** The segment whose close marker {@link #lastClosedEpochMs} was read from, or -1. */
+    private int closeReadFor = -1;
     private long lastPosWrite;
     private boolean done;
     private long startSample;
@@ -92,7 +95,7 @@ final class SpoolSourceStage implements org.lanesift.plugin.Stage {
         long startFs = Math.round(firstIndex * periodFs);
         for (int c = 0; c < channels; c++) {
             if (ctx.isConnected(c)) {
-                ctx.emit(c, new LogicBlock("ch" + c, firstIndex, startFs, periodFs, out[c], n, null));
+                ctx.emit(c, new LogicBlock(CHANNEL_NAMES[c], firstIndex, startFs, periodFs, out[c], n, null));
             }
         }
     }
@@ -195,10 +198,20 @@ final class SpoolSourceStage implements org.lanesift.plugin.Stage {
         }
     }
 
+    /**
+     * Notes when the current segment was closed, for the wall-clock gap to the next one. The close
+     * marker is written once, atomically, so it is read once per segment; before that only its
+     * presence is checked (it used to be read again after every chunk of a closed segment).
+     */
     private void trackClose() throws IOException {
-        Path closed = SpoolFiles.segmentClosed(dir, reader.segment());
-        if (reader.segment() > 0 && Files.exists(closed)) {
+        int seg = reader.segment();
+        if (seg <= 0 || seg == closeReadFor) {
+            return;
+        }
+        Path closed = SpoolFiles.segmentClosed(dir, seg);
+        if (Files.exists(closed)) {
             lastClosedEpochMs = parse(SpoolFiles.read(closed).getProperty("closedEpochMs"));
+            closeReadFor = seg;
         }
     }
 
