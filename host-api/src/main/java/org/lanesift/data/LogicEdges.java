@@ -35,13 +35,12 @@ public final class LogicEdges {
     private static final double EXACT = 0x1p52;
     /** Words with at least this many transitions go through {@link #denseWord}. */
     static final int DENSE_WORD = 24;
+    /** The last table made by {@link #slotOffsets}, shared by all instances and threads. */
+    private static volatile SlotTable lastSlotTable;
     private boolean havePrevious;
     private boolean previousLevel;
     /** Reused for blocks with unknown samples: grows to the largest block, never shrinks. */
     private final EdgeListBuilder builder = new EdgeListBuilder(64);
-    /** {@link #slotOffsets} for {@link #slotPeriodFs}, or null before the first dense word. */
-    private long[] slotFs;
-    private long slotPeriodFs;
 
     /** Creates a converter with no history. */
     public LogicEdges() {
@@ -295,23 +294,29 @@ public final class LogicEdges {
     /**
      * For each byte value b, the times of its set bits' sample positions after the byte's first
      * sample, {@code position * period}, ascending at {@code [8b, 8b + bitCount(b))}; the rest of its
-     * eight entries are 0. Made once per period (16 KiB) and kept while the period stays.
+     * eight entries are 0. One table (16 KiB) is shared by all converters while the period stays,
+     * so the eight channels of a capture keep one copy in the cache.
      */
-    private long[] slotOffsets(long period) {
-        if (slotFs == null || slotPeriodFs != period) {
-            long[] t = new long[256 * 8];
+    private static long[] slotOffsets(long period) {
+        SlotTable t = lastSlotTable;
+        if (t == null || t.periodFs() != period) {
+            long[] offsets = new long[256 * 8];
             for (int b = 0; b < 256; b++) {
                 int i = 0;
                 for (int j = 0; j < 8; j++) {
                     if ((b >>> j & 1) != 0) {
-                        t[(b << 3) + i++] = j * period;
+                        offsets[(b << 3) + i++] = j * period;
                     }
                 }
             }
-            slotFs = t;
-            slotPeriodFs = period;
+            t = new SlotTable(period, offsets);
+            lastSlotTable = t; // published whole: the array is filled before the volatile write
         }
-        return slotFs;
+        return t.offsetsFs();
+    }
+
+    /** A {@link #slotOffsets} table and its period; never changed once made. */
+    private record SlotTable(long periodFs, long[] offsetsFs) {
     }
 
     /**
