@@ -12,8 +12,6 @@ import java.util.Properties;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.lanesift.annotation.Annotation;
-import org.lanesift.data.LogicBlock;
-import org.lanesift.testkit.StageHarness;
 
 /**
  * A spool of three segments whose device counts its sample index from 0 again after each
@@ -73,36 +71,11 @@ class ReconnectClockReplayTest {
         long gap1 = Math.round(0.007 * rateHz);
         long gap2 = Math.round(0.013 * rateHz);
 
-        List<long[]> runs = new ArrayList<>();
-        List<Annotation> notes;
-        try (StageHarness h = StageHarness.of(new SpoolSourceProvider(), Map.of("dir", dir.toString()))) {
-            h.run();
-            List<List<LogicBlock>> ch = new ArrayList<>();
-            for (int k = 0; k < 8; k++) {
-                ch.add(h.outputs("ch" + k, LogicBlock.class));
-            }
-            for (int b = 0; b < ch.get(0).size(); b++) {
-                LogicBlock b0 = ch.get(0).get(b);
-                if (runs.isEmpty() || runs.get(runs.size() - 1)[1] != b0.firstIndex()) {
-                    runs.add(new long[] {b0.firstIndex(), b0.firstIndex()});
-                }
-                long[] run = runs.get(runs.size() - 1);
-                for (int i = 0; i < b0.length(); i++) {
-                    int v = 0;
-                    for (int k = 0; k < 8; k++) {
-                        v |= (ch.get(k).get(b).get(i) ? 1 : 0) << k;
-                    }
-                    long deviceIndex = run[1] - run[0] + i; // each device counts from 0 in its segment
-                    assertEquals(DeviceSimulator.sample(deviceIndex) & 0xFF, v, "sample " + (b0.firstIndex() + i));
-                }
-                run[1] += b0.length();
-            }
-            notes = h.annotations();
-        }
+        Replayed p = new Replayed(dir, Map.of(), true);
         long s2 = 9000 + gap1;
         long s3 = s2 + 5000 + gap2;
-        assertEquals("[0,9000)[" + s2 + "," + (s2 + 5000) + ")[" + s3 + "," + (s3 + 3000) + ")", text(runs));
-        List<Annotation> gaps = notes.stream().filter(a -> a.kind().equals("stream-gap")).toList();
+        assertEquals("[0,9000)[" + s2 + "," + (s2 + 5000) + ")[" + s3 + "," + (s3 + 3000) + ")", p.runsText());
+        List<Annotation> gaps = p.annotations.stream().filter(a -> a.kind().equals("stream-gap")).toList();
         assertEquals(2, gaps.size(), gaps.toString());
         assertEquals(gap1, ((Number) gaps.get(0).fields().get("missingSamples").value()).longValue());
         assertEquals(gap2, ((Number) gaps.get(1).fields().get("missingSamples").value()).longValue());
@@ -116,13 +89,5 @@ class ReconnectClockReplayTest {
         Properties p = SpoolFiles.read(file);
         p.setProperty(key, Long.toString(epochMs));
         SpoolFiles.writeAtomically(file, p);
-    }
-
-    private static String text(List<long[]> runs) {
-        StringBuilder s = new StringBuilder();
-        for (long[] r : runs) {
-            s.append('[').append(r[0]).append(',').append(r[1]).append(')');
-        }
-        return s.toString();
     }
 }

@@ -23,6 +23,15 @@ final class Replayed {
 
     /** Replays with more options of the spool source, such as {@code start}. */
     Replayed(Path dir, Map<String, ?> more) {
+        this(dir, more, false);
+    }
+
+    /**
+     * Replays with more options; with {@code deviceRestarts} every run of contiguous samples is
+     * checked as the simulator sends it after a reconnect that counts from 0 again (its first
+     * sample is the simulator's sample 0).
+     */
+    Replayed(Path dir, Map<String, ?> more, boolean deviceRestarts) {
         Map<String, Object> options = new java.util.HashMap<>(more);
         options.put("dir", dir.toString());
         try (StageHarness h = StageHarness.of(new SpoolSourceProvider(), options)) {
@@ -33,6 +42,13 @@ final class Replayed {
             }
             for (int k = 0; k < ch.get(0).size(); k++) {
                 LogicBlock b0 = ch.get(0).get(k);
+                long from = b0.firstIndex();
+                long to = from + b0.length();
+                if (runs.isEmpty() || runs.get(runs.size() - 1)[1] != from) {
+                    runs.add(new long[] {from, from});
+                }
+                long[] run = runs.get(runs.size() - 1);
+                long deviceShift = deviceRestarts ? run[0] : 0;
                 for (int i = 0; i < b0.length(); i++) {
                     int v = 0;
                     for (int c = 0; c < 8; c++) {
@@ -40,16 +56,10 @@ final class Replayed {
                         v |= (b.get(i) ? 1 : 0) << c;
                     }
                     long idx = b0.firstIndex() + i;
-                    assertEquals(DeviceSimulator.sample(idx) & 0xFF, v, "sample " + idx);
+                    assertEquals(DeviceSimulator.sample(idx - deviceShift) & 0xFF, v, "sample " + idx);
                 }
                 assertEquals(Math.round(b0.firstIndex() * b0.periodFs()), b0.startFs());
-                long from = b0.firstIndex();
-                long to = from + b0.length();
-                if (!runs.isEmpty() && runs.get(runs.size() - 1)[1] == from) {
-                    runs.get(runs.size() - 1)[1] = to;
-                } else {
-                    runs.add(new long[] {from, to});
-                }
+                run[1] = to;
                 samples += b0.length();
             }
             annotations = h.annotations();
