@@ -126,6 +126,10 @@ final class AnalogDelayLine {
         return delaySamples;
     }
 
+    /** Whether the line runs a filter (a fractional delay) rather than copying or handing on samples. */
+    boolean filters() {
+        return taps.length > 1;
+    }
 
 
     /**
