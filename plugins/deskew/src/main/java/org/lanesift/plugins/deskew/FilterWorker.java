@@ -1,9 +1,10 @@
 package org.lanesift.plugins.deskew;
 
-import java.util.concurrent.ArrayBlockingQueue;
-import java.util.concurrent.BlockingQueue;
 import java.util.concurrent.ExecutionException;
 import java.util.concurrent.FutureTask;
+import java.util.concurrent.LinkedBlockingQueue;
+import java.util.concurrent.ThreadPoolExecutor;
+import java.util.concurrent.TimeUnit;
 
 /**
  * The second thread of one {@code deskew} instance: runs one filter job at a time (a leg block
@@ -31,8 +32,8 @@ final class FilterWorker implements AutoCloseable {
     private static final long JOIN_MS = 10_000;
 
     private final String threadName;
-    private final BlockingQueue<Runnable> tasks = new ArrayBlockingQueue<>(1);
-    private Thread thread;
+    /** One thread, created by the first job (the JDK's executor; a job it has not begun can be taken back). */
+    private final ThreadPoolExecutor thread;
     private boolean closed;
 
     /**
@@ -51,6 +52,11 @@ final class FilterWorker implements AutoCloseable {
      */
     FilterWorker(String instanceId) {
         this.threadName = THREAD_PREFIX + instanceId;
+        this.thread = new ThreadPoolExecutor(1, 1, 0, TimeUnit.MILLISECONDS, new LinkedBlockingQueue<>(), r -> {
+            Thread t = new Thread(r, threadName);
+            t.setDaemon(true);
+            return t;
+        });
     }
 
     /**
@@ -64,10 +70,7 @@ final class FilterWorker implements AutoCloseable {
             throw new IllegalStateException("deskew worker " + threadName + " is closed");
         }
         FutureTask<Void> task = new FutureTask<>(job, null);
-        start();
-        if (!tasks.offer(task)) {
-            throw new IllegalStateException("a deskew job was submitted while one was queued");
-        }
+        thread.execute(task);
         return task;
     }
 
@@ -98,7 +101,7 @@ final class FilterWorker implements AutoCloseable {
      * @return what the job threw, or null
      */
     Throwable awaitQuietly(FutureTask<Void> task) {
-        if (tasks.remove(task)) {
+        if (thread.remove(task)) {
             task.run();
         }
         boolean interrupted = false;
@@ -121,25 +124,6 @@ final class FilterWorker implements AutoCloseable {
         }
     }
 
-    private void start() {
-        if (thread != null) {
-            return;
-        }
-        thread = new Thread(this::serve, threadName);
-        thread.setDaemon(true);
-        thread.start();
-    }
-
-    private void serve() {
-        try {
-            while (true) {
-                tasks.take().run();
-            }
-        } catch (InterruptedException e) {
-            // closed
-        }
-    }
-
     /**
      * Stops the thread and waits for it to end (a job in progress runs to its end first: a job is
      * one block through a delay line). Later calls do nothing.
@@ -150,14 +134,9 @@ final class FilterWorker implements AutoCloseable {
             return;
         }
         closed = true;
-        tasks.clear();
-        Thread t = thread;
-        if (t == null) {
-            return;
-        }
-        t.interrupt();
+        thread.shutdownNow();
         try {
-            t.join(JOIN_MS);
+            thread.awaitTermination(JOIN_MS, TimeUnit.MILLISECONDS);
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();
         }
