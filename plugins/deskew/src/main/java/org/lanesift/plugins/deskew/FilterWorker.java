@@ -20,7 +20,8 @@ import java.util.concurrent.TimeUnit;
  * <p>A failure of a job is thrown from {@link #await} as the same exception object (a job is a
  * {@link Runnable}: only unchecked exceptions and errors), so the engine reports what the filter
  * would have thrown on its own thread. The thread is a daemon named {@value #THREAD_PREFIX} and
- * the instance id, started with the first job; {@link #close()} stops it and waits for it to end.
+ * the instance id, started with the first job and ended after {@value #IDLE_MS} ms without one;
+ * {@link #close()} stops it and waits for it to end.
  * Not thread-safe: one engine thread calls it.
  */
 final class FilterWorker implements AutoCloseable {
@@ -30,6 +31,8 @@ final class FilterWorker implements AutoCloseable {
     static final String PROPERTY = "lanesift.stageThreads";
     /** Longest wait for the thread to end on {@link #close()}, in milliseconds. */
     private static final long JOIN_MS = 10_000;
+    /** An idle thread ends after this many milliseconds (a later job starts a new one). */
+    static final long IDLE_MS = 5_000;
 
     private final String threadName;
     /** One thread, created by the first job (the JDK's executor; a job it has not begun can be taken back). */
@@ -52,11 +55,13 @@ final class FilterWorker implements AutoCloseable {
      */
     FilterWorker(String instanceId) {
         this.threadName = THREAD_PREFIX + instanceId;
-        this.thread = new ThreadPoolExecutor(1, 1, 0, TimeUnit.MILLISECONDS, new LinkedBlockingQueue<>(), r -> {
+        this.thread = new ThreadPoolExecutor(1, 1, IDLE_MS, TimeUnit.MILLISECONDS, new LinkedBlockingQueue<>(), r -> {
             Thread t = new Thread(r, threadName);
             t.setDaemon(true);
             return t;
         });
+        // a host that never closes its chain does not keep an idle thread for ever
+        thread.allowCoreThreadTimeOut(true);
     }
 
     /**
