@@ -37,6 +37,8 @@ final class FilterWorker implements AutoCloseable {
     private final String threadName;
     /** One thread, created by the first job (the JDK's executor; a job it has not begun can be taken back). */
     private final ThreadPoolExecutor thread;
+    /** The thread the executor made last (an earlier one ended when it was idle), for close() to wait for. */
+    private volatile Thread last;
     private boolean closed;
 
     /**
@@ -58,6 +60,7 @@ final class FilterWorker implements AutoCloseable {
         this.thread = new ThreadPoolExecutor(1, 1, IDLE_MS, TimeUnit.MILLISECONDS, new LinkedBlockingQueue<>(), r -> {
             Thread t = new Thread(r, threadName);
             t.setDaemon(true);
+            last = t;
             return t;
         });
         // a host that never closes its chain does not keep an idle thread for ever
@@ -140,8 +143,12 @@ final class FilterWorker implements AutoCloseable {
         }
         closed = true;
         thread.shutdownNow();
+        Thread t = last;
         try {
-            thread.awaitTermination(JOIN_MS, TimeUnit.MILLISECONDS);
+            // the executor terminates a moment before its thread ends: wait for the thread itself
+            if (t != null) {
+                t.join(JOIN_MS);
+            }
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();
         }

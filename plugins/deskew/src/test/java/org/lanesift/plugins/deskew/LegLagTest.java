@@ -114,19 +114,34 @@ class LegLagTest {
         return new Corpus(o, ports, blocks);
     }
 
-    static boolean threadAlive() {
-        return Thread.getAllStackTraces().keySet().stream().anyMatch(t -> t.getName().equals(THREAD) && t.isAlive());
+    /** The live deskew worker threads of instance "dut" (the harness's instance id). */
+    static java.util.Set<Thread> workers() {
+        java.util.Set<Thread> s = new java.util.HashSet<>();
+        for (Thread t : Thread.getAllStackTraces().keySet()) {
+            if (t.getName().equals(THREAD) && t.isAlive()) {
+                s.add(t);
+            }
+        }
+        return s;
+    }
+
+    /** Whether a deskew worker thread is alive that was not alive before (other tests' idle threads may still be ending). */
+    static boolean newThreadAlive(java.util.Set<Thread> before) {
+        java.util.Set<Thread> now = workers();
+        now.removeAll(before);
+        return !now.isEmpty();
     }
 
     static Run run(Corpus c, boolean worker) {
         Map<String, Object> o = new java.util.HashMap<>(c.options());
         o.put(DeskewPlugin.STAGE_THREAD, worker);
         boolean seen = false;
+        java.util.Set<Thread> before = workers();
         Run result;
         try (StageHarness h = StageHarness.of(new DeskewPlugin(), o)) {
             for (int i = 0; i < c.blocks().size(); i++) {
                 h.push(c.ports().get(i), c.blocks().get(i));
-                seen |= threadAlive();
+                seen |= newThreadAlive(before);
             }
             h.finish();
             Map<String, List<Block>> outs = new java.util.LinkedHashMap<>();
@@ -136,7 +151,7 @@ class LegLagTest {
             outs.put("table", List.copyOf(h.outputs("table")));
             result = new Run(List.copyOf(h.emittedPorts()), outs, List.copyOf(h.annotations()), seen);
         }
-        assertFalse(threadAlive(), "no deskew worker thread is left once the stage is closed");
+        assertFalse(newThreadAlive(before), "no deskew worker thread is left once the stage is closed");
         return result;
     }
 
@@ -222,6 +237,7 @@ class LegLagTest {
     @ValueSource(booleans = {false, true})
     void aFailureDownstreamReachesTheEngineAsItselfAndLeavesNoThread(boolean worker) {
         IllegalStateException boom = new IllegalStateException("the receiver failed");
+        java.util.Set<Thread> before = workers();
         AnalogBlock whole = org.lanesift.testkit.Synth.analog("a", DeskewAnalogTest.RATE, 4000, DeskewAnalogTest::signal);
         List<AnalogBlock> parts = org.lanesift.testkit.Synth.split(whole, 2000);
         Chain chain = Chain.builder(new PluginRegistry().add(new DeskewPlugin()))
@@ -237,6 +253,6 @@ class LegLagTest {
             ChainException e = assertThrows(ChainException.class, () -> chain.push("in", parts.get(1)));
             assertSame(boom, e.getCause(), "the receiver's own exception, wrapped once by the engine");
         }
-        assertFalse(threadAlive(), "the worker thread ended with close()");
+        assertFalse(newThreadAlive(before), "the worker thread ended with close()");
     }
 }
