@@ -28,6 +28,7 @@ public final class StageHarness implements AutoCloseable {
     private final Map<String, List<Block>> outputs = new LinkedHashMap<>();
     private final List<Annotation> annotations = new ArrayList<>();
     private final List<String> inputs = new ArrayList<>();
+    private final List<String> emittedPorts = new ArrayList<>();
 
     private StageHarness(PluginProvider provider, Map<String, ?> options) {
         PluginRegistry reg = new PluginRegistry().add(provider);
@@ -40,7 +41,10 @@ public final class StageHarness implements AutoCloseable {
         for (PortSpec p : provider.descriptor().outputs(ov)) {
             outputs.put(p.name(), new ArrayList<>());
         }
-        b.outputs((id, port, block) -> outputs.get(port).add(block));
+        b.outputs((id, port, block) -> {
+            outputs.get(port).add(block);
+            emittedPorts.add(port);
+        });
         b.annotations((src, a) -> annotations.add(a));
         chain = b.build();
     }
@@ -115,6 +119,16 @@ public final class StageHarness implements AutoCloseable {
      */
     public <T extends Block> List<T> outputs(String port, Class<T> type) {
         return outputs(port).stream().map(type::cast).toList();
+    }
+
+    /**
+     * The output port of every block emitted so far, in emission order across all outputs (with
+     * {@link #outputs(String)}, which keeps each port's blocks in order, this is the whole schedule).
+     *
+     * @return port names, one per emitted block
+     */
+    public List<String> emittedPorts() {
+        return emittedPorts;
     }
 
     /**

@@ -275,6 +275,18 @@ public final class SegmentedRun {
         return Math.min(plan.layout.frames(), k * segmentFrames);
     }
 
+    /**
+     * The option by which a stage lets part of its work run on a second thread of its own
+     * (deskew's {@code stageThread}); the front chains of segments set it false wherever a stage
+     * declares it, as they turn the source's read-ahead off.
+     */
+    static final String STAGE_THREAD = "stageThread";
+
+    private boolean declaresStageThread(String pluginId) {
+        org.lanesift.plugin.PluginProvider p = registry.find(pluginId);
+        return p != null && p.descriptor().option(STAGE_THREAD) != null;
+    }
+
     /** Start of segment k's kept range; -inf for the first. */
     private long keepFrom(int k) {
         return k == 0 ? Long.MIN_VALUE : plan.layout.timeOf(frameOf(k));
@@ -297,6 +309,11 @@ public final class SegmentedRun {
                 // the segments already use the cores: a read-ahead thread per segment cost CPU and
                 // won no time (bench/scripts/segments.sh, DEVELOPERS.md "Read-ahead")
                 o.put("readAhead", false);
+                n = new ChainSpec.Node(n.id(), n.plugin(), o);
+            } else if (declaresStageThread(n.plugin())) {
+                // likewise a stage's own second thread (deskew's filter worker): the same route, an option
+                Map<String, Object> o = new LinkedHashMap<>(n.options());
+                o.put(STAGE_THREAD, false);
                 n = new ChainSpec.Node(n.id(), n.plugin(), o);
             }
             nodes.add(n);

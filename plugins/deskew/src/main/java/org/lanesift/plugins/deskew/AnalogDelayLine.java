@@ -35,6 +35,8 @@ import org.lanesift.data.BitSets;
  * 0.26-0.27 s: on the bench's link only a third of the delayed legs' samples are that quiet, and
  * the short runs between them cost more to filter than they save. On edges slower than the quiet
  * span it also moved or added P-N crossings (174 of 300 seeded slow-edge pairs), so it was dropped.
+ * What helps instead is the second core: {@link DeskewStage} runs the filter of a leg's block on
+ * its {@link FilterWorker} while the later stages take the leg's previous block.
  */
 final class AnalogDelayLine {
     private static final int CHUNK = 1024;
@@ -126,6 +128,10 @@ final class AnalogDelayLine {
         return delaySamples;
     }
 
+    /** Whether the line runs a filter (a fractional delay) rather than copying or handing on samples. */
+    boolean filters() {
+        return taps.length > 1;
+    }
 
 
     /**

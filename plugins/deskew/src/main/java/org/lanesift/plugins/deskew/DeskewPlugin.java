@@ -34,7 +34,12 @@ import org.lanesift.time.Femtos;
  * amplitude passband error up to 0.4 of the sample rate. {@code interpolator=cubic} is 4-tap
  * cubic convolution: 0.44 % error up to 0.1, 11.6 % up to 0.25 and 55 % up to 0.4 of the sample rate (see
  * {@code docs/skew-table.md}; both measured by tests). Samples near the capture ends whose kernel
- * reaches past the data, or that touch invalid input, are marked invalid.</li>
+ * reaches past the data, or that touch invalid input, are marked invalid. <b>One block of lag:</b>
+ * what a leg's block yields is handed on when that leg's next block arrives (and at the end, every
+ * leg's last block first, then every leg's held-back tail, in input order), so that the filter of
+ * one block can run on a second thread while the stages after this one take the block before
+ * ({@code stageThread}, on by default). The schedule is the same with the thread on or off, so are
+ * the outputs, their order and everything later stages make of them.</li>
  * <li><b>edges</b>: every transition time, the span start and end and unknown spans move by the
  * offset, exactly (rounded to the femtosecond).</li>
  * <li><b>logic</b>: the block's {@code startFs} moves by the offset; the bits are untouched (no
@@ -45,6 +50,11 @@ import org.lanesift.time.Femtos;
  * a skew table artifact {@code <id>-applied-skew.json} at the end.
  */
 public final class DeskewPlugin implements PluginProvider {
+    /**
+     * The option that lets the analog filter run on a second thread ({@link FilterWorker}); the
+     * segmented run turns an option of this name off in every stage that declares one.
+     */
+    static final String STAGE_THREAD = "stageThread";
     /** Largest channel count. */
     static final int MAX_CHANNELS = 64;
 
@@ -66,6 +76,10 @@ public final class DeskewPlugin implements PluginProvider {
                     + " (0 ps is used, with a skew-not-applied warning); 0 applies every row"))
             .option(OptionSpec.choice("interpolator", "sinc", "analog fractional delay: sinc (16-tap Kaiser windowed sinc)"
                     + " or cubic (4-tap, only for heavily oversampled signals)", "sinc", "cubic"))
+            .option(OptionSpec.bool(STAGE_THREAD, true, "analog: filter each leg's block on a second thread while the"
+                    + " stages after this one take the leg's block before (false: one thread; the outputs and their order"
+                    + " are the same either way; off with one processor, in the segments of --jobs, and everywhere with"
+                    + " the system property " + FilterWorker.PROPERTY + "=false)"))
             .inputs(DeskewPlugin::inputs)
             .outputs(DeskewPlugin::outputs)
             .segments(DeskewPlugin::segments)

@@ -5,6 +5,7 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
+import java.util.concurrent.FutureTask;
 import org.lanesift.annotation.Annotation;
 import org.lanesift.annotation.Severity;
 import org.lanesift.data.AnalogBlock;
@@ -21,7 +22,18 @@ import org.lanesift.plugin.StageContext;
 import org.lanesift.report.Source;
 import org.lanesift.time.Femtos;
 
-/** The running {@code deskew} instance: one offset and, for analog, one delay line per channel. */
+/**
+ * The running {@code deskew} instance: one offset and, for analog, one delay line per channel.
+ *
+ * <p>Analog legs lag by one block, the same with the worker thread on or off: {@link #accept}
+ * of a leg's block hands on what the leg's previous block yielded and keeps what this block
+ * yields until the leg's next block or {@link #finish}. With the worker ({@link FilterWorker}),
+ * the block is filtered there while the engine thread hands on the previous outputs (the later
+ * stages run meanwhile), and {@code accept} waits for the filter before it returns, so the input
+ * block is never read after {@code accept} has returned (this stage does not declare
+ * {@code readsLentBlocks}). Without it, the previous outputs are handed on first and the block is
+ * filtered after, so the emission schedule is the same either way.
+ */
 final class DeskewStage implements Stage {
     /** Largest analog delay, in samples: bounds the history a delay line keeps. */
     static final double MAX_DELAY_SAMPLES = 1 << 20;
@@ -47,6 +59,8 @@ final class DeskewStage implements Stage {
     private long firstFs = Long.MAX_VALUE;
     private long lastFs = Long.MIN_VALUE;
     private boolean marginNoted;
+    /** The second thread of analog filtering, or null when it is off. */
+    private final FilterWorker worker;
 
     private final class Channel {
         final int index;
@@ -57,6 +71,10 @@ final class DeskewStage implements Stage {
         String method = "manual";
         String suspect = "";
         AnalogDelayLine line;
+        /** What the delay line yielded for the leg's latest block, held until the next block or finish. */
+        List<AnalogBlock> made = new ArrayList<>();
+        /** An empty list to collect the next block's outputs in (the two lists take turns). */
+        List<AnalogBlock> spare = new ArrayList<>();
 
         Channel(int index) {
             this.index = index;
@@ -117,6 +135,8 @@ final class DeskewStage implements Stage {
         for (int i = 0; i < n; i++) {
             ch[i] = new Channel(i);
         }
+        boolean threaded = kind == DataKind.ANALOG && o.getBoolean(DeskewPlugin.STAGE_THREAD) && FilterWorker.allowed();
+        this.worker = threaded ? new FilterWorker(ctx.instanceId()) : null;
     }
 
     @Override
@@ -139,7 +159,7 @@ final class DeskewStage implements Stage {
         firstFs = Math.min(firstFs, block.startFs());
         lastFs = Math.max(lastFs, block.endFs());
         switch (kind) {
-            case ANALOG -> c.line.accept((AnalogBlock) block);
+            case ANALOG -> filter(c, (AnalogBlock) block);
             case EDGES -> ctx.emit(input, shift((Edges) block, Math.round(c.offsetFs)));
             case LOGIC -> {
                 LogicBlock l = (LogicBlock) block;
@@ -148,6 +168,42 @@ final class DeskewStage implements Stage {
             }
             default -> throw new IllegalStateException("unexpected kind " + kind);
         }
+    }
+
+    /**
+     * One leg block: hands on what the leg's previous block yielded and filters this one, on the
+     * worker while the handing on runs when there is one and the line filters (a whole-sample
+     * delay is a copy, cheaper done here than handed over), and keeps its outputs for the next call.
+     */
+    private void filter(Channel c, AnalogBlock b) {
+        List<AnalogBlock> held = c.made;
+        c.made = c.spare;
+        if (worker == null || !c.line.filters()) {
+            handOn(c.index, held);
+            c.line.accept(b);
+        } else {
+            FutureTask<Void> job = worker.submit(() -> c.line.accept(b));
+            try {
+                handOn(c.index, held);
+            } catch (RuntimeException | Error e) {
+                // a later stage failed: the filter still reads the block, so it must end before accept returns
+                Throwable t = worker.awaitQuietly(job);
+                if (t != null && t != e) {
+                    e.addSuppressed(t);
+                }
+                throw e;
+            }
+            worker.await(job);
+        }
+        c.spare = held;
+    }
+
+    /** Emits blocks on an output in order and empties the list. */
+    private void handOn(int output, List<AnalogBlock> blocks) {
+        for (int i = 0, k = blocks.size(); i < k; i++) {
+            ctx.emit(output, blocks.get(i));
+        }
+        blocks.clear();
     }
 
     /** A skew table from a calibration input: its rows join the others; a channel in two tables is refused. */
@@ -236,7 +292,6 @@ final class DeskewStage implements Stage {
                         + Femtos.format(c.offsetFs) + ") is " + String.format(Locale.ROOT, "%.0f", s) + " samples; at most "
                         + (long) MAX_DELAY_SAMPLES + " samples are supported");
             }
-            final int out = c.index;
             long[] m = sharedMargins(period);
             if (!marginNoted && m[0] + m[1] > 0) {
                 // said once, as information, when the first channel starts: these samples were never the user's (the
@@ -249,7 +304,7 @@ final class DeskewStage implements Stage {
             }
             // every channel starts on the same sample (a later stage may need the legs to start together); each ends
             // where its own kernel allows, so blocks are cut where they were before the margins were left out
-            c.line = new AnalogDelayLine(kernel, s, m[0], 0, blk -> ctx.emit(out, blk));
+            c.line = new AnalogDelayLine(kernel, s, m[0], 0, blk -> c.made.add(blk));
         }
         c.resolved = true;
         ctx.annotate(Annotation.on(c.name, "skew-applied").span(b.startFs(), b.startFs())
@@ -308,11 +363,20 @@ final class DeskewStage implements Stage {
 
     @Override
     public void finish() {
+        if (worker != null) {
+            worker.close(); // every job ended before the last accept returned
+        }
+        for (Channel c : ch) {
+            if (c.line != null) {
+                handOn(c.index, c.made); // every leg's last block first, then every leg's tail
+            }
+        }
         List<SkewTable.Entry> rows = new ArrayList<>();
         java.util.Set<String> used = new java.util.HashSet<>();
         for (Channel c : ch) {
             if (c.line != null) {
                 c.line.finish();
+                handOn(c.index, c.made);
             }
             if (c.resolved) {
                 // two inputs carrying the same channel name are told apart by their port name
@@ -329,6 +393,20 @@ final class DeskewStage implements Stage {
             long s = firstFs == Long.MAX_VALUE ? 0 : firstFs;
             long e = lastFs == Long.MIN_VALUE ? s : Math.max(s, lastFs);
             ctx.emit(n, new Artifact(ctx.instanceId(), s, e, ctx.instanceId() + "-applied-skew.json", "application/json", json));
+        }
+    }
+
+    /**
+     * Stops the worker thread. Outputs still held (a run that failed or was closed without
+     * {@link #finish}) are dropped: nothing is emitted after the chain has stopped.
+     */
+    @Override
+    public void close() {
+        if (worker != null) {
+            worker.close();
+        }
+        for (Channel c : ch) {
+            c.made.clear();
         }
     }
 
