@@ -36,7 +36,7 @@ import org.lanesift.data.BitSets;
  * the short runs between them cost more to filter than they save. On edges slower than the quiet
  * span it also moved or added P-N crossings (174 of 300 seeded slow-edge pairs), so it was dropped.
  * What helps instead is the second core: {@link DeskewStage} runs the filter of a leg's block on
- * its {@link FilterWorker} while the later stages take the leg's previous block.
+ * its worker thread (signal-kit {@code SideThread}) while the later stages take the leg's previous block.
  */
 final class AnalogDelayLine {
     private static final int CHUNK = 1024;

@@ -51,7 +51,7 @@ import org.lanesift.time.Femtos;
  */
 public final class DeskewPlugin implements PluginProvider {
     /**
-     * The option that lets the analog filter run on a second thread ({@link FilterWorker}); the
+     * The option that lets the analog filter run on a second thread ({@link DeskewStage}, signal-kit {@code SideThread}); the
      * segmented run turns an option of this name off in every stage that declares one.
      */
     static final String STAGE_THREAD = "stageThread";
@@ -79,7 +79,7 @@ public final class DeskewPlugin implements PluginProvider {
             .option(OptionSpec.bool(STAGE_THREAD, true, "analog: filter each leg's block on a second thread while the"
                     + " stages after this one take the leg's block before (false: one thread; the outputs and their order"
                     + " are the same either way; off with one processor, in the segments of --jobs, and everywhere with"
-                    + " the system property " + FilterWorker.PROPERTY + "=false)"))
+                    + " the system property " + DeskewStage.PROPERTY + "=false)"))
             .inputs(DeskewPlugin::inputs)
             .outputs(DeskewPlugin::outputs)
             .segments(DeskewPlugin::segments)

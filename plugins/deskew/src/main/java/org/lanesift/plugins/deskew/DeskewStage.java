@@ -15,6 +15,7 @@ import org.lanesift.data.DataKind;
 import org.lanesift.data.Edges;
 import org.lanesift.data.LogicBlock;
 import org.lanesift.json.NumberStyle;
+import org.lanesift.kit.SideThread;
 import org.lanesift.plugin.OptionException;
 import org.lanesift.plugin.OptionValues;
 import org.lanesift.plugin.Stage;
@@ -27,7 +28,7 @@ import org.lanesift.time.Femtos;
  *
  * <p>Analog legs lag by one block, the same with the worker thread on or off: {@link #accept}
  * of a leg's block hands on what the leg's previous block yielded and keeps what this block
- * yields until the leg's next block or {@link #finish}. With the worker ({@link FilterWorker}),
+ * yields until the leg's next block or {@link #finish}. With the worker (signal-kit's {@link SideThread}, named {@value #THREAD_PREFIX} and the instance id),
  * the block is filtered there while the engine thread hands on the previous outputs (the later
  * stages run meanwhile), and {@code accept} waits for the filter before it returns, so the input
  * block is never read after {@code accept} has returned (this stage does not declare
@@ -60,7 +61,12 @@ final class DeskewStage implements Stage {
     private long lastFs = Long.MIN_VALUE;
     private boolean marginNoted;
     /** The second thread of analog filtering, or null when it is off. */
-    private final FilterWorker worker;
+    /** Name prefix of the filter worker threads. */
+    static final String THREAD_PREFIX = "lanesift-deskew ";
+    /** The system property that turns stage worker threads off everywhere ({@code -Dlanesift.stageThreads=false}). */
+    static final String PROPERTY = "lanesift.stageThreads";
+
+    private final SideThread worker;
 
     private final class Channel {
         final int index;
@@ -135,8 +141,8 @@ final class DeskewStage implements Stage {
         for (int i = 0; i < n; i++) {
             ch[i] = new Channel(i);
         }
-        boolean threaded = kind == DataKind.ANALOG && o.getBoolean(DeskewPlugin.STAGE_THREAD) && FilterWorker.allowed();
-        this.worker = threaded ? new FilterWorker(ctx.instanceId()) : null;
+        boolean threaded = kind == DataKind.ANALOG && o.getBoolean(DeskewPlugin.STAGE_THREAD) && SideThread.allowed(PROPERTY);
+        this.worker = threaded ? new SideThread(THREAD_PREFIX + ctx.instanceId()) : null;
     }
 
     @Override
@@ -182,18 +188,25 @@ final class DeskewStage implements Stage {
             handOn(c.index, held);
             c.line.accept(b);
         } else {
-            FutureTask<Void> job = worker.submit(() -> c.line.accept(b));
+            FutureTask<Void> job = worker.submit(() -> {
+                c.line.accept(b);
+                return null;
+            });
             try {
                 handOn(c.index, held);
             } catch (RuntimeException | Error e) {
                 // a later stage failed: the filter still reads the block, so it must end before accept returns
-                Throwable t = worker.awaitQuietly(job);
+                Throwable t = worker.awaitUninterruptibly(job);
                 if (t != null && t != e) {
                     e.addSuppressed(t);
                 }
                 throw e;
             }
-            worker.await(job);
+            // the filter reads the block: it must end before accept returns, interrupted or not
+            Throwable t = worker.awaitUninterruptibly(job);
+            if (t != null) {
+                throw SideThread.rethrow(t, RuntimeException.class);
+            }
         }
         c.spare = held;
     }

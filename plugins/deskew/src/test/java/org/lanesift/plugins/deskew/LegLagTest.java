@@ -33,7 +33,7 @@ import org.lanesift.testkit.StageHarness;
  */
 class LegLagTest {
     static final double PERIOD_FS = 100_000; // 10 GS/s
-    static final String THREAD = FilterWorker.THREAD_PREFIX + "dut";
+    static final String THREAD = DeskewStage.THREAD_PREFIX + "dut";
 
     /** One seeded input: the options and the blocks in the order they are pushed (port, block). */
     record Corpus(Map<String, Object> options, List<String> ports, List<AnalogBlock> blocks) {
