@@ -64,10 +64,9 @@ abstract class RawConverter {
      * float32le: read through a float view, finite check by {@code |v| <= Float.MAX_VALUE} folded
      * into one flag per channel (false for NaN and both infinities; a compare and an AND a sample,
      * where tracking the largest exponent cost a compare-and-select chain that took longer than the
-     * copy itself, RawReadBench). The frames
-     * are taken in tiles of about 32 KB, each spread to every channel while it is still in the
-     * first-level cache (one pass per channel over a whole block would read it from memory once
-     * per channel). With gain 1 and offset 0 a code is its volts: {@code code + 0f} equals
+     * copy itself: DEVELOPERS.md, "Float32 finite check of the raw reader"). The frames are taken
+     * in tiles of about 32 KB, each spread to every channel while it is still in the first-level
+     * cache (one pass per channel over a whole block would read it from memory once per channel). With gain 1 and offset 0 a code is its volts: {@code code + 0f} equals
      * {@code (float) (code * 1.0 + 0.0)} bit for bit (it also turns -0 into +0), without the
      * round trip through a double.
      */
