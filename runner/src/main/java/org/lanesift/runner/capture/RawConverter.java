@@ -61,10 +61,12 @@ abstract class RawConverter {
     }
 
     /**
-     * float32le: read through a float view, finite check by the largest exponent seen. The frames
-     * are taken in tiles of about 32 KB, each spread to every channel while it is still in the
-     * first-level cache (one pass per channel over a whole block would read it from memory once
-     * per channel). With gain 1 and offset 0 a code is its volts: {@code code + 0f} equals
+     * float32le: read through a float view, finite check by {@code |v| <= Float.MAX_VALUE} folded
+     * into one flag per channel (false for NaN and both infinities; a compare and an AND a sample,
+     * where tracking the largest exponent cost a compare-and-select chain that took longer than the
+     * copy itself: DEVELOPERS.md, "Float32 finite check of the raw reader"). The frames are taken
+     * in tiles of about 32 KB, each spread to every channel while it is still in the first-level
+     * cache (one pass per channel over a whole block would read it from memory once per channel). With gain 1 and offset 0 a code is its volts: {@code code + 0f} equals
      * {@code (float) (code * 1.0 + 0.0)} bit for bit (it also turns -0 into +0), without the
      * round trip through a double.
      */
@@ -73,14 +75,14 @@ abstract class RawConverter {
         static final int TILE_VALUES = 8192;
         private final float[] tile;
         private final int tileFrames;
-        private final int[] expMax;
+        private final boolean[] finite;
         private final boolean[] identity;
 
         Float32(RawSidecar sc) {
             super(sc);
             tileFrames = Math.max(1, TILE_VALUES / channels);
             tile = new float[tileFrames * channels];
-            expMax = new int[channels];
+            finite = new boolean[channels];
             identity = new boolean[channels];
             for (int k = 0; k < channels; k++) {
                 identity[k] = gain[k] == 1.0 && offset[k] == 0.0;
@@ -90,7 +92,7 @@ abstract class RawConverter {
         @Override
         void convert(ByteBuffer bb, int frames, float[][] volts, int row, Masks masks) {
             java.nio.FloatBuffer fb = bb.asFloatBuffer();
-            java.util.Arrays.fill(expMax, 0);
+            java.util.Arrays.fill(finite, true);
             float[] in = tile;
             for (int f0 = 0; f0 < frames; f0 += tileFrames) {
                 int n = Math.min(tileFrames, frames - f0);
@@ -98,12 +100,12 @@ abstract class RawConverter {
                 for (int k = 0; k < channels; k++) {
                     float[] out = volts[k];
                     int base = row + f0;
-                    int exp = expMax[k];
+                    boolean ok = finite[k];
                     if (identity[k]) {
                         for (int i = 0, j = k; i < n; i++, j += channels) {
                             float v = in[j] + 0f;
                             out[base + i] = v;
-                            exp = Math.max(exp, Float.floatToRawIntBits(v) & 0x7f80_0000);
+                            ok &= Math.abs(v) <= Float.MAX_VALUE;
                         }
                     } else {
                         double g = gain[k];
@@ -111,15 +113,15 @@ abstract class RawConverter {
                         for (int i = 0, j = k; i < n; i++, j += channels) {
                             float v = (float) (in[j] * g + o);
                             out[base + i] = v;
-                            exp = Math.max(exp, Float.floatToRawIntBits(v) & 0x7f80_0000);
+                            ok &= Math.abs(v) <= Float.MAX_VALUE;
                         }
                     }
-                    expMax[k] = exp;
+                    finite[k] = ok;
                 }
             }
             bb.position(bb.position() + 4 * frames * channels);
             for (int k = 0; k < channels; k++) {
-                if (expMax[k] == 0x7f80_0000) {
+                if (!finite[k]) {
                     // a NaN or infinite code, or a product too large for a float: invalid
                     float[] out = volts[k];
                     long[] m = masks.of(k);
