@@ -66,8 +66,8 @@ public class LiveCaptureBench {
     @Param({"512"})
     int megabytes;
 
-    /** The spool source's {@code blockSamples}: samples per block it emits (its default is 65536). */
-    @Param({"65536"})
+    /** The spool source's {@code blockSamples}: samples per block it emits (its default is 8192). */
+    @Param({"8192"})
     int blockSamples;
 
     Path dir;

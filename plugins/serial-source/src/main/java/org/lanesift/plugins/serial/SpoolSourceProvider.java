@@ -32,7 +32,7 @@ public final class SpoolSourceProvider implements PluginProvider {
             .option(OptionSpec.integer("channels", 8L, 1, 8, "logic channels to emit, ch0..ch(N-1)"))
             .option(OptionSpec.time("start", org.lanesift.time.TimeValue.Unit.S, "0s", "replay from this time of the capture,"
                     + " such as 90s or 4000000samples; what lies before it is passed over through the segment indexes, unread"))
-            .option(OptionSpec.integer("blockSamples", 65536L, 64, 1L << 22, "samples per emitted block at most"))
+            .option(OptionSpec.integer("blockSamples", 8192L, 64, 1L << 22, "samples per emitted block at most"))
             .outputs(SpoolSourceProvider::ports)
             .build();
 
