@@ -28,12 +28,16 @@ import org.lanesift.time.Femtos;
  *
  * <p>Analog legs lag by one block, the same with the worker thread on or off: {@link #accept}
  * of a leg's block hands on what the leg's previous block yielded and keeps what this block
- * yields until the leg's next block or {@link #finish}. With the worker (signal-kit's {@link SideThread}, named {@value #THREAD_PREFIX} and the instance id),
- * the block is filtered there while the engine thread hands on the previous outputs (the later
- * stages run meanwhile), and {@code accept} waits for the filter before it returns, so the input
- * block is never read after {@code accept} has returned (this stage does not declare
- * {@code readsLentBlocks}). Without it, the previous outputs are handed on first and the block is
- * filtered after, so the emission schedule is the same either way.
+ * yields until the leg's next block or {@link #finish}. With the worker (signal-kit's
+ * {@link SideThread}, named {@value #THREAD_PREFIX} and the instance id), the block is filtered
+ * there while the engine thread goes on: it hands on the previous outputs and runs the later
+ * stages on the other legs' blocks; the leg's next {@code accept} (or {@link #finish}) waits for
+ * the filter before it hands its outputs on. The input block is read after {@code accept} has
+ * returned, which the ownership rule allows a stage that does not declare
+ * {@code readsLentBlocks} (host-api {@code Block}). Without the worker, the previous outputs are
+ * handed on first and the block is filtered after, so the emission schedule is the same either
+ * way. A filter that fails (it has no input it can fail on; an error such as running out of
+ * memory) is reported at the leg's next block or at {@code finish} when it ran on the worker.
  */
 final class DeskewStage implements Stage {
     /** Largest analog delay, in samples: bounds the history a delay line keeps. */
@@ -60,12 +64,12 @@ final class DeskewStage implements Stage {
     private long firstFs = Long.MAX_VALUE;
     private long lastFs = Long.MIN_VALUE;
     private boolean marginNoted;
-    /** The second thread of analog filtering, or null when it is off. */
     /** Name prefix of the filter worker threads. */
     static final String THREAD_PREFIX = "lanesift-deskew ";
     /** The system property that turns stage worker threads off everywhere ({@code -Dlanesift.stageThreads=false}). */
     static final String PROPERTY = "lanesift.stageThreads";
 
+    /** The second thread of analog filtering, or null when it is off. */
     private final SideThread worker;
 
     private final class Channel {
@@ -81,6 +85,8 @@ final class DeskewStage implements Stage {
         List<AnalogBlock> made = new ArrayList<>();
         /** An empty list to collect the next block's outputs in (the two lists take turns). */
         List<AnalogBlock> spare = new ArrayList<>();
+        /** The worker's job for the leg's latest block (it fills {@link #made}), or null. */
+        FutureTask<Void> pending;
 
         Channel(int index) {
             this.index = index;
@@ -177,38 +183,46 @@ final class DeskewStage implements Stage {
     }
 
     /**
-     * One leg block: hands on what the leg's previous block yielded and filters this one, on the
-     * worker while the handing on runs when there is one and the line filters (a whole-sample
-     * delay is a copy, cheaper done here than handed over), and keeps its outputs for the next call.
+     * One leg block: hands on what the leg's previous block yielded and filters this one, keeping
+     * its outputs for the leg's next block. With the worker, when the line filters (a whole-sample
+     * delay is a copy, cheaper done here than handed over), the block is filtered there and this
+     * call does not wait for it: the leg's next call (or {@link #finish}) does, before it hands the
+     * outputs on, so the worker filters while this thread runs the later stages on every leg's
+     * previous block. This stage does not declare {@code readsLentBlocks}, so the block is its own
+     * to read after this call returns (host-api {@code Block}, "Ownership"). Each delay line is
+     * used by one job at a time: a leg's job is awaited before the leg's next job is given.
      */
     private void filter(Channel c, AnalogBlock b) {
-        List<AnalogBlock> held = c.made;
-        c.made = c.spare;
         if (worker == null || !c.line.filters()) {
+            List<AnalogBlock> held = c.made;
+            c.made = c.spare;
             handOn(c.index, held);
             c.line.accept(b);
-        } else {
-            FutureTask<Void> job = worker.submit(() -> {
-                c.line.accept(b);
-                return null;
-            });
-            try {
-                handOn(c.index, held);
-            } catch (RuntimeException | Error e) {
-                // a later stage failed: the filter still reads the block, so it must end before accept returns
-                Throwable t = worker.awaitUninterruptibly(job);
-                if (t != null && t != e) {
-                    e.addSuppressed(t);
-                }
-                throw e;
-            }
-            // the filter reads the block: it must end before accept returns, interrupted or not
-            Throwable t = worker.awaitUninterruptibly(job);
-            if (t != null) {
-                throw SideThread.rethrow(t, RuntimeException.class);
-            }
+            c.spare = held;
+            return;
         }
+        awaitJob(c);
+        List<AnalogBlock> held = c.made;
+        c.made = c.spare;
+        c.pending = worker.submit(() -> {
+            c.line.accept(b);
+            return null;
+        });
+        handOn(c.index, held);
         c.spare = held;
+    }
+
+    /** Waits for the leg's job, if any (running it here when the worker has not begun it), and throws what it threw. */
+    private void awaitJob(Channel c) {
+        FutureTask<Void> job = c.pending;
+        if (job == null) {
+            return;
+        }
+        c.pending = null;
+        Throwable t = worker.awaitUninterruptibly(job);
+        if (t != null) {
+            throw SideThread.rethrow(t, RuntimeException.class);
+        }
     }
 
     /** Emits blocks on an output in order and empties the list. */
@@ -377,7 +391,10 @@ final class DeskewStage implements Stage {
     @Override
     public void finish() {
         if (worker != null) {
-            worker.close(); // every job ended before the last accept returned
+            for (Channel c : ch) {
+                awaitJob(c);
+            }
+            worker.close(); // every job has ended
         }
         for (Channel c : ch) {
             if (c.line != null) {
