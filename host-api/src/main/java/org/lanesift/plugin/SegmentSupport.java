@@ -14,6 +14,14 @@ package org.lanesift.plugin;
  * @param blocker       why the stage cannot run in segments with these options, or null when it can
  */
 public record SegmentSupport(long warmupSamples, long warmupFs, String blocker) {
+    /**
+     * The name of the boolean option by which a stage lets part of its work run on a second thread
+     * of its own (deskew's filter worker). A host that decodes in segments already keeps the cores
+     * busy with one segment per thread, so it sets this option false in every stage that declares
+     * it, as it turns a source's read-ahead off.
+     */
+    public static final String STAGE_THREAD_OPTION = "stageThread";
+
 
     /**
      * Checks the values.

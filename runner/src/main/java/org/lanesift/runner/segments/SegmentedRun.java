@@ -29,6 +29,7 @@ import org.lanesift.data.Block;
 import org.lanesift.data.Edges;
 import org.lanesift.data.LogicBlock;
 import org.lanesift.plugin.PluginRegistry;
+import org.lanesift.plugin.SegmentSupport;
 import org.lanesift.time.Femtos;
 
 /**
@@ -275,16 +276,10 @@ public final class SegmentedRun {
         return Math.min(plan.layout.frames(), k * segmentFrames);
     }
 
-    /**
-     * The option by which a stage lets part of its work run on a second thread of its own
-     * (deskew's {@code stageThread}); the front chains of segments set it false wherever a stage
-     * declares it, as they turn the source's read-ahead off.
-     */
-    static final String STAGE_THREAD = "stageThread";
-
+    /** Whether a plugin declares {@link SegmentSupport#STAGE_THREAD_OPTION} (its stages may use a second thread). */
     private boolean declaresStageThread(String pluginId) {
         org.lanesift.plugin.PluginProvider p = registry.find(pluginId);
-        return p != null && p.descriptor().option(STAGE_THREAD) != null;
+        return p != null && p.descriptor().option(SegmentSupport.STAGE_THREAD_OPTION) != null;
     }
 
     /** Start of segment k's kept range; -inf for the first. */
@@ -313,7 +308,7 @@ public final class SegmentedRun {
             } else if (declaresStageThread(n.plugin())) {
                 // likewise a stage's own second thread (deskew's filter worker): the same route, an option
                 Map<String, Object> o = new LinkedHashMap<>(n.options());
-                o.put(STAGE_THREAD, false);
+                o.put(SegmentSupport.STAGE_THREAD_OPTION, false);
                 n = new ChainSpec.Node(n.id(), n.plugin(), o);
             }
             nodes.add(n);

@@ -28,7 +28,7 @@ import org.lanesift.runner.fakes.FakeEdges;
 /**
  * The segments of {@code --jobs} already use the cores, so their front chains turn a stage's own
  * second thread off, by the same route as the source's read-ahead: the option
- * {@value SegmentedRun#STAGE_THREAD}, set false in every stage that declares it; one pass leaves it alone.
+ * {@value org.lanesift.plugin.SegmentSupport#STAGE_THREAD_OPTION}, set false in every stage that declares it; one pass leaves it alone.
  */
 class StageThreadOffTest {
     @TempDir
@@ -38,7 +38,7 @@ class StageThreadOffTest {
     static final class Threaded implements PluginProvider {
         final ConcurrentLinkedQueue<Boolean> opened = new ConcurrentLinkedQueue<>();
         private final PluginDescriptor d = PluginDescriptor.builder("fake-threaded").name("Fake threaded")
-                .option(OptionSpec.bool(SegmentedRun.STAGE_THREAD, true, "use a second thread"))
+                .option(OptionSpec.bool(org.lanesift.plugin.SegmentSupport.STAGE_THREAD_OPTION, true, "use a second thread"))
                 .input(PortSpec.of("in", DataKind.ANALOG, "voltage"))
                 .output(PortSpec.of("out", DataKind.ANALOG, "the same"))
                 .segments(o -> SegmentSupport.after(1, 0))
@@ -51,7 +51,7 @@ class StageThreadOffTest {
 
         @Override
         public Stage open(StageContext ctx) {
-            opened.add(ctx.options().getBoolean(SegmentedRun.STAGE_THREAD));
+            opened.add(ctx.options().getBoolean(org.lanesift.plugin.SegmentSupport.STAGE_THREAD_OPTION));
             return new Stage() {
                 @Override
                 public void accept(int input, org.lanesift.data.Block block) {

@@ -133,7 +133,6 @@ final class AnalogDelayLine {
         return taps.length > 1;
     }
 
-
     /**
      * Takes the next input block.
      *

@@ -51,10 +51,10 @@ import org.lanesift.time.Femtos;
  */
 public final class DeskewPlugin implements PluginProvider {
     /**
-     * The option that lets the analog filter run on a second thread ({@link DeskewStage}, signal-kit {@code SideThread}); the
-     * segmented run turns an option of this name off in every stage that declares one.
+     * The option that lets the analog filter run on a second thread ({@link DeskewStage}, signal-kit {@code SideThread}):
+     * host-api's {@link SegmentSupport#STAGE_THREAD_OPTION}, which segmented runs turn off.
      */
-    static final String STAGE_THREAD = "stageThread";
+    static final String STAGE_THREAD = SegmentSupport.STAGE_THREAD_OPTION;
     /** Largest channel count. */
     static final int MAX_CHANNELS = 64;
 
