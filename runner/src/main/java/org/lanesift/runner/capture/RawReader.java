@@ -27,8 +27,6 @@ import org.lanesift.time.Femtos;
 final class RawReader implements CaptureReader {
     /** Bytes read at a time (whole frames, at least one). */
     static final int READ_BYTES = 1 << 20;
-    /** {@link #READ_BYTES}, or smaller chunks in tests. */
-    static volatile int readBytes = READ_BYTES;
     private final Path file;
     private final RawSidecar sc;
     private final FileChannel ch;
@@ -63,6 +61,15 @@ final class RawReader implements CaptureReader {
      */
     RawReader(Path file, RawSidecar sc, int blockSamples, boolean headerOnly, long firstFrame, long frameCount, boolean readAhead)
             throws IOException {
+        this(file, sc, blockSamples, headerOnly, firstFrame, frameCount, readAhead, READ_BYTES);
+    }
+
+    /**
+     * As above, reading {@code readBytes} at a time (rounded down to whole frames, at least one):
+     * tests cut the reads at odd sizes.
+     */
+    RawReader(Path file, RawSidecar sc, int blockSamples, boolean headerOnly, long firstFrame, long frameCount, boolean readAhead,
+              int readBytes) throws IOException {
         this.file = file;
         this.sc = sc;
         this.nch = sc.names.length;

@@ -36,7 +36,6 @@ class RawReaderOracleTest {
     @AfterEach
     void poisonAsBefore() {
         BlockArrays.poison = poisonBefore;
-        RawReader.readBytes = RawReader.READ_BYTES;
     }
 
     @Test
@@ -73,20 +72,20 @@ class RawReaderOracleTest {
             boolean lend = rnd.nextBoolean();
             boolean ahead = rnd.nextBoolean();
             BlockArrays.poison = lend && rnd.nextBoolean();
-            RawReader.readBytes = CHUNK_BYTES[rnd.nextInt(CHUNK_BYTES.length)];
+            int readBytes = CHUNK_BYTES[rnd.nextInt(CHUNK_BYTES.length)];
             String what = name + " (" + format.text + ", " + nch + " ch, " + frames + " frames, block " + block + ", first " + first
-                    + ", count " + count + ", chunks of " + RawReader.readBytes + " bytes" + (lend ? ", lent" : "")
+                    + ", count " + count + ", chunks of " + readBytes + " bytes" + (lend ? ", lent" : "")
                     + (BlockArrays.poison ? ", poisoned" : "") + (ahead ? ", read ahead" : "") + ")";
-            compare(bin, sc, bytes, block, first, count, lend, ahead, what);
+            compare(bin, sc, bytes, block, first, count, lend, ahead, readBytes, what);
         }
     }
 
     /** Reads through the bulk reader, copying each block as it arrives, and compares it with the oracle's conversion of the same frames. */
     private static void compare(Path bin, RawSidecar sc, byte[] bytes, int block, long first, long count, boolean lend, boolean ahead,
-            String what) throws Exception {
+            int readBytes, String what) throws Exception {
         int nch = sc.names.length;
         List<AnalogBlock> copies = new ArrayList<>();
-        try (RawReader r = new RawReader(bin, sc, block, false, first, count, ahead)) {
+        try (RawReader r = new RawReader(bin, sc, block, false, first, count, ahead, readBytes)) {
             boolean[] flags = new boolean[nch];
             java.util.Arrays.fill(flags, lend);
             r.lend(flags);
@@ -180,7 +179,7 @@ class RawReaderOracleTest {
             RawSidecar sc = RawSidecar.read(Path.of(bin + ".json"));
             PerSampleRawOracle.Result want = PerSampleRawOracle.convert(sc, Files.readAllBytes(bin), 0, 500);
             assertTrue(want.invalid()[0] != null && want.invalid()[1] != null, format.text + ": the corpus has invalid samples");
-            compare(bin, sc, Files.readAllBytes(bin), 64, 0, 0, true, true, format.text);
+            compare(bin, sc, Files.readAllBytes(bin), 64, 0, 0, true, true, RawReader.READ_BYTES, format.text);
         }
     }
 }
