@@ -58,6 +58,7 @@ for i in $(seq 1 "$RUNS"); do
     "$i" "$w1" "$c1" "$g1" "$j1" "$p1" "$w2" "$c2" "$g2" "$j2" "$p2"
   printf ' speed-up %.2f, CPU ratio %.2f; same outputs: %s; load %s\n' "$sp" "$cr" "$(same)" "$(cut -d' ' -f1 /proc/loadavg)"
 done
-sort -n "$WORK/ratios" | awk '{a[NR]=$1} END {printf "speed-up (wall): min %.2f / median %.2f / max %.2f\n", a[1], a[int((NR+1)/2)], a[NR]}'
-sort -k2 -n "$WORK/ratios" | awk '{a[NR]=$2} END {printf "CPU --jobs 2 / one pass: min %.2f / median %.2f / max %.2f\n", a[1], a[int((NR+1)/2)], a[NR]}'
+source bench/scripts/stats.sh
+echo "speed-up (wall): $(min_med_max %.2f $(awk '{print $1}' "$WORK/ratios"))"
+echo "CPU --jobs 2 / one pass: $(min_med_max %.2f $(awk '{print $2}' "$WORK/ratios"))"
 echo "load after: $(cut -d' ' -f1-3 /proc/loadavg)"

@@ -114,9 +114,8 @@ for i in $(seq 1 "$RUNS"); do
 done
 # the decode of both must agree (same frames) or the timing compares different work
 cmp "$WORK/s/decode/panel-timing.json" "$WORK/p3/panel-timing.json"
-stats() { printf '%s\n' "$@" | sort -g | awk '{ v[NR] = $1 } END { printf "min %.2f s, median %.2f s, max %.2f s", v[1], v[int((NR + 1) / 2)], v[NR] }'; }
-med() { printf '%s\n' "$@" | sort -g | awk '{ v[NR] = $1 } END { print v[int((NR + 1) / 2)] }'; }
+source bench/scripts/stats.sh
 echo "capture $(basename "$CAP") ($(awk -v s="$(stat -c %s "$CAP")" 'BEGIN { printf "%.1f MB", s / 1e6 }'), $RUNS interleaved runs, $(nproc) cores, load $(cut -d' ' -f1-3 /proc/loadavg))"
-echo "  sift:         $(stats "${SIFT[@]}")"
-echo "  three chains: $(stats "${CHAINS[@]}")"
-awk -v s="$(med "${SIFT[@]}")" -v c="$(med "${CHAINS[@]}")" 'BEGIN { printf "  ratio of medians sift / three chains: %.2f (target <= 1.5)\n", s / c }'
+echo "  sift:         $(min_med_max_s "${SIFT[@]}")"
+echo "  three chains: $(min_med_max_s "${CHAINS[@]}")"
+awk -v s="$(median "${SIFT[@]}")" -v c="$(median "${CHAINS[@]}")" 'BEGIN { printf "  ratio of medians sift / three chains: %.2f (target <= 1.5)\n", s / c }'

@@ -30,11 +30,9 @@ for i in $(seq 1 "$RUNS"); do
   if [ $((i % 2)) = 1 ]; then one on "$i"; one off "$i"; else one off "$i"; one on "$i"; fi
   paste "$WORK/on.r" "$WORK/off.r" | tail -1 | awk '{printf "  on/off wall %.3f\n", $1 / $5}'
 done
+source bench/scripts/stats.sh
+col() { awk -v c="$2" '{print $c}' "$WORK/$1.r"; }
 for side in on off; do
-  for col in 1 3 2; do
-    sort -n -k$col "$WORK/$side.r" | awk -v c=$col '{v[NR] = $c} END {printf "%s ", (c == 1 ? "wall s" : c == 3 ? "CPU s" : "ratio")
-      printf "%s / %s / %s; ", v[1], v[int((NR + 1) / 2)], v[NR]}'
-  done | sed "s/^/$side: /; s/; $//"
-  echo
+  echo "$side: wall s $(min_med_max %.3f $(col $side 1)); CPU s $(min_med_max %.3f $(col $side 3)); ratio $(min_med_max %.4f $(col $side 2))"
 done
 echo "$(uptime)"

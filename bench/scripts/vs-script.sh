@@ -94,12 +94,11 @@ PY
     "$np" "$npc" "$ls" "$lsc" "$(awk -v a="$ls" -v b="$np" 'BEGIN { print a / b }')" "$(awk -v a="$lsc" -v b="$npc" 'BEGIN { print a / b }')" \
     "$(cut -d' ' -f1 /proc/loadavg)"
 done
-stats() { printf '%s\n' "$@" | sort -g | awk '{ v[NR] = $1 } END { printf "min %.2f s, median %.2f s, max %.2f s", v[1], (NR % 2 ? v[(NR + 1) / 2] : (v[NR / 2] + v[NR / 2 + 1]) / 2), v[NR] }'; }
-median() { printf '%s\n' "$@" | sort -g | awk '{ v[NR] = $1 } END { print (NR % 2 ? v[(NR + 1) / 2] : (v[NR / 2] + v[NR / 2 + 1]) / 2) }'; }
-echo "numpy script:  $(stats "${NP[@]}")"
-echo "lanesift run:  $(stats "${LS[@]}")"
-echo "numpy CPU (user + system):    $(stats "${NPC[@]}")"
-echo "lanesift CPU (user + system): $(stats "${LSC[@]}")"
+source bench/scripts/stats.sh
+echo "numpy script:  $(min_med_max_s "${NP[@]}")"
+echo "lanesift run:  $(min_med_max_s "${LS[@]}")"
+echo "numpy CPU (user + system):    $(min_med_max_s "${NPC[@]}")"
+echo "lanesift CPU (user + system): $(min_med_max_s "${LSC[@]}")"
 printf 'ratio of median CPU seconds, lanesift/numpy: %.2f\n' "$(awk -v a="$(median "${LSC[@]}")" -v b="$(median "${NPC[@]}")" 'BEGIN { print a / b }')"
 printf 'ratio of medians, lanesift/numpy: %.2f (target <= 0.33)\n' "$(awk -v a="$(median "${LS[@]}")" -v b="$(median "${NP[@]}")" 'BEGIN { print a / b }')"
 echo "plain Java read and sum (read loop only): $(java "$ROOT/bench/scripts/ReadSum.java" "$CAP")"
