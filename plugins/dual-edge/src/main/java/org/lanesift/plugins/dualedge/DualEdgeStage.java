@@ -214,27 +214,21 @@ final class DualEdgeStage implements Stage {
         }
     }
 
+    /**
+     * Hands on the first {@code ready} sample points as one block per lane. No loop of its own: the
+     * per-point loops are {@link SampleBuf}'s, so that the JIT compiles this method once, when it
+     * has been called often enough, instead of compiling it again for every loop that runs long
+     * in it (on-stack replacement), each time with the lane samplers inlined.
+     */
     private void emit(int ready, boolean finishing) {
-        long minS = Long.MAX_VALUE;
-        long maxS = Long.MIN_VALUE;
-        double maxUi = 0;
-        double uiSum = 0;
-        for (int i = 0; i < ready; i++) {
-            long s = sb.s[i];
-            minS = Math.min(minS, s);
-            maxS = Math.max(maxS, s);
-            maxUi = Math.max(maxUi, sb.ui[i]);
-            uiSum += sb.ui[i];
-        }
-        long reach = (long) Math.ceil(2 * maxUi);
+        sb.summarize(ready);
+        long minS = sb.minS;
+        long maxS = sb.maxS;
+        double uiSum = sb.uiSum;
+        long reach = (long) Math.ceil(2 * sb.maxUi);
         long[] times = Arrays.copyOf(sb.s, ready);
         long[] edges = Arrays.copyOf(sb.edge, ready);
-        long[] falling = new long[BitSets.words(ready)];
-        for (int i = 0; i < ready; i++) {
-            if ((sb.flags[i] & SampleBuf.FALLING) != 0) {
-                falling[i >>> 6] |= 1L << i;
-            }
-        }
+        long[] falling = sb.fallingBits(ready);
         byte[] slot = cfg.mode() == SamplerConfig.Mode.MULTIPLIED ? Arrays.copyOf(sb.slot, ready) : null;
         long start = Math.max(prevBlockEnd, times[0]);
         long end = Math.max(start, maxS + 1);

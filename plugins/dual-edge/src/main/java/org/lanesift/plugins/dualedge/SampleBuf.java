@@ -1,6 +1,7 @@
 package org.lanesift.plugins.dualedge;
 
 import java.util.Arrays;
+import org.lanesift.data.BitSets;
 
 /**
  * Planned sample points, common to all lanes, not yet sampled: nominal time (phase 0), sample
@@ -33,8 +34,44 @@ final class SampleBuf {
     private long lastThr;
     private long lastScale;
 
+    /** Earliest and latest sample time, largest unit interval and sum of unit intervals of the points {@link #summarize} looked at. */
+    long minS;
+    long maxS;
+    double maxUi;
+    double uiSum;
+
     SampleBuf(double threshold) {
         this.threshold = threshold;
+    }
+
+    /** Sets {@link #minS}, {@link #maxS}, {@link #maxUi} and {@link #uiSum} over the first {@code count} points. */
+    void summarize(int count) {
+        long lo = Long.MAX_VALUE;
+        long hi = Long.MIN_VALUE;
+        double uiMax = 0;
+        double sum = 0;
+        for (int i = 0; i < count; i++) {
+            long t = s[i];
+            lo = Math.min(lo, t);
+            hi = Math.max(hi, t);
+            uiMax = Math.max(uiMax, ui[i]);
+            sum += ui[i];
+        }
+        minS = lo;
+        maxS = hi;
+        maxUi = uiMax;
+        uiSum = sum;
+    }
+
+    /** Packed bits, bit i set when point i samples on a falling clock edge, for the first {@code count} points. */
+    long[] fallingBits(int count) {
+        long[] falling = new long[BitSets.words(count)];
+        for (int i = 0; i < count; i++) {
+            if ((flags[i] & FALLING) != 0) {
+                falling[i >>> 6] |= 1L << i;
+            }
+        }
+        return falling;
     }
 
     /**
