@@ -295,26 +295,9 @@ final class Comparator {
         int runStart = r0;
         while (true) {
             if (!high) {
-                final float up = upper;
-                // four samples a test, and which of them tripped without a further loop (NaN trips the test too)
-                int m = 0;
-                while (i + 4 <= r1) {
-                    m = (a[ao + i] - b[bo + i] <= up ? 0 : 1) | (a[ao + i + 1] - b[bo + i + 1] <= up ? 0 : 2)
-                            | (a[ao + i + 2] - b[bo + i + 2] <= up ? 0 : 4) | (a[ao + i + 3] - b[bo + i + 3] <= up ? 0 : 8);
-                    if (m != 0) {
-                        break;
-                    }
-                    i += 4;
-                }
-                if (m != 0) {
-                    i += Integer.numberOfTrailingZeros(m);
-                } else {
-                    while (i < r1 && a[ao + i] - b[bo + i] <= up) {
-                        i++;
-                    }
-                    if (i >= r1) {
-                        return r1;
-                    }
+                i = firstAbove(a, ao, b, bo, i, r1, upper);
+                if (i >= r1) {
+                    return r1;
                 }
                 float v = a[ao + i] - b[bo + i];
                 if (v != v) {
@@ -339,23 +322,7 @@ final class Comparator {
                 }
                 trip(i, true);
             } else {
-                final float lo = lower;
-                int m = 0;
-                while (i + 4 <= r1) {
-                    m = (a[ao + i] - b[bo + i] >= lo ? 0 : 1) | (a[ao + i + 1] - b[bo + i + 1] >= lo ? 0 : 2)
-                            | (a[ao + i + 2] - b[bo + i + 2] >= lo ? 0 : 4) | (a[ao + i + 3] - b[bo + i + 3] >= lo ? 0 : 8);
-                    if (m != 0) {
-                        break;
-                    }
-                    i += 4;
-                }
-                if (m != 0) {
-                    i += Integer.numberOfTrailingZeros(m);
-                } else {
-                    while (i < r1 && a[ao + i] - b[bo + i] >= lo) {
-                        i++;
-                    }
-                }
+                i = firstBelow(a, ao, b, bo, i, r1, lower);
                 setBits(bits, runStart, i);
                 if (i >= r1) {
                     return r1;
@@ -382,6 +349,50 @@ final class Comparator {
                 trip(i, false);
             }
         }
+    }
+
+    /*
+     * The two scans below are methods of their own, not loops inside fastRunPair: called once per
+     * transition, they are compiled early and once, and fastRunPair's own loop (one turn per
+     * transition) is then compiled with them inlined. As loops inside fastRunPair, each of them ran
+     * long enough to be compiled on its own while running (on-stack replacement), so the JIT
+     * compiled fastRunPair three or four times on a cold pass (measured with -XX:+LogCompilation
+     * on the 960 MB capture of bench/scripts/ddr-capture.py).
+     */
+
+    /**
+     * The first index in {@code [i, r1)} whose difference is not at or below {@code up} (above it,
+     * or NaN), or {@code r1}: four samples a test, and which of them tripped without a further loop.
+     */
+    private static int firstAbove(float[] a, int ao, float[] b, int bo, int i, int r1, float up) {
+        while (i + 4 <= r1) {
+            int m = (a[ao + i] - b[bo + i] <= up ? 0 : 1) | (a[ao + i + 1] - b[bo + i + 1] <= up ? 0 : 2)
+                    | (a[ao + i + 2] - b[bo + i + 2] <= up ? 0 : 4) | (a[ao + i + 3] - b[bo + i + 3] <= up ? 0 : 8);
+            if (m != 0) {
+                return i + Integer.numberOfTrailingZeros(m);
+            }
+            i += 4;
+        }
+        while (i < r1 && a[ao + i] - b[bo + i] <= up) {
+            i++;
+        }
+        return i;
+    }
+
+    /** The first index in {@code [i, r1)} whose difference is not at or above {@code lo} (below it, or NaN), or {@code r1}. */
+    private static int firstBelow(float[] a, int ao, float[] b, int bo, int i, int r1, float lo) {
+        while (i + 4 <= r1) {
+            int m = (a[ao + i] - b[bo + i] >= lo ? 0 : 1) | (a[ao + i + 1] - b[bo + i + 1] >= lo ? 0 : 2)
+                    | (a[ao + i + 2] - b[bo + i + 2] >= lo ? 0 : 4) | (a[ao + i + 3] - b[bo + i + 3] >= lo ? 0 : 8);
+            if (m != 0) {
+                return i + Integer.numberOfTrailingZeros(m);
+            }
+            i += 4;
+        }
+        while (i < r1 && a[ao + i] - b[bo + i] >= lo) {
+            i++;
+        }
+        return i;
     }
 
     /** Sets bits {@code [from, to)}; runs are usually short, so the one-word case comes first. */
