@@ -32,7 +32,10 @@ top = int(sys.argv[2])
 secs = defaultdict(float)
 kinds = defaultdict(list)
 total = {"1-3": 0.0, "4": 0.0}
-for m in re.finditer(r"<task ([^>]*)>.*?<task_done ([^>]*)/>", text, re.S):
+# each compiler thread's tasks, one after another, in a section of their own
+sections = re.findall(r"<compilation_log thread='\d+'>(.*?)</compilation_log>", text, re.S)
+tasks = [t for sec in sections for t in re.finditer(r"<task ([^>]*)>.*?<task_done ([^>]*)/>", sec, re.S)]
+for m in tasks:
     attrs, done = m.group(1), m.group(2)
     method = re.search(r"method='([^']*)'", attrs).group(1).split(" ")
     name = method[0].split(".")[-1] + "." + method[1]
