@@ -241,8 +241,17 @@ final class RunCommand implements Callable<Integer> {
                 holder.dir = outDir;
                 SegmentedRun sr;
                 try {
-                    sr = new SegmentedRun(plan, registry, jobs, segmentFrames,
-                            (id, port, block) -> holder.outputs().accept(id, port, block),
+                    sr = new SegmentedRun(plan, registry, jobs, segmentFrames, new org.lanesift.chain.BlockSink() {
+                                @Override
+                                public void accept(String id, String port, org.lanesift.data.Block block) {
+                                    holder.outputs().accept(id, port, block);
+                                }
+
+                                @Override
+                                public boolean readsBitMargins(String id, String port) {
+                                    return holder.outputs().readsBitMargins(id, port);
+                                }
+                            },
                             (src, a) -> holder.outputs().accept(src, a), bar);
                 } catch (SegmentException e) {
                     throw new CliError(e.getMessage(), e);
@@ -402,6 +411,11 @@ final class RunCommand implements Callable<Integer> {
                     @Override
                     public boolean wants(String id, String port) {
                         return holder.outputs().wants(id, port);
+                    }
+
+                    @Override
+                    public boolean readsBitMargins(String id, String port) {
+                        return holder.outputs().readsBitMargins(id, port);
                     }
                 })
                 .annotations((src, a) -> holder.outputs().accept(src, a))

@@ -47,6 +47,8 @@ final class DualEdgeStage implements Stage {
     private long emittedBits;
     private double uiSumAll;
     private boolean done;
+    /** Whether {@link #askMargins()} has run. */
+    private boolean marginsAsked;
     /** Per input (clock, then lanes): its sample grid was judged against the unit interval. */
     private final boolean[] gridJudged;
     /** Per lane: the lane's eye lies so far from the clock's bit centre that its bits may be those of a neighbouring slot. */
@@ -214,7 +216,22 @@ final class DualEdgeStage implements Stage {
         }
     }
 
+    /**
+     * Asks once, at the first block, whether anything downstream reads each lane's per-bit margins
+     * (host-api {@code StageContext.wantsBitMargins}); a lane whose margins nobody reads sends its
+     * bits without them, and its sampler reuses its margin arrays.
+     */
+    private void askMargins() {
+        marginsAsked = true;
+        for (int i = 0; i < lanes.length; i++) {
+            lanes[i].keepMargins = ctx.wantsBitMargins(i);
+        }
+    }
+
     private void emit(int ready, boolean finishing) {
+        if (!marginsAsked) {
+            askMargins();
+        }
         long minS = Long.MAX_VALUE;
         long maxS = Long.MIN_VALUE;
         double maxUi = 0;
@@ -253,7 +270,7 @@ final class DualEdgeStage implements Stage {
                 BitSets.setRange(l.flagged, 0, ready);
             }
             BitStream bs = new BitStream(q.channel != null ? q.channel : "lane" + i, start, end, ready, l.values, times, edges,
-                    falling, slot, l.setup, l.hold, l.flagged, meanUi, causes(clockBreaks, skewFinding[i]));
+                    falling, slot, l.keepMargins ? l.setup : null, l.keepMargins ? l.hold : null, l.flagged, meanUi, causes(clockBreaks, skewFinding[i]));
             ctx.emit(i, bs);
         }
         emittedBits += ready;
