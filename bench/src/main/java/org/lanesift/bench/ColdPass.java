@@ -2,17 +2,22 @@ package org.lanesift.bench;
 
 import java.nio.file.Path;
 import java.util.Map;
+import org.lanesift.chain.BlockSink;
 import org.lanesift.chain.Chain;
 import org.lanesift.chain.ChainBuilder;
 import org.lanesift.data.BitSets;
 import org.lanesift.data.BitStream;
+import org.lanesift.data.Block;
 import org.lanesift.plugin.PluginRegistry;
 
 /**
  * One pass of the chain of bench/scripts/ddr-chain.json over a capture written by
  * bench/scripts/ddr-capture.py, in this JVM, with no output files: raw, four differential stages
  * with a fixed threshold of 0 V (legs {@code clk_p, clk_n, d0_p ... d2_n}), dual-edge; the bits of
- * the three data lanes are counted through taps. Prints the bit and ones counts (the check that every variant decodes the
+ * the three data lanes are counted by the host sink, which declares that it does not read the
+ * per-bit margins, as a run writing only the packed binary bits does (runner {@code RunOutputs}), so
+ * the sampler sends its bits without them; with {@code --margins} the sink declares that it reads
+ * them, as a run writing the bits CSV does (the bits CSV itself is not written). Prints the bit and ones counts (the check that every variant decodes the
  * same), the pass's wall time and the JVM's uptime at the end, in seconds, the bytes the pass
  * allocated on its thread (the chain runs on the calling thread), and the CPU seconds of the pass on
  * its thread and in the whole process (the read-ahead thread, the compilers and the collector
@@ -26,7 +31,7 @@ import org.lanesift.plugin.PluginRegistry;
  * is started with {@code -Dlanesift.readAhead=false}; the allocation figure counts the calling
  * thread only, so blocks that thread allocates are not in it.
  *
- * <p>Usage: {@code java [options] -cp bench/target/benchmarks.jar org.lanesift.bench.ColdPass FILE [--no-lend] [--passes N]}
+ * <p>Usage: {@code java [options] -cp bench/target/benchmarks.jar org.lanesift.bench.ColdPass FILE [--no-lend] [--margins] [--passes N]}
  */
 public final class ColdPass {
     private ColdPass() {
@@ -40,22 +45,25 @@ public final class ColdPass {
     public static void main(String[] args) {
         Path file = Path.of(args[0]);
         boolean lend = true;
+        boolean margins = false;
         int passes = 1;
         for (int i = 1; i < args.length; i++) {
             if (args[i].equals("--no-lend")) {
                 lend = false;
+            } else if (args[i].equals("--margins")) {
+                margins = true;
             } else if (args[i].equals("--passes") && i + 1 < args.length) {
                 passes = Integer.parseInt(args[++i]);
             } else {
-                throw new IllegalArgumentException("unknown argument " + args[i] + "; expected FILE [--no-lend] [--passes N]");
+                throw new IllegalArgumentException("unknown argument " + args[i] + "; expected FILE [--no-lend] [--margins] [--passes N]");
             }
         }
         for (int p = 0; p < passes; p++) {
-            pass(file, lend);
+            pass(file, lend, margins);
         }
     }
 
-    private static void pass(Path file, boolean lend) {
+    private static void pass(Path file, boolean lend, boolean margins) {
         long t0 = System.nanoTime();
         com.sun.management.ThreadMXBean threads = (com.sun.management.ThreadMXBean) java.lang.management.ManagementFactory.getThreadMXBean();
         long allocated0 = threads.getCurrentThreadAllocatedBytes();
@@ -76,15 +84,26 @@ public final class ColdPass {
                 b.tap("cap." + p + "_p", blk -> { }).tap("cap." + p + "_n", blk -> { });
             }
         }
-        for (int lane = 0; lane < 3; lane++) {
-            b.tap("sampler.bits" + lane, blk -> {
+        b.outputs(new BlockSink() {
+            @Override
+            public void accept(String id, String port, Block blk) {
                 BitStream s = (BitStream) blk;
                 counts[0] += s.count();
-                // a population count of the packed words, as a user's tap would count them (one
+                // a population count of the packed words, as a user's sink would count them (one
                 // BitStream.bit call per bit cost the pass about 3 % of the decode thread)
                 counts[1] += BitSets.count(s.values(), s.count());
-            });
-        }
+            }
+
+            @Override
+            public boolean wants(String id, String port) {
+                return port.startsWith("bits"); // the three lanes' bits, not the sampler's report
+            }
+
+            @Override
+            public boolean readsBitMargins(String id, String port) {
+                return margins;
+            }
+        });
         try (Chain c = b.build()) {
             c.run();
         }

@@ -5,9 +5,11 @@ import java.util.List;
 import java.util.Map;
 import java.util.Random;
 import java.util.concurrent.TimeUnit;
+import org.lanesift.chain.BlockSink;
 import org.lanesift.chain.Chain;
 import org.lanesift.chain.ChainBuilder;
 import org.lanesift.data.BitStream;
+import org.lanesift.data.Block;
 import org.lanesift.data.DataKind;
 import org.lanesift.data.Edges;
 import org.lanesift.plugin.PluginRegistry;
@@ -51,6 +53,14 @@ public class DualEdgeBench {
 
     @Param({"1", "4"})
     int lanes;
+
+    /**
+     * Whether the host sink reads the per-bit margins (host-api {@code BlockSink.readsBitMargins}):
+     * true as a run writing the bits CSV, false as one writing only the packed binary bits, where the
+     * sampler sends its bits without them.
+     */
+    @Param({"true", "false"})
+    boolean margins;
 
     /** [input][block]: clock, lane0..lane{N-1}. */
     Edges[][] blocks;
@@ -129,12 +139,20 @@ public class DualEdgeBench {
         for (int l = 0; l < lanes; l++) {
             b.input("d" + l, DataKind.EDGES).wire("d" + l, "s.lane" + l);
         }
-        b.outputs((id, port, block) -> {
-            if (block instanceof BitStream bs) {
-                count[0] += bs.count();
-                bh.consume(bs.values());
-            } else {
-                bh.consume(block);
+        b.outputs(new BlockSink() {
+            @Override
+            public void accept(String id, String port, Block block) {
+                if (block instanceof BitStream bs) {
+                    count[0] += bs.count();
+                    bh.consume(bs.values());
+                } else {
+                    bh.consume(block);
+                }
+            }
+
+            @Override
+            public boolean readsBitMargins(String id, String port) {
+                return margins;
             }
         });
         try (Chain c = b.build()) {

@@ -31,4 +31,19 @@ public interface BlockSink {
     default boolean wants(String instanceId, String output) {
         return true;
     }
+
+    /**
+     * Whether the host reads the per-bit setup and hold margins of the bit streams it receives from
+     * an unwired output ({@code BitStream.setupFs()}, {@code holdFs()}). A host that answers false
+     * may receive them without margins ({@code BitStream.hasMargins()} false) and must then never
+     * ask for them. Asked when the emitting stage asks the engine
+     * ({@link org.lanesift.plugin.StageContext#wantsBitMargins(int)}), after the chain is built.
+     *
+     * @param instanceId emitting instance
+     * @param output     output port name
+     * @return true (the default) when the host reads the margins
+     */
+    default boolean readsBitMargins(String instanceId, String output) {
+        return true;
+    }
 }

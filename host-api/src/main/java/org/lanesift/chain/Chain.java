@@ -141,6 +141,26 @@ public final class Chain implements AutoCloseable {
         }
 
         @Override
+        public boolean wantsBitMargins(int output) {
+            if (output < 0 || output >= outputs.size()) {
+                return true;
+            }
+            if (!taps.get(output).isEmpty()) {
+                return true; // a host's observer: it declares nothing, so it gets everything
+            }
+            List<Target> ts = targets.get(output);
+            if (ts.isEmpty()) {
+                return hostWants(output) && hostSink.readsBitMargins(id, outputs.get(output).name());
+            }
+            for (Target t : ts) {
+                if (t.node.inputs.get(t.input).readsBitMargins()) {
+                    return true;
+                }
+            }
+            return false;
+        }
+
+        @Override
         public void emit(int output, Block block) {
             if (output < 0 || output >= outputs.size()) {
                 throw new ChainException(label() + " emitted on output " + output + " but has " + outputs.size() + " outputs", null);

@@ -16,6 +16,16 @@ import java.util.Objects;
  * when there was no transition within reach. Bits whose margin fell below the sampler's threshold,
  * or that were taken in an unknown span, are set in {@code flagged}.
  *
+ * <p><b>Margins only for those who read them.</b> The two margin arrays cost 16 bytes a bit, and
+ * most receivers never look at them, so a producer may leave them out (both {@code null}) when the
+ * engine tells it that no receiver of the output reads them
+ * ({@link org.lanesift.plugin.StageContext#wantsBitMargins(int)}: a receiver that reads them says
+ * so on its input port, {@link org.lanesift.plugin.PortSpec#readsBitMargins()}, or as a host sink,
+ * {@link org.lanesift.chain.BlockSink#readsBitMargins}). {@link #hasMargins()} tells which; the
+ * flags are always there, and the margins were still measured to set them. Asking a stream
+ * without margins for them ({@link #setupFs()}, {@link #holdFs()}) is a bug of the wiring's
+ * declarations and throws {@link IllegalStateException}: it never reads as zeros or as unknown.
+ *
  * <p>{@code causes} names the findings the producer made (and annotated) that account for flagged
  * bits or clock breaks in this block ({@link FindingRef}); a consumer states what they cause as
  * information referring to them, and reports as its own finding only what none of them covers.
@@ -29,8 +39,8 @@ import java.util.Objects;
  * @param clockEdge clock edge index of each bit
  * @param falling   packed flags: taken on a falling clock edge
  * @param slot      bit slot within the clock period, or null when every bit is slot 0
- * @param setupFs   setup margin of each bit
- * @param holdFs    hold margin of each bit
+ * @param setupFs   setup margin of each bit (femtoseconds), or null when the stream carries no margins
+ * @param holdFs    hold margin of each bit (femtoseconds), or null when the stream carries no margins
  * @param flagged   packed flags: margin below threshold or otherwise suspect
  * @param unitIntervalFs the unit interval the margins refer to (femtoseconds)
  * @param causes    findings of the producer that account for flags or clock breaks in this block (unmodifiable)
@@ -43,7 +53,7 @@ public record BitStream(String channel, long startFs, long endFs, int count, lon
     public static final long UNKNOWN_MARGIN = Long.MAX_VALUE;
 
     /**
-     * Checks array sizes.
+     * Checks array sizes, and that the margins are both present or both absent.
      *
      * @param channel lane name
      * @param startFs start of the covered span
@@ -54,8 +64,8 @@ public record BitStream(String channel, long startFs, long endFs, int count, lon
      * @param clockEdge clock edge index of each bit
      * @param falling packed flags: taken on a falling clock edge
      * @param slot bit slot within the clock period, or null when every bit is slot 0
-     * @param setupFs setup margin of each bit
-     * @param holdFs hold margin of each bit
+     * @param setupFs setup margin of each bit, or null (with {@code holdFs}) for a stream without margins
+     * @param holdFs hold margin of each bit, or null (with {@code setupFs}) for a stream without margins
      * @param flagged packed flags: margin below threshold or otherwise suspect
      * @param unitIntervalFs the unit interval the margins refer to (femtoseconds)
      * @param causes findings of the producer that account for flags or clock breaks in this block
@@ -65,8 +75,12 @@ public record BitStream(String channel, long startFs, long endFs, int count, lon
         causes = causes == null ? List.of() : List.copyOf(causes);
         int w = BitSets.words(count);
         if (count < 0 || values.length < w || timesFs.length < count || clockEdge.length < count || falling.length < w
-                || (slot != null && slot.length < count) || setupFs.length < count || holdFs.length < count || flagged.length < w) {
+                || (slot != null && slot.length < count) || (setupFs != null && setupFs.length < count)
+                || (holdFs != null && holdFs.length < count) || flagged.length < w) {
             throw new IllegalArgumentException("bit stream '" + channel + "': arrays do not hold " + count + " bits");
+        }
+        if ((setupFs == null) != (holdFs == null)) {
+            throw new IllegalArgumentException("bit stream '" + channel + "': setup and hold margins must both be given or both be left out");
         }
         if (endFs < startFs) {
             throw new IllegalArgumentException("bit stream '" + channel + "': end before start");
@@ -85,8 +99,8 @@ public record BitStream(String channel, long startFs, long endFs, int count, lon
      * @param clockEdge clock edge index of each bit
      * @param falling packed flags: taken on a falling clock edge
      * @param slot bit slot within the clock period, or null when every bit is slot 0
-     * @param setupFs setup margin of each bit
-     * @param holdFs hold margin of each bit
+     * @param setupFs setup margin of each bit, or null (with {@code holdFs}) for a stream without margins
+     * @param holdFs hold margin of each bit, or null (with {@code setupFs}) for a stream without margins
      * @param flagged packed flags: margin below threshold or otherwise suspect
      * @param unitIntervalFs the unit interval the margins refer to (femtoseconds)
      */
@@ -94,6 +108,52 @@ public record BitStream(String channel, long startFs, long endFs, int count, lon
                      long[] falling, byte[] slot, long[] setupFs, long[] holdFs, long[] flagged, double unitIntervalFs) {
         this(channel, startFs, endFs, count, values, timesFs, clockEdge, falling, slot, setupFs, holdFs, flagged, unitIntervalFs,
                 List.of());
+    }
+
+    /**
+     * Whether the stream carries its per-bit setup and hold margins. A producer leaves them out only
+     * when no receiver of its output declared that it reads them (see the type's Javadoc).
+     *
+     * @return true when {@link #setupFs()} and {@link #holdFs()} may be read
+     */
+    public boolean hasMargins() {
+        return setupFs != null;
+    }
+
+    /**
+     * The setup margin of each bit: the time from the last data transition to the sample point.
+     *
+     * @return femtoseconds per bit, {@link #UNKNOWN_MARGIN} where no transition was within reach
+     * @throws IllegalStateException when the stream carries no margins ({@link #hasMargins()} is
+     *         false): the reader did not declare that it reads them, a bug, never bad input
+     */
+    @Override
+    public long[] setupFs() {
+        if (setupFs == null) {
+            throw noMargins("setup");
+        }
+        return setupFs;
+    }
+
+    /**
+     * The hold margin of each bit: the time from the sample point to the next data transition.
+     *
+     * @return femtoseconds per bit, {@link #UNKNOWN_MARGIN} where no transition was within reach
+     * @throws IllegalStateException when the stream carries no margins ({@link #hasMargins()} is
+     *         false): the reader did not declare that it reads them, a bug, never bad input
+     */
+    @Override
+    public long[] holdFs() {
+        if (holdFs == null) {
+            throw noMargins("hold");
+        }
+        return holdFs;
+    }
+
+    private IllegalStateException noMargins(String which) {
+        return new IllegalStateException("bit stream '" + channel + "' carries no " + which + " margins: its producer was told"
+                + " that no receiver reads them; a receiver that reads margins must declare it (PortSpec.readsBitMargins on its"
+                + " input, BlockSink.readsBitMargins for a host sink)");
     }
 
     /**
@@ -133,6 +193,6 @@ public record BitStream(String channel, long startFs, long endFs, int count, lon
 
     @Override
     public String toString() {
-        return "BitStream[" + channel + ", " + count + " bits]";
+        return "BitStream[" + channel + ", " + count + " bits" + (hasMargins() ? "]" : ", no margins]");
     }
 }

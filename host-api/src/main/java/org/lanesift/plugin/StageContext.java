@@ -61,6 +61,25 @@ public interface StageContext {
     }
 
     /**
+     * Whether anything that receives an output reads the per-bit setup and hold margins of the bit
+     * streams sent on it. When it answers false, the stage may send its
+     * {@link org.lanesift.data.BitStream}s without the two margin arrays (and save their memory);
+     * when true, it must send them. The answer is true when a host tap receives the output, when a
+     * wired input reads them ({@link PortSpec#readsBitMargins()}, true unless the receiving plugin
+     * declared otherwise), or when the output reaches the host sink and the sink reads them
+     * ({@link org.lanesift.chain.BlockSink#readsBitMargins}, true unless the host declared
+     * otherwise); false when nothing receives the output. Ask at the first block, not when the stage
+     * opens: a host may decide what it writes only once the chain is built. Only the margins are in
+     * question: everything else a bit stream carries is always sent.
+     *
+     * @param output output index
+     * @return true when the output's bit streams must carry margins; true by default
+     */
+    default boolean wantsBitMargins(int output) {
+        return true;
+    }
+
+    /**
      * Sends a block downstream. Downstream stages run before this call returns.
      *
      * @param output output index

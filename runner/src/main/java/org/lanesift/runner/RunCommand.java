@@ -241,8 +241,7 @@ final class RunCommand implements Callable<Integer> {
                 holder.dir = outDir;
                 SegmentedRun sr;
                 try {
-                    sr = new SegmentedRun(plan, registry, jobs, segmentFrames,
-                            (id, port, block) -> holder.outputs().accept(id, port, block),
+                    sr = new SegmentedRun(plan, registry, jobs, segmentFrames, holder,
                             (src, a) -> holder.outputs().accept(src, a), bar);
                 } catch (SegmentException e) {
                     throw new CliError(e.getMessage(), e);
@@ -393,17 +392,7 @@ final class RunCommand implements Callable<Integer> {
 
     private Chain build(ChainSpec spec, PluginRegistry registry, Holder holder, ProgressBar bar) {
         ChainBuilder b = ChainBuilder.fromSpec(spec, registry)
-                .outputs(new org.lanesift.chain.BlockSink() {
-                    @Override
-                    public void accept(String id, String port, org.lanesift.data.Block block) {
-                        holder.outputs().accept(id, port, block);
-                    }
-
-                    @Override
-                    public boolean wants(String id, String port) {
-                        return holder.outputs().wants(id, port);
-                    }
-                })
+                .outputs(holder)
                 .annotations((src, a) -> holder.outputs().accept(src, a))
                 .progress(bar);
         holder.dir = outDir;
@@ -461,8 +450,12 @@ final class RunCommand implements Callable<Integer> {
         }
     }
 
-    /** Creates the outputs, in a fresh work folder inside {@code --out}, when the first block or the run needs them. */
-    private static final class Holder {
+    /**
+     * Creates the outputs, in a fresh work folder inside {@code --out}, when the first block or the
+     * run needs them; and is the chain's host sink (one pass or segmented): blocks, which outputs
+     * are wanted and whether their bit margins are read all go to the one {@link RunOutputs}.
+     */
+    private static final class Holder implements org.lanesift.chain.BlockSink {
         final List<Path> inputs;
         Path dir;
         OutputFolder folder;
@@ -485,6 +478,21 @@ final class RunCommand implements Callable<Integer> {
                 }
             }
             return outputs;
+        }
+
+        @Override
+        public void accept(String id, String port, org.lanesift.data.Block block) {
+            outputs().accept(id, port, block);
+        }
+
+        @Override
+        public boolean wants(String id, String port) {
+            return outputs().wants(id, port);
+        }
+
+        @Override
+        public boolean readsBitMargins(String id, String port) {
+            return outputs().readsBitMargins(id, port);
         }
     }
 

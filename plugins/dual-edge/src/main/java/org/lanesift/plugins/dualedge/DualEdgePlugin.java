@@ -21,7 +21,11 @@ import org.lanesift.time.TimeValue;
  * {@code report} (an artifact {@code <instance>-margins.json}). Every call emits one bit-stream block
  * per lane for the same run of clock edges, so lanes can be merged bit by bit. The arrays
  * {@code timesFs}, {@code clockEdge}, {@code falling} and {@code slot} of one call are shared by the
- * blocks of all lanes (blocks are immutable).
+ * blocks of all lanes (blocks are immutable). A lane's blocks carry their per-bit margins
+ * ({@code setupFs}, {@code holdFs}) only when something that receives them reads them (host-api
+ * {@code StageContext.wantsBitMargins}, asked at the first block); otherwise they go without
+ * ({@code BitStream.hasMargins()} false). The margins are measured either way: the flags, the
+ * {@code margin-low} findings and the report do not depend on it.
  *
  * <p><b>Clock recovery.</b> The period is first estimated as the median of 32 same-direction edge
  * intervals, then tracked edge by edge (exponential average over 16 periods). A pulse shorter than
@@ -138,7 +142,8 @@ public final class DualEdgePlugin implements PluginProvider {
             .outputs(o -> {
                 List<PortSpec> out = new ArrayList<>();
                 for (int i = 0; i < o.getInt("lanes"); i++) {
-                    out.add(PortSpec.of("bits" + i, DataKind.BITS, "bits of lane " + i + " with times and margins"));
+                    out.add(PortSpec.of("bits" + i, DataKind.BITS, "bits of lane " + i + " with times, flags and margins"
+                            + " (margins only when a receiver reads them)"));
                 }
                 out.add(PortSpec.of("report", DataKind.ARTIFACT, "<instance>-margins.json: margins, clock and phase summary"));
                 return out;

@@ -47,6 +47,8 @@ final class DualEdgeStage implements Stage {
     private long emittedBits;
     private double uiSumAll;
     private boolean done;
+    /** Whether {@link #askMargins()} has run. */
+    private boolean marginsAsked;
     /** Per input (clock, then lanes): its sample grid was judged against the unit interval. */
     private final boolean[] gridJudged;
     /** Per lane: the lane's eye lies so far from the clock's bit centre that its bits may be those of a neighbouring slot. */
@@ -215,12 +217,27 @@ final class DualEdgeStage implements Stage {
     }
 
     /**
+     * Asks once, at the first block, whether anything downstream reads each lane's per-bit margins
+     * (host-api {@code StageContext.wantsBitMargins}); a lane whose margins nobody reads sends its
+     * bits without them, and its sampler reuses its margin arrays.
+     */
+    private void askMargins() {
+        marginsAsked = true;
+        for (int i = 0; i < lanes.length; i++) {
+            lanes[i].keepMargins = ctx.wantsBitMargins(i);
+        }
+    }
+
+    /**
      * Hands on the first {@code ready} sample points as one block per lane. No loop of its own: the
      * per-point loops are {@link SampleBuf}'s, so that the JIT compiles this method once, when it
      * has been called often enough, instead of compiling it again for every loop that runs long
      * in it (on-stack replacement), each time with the lane samplers inlined.
      */
     private void emit(int ready, boolean finishing) {
+        if (!marginsAsked) {
+            askMargins();
+        }
         sb.summarize(ready);
         long minS = sb.minS;
         long maxS = sb.maxS;
@@ -247,7 +264,7 @@ final class DualEdgeStage implements Stage {
                 BitSets.setRange(l.flagged, 0, ready);
             }
             BitStream bs = new BitStream(q.channel != null ? q.channel : "lane" + i, start, end, ready, l.values, times, edges,
-                    falling, slot, l.setup, l.hold, l.flagged, meanUi, causes(clockBreaks, skewFinding[i]));
+                    falling, slot, l.keepMargins ? l.setup : null, l.keepMargins ? l.hold : null, l.flagged, meanUi, causes(clockBreaks, skewFinding[i]));
             ctx.emit(i, bs);
         }
         emittedBits += ready;

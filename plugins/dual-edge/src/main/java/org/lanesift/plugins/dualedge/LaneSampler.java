@@ -33,6 +33,13 @@ final class LaneSampler {
     long[] setup;
     long[] hold;
     long[] flagged;
+    /**
+     * Whether the margins of each call go out with its bits: then {@link #setup} and {@link #hold}
+     * are new arrays every call. Otherwise nobody downstream reads them, and the two arrays are
+     * this sampler's own, reused from call to call: only the stage's skew judgement reads them,
+     * before the next call.
+     */
+    boolean keepMargins = true;
     /** The lane is already named for a graver reason (its slot is ambiguous): runs of flagged bits are counted, not annotated. */
     boolean quiet;
 
@@ -49,7 +56,8 @@ final class LaneSampler {
     }
 
     /**
-     * Samples the first {@code n} planned points; results in {@link #values} .. {@link #flagged}.
+     * Samples the first {@code n} planned points; results in {@link #values} .. {@link #flagged}
+     * (the first {@code n} entries of {@link #setup} and {@link #hold}).
      *
      * @param sb        sample points
      * @param n         how many
@@ -61,8 +69,13 @@ final class LaneSampler {
         int w = BitSets.words(n);
         values = new long[w];
         flagged = new long[w];
-        setup = new long[n];
-        hold = new long[n];
+        if (keepMargins || setup == null || setup.length < n) {
+            // every entry below n is written by either loop, so a reused array needs no clearing; the
+            // stage hands at most 2 * CHUNK bits a call, so the reused pair is allocated once
+            int size = keepMargins ? n : Math.max(n, 2 * DualEdgeStage.CHUNK);
+            setup = new long[size];
+            hold = new long[size];
+        }
         if (fast) {
             sampleFast(sb, n, notes);
         } else {

@@ -115,7 +115,10 @@ public final class PacketLinkPlugin implements PluginProvider {
                 in.add(PortSpec.of("lane" + k + "p", DataKind.ANALOG, "lane " + k + " positive leg, single-ended, volts"));
                 in.add(PortSpec.of("lane" + k + "n", DataKind.ANALOG, "lane " + k + " negative leg, single-ended, volts"));
             }
-            in.add(PortSpec.of("bits" + k, DataKind.BITS, "lane " + k + " high-speed bits, sampled on both clock edges"));
+            // with line states, the margins of flagged bits inside bursts go into the margin-low findings
+            // (MarginRuns); without, only values, times and flags are read
+            in.add(PortSpec.of("bits" + k, DataKind.BITS, "lane " + k + " high-speed bits, sampled on both clock edges")
+                    .readingBitMargins(lp));
         }
         return in;
     }

@@ -106,7 +106,9 @@ public final class PixelLinkPlugin implements PluginProvider {
         int n = lanesFor(ov);
         List<PortSpec> ports = new ArrayList<>();
         for (String name : laneNames(ov, n)) {
-            ports.add(PortSpec.of(name, DataKind.BITS, "bits of data " + name + ", 7 slots per pixel clock, slot 0 first"));
+            // the deframer takes values, slots, clock edges, flags and their causes, never the per-bit margins
+            ports.add(PortSpec.of(name, DataKind.BITS, "bits of data " + name + ", 7 slots per pixel clock, slot 0 first")
+                    .readingBitMargins(false));
         }
         return ports;
     }
