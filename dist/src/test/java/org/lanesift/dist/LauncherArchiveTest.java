@@ -1,0 +1,191 @@
+package org.lanesift.dist;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.File;
+import java.io.IOException;
+import java.io.InputStream;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardCopyOption;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.concurrent.TimeUnit;
+import java.util.jar.Attributes;
+import java.util.jar.JarEntry;
+import java.util.jar.JarOutputStream;
+import java.util.jar.Manifest;
+import java.util.stream.Stream;
+import javax.tools.JavaCompiler;
+import javax.tools.ToolProvider;
+import org.junit.jupiter.api.BeforeEach;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.lanesift.testkit.ExternalTool;
+
+/**
+ * The class-data archive of the {@code ./lanesift} launcher (DEVELOPERS.md, "Cold start"), on a
+ * copy of the launcher in a folder of its own whose jar is a small probe program (so no build
+ * runs): the archive is made from the training runs' class lists, holds a class of an old
+ * class-file version (picocli's, major version 49) and a lambda's old interface, is checked and
+ * then used; a failed training run leaves the marker and no archive, is not retried for the same
+ * jar, and the command still runs; an archive whose size differs from the one recorded beside it is
+ * not used.
+ */
+class LauncherArchiveTest {
+    /** The probe: the training runs and the command; loads an old-version class and a lambda of an old interface. */
+    private static final String PROBE = """
+            import java.nio.file.*;
+            public class Probe {
+                public static void main(String[] args) throws Exception {
+                    String log = System.getenv("PROBE_LOG");
+                    if (log != null) {
+                        Files.writeString(Path.of(log), String.join(" ", args) + "\\n",
+                                StandardOpenOption.CREATE, StandardOpenOption.APPEND);
+                    }
+                    if (args.length > 0 && args[0].equals(System.getenv("PROBE_FAIL"))) {
+                        System.exit(1);
+                    }
+                    Class.forName("picocli.CommandLine$Command");
+                    picocli.CommandLine.IVersionProvider v = () -> new String[] {"probe 1"};
+                    System.out.println(v.getVersion()[0] + " " + String.join(" ", args));
+                }
+            }
+            """;
+
+    @TempDir
+    Path root;
+    Path target;
+    Path log;
+
+    @BeforeEach
+    void copyLauncherAndProbe() throws Exception {
+        ExternalTool.require("bash");
+        Files.copy(Path.of("../lanesift"), root.resolve("lanesift"), StandardCopyOption.COPY_ATTRIBUTES);
+        Path examples = Files.createDirectories(root.resolve("plugins/differential/examples"));
+        Files.copy(Path.of("../plugins/differential/examples/clock-lane.json"), examples.resolve("clock-lane.json"));
+        target = Files.createDirectories(root.resolve("dist/target"));
+        Files.writeString(target.resolve("lanesift.sources"), ""); // no sources here: the jar is never stale
+        probeJar(target.resolve("lanesift.jar"));
+        log = root.resolve("probe.log");
+    }
+
+    @Test
+    void archiveHoldsTheOldClassesOfTheTrainingRunsAndIsUsed() throws Exception {
+        assertEquals("probe 1 run x\n", launch(Map.of(), "run", "x"));
+        assertTrue(Files.size(target.resolve("lanesift.jsa")) > 0);
+        assertEquals(Long.toString(Files.size(target.resolve("lanesift.jsa"))),
+                Files.readString(target.resolve("lanesift.jsa.bytes")).strip());
+        assertFalse(Files.exists(target.resolve("lanesift.jsa.failed")));
+        List<String> calls = Files.readAllLines(log);
+        assertTrue(calls.stream().anyMatch(c -> c.startsWith("run ") && c.contains("clock-lane.json --out ")), calls::toString);
+        assertTrue(calls.stream().anyMatch(c -> c.startsWith("demo --out ")), calls::toString);
+        assertTrue(calls.contains("--help"), calls::toString);
+
+        Path classes = root.resolve("classes.txt");
+        launch(Map.of("LANESIFT_JAVA_OPTS", "-Xlog:class+load:file=" + classes), "run", "y");
+        String loaded = Files.readString(classes);
+        for (String c : List.of("Probe", "picocli.CommandLine$Command", "picocli.CommandLine$IVersionProvider")) {
+            assertTrue(loaded.contains(" " + c + " source: shared objects file"), c + " not from the archive:\n" + loaded);
+        }
+        assertEquals(calls.size() + 1, Files.readAllLines(log).size(), "the archive is made once per jar");
+    }
+
+    @Test
+    void aFailedTrainingRunLeavesTheMarkerAndTheCommandRuns() throws Exception {
+        assertEquals("probe 1 run x\n", launch(Map.of("PROBE_FAIL", "demo"), "run", "x"));
+        assertTrue(Files.exists(target.resolve("lanesift.jsa.failed")));
+        assertFalse(Files.exists(target.resolve("lanesift.jsa")));
+        assertFalse(Files.exists(target.resolve("lanesift.jsa.bytes")));
+        try (Stream<Path> s = Files.list(target)) {
+            assertEquals(List.of(), s.map(p -> p.getFileName().toString()).filter(n -> n.contains(".tmp")).toList());
+        }
+        int calls = Files.readAllLines(log).size();
+        assertEquals("probe 1 --version\n", launch(Map.of(), "--version"));
+        assertEquals(calls + 1, Files.readAllLines(log).size(), "not retried for the same jar");
+    }
+
+    @Test
+    void anArchiveOfAnotherSizeIsNotUsed() throws Exception {
+        launch(Map.of(), "--version");
+        Path jsa = target.resolve("lanesift.jsa");
+        long size = Files.size(jsa);
+        byte[] head = new byte[(int) Math.min(size / 2, 1 << 20)];
+        try (InputStream in = Files.newInputStream(jsa)) {
+            assertEquals(head.length, in.readNBytes(head, 0, head.length));
+        }
+        Files.delete(jsa); // read-only after the dump
+        Files.write(jsa, head);
+        Path classes = root.resolve("classes.txt");
+        assertEquals("probe 1 run z\n", launch(Map.of("LANESIFT_JAVA_OPTS", "-Xlog:class+load:file=" + classes), "run", "z"));
+        String loaded = Files.readString(classes);
+        // the JDK's own archive may serve JDK classes; the probe can only come from the jar
+        assertTrue(loaded.contains(" Probe source: file:"), "the truncated archive was mapped:\n" + loaded);
+    }
+
+    /** Runs the copied launcher with the test's JDK first on the PATH; returns standard output. */
+    private String launch(Map<String, String> env, String... args) throws IOException, InterruptedException {
+        List<String> cmd = new ArrayList<>(List.of("bash", root.resolve("lanesift").toString()));
+        cmd.addAll(List.of(args));
+        ProcessBuilder pb = new ProcessBuilder(cmd).directory(root.toFile());
+        Path err = root.resolve("stderr.txt");
+        pb.redirectError(err.toFile());
+        pb.environment().put("PATH", Path.of(System.getProperty("java.home"), "bin") + File.pathSeparator + System.getenv("PATH"));
+        pb.environment().put("PROBE_LOG", log.toString());
+        pb.environment().remove("LANESIFT_JAVA_OPTS");
+        pb.environment().putAll(env);
+        Process p = pb.start();
+        p.getOutputStream().close();
+        byte[] out = p.getInputStream().readAllBytes();
+        if (!p.waitFor(3, TimeUnit.MINUTES)) {
+            p.destroyForcibly();
+            throw new AssertionError("the launcher did not finish in 3 minutes");
+        }
+        assertEquals(0, p.exitValue(), Files.readString(err));
+        assertEquals("", Files.readString(err));
+        return new String(out, StandardCharsets.UTF_8);
+    }
+
+    /** The probe compiled against picocli, in a jar with picocli's two classes it uses (class-file major version 49). */
+    private static void probeJar(Path jar) throws IOException {
+        Path src = Files.createTempDirectory("probe");
+        try {
+            Path picocli = Path.of(classFileUrl("picocli/CommandLine.class").replaceFirst("^jar:file:", "").replaceFirst("!.*$", ""));
+            Files.writeString(src.resolve("Probe.java"), PROBE);
+            JavaCompiler javac = ToolProvider.getSystemJavaCompiler();
+            assertEquals(0, javac.run(null, null, null, "-d", src.toString(), "-cp", picocli.toString(),
+                    src.resolve("Probe.java").toString()));
+            Manifest m = new Manifest();
+            m.getMainAttributes().put(Attributes.Name.MANIFEST_VERSION, "1.0");
+            m.getMainAttributes().put(Attributes.Name.MAIN_CLASS, "Probe");
+            try (JarOutputStream out = new JarOutputStream(Files.newOutputStream(jar), m)) {
+                add(out, "Probe.class", Files.readAllBytes(src.resolve("Probe.class")));
+                for (String c : List.of("picocli/CommandLine$Command.class", "picocli/CommandLine$IVersionProvider.class")) {
+                    try (InputStream in = LauncherArchiveTest.class.getClassLoader().getResourceAsStream(c)) {
+                        byte[] b = in.readAllBytes();
+                        assertEquals(49, ((b[6] & 0xff) << 8) | (b[7] & 0xff), c + ": class-file major version");
+                        add(out, c, b);
+                    }
+                }
+            }
+        } finally {
+            try (Stream<Path> s = Files.walk(src)) {
+                s.sorted(java.util.Comparator.reverseOrder()).forEach(p -> p.toFile().delete());
+            }
+        }
+    }
+
+    private static String classFileUrl(String name) {
+        return LauncherArchiveTest.class.getClassLoader().getResource(name).toString();
+    }
+
+    private static void add(JarOutputStream out, String name, byte[] bytes) throws IOException {
+        out.putNextEntry(new JarEntry(name));
+        out.write(bytes);
+        out.closeEntry();
+    }
+}
