@@ -33,8 +33,8 @@ import org.lanesift.testkit.ExternalTool;
  * runs): the archive is made from the training runs' class lists, holds a class of an old
  * class-file version (picocli's, major version 49) and a lambda's old interface, is checked and
  * then used; a failed training run leaves the marker and no archive, is not retried for the same
- * jar, and the command still runs; an archive whose size differs from the one recorded beside it is
- * not used.
+ * jar, and the command still runs; an archive changed after it was checked (truncated) is never
+ * mapped, and is made again.
  */
 class LauncherArchiveTest {
     /** The probe: the training runs and the command; loads an old-version class and a lambda of an old interface. */
@@ -110,21 +110,40 @@ class LauncherArchiveTest {
     }
 
     @Test
-    void anArchiveOfAnotherSizeIsNotUsed() throws Exception {
+    void aTruncatedArchiveIsNeverMappedAndIsMadeAgain() throws Exception {
         launch(Map.of(), "--version");
-        Path jsa = target.resolve("lanesift.jsa");
-        long size = Files.size(jsa);
-        byte[] head = new byte[(int) Math.min(size / 2, 1 << 20)];
-        try (InputStream in = Files.newInputStream(jsa)) {
-            assertEquals(head.length, in.readNBytes(head, 0, head.length));
-        }
-        Files.delete(jsa); // read-only after the dump
-        Files.write(jsa, head);
+        int calls = Files.readAllLines(log).size();
+        long size = Files.size(target.resolve("lanesift.jsa"));
+        truncate(target.resolve("lanesift.jsa"));
         Path classes = root.resolve("classes.txt");
         assertEquals("probe 1 run z\n", launch(Map.of("LANESIFT_JAVA_OPTS", "-Xlog:class+load:file=" + classes), "run", "z"));
-        String loaded = Files.readString(classes);
+        assertTrue(Files.readAllLines(log).size() > calls + 1, "made again");
+        assertEquals(size, Files.size(target.resolve("lanesift.jsa")));
+        assertEquals(Long.toString(size), Files.readString(target.resolve("lanesift.jsa.bytes")).strip());
+        assertTrue(Files.readString(classes).contains(" Probe source: shared objects file"));
+    }
+
+    @Test
+    void aTruncatedArchiveThatIsNotMadeAgainIsNotUsed() throws Exception {
+        launch(Map.of(), "--version");
+        truncate(target.resolve("lanesift.jsa"));
+        Files.writeString(target.resolve("lanesift.jsa.failed"), ""); // as if making it again had failed
+        int calls = Files.readAllLines(log).size();
+        Path classes = root.resolve("classes.txt");
+        assertEquals("probe 1 run z\n", launch(Map.of("LANESIFT_JAVA_OPTS", "-Xlog:class+load:file=" + classes), "run", "z"));
+        assertEquals(calls + 1, Files.readAllLines(log).size(), "not made again");
         // the JDK's own archive may serve JDK classes; the probe can only come from the jar
-        assertTrue(loaded.contains(" Probe source: file:"), "the truncated archive was mapped:\n" + loaded);
+        assertTrue(Files.readString(classes).contains(" Probe source: file:"), "the truncated archive was mapped");
+    }
+
+    /** Keeps the first half (at most 1 MiB) of a file, written anew as a copy tool or a full disk would leave it. */
+    private static void truncate(Path file) throws IOException {
+        byte[] head = new byte[(int) Math.min(Files.size(file) / 2, 1 << 20)];
+        try (InputStream in = Files.newInputStream(file)) {
+            assertEquals(head.length, in.readNBytes(head, 0, head.length));
+        }
+        Files.delete(file); // read-only after the dump
+        Files.write(file, head);
     }
 
     /** Runs the copied launcher with the test's JDK first on the PATH; returns standard output. */
