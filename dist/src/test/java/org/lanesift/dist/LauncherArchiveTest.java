@@ -25,19 +25,21 @@ import javax.tools.ToolProvider;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.CsvSource;
 import org.lanesift.testkit.ExternalTool;
 
 /**
  * The class-data archive of the {@code ./lanesift} launcher (DEVELOPERS.md, "Cold start"), on a
  * copy of the launcher in a folder of its own whose jar is a small probe program (so no build
- * runs): the archive is made from the training runs' class lists, holds a class of an old
- * class-file version (picocli's, major version 49) and a lambda's old interface, is checked and
- * then used; a failed training run leaves the marker and no archive, is not retried for the same
- * jar, and the command still runs; an archive changed after it was checked (truncated) is never
+ * runs): the archive is made from the class list of one run of the example chain, holds a class of
+ * an old class-file version (picocli's, major version 49) and a lambda's old interface, is checked
+ * and then used; a failed example run leaves the marker and no archive, is not retried for the
+ * same jar, and the command still runs; an archive changed after it was checked (truncated) is never
  * mapped, and is made again.
  */
 class LauncherArchiveTest {
-    /** The probe: the training runs and the command; loads an old-version class and a lambda of an old interface. */
+    /** The probe: the example run and the command; loads an old-version class and a lambda of an old interface. */
     private static final String PROBE = """
             import java.nio.file.*;
             public class Probe {
@@ -75,16 +77,16 @@ class LauncherArchiveTest {
     }
 
     @Test
-    void archiveHoldsTheOldClassesOfTheTrainingRunsAndIsUsed() throws Exception {
+    void archiveHoldsTheOldClassesOfTheExampleRunAndIsUsed() throws Exception {
         assertEquals("probe 1 run x\n", launch(Map.of(), "run", "x"));
         assertTrue(Files.size(target.resolve("lanesift.jsa")) > 0);
         assertEquals(Long.toString(Files.size(target.resolve("lanesift.jsa"))),
                 Files.readString(target.resolve("lanesift.jsa.bytes")).strip());
         assertFalse(Files.exists(target.resolve("lanesift.jsa.failed")));
         List<String> calls = Files.readAllLines(log);
-        assertTrue(calls.stream().anyMatch(c -> c.startsWith("run ") && c.contains("clock-lane.json --out ")), calls::toString);
-        assertTrue(calls.stream().anyMatch(c -> c.startsWith("demo --out ")), calls::toString);
-        assertTrue(calls.contains("--help"), calls::toString);
+        assertEquals(3, calls.size(), calls::toString); // the example run, the check start, the command
+        assertTrue(calls.get(0).matches("run \\S+/plugins/differential/examples/clock-lane\\.json --out \\S+ --quiet"), calls::toString);
+        assertEquals(List.of("--version", "run x"), calls.subList(1, 3));
 
         Path classes = root.resolve("classes.txt");
         launch(Map.of("LANESIFT_JAVA_OPTS", "-Xlog:class+load:file=" + classes), "run", "y");
@@ -95,9 +97,11 @@ class LauncherArchiveTest {
         assertEquals(calls.size() + 1, Files.readAllLines(log).size(), "the archive is made once per jar");
     }
 
-    @Test
-    void aFailedTrainingRunLeavesTheMarkerAndTheCommandRuns() throws Exception {
-        assertEquals("probe 1 run x\n", launch(Map.of("PROBE_FAIL", "demo"), "run", "x"));
+    /** The example run fails, or the start that must use the new archive fails. */
+    @ParameterizedTest
+    @CsvSource({"run, plugins", "--version, run"})
+    void aFailedStepLeavesTheMarkerAndTheCommandRuns(String failing, String command) throws Exception {
+        assertEquals("probe 1 " + command + "\n", launch(Map.of("PROBE_FAIL", failing), command));
         assertTrue(Files.exists(target.resolve("lanesift.jsa.failed")));
         assertFalse(Files.exists(target.resolve("lanesift.jsa")));
         assertFalse(Files.exists(target.resolve("lanesift.jsa.bytes")));
@@ -105,8 +109,9 @@ class LauncherArchiveTest {
             assertEquals(List.of(), s.map(p -> p.getFileName().toString()).filter(n -> n.contains(".tmp")).toList());
         }
         int calls = Files.readAllLines(log).size();
-        assertEquals("probe 1 --version\n", launch(Map.of(), "--version"));
+        assertEquals("probe 1 " + command + "\n", launch(Map.of("PROBE_FAIL", failing), command));
         assertEquals(calls + 1, Files.readAllLines(log).size(), "not retried for the same jar");
+        assertFalse(Files.exists(target.resolve("lanesift.jsa")));
     }
 
     @Test
