@@ -32,10 +32,11 @@ import org.lanesift.testkit.ExternalTool;
 /**
  * The class-data archive of the {@code ./lanesift} launcher (DEVELOPERS.md, "Cold start"), on a
  * copy of the launcher in a folder of its own whose jar is a small probe program (so no build
- * runs): the archive is made from the class list of one run of the example chain, holds a class of
- * an old class-file version (picocli's, major version 49) and a lambda's old interface, is checked
- * and then used; a failed example run leaves the marker and no archive, is not retried for the
- * same jar, and the command still runs; an archive changed after it was checked (truncated) is never
+ * runs): the archive is made from the class lists of the two example runs (the example chain, and
+ * a double-edge capture the launcher writes), holds a class of an old class-file version
+ * (picocli's, major version 49) and a lambda's old interface, is checked and then used; a failed
+ * example run leaves the marker and no archive, is not retried for the same jar, and the command
+ * still runs; an archive changed after it was checked (truncated) is never
  * mapped, and is made again.
  */
 class LauncherArchiveTest {
@@ -84,9 +85,11 @@ class LauncherArchiveTest {
                 Files.readString(target.resolve("lanesift.jsa.bytes")).strip());
         assertFalse(Files.exists(target.resolve("lanesift.jsa.failed")));
         List<String> calls = Files.readAllLines(log);
-        assertEquals(3, calls.size(), calls::toString); // the example run, the check start, the command
+        assertEquals(4, calls.size(), calls::toString); // the example runs, the check start, the command
         assertTrue(calls.get(0).matches("run \\S+/plugins/differential/examples/clock-lane\\.json --out \\S+ --quiet"), calls::toString);
-        assertEquals(List.of("--version", "run x"), calls.subList(1, 3));
+        assertTrue(calls.get(1).matches("run (\\S+)/ddr-chain\\.json --outputs binary,artifacts,annotations --out \\1/ddr --quiet"),
+                calls::toString);
+        assertEquals(List.of("--version", "run x"), calls.subList(2, 4));
 
         Path classes = root.resolve("classes.txt");
         launch(Map.of("LANESIFT_JAVA_OPTS", "-Xlog:class+load:file=" + classes), "run", "y");
@@ -149,6 +152,39 @@ class LauncherArchiveTest {
         }
         Files.delete(file); // read-only after the dump
         Files.write(file, head);
+    }
+
+    /**
+     * The double-edge capture the launcher writes for its second example run decodes, through the
+     * real chain it writes beside it, to the bits it was written from: lane j carries bit j of the
+     * 16-bit LFSR (taps 0xB400, seed 44257), one value per clock edge.
+     */
+    @Test
+    void theExampleCaptureDecodesToItsBits(@TempDir Path dir) throws Exception {
+        ExternalTool.run(dir, java.time.Duration.ofMinutes(1), List.of("bash", "-c",
+                "source <(sed -n '/^ddr_example() {/,/^}$/p' \"$0\") && ddr_example \"$1\" 4000",
+                Path.of("../lanesift").toAbsolutePath().toString(), dir.toString()));
+        java.io.ByteArrayOutputStream o = new java.io.ByteArrayOutputStream();
+        java.io.PrintStream ps = new java.io.PrintStream(o, true, StandardCharsets.UTF_8);
+        assertEquals(0, org.lanesift.runner.ChainRun.of(dir.resolve("ddr-chain.json")).out(dir.resolve("out")).quiet(true)
+                .run(ps, ps), o.toString(StandardCharsets.UTF_8));
+        int lfsr = 44257;
+        StringBuilder[] expected = {new StringBuilder(), new StringBuilder(), new StringBuilder()};
+        for (int s = 1; s < 4000; s += 2) {
+            lfsr = (lfsr >>> 1) ^ (-(lfsr & 1) & 0xB400);
+            for (int j = 0; j < 3; j++) {
+                expected[j].append((lfsr >> j) & 1);
+            }
+        }
+        for (int j = 0; j < 3; j++) {
+            List<String> rows = Files.readAllLines(dir.resolve("out/rx-bits" + j + "-bits.csv"));
+            StringBuilder bits = new StringBuilder();
+            for (String row : rows.subList(1, rows.size())) {
+                bits.append(row.split(",", 3)[1]);
+            }
+            assertTrue(bits.length() >= 1990, "lane " + j + ": " + bits.length() + " bits of 2000 clock edges");
+            assertEquals(expected[j].substring(0, bits.length()), bits.toString(), "lane " + j);
+        }
     }
 
     /** Runs the copied launcher with the test's JDK first on the PATH; returns standard output. */
