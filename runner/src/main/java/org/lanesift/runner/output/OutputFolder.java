@@ -3,6 +3,7 @@ package org.lanesift.runner.output;
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.DirectoryStream;
+import java.nio.file.FileAlreadyExistsException;
 import java.nio.file.FileVisitResult;
 import java.nio.file.Files;
 import java.nio.file.LinkOption;
@@ -10,8 +11,12 @@ import java.nio.file.Path;
 import java.nio.file.SimpleFileVisitor;
 import java.nio.file.StandardCopyOption;
 import java.nio.file.attribute.BasicFileAttributes;
+import java.nio.file.attribute.FileAttribute;
+import java.nio.file.attribute.PosixFilePermission;
+import java.nio.file.attribute.PosixFilePermissions;
 import java.util.ArrayList;
 import java.util.Collection;
+import java.util.EnumSet;
 import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Set;
@@ -67,11 +72,40 @@ public final class OutputFolder {
         }
         try {
             Files.createDirectories(dir);
-            Path work = Files.createTempDirectory(dir, WORK_PREFIX);
+            Path work = newWorkFolder(dir, System.nanoTime());
             Files.writeString(work.resolve(RunOutputs.REPORT), INTERRUPTED_REPORT, StandardCharsets.UTF_8);
             return new OutputFolder(dir, work, List.copyOf(inputs));
         } catch (IOException e) {
             throw new OutputException("--out " + dir + ": cannot create the directory: " + e.getMessage(), e);
+        }
+    }
+
+    /**
+     * A new work folder {@code .lanesift-run-<number>} in {@code dir}, readable by its owner only
+     * where the file system has POSIX permissions, as {@link Files#createTempDirectory} makes it,
+     * but named from the clock instead of a {@code SecureRandom}, whose first use costs every run
+     * about 10 ms of provider set-up (DEVELOPERS.md, "Cold start"). The name need not be hard to
+     * guess: the folder is created atomically, never through an existing file or link, and a name
+     * taken (by a run started at the same moment) is passed over for the next one.
+     *
+     * @param dir  the output folder
+     * @param seed the number tried first
+     * @return the folder created
+     * @throws IOException if it cannot be created, or the next 1000 names are taken
+     */
+    static Path newWorkFolder(Path dir, long seed) throws IOException {
+        FileAttribute<?>[] ownerOnly = dir.getFileSystem().supportedFileAttributeViews().contains("posix")
+                ? new FileAttribute<?>[] {PosixFilePermissions.asFileAttribute(EnumSet.of(
+                        PosixFilePermission.OWNER_READ, PosixFilePermission.OWNER_WRITE, PosixFilePermission.OWNER_EXECUTE))}
+                : new FileAttribute<?>[0];
+        for (int i = 0; ; i++) {
+            try {
+                return Files.createDirectory(dir.resolve(WORK_PREFIX + Long.toUnsignedString(seed + i)), ownerOnly);
+            } catch (FileAlreadyExistsException e) {
+                if (i == 999) {
+                    throw e;
+                }
+            }
         }
     }
 
