@@ -119,7 +119,7 @@ public final class DualEdgePlugin implements PluginProvider {
             .option(OptionSpec.bool("autoPhase", false, "sample at the centre of the widest transition-free window found"
                     + " over the first 'searchBits' bits (replaces 'phase')"))
             .option(OptionSpec.integer("searchBits", 8192L, 16, 10_000_000, "bits per lane at the start of the capture"
-                    + " used by autoPhase"))
+                    + " used by autoPhase, and (at most 8192 of them) to judge each lane's skew"))
             .option(OptionSpec.number("marginThreshold", "UI", DEFAULT_MARGIN_THRESHOLD_UI, 0.0, 0.5, "setup or hold margins below this fraction"
                     + " of a UI are flagged"))
             .option(OptionSpec.number("glitchFraction", "", 0.2, 0.0, 0.45, "clock pulses shorter than this fraction of the"

@@ -47,6 +47,15 @@ final class DualEdgeStage implements Stage {
     private long emittedBits;
     private double uiSumAll;
     private boolean done;
+    /**
+     * Sample points the first block holds at least (fewer only when the stream ends before that
+     * many): the lanes' skew is judged on the first this many points ({@link #judgeLaneSkew}), so
+     * that the judgement does not depend on how the inputs were cut into blocks. The smaller of
+     * two passes ({@link #CHUNK} accepted clock edges each) and {@code searchBits}: with autoPhase
+     * the first block holds the searched points anyway. Later blocks go out as soon as their
+     * points are ready.
+     */
+    private final int firstBlockPoints;
     /** Whether {@link #askMargins()} has run. */
     private boolean marginsAsked;
     /** Per input (clock, then lanes): its sample grid was judged against the unit interval. */
@@ -74,6 +83,7 @@ final class DualEdgeStage implements Stage {
         gridJudged = new boolean[cfg.lanes() + 1];
         skewAmbiguous = new boolean[cfg.lanes()];
         skewJudged = new boolean[cfg.lanes()];
+        firstBlockPoints = Math.min(2 * CHUNK, cfg.searchBits());
         skewFinding = new FindingRef[cfg.lanes()];
         cr = new ClockRecovery(cfg, clockQ, notes);
         planner = new SamplePlanner(cfg);
@@ -209,7 +219,7 @@ final class DualEdgeStage implements Stage {
                     ready++;
                 }
             }
-            if (ready == 0) {
+            if (ready == 0 || (emittedBits == 0 && !finishing && ready < firstBlockPoints)) {
                 return;
             }
             emit(ready, finishing);
@@ -323,6 +333,10 @@ final class DualEdgeStage implements Stage {
      * Judges once where a lane's eye sits against the sample point: half the difference of setup
      * and hold margin, averaged over the bits of this block that have a transition within reach on
      * both sides, is the offset of the lane's transitions from the mid-points between sample points.
+     * On the first block only its first {@link #firstBlockPoints} sample points count, and the
+     * first block holds at least that many however the inputs were cut, so the judgement does not
+     * depend on the cuts when the lane has {@value #SKEW_JUDGE_BITS} such bits among them; a lane
+     * with fewer (idle at the start) is judged on the first later block that has them.
      * A skew s of the lane against the clock shows as s wrapped into [-0.5, 0.5) UI: beyond
      * {@value #AMBIGUOUS_OFFSET_UI} UI the lane may equally be skewed by s or by s - 1 UI the
      * other way, that is by more than half a UI, and then every bit belongs to the neighbouring
@@ -335,7 +349,8 @@ final class DualEdgeStage implements Stage {
         }
         double sum = 0;
         int n = 0;
-        for (int i = 0; i < ready; i++) {
+        int upTo = emittedBits == 0 ? Math.min(ready, firstBlockPoints) : ready;
+        for (int i = 0; i < upTo; i++) {
             long su = l.setup[i];
             long ho = l.hold[i];
             if (su != LaneSampler.UNKNOWN && ho != LaneSampler.UNKNOWN) {
