@@ -6,10 +6,7 @@ import org.lanesift.data.BitStream;
 import org.lanesift.data.Block;
 import org.lanesift.data.DataKind;
 import org.lanesift.plugin.PluginDescriptor;
-import org.lanesift.plugin.PluginProvider;
 import org.lanesift.plugin.PortSpec;
-import org.lanesift.plugin.Stage;
-import org.lanesift.plugin.StageContext;
 
 /**
  * A sink plugin for tests of per-bit margins on demand (host-api {@code BitStream}, "Margins only
@@ -19,9 +16,8 @@ import org.lanesift.plugin.StageContext;
  * it does not never touches them, so wiring it beside other receivers changes nothing and it can
  * watch what a producer sent.
  */
-public final class BitsKeeper implements PluginProvider {
+public final class BitsKeeper extends SinkPlugin {
     private final List<BitStream> kept = new ArrayList<>();
-    private final PluginDescriptor descriptor;
     private final boolean reads;
 
     /**
@@ -31,29 +27,18 @@ public final class BitsKeeper implements PluginProvider {
      * @param reads whether its input declares that it reads the margins
      */
     public BitsKeeper(String id, boolean reads) {
+        super(PluginDescriptor.builder(id).input(PortSpec.of("in", DataKind.BITS, "bit streams").readingBitMargins(reads)).build());
         this.reads = reads;
-        descriptor = PluginDescriptor.builder(id)
-                .input(PortSpec.of("in", DataKind.BITS, "bit streams").readingBitMargins(reads)).build();
     }
 
     @Override
-    public PluginDescriptor descriptor() {
-        return descriptor;
-    }
-
-    @Override
-    public Stage open(StageContext context) {
-        return new Stage() {
-            @Override
-            public void accept(int input, Block block) {
-                BitStream b = (BitStream) block;
-                if (reads) {
-                    b.setupFs();
-                    b.holdFs();
-                }
-                kept.add(b);
-            }
-        };
+    protected void take(Block block) {
+        BitStream b = (BitStream) block;
+        if (reads) {
+            b.setupFs();
+            b.holdFs();
+        }
+        kept.add(b);
     }
 
     /**

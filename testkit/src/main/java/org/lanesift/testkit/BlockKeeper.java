@@ -8,10 +8,7 @@ import org.lanesift.data.Block;
 import org.lanesift.data.DataKind;
 import org.lanesift.data.LogicBlock;
 import org.lanesift.plugin.PluginDescriptor;
-import org.lanesift.plugin.PluginProvider;
 import org.lanesift.plugin.PortSpec;
-import org.lanesift.plugin.Stage;
-import org.lanesift.plugin.StageContext;
 
 /**
  * A sink plugin for tests of the lent-block rule (host-api {@code Block}, "Ownership"): it keeps
@@ -20,10 +17,9 @@ import org.lanesift.plugin.StageContext;
  * recycled under it (and poisoned in the test mode); {@link #changed()} counts them. Without the
  * declaration it is an honest receiver that may keep what it gets.
  */
-public final class BlockKeeper implements PluginProvider {
+public final class BlockKeeper extends SinkPlugin {
     private final List<Block> kept = new ArrayList<>();
     private final List<Object> copies = new ArrayList<>();
-    private final PluginDescriptor descriptor;
 
     /**
      * Creates the keeper.
@@ -33,24 +29,18 @@ public final class BlockKeeper implements PluginProvider {
      * @param declares whether it declares {@code readsLentBlocks}
      */
     public BlockKeeper(String id, DataKind kind, boolean declares) {
+        super(descriptor(id, kind, declares));
+    }
+
+    private static PluginDescriptor descriptor(String id, DataKind kind, boolean declares) {
         PluginDescriptor.Builder b = PluginDescriptor.builder(id).input(PortSpec.of("in", kind, "anything"));
-        descriptor = (declares ? b.readsLentBlocks() : b).build();
+        return (declares ? b.readsLentBlocks() : b).build();
     }
 
     @Override
-    public PluginDescriptor descriptor() {
-        return descriptor;
-    }
-
-    @Override
-    public Stage open(StageContext context) {
-        return new Stage() {
-            @Override
-            public void accept(int input, Block block) {
-                kept.add(block);
-                copies.add(block instanceof AnalogBlock a ? a.volts().clone() : ((LogicBlock) block).bits().clone());
-            }
-        };
+    protected void take(Block block) {
+        kept.add(block);
+        copies.add(block instanceof AnalogBlock a ? a.volts().clone() : ((LogicBlock) block).bits().clone());
     }
 
     /**
