@@ -28,6 +28,35 @@ class ToolCommandsTest {
         return new Run(code, o.toString(StandardCharsets.UTF_8), e.toString(StandardCharsets.UTF_8));
     }
 
+    /**
+     * {@code plugins} shows which bit inputs read no per-bit margins (host-api
+     * {@code PortSpec.readsBitMargins}): pixel-link's lanes say so, dual-edge's outputs and
+     * packet-link's lanes with line states (its default) do not.
+     */
+    @Test
+    void pluginsShowWhichBitInputsReadNoMargins() throws Exception {
+        Run text = run("plugins");
+        assertEquals(0, text.code(), text::toString);
+        String pixel = text.out().substring(text.out().indexOf("\npixel-link "));
+        String pixelInputs = pixel.lines().filter(l -> l.startsWith("  inputs:")).findFirst().orElseThrow();
+        assertTrue(pixelInputs.contains("(BITS, reads no bit margins)"), pixelInputs);
+        Run json = run("plugins", "--json");
+        assertEquals(0, json.code(), json::toString);
+        boolean seenPixel = false;
+        for (org.lanesift.json.JsonValue p : org.lanesift.json.JsonReader.parse("plugins --json", json.out()).get("plugins").elements()) {
+            String id = p.get("id").asString();
+            if (id.equals("pixel-link")) {
+                seenPixel = true;
+                assertEquals(false, p.at("/inputs/0/readsBitMargins").asBoolean(), p::toString);
+            } else if (id.equals("dual-edge")) {
+                assertEquals(true, p.at("/outputs/0/readsBitMargins").asBoolean(), "the default of a port: " + p);
+                assertEquals("EDGES", p.at("/inputs/0/kind").asString(), p::toString);
+                assertEquals(null, p.at("/inputs/0").get("readsBitMargins"), "only bit ports carry it: " + p);
+            }
+        }
+        assertTrue(seenPixel, json::toString);
+    }
+
     @ParameterizedTest
     @ValueSource(strings = {"run", "plugins", "inspect", "probe", "probe divider", "probe rise", "probe lead", "cable-delay",
         "capture", "simulate-device", "live", "demo", "bench", "view"})

@@ -5,6 +5,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.concurrent.Callable;
+import org.lanesift.data.DataKind;
 import org.lanesift.json.JsonWriter;
 import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.OptionValues;
@@ -136,7 +137,8 @@ final class PluginsCommand implements Callable<Integer> {
             if (sb.length() > 0) {
                 sb.append(", ");
             }
-            sb.append(p.name()).append(" (").append(p.kind()).append(inputs && !p.required() ? ", optional" : "").append(')');
+            sb.append(p.name()).append(" (").append(p.kind()).append(inputs && !p.required() ? ", optional" : "")
+                    .append(inputs && p.kind() == DataKind.BITS && !p.readsBitMargins() ? ", reads no bit margins" : "").append(')');
         }
         return sb.toString();
     }
@@ -236,6 +238,10 @@ final class PluginsCommand implements Callable<Integer> {
             w.field("name", p.name());
             w.field("kind", p.kind().name());
             w.field("required", p.required());
+            if (p.kind() == DataKind.BITS) {
+                // host-api PortSpec.readsBitMargins: false lets a producer leave the per-bit margins out
+                w.field("readsBitMargins", p.readsBitMargins());
+            }
             w.field("help", p.help());
             w.endObject();
         }
