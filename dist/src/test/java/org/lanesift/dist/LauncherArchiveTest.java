@@ -71,6 +71,8 @@ class LauncherArchiveTest {
         Files.copy(Path.of("../lanesift"), root.resolve("lanesift"), StandardCopyOption.COPY_ATTRIBUTES);
         Path examples = Files.createDirectories(root.resolve("plugins/differential/examples"));
         Files.copy(Path.of("../plugins/differential/examples/clock-lane.json"), examples.resolve("clock-lane.json"));
+        Path scripts = Files.createDirectories(root.resolve("bench/scripts"));
+        Files.copy(Path.of("../bench/scripts/ddr-chain.json"), scripts.resolve("ddr-chain.json"));
         target = Files.createDirectories(root.resolve("dist/target"));
         Files.writeString(target.resolve("lanesift.sources"), ""); // no sources here: the jar is never stale
         probeJar(target.resolve("lanesift.jar"));
@@ -156,14 +158,15 @@ class LauncherArchiveTest {
 
     /**
      * The double-edge capture the launcher writes for its second example run decodes, through the
-     * real chain it writes beside it, to the bits it was written from: lane j carries bit j of the
-     * 16-bit LFSR (taps 0xB400, seed 44257), one value per clock edge.
+     * chain that run uses (bench/scripts/ddr-chain.json), to the bits it was written from: lane j
+     * carries bit j of the 16-bit LFSR (taps 0xB400, seed 44257), one value per clock edge.
      */
     @Test
     void theExampleCaptureDecodesToItsBits(@TempDir Path dir) throws Exception {
         ExternalTool.run(dir, java.time.Duration.ofMinutes(1), List.of("bash", "-c",
                 "source <(sed -n '/^ddr_example() {/,/^}$/p' \"$0\") && ddr_example \"$1\" 4000",
                 Path.of("../lanesift").toAbsolutePath().toString(), dir.toString()));
+        Files.copy(Path.of("../bench/scripts/ddr-chain.json"), dir.resolve("ddr-chain.json"));
         java.io.ByteArrayOutputStream o = new java.io.ByteArrayOutputStream();
         java.io.PrintStream ps = new java.io.PrintStream(o, true, StandardCharsets.UTF_8);
         assertEquals(0, org.lanesift.runner.ChainRun.of(dir.resolve("ddr-chain.json")).out(dir.resolve("out")).quiet(true)
