@@ -248,11 +248,11 @@ final class DualEdgeStage implements Stage {
         if (!marginsAsked) {
             askMargins();
         }
-        sb.summarize(ready);
-        long minS = sb.minS;
-        long maxS = sb.maxS;
-        double uiSum = sb.uiSum;
-        long reach = (long) Math.ceil(2 * sb.maxUi);
+        SampleBuf.Summary span = sb.summarize(ready);
+        long minS = span.minS();
+        long maxS = span.maxS();
+        double uiSum = span.uiSum();
+        long reach = (long) Math.ceil(2 * span.maxUi());
         long[] times = Arrays.copyOf(sb.s, ready);
         long[] edges = Arrays.copyOf(sb.edge, ready);
         long[] falling = sb.fallingBits(ready);

@@ -34,18 +34,19 @@ final class SampleBuf {
     private long lastThr;
     private long lastScale;
 
-    /** Earliest and latest sample time, largest unit interval and sum of unit intervals of the points {@link #summarize} looked at. */
-    long minS;
-    long maxS;
-    double maxUi;
-    double uiSum;
-
     SampleBuf(double threshold) {
         this.threshold = threshold;
     }
 
-    /** Sets {@link #minS}, {@link #maxS}, {@link #maxUi} and {@link #uiSum} over the first {@code count} points. */
-    void summarize(int count) {
+    /**
+     * What a block of points spans: its earliest and latest sample time, its largest unit interval
+     * and the sum of its unit intervals.
+     */
+    record Summary(long minS, long maxS, double maxUi, double uiSum) {
+    }
+
+    /** The {@link Summary} of the first {@code count} points. */
+    Summary summarize(int count) {
         long lo = Long.MAX_VALUE;
         long hi = Long.MIN_VALUE;
         double uiMax = 0;
@@ -57,10 +58,7 @@ final class SampleBuf {
             uiMax = Math.max(uiMax, ui[i]);
             sum += ui[i];
         }
-        minS = lo;
-        maxS = hi;
-        maxUi = uiMax;
-        uiSum = sum;
+        return new Summary(lo, hi, uiMax, sum);
     }
 
     /** Packed bits, bit i set when point i samples on a falling clock edge, for the first {@code count} points. */
