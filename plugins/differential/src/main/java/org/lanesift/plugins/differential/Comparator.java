@@ -409,37 +409,42 @@ final class Comparator {
         }
     }
 
+    /**
+     * {@link #fastRunPair} for one channel (modes single and differential): the same scans and the
+     * same short cut for a linear crossing among the three samples before the trip, on the
+     * channel's own samples.
+     */
     private int fastRunSingle(int r0, int r1) {
         final float[] a = ca;
         final int ao = cao;
         final long[] bits = cbits;
+        final boolean lin = !cubic;
+        final int back = (int) Math.max(3, Math.max(validRunStart, floorIndex) - cbase + 3);
         int i = r0;
         int runStart = r0;
         while (true) {
             if (!high) {
-                final float up = upper;
-                while (i + 4 <= r1 && (a[ao + i] <= up) & (a[ao + i + 1] <= up) & (a[ao + i + 2] <= up) & (a[ao + i + 3] <= up)) {
-                    i += 4;
-                }
-                while (i < r1 && a[ao + i] <= up) {
-                    i++;
-                }
+                i = firstAbove(a, ao, i, r1, upper);
                 if (i >= r1) {
                     return r1;
                 }
                 if (a[ao + i] != a[ao + i]) {
                     return i;
                 }
-                trip(i, true);
                 runStart = i;
+                if (lin && i >= back) {
+                    final float t = thr;
+                    int f = (a[ao + i - 1] <= t ? 1 : 0) | (a[ao + i - 2] <= t ? 2 : 0) | (a[ao + i - 3] <= t ? 4 : 0);
+                    if (f != 0) {
+                        int s = Integer.numberOfTrailingZeros(f) + 1;
+                        high = true;
+                        addTime(timeAt(cbase + i - s, Crossing.linear(a[ao + i - s], a[ao + i - s + 1], t)));
+                        continue;
+                    }
+                }
+                trip(i, true);
             } else {
-                final float lo = lower;
-                while (i + 4 <= r1 && (a[ao + i] >= lo) & (a[ao + i + 1] >= lo) & (a[ao + i + 2] >= lo) & (a[ao + i + 3] >= lo)) {
-                    i += 4;
-                }
-                while (i < r1 && a[ao + i] >= lo) {
-                    i++;
-                }
+                i = firstBelow(a, ao, i, r1, lower);
                 setBits(bits, runStart, i);
                 if (i >= r1) {
                     return r1;
@@ -447,9 +452,49 @@ final class Comparator {
                 if (a[ao + i] != a[ao + i]) {
                     return i;
                 }
+                if (lin && i >= back) {
+                    final float t = thr;
+                    int f = (a[ao + i - 1] >= t ? 1 : 0) | (a[ao + i - 2] >= t ? 2 : 0) | (a[ao + i - 3] >= t ? 4 : 0);
+                    if (f != 0) {
+                        int s = Integer.numberOfTrailingZeros(f) + 1;
+                        high = false;
+                        addTime(timeAt(cbase + i - s, Crossing.linear(a[ao + i - s], a[ao + i - s + 1], t)));
+                        continue;
+                    }
+                }
                 trip(i, false);
             }
         }
+    }
+
+    /** {@link #firstAbove(float[], int, float[], int, int, int, float)} of one channel's samples. */
+    private static int firstAbove(float[] a, int ao, int i, int r1, float up) {
+        while (i + 4 <= r1) {
+            int m = (a[ao + i] <= up ? 0 : 1) | (a[ao + i + 1] <= up ? 0 : 2) | (a[ao + i + 2] <= up ? 0 : 4) | (a[ao + i + 3] <= up ? 0 : 8);
+            if (m != 0) {
+                return i + Integer.numberOfTrailingZeros(m);
+            }
+            i += 4;
+        }
+        while (i < r1 && a[ao + i] <= up) {
+            i++;
+        }
+        return i;
+    }
+
+    /** {@link #firstBelow(float[], int, float[], int, int, int, float)} of one channel's samples. */
+    private static int firstBelow(float[] a, int ao, int i, int r1, float lo) {
+        while (i + 4 <= r1) {
+            int m = (a[ao + i] >= lo ? 0 : 1) | (a[ao + i + 1] >= lo ? 0 : 2) | (a[ao + i + 2] >= lo ? 0 : 4) | (a[ao + i + 3] >= lo ? 0 : 8);
+            if (m != 0) {
+                return i + Integer.numberOfTrailingZeros(m);
+            }
+            i += 4;
+        }
+        while (i < r1 && a[ao + i] >= lo) {
+            i++;
+        }
+        return i;
     }
 
     /** A confirmed transition at chunk-relative sample {@code i}. */
