@@ -22,6 +22,8 @@
 #        beside it) instead of writing one; OUTPUTS=binary runs lanesift with --outputs binary,artifacts,annotations
 #        (packed .bits files instead of the bits CSV and the VCD, docs/bits-binary.md; bits and ones
 #        are then counted from the .bits files, not timed).
+#        CHAIN=diff runs ddr-diff-chain.json instead: the raw source takes each pair's difference
+#        straight from the frames (docs/capture-raw.md, "Leg differences"; no common-mode figures).
 set -euo pipefail
 cd "$(dirname "$0")/../.."
 ROOT="$PWD"
@@ -43,7 +45,10 @@ fi
 OUTPUT_ARGS=()
 [ "${OUTPUTS:-}" = binary ] && OUTPUT_ARGS=(--outputs binary,artifacts,annotations)
 echo "capture: $CAP, $(stat -L -c %s "$CAP") bytes, $SIZE samples per channel" >&2
-cp "$ROOT/bench/scripts/ddr-chain.json" "$WORK/chain.json"   # reads ddr.bin beside it
+# CHAIN=diff: ddr-diff-chain.json (the raw source takes each pair's difference; no common-mode figures)
+CHAIN_FILE="$ROOT/bench/scripts/ddr-chain.json"
+[ "${CHAIN:-}" = diff ] && CHAIN_FILE="$ROOT/bench/scripts/ddr-diff-chain.json"
+cp "$CHAIN_FILE" "$WORK/chain.json"   # reads ddr.bin beside it
 
 now() { date +%s.%N; }
 NP=()

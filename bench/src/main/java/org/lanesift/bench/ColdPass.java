@@ -29,9 +29,12 @@ import org.lanesift.plugin.PluginRegistry;
  * {@code --passes N} it makes N passes in the same JVM, one line each: the first is the cold pass,
  * the later ones show the warm speed. The read-ahead thread of the raw source is on unless the JVM
  * is started with {@code -Dlanesift.readAhead=false}; the allocation figure counts the calling
- * thread only, so blocks that thread allocates are not in it.
+ * thread only, so blocks that thread allocates are not in it. With {@code --differences} it is the
+ * chain of ddr-diff-chain.json instead: the raw source takes each pair's difference from the
+ * frames (its {@code differences} option) and the four receivers are in mode {@code differential}.
  *
- * <p>Usage: {@code java [options] -cp bench/target/benchmarks.jar org.lanesift.bench.ColdPass FILE [--no-lend] [--margins] [--passes N]}
+ * <p>Usage: {@code java [options] -cp bench/target/benchmarks.jar org.lanesift.bench.ColdPass FILE [--no-lend] [--margins]
+ * [--differences] [--passes N]}
  */
 public final class ColdPass {
     private ColdPass() {
@@ -46,24 +49,27 @@ public final class ColdPass {
         Path file = Path.of(args[0]);
         boolean lend = true;
         boolean margins = false;
+        boolean differences = false;
         int passes = 1;
         for (int i = 1; i < args.length; i++) {
             if (args[i].equals("--no-lend")) {
                 lend = false;
             } else if (args[i].equals("--margins")) {
                 margins = true;
+            } else if (args[i].equals("--differences")) {
+                differences = true;
             } else if (args[i].equals("--passes") && i + 1 < args.length) {
                 passes = Integer.parseInt(args[++i]);
             } else {
-                throw new IllegalArgumentException("unknown argument " + args[i] + "; expected FILE [--no-lend] [--margins] [--passes N]");
+                throw new IllegalArgumentException("unknown argument " + args[i] + "; expected FILE [--no-lend] [--margins] [--differences] [--passes N]");
             }
         }
         for (int p = 0; p < passes; p++) {
-            pass(file, lend, margins);
+            pass(file, lend, margins, differences);
         }
     }
 
-    private static void pass(Path file, boolean lend, boolean margins) {
+    private static void pass(Path file, boolean lend, boolean margins, boolean differences) {
         long t0 = System.nanoTime();
         com.sun.management.ThreadMXBean threads = (com.sun.management.ThreadMXBean) java.lang.management.ManagementFactory.getThreadMXBean();
         long allocated0 = threads.getCurrentThreadAllocatedBytes();
@@ -73,14 +79,21 @@ public final class ColdPass {
         long processCpu0 = os.getProcessCpuTime();
         long[] counts = new long[2];
         ChainBuilder b = Chain.builder(PluginRegistry.discover(ColdPass.class.getClassLoader()))
-                .add("cap", "raw", Map.of("file", file.toString()))
+                .add("cap", "raw", differences ? Map.of("file", file.toString(), "differences",
+                        "clk=clk_p-clk_n, d0=d0_p-d0_n, d1=d1_p-d1_n, d2=d2_p-d2_n") : Map.of("file", file.toString()))
                 .add("sampler", "dual-edge", Map.of("mode", "ddr", "lanes", 3));
         for (String p : new String[] {"clk", "d0", "d1", "d2"}) {
             // the options of ddr-chain.json: threshold given, hysteresis and levels learned
-            b.add(p, "differential", Map.of("thresholdVolts", 0.0))
-                    .wire("cap." + p + "_p", p + ".p").wire("cap." + p + "_n", p + ".n")
-                    .wire(p + ".edges", "sampler." + (p.equals("clk") ? "clock" : "lane" + p.charAt(1)));
-            if (!lend) {
+            if (differences) {
+                b.add(p, "differential", Map.of("mode", "differential", "thresholdVolts", 0.0)).wire("cap." + p, p + ".in");
+            } else {
+                b.add(p, "differential", Map.of("thresholdVolts", 0.0))
+                        .wire("cap." + p + "_p", p + ".p").wire("cap." + p + "_n", p + ".n");
+            }
+            b.wire(p + ".edges", "sampler." + (p.equals("clk") ? "clock" : "lane" + p.charAt(1)));
+            if (!lend && differences) {
+                b.tap("cap." + p, blk -> { });
+            } else if (!lend) {
                 b.tap("cap." + p + "_p", blk -> { }).tap("cap." + p + "_n", blk -> { });
             }
         }

@@ -64,5 +64,33 @@ class VsScriptTest {
         // both edges of a 100 MHz clock over 40 us, 3 lanes; random data about half ones
         assertEquals(3 * 2 * 4000, bits);
         assertTrue(ones > bits * 45 / 100 && ones < bits * 55 / 100, "ones " + ones + " of " + bits);
+
+        // the same chain with the raw source taking each pair's difference (ddr-diff-chain.json):
+        // every bit file is the same, byte for byte
+        Files.copy(SCRIPTS.resolve("ddr-diff-chain.json"), dir.resolve("diff-chain.json"));
+        o.reset();
+        code = ChainRun.of(dir.resolve("diff-chain.json")).out(dir.resolve("diff-out")).quiet(true)
+                .run(new PrintStream(o, true, StandardCharsets.UTF_8), new PrintStream(o, true, StandardCharsets.UTF_8));
+        assertEquals(0, code, o.toString(StandardCharsets.UTF_8));
+        for (Path csv : csvs) {
+            Path other = dir.resolve("diff-out").resolve(csv.getFileName());
+            assertEquals(-1L, Files.mismatch(csv, other), csv.getFileName() + " with leg differences");
+        }
+    }
+
+    @Test
+    void aBadDifferencesOptionIsBadInputNamingIt(@TempDir Path dir) throws Exception {
+        Path python = ExternalTool.requirePythonModule("numpy", "python3-numpy");
+        ExternalTool.run(dir, Duration.ofMinutes(2), List.of(python.toString(),
+                SCRIPTS.resolve("ddr-capture.py").toAbsolutePath().toString(), "ddr.bin", "1000"));
+        Files.writeString(dir.resolve("chain.json"), Files.readString(SCRIPTS.resolve("ddr-diff-chain.json"))
+                .replace("d2=d2_p-d2_n", "d2=d2_p-d3_n"));
+        ByteArrayOutputStream o = new ByteArrayOutputStream();
+        int code = ChainRun.of(dir.resolve("chain.json")).out(dir.resolve("out")).quiet(true)
+                .run(new PrintStream(o, true, StandardCharsets.UTF_8), new PrintStream(o, true, StandardCharsets.UTF_8));
+        String text = o.toString(StandardCharsets.UTF_8);
+        assertEquals(2, code, text);
+        assertTrue(text.contains("option 'differences' of plugin 'raw': entry 'd2=d2_p-d3_n': expected P-N"), text);
+        assertTrue(!text.contains("\tat "), "no stack trace: " + text);
     }
 }

@@ -47,6 +47,12 @@ final class RawReader implements CaptureReader {
     private final ReadAhead<Span> spans;
     private final List<PortSpec> ports = new ArrayList<>();
     private final List<String> units = new ArrayList<>();
+    /** The outputs: the channels, or pairs of legs read as differences ({@link LegDifferences}). */
+    private final LegDifferences outs;
+    /** With differences: every channel of one read chunk, converted, before the outputs are filled. */
+    private final float[][] legs;
+    /** With differences: every channel's invalid samples of one read chunk, or null entries for none. */
+    private final long[][] legMasks;
 
     RawReader(Path file, RawSidecar sc, int blockSamples, boolean headerOnly) throws IOException {
         this(file, sc, blockSamples, headerOnly, 0, 0, ReadAhead.allowed());
@@ -61,15 +67,16 @@ final class RawReader implements CaptureReader {
      */
     RawReader(Path file, RawSidecar sc, int blockSamples, boolean headerOnly, long firstFrame, long frameCount, boolean readAhead)
             throws IOException {
-        this(file, sc, blockSamples, headerOnly, firstFrame, frameCount, readAhead, READ_BYTES);
+        this(file, sc, blockSamples, headerOnly, firstFrame, frameCount, readAhead, READ_BYTES, "");
     }
 
     /**
-     * As above, reading {@code readBytes} at a time (rounded down to whole frames, at least one):
-     * tests cut the reads at odd sizes.
+     * As above, reading {@code readBytes} at a time (rounded down to whole frames, at least one;
+     * tests cut the reads at odd sizes), with the outputs the {@code differences} option names
+     * ({@link LegDifferences}; blank: every channel).
      */
     RawReader(Path file, RawSidecar sc, int blockSamples, boolean headerOnly, long firstFrame, long frameCount, boolean readAhead,
-              int readBytes) throws IOException {
+              int readBytes, String differences) throws IOException {
         this.file = file;
         this.sc = sc;
         this.nch = sc.names.length;
@@ -105,9 +112,11 @@ final class RawReader implements CaptureReader {
         this.framesPerBlock = Math.max(1, Math.min(blockSamples, CsvReader.MAX_SPAN_VALUES / nch));
         this.periodFs = Femtos.periodFs(sc.rateHz);
         this.startFs = Femtos.fromSeconds(sc.startTimeS);
-        for (int k = 0; k < nch; k++) {
-            ports.add(PortSpec.of(sc.names[k], DataKind.ANALOG, "raw channel " + k + " (" + sc.format.text + " x " + sc.gain[k]
-                    + " V + " + sc.offset[k] + " V)"));
+        this.outs = LegDifferences.parse(differences, sc.names);
+        for (int o = 0; o < outs.names.length; o++) {
+            int k = outs.first[o];
+            ports.add(PortSpec.of(outs.names[o], DataKind.ANALOG, outs.second[o] >= 0 ? outs.help[o]
+                    : "raw channel " + k + " (" + sc.format.text + " x " + sc.gain[k] + " V + " + sc.offset[k] + " V)"));
             units.add("V");
         }
         // buffers sized to the work: a short capture gets a short read buffer and short blocks
@@ -117,7 +126,10 @@ final class RawReader implements CaptureReader {
         this.bb = headerOnly ? ByteBuffer.allocate(0) : ByteBuffer.allocateDirect(chunkFrames * frame);
         bb.order(sc.format == RawSidecar.Format.INT16BE ? ByteOrder.BIG_ENDIAN : ByteOrder.LITTLE_ENDIAN);
         this.converter = headerOnly ? null : RawConverter.of(sc);
-        this.arrays = new BlockArrays(nch, framesPerBlock);
+        this.arrays = new BlockArrays(outs.names.length, framesPerBlock);
+        boolean diff = outs.any() && !headerOnly;
+        this.legs = diff ? new float[nch][chunkFrames] : null;
+        this.legMasks = diff ? new long[nch][] : null;
         this.ch = headerOnly ? null : FileChannel.open(file, StandardOpenOption.READ);
         if (ch != null) {
             ch.position(firstFrame * frame);
@@ -174,8 +186,8 @@ final class RawReader implements CaptureReader {
             return false;
         }
         long blockStart = startFs + Math.round(s.first * periodFs);
-        for (int k = 0; k < nch; k++) {
-            out.emit(k, new AnalogBlock(sc.names[k], s.first, blockStart, periodFs, s.volts[k], s.n, s.invalid[k]));
+        for (int o = 0; o < s.volts.length; o++) {
+            out.emit(o, new AnalogBlock(outs.names[o], s.first, blockStart, periodFs, s.volts[o], s.n, s.invalid[o]));
         }
         pos = s.first + s.n;
         return true;
@@ -184,11 +196,12 @@ final class RawReader implements CaptureReader {
     /** Reads and converts the block at {@link #readPos} into the arrays of the set being filled. */
     private Span read() throws IOException {
         int n = (int) Math.min(framesPerBlock, frames - readPos);
-        float[][] v = new float[nch][];
-        for (int k = 0; k < nch; k++) {
-            v[k] = arrays.volts(k, n);
+        int nout = outs.names.length;
+        float[][] v = new float[nout][];
+        for (int o = 0; o < nout; o++) {
+            v[o] = arrays.volts(o, n);
         }
-        long[][] inv = new long[nch][];
+        long[][] inv = new long[nout][];
         RawConverter.Masks masks = k -> inv[k] != null ? inv[k] : (inv[k] = arrays.mask(k, n));
         int row = 0;
         while (row < n) {
@@ -201,7 +214,15 @@ final class RawReader implements CaptureReader {
             }
             bb.flip();
             int got = bb.remaining() / frame;
-            converter.convert(bb, got, v, row, masks);
+            if (legs == null) {
+                converter.convert(bb, got, v, row, masks);
+            } else {
+                // the chunk's channels into scratch arrays (still in cache), then the outputs from them
+                java.util.Arrays.fill(legMasks, null);
+                int words = org.lanesift.data.BitSets.words(got);
+                converter.convert(bb, got, legs, 0, k -> legMasks[k] != null ? legMasks[k] : (legMasks[k] = new long[words]));
+                outs.fill(legs, legMasks, got, v, row, masks);
+            }
             row += got;
         }
         Span s = new Span(readPos, n, v, inv);

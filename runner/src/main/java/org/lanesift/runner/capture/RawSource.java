@@ -31,6 +31,9 @@ public final class RawSource implements PluginProvider {
                     + " sample times stay those of the whole capture"))
             .option(OptionSpec.integer("frameCount", 0L, 0, Long.MAX_VALUE, "frames to read from firstFrame (0 = to the end)"))
             .option(READ_AHEAD)
+            .option(OptionSpec.text(LegDifferences.OPTION, "", "pairs of legs read as one difference channel each, straight"
+                    + " from the frames: NAME=P-N[, NAME=P-N...] with P and N channel port names; the legs are then no outputs"
+                    + " (docs/capture-raw.md, \"Leg differences\")"))
             .outputs(RawSource::ports)
             .build();
 
@@ -56,7 +59,8 @@ public final class RawSource implements PluginProvider {
 
     static RawReader reader(OptionValues o, boolean headerOnly) throws IOException {
         return new RawReader(Path.of(o.getString("file")), RawSidecar.read(sidecarOf(o)), o.getInt("blockSamples"), headerOnly,
-                o.getLong("firstFrame"), o.getLong("frameCount"), o.getBoolean("readAhead") && ReadAhead.allowed());
+                o.getLong("firstFrame"), o.getLong("frameCount"), o.getBoolean("readAhead") && ReadAhead.allowed(), RawReader.READ_BYTES,
+                o.getString(LegDifferences.OPTION));
     }
 
     /**

@@ -85,7 +85,7 @@ class RawReaderOracleTest {
             int readBytes, String what) throws Exception {
         int nch = sc.names.length;
         List<AnalogBlock> copies = new ArrayList<>();
-        try (RawReader r = new RawReader(bin, sc, block, false, first, count, ahead, readBytes)) {
+        try (RawReader r = new RawReader(bin, sc, block, false, first, count, ahead, readBytes, "")) {
             boolean[] flags = new boolean[nch];
             java.util.Arrays.fill(flags, lend);
             r.lend(flags);
@@ -127,7 +127,7 @@ class RawReaderOracleTest {
         return b;
     }
 
-    private static byte[] corpus(Random rnd, RawSidecar.Format format, int nch, int frames) {
+    static byte[] corpus(Random rnd, RawSidecar.Format format, int nch, int frames) {
         int values = frames * nch;
         ByteBuffer bb = ByteBuffer.allocate(values * format.bytes)
                 .order(format == RawSidecar.Format.INT16BE ? ByteOrder.BIG_ENDIAN : ByteOrder.LITTLE_ENDIAN);
@@ -156,13 +156,13 @@ class RawReaderOracleTest {
         };
     }
 
-    private static String gain(Random rnd, RawSidecar.Format format) {
+    static String gain(Random rnd, RawSidecar.Format format) {
         double maxCode = format == RawSidecar.Format.FLOAT32LE ? 1 : 32768;
         double[] choices = {1, -1, 1e-4, -2.7e-5, 3.3e-3 * rnd.nextDouble() + 1e-9, 1.5e-30, 0.9e30 / maxCode, -0.9e30 / maxCode, 2.0};
         return Double.toString(choices[rnd.nextInt(choices.length)]);
     }
 
-    private static String offset(Random rnd) {
+    static String offset(Random rnd) {
         double[] choices = {0, -1.2, 1.25, 1e29, -1e-3 * rnd.nextDouble()};
         return Double.toString(choices[rnd.nextInt(choices.length)]);
     }
