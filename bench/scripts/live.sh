@@ -10,7 +10,9 @@
 #   capture capture alone.
 # Each also prints the CPU time of the capture and decode threads and the rate each would reach on
 # a core of its own (the simulator's thread, which a real device replaces, is not counted).
-# Prints every run, then min / median / max of the end-to-end rate, the lag and the heap, and the
+# Prints every run, then min / median / max of the end-to-end rate, the lag (largest, at the end of
+# the capture, and largest in its second half: a bounded lag stops growing, so a longer capture
+# shows the same), the heap, and the
 # load average before and after (the machine is shared: a busy one slows every figure).
 # Usage: bench/scripts/live.sh [MEGABYTES] [RUNS]
 # JMH refuses to start while another JMH run holds /tmp/jmh.lock; on a shared machine
@@ -49,6 +51,9 @@ def show(name, vals, unit):
 show("live, end to end", rows("captureWithLiveDecode", r"decode ([0-9.]+) MB/s"), "MB/s")
 show("live, capture rate", rows("captureWithLiveDecode", r"capture ([0-9.]+) MB/s"), "MB/s")
 show("live, largest lag", rows("captureWithLiveDecode", r"lag max ([0-9.]+) MB"), "MB")
+show("live, lag at capture end", rows("captureWithLiveDecode", r"at capture end ([0-9.]+) MB"), "MB")
+show("live, largest lag in the capture's second half",
+     [float(m.group(1)) for l in lines for m in [re.search(r"second half of the capture ([0-9.]+) MB", l)] if m], "MB")
 show("live, peak heap", rows("captureWithLiveDecode", r"peak heap <= ([0-9.]+) MB"), "MB")
 show("replay, decode alone", rows("replayDecode", r"decode ([0-9.]+) MB/s"), "MB/s")
 show("capture alone", rows("captureOnly", r"capture ([0-9.]+) MB/s"), "MB/s")
