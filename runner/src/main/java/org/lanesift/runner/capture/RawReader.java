@@ -22,7 +22,9 @@ import org.lanesift.time.Femtos;
  * engine allows it. Unless turned off (the source's {@code readAhead} option, the system property
  * {@code lanesift.readAhead=false}) or the window is one block, the next block is read and
  * converted on a second thread while the caller decodes the current one ({@link ReadAhead}); the
- * blocks, and any error reading them, are the same either way.
+ * blocks, and any error reading them, are the same either way. With the {@code differences} option
+ * ({@link LegDifferences}) each chunk's channels are converted into scratch arrays first and the
+ * outputs (pairs of legs as differences, other channels as they are) are written from them.
  */
 final class RawReader implements CaptureReader {
     /** Bytes read at a time (whole frames, at least one). */
