@@ -13,8 +13,8 @@ import java.util.Collections;
 import java.util.List;
 import java.util.Locale;
 import java.util.Random;
-import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.extension.ExtendWith;
 import org.junit.jupiter.api.io.TempDir;
 import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.BitSets;
@@ -29,14 +29,8 @@ import org.lanesift.plugin.PortSpec;
  * the two legs' samples bit for bit, invalid exactly where a leg is or where the difference is not
  * finite, and every other channel is the plain reader's.
  */
+@ExtendWith(PoisonAsBefore.class)
 class LegDifferencesTest {
-    private final boolean poisonBefore = BlockArrays.poison;
-
-    @AfterEach
-    void poisonAsBefore() {
-        BlockArrays.poison = poisonBefore;
-    }
-
     @Test
     void seededCorpusGivesTheLegsDifferenceBitForBit(@TempDir Path dir) throws Exception {
         Random rnd = new Random(0x5eed_d1ffL);

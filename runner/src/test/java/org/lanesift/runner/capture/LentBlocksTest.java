@@ -14,8 +14,8 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
-import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.extension.ExtendWith;
 import org.junit.jupiter.api.io.TempDir;
 import org.lanesift.chain.Chain;
 import org.lanesift.data.AnalogBlock;
@@ -30,14 +30,8 @@ import org.lanesift.testkit.BlockKeeper;
  * {@code readsLentBlocks}, never to a tap or host sink, and a receiver that declared it but keeps
  * a block sees that block poisoned: the test mode that makes such a stage fail its own tests.
  */
+@ExtendWith(PoisonAsBefore.class)
 class LentBlocksTest {
-    private final boolean poisonBefore = BlockArrays.poison;
-
-    @AfterEach
-    void poisonAsBefore() {
-        BlockArrays.poison = poisonBefore;
-    }
-
     private static Path rawCapture(Path dir, int frames) throws Exception {
         Path bin = dir.resolve("legs.raw");
         ByteBuffer bb = ByteBuffer.allocate(frames * 2 * 4).order(ByteOrder.LITTLE_ENDIAN);

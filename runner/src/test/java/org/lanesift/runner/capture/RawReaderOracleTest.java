@@ -12,8 +12,8 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.Random;
-import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.extension.ExtendWith;
 import org.junit.jupiter.api.io.TempDir;
 import org.lanesift.data.AnalogBlock;
 
@@ -25,18 +25,12 @@ import org.lanesift.data.AnalogBlock;
  * overflowing float codes, block sizes from 1 frame up, read chunks of odd sizes, windows, and
  * with its blocks lent (and poisoned after use) or not, read ahead on a second thread or not.
  */
+@ExtendWith(PoisonAsBefore.class)
 class RawReaderOracleTest {
     private static final RawSidecar.Format[] FORMATS = RawSidecar.Format.values();
 
     /** Read chunk sizes: the reader's own, and odd ones that cut frames and tiles anywhere. */
     private static final int[] CHUNK_BYTES = {RawReader.READ_BYTES, 1, 37, 1000, 4099, 65_531};
-
-    private final boolean poisonBefore = BlockArrays.poison;
-
-    @AfterEach
-    void poisonAsBefore() {
-        BlockArrays.poison = poisonBefore;
-    }
 
     @Test
     void seededCorpusMatchesThePerSampleReader(@TempDir Path dir) throws Exception {

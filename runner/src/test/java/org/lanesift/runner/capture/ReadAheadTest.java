@@ -21,6 +21,7 @@ import java.util.Map;
 import java.util.SplittableRandom;
 import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.extension.ExtendWith;
 import org.junit.jupiter.api.io.TempDir;
 import org.lanesift.chain.Chain;
 import org.lanesift.data.AnalogBlock;
@@ -41,12 +42,10 @@ import org.lanesift.plugin.StageContext;
  * call, as the same exception; the thread runs only where it can help (more than one block, not
  * turned off) and is gone once the reader is closed, also after a stage downstream failed.
  */
+@ExtendWith(PoisonAsBefore.class)
 class ReadAheadTest {
-    private final boolean poisonBefore = BlockArrays.poison;
-
     @AfterEach
     void restore() {
-        BlockArrays.poison = poisonBefore;
         System.clearProperty("lanesift.readAhead");
     }
 
