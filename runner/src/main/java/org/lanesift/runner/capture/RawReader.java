@@ -9,8 +9,10 @@ import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.nio.file.StandardOpenOption;
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
 import org.lanesift.data.AnalogBlock;
+import org.lanesift.data.BitSets;
 import org.lanesift.data.DataKind;
 import org.lanesift.plugin.PortSpec;
 import org.lanesift.time.Femtos;
@@ -220,8 +222,8 @@ final class RawReader implements CaptureReader {
                 converter.convert(bb, got, v, row, masks);
             } else {
                 // the chunk's channels into scratch arrays (still in cache), then the outputs from them
-                java.util.Arrays.fill(legMasks, null);
-                int words = org.lanesift.data.BitSets.words(got);
+                Arrays.fill(legMasks, null);
+                int words = BitSets.words(got);
                 converter.convert(bb, got, legs, 0, k -> legMasks[k] != null ? legMasks[k] : (legMasks[k] = new long[words]));
                 outs.fill(legs, legMasks, got, v, row, masks);
             }
