@@ -1,13 +1,20 @@
 #!/usr/bin/env python3
 """The script a practitioner would write for the capture of ddr-capture.py: read the interleaved
-float32 legs, take the difference of each pair, find the clock's zero crossings (both edges),
+legs (float32 volts, or codes scaled by the sidecar's gain and offset), take the difference of each pair, find the clock's zero crossings (both edges),
 interpolate each crossing's time and each data lane's value there, and count bits and ones.
 Prints "bits N ones M". Usage: ddr-numpy.py FILE"""
+import json
 import sys
 
 import numpy as np
 
-x = np.fromfile(sys.argv[1], dtype="<f4").reshape(-1, 8)
+side = json.load(open(sys.argv[1] + ".json"))
+kind = {"float32le": "<f4", "int16le": "<i2", "uint8": "u1"}[side["format"]]
+x = np.fromfile(sys.argv[1], dtype=kind).reshape(-1, 8)
+if kind != "<f4":                                 # volts = code * gain + offset, per channel
+    gain = np.array([c.get("gain", 1.0) for c in side["channels"]], dtype=np.float32)
+    offset = np.array([c.get("offset", 0.0) for c in side["channels"]], dtype=np.float32)
+    x = x * gain + offset
 clk = x[:, 0] - x[:, 1]
 hi = clk > 0
 i = np.flatnonzero(hi[1:] != hi[:-1])            # crossing between sample i and i + 1

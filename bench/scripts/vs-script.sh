@@ -24,6 +24,8 @@
 #        are then counted from the .bits files, not timed).
 #        CHAIN=diff runs ddr-diff-chain.json instead: the raw source takes each pair's difference
 #        straight from the frames (docs/capture-raw.md, "Leg differences"; no common-mode figures).
+#        FORMAT=int16le or FORMAT=uint8 writes the capture as a digitizer's codes with gain and offset
+#        in the sidecar (ddr-capture.py) instead of float32 volts; both sides then scale the codes.
 set -euo pipefail
 cd "$(dirname "$0")/../.."
 ROOT="$PWD"
@@ -37,10 +39,11 @@ if [ -n "${CAP:-}" ]; then
   [ -f "$CAP" ] && [ -f "$CAP.json" ] || { echo "$CAP or its sidecar $CAP.json is missing" >&2; exit 2; }
   ln -s "$(realpath "$CAP")" "$WORK/ddr.bin"; ln -s "$(realpath "$CAP.json")" "$WORK/ddr.bin.json"
   CAP="$WORK/ddr.bin"
-  SIZE=$(( $(stat -L -c %s "$CAP") / 32 ))
+  SIZE=$(python3 -c 'import json, os, sys; f = json.load(open(sys.argv[1] + ".json"))["format"]
+print(os.stat(sys.argv[1]).st_size // (8 * {"float32le": 4, "int16le": 2, "uint8": 1}[f]))' "$CAP")
 else
   CAP="$WORK/ddr.bin"
-  python3 "$ROOT/bench/scripts/ddr-capture.py" "$CAP" "$SIZE"
+  python3 "$ROOT/bench/scripts/ddr-capture.py" "$CAP" "$SIZE" "${FORMAT:-float32le}"
 fi
 OUTPUT_ARGS=()
 [ "${OUTPUTS:-}" = binary ] && OUTPUT_ARGS=(--outputs binary,artifacts,annotations)

@@ -14,6 +14,8 @@ import java.util.List;
 import java.util.stream.Stream;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.ValueSource;
 import org.lanesift.runner.ChainRun;
 import org.lanesift.testkit.ExternalTool;
 
@@ -76,6 +78,42 @@ class VsScriptTest {
             Path other = dir.resolve("diff-out").resolve(csv.getFileName());
             assertEquals(-1L, Files.mismatch(csv, other), csv.getFileName() + " with leg differences");
         }
+    }
+
+    /**
+     * The same capture written as a digitizer's codes (ddr-capture.py FORMAT: int16le at 0.1 mV a
+     * code, uint8 at 2.5 mV a code, gain and offset in the sidecar): numpy scales the codes itself
+     * and counts the same bits and ones as the chain, whose raw source converts them in bulk.
+     */
+    @ParameterizedTest
+    @ValueSource(strings = {"int16le", "uint8"})
+    void digitizerCodesGiveTheSameCountsAsNumpy(String format, @TempDir Path dir) throws Exception {
+        Path python = ExternalTool.requirePythonModule("numpy", "python3-numpy");
+        ExternalTool.run(dir, Duration.ofMinutes(2), List.of(python.toString(),
+                SCRIPTS.resolve("ddr-capture.py").toAbsolutePath().toString(), "ddr.bin", "100000", format));
+        assertTrue(Files.readString(dir.resolve("ddr.bin.json")).contains("\"format\": \"" + format + "\""));
+        assertEquals(8L * 100_000 * (format.equals("uint8") ? 1 : 2), Files.size(dir.resolve("ddr.bin")));
+        String numpy = ExternalTool.run(dir, Duration.ofMinutes(2), List.of(python.toString(),
+                SCRIPTS.resolve("ddr-numpy.py").toAbsolutePath().toString(), "ddr.bin")).trim();
+        Files.copy(SCRIPTS.resolve("ddr-chain.json"), dir.resolve("chain.json"));
+        ByteArrayOutputStream o = new ByteArrayOutputStream();
+        int code = ChainRun.of(dir.resolve("chain.json")).out(dir.resolve("out")).quiet(true)
+                .run(new PrintStream(o, true, StandardCharsets.UTF_8), new PrintStream(o, true, StandardCharsets.UTF_8));
+        assertEquals(0, code, o.toString(StandardCharsets.UTF_8));
+        long bits = 0;
+        long ones = 0;
+        try (Stream<Path> s = Files.list(dir.resolve("out"))) {
+            for (Path csv : s.filter(f -> f.getFileName().toString().matches("rx-bits\\d-bits\\.csv")).toList()) {
+                List<String> lines = Files.readAllLines(csv, StandardCharsets.UTF_8);
+                for (String line : lines.subList(1, lines.size())) {
+                    bits++;
+                    ones += line.split(",", 3)[1].equals("1") ? 1 : 0;
+                }
+            }
+        }
+        // Source: numpy (Debian python3-numpy) through ddr-numpy.py, the outside reference for the counts
+        assertEquals(numpy, "bits " + bits + " ones " + ones, format);
+        assertEquals(3 * 2 * 4000, bits, format);
     }
 
     @Test
