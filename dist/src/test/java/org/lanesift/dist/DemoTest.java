@@ -96,17 +96,27 @@ class DemoTest {
     @Test
     void benchRunsTheWholeChainOnOneFrame() {
         ByteArrayOutputStream out = new ByteArrayOutputStream();
-        int code = Main.run(new String[] {"bench", "--samples", "528000"}, new PrintStream(out, true, StandardCharsets.UTF_8),
+        int code = Main.run(new String[] {"bench", "--samples", "528000", "--rounds", "3"}, new PrintStream(out, true, StandardCharsets.UTF_8),
                 new PrintStream(new ByteArrayOutputStream(), true, StandardCharsets.UTF_8));
         String o = out.toString(StandardCharsets.UTF_8);
         assertEquals(0, code, o);
-        assertTrue(o.contains("whole chain:") && o.contains("ratio to the sequential read"), o);
-        // the CPU-time figures follow the wall-clock ones, with a ratio of their own
-        java.util.regex.Matcher m = java.util.regex.Pattern
-                .compile("whole chain \\(process CPU time, all threads\\): [0-9.]+ M samples/s per channel, ratio to the sequential read ([0-9.]+);")
-                .matcher(o);
-        assertTrue(m.find(), o);
-        double cpuRatio = Double.parseDouble(m.group(1));
-        assertTrue(cpuRatio > 0 && Double.isFinite(cpuRatio), o);
+        // one line per round, each with the read, the whole chain and the ratio within the round
+        for (int r = 1; r <= 3; r++) {
+            assertTrue(java.util.regex.Pattern.compile("(?m)^  round " + r + ": read [0-9.]+ s, whole chain [0-9.]+ s, ratio [0-9.]+")
+                    .matcher(o).find(), o);
+        }
+        assertTrue(!o.contains("round 4:"), o);
+        // the headline ratio is the median of the rounds' ratios, with their least and largest; the CPU-time figures
+        // follow the wall-clock ones, with a ratio of their own
+        for (String head : new String[] {"whole chain:", "whole chain \\(process CPU time, all threads\\):"}) {
+            java.util.regex.Matcher m = java.util.regex.Pattern.compile(head + " [0-9.]+ M samples/s per channel, ratio to the sequential"
+                    + " read ([0-9.]+)(?: \\(target 0.5\\))?, the median of ([0-9]+) rounds \\(min ([0-9.]+), max ([0-9.]+)\\)").matcher(o);
+            assertTrue(m.find(), head + "\n" + o);
+            double median = Double.parseDouble(m.group(1));
+            double min = Double.parseDouble(m.group(3));
+            double max = Double.parseDouble(m.group(4));
+            assertTrue(median > 0 && Double.isFinite(median) && min <= median && median <= max, o);
+            assertTrue(Integer.parseInt(m.group(2)) >= 1, o);
+        }
     }
 }

@@ -14,6 +14,7 @@ import org.lanesift.data.AnalogBlock;
 import org.lanesift.data.DataKind;
 import org.lanesift.examples.demo.Impairments;
 import org.lanesift.examples.demo.PixelLinkScene;
+import org.lanesift.kit.SampleStats;
 import org.lanesift.plugin.OptionException;
 import org.lanesift.plugin.OptionSpec;
 import org.lanesift.plugin.PluginRegistry;
@@ -26,7 +27,10 @@ import org.lanesift.plugin.ToolSpec;
  * {@code lanesift bench}: the whole analog chain of the demo's pixel link (leg deskew, four
  * differential receivers, lane deskew, 7:1 sampling, pixel decoding) over an in-memory capture of
  * eight channels, against a plain sequential read of the same arrays in the same run. Prefixes of
- * the chain are timed too, so the differences show where the time goes. Each figure is measured
+ * the chain are timed too, so the differences show where the time goes. The headline ratio comes
+ * from rounds of the read followed by the whole chain, the ratio taken within each round and the
+ * median of the rounds reported with their least and largest (a shared machine's speed drifts
+ * between rounds; within one round it hits both sides alike). Each figure is measured
  * twice: wall-clock seconds (the headline) and the CPU seconds of the whole process over the same
  * span (every thread: the chain's, any second thread a stage uses, and also the JIT compiler and
  * the garbage collector), so the CPU figure shows what the run cost the machine rather than only
@@ -56,6 +60,8 @@ public final class BenchTool implements Tool {
                     "sequential read of the same arrays measured in the same run, and the peak heap.")
             .option(OptionSpec.integer("samples", 50_000_000L, TILE_SAMPLES, 400_000_000L,
                     "samples per channel, rounded to whole frames"), "N")
+            .option(OptionSpec.integer("rounds", 5L, 1, 99,
+                    "rounds of the plain read followed by the whole chain; the headline ratio is the median of the rounds' ratios"), "N")
             .footer("Memory: 8 x N x 4 bytes for the capture (1.6 GB at the default); the launcher's JVM default heap suffices.")
             .build();
 
@@ -69,6 +75,7 @@ public final class BenchTool implements Tool {
         PrintStream out = console.out();
         PrintStream err = console.err();
         long samples = args.integer("samples", 50_000_000L);
+        int rounds = (int) args.integer("rounds", 5L);
         int tileSamples = TILE_SAMPLES;
         long need = samples * 8 * 4;
         long max = Runtime.getRuntime().maxMemory();
@@ -142,6 +149,7 @@ public final class BenchTool implements Tool {
         double readRate = n / read;
         out.printf(Locale.ROOT, "capture: 8 channels x %d samples (%d frames of the demo pixel link, %.1f ms at 2.5 GS/s), blocks of %d%n",
                 n, frames, n * periodFs / 1e12, block);
+        out.println("prefixes of the chain, the fastest of two runs each, against the fastest of three plain reads:");
         out.printf(Locale.ROOT, "  %-34s %8.3f s  %9.1f M samples/s per channel%n", "plain sequential read", read, readRate / 1e6);
         for (int i = 0; i < 4; i++) {
             double rate = n / secs[i];
@@ -156,8 +164,31 @@ public final class BenchTool implements Tool {
             out.printf(Locale.ROOT, "  %-34s %6.1f %%%s%n", names[i].replace("+ ", ""), 100 * share,
                     share < 0 ? "  (negative: within the run-to-run noise of this machine)" : "");
         }
-        out.printf(Locale.ROOT, "whole chain: %.1f M samples/s per channel, ratio to the sequential read %.4f (target 0.5); "
-                + "the capture itself holds %d MB of the heap%n", n / secs[3] / 1e6, (n / secs[3]) / readRate, need >> 20);
+        // the headline: the read and the whole chain one after the other in each round, the ratio taken within the
+        // round, so that a change in the machine's speed between rounds hits both sides alike
+        out.printf(Locale.ROOT, "%d rounds, each the plain read then the whole chain (the ratio is taken within the round):%n", rounds);
+        SampleStats ratio = new SampleStats("", rounds);
+        SampleStats cpuRatio = new SampleStats("", rounds);
+        SampleStats chain = new SampleStats("s", rounds);
+        SampleStats chainCpu = new SampleStats("s", rounds);
+        for (int r = 1; r <= rounds; r++) {
+            repeated(() -> sequentialRead(data, t), t);
+            double rd = t[0];
+            double rdCpu = t[1];
+            repeated(() -> run(reg, data, blocks, 4, t), t);
+            ratio.add(rd / t[0]);
+            chain.add(t[0]);
+            out.printf(Locale.ROOT, "  round %d: read %.3f s, whole chain %.3f s, ratio %.4f", r, rd, t[0], rd / t[0]);
+            if (cpuTimeAvailable() && rdCpu > 0 && t[1] > 0) {
+                cpuRatio.add(rdCpu / t[1]);
+                chainCpu.add(t[1]);
+                out.printf(Locale.ROOT, "; process CPU %.3f s and %.3f s, ratio %.4f", rdCpu, t[1], rdCpu / t[1]);
+            }
+            out.println();
+        }
+        out.printf(Locale.ROOT, "whole chain: %.1f M samples/s per channel, ratio to the sequential read %.4f (target 0.5), the median"
+                + " of %d rounds (min %.4f, max %.4f); the capture itself holds %d MB of the heap%n", n / chain.percentile(50) / 1e6,
+                ratio.percentile(50), rounds, ratio.min(), ratio.max(), need >> 20);
         if (cpuTimeAvailable()) {
             // CPU seconds of this process, every thread: what other processes on a shared machine take does not count
             double readCpuRate = n / readCpu;
@@ -171,8 +202,9 @@ public final class BenchTool implements Tool {
                         rate / 1e6, rate / readCpuRate);
             }
             out.printf(Locale.ROOT, "whole chain (process CPU time, all threads): %.1f M samples/s per channel, ratio to the"
-                    + " sequential read %.4f; wall time / CPU time %.2f (above 1: the run waited for a core; below 1: it used"
-                    + " more than one)%n", n / cpuSecs[3] / 1e6, (n / cpuSecs[3]) / readCpuRate, secs[3] / cpuSecs[3]);
+                    + " sequential read %.4f, the median of %d rounds (min %.4f, max %.4f); wall time / CPU time %.2f (above 1: the"
+                    + " run waited for a core; below 1: it used more than one)%n", n / chainCpu.percentile(50) / 1e6,
+                    cpuRatio.percentile(50), cpuRatio.count(), cpuRatio.min(), cpuRatio.max(), chain.percentile(50) / chainCpu.percentile(50));
         }
         return 0;
     }
