@@ -1,7 +1,8 @@
 #!/usr/bin/env python3
 """The script a practitioner would write for the capture of ddr-capture.py: read the interleaved
-legs (float32 volts, or codes scaled by the sidecar's gain and offset), take the difference of each pair, find the clock's zero crossings (both edges),
-interpolate each crossing's time and each data lane's value there, and count bits and ones.
+legs (float32 volts, or codes scaled by the sidecar's gain and offset), take the difference of
+each pair, find the clock's zero crossings (both edges), interpolate each crossing's time and
+each data lane's value there, and count bits and ones.
 Prints "bits N ones M". Usage: ddr-numpy.py FILE"""
 import json
 import sys
