@@ -55,7 +55,8 @@ def main():
     path, n = sys.argv[1], int(sys.argv[2])
     fmt = sys.argv[3] if len(sys.argv) > 3 else "float32le"
     if fmt not in FORMATS:
-        sys.exit("ddr-capture.py: FORMAT '%s' is not one of %s" % (fmt, ", ".join(FORMATS)))
+        print("ddr-capture.py: FORMAT '%s' is not one of %s" % (fmt, ", ".join(FORMATS)), file=sys.stderr)
+        sys.exit(2)
     dtype, gain, offset, lo, hi = FORMATS[fmt]
     rnd = np.random.default_rng(20261203)
     uis = int(n / RATE_HZ / UI_S) + 4
