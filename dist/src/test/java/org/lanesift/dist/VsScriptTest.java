@@ -32,35 +32,12 @@ class VsScriptTest {
     @Test
     void numpyAndTheChainCountTheSameBitsAndOnes(@TempDir Path dir) throws Exception {
         Path python = ExternalTool.requirePythonModule("numpy", "python3-numpy");
-        int samples = 100_000; // per channel: 3.2 MB, 40 us, 20,000 clock edges
-        ExternalTool.run(dir, Duration.ofMinutes(2), List.of(python.toString(),
-                SCRIPTS.resolve("ddr-capture.py").toAbsolutePath().toString(), "ddr.bin", Integer.toString(samples)));
-        String numpy = ExternalTool.run(dir, Duration.ofMinutes(2), List.of(python.toString(),
-                SCRIPTS.resolve("ddr-numpy.py").toAbsolutePath().toString(), "ddr.bin")).trim();
-
-        Files.copy(SCRIPTS.resolve("ddr-chain.json"), dir.resolve("chain.json"));
-        ByteArrayOutputStream o = new ByteArrayOutputStream();
-        int code = ChainRun.of(dir.resolve("chain.json")).out(dir.resolve("out")).quiet(true)
-                .run(new PrintStream(o, true, StandardCharsets.UTF_8), new PrintStream(o, true, StandardCharsets.UTF_8));
-        assertEquals(0, code, o.toString(StandardCharsets.UTF_8));
-        long bits = 0;
-        long ones = 0;
-        List<Path> csvs;
-        try (Stream<Path> s = Files.list(dir.resolve("out"))) {
-            csvs = s.filter(f -> f.getFileName().toString().matches("rx-bits\\d-bits\\.csv")).sorted().toList();
-        }
-        assertEquals(3, csvs.size(), csvs::toString);
-        for (Path csv : csvs) {
-            try (BufferedReader r = Files.newBufferedReader(csv, StandardCharsets.UTF_8)) {
-                assertEquals("time (s),bit,clock_edge,slot,edge,setup (s),hold (s),flagged", r.readLine());
-                for (String line = r.readLine(); line != null; line = r.readLine()) {
-                    String bit = line.split(",", 3)[1];
-                    assertTrue(bit.equals("0") || bit.equals("1"), line);
-                    bits++;
-                    ones += bit.equals("1") ? 1 : 0;
-                }
-            }
-        }
+        // per channel: 3.2 MB, 40 us, 20,000 clock edges
+        String numpy = captureAndNumpy(dir, python, "float32le");
+        List<Path> csvs = runChain(dir, "ddr-chain.json", "out");
+        long[] counts = bitsAndOnes(csvs);
+        long bits = counts[0];
+        long ones = counts[1];
         // Source: numpy (Debian python3-numpy) through ddr-numpy.py, the outside reference for the counts
         assertEquals(numpy, "bits " + bits + " ones " + ones);
         // both edges of a 100 MHz clock over 40 us, 3 lanes; random data about half ones
@@ -69,14 +46,10 @@ class VsScriptTest {
 
         // the same chain with the raw source taking each pair's difference (ddr-diff-chain.json):
         // every bit file is the same, byte for byte
-        Files.copy(SCRIPTS.resolve("ddr-diff-chain.json"), dir.resolve("diff-chain.json"));
-        o.reset();
-        code = ChainRun.of(dir.resolve("diff-chain.json")).out(dir.resolve("diff-out")).quiet(true)
-                .run(new PrintStream(o, true, StandardCharsets.UTF_8), new PrintStream(o, true, StandardCharsets.UTF_8));
-        assertEquals(0, code, o.toString(StandardCharsets.UTF_8));
-        for (Path csv : csvs) {
-            Path other = dir.resolve("diff-out").resolve(csv.getFileName());
-            assertEquals(-1L, Files.mismatch(csv, other), csv.getFileName() + " with leg differences");
+        List<Path> diff = runChain(dir, "ddr-diff-chain.json", "diff-out");
+        for (int i = 0; i < csvs.size(); i++) {
+            assertEquals(csvs.get(i).getFileName(), diff.get(i).getFileName());
+            assertEquals(-1L, Files.mismatch(csvs.get(i), diff.get(i)), csvs.get(i).getFileName() + " with leg differences");
         }
     }
 
@@ -89,31 +62,58 @@ class VsScriptTest {
     @ValueSource(strings = {"int16le", "uint8"})
     void digitizerCodesGiveTheSameCountsAsNumpy(String format, @TempDir Path dir) throws Exception {
         Path python = ExternalTool.requirePythonModule("numpy", "python3-numpy");
-        ExternalTool.run(dir, Duration.ofMinutes(2), List.of(python.toString(),
-                SCRIPTS.resolve("ddr-capture.py").toAbsolutePath().toString(), "ddr.bin", "100000", format));
+        String numpy = captureAndNumpy(dir, python, format);
         assertTrue(Files.readString(dir.resolve("ddr.bin.json")).contains("\"format\": \"" + format + "\""));
-        assertEquals(8L * 100_000 * (format.equals("uint8") ? 1 : 2), Files.size(dir.resolve("ddr.bin")));
-        String numpy = ExternalTool.run(dir, Duration.ofMinutes(2), List.of(python.toString(),
+        assertEquals(8L * SAMPLES * (format.equals("uint8") ? 1 : 2), Files.size(dir.resolve("ddr.bin")));
+        long[] counts = bitsAndOnes(runChain(dir, "ddr-chain.json", "out"));
+        // Source: numpy (Debian python3-numpy) through ddr-numpy.py, the outside reference for the counts
+        assertEquals(numpy, "bits " + counts[0] + " ones " + counts[1], format);
+        assertEquals(3 * 2 * 4000, counts[0], format);
+    }
+
+    /** Samples per channel of the test captures. */
+    static final int SAMPLES = 100_000;
+
+    /** Writes ddr.bin (and its sidecar) in {@code dir} in the given format and returns what the numpy script prints for it. */
+    private static String captureAndNumpy(Path dir, Path python, String format) throws Exception {
+        ExternalTool.run(dir, Duration.ofMinutes(2), List.of(python.toString(),
+                SCRIPTS.resolve("ddr-capture.py").toAbsolutePath().toString(), "ddr.bin", Integer.toString(SAMPLES), format));
+        return ExternalTool.run(dir, Duration.ofMinutes(2), List.of(python.toString(),
                 SCRIPTS.resolve("ddr-numpy.py").toAbsolutePath().toString(), "ddr.bin")).trim();
-        Files.copy(SCRIPTS.resolve("ddr-chain.json"), dir.resolve("chain.json"));
+    }
+
+    /** Runs a chain file of bench/scripts (copied beside ddr.bin) into {@code dir/out}; returns its three bits CSVs, sorted. */
+    private static List<Path> runChain(Path dir, String chain, String out) throws Exception {
+        Path file = dir.resolve(chain);
+        Files.copy(SCRIPTS.resolve(chain), file);
         ByteArrayOutputStream o = new ByteArrayOutputStream();
-        int code = ChainRun.of(dir.resolve("chain.json")).out(dir.resolve("out")).quiet(true)
+        int code = ChainRun.of(file).out(dir.resolve(out)).quiet(true)
                 .run(new PrintStream(o, true, StandardCharsets.UTF_8), new PrintStream(o, true, StandardCharsets.UTF_8));
         assertEquals(0, code, o.toString(StandardCharsets.UTF_8));
+        List<Path> csvs;
+        try (Stream<Path> s = Files.list(dir.resolve(out))) {
+            csvs = s.filter(f -> f.getFileName().toString().matches("rx-bits\\d-bits\\.csv")).sorted().toList();
+        }
+        assertEquals(3, csvs.size(), csvs::toString);
+        return csvs;
+    }
+
+    /** Bits and ones in bits CSVs, {bits, ones}; every row's bit must be 0 or 1. */
+    private static long[] bitsAndOnes(List<Path> csvs) throws Exception {
         long bits = 0;
         long ones = 0;
-        try (Stream<Path> s = Files.list(dir.resolve("out"))) {
-            for (Path csv : s.filter(f -> f.getFileName().toString().matches("rx-bits\\d-bits\\.csv")).toList()) {
-                List<String> lines = Files.readAllLines(csv, StandardCharsets.UTF_8);
-                for (String line : lines.subList(1, lines.size())) {
+        for (Path csv : csvs) {
+            try (BufferedReader r = Files.newBufferedReader(csv, StandardCharsets.UTF_8)) {
+                assertEquals("time (s),bit,clock_edge,slot,edge,setup (s),hold (s),flagged", r.readLine());
+                for (String line = r.readLine(); line != null; line = r.readLine()) {
+                    String bit = line.split(",", 3)[1];
+                    assertTrue(bit.equals("0") || bit.equals("1"), line);
                     bits++;
-                    ones += line.split(",", 3)[1].equals("1") ? 1 : 0;
+                    ones += bit.equals("1") ? 1 : 0;
                 }
             }
         }
-        // Source: numpy (Debian python3-numpy) through ddr-numpy.py, the outside reference for the counts
-        assertEquals(numpy, "bits " + bits + " ones " + ones, format);
-        assertEquals(3 * 2 * 4000, bits, format);
+        return new long[] {bits, ones};
     }
 
     @Test
