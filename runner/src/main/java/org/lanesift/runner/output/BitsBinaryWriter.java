@@ -14,11 +14,6 @@ import org.lanesift.data.BitStream;
  * i of the chunk in bit (i mod 64) of word (i / 64), unused bits zero.
  */
 final class BitsBinaryWriter implements Closeable {
-    /**
-     * This writer never reads the per-bit margins (the form has no place for them), so a run that
-     * writes bits only in this form lets the producer leave them out ({@link RunOutputs#readsBitMargins}).
-     */
-    static final boolean READS_MARGINS = false;
     /** The file's magic, eight ASCII characters. */
     static final String MAGIC = "LSFTBITS";
     /** Bytes of a chunk's header. */

@@ -13,11 +13,6 @@ import org.lanesift.data.BitStream;
  * straight into the file's byte buffer ({@link Ascii}).
  */
 final class BitsCsvWriter implements Closeable {
-    /**
-     * This writer reads the per-bit margins (its setup and hold columns): the run asks the producer
-     * for them ({@link RunOutputs#readsBitMargins}).
-     */
-    static final boolean READS_MARGINS = true;
     /** The longest row: three times, two longs and the fixed text. */
     private static final int MAX_ROW = 5 * Ascii.MAX_NUMBER + 16;
     private static final byte[] RISE = {',', 'r', 'i', 's', 'e', ','};

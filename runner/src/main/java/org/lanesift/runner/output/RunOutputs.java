@@ -260,11 +260,10 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
     }
 
     /**
-     * Whether a bit-stream output is written by a writer that reads its per-bit margins: the bits CSV
-     * does ({@link BitsCsvWriter#READS_MARGINS}, its setup and hold columns), the packed binary
-     * form does not ({@link BitsBinaryWriter#READS_MARGINS}). When no selected form reads them, the
-     * producer may send the bits without margins (host-api {@code StageContext.wantsBitMargins}),
-     * and the files are the same.
+     * Whether a bit-stream output is written by a writer that reads its per-bit margins: only the
+     * bits CSV does (its setup and hold columns); the packed binary form has no place for them
+     * (docs/bits-binary.md). When no selected form reads them, the producer may send the bits
+     * without margins (host-api {@code StageContext.wantsBitMargins}), and the files are the same.
      *
      * @param instance instance id
      * @param output   output port name
@@ -272,9 +271,7 @@ public final class RunOutputs implements BlockSink, AnnotationSink, Closeable {
      */
     @Override
     public boolean readsBitMargins(String instance, String output) {
-        return selection.wants(instance + "." + output)
-                && (selection.writes(OutputSelection.Form.CSV) && BitsCsvWriter.READS_MARGINS
-                        || selection.writes(OutputSelection.Form.BINARY) && BitsBinaryWriter.READS_MARGINS);
+        return selection.wants(instance + "." + output) && selection.writes(OutputSelection.Form.CSV);
     }
 
     /**
