@@ -11,14 +11,15 @@
 # (ONLY: a regular expression; only the sets whose whole name matches run)
 set -euo pipefail
 cd "$(dirname "$0")/../.."
+source bench/scripts/python.sh
 ROUNDS="${1:-3}"
 SIZE="${2:-30000000}"
 WORK="${3:-$(mktemp -d /tmp/lanesift-cold.XXXXXX)}"
 mkdir -p "$WORK"
-python3 -c 'import numpy' 2>/dev/null || { echo "numpy is missing (ddr-capture.py): install Debian's python3-numpy" >&2; exit 2; }
+need_numpy
 JAR=bench/target/benchmarks.jar
 [ -f "$JAR" ] || mvn -o -q -pl bench -am package -DskipTests
-[ -f "$WORK/ddr.bin" ] || python3 bench/scripts/ddr-capture.py "$WORK/ddr.bin" "$SIZE"
+[ -f "$WORK/ddr.bin" ] || "$PY" bench/scripts/ddr-capture.py "$WORK/ddr.bin" "$SIZE"
 # an application class-data archive of the classes one pass loads
 [ -f "$WORK/app.jsa" ] || java -XX:ArchiveClassesAtExit="$WORK/app.jsa" -cp "$JAR" org.lanesift.bench.ColdPass "$WORK/ddr.bin" >/dev/null 2>&1
 SETS=(
@@ -46,7 +47,7 @@ for round in $(seq 1 "$ROUNDS"); do
 done
 echo "load after: $(cut -d' ' -f1-3 /proc/loadavg)"
 [ "$(awk '{print $6, $7, $8, $9}' "$WORK/results.txt" | sort -u | wc -l)" = 1 ] || { echo "the passes disagree on the bits" >&2; exit 1; }
-python3 - "$WORK/results.txt" "${SETS[0]%%|*}" <<'PY'
+"$PY" - "$WORK/results.txt" "${SETS[0]%%|*}" <<'PY'
 import sys, statistics as st
 rows = [l.split() for l in open(sys.argv[1])]
 base = sys.argv[2]

@@ -7,6 +7,7 @@
 # Usage: bench/scripts/ddr-outputs.sh [MEGABYTES] [ROUNDS] [WORKDIR]    (needs python3-numpy)
 set -euo pipefail
 cd "$(dirname "$0")/../.."
+source bench/scripts/python.sh
 MB="${1:-320}"
 ROUNDS="${2:-3}"
 WORK="${3:-$(mktemp -d /tmp/lanesift-ddr-outputs.XXXXXX)}"
@@ -14,7 +15,7 @@ mkdir -p "$WORK"
 ./lanesift --version >/dev/null            # builds dist/target/lanesift.jar if needed
 JAR=dist/target/lanesift.jar
 if [ ! -f "$WORK/ddr.bin" ]; then
-  python3 bench/scripts/ddr-capture.py "$WORK/ddr.bin" $(( MB * 1000000 / 32 ))   # the one DDR capture generator
+  "$PY" bench/scripts/ddr-capture.py "$WORK/ddr.bin" $(( MB * 1000000 / 32 ))   # the one DDR capture generator
 fi
 cp bench/scripts/ddr-chain.json "$WORK/ddr.json"                                   # the one DDR chain; reads ddr.bin beside it
 timed() { # name, extra args... ; prints wall seconds, and keeps the CPU seconds (user + system) in $WORK/$name.cpu

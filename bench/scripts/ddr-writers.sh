@@ -9,6 +9,7 @@
 # Usage: bench/scripts/ddr-writers.sh [MEGABYTES] [ROUNDS] [OTHER_JAR] [WORKDIR]
 set -euo pipefail
 cd "$(dirname "$0")/../.."
+source bench/scripts/python.sh
 MB="${1:-400}"
 ROUNDS="${2:-3}"
 OTHER="${3:-}"
@@ -18,7 +19,7 @@ mkdir -p "$WORK"
 JAR="$WORK/under-test.jar"
 cp dist/target/lanesift.jar "$JAR"
 if [ ! -f "$WORK/ddr.bin" ]; then
-  python3 bench/scripts/ddr-capture.py "$WORK/ddr.bin" $(( MB * 1000000 / 32 ))   # the one DDR capture generator
+  "$PY" bench/scripts/ddr-capture.py "$WORK/ddr.bin" $(( MB * 1000000 / 32 ))   # the one DDR capture generator
 fi
 cp bench/scripts/ddr-chain.json "$WORK/ddr.json"                                   # the one DDR chain; reads ddr.bin beside it
 decode() { # jar out [extra java options]

@@ -11,14 +11,15 @@
 #        KEEP=1 keeps the work folder.
 set -euo pipefail
 cd "$(dirname "$0")/../.."
+source bench/scripts/python.sh
 ROOT="$PWD"
 N="${1:-10}"
 SIZE="${2:-100000}"
-python3 -c 'import numpy' 2>/dev/null || { echo "numpy is missing (ddr-capture.py): install Debian's python3-numpy" >&2; exit 2; }
+need_numpy
 WORK="$(mktemp -d /tmp/lanesift-fixed.XXXXXX)"
 [ "${KEEP:-0}" = 1 ] || trap 'rm -rf "$WORK"' EXIT
 ./lanesift --version >/dev/null            # builds dist/target/lanesift.jar if needed
-python3 bench/scripts/ddr-capture.py "$WORK/ddr.bin" "$SIZE"
+"$PY" bench/scripts/ddr-capture.py "$WORK/ddr.bin" "$SIZE"
 cp bench/scripts/ddr-chain.json "$WORK/ddr-chain.json"
 echo "load before: $(cut -d' ' -f1-3 /proc/loadavg)"
 : > "$WORK/results.txt"
@@ -38,7 +39,7 @@ echo "load after: $(cut -d' ' -f1-3 /proc/loadavg)"
 for i in $(seq 2 "$N"); do
   cmp -s "$WORK/digests-1.txt" "$WORK/digests-$i.txt" || { echo "run $i wrote different files than run 1" >&2; exit 1; }
 done
-python3 - "$WORK/results.txt" <<'PY'
+"$PY" - "$WORK/results.txt" <<'PY'
 import sys, statistics as st
 rows = [l.split() for l in open(sys.argv[1])]
 print("%-10s %-22s %-22s" % ("command", "wall s min/med/max", "cpu s min/med/max"))

@@ -12,6 +12,7 @@
 # Usage: [JAR=benchmarks.jar] bench/scripts/jit-compiles.sh CAPTURE [RUNS (default 2)] [TOP (default 12)]
 set -euo pipefail
 cd "$(dirname "$0")/../.."
+source bench/scripts/python.sh
 CAP="${1:?usage: bench/scripts/jit-compiles.sh CAPTURE [RUNS] [TOP]}"
 RUNS="${2:-2}"
 TOP="${3:-12}"
@@ -24,7 +25,7 @@ for r in $(seq 1 "$RUNS"); do
   echo "run $r, load $(cut -d' ' -f1 /proc/loadavg):"
   java -XX:+UseSerialGC -XX:+UnlockDiagnosticVMOptions -XX:+LogCompilation -XX:LogFile="$LOG" \
     -cp "$JAR" org.lanesift.bench.ColdPass "$CAP" --passes 1 | sed 's/^/  /'
-  python3 - "$LOG" "$TOP" <<'PY'
+  "$PY" - "$LOG" "$TOP" <<'PY'
 import re, sys
 from collections import defaultdict
 text = open(sys.argv[1], errors="replace").read()

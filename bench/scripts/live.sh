@@ -19,6 +19,7 @@
 # JMH_JAVA_OPTS=-Djmh.ignoreLock=true runs anyway (both runs then slow each other).
 set -euo pipefail
 cd "$(dirname "$0")/../.."
+source bench/scripts/python.sh
 MB="${1:-512}"
 RUNS="${2:-3}"
 JAR=bench/target/benchmarks.jar
@@ -38,7 +39,7 @@ for i in $(seq 1 "$RUNS"); do
   done
 done
 echo "load after: $(cut -d' ' -f1-3 /proc/loadavg)"
-python3 - "$LOG" "$RUNS" <<'PY'
+"$PY" - "$LOG" "$RUNS" <<'PY'
 import re, statistics, sys
 lines = open(sys.argv[1]).read().splitlines()
 def rows(kind, field):

@@ -16,6 +16,7 @@
 # Usage: bench/scripts/sift-vs-chains.sh [RUNS (default 3)] [ROWS]
 set -euo pipefail
 cd "$(dirname "$0")/../.."
+source bench/scripts/python.sh
 RUNS="${1:-3}"
 ROWS="${2:-700000}"
 WORK="$(mktemp -d /tmp/lanesift-sift-bench.XXXXXX)"
@@ -23,7 +24,7 @@ trap 'rm -rf "$WORK"' EXIT
 ./lanesift --version >/dev/null            # builds dist/target/lanesift.jar if needed
 ./lanesift demo --out "$WORK/demo" --quiet >/dev/null || true   # only its captures are used
 CAP="$WORK/scope.csv"
-python3 - "$WORK/demo/captures/pixel-link.bin" "$CAP" "$ROWS" <<'EOF'
+"$PY" - "$WORK/demo/captures/pixel-link.bin" "$CAP" "$ROWS" <<'EOF'
 import array, json, sys
 raw, out, rows = sys.argv[1], sys.argv[2], int(sys.argv[3])
 side = json.load(open(raw + ".json"))
@@ -46,7 +47,7 @@ echo "capture: $CAP, $(stat -c %s "$CAP") bytes" >&2
 
 # the chain sift writes, once, to cut the three chains from
 ./lanesift sift --capture "$CAP" --out "$WORK/ref" --quiet
-python3 - "$WORK/ref/chains/sift.json" "$WORK/chains" "$CAP" <<'EOF'
+"$PY" - "$WORK/ref/chains/sift.json" "$WORK/chains" "$CAP" <<'EOF'
 import json, os, sys
 src, outdir, cap = sys.argv[1], sys.argv[2], sys.argv[3]
 os.makedirs(outdir, exist_ok=True)
@@ -85,7 +86,7 @@ write("3-decode", set(nodes) - set(est))
 EOF
 
 merge() {   # merge every OUT/<prefix>*-skew.json into one table
-  python3 - "$@" <<'EOF'
+  "$PY" - "$@" <<'EOF'
 import glob, json, sys
 outdir, prefix, target = sys.argv[1], sys.argv[2], sys.argv[3]
 ch = {}

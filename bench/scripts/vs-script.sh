@@ -28,10 +28,12 @@
 #        in the sidecar (ddr-capture.py) instead of float32 volts; both sides then scale the codes.
 set -euo pipefail
 cd "$(dirname "$0")/../.."
+source bench/scripts/python.sh
 ROOT="$PWD"
 RUNS="${1:-5}"
 SIZE="${2:-30000000}"
-python3 -c 'import numpy' 2>/dev/null || { echo "numpy is missing: install Debian's python3-numpy" >&2; exit 2; }
+need_numpy
+echo "numpy $("$PY" -c 'import numpy; print(numpy.__version__)') under $PY" >&2
 WORK="$(mktemp -d /tmp/lanesift-vs-script.XXXXXX)"
 [ "${KEEP:-0}" = 1 ] || trap 'rm -rf "$WORK"' EXIT
 ./lanesift --version >/dev/null            # builds dist/target/lanesift.jar if needed
@@ -39,11 +41,11 @@ if [ -n "${CAP:-}" ]; then
   [ -f "$CAP" ] && [ -f "$CAP.json" ] || { echo "$CAP or its sidecar $CAP.json is missing" >&2; exit 2; }
   ln -s "$(realpath "$CAP")" "$WORK/ddr.bin"; ln -s "$(realpath "$CAP.json")" "$WORK/ddr.bin.json"
   CAP="$WORK/ddr.bin"
-  SIZE=$(python3 -c 'import json, os, sys; f = json.load(open(sys.argv[1] + ".json"))["format"]
+  SIZE=$("$PY" -c 'import json, os, sys; f = json.load(open(sys.argv[1] + ".json"))["format"]
 print(os.stat(sys.argv[1]).st_size // (8 * {"float32le": 4, "int16le": 2, "uint8": 1}[f]))' "$CAP")
 else
   CAP="$WORK/ddr.bin"
-  python3 "$ROOT/bench/scripts/ddr-capture.py" "$CAP" "$SIZE" "${FORMAT:-float32le}"
+  "$PY" "$ROOT/bench/scripts/ddr-capture.py" "$CAP" "$SIZE" "${FORMAT:-float32le}"
 fi
 OUTPUT_ARGS=()
 [ "${OUTPUTS:-}" = binary ] && OUTPUT_ARGS=(--outputs binary,artifacts,annotations)
@@ -60,13 +62,13 @@ NPC=()
 LSC=()
 for r in $(seq 1 "$RUNS"); do
   t0=$(now)
-  np_counts=$(/usr/bin/env time -f '%U %S' -o "$WORK/np-cpu.txt" python3 "$ROOT/bench/scripts/ddr-numpy.py" "$CAP")
+  np_counts=$(/usr/bin/env time -f '%U %S' -o "$WORK/np-cpu.txt" "$PY" "$ROOT/bench/scripts/ddr-numpy.py" "$CAP")
   t1=$(now)
   rm -rf "$WORK/out"
   /usr/bin/env time -f '%U %S' -o "$WORK/ls-cpu.txt" "$ROOT/lanesift" run "$WORK/chain.json" --out "$WORK/out" --quiet "${OUTPUT_ARGS[@]}"
   t2=$(now)
   if [ "${OUTPUTS:-}" = binary ]; then
-    ls_counts=$(python3 - "$WORK"/out/rx-bits*.bits <<'PY'
+    ls_counts=$("$PY" - "$WORK"/out/rx-bits*.bits <<'PY'
 import sys
 import numpy as np
 n = o = 0

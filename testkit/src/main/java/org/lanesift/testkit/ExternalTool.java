@@ -38,10 +38,17 @@ public final class ExternalTool {
         return p;
     }
 
+    /** Debian's Python: Debian's {@code python3-*} packages install their modules for it alone. */
+    static final Path DEBIAN_PYTHON = Path.of("/usr/bin/python3");
+
     /**
-     * Returns the path of {@code python3} once it has imported a module, or skips (fails under CI)
-     * when either is missing: the same rule as {@link #require}, for a reference library such as
-     * numpy (Debian package {@code python3-numpy}).
+     * Returns the path of Debian's {@code python3} ({@code /usr/bin/python3}; {@code python3} from
+     * the PATH where there is none) once it has imported a module, or skips (fails under CI) when
+     * either is missing: the same rule as {@link #require}, for a reference library such as numpy
+     * (Debian package {@code python3-numpy}). A {@code python3} earlier on the PATH (a version
+     * manager's) is not taken: it may carry another build of the module, or none, and the checks
+     * name Debian's package as their reference. The bench scripts choose the same way
+     * (bench/scripts/python.sh).
      *
      * @param module  the module to import, such as {@code numpy}
      * @param debian  the Debian package that provides it, for the message
@@ -50,7 +57,7 @@ public final class ExternalTool {
      * @throws InterruptedException if the test is interrupted while waiting
      */
     public static Path requirePythonModule(String module, String debian) throws IOException, InterruptedException {
-        Path python = require("python3");
+        Path python = Files.isExecutable(DEBIAN_PYTHON) ? DEBIAN_PYTHON : require("python3");
         Process p = new ProcessBuilder(python.toString(), "-c", "import " + module)
                 .redirectInput(ProcessBuilder.Redirect.from(new java.io.File("/dev/null")))
                 .redirectErrorStream(true).redirectOutput(ProcessBuilder.Redirect.DISCARD).start();
@@ -59,7 +66,7 @@ public final class ExternalTool {
             p.destroyForcibly();
         }
         if (!ended || p.exitValue() != 0) {
-            String msg = "python3 cannot import " + module + " (Debian package " + debian + ")";
+            String msg = python + " cannot import " + module + " (Debian package " + debian + ")";
             if (underCi()) {
                 throw new AssertionError(msg + " and CI=true, so this check must run");
             }

@@ -107,6 +107,23 @@ class TestkitTest {
     }
 
     @Test
+    void pythonModulesAreLookedUpInDebiansPython() throws Exception {
+        // a module every Python has; where Debian's interpreter exists it is the one returned, even
+        // when another python3 (a version manager's) comes first on the PATH
+        java.nio.file.Path python = ExternalTool.requirePythonModule("json", "python3");
+        if (java.nio.file.Files.isExecutable(ExternalTool.DEBIAN_PYTHON)) {
+            assertEquals(ExternalTool.DEBIAN_PYTHON, python);
+        } else {
+            assertEquals(ExternalTool.find("python3"), python);
+        }
+        // a missing module skips the check, or fails it under CI
+        Throwable missing = assertThrows(Throwable.class,
+                () -> ExternalTool.requirePythonModule("no_such_module_lanesift_test", "none"));
+        assertEquals(ExternalTool.underCi() ? "AssertionError" : "TestAbortedException", missing.getClass().getSimpleName());
+        assertTrue(missing.getMessage().startsWith(python + " cannot import no_such_module_lanesift_test"), missing.getMessage());
+    }
+
+    @Test
     void jsonScanFindsMembersInDocumentOrder() {
         var root = JsonScan.parse("t", "{\"a\": {\"lane\": 0, \"min\": 5}, \"b\": [{\"lane\": 1, \"min\": 7, \"ok\": true}], \"n\": null}");
         assertEquals(5, JsonScan.number(root, "min"));
