@@ -15,6 +15,7 @@ mkdir -p "$WORK"
 ./lanesift --version >/dev/null            # builds dist/target/lanesift.jar if needed
 JAR=dist/target/lanesift.jar
 if [ ! -f "$WORK/ddr.bin" ]; then
+  need_numpy
   "$PY" bench/scripts/ddr-capture.py "$WORK/ddr.bin" $(( MB * 1000000 / 32 ))   # the one DDR capture generator
 fi
 cp bench/scripts/ddr-chain.json "$WORK/ddr.json"                                   # the one DDR chain; reads ddr.bin beside it

@@ -19,6 +19,7 @@ mkdir -p "$WORK"
 JAR="$WORK/under-test.jar"
 cp dist/target/lanesift.jar "$JAR"
 if [ ! -f "$WORK/ddr.bin" ]; then
+  need_numpy
   "$PY" bench/scripts/ddr-capture.py "$WORK/ddr.bin" $(( MB * 1000000 / 32 ))   # the one DDR capture generator
 fi
 cp bench/scripts/ddr-chain.json "$WORK/ddr.json"                                   # the one DDR chain; reads ddr.bin beside it
