@@ -40,7 +40,8 @@ import org.lanesift.plugin.PluginRegistry;
  * frames (its {@code differences} option) and the four receivers are in mode
  * {@code differential}; {@code --chain CHAIN} names another chain file whose bits outputs go to the
  * host. The chain files are found relative to the working directory (the scripts run from the
- * repository's root).
+ * repository's root). Arguments, a chain file or a capture it cannot use: one line on the error
+ * stream saying what and why, and exit code 2.
  *
  * <p>Usage: {@code java [options] -cp bench/target/benchmarks.jar org.lanesift.bench.ColdPass FILE [--no-lend] [--margins]
  * [--differences | --chain CHAIN] [--passes N]}
@@ -58,7 +59,7 @@ public final class ColdPass {
      */
     public static void main(String[] args) {
         if (args.length == 0) {
-            throw new IllegalArgumentException(USAGE);
+            usage("no capture given");
         }
         Path file = Path.of(args[0]);
         boolean lend = true;
@@ -75,9 +76,10 @@ public final class ColdPass {
             } else if (args[i].equals("--chain") && i + 1 < args.length) {
                 chain = Path.of(args[++i]);
             } else if (args[i].equals("--passes") && i + 1 < args.length) {
-                passes = Integer.parseInt(args[++i]);
+                String n = args[++i];
+                passes = n.matches("[1-9][0-9]{0,5}") ? Integer.parseInt(n) : usage("--passes '" + n + "' is not a whole number from 1");
             } else {
-                throw new IllegalArgumentException("unknown argument " + args[i] + "; " + USAGE);
+                usage("unknown argument '" + args[i] + "'");
             }
         }
         ChainSpec spec;
@@ -88,9 +90,22 @@ public final class ColdPass {
             System.exit(2);
             return;
         }
-        for (int p = 0; p < passes; p++) {
-            pass(spec, lend, margins);
+        try {
+            for (int p = 0; p < passes; p++) {
+                pass(spec, lend, margins);
+            }
+        } catch (org.lanesift.plugin.InputException e) {
+            // a capture or sidecar that cannot be read as the chain asks: bad input, not a bug
+            System.err.println("ColdPass: " + e.getMessage());
+            System.exit(2);
         }
+    }
+
+    /** Prints what was wrong with the arguments and what was expected, then exits with 2 (bad input). */
+    private static int usage(String what) {
+        System.err.println("ColdPass: " + what + "; " + USAGE);
+        System.exit(2);
+        return 0;
     }
 
     /** The chain with every {@code raw} source reading {@code file} instead of the file its chain file names. */
